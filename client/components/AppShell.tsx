@@ -1,0 +1,54 @@
+import { NavLink, Outlet, Link } from 'react-router-dom';
+import { paths } from '../paths';
+import { Wordmark } from './Wordmark';
+
+const areas = [
+  { to: paths.archive(), label: 'Archive' },
+  { to: paths.search(), label: 'Find' },
+  { to: paths.trials(), label: 'Trials' },
+  { to: paths.baths(), label: 'Baths' },
+  { to: paths.series(), label: 'Series' },
+  { to: paths.reference(), label: 'Reference' },
+];
+
+export function AppShell() {
+  return (
+    <div className="min-h-screen flex flex-col">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 bg-sheet px-3 py-2 rounded">
+        Skip to content
+      </a>
+      <header className="border-b border-rule bg-sheet">
+        <div className="mx-auto max-w-7xl px-4 md:px-6 h-14 flex items-center gap-6">
+          <Link to={paths.home()} aria-label="Tinctoria home">
+            <Wordmark compact />
+          </Link>
+          <nav aria-label="Main" className="flex-1 overflow-x-auto">
+            <ul className="flex gap-1 text-sm">
+              {areas.map((a) => (
+                <li key={a.to}>
+                  <NavLink
+                    to={a.to}
+                    className={({ isActive }) =>
+                      `block px-3 py-1.5 rounded-md whitespace-nowrap ${isActive ? 'bg-neutral-light text-ink font-medium' : 'text-ink-soft hover:text-ink hover:bg-paper'}`
+                    }
+                  >
+                    {a.label}
+                  </NavLink>
+                </li>
+              ))}
+            </ul>
+          </nav>
+          <div id="user-menu-slot" className="text-sm" />
+        </div>
+      </header>
+      <main id="main" className="flex-1 mx-auto w-full max-w-7xl px-4 md:px-6 py-6">
+        <Outlet />
+      </main>
+      <footer className="border-t border-rule text-xs text-ink-faint">
+        <div className="mx-auto max-w-7xl px-4 md:px-6 py-3">
+          Tinctoria — archive and reproduction notebook for dyed and printed textiles. Colour values are CIELAB (D65); image palettes are estimates, instrument readings outrank them.
+        </div>
+      </footer>
+    </div>
+  );
+}

@@ -1,0 +1,16 @@
+import type { ReactNode } from 'react';
+
+export function Page({ title, lead, actions, children }: { title: string; lead?: ReactNode; actions?: ReactNode; children?: ReactNode }) {
+  return (
+    <section>
+      <div className="flex flex-wrap items-end justify-between gap-4 mb-6">
+        <div>
+          <h1 className="text-3xl font-semibold text-ink">{title}</h1>
+          {lead ? <p className="mt-1 text-ink-soft max-w-3xl">{lead}</p> : null}
+        </div>
+        {actions ? <div className="flex gap-2">{actions}</div> : null}
+      </div>
+      {children}
+    </section>
+  );
+}

@@ -1,0 +1,22 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start against a throwaway data directory and
+# database, then every suite (unit, API, browser). Leaves no process running.
+set -euo pipefail
+source "$(dirname "$0")/lib.sh"
+export DATA_DIR=$(realpath -m "${TEST_DATA_DIR:-$ROOT/.data/test}")
+export NODE_ENV=test
+if [ -z "${DATABASE_URL:-}" ]; then bash scripts/db.sh stop 2>/dev/null || true; rm -rf "$DATA_DIR"; fi
+mkdir -p "$DATA_DIR"
+export DB_NAME=tinctoria_test
+ensure_deps
+ensure_chromium
+ensure_db
+trap stop_db EXIT
+trap 'exit 130' INT TERM
+say "building the client"
+node_modules/.bin/vite build --logLevel warn >&2
+set +e
+node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json="$DATA_DIR/vitest-report.json" "$@"
+status=$?
+set -e
+exit $status

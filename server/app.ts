@@ -1,0 +1,46 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express from 'express';
+import helmet from 'helmet';
+import { ROOT_DIR, env, publicUrl } from './env.ts';
+import { apiNotFound, errorHandler } from './http/errors.ts';
+import { originCheck } from './http/origin-check.ts';
+import { apiRouter } from './routes/index.ts';
+
+export type AppOptions = { clientDir?: string };
+
+/** The Express app, without listening: tests drive it with supertest. */
+export function createApp(options: AppOptions = {}) {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          upgradeInsecureRequests: null,
+        },
+      },
+      strictTransportSecurity: env.NODE_ENV === 'production',
+    }),
+  );
+  app.use(express.json({ limit: '1mb' }));
+  app.use(originCheck([new URL(publicUrl).origin, 'http://127.0.0.1:5173', 'http://localhost:5173']));
+
+  app.use('/api', apiRouter());
+  app.use('/api', apiNotFound);
+
+  app.use('/fonts', express.static(path.join(ROOT_DIR, 'fonts'), { immutable: true, maxAge: '30d' }));
+  const clientDir = options.clientDir ?? path.join(ROOT_DIR, 'dist/client');
+  if (existsSync(clientDir)) {
+    app.use(express.static(clientDir, { index: false }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,47 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { z } from 'zod';
+
+// Configuration is parsed once, here; nothing else reads process.env.
+export const ROOT_DIR = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+const schema = z
+  .object({
+    NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+    PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+    HOST: z.string().default('127.0.0.1'),
+    PUBLIC_URL: z.string().url().optional(),
+    DATABASE_URL: z
+      .string({ error: 'DATABASE_URL is required (npm start sets it after starting the project MariaDB)' })
+      .regex(/^(mariadb|mysql):\/\//, 'DATABASE_URL must start with mariadb:// or mysql://'),
+    DATA_DIR: z.string().default(path.join(ROOT_DIR, '.data')),
+    UPLOADS_DIR: z.string().default(path.join(ROOT_DIR, 'uploads')),
+    SESSION_SECRET: z.string().min(16).optional(),
+    SMTP_URL: z.string().url().optional(),
+    MAIL_FROM: z.string().default('Tinctoria <no-reply@tinctoria.local>'),
+    APP_DEV: z.enum(['0', '1']).default('0'),
+    SEED: z.enum(['demo', 'reference', 'none']).default('demo'),
+    DB_LOG: z.enum(['0', '1']).default('0'),
+  })
+  .superRefine((v, ctx) => {
+    if (v.NODE_ENV === 'production' && !v.SESSION_SECRET) {
+      ctx.addIssue({ code: 'custom', path: ['SESSION_SECRET'], message: 'SESSION_SECRET (16+ characters) is required in production' });
+    }
+  });
+
+export type Env = z.infer<typeof schema>;
+
+function load(): Env {
+  const parsed = schema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.') || '(env)'}: ${i.message}`);
+    console.error(`Tinctoria cannot start: invalid configuration\n${lines.join('\n')}`);
+    process.exit(1);
+  }
+  return parsed.data;
+}
+
+export const env = load();
+export const isProduction = env.NODE_ENV === 'production';
+export const isTest = env.NODE_ENV === 'test';
+export const publicUrl = env.PUBLIC_URL ?? `http://127.0.0.1:${env.PORT}`;

@@ -1,0 +1,58 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+
+/** An error with an HTTP status and a stable code, rendered as { error: { code, message, details? } }. */
+export class HttpError extends Error {
+  constructor(
+    public status: number,
+    public code: string,
+    message: string,
+    public details?: unknown,
+  ) {
+    super(message);
+  }
+}
+
+export const badRequest = (message: string, details?: unknown) => new HttpError(400, 'invalid_input', message, details);
+export const unauthorized = (message = 'Sign in to continue.') => new HttpError(401, 'unauthenticated', message);
+export const forbidden = (message = 'Your role does not allow this.') => new HttpError(403, 'forbidden', message);
+export const notFound = (what = 'Resource') => new HttpError(404, 'not_found', `${what} not found.`);
+export const conflict = (message: string, details?: unknown) => new HttpError(409, 'conflict', message, details);
+export const unprocessable = (message: string, details?: unknown) => new HttpError(422, 'unprocessable', message, details);
+
+/** Per-field details from a zod error: { "field.path": ["message", …] }. */
+export function zodDetails(err: ZodError) {
+  const fields: Record<string, string[]> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.join('.') || '_';
+    (fields[key] ??= []).push(issue.message);
+  }
+  return { fields };
+}
+
+export const apiNotFound: RequestHandler = (req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`));
+
+export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
+  if (err instanceof ZodError) {
+    res.status(400).json({ error: { code: 'invalid_input', message: 'Some fields are not valid.', details: zodDetails(err) } });
+    return;
+  }
+  if (err instanceof HttpError) {
+    res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details === undefined ? {} : { details: err.details }) } });
+    return;
+  }
+  if (err?.type === 'entity.parse.failed') {
+    res.status(400).json({ error: { code: 'invalid_json', message: 'The request body is not valid JSON.' } });
+    return;
+  }
+  if (err?.type === 'entity.too.large') {
+    res.status(413).json({ error: { code: 'too_large', message: 'The request body is too large.' } });
+    return;
+  }
+  if (err?.name === 'SequelizeUniqueConstraintError') {
+    res.status(409).json({ error: { code: 'conflict', message: 'A record with that value already exists.', details: err.fields } });
+    return;
+  }
+  console.error(err);
+  res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server.' } });
+};

@@ -1,0 +1,15 @@
+import { Router } from 'express';
+import { sequelize } from '../../models/index.ts';
+import { APP_VERSION } from '../../version.ts';
+
+export const healthRouter = Router();
+
+healthRouter.get('/', async (_req, res) => {
+  let db: 'up' | 'down' = 'up';
+  try {
+    await sequelize.authenticate();
+  } catch {
+    db = 'down';
+  }
+  res.status(db === 'up' ? 200 : 503).json({ ok: db === 'up', db, version: APP_VERSION });
+});

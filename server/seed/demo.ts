@@ -1,0 +1,199 @@
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import type { Transaction } from 'sequelize';
+import { ROOT_DIR } from '../env.ts';
+import { BatchEvent, Chemical, Dyestuff, MordantBatch, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
+import type { Ingredient, Operation } from '../models/trials.ts';
+import { makePiece, makeUser, type PieceInput } from './factories.ts';
+
+/** The invented demo scenario: the Calderwick museum and the Weldfold dye studio. */
+export const DEMO_PASSWORD = 'tinctoria-demo';
+export const DEMO_ACCOUNTS = [
+  { email: 'admin@demo.test', name: 'Jory Fenmarch', role: 'admin' },
+  { email: 'curator@demo.test', name: 'Ysolde Marrin', role: 'curator' },
+  { email: 'researcher@demo.test', name: 'Dr Anselm Threave', role: 'researcher' },
+  { email: 'dyer@demo.test', name: 'Bryony Kettlewick', role: 'dyer' },
+] as const;
+
+const chem = async (name: string, t: Transaction) => (await Chemical.findOne({ where: { name }, transaction: t, rejectOnEmpty: true }));
+const dye = async (name: string, t: Transaction) => (await Dyestuff.findOne({ where: { name }, transaction: t, rejectOnEmpty: true }));
+
+type StepSpec = { operation: Operation; ingredients: Array<[kind: 'dyestuff' | 'chemical', name: string, amount: number, basis: Ingredient['basis']]>; liquorRatio?: number; temperatureC?: number; minutes?: number; ph?: number; paste?: Record<string, unknown>; notes?: string; batchCode?: string; batchVolumeMl?: number };
+
+export async function seedDemo(t: Transaction) {
+  const users: Record<string, User> = {};
+  for (const a of DEMO_ACCOUNTS) users[a.role] = await makeUser({ ...a, password: DEMO_PASSWORD }, t);
+  const tamsin = await makeUser({ email: 'tamsin.orrery@weldfold.test', name: 'Tamsin Orrery', role: 'dyer', password: DEMO_PASSWORD }, t);
+
+  const pieceRows = JSON.parse(readFileSync(path.join(ROOT_DIR, 'server/seed/data/demo-pieces.json'), 'utf8')) as PieceInput[];
+  const pieces: Record<string, Piece> = {};
+  for (const p of pieceRows) pieces[p.accessionNumber!] = await makePiece({ ...p, createdById: users.curator.id }, t);
+
+  const alum = await chem('potash alum', t);
+  const alAcetate = await chem('aluminium acetate (basic)', t);
+  const caAcetate = await chem('calcium acetate', t);
+  const leadAcetate = await chem('lead(II) acetate (sugar of lead)', t);
+  const dichromate = await chem('potassium dichromate', t);
+  const ferrous = await chem('iron(II) sulfate (copperas)', t);
+  const feAcetate = await chem('iron(II) acetate', t);
+  const chalk = await chem('calcium carbonate (chalk)', t);
+  const guar = await chem('guar gum', t);
+  const tannin = await chem('tannic acid', t);
+  const soda = await chem('sodium carbonate (soda ash)', t);
+  const madder = await dye('madder', t);
+  const weld = await dye('weld', t);
+  const indigo = await dye('indigo', t);
+  const byName = new Map([alum, alAcetate, caAcetate, leadAcetate, dichromate, ferrous, feAcetate, chalk, guar, tannin, soda].map((c) => [c.name, c]));
+  const dyes = new Map([madder, weld, indigo].map((d) => [d.name, d]));
+
+  // Batches: MB-07 is the reused aluminium acetate stock, topped up twice, then exhausted.
+  const mb07 = await MordantBatch.create(
+    {
+      code: 'MB-07', kind: 'mordant-bath', name: 'Aluminium acetate stock (alum + calcium acetate)',
+      ingredients: [
+        { kind: 'chemical', refId: alum.id, name: alum.name, grams: 100 },
+        { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 50 },
+      ],
+      volumeMl: 2000, thickenerGPerL: null, ph: 4.2, madeOn: '2024-03-04', madeById: users.dyer.id, checkBy: '2024-06-04',
+      status: 'exhausted', parentId: null, uptakePerUse: 0.12, notes: 'Strong red liquor replacement; settled overnight, clear liquor decanted.',
+    },
+    { transaction: t },
+  );
+  const mb08 = await MordantBatch.create(
+    {
+      code: 'MB-08', kind: 'print-paste', name: 'Weak aluminium acetate print paste for pinks (1:3 of MB-07)',
+      ingredients: [{ kind: 'chemical', refId: guar.id, name: guar.name, grams: 10 }],
+      volumeMl: 500, thickenerGPerL: 20, ph: 4.4, madeOn: '2024-03-11', madeById: users.dyer.id, checkBy: '2024-03-18',
+      status: 'active', parentId: mb07.id, uptakePerUse: 0.08, notes: 'Child dilution of MB-07, thickened with guar.',
+    },
+    { transaction: t },
+  );
+  const mb09 = await MordantBatch.create(
+    {
+      code: 'MB-09', kind: 'mordant-bath', name: 'Iron acetate (vinegar and iron) for purples',
+      ingredients: [{ kind: 'chemical', refId: ferrous.id, name: ferrous.name, grams: 20 }],
+      volumeMl: 1000, thickenerGPerL: null, ph: 4.8, madeOn: '2024-03-11', madeById: users.dyer.id, checkBy: '2024-05-11',
+      status: 'active', parentId: null, uptakePerUse: 0.1, notes: null,
+    },
+    { transaction: t },
+  );
+  const at = (d: string) => new Date(`${d}T10:00:00Z`);
+  const ev = (batchId: number, type: BatchEvent['type'], d: string, extra: Partial<BatchEvent['_creationAttributes']> = {}) =>
+    BatchEvent.create({ batchId, type, occurredAt: at(d), createdById: users.dyer.id, volumeMl: null, fibreMassG: null, trialId: null, additions: null, ph: null, result: null, route: null, ruleFollowed: null, notes: null, ...extra }, { transaction: t });
+
+  // Trials
+  let seq = 0;
+  const trials: Trial[] = [];
+  const makeTrial = async (attrs: Partial<Trial['_creationAttributes']>, steps: StepSpec[], subs: Array<Partial<Substitution['_creationAttributes']>> = []) => {
+    seq += 1;
+    const trial = await Trial.create(
+      { code: `T-2024-${String(seq).padStart(3, '0')}`, pieceId: null, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null,
+        dyerId: users.dyer.id, fibre: 'cotton', weave: 'plain (tabby)', gsm: 140, dryMassG: 250, fastness: null, notes: null, startedOn: '2024-03-12', ...attrs },
+      { transaction: t },
+    );
+    const batchIds: Record<string, number> = { 'MB-07': mb07.id, 'MB-08': mb08.id, 'MB-09': mb09.id };
+    for (const [i, s] of steps.entries()) {
+      const step = await RecipeStep.create(
+        {
+          trialId: trial.id, position: i + 1, operation: s.operation,
+          ingredients: s.ingredients.map(([kind, name, amount, basis]) => {
+            const ref = kind === 'dyestuff' ? dyes.get(name)! : byName.get(name)!;
+            return { kind, refId: ref.id, name, amount, basis };
+          }),
+          liquorRatio: s.liquorRatio ?? null, temperatureC: s.temperatureC ?? null, minutes: s.minutes ?? null, ph: s.ph ?? null,
+          paste: s.paste ?? null, batchId: s.batchCode ? batchIds[s.batchCode] : null, batchVolumeMl: s.batchVolumeMl ?? null, notes: s.notes ?? null,
+        },
+        { transaction: t },
+      );
+      for (const sub of subs.filter((x) => x.stepId === i + 1)) {
+        await Substitution.create({ trialId: trial.id, historicalChemicalId: null, historicalPractice: null, historicalAmountG: null, modernChemicalId: null, modernPractice: null, modernAmountG: null, reason: 'toxicity', notes: null, ...sub, stepId: step.id }, { transaction: t });
+      }
+    }
+    trials.push(trial);
+    return trial;
+  };
+
+  const p12 = pieces['1931.4.12'];
+  const t1 = await makeTrial(
+    { pieceId: p12.id, status: 'finished', notes: 'Strong red from the aluminium acetate stock in place of the lead-based red liquor.', fastness: { light: { grade: '5', scale: 'blue-wool' }, washing: { grade: '4-5' }, rubbingDry: { grade: '4' }, rubbingWet: { grade: '3-4' } } },
+    [
+      { operation: 'scour', ingredients: [['chemical', 'sodium carbonate (soda ash)', 5, 'owf']], liquorRatio: 40, temperatureC: 95, minutes: 60 },
+      { operation: 'tannin', ingredients: [['chemical', 'tannic acid', 8, 'owf']], liquorRatio: 30, temperatureC: 50, minutes: 60 },
+      { operation: 'print-paste', ingredients: [['chemical', 'aluminium acetate (basic)', 40, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: 300, stockGPerL: 75 }, batchCode: 'MB-07', batchVolumeMl: 160, notes: 'Print with the pheasant block; dry 48 h.' },
+      { operation: 'after-treatment', ingredients: [['chemical', 'calcium carbonate (chalk)', 2, 'g/L']], liquorRatio: 30, temperatureC: 40, minutes: 15, notes: 'Fix and clear the thickener.' },
+      { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 60, 'owf'], ['chemical', 'calcium carbonate (chalk)', 1, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 90 },
+    ],
+    [{ stepId: 3, historicalChemicalId: leadAcetate.id, historicalAmountG: 18, modernChemicalId: alAcetate.id, modernAmountG: 12, modernPractice: 'aluminium acetate made from alum and calcium acetate', reason: 'toxicity', notes: 'Historical red liquor was alum with sugar of lead.' }],
+  );
+  await makeTrial(
+    { pieceId: p12.id, status: 'finished', notes: 'Pink from the weak dilution MB-08.' },
+    [
+      { operation: 'print-paste', ingredients: [['chemical', 'aluminium acetate (basic)', 13, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: 200, stockGPerL: 75 }, batchCode: 'MB-08', batchVolumeMl: 120 },
+      { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 60, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 90 },
+    ],
+    [{ stepId: 1, historicalChemicalId: leadAcetate.id, historicalAmountG: 6, modernChemicalId: alAcetate.id, modernAmountG: 3.5, reason: 'toxicity' }],
+  );
+  await makeTrial(
+    { pieceId: p12.id, status: 'finished', notes: 'Purple from the iron mordant.' },
+    [
+      { operation: 'print-paste', ingredients: [['chemical', 'iron(II) sulfate (copperas)', 10, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: 150 }, batchCode: 'MB-09', batchVolumeMl: 100 },
+      { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 60, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 90 },
+    ],
+  );
+  await makeTrial(
+    { pieceId: p12.id, status: 'in-progress', notes: 'Green: weld over pencilled indigo.' },
+    [
+      { operation: 'mordant-bath', ingredients: [['chemical', 'potash alum', 15, 'owf']], liquorRatio: 30, temperatureC: 45, minutes: 60 },
+      { operation: 'overdye', ingredients: [['dyestuff', 'weld', 50, 'owf'], ['chemical', 'calcium carbonate (chalk)', 2, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 60 },
+    ],
+  );
+  const p96 = pieces['1996.9.6'];
+  await makeTrial(
+    { pieceId: p96.id, status: 'finished', dryMassG: 120, notes: 'Yellow over indigo without chromium: alum and a weld overdye.' },
+    [
+      { operation: 'vat', ingredients: [['dyestuff', 'indigo', 2, 'owf']], liquorRatio: 50, temperatureC: 50, minutes: 20, notes: 'Fructose-lime vat; two dips.' },
+      { operation: 'mordant-bath', ingredients: [['chemical', 'potash alum', 15, 'owf']], liquorRatio: 30, temperatureC: 45, minutes: 60 },
+      { operation: 'overdye', ingredients: [['dyestuff', 'weld', 60, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 60 },
+    ],
+    [{ stepId: 2, historicalChemicalId: dichromate.id, historicalAmountG: 3.6, modernChemicalId: alum.id, modernAmountG: 18, modernPractice: 'alum mordant with a weld overdye', reason: 'toxicity' }],
+  );
+  for (const [i, note] of ['Indigo depth test, 4 dips.', 'Resist paste trial (clay and gum).'].entries()) {
+    await makeTrial({ pieceId: pieces['1958.22.4'].id, status: i ? 'planned' : 'finished', dryMassG: 100, notes: note }, [
+      { operation: 'vat', ingredients: [['dyestuff', 'indigo', 3, 'owf']], liquorRatio: 50, temperatureC: 50, minutes: 20 },
+    ]);
+  }
+
+  // Events on the batches, in order; MB-07 topped up twice, then exhausted.
+  await ev(mb07.id, 'use', '2024-03-12', { volumeMl: 160, fibreMassG: 250, trialId: t1.id });
+  await ev(mb07.id, 'use', '2024-03-14', { volumeMl: 400, fibreMassG: 250 });
+  await ev(mb07.id, 'top-up', '2024-03-15', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 35 }, { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 17 }], volumeMl: 400 });
+  await ev(mb07.id, 'use', '2024-03-20', { volumeMl: 600, fibreMassG: 300 });
+  await ev(mb07.id, 'test-strip', '2024-03-21', { result: 'strip dyed a full red: bath still strong' });
+  await ev(mb07.id, 'top-up', '2024-03-22', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 30 }], volumeMl: 300 });
+  await ev(mb07.id, 'use', '2024-04-02', { volumeMl: 900, fibreMassG: 400 });
+  await ev(mb07.id, 'use', '2024-04-10', { volumeMl: 940, fibreMassG: 350 });
+  await ev(mb07.id, 'test-strip', '2024-04-11', { result: 'strip pale pink only: bath exhausted' });
+  await ev(mb08.id, 'use', '2024-03-12', { volumeMl: 120, fibreMassG: 250, trialId: trials[1].id });
+  await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, fibreMassG: 250, trialId: trials[2].id });
+
+  // The workshop: six shades per participant from shared baths.
+  const levels = { mordant: ['strong Al', 'weak Al', 'Fe', 'Al+Fe'], tannin: ['0', '10'] };
+  const cells = [
+    { mordant: 'strong Al', tannin: '10' }, { mordant: 'weak Al', tannin: '10' }, { mordant: 'Fe', tannin: '10' },
+    { mordant: 'Al+Fe', tannin: '10' }, { mordant: 'strong Al', tannin: '0' }, { mordant: 'weak Al', tannin: '0' },
+  ];
+  const series = await TrialSeries.create(
+    {
+      code: 'WS-2024-01', title: 'Madder on four mordants: a six-shade card', kind: 'workshop', pieceId: p12.id,
+      factors: Object.entries(levels).map(([name, l]) => ({ name, levels: l })), cells, participants: ['P-01', 'P-02', 'P-03', 'P-04'],
+      dryMassG: 10, deadVolumePct: 15, ownerId: tamsin.id, heldOn: '2024-04-20', notes: 'Each participant dyes six 10 g swatches from the shared baths MB-08 and MB-09.',
+    },
+    { transaction: t },
+  );
+  for (const cell of cells.slice(0, 3)) {
+    await makeTrial({ pieceId: p12.id, seriesId: series.id, cell, dyerId: tamsin.id, dryMassG: 10, status: 'planned', notes: `Workshop cell: ${cell.mordant}, tannin ${cell.tannin} % owf` }, [
+      { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 50, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 60 },
+    ]);
+  }
+  return { users, pieces, trials, batches: { mb07, mb08, mb09 }, series };
+}

@@ -1,0 +1,2 @@
+export const ROLES = ['admin', 'curator', 'researcher', 'dyer'] as const;
+export type Role = (typeof ROLES)[number];

@@ -1,0 +1,7 @@
+import { healthBench } from './health.bench.ts';
+
+export type BenchResult = { metric: string; value: number; unit: string; target?: string; pass?: boolean };
+export type Bench = { name: string; run: () => Promise<BenchResult[]> };
+
+// Each benchmark registers here.
+export const benches: Bench[] = [healthBench];

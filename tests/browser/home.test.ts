@@ -1,0 +1,40 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser } from '../support/browser.ts';
+import { startServer } from '../support/server.ts';
+import { sequelize } from '../../server/models/index.ts';
+
+let server: Awaited<ReturnType<typeof startServer>>;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  await sequelize.close();
+});
+
+describe('home page in Chromium', () => {
+  it('shows the product name in the shipped fonts', async () => {
+    const page = await browser.context.newPage();
+    const failed: string[] = [];
+    page.on('requestfailed', (r) => failed.push(r.url()));
+    await page.goto(server.url, { waitUntil: 'networkidle' });
+    await expect(page.getByRole('link', { name: 'Tinctoria home' }).textContent()).resolves.toContain('Tinctoria');
+    await page.evaluate(() => document.fonts.ready);
+    const fonts = await page.evaluate(() => ({
+      serif: document.fonts.check('600 24px "Source Serif 4 Variable"'),
+      sans: document.fonts.check('16px "Inter Variable"'),
+      loaded: [...document.fonts].filter((f) => f.status === 'loaded').map((f) => f.family),
+      headingFont: getComputedStyle(document.querySelector('h2')!).fontFamily,
+    }));
+    expect(fonts.serif).toBe(true);
+    expect(fonts.sans).toBe(true);
+    expect(fonts.loaded).toEqual(expect.arrayContaining(['Source Serif 4 Variable', 'Inter Variable']));
+    expect(fonts.headingFont).toContain('Source Serif 4 Variable');
+    await expect(page.getByText(/database up/)).toBeDefined();
+    expect(failed).toEqual([]);
+  });
+});

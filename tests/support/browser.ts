@@ -1,0 +1,22 @@
+import { mkdtemp, rm } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext } from 'playwright-core';
+
+// Debian's Chromium, never a downloaded browser; flags as verified on this machine.
+export async function launchBrowser(): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
+  const profile = await mkdtemp(path.join(os.tmpdir(), 'tinctoria-chromium-'));
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    viewport: { width: 1280, height: 900 },
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+  return {
+    context,
+    close: async () => {
+      await context.close();
+      await rm(profile, { recursive: true, force: true });
+    },
+  };
+}

@@ -1,0 +1,13 @@
+import { defineConfig } from 'vitest/config';
+
+// One run covers unit, API and browser suites. Files run one at a time because
+// the API and browser suites share one MariaDB test database.
+export default defineConfig({
+  test: {
+    include: ['tests/**/*.test.ts'],
+    globalSetup: ['tests/support/global-setup.ts'],
+    fileParallelism: false,
+    testTimeout: 30_000,
+    hookTimeout: 120_000,
+  },
+});
