@@ -2,6 +2,7 @@ import { createBrowserRouter } from 'react-router-dom';
 import { AppShell } from './components/AppShell';
 import { Home } from './routes/Home';
 import { NotFound, RouteError } from './routes/NotFound';
+import { SignIn } from './routes/SignIn';
 
 export const router = createBrowserRouter([
   {
@@ -9,6 +10,7 @@ export const router = createBrowserRouter([
     errorElement: <RouteError />,
     children: [
       { index: true, element: <Home /> },
+      { path: 'sign-in', element: <SignIn /> },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -6,6 +6,8 @@ import { ROOT_DIR, env, publicUrl } from './env.ts';
 import { apiNotFound, errorHandler } from './http/errors.ts';
 import { originCheck } from './http/origin-check.ts';
 import { apiRouter } from './routes/index.ts';
+import { sessionMiddleware } from './auth/session.ts';
+import { passport } from './auth/passport.ts';
 
 export type AppOptions = { clientDir?: string };
 
@@ -31,6 +33,10 @@ export function createApp(options: AppOptions = {}) {
   );
   app.use(express.json({ limit: '1mb' }));
   app.use(originCheck([new URL(publicUrl).origin, 'http://127.0.0.1:5173', 'http://localhost:5173']));
+
+  app.use(sessionMiddleware());
+  app.use(passport.initialize());
+  app.use(passport.session());
 
   app.use('/api', apiRouter());
   app.use('/api', apiNotFound);

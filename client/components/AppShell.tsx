@@ -1,6 +1,7 @@
 import { NavLink, Outlet, Link } from 'react-router-dom';
 import { paths } from '../paths';
 import { Wordmark } from './Wordmark';
+import { UserMenu } from '../features/auth/components/UserMenu';
 
 const areas = [
   { to: paths.archive(), label: 'Archive' },
@@ -38,7 +39,7 @@ export function AppShell() {
               ))}
             </ul>
           </nav>
-          <div id="user-menu-slot" className="text-sm" />
+          <UserMenu />
         </div>
       </header>
       <main id="main" className="flex-1 mx-auto w-full max-w-7xl px-4 md:px-6 py-6">

@@ -5,6 +5,7 @@ import { initCatalogueModels, Piece, Photo, Region, PaletteColour, ColourMeasure
 import { initTrialModels, Trial, RecipeStep, Substitution, TrialSeries } from './trials.ts';
 import { initBatchModels, MordantBatch, BatchEvent } from './batches.ts';
 import { initAuditModel, AuditEvent } from './audit.ts';
+import { Session } from './session.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -12,6 +13,7 @@ initCatalogueModels(sequelize);
 initTrialModels(sequelize);
 initBatchModels(sequelize);
 initAuditModel(sequelize);
+Session.initModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -62,4 +64,5 @@ export {
   MordantBatch,
   BatchEvent,
   AuditEvent,
+  Session,
 };

@@ -20,3 +20,12 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close:
     },
   };
 }
+
+/** Sign in through the real form as one of the demo accounts. */
+export async function signInAs(page: import('playwright-core').Page, baseUrl: string, email: string, password = 'tinctoria-demo') {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByTestId('signed-in-as').waitFor();
+}

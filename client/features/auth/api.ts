@@ -1,0 +1,51 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { Abilities } from '../../../shared/abilities';
+import type { LoginInput, SessionUser } from '../../../shared/schemas/auth';
+import { ApiError, http } from '../../lib/http';
+
+export type Me = { user: SessionUser; abilities: Abilities } | null;
+
+export const authKeys = { me: ['auth', 'me'] as const };
+
+/** The signed-in user with their abilities, or null for a visitor. */
+export async function fetchMe(): Promise<Me> {
+  try {
+    return await http<NonNullable<Me>>('/api/auth/me');
+  } catch (e) {
+    if (e instanceof ApiError && e.status === 401) return null;
+    throw e;
+  }
+}
+export const meQuery = () => queryOptions({ queryKey: authKeys.me, queryFn: fetchMe, staleTime: 5 * 60_000 });
+export const useMe = () => useQuery(meQuery());
+
+/** True when the signed-in user (or visitor) may take the action; abilities come from the server. */
+export function useCan() {
+  const me = useMe().data;
+  return (action: keyof Abilities) => Boolean(me?.abilities[action]);
+}
+
+export const login = (input: LoginInput) => http<NonNullable<Me>>('/api/auth/login', { method: 'POST', json: input });
+export const logout = () => http<void>('/api/auth/logout', { method: 'POST' });
+
+export function useLogin() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: login,
+    onSuccess: (me) => {
+      qc.clear();
+      qc.setQueryData(authKeys.me, me);
+    },
+  });
+}
+
+export function useLogout() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: logout,
+    onSuccess: () => {
+      qc.clear();
+      qc.setQueryData(authKeys.me, null);
+    },
+  });
+}

@@ -1,0 +1,38 @@
+import { Link, useNavigate } from 'react-router-dom';
+import { useLogout, useMe } from '../api';
+import { paths } from '../../../paths';
+
+const roleLabel = { admin: 'Admin', curator: 'Curator', researcher: 'Researcher', dyer: 'Dyer' } as const;
+
+export function UserMenu() {
+  const me = useMe();
+  const logout = useLogout();
+  const navigate = useNavigate();
+  if (me.isPending) return null;
+  if (!me.data)
+    return (
+      <Link to={paths.signIn()} className="rounded-md border border-rule-strong px-3 py-1.5 text-sm hover:bg-paper">
+        Sign in
+      </Link>
+    );
+  const { user, abilities } = me.data;
+  return (
+    <div className="flex items-center gap-3 text-sm">
+      {abilities['team:manage'] ? (
+        <Link to={paths.team()} className="text-ink-soft hover:text-ink">
+          Team
+        </Link>
+      ) : null}
+      <span className="hidden md:inline text-ink-soft" data-testid="signed-in-as">
+        {user.name} · <span className="text-ink-faint">{roleLabel[user.role]}</span>
+      </span>
+      <button
+        type="button"
+        className="rounded-md border border-rule-strong px-3 py-1.5 hover:bg-paper"
+        onClick={() => logout.mutate(undefined, { onSuccess: () => navigate(paths.home()) })}
+      >
+        Sign out
+      </button>
+    </div>
+  );
+}

@@ -1,0 +1,45 @@
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import session from 'express-session';
+import connectSessionSequelize from 'connect-session-sequelize';
+import { env, isProduction } from '../env.ts';
+import { sequelize } from '../models/index.ts';
+
+const SequelizeStore = connectSessionSequelize(session.Store);
+
+/** Outside production a generated secret is kept in the runtime folder, so sessions survive restarts. */
+function sessionSecret(): string {
+  if (env.SESSION_SECRET) return env.SESSION_SECRET;
+  const file = path.join(env.DATA_DIR, 'session-secret');
+  if (!existsSync(file)) {
+    mkdirSync(env.DATA_DIR, { recursive: true });
+    writeFileSync(file, randomBytes(32).toString('hex'), { mode: 0o600 });
+  }
+  return readFileSync(file, 'utf8').trim();
+}
+
+export const SESSION_COOKIE = 'tinctoria.sid';
+
+export function sessionMiddleware() {
+  const store = new SequelizeStore({
+    db: sequelize,
+    table: 'Session',
+    checkExpirationInterval: 0,
+    expiration: 14 * 24 * 60 * 60 * 1000,
+    extendDefaultFields: (defaults: { data: string; expires: Date }, sess: { passport?: { user?: number } }) => ({
+      data: defaults.data,
+      expires: defaults.expires,
+      userId: sess.passport?.user ?? null,
+    }),
+  });
+  return session({
+    name: SESSION_COOKIE,
+    secret: sessionSecret(),
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: isProduction ? 'auto' : false, maxAge: 14 * 24 * 60 * 60 * 1000 },
+  });
+}
