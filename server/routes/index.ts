@@ -1,11 +1,14 @@
 import { Router } from 'express';
 import { healthRouter } from './health/index.ts';
 import { authRouter } from './auth/index.ts';
+import { chemicalsRouter, dyestuffsRouter } from './reference/index.ts';
 
 /** Every API router, mounted under /api. */
 export function apiRouter() {
   const router = Router();
   router.use('/health', healthRouter);
   router.use('/auth', authRouter);
+  router.use('/chemicals', chemicalsRouter);
+  router.use('/dyestuffs', dyestuffsRouter);
   return router;
 }
