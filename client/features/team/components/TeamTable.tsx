@@ -50,7 +50,7 @@ export function TeamTable({ members, meId }: { members: TeamMember[]; meId: numb
                   </select>
                 </td>
                 <td className="px-3 py-2">{m.active ? 'Active' : 'Deactivated'}</td>
-                <td className="px-3 py-2 num">
+                <td className="px-3 py-2 num whitespace-nowrap">
                   <time dateTime={m.createdAt}>{m.createdAt.slice(0, 10)}</time>
                 </td>
                 <td className="px-3 py-2 text-right">
