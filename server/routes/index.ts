@@ -1,14 +1,22 @@
 import { Router } from 'express';
+import { isProduction } from '../env.ts';
 import { healthRouter } from './health/index.ts';
 import { authRouter } from './auth/index.ts';
 import { chemicalsRouter, dyestuffsRouter } from './reference/index.ts';
+import { invitationsRouter } from './invitations/index.ts';
+import { teamRouter } from './team/index.ts';
+import { outboxRouter } from './outbox/index.ts';
 
-/** Every API router, mounted under /api. */
+/** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
   const router = Router();
   router.use('/health', healthRouter);
-  router.use('/auth', authRouter);
   router.use('/chemicals', chemicalsRouter);
   router.use('/dyestuffs', dyestuffsRouter);
+  router.use('/auth', authRouter());
+  router.use('/invitations', invitationsRouter);
+  router.use('/team', teamRouter);
+  // The outbox shows the local mail catcher's messages; there is none in production.
+  if (!isProduction) router.use('/outbox', outboxRouter);
   return router;
 }
