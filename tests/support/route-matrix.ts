@@ -54,6 +54,9 @@ async function resetToken() {
 /** The id of any seeded reference row (reference data is read-only in the matrix). */
 const anyId = async (model: typeof Chemical | typeof Dyestuff) => (await (model as typeof Chemical).findOne({ order: [['id', 'ASC']], rejectOnEmpty: true })).id;
 
+const makeChemical = () =>
+  Chemical.create({ name: `matrix chemical ${uniqueEmail('c')}`, role: 'assistant', formula: 'CaCO3', metal: 'Ca', status: 'permitted', signalWord: null, hStatements: [], ppe: null, caution: null, source: 'matrix test', hazardSource: null });
+
 export const routeMatrix: MatrixRow[] = [
   row('GET /api/health', everyone('2xx')),
 
@@ -74,7 +77,7 @@ export const routeMatrix: MatrixRow[] = [
 
   row('GET /api/chemicals', everyone('2xx')),
   row('GET /api/chemicals/:id', everyone('2xx'), { setup: async () => ({ params: { id: await anyId(Chemical) } }) }),
-  row('PATCH /api/chemicals/:id', adminOnly, { setup: async () => ({ params: { id: await anyId(Chemical) }, body: {} }) }),
+  row('PATCH /api/chemicals/:id', adminOnly, { setup: async () => ({ params: { id: (await makeChemical()).id }, body: { ppe: 'goggles and gloves' } }) }),
   row('GET /api/dyestuffs', everyone('2xx')),
   row('GET /api/dyestuffs/:id', everyone('2xx'), { setup: async () => ({ params: { id: await anyId(Dyestuff) } }) }),
 ];
