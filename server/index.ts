@@ -2,12 +2,19 @@ import { env, publicUrl } from './env.ts';
 import { createApp } from './app.ts';
 import { migrate, seed } from './db/setup.ts';
 import { sequelize } from './models/index.ts';
+import { startWorker, stopWorker } from './jobs/worker.ts';
+import { enqueueMissingTiles } from './iiif/enqueue.ts';
 
 // The running server: migrate, seed an empty database, then listen. SIGINT/SIGTERM close cleanly.
 const applied = await migrate();
 if (applied.length) console.log(`[tinctoria] migrations applied: ${applied.join(', ')}`);
 const seeded = await seed();
 if (seeded.demo) console.log('[tinctoria] demo scenario seeded');
+
+const queuedTiles = await enqueueMissingTiles();
+if (queuedTiles) console.log(`[tinctoria] deep-zoom tiles queued for ${queuedTiles} photo(s)`);
+// The worker runs beside the web server; any number of servers may share the jobs table.
+startWorker();
 
 const app = createApp();
 const server = app.listen(env.PORT, env.HOST, () => {
@@ -21,6 +28,7 @@ async function shutdown(signal: string) {
   console.log(`[tinctoria] ${signal}: shutting down`);
   server.close();
   server.closeAllConnections();
+  await stopWorker().catch(() => {});
   await sequelize.close().catch(() => {});
   process.exit(0);
 }

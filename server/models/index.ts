@@ -6,6 +6,7 @@ import { initTrialModels, Trial, RecipeStep, Substitution, TrialSeries } from '.
 import { initBatchModels, MordantBatch, BatchEvent } from './batches.ts';
 import { initAuditModel, AuditEvent } from './audit.ts';
 import { Session } from './session.ts';
+import { initJobModel, Job } from './job.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -14,6 +15,7 @@ initTrialModels(sequelize);
 initBatchModels(sequelize);
 initAuditModel(sequelize);
 Session.initModel(sequelize);
+initJobModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -45,6 +47,7 @@ MordantBatch.belongsTo(MordantBatch, { as: 'parent', foreignKey: 'parentId' });
 MordantBatch.belongsTo(User, { as: 'madeBy', foreignKey: 'madeById' });
 BatchEvent.belongsTo(MordantBatch, { as: 'batch', foreignKey: 'batchId' });
 AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId' });
+Job.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById', constraints: false });
 
 export {
   sequelize,
@@ -65,4 +68,5 @@ export {
   BatchEvent,
   AuditEvent,
   Session,
+  Job,
 };
