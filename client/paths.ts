@@ -12,4 +12,7 @@ export const paths = {
   series: () => '/series',
   reference: () => '/reference',
   team: () => '/team',
+  photoZoom: (photoId: number | string) => `/photos/${photoId}/zoom`,
+  importPieces: () => '/import',
+  fixity: () => '/admin/fixity',
 } as const;

@@ -3,6 +3,9 @@ import { AppShell } from './components/AppShell';
 import { Home } from './routes/Home';
 import { NotFound, RouteError } from './routes/NotFound';
 import { SignIn } from './routes/SignIn';
+import { PhotoZoom } from './routes/PhotoZoom';
+import { ImportPage } from './routes/ImportPage';
+import { FixityPage } from './routes/FixityPage';
 
 export const router = createBrowserRouter([
   {
@@ -11,6 +14,9 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: <Home /> },
       { path: 'sign-in', element: <SignIn /> },
+      { path: 'photos/:photoId/zoom', element: <PhotoZoom /> },
+      { path: 'import', element: <ImportPage /> },
+      { path: 'admin/fixity', element: <FixityPage /> },
       { path: '*', element: <NotFound /> },
     ],
   },

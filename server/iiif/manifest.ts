@@ -27,6 +27,21 @@ export async function tileInfo(photo: Photo): Promise<TileInfo> {
   return { width: photo.width, height: photo.height, full: null };
 }
 
+/** A photo's regions as W3C Web Annotations on a canvas fragment (Media Fragments xywh, in image pixels). */
+export function regionAnnotationPage(canvasId: string, regions: Region[], pageId = `${canvasId}/page/regions`) {
+  return {
+    id: pageId,
+    type: 'AnnotationPage',
+    items: regions.map((r) => ({
+      id: `${canvasId}/annotation/region-${r.id}`,
+      type: 'Annotation',
+      motivation: 'tagging',
+      body: { type: 'TextualBody', value: r.label ?? r.purpose, format: 'text/plain', purpose: 'tagging' },
+      target: `${canvasId}#xywh=${r.x},${r.y},${r.w},${r.h}`,
+    })),
+  };
+}
+
 export async function buildManifest(base: string, piece: Piece, photos: Array<Photo & { regions?: Region[] }>) {
   const id = `${base}/iiif/${piece.id}/manifest.json`;
   const metadata = [
@@ -61,23 +76,7 @@ export async function buildManifest(base: string, piece: Piece, photos: Array<Ph
           items: [{ id: `${canvasId}/annotation/painting`, type: 'Annotation', motivation: 'painting', body: { ...body, ...bodySize(full, width, height) }, target: canvasId }],
         },
       ],
-      ...(regions.length
-        ? {
-            annotations: [
-              {
-                id: `${canvasId}/page/regions`,
-                type: 'AnnotationPage',
-                items: regions.map((r) => ({
-                  id: `${canvasId}/annotation/region-${r.id}`,
-                  type: 'Annotation',
-                  motivation: 'tagging',
-                  body: { type: 'TextualBody', value: r.label ?? r.purpose, format: 'text/plain', purpose: 'tagging' },
-                  target: `${canvasId}#xywh=${r.x},${r.y},${r.w},${r.h}`,
-                })),
-              },
-            ],
-          }
-        : {}),
+      ...(regions.length ? { annotations: [regionAnnotationPage(canvasId, regions)] } : {}),
     });
   }
   return {

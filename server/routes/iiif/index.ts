@@ -8,7 +8,7 @@ import { parseParams } from '../../http/validate.ts';
 import { Photo, Region } from '../../models/index.ts';
 import { iiifDir } from '../../iiif/files.ts';
 import { baseUrl, readablePhoto, readablePiece } from '../../iiif/access.ts';
-import { buildManifest } from '../../iiif/manifest.ts';
+import { buildManifest, regionAnnotationPage } from '../../iiif/manifest.ts';
 
 // Mounted at /iiif (outside /api): IIIF clients expect plain URLs ending in info.json / manifest.json.
 export const iiifRouter = Router();
@@ -37,6 +37,20 @@ iiifRouter.get('/photos/:photoId/info.json', async (req, res) => {
   info.id = `${baseUrl(req)}/iiif/photos/${photo.id}`;
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
   res.type('application/ld+json; profile="http://iiif.io/api/image/3/context.json"').send(JSON.stringify(info));
+});
+
+// The regions of one photo as a stand-alone AnnotationPage (the deep-zoom viewer draws them).
+iiifRouter.get('/photos/:photoId/annotations.json', async (req, res) => {
+  const { photoId } = parseParams(photoParams, req);
+  const photo = await readablePhoto(actorOf(req), photoId);
+  const regions = await Region.findAll({ where: { photoId: photo.id }, order: [['id', 'ASC']] });
+  const base = baseUrl(req);
+  const canvasId = photo.pieceId != null ? `${base}/iiif/${photo.pieceId}/canvas/${photo.id}` : `${base}/iiif/photos/${photo.id}`;
+  const page = regionAnnotationPage(canvasId, regions, `${base}/iiif/photos/${photo.id}/annotations.json`);
+  res.set({ ...cors, 'Cache-Control': cacheFor(req) });
+  res.type('application/ld+json; profile="http://www.w3.org/ns/anno.jsonld"').send(
+    JSON.stringify({ '@context': 'http://www.w3.org/ns/anno.jsonld', ...page }),
+  );
 });
 
 iiifRouter.get('/photos/:photoId', (req, res) => {
