@@ -1,6 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
-import { Router, type Request } from 'express';
+import { Router, type Request, type Response } from 'express';
 import { z } from 'zod';
 import { actorOf } from '../../http/auth.ts';
 import { notFound } from '../../http/errors.ts';
@@ -18,7 +18,13 @@ const pieceParams = z.object({ pieceId: z.coerce.number().int().positive() });
 // Level-0 tile paths as sharp writes them: {region}/{size}/0/default.jpg, or full/{w},{h}/0/default.jpg.
 const TILE_PATH = /^(full|\d+,\d+,\d+,\d+)\/\d+,\d+\/0\/default\.jpg$/;
 
-const cors = { 'Access-Control-Allow-Origin': '*' };
+const cors = { 'Access-Control-Allow-Origin': '*', Vary: 'Accept' };
+
+// JSON-LD with its profile, as the IIIF specifications ask; plain JSON for a client that asks only for that.
+function sendLd(req: Request, res: Response, profile: string, body: unknown) {
+  const type = req.accepts(['application/ld+json', 'application/json']) === 'application/json' ? 'application/json' : `application/ld+json; profile="${profile}"`;
+  res.type(type).send(JSON.stringify(body));
+}
 // What a visitor may see is published and may be cached anywhere; staff views of drafts stay private.
 const cacheFor = (req: Request) => (actorOf(req) === null ? 'public, max-age=86400' : 'private, max-age=300');
 
@@ -36,7 +42,7 @@ iiifRouter.get('/photos/:photoId/info.json', async (req, res) => {
   const info = JSON.parse(raw);
   info.id = `${baseUrl(req)}/iiif/photos/${photo.id}`;
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
-  res.type('application/ld+json; profile="http://iiif.io/api/image/3/context.json"').send(JSON.stringify(info));
+  sendLd(req, res, 'http://iiif.io/api/image/3/context.json', info);
 });
 
 // The regions of one photo as a stand-alone AnnotationPage (the deep-zoom viewer draws them).
@@ -48,9 +54,7 @@ iiifRouter.get('/photos/:photoId/annotations.json', async (req, res) => {
   const canvasId = photo.pieceId != null ? `${base}/iiif/${photo.pieceId}/canvas/${photo.id}` : `${base}/iiif/photos/${photo.id}`;
   const page = regionAnnotationPage(canvasId, regions, `${base}/iiif/photos/${photo.id}/annotations.json`);
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
-  res.type('application/ld+json; profile="http://www.w3.org/ns/anno.jsonld"').send(
-    JSON.stringify({ '@context': 'http://www.w3.org/ns/anno.jsonld', ...page }),
-  );
+  sendLd(req, res, 'http://www.w3.org/ns/anno.jsonld', { '@context': 'http://www.w3.org/ns/anno.jsonld', ...page });
 });
 
 iiifRouter.get('/photos/:photoId', (req, res) => {
@@ -77,7 +81,7 @@ iiifRouter.get('/:pieceId/manifest.json', async (req, res) => {
   });
   const manifest = await buildManifest(baseUrl(req), piece, photos);
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
-  res.type('application/ld+json; profile="http://iiif.io/api/presentation/3/context.json"').send(JSON.stringify(manifest));
+  sendLd(req, res, 'http://iiif.io/api/presentation/3/context.json', manifest);
 });
 
 // Anything else under /iiif answers in the API's error shape rather than the client app.

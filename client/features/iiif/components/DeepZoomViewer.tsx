@@ -27,6 +27,8 @@ export function DeepZoomViewer({ photoId, regions = [], label }: { photoId: numb
         tileSources: infoJsonUrl(photoId),
         showNavigationControl: false,
         gestureSettingsMouse: { clickToZoom: false },
+        // The canvas drawer needs no GPU and keeps overlays in step on modest tablets.
+        drawer: 'canvas',
         maxZoomPixelRatio: 2,
         visibilityRatio: 0.8,
       });
