@@ -15,7 +15,7 @@ export async function writeMastersZip(out: Writable, piece: Piece, photos: Photo
   const lines: string[] = [];
   const files: Array<{ photoId: number; view: string; file: string | null; sha256: string; bytes: number; originalName: string | null; missing?: true }> = [];
   for (const photo of photos) {
-    const master = await findMaster(photo.sha256);
+    const master = await findMaster(photo);
     const name = master ? `masters/${photo.id}-${photo.view}${path.extname(master)}` : null;
     if (master && name) {
       // Stored, not deflated: masters are already compressed images and must come out byte for byte.

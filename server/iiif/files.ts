@@ -1,22 +1,24 @@
-import { readdir } from 'node:fs/promises';
+import { access } from 'node:fs/promises';
 import path from 'node:path';
-import { env } from '../env.ts';
+import type { Photo } from '../models/index.ts';
+import { masterPath, resolveInsideUploads, tilesDir as tilesDirRelative } from '../media/paths.ts';
 
-// The agreed uploads layout (masters/<sha[0..2]>/<sha>.<ext>, tiles/<photoId>/iiif/).
-// server/media/paths.ts owns it; this module is the one place here that follows it,
-// so switching to that module is a one-file change once it is merged.
-const uploadsRoot = () => path.resolve(env.UPLOADS_DIR);
-
-export const tilesDir = (photoId: number) => path.join(uploadsRoot(), 'tiles', String(photoId));
+// Absolute paths of the tiling and fixity files, built only from server/media/paths.ts.
+export const tilesDir = (photoId: number) => resolveInsideUploads(tilesDirRelative(photoId));
 /** The IIIF level-0 image service folder (info.json and tiles) of one photo. */
-export const iiifDir = (photoId: number) => path.join(tilesDir(photoId), 'iiif');
-export const masterPath = (sha256: string, ext: string) => path.join(uploadsRoot(), 'masters', sha256.slice(0, 2), `${sha256}.${ext}`);
+export const iiifDir = (photoId: number) => resolveInsideUploads(path.posix.join(tilesDirRelative(photoId), 'iiif'));
 
-/** The master file of a sha256 whatever its extension, or null when it is missing. */
-export async function findMaster(sha256: string): Promise<string | null> {
-  if (!/^[0-9a-f]{64}$/.test(sha256)) return null;
-  const dir = path.dirname(masterPath(sha256, 'x'));
-  const names = await readdir(dir).catch(() => [] as string[]);
-  const name = names.find((n) => n.startsWith(`${sha256}.`) && !n.endsWith('.tmp'));
-  return name ? path.join(dir, name) : null;
+const EXT: Record<string, string> = { jpeg: 'jpg', jpg: 'jpg', png: 'png', tiff: 'tif', tif: 'tif', webp: 'webp', heif: 'heic', avif: 'avif', gif: 'gif' };
+
+/**
+ * The master file of a photo, or null when it is missing on disk. The row's stored
+ * path comes first; the layout's masters/<sha>.<ext> is the fallback for older rows.
+ */
+export async function findMaster(photo: Pick<Photo, 'sha256' | 'format' | 'derivatives'>): Promise<string | null> {
+  const candidates = [photo.derivatives?.master?.path, EXT[photo.format] ? masterPath(photo.sha256, EXT[photo.format]) : null].filter(Boolean) as string[];
+  for (const rel of candidates) {
+    const abs = resolveInsideUploads(rel);
+    if (await access(abs).then(() => true, () => false)) return abs;
+  }
+  return null;
 }

@@ -12,7 +12,7 @@ registerHandler(TILE_JOB, {
     const photo = await Photo.findByPk(photoId);
     if (!photo) throw new PermanentJobError(`Photo ${photoId} no longer exists.`);
     await photo.update({ tileStatus: 'running' });
-    const master = await findMaster(photo.sha256);
+    const master = await findMaster(photo);
     if (!master) throw new PermanentJobError(`The master file of photo ${photoId} is missing (sha256 ${photo.sha256}).`);
     await ctx.progress(0.1);
     await buildTiles(photoId, master, `${job.id}-${job.attempts}`);
