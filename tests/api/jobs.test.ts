@@ -1,5 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
+import { Op } from 'sequelize';
 import { createSequelize } from '../../server/db/sequelize.ts';
 import { Job, sequelize } from '../../server/models/index.ts';
 import { claim, enqueue, requeueStale, PermanentJobError } from '../../server/jobs/queue.ts';
@@ -10,6 +11,8 @@ import { drain, runOnce } from '../../server/jobs/worker.ts';
 const serverA = createSequelize();
 const serverB = createSequelize();
 afterAll(async () => {
+  // Leave no test jobs behind for a server's worker to pick up later.
+  await Job.destroy({ where: { type: { [Op.like]: 't-%' } } });
   await Promise.all([serverA.close(), serverB.close(), sequelize.close()]);
 });
 
