@@ -16,4 +16,7 @@ export const paths = {
   reference: () => '/reference',
   team: () => '/team',
   outbox: () => '/outbox',
+  photoZoom: (photoId: number | string) => `/photos/${photoId}/zoom`,
+  importPieces: () => '/import',
+  fixity: () => '/admin/fixity',
 } as const;

@@ -10,6 +10,9 @@ import { ResetPassword } from './routes/ResetPassword';
 import { SignIn } from './routes/SignIn';
 import { ReferencePage } from './features/reference/components/ReferencePage';
 import { Team } from './routes/Team';
+import { PhotoZoom } from './routes/PhotoZoom';
+import { ImportPage } from './routes/ImportPage';
+import { FixityPage } from './routes/FixityPage';
 
 export const router = createBrowserRouter([
   {
@@ -24,6 +27,9 @@ export const router = createBrowserRouter([
       { path: 'join/:token', element: <JoinTeam /> },
       { element: <RequireAbility action="team:manage" />, children: [{ path: 'team', element: <Team /> }] },
       { element: <RequireAbility action="outbox:read" />, children: [{ path: 'outbox', element: <Outbox /> }] },
+      { path: 'photos/:photoId/zoom', element: <PhotoZoom /> },
+      { path: 'import', element: <ImportPage /> },
+      { path: 'admin/fixity', element: <FixityPage /> },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -3,6 +3,8 @@ import { createApp } from './app.ts';
 import { migrate, seed } from './db/setup.ts';
 import { sequelize } from './models/index.ts';
 import { startLocalMail } from './mail/index.ts';
+import { startWorker, stopWorker } from './jobs/worker.ts';
+import { enqueueMissingTiles } from './iiif/enqueue.ts';
 
 // The running server: migrate, seed an empty database, then listen. SIGINT/SIGTERM close cleanly.
 const applied = await migrate();
@@ -14,6 +16,10 @@ if (seeded.demo) console.log('[tinctoria] demo scenario seeded');
 const catcher = env.SMTP_URL || env.NODE_ENV === 'production' ? null : await startLocalMail();
 if (catcher) console.log(`[tinctoria] local mail catcher on 127.0.0.1:${catcher.port}, messages in ${catcher.dir}`);
 else if (!env.SMTP_URL) console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
+const queuedTiles = await enqueueMissingTiles();
+if (queuedTiles) console.log(`[tinctoria] deep-zoom tiles queued for ${queuedTiles} photo(s)`);
+// The worker runs beside the web server; any number of servers may share the jobs table.
+startWorker();
 
 const app = createApp();
 const server = app.listen(env.PORT, env.HOST, () => {
@@ -28,6 +34,7 @@ async function shutdown(signal: string) {
   server.close();
   server.closeAllConnections();
   await catcher?.close().catch(() => {});
+  await stopWorker().catch(() => {});
   await sequelize.close().catch(() => {});
   process.exit(0);
 }

@@ -7,6 +7,7 @@ import { initBatchModels, MordantBatch, BatchEvent } from './batches.ts';
 import { initAuditModel, AuditEvent } from './audit.ts';
 import { Session } from './session.ts';
 import { AuthToken } from './auth-token.ts';
+import { initJobModel, Job } from './job.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -16,6 +17,7 @@ initBatchModels(sequelize);
 initAuditModel(sequelize);
 Session.initModel(sequelize);
 AuthToken.initModel(sequelize);
+initJobModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -49,6 +51,7 @@ BatchEvent.belongsTo(MordantBatch, { as: 'batch', foreignKey: 'batchId' });
 AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId' });
 AuthToken.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 AuthToken.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+Job.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById', constraints: false });
 
 export {
   sequelize,
@@ -70,4 +73,5 @@ export {
   AuditEvent,
   Session,
   AuthToken,
+  Job,
 };

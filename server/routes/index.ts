@@ -6,6 +6,10 @@ import { chemicalsRouter, dyestuffsRouter } from './reference/index.ts';
 import { invitationsRouter } from './invitations/index.ts';
 import { teamRouter } from './team/index.ts';
 import { outboxRouter } from './outbox/index.ts';
+import { jobsRouter } from './jobs/index.ts';
+import { fixityRouter } from './admin-fixity/index.ts';
+import { importRouter } from './import/index.ts';
+import { exportRouter, pieceExportRouter } from './export/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -18,5 +22,11 @@ export function apiRouter() {
   router.use('/team', teamRouter);
   // The outbox shows the local mail catcher's messages; there is none in production.
   if (!isProduction) router.use('/outbox', outboxRouter);
+  router.use('/jobs', jobsRouter);
+  router.use('/admin/fixity', fixityRouter);
+  router.use('/import', importRouter);
+  router.use('/export', exportRouter);
+  // Per-piece exports (Dublin Core, masters ZIP) beside the catalogue's own /pieces routes.
+  router.use('/pieces', pieceExportRouter);
   return router;
 }

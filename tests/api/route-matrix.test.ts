@@ -82,7 +82,8 @@ describe.each(routeMatrix.map((r) => [r.route, r] as const))('%s', (_route, r) =
     let req = agent[method.toLowerCase() as 'get'](fill(path, fixture.params));
     if (method !== 'GET') req = req.set('Origin', ORIGIN);
     if (fixture.query) req = req.query(fixture.query);
-    const res = await req.send((fixture.body ?? r.body) as object);
+    if (fixture.attach) for (const f of fixture.attach) req = req.attach(f.field, f.buffer, f.filename);
+    const res = fixture.attach ? await req : await req.send((fixture.body ?? r.body) as object);
     expect(matches(res.status, expected), `${r.route} as ${key}: got ${res.status} ${JSON.stringify(res.body)}`).toBe(true);
     // Refusals always carry the JSON error shape.
     if (res.status >= 400) expect(res.body.error).toMatchObject({ code: expect.any(String), message: expect.any(String) });

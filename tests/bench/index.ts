@@ -1,8 +1,9 @@
 import { healthBench } from './health.bench.ts';
+import { importBench } from './import.bench.ts';
 import { paletteBench } from './palette.bench.ts';
 
 export type BenchResult = { metric: string; value: number; unit: string; target?: string; pass?: boolean };
 export type Bench = { name: string; run: () => Promise<BenchResult[]> };
 
 // Each benchmark registers here.
-export const benches: Bench[] = [healthBench, paletteBench];
+export const benches: Bench[] = [healthBench, importBench, paletteBench];

@@ -1,6 +1,8 @@
 import { hashPassword } from '../../server/auth/passwords.ts';
 import { issueToken } from '../../server/auth/tokens.ts';
-import { Chemical, Dyestuff, User } from '../../server/models/index.ts';
+import { Chemical, Dyestuff, Job, Photo, User } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { enqueue } from '../../server/jobs/queue.ts';
 import type { Role } from '../../shared/roles.ts';
 
 /**
@@ -22,7 +24,13 @@ export type Expected = '2xx' | 400 | 401 | 403 | 404 | 409 | 410;
 export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
 export type SetupContext = { who: Who; ownership?: Ownership; user: { id: number; role: Role } | null };
-export type Fixture = { params?: Record<string, string | number>; body?: unknown; query?: Record<string, string> };
+export type Fixture = {
+  params?: Record<string, string | number>;
+  body?: unknown;
+  query?: Record<string, string>;
+  /** Multipart files (then `body` is ignored). */
+  attach?: Array<{ field: string; buffer: Buffer; filename: string }>;
+};
 
 export type MatrixRow = {
   route: `${Method} /api/${string}`;
@@ -57,6 +65,24 @@ const anyId = async (model: typeof Chemical | typeof Dyestuff) => (await (model 
 const makeChemical = () =>
   Chemical.create({ name: `matrix chemical ${uniqueEmail('c')}`, role: 'assistant', formula: 'CaCO3', metal: 'Ca', status: 'permitted', signalWord: null, hStatements: [], ppe: null, caution: null, source: 'matrix test', hazardSource: null });
 
+// A piece with a bare photo row: the job and export routes read rows, not files.
+async function pieceWithPhoto(status: 'draft' | 'published' = 'published') {
+  const piece = await makePiece({ status });
+  const photo = await Photo.create({
+    pieceId: piece.id, trialId: null, sha256: 'e'.repeat(64), format: 'jpeg', bytes: 1, width: 10, height: 10, originalName: null, caption: null,
+    capturedAt: null, exif: {}, gps: null, derivatives: {}, referencePatch: null, correction: null, createdById: null,
+  });
+  return { piece, photo };
+}
+async function failedJob() {
+  const { photo } = await pieceWithPhoto();
+  const job = await enqueue({ type: 'tile-photo', payload: { photoId: photo.id }, subject: { type: 'photo', id: photo.id } });
+  await Job.update({ state: 'failed', error: 'matrix', attempts: 3 }, { where: { id: job.id } });
+  return job;
+}
+const importCsv = () => Buffer.from(`accessionNumber,objectName,title\nMATRIX.${uniqueEmail('x').replace(/\W/g, '')},panel,Matrix import\n`);
+const exporter: Record<Who, Expected> = { visitor: 401, admin: '2xx', curator: '2xx', researcher: '2xx', dyer: 403 };
+
 export const routeMatrix: MatrixRow[] = [
   row('GET /api/health', everyone('2xx')),
 
@@ -80,4 +106,17 @@ export const routeMatrix: MatrixRow[] = [
   row('PATCH /api/chemicals/:id', adminOnly, { setup: async () => ({ params: { id: (await makeChemical()).id }, body: { ppe: 'goggles and gloves' } }) }),
   row('GET /api/dyestuffs', everyone('2xx')),
   row('GET /api/dyestuffs/:id', everyone('2xx'), { setup: async () => ({ params: { id: await anyId(Dyestuff) } }) }),
+
+  row('GET /api/jobs', adminOnly),
+  row('GET /api/jobs/:id', signedIn, { setup: async () => ({ params: { id: (await failedJob()).id } }) }),
+  row('POST /api/jobs/:id/retry', { visitor: 401, admin: '2xx', curator: '2xx', researcher: 403, dyer: 403 }, { setup: async () => ({ params: { id: (await failedJob()).id } }) }),
+  row('POST /api/admin/fixity', adminOnly),
+  row('GET /api/admin/fixity/latest', adminOnly),
+  row('POST /api/import/pieces', { visitor: 401, admin: '2xx', curator: '2xx', researcher: 403, dyer: 403 }, {
+    setup: async () => ({ query: { dryRun: 'true' }, attach: [{ field: 'file', buffer: importCsv(), filename: 'pieces.csv' }] }),
+  }),
+  row('GET /api/export/pieces.csv', exporter),
+  row('GET /api/export/trials.csv', exporter),
+  row('GET /api/pieces/:id/dublin-core.jsonld', exporter, { setup: async () => ({ params: { id: (await pieceWithPhoto()).piece.id } }) }),
+  row('GET /api/pieces/:id/masters.zip', exporter, { setup: async () => ({ params: { id: (await makePiece({ status: 'published' })).id } }) }),
 ];

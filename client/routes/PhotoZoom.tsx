@@ -1,0 +1,30 @@
+import { useParams } from 'react-router-dom';
+import { Page } from '../components/Page';
+import { useMe } from '../features/auth/api';
+import { usePhotoJobs } from '../features/jobs/api';
+import { usePhotoRegions } from '../features/iiif/api';
+import { DeepZoomViewer } from '../features/iiif/components/DeepZoomViewer';
+import { JobStatus } from '../features/iiif/components/JobStatus';
+import { NotFound } from './NotFound';
+
+/** One photo in deep zoom, with its regions and (for staff) the state of its tiling job. */
+export function PhotoZoom() {
+  const photoId = Number(useParams().photoId);
+  const me = useMe();
+  const signedIn = Boolean(me.data);
+  const jobs = usePhotoJobs(photoId, Number.isSafeInteger(photoId) && signedIn);
+  const regions = usePhotoRegions(photoId);
+  if (!Number.isSafeInteger(photoId) || photoId <= 0 || (regions.isError && !regions.data)) return <NotFound />;
+  const job = jobs.data?.items[0];
+  const tilesReady = !job || job.state === 'done';
+  return (
+    <Page title={`Photo ${photoId}`} lead="Deep zoom from the IIIF tiles. Drag to pan, scroll or use the buttons to zoom; outlined rectangles are the photo's regions.">
+      {job && job.state !== 'done' ? (
+        <div className="mb-4 max-w-md">
+          <JobStatus job={job} title="Deep-zoom tiles" />
+        </div>
+      ) : null}
+      {tilesReady && !me.isPending ? <DeepZoomViewer photoId={photoId} regions={regions.data ?? []} label={`Photo ${photoId} in deep zoom`} /> : null}
+    </Page>
+  );
+}

@@ -1,0 +1,77 @@
+import type { Writable } from 'node:stream';
+import { stringify } from 'csv-stringify';
+import { Chemical, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
+
+const COLUMNS = [
+  'code', 'pieceAccessionNumber', 'series', 'status', 'kind', 'dyer', 'fibre', 'weave', 'gsm', 'dryMassG',
+  'startedOn', 'recipe', 'substitutions', 'fastness', 'notes',
+] as const;
+
+type Loaded = Trial & {
+  piece?: Piece | null;
+  series?: TrialSeries | null;
+  dyer?: User | null;
+  steps?: RecipeStep[];
+  substitutions?: Array<Substitution & { historicalChemical?: Chemical | null; modernChemical?: Chemical | null }>;
+};
+
+const BASIS: Record<string, string> = { owf: '% owf', 'g/L': 'g/L', g: 'g' };
+
+// A recipe step in one line, every quantity with its unit: "2. mordant-bath: potash alum 15 % owf; 1:30; 90 °C; 60 min".
+function stepText(s: RecipeStep) {
+  const parts = [s.ingredients.map((i) => `${i.name} ${i.amount} ${BASIS[i.basis] ?? i.basis}`).join(' + ')];
+  if (s.liquorRatio != null) parts.push(`1:${s.liquorRatio}`);
+  if (s.temperatureC != null) parts.push(`${s.temperatureC} °C`);
+  if (s.minutes != null) parts.push(`${s.minutes} min`);
+  if (s.ph != null) parts.push(`pH ${s.ph}`);
+  return `${s.position}. ${s.operation}: ${parts.filter(Boolean).join('; ')}`;
+}
+
+function substitutionText(s: NonNullable<Loaded['substitutions']>[number]) {
+  const from = s.historicalChemical?.name ?? s.historicalPractice ?? '?';
+  const to = s.modernChemical?.name ?? s.modernPractice ?? '?';
+  return `${from} → ${to} (${s.reason})`;
+}
+
+export async function writeTrialsCsv(out: Writable) {
+  const csv = stringify({ header: true, columns: [...COLUMNS] });
+  csv.pipe(out);
+  const trials = (await Trial.findAll({
+    include: [
+      { model: Piece, as: 'piece', attributes: ['accessionNumber'], paranoid: false },
+      { model: TrialSeries, as: 'series', attributes: ['code'] },
+      { model: User, as: 'dyer', attributes: ['name'] },
+      { model: RecipeStep, as: 'steps' },
+      {
+        model: Substitution,
+        as: 'substitutions',
+        include: [
+          { model: Chemical, as: 'historicalChemical', attributes: ['name'] },
+          { model: Chemical, as: 'modernChemical', attributes: ['name'] },
+        ],
+      },
+    ],
+    order: [['code', 'ASC'], [{ model: RecipeStep, as: 'steps' }, 'position', 'ASC']],
+  })) as Loaded[];
+  for (const t of trials) {
+    csv.write({
+      code: t.code,
+      pieceAccessionNumber: t.piece?.accessionNumber ?? '',
+      series: t.series?.code ?? '',
+      status: t.status,
+      kind: t.kind,
+      dyer: t.dyer?.name ?? '',
+      fibre: t.fibre ?? '',
+      weave: t.weave ?? '',
+      gsm: t.gsm ?? '',
+      dryMassG: t.dryMassG,
+      startedOn: t.startedOn ?? '',
+      recipe: (t.steps ?? []).map(stepText).join(' | '),
+      substitutions: (t.substitutions ?? []).map(substitutionText).join(' | '),
+      fastness: t.fastness ? JSON.stringify(t.fastness) : '',
+      notes: t.notes ?? '',
+    });
+  }
+  csv.end();
+  await new Promise((resolve, reject) => out.on('finish', resolve).on('error', reject));
+}

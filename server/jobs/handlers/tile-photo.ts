@@ -1,0 +1,29 @@
+import { Photo } from '../../models/index.ts';
+import { findMaster } from '../../iiif/files.ts';
+import { buildTiles } from '../../iiif/tiles.ts';
+import { PermanentJobError } from '../queue.ts';
+import { registerHandler } from '../registry.ts';
+
+export const TILE_JOB = 'tile-photo';
+
+registerHandler(TILE_JOB, {
+  async run(job, ctx) {
+    const photoId = Number(job.payload.photoId);
+    const photo = await Photo.findByPk(photoId);
+    if (!photo) throw new PermanentJobError(`Photo ${photoId} no longer exists.`);
+    await photo.update({ tileStatus: 'running' });
+    const master = await findMaster(photo);
+    if (!master) throw new PermanentJobError(`The master file of photo ${photoId} is missing (sha256 ${photo.sha256}).`);
+    await ctx.progress(0.1);
+    await buildTiles(photoId, master, `${job.id}-${job.attempts}`);
+    await ctx.progress(0.95);
+    await photo.update({ tileStatus: 'done' });
+    return { photoId };
+  },
+  async onFailed(job) {
+    await Photo.update({ tileStatus: 'failed' }, { where: { id: Number(job.payload.photoId) } });
+  },
+  async onRetry(payload) {
+    await Photo.update({ tileStatus: 'queued' }, { where: { id: Number(payload.photoId) } });
+  },
+});

@@ -1,0 +1,131 @@
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { sequelize as defaultDb, Job } from '../models/index.ts';
+
+export type ClaimedJob = { id: number; type: string; payload: Record<string, unknown>; attempts: number; maxAttempts: number };
+
+/** Thrown by a handler when retrying cannot help (a missing file, a deleted photo). */
+export class PermanentJobError extends Error {}
+
+export type EnqueueInput = {
+  type: string;
+  payload?: Record<string, unknown>;
+  subject?: { type: string; id: number };
+  createdById?: number | null;
+  maxAttempts?: number;
+  runAfter?: Date;
+};
+
+export async function enqueue(input: EnqueueInput, transaction?: Transaction) {
+  return Job.create(
+    {
+      type: input.type,
+      payload: input.payload ?? {},
+      subjectType: input.subject?.type ?? null,
+      subjectId: input.subject?.id ?? null,
+      maxAttempts: input.maxAttempts ?? 3,
+      error: null,
+      result: null,
+      lockedBy: null,
+      lockedAt: null,
+      runAfter: input.runAfter ?? new Date(),
+      startedAt: null,
+      finishedAt: null,
+      createdById: input.createdById ?? null,
+    },
+    { transaction },
+  );
+}
+
+/**
+ * Claim the oldest due job. SKIP LOCKED lets several workers (in this process or
+ * other app servers) run the same query at once: each sees only rows no other
+ * open transaction has locked, so no job is handed out twice.
+ */
+export async function claim(workerId: string, opts: { db?: Sequelize; types?: string[] } = {}): Promise<ClaimedJob | null> {
+  const db = opts.db ?? defaultDb;
+  return db.transaction(async (transaction) => {
+    const now = new Date();
+    const typeFilter = opts.types?.length ? 'AND type IN (:types)' : '';
+    const rows = await db.query<{ id: number }>(
+      `SELECT id FROM jobs WHERE state = 'queued' AND runAfter <= :now ${typeFilter} ORDER BY runAfter, id LIMIT 1 FOR UPDATE SKIP LOCKED`,
+      { type: QueryTypes.SELECT, transaction, replacements: { now, types: opts.types ?? [] } },
+    );
+    if (!rows.length) return null;
+    const id = Number(rows[0].id);
+    await db.query(
+      `UPDATE jobs SET state = 'running', lockedBy = :workerId, lockedAt = :now, startedAt = :now, finishedAt = NULL,
+         attempts = attempts + 1, progress = 0, error = NULL, updatedAt = :now WHERE id = :id`,
+      { type: QueryTypes.UPDATE, transaction, replacements: { workerId, now, id } },
+    );
+    const [job] = await db.query<{ id: number; type: string; payload: unknown; attempts: number; maxAttempts: number }>(
+      'SELECT id, type, payload, attempts, maxAttempts FROM jobs WHERE id = :id',
+      { type: QueryTypes.SELECT, transaction, replacements: { id } },
+    );
+    const payload = typeof job.payload === 'string' ? JSON.parse(job.payload) : job.payload;
+    return { id, type: job.type, payload: (payload ?? {}) as Record<string, unknown>, attempts: Number(job.attempts), maxAttempts: Number(job.maxAttempts) };
+  });
+}
+
+/** Record progress (0–1); it doubles as the worker's heartbeat. False when the lock was lost. */
+export async function reportProgress(jobId: number, workerId: string, progress: number, db: Sequelize = defaultDb) {
+  const now = new Date();
+  const [, affected] = await db.query(
+    `UPDATE jobs SET progress = :progress, lockedAt = :now, updatedAt = :now WHERE id = :jobId AND state = 'running' AND lockedBy = :workerId`,
+    { type: QueryTypes.UPDATE, replacements: { progress: Math.max(0, Math.min(1, progress)), now, jobId, workerId } },
+  );
+  return Number(affected) > 0;
+}
+
+export async function complete(jobId: number, workerId: string, result: Record<string, unknown> | null, db: Sequelize = defaultDb) {
+  const now = new Date();
+  await db.query(
+    `UPDATE jobs SET state = 'done', progress = 1, result = :result, lockedBy = NULL, lockedAt = NULL, finishedAt = :now, updatedAt = :now
+       WHERE id = :jobId AND state = 'running' AND lockedBy = :workerId`,
+    { type: QueryTypes.UPDATE, replacements: { result: result ? JSON.stringify(result) : null, now, jobId, workerId } },
+  );
+}
+
+/** A failure re-queues the job with a back-off until its attempts run out; then it stays failed with the reason. */
+export async function fail(job: ClaimedJob, workerId: string, reason: string, permanent: boolean, db: Sequelize = defaultDb) {
+  const now = new Date();
+  const final = permanent || job.attempts >= job.maxAttempts;
+  const runAfter = new Date(now.getTime() + 5_000 * job.attempts ** 2);
+  await db.query(
+    `UPDATE jobs SET state = :state, error = :reason, lockedBy = NULL, lockedAt = NULL, runAfter = :runAfter,
+       finishedAt = :finishedAt, updatedAt = :now WHERE id = :id AND state = 'running' AND lockedBy = :workerId`,
+    {
+      type: QueryTypes.UPDATE,
+      replacements: { state: final ? 'failed' : 'queued', reason: reason.slice(0, 2000), runAfter, finishedAt: final ? now : null, now, id: job.id, workerId },
+    },
+  );
+  return final;
+}
+
+/**
+ * After a crash or restart, jobs still marked running keep a lock nobody holds.
+ * A lock older than staleMs (no heartbeat) is released: the job is queued again,
+ * or failed when it has already used all its attempts.
+ */
+export async function requeueStale(staleMs: number, db: Sequelize = defaultDb) {
+  const now = new Date();
+  const cutoff = new Date(now.getTime() - staleMs);
+  const [, affected] = await db.query(
+    `UPDATE jobs SET
+       state = IF(attempts >= maxAttempts, 'failed', 'queued'),
+       error = IF(attempts >= maxAttempts, 'Interrupted: the server stopped while the job ran, on every attempt.', error),
+       finishedAt = IF(attempts >= maxAttempts, :now, NULL),
+       lockedBy = NULL, lockedAt = NULL, runAfter = :now, updatedAt = :now
+     WHERE state = 'running' AND lockedAt < :cutoff`,
+    { type: QueryTypes.UPDATE, replacements: { now, cutoff } },
+  );
+  return Number(affected);
+}
+
+/** A failed job starts again with fresh attempts. */
+export async function retry(job: Job, transaction?: Transaction) {
+  await job.update(
+    { state: 'queued', attempts: 0, progress: 0, error: null, lockedBy: null, lockedAt: null, runAfter: new Date(), startedAt: null, finishedAt: null },
+    { transaction },
+  );
+  return job;
+}

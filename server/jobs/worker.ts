@@ -1,0 +1,87 @@
+import os from 'node:os';
+import { randomBytes } from 'node:crypto';
+import type { Sequelize } from 'sequelize';
+import { sequelize as defaultDb } from '../models/index.ts';
+import { claim, complete, fail, PermanentJobError, reportProgress, requeueStale } from './queue.ts';
+import { handlerFor } from './registry.ts';
+import './handlers/index.ts';
+
+export type WorkerOptions = {
+  db?: Sequelize;
+  workerId?: string;
+  /** Only these job types (tests use this to stay clear of other suites' jobs). */
+  types?: string[];
+};
+
+// Unique per process, so a lock names the server and process that holds it.
+export const newWorkerId = () => `${os.hostname()}:${process.pid}:${randomBytes(3).toString('hex')}`;
+const processWorkerId = newWorkerId();
+
+/** Claim one due job and run it to the end. Returns the job id, or null when nothing was due. */
+export async function runOnce(options: WorkerOptions = {}): Promise<number | null> {
+  const db = options.db ?? defaultDb;
+  const workerId = options.workerId ?? processWorkerId;
+  const job = await claim(workerId, { db, types: options.types });
+  if (!job) return null;
+  const handler = handlerFor(job.type);
+  try {
+    if (!handler) throw new PermanentJobError(`No handler for jobs of type "${job.type}".`);
+    const result = await handler.run(job, {
+      db,
+      workerId,
+      progress: async (value) => {
+        await reportProgress(job.id, workerId, value, db);
+      },
+    });
+    await complete(job.id, workerId, result ?? null, db);
+  } catch (err) {
+    const reason = err instanceof Error ? err.message : String(err);
+    const final = await fail(job, workerId, reason, err instanceof PermanentJobError, db);
+    if (final) await handler?.onFailed?.(job, reason).catch((e) => console.error('[jobs] onFailed', e));
+  }
+  return job.id;
+}
+
+/** Run due jobs until none is left (tests and the one-off CLI). */
+export async function drain(options: WorkerOptions = {}) {
+  const ids: number[] = [];
+  for (let id = await runOnce(options); id !== null; id = await runOnce(options)) ids.push(id);
+  return ids;
+}
+
+export type LoopOptions = WorkerOptions & { pollMs?: number; staleMs?: number };
+let loop: { stop: boolean; done: Promise<void> } | null = null;
+
+/** The background loop started by server/index.ts: sweep stale locks, claim, run, sleep when idle. */
+export function startWorker(options: LoopOptions = {}) {
+  if (loop) return;
+  const pollMs = options.pollMs ?? 1000;
+  const staleMs = options.staleMs ?? 10 * 60_000;
+  const state = { stop: false, done: Promise.resolve() };
+  let lastSweep = 0;
+  state.done = (async () => {
+    while (!state.stop) {
+      try {
+        if (Date.now() - lastSweep > Math.min(staleMs, 60_000)) {
+          lastSweep = Date.now();
+          const n = await requeueStale(staleMs, options.db);
+          if (n) console.log(`[jobs] re-queued ${n} interrupted job(s)`);
+        }
+        const id = await runOnce(options);
+        if (id !== null) continue;
+      } catch (err) {
+        console.error('[jobs] worker error', err);
+      }
+      await new Promise((r) => setTimeout(r, pollMs));
+    }
+  })();
+  loop = state;
+}
+
+/** Stop claiming; resolves once the job in hand (if any) has finished. */
+export async function stopWorker() {
+  if (!loop) return;
+  loop.stop = true;
+  await loop.done;
+  loop = null;
+}

@@ -1,0 +1,47 @@
+import { Router, type RequestHandler } from 'express';
+import { z } from 'zod';
+import { actorOf, requireUser } from '../../http/auth.ts';
+import { forbidden } from '../../http/errors.ts';
+import { parseParams } from '../../http/validate.ts';
+import { Photo } from '../../models/index.ts';
+import { can } from '../../policies/index.ts';
+import { baseUrl, readablePiece } from '../../iiif/access.ts';
+import { writePiecesCsv } from '../../export/pieces-csv.ts';
+import { writeTrialsCsv } from '../../export/trials-csv.ts';
+import { dublinCore } from '../../export/dublin-core.ts';
+import { writeMastersZip } from '../../export/masters-zip.ts';
+
+const mayExport: RequestHandler = (req, _res, next) => (can(actorOf(req), 'export:run') ? next() : next(forbidden()));
+const stamp = () => new Date().toISOString().slice(0, 10);
+const safeName = (s: string) => s.replace(/[^\p{L}\p{N}._-]+/gu, '_');
+
+/** /api/export: whole-archive CSVs. */
+export const exportRouter = Router();
+
+exportRouter.get('/pieces.csv', requireUser, mayExport, async (_req, res) => {
+  res.type('text/csv; charset=utf-8').attachment(`tinctoria-pieces-${stamp()}.csv`);
+  await writePiecesCsv(res);
+});
+
+exportRouter.get('/trials.csv', requireUser, mayExport, async (_req, res) => {
+  res.type('text/csv; charset=utf-8').attachment(`tinctoria-trials-${stamp()}.csv`);
+  await writeTrialsCsv(res);
+});
+
+/** /api/pieces/:id/…: one piece's exports. The piece is loaded (404 when unreadable) before the role check. */
+export const pieceExportRouter = Router();
+const params = z.object({ id: z.coerce.number().int().positive() });
+
+pieceExportRouter.get('/:id/dublin-core.jsonld', requireUser, async (req, res) => {
+  const piece = await readablePiece(actorOf(req), parseParams(params, req).id);
+  if (!can(actorOf(req), 'export:run')) throw forbidden();
+  res.type('application/ld+json').send(JSON.stringify(dublinCore(baseUrl(req), piece), null, 2));
+});
+
+pieceExportRouter.get('/:id/masters.zip', requireUser, async (req, res) => {
+  const piece = await readablePiece(actorOf(req), parseParams(params, req).id);
+  if (!can(actorOf(req), 'export:run')) throw forbidden();
+  const photos = await Photo.findAll({ where: { pieceId: piece.id }, order: [['id', 'ASC']] });
+  res.type('application/zip').attachment(`${safeName(piece.accessionNumber)}-masters.zip`);
+  await writeMastersZip(res, piece, photos);
+});

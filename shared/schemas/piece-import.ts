@@ -1,0 +1,123 @@
+import { z } from 'zod';
+import { edtfYears } from './edtf.ts';
+
+// The columns of a piece catalogue CSV (import and export share them, so an export re-imports).
+export const PIECE_CSV_FIELDS = [
+  'accessionNumber', 'objectName', 'title', 'dateText', 'dateEdtf', 'earliestYear', 'latestYear', 'place',
+  'fibres', 'weave', 'threadCount', 'heightMm', 'widthMm', 'repeatMm', 'techniques', 'dyestuffs',
+  'historicalMordants', 'description', 'provenance', 'condition', 'creditLine', 'status',
+] as const;
+export type PieceCsvField = (typeof PIECE_CSV_FIELDS)[number];
+export const REQUIRED_PIECE_FIELDS: readonly PieceCsvField[] = ['accessionNumber', 'objectName', 'title'];
+
+export const FIELD_LABELS: Record<PieceCsvField, string> = {
+  accessionNumber: 'Accession number', objectName: 'Object name', title: 'Title', dateText: 'Date (as written)',
+  dateEdtf: 'Date (EDTF)', earliestYear: 'Earliest year', latestYear: 'Latest year', place: 'Place', fibres: 'Fibres',
+  weave: 'Weave', threadCount: 'Thread count', heightMm: 'Height (mm)', widthMm: 'Width (mm)', repeatMm: 'Repeat (mm)',
+  techniques: 'Techniques', dyestuffs: 'Dyestuffs', historicalMordants: 'Historical mordants', description: 'Description',
+  provenance: 'Provenance', condition: 'Condition', creditLine: 'Credit line', status: 'Status',
+};
+
+/** Lists in one cell are separated by semicolons; evidence follows a term in brackets: "madder (identified)". */
+export const LIST_SEPARATOR = '; ';
+const EVIDENCE = /\s*\((attributed|identified)\)\s*$/i;
+export type Evidenced = { name: string; evidence: 'attributed' | 'identified' };
+
+export const splitList = (cell: string) => cell.split(';').map((s) => s.trim()).filter(Boolean);
+export function parseEvidenced(cell: string): Evidenced[] {
+  return splitList(cell).map((item) => {
+    const m = EVIDENCE.exec(item);
+    return { name: m ? item.slice(0, m.index).trim() : item, evidence: m ? (m[1].toLowerCase() as Evidenced['evidence']) : 'attributed' };
+  });
+}
+export const formatEvidenced = (list: Evidenced[]) => list.map((t) => `${t.name} (${t.evidence})`).join(LIST_SEPARATOR);
+
+/** Column mapping sent with an upload: CSV header → field (omitted headers map to a field of the same name). */
+export const columnMapping = z.record(z.string(), z.union([z.enum(PIECE_CSV_FIELDS), z.literal('')]));
+export type ColumnMapping = z.infer<typeof columnMapping>;
+
+const text = (max: number) =>
+  z.string().trim().max(max, `At most ${max} characters.`).transform((s) => (s === '' ? null : s));
+const required = (max: number, what: string) => z.string().trim().min(1, `${what} is required.`).max(max, `At most ${max} characters.`);
+const year = z
+  .string()
+  .trim()
+  .transform((s, ctx) => {
+    if (s === '') return null;
+    if (!/^-?\d{1,4}$/.test(s)) {
+      ctx.addIssue({ code: 'custom', message: `"${s}" is not a year.` });
+      return z.NEVER;
+    }
+    return Number(s);
+  });
+const mm = z
+  .string()
+  .trim()
+  .transform((s, ctx) => {
+    if (s === '') return null;
+    const n = Number(s.replace(',', '.'));
+    if (!Number.isFinite(n) || n <= 0 || n > 9_999_999) {
+      ctx.addIssue({ code: 'custom', message: `"${s}" is not a length in millimetres.` });
+      return z.NEVER;
+    }
+    return Math.round(n * 10) / 10;
+  });
+
+/** One CSV row (all cells strings) → a piece's fields; vocabulary and uniqueness checks need the archive and run on the server. */
+export const pieceImportRow = z
+  .object({
+    accessionNumber: required(40, 'Accession number').regex(/^[\p{L}\p{N}][\p{L}\p{N}.\-/: ]*$/u, 'Letters, digits, dots, dashes and slashes only.'),
+    objectName: required(120, 'Object name'),
+    title: required(255, 'Title'),
+    dateText: text(120),
+    dateEdtf: text(60),
+    earliestYear: year,
+    latestYear: year,
+    place: text(160),
+    fibres: z.string().transform(splitList),
+    weave: text(80),
+    threadCount: text(60),
+    heightMm: mm,
+    widthMm: mm,
+    repeatMm: mm,
+    techniques: z.string().transform(splitList),
+    dyestuffs: z.string().transform(parseEvidenced),
+    historicalMordants: z.string().transform(parseEvidenced),
+    description: text(20_000),
+    provenance: text(20_000),
+    condition: text(20_000),
+    creditLine: text(255),
+    status: z
+      .string()
+      .trim()
+      .toLowerCase()
+      .transform((s) => (s === '' ? 'draft' : s))
+      .pipe(z.enum(['draft', 'published'], { error: 'Status is draft or published.' })),
+  })
+  .transform((row, ctx) => {
+    // Years come from the EDTF date when not given; when both are given they must agree.
+    if (row.dateEdtf) {
+      const range = edtfYears(row.dateEdtf);
+      if (!range) {
+        ctx.addIssue({ code: 'custom', path: ['dateEdtf'], message: `"${row.dateEdtf}" is not an EDTF date (e.g. 1770/1785, 18XX, 1850~).` });
+        return z.NEVER;
+      }
+      if (row.earliestYear !== null && range.earliest !== null && row.earliestYear !== range.earliest)
+        ctx.addIssue({ code: 'custom', path: ['earliestYear'], message: `Earliest year ${row.earliestYear} does not match the EDTF date (${range.earliest}).` });
+      if (row.latestYear !== null && range.latest !== null && row.latestYear !== range.latest)
+        ctx.addIssue({ code: 'custom', path: ['latestYear'], message: `Latest year ${row.latestYear} does not match the EDTF date (${range.latest}).` });
+      row.earliestYear ??= range.earliest;
+      row.latestYear ??= range.latest;
+    }
+    if (row.earliestYear !== null && row.latestYear !== null && row.earliestYear > row.latestYear)
+      ctx.addIssue({ code: 'custom', path: ['latestYear'], message: 'The latest year comes before the earliest year.' });
+    return row;
+  });
+export type PieceImportRow = z.output<typeof pieceImportRow>;
+
+export const importQuery = z.object({ dryRun: z.enum(['true', 'false', '1', '0']).optional().transform((v) => v === 'true' || v === '1') });
+
+export type ImportError = { line: number; field: string | null; message: string };
+export type ImportPreviewRow = { line: number; accessionNumber: string; title: string; errors: ImportError[] };
+export type ImportPreview = { dryRun: true; rows: number; valid: number; invalid: number; items: ImportPreviewRow[]; errors: ImportError[] };
+export type ImportResult = { dryRun: false; imported: number; ids: number[] };

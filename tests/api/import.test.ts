@@ -1,0 +1,178 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import request from 'supertest';
+import { parse } from 'csv-parse/sync';
+import { stringify } from 'csv-stringify/sync';
+import { Op } from 'sequelize';
+import { createApp } from '../../server/app.ts';
+import { Piece, sequelize } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { ORIGIN, signedInAgent } from '../support/agents.ts';
+import { edtfYears } from '../../shared/schemas/edtf.ts';
+
+const app = createApp();
+afterAll(() => sequelize.close());
+
+const prefix = () => `IMP.${randomUUID().slice(0, 8)}`;
+const countWith = (p: string) => Piece.count({ where: { accessionNumber: { [Op.like]: `${p}%` } }, paranoid: false });
+const HEADER = 'accessionNumber,objectName,title,dateEdtf,dyestuffs,techniques';
+
+// Signs in, sends the file, and checks the status (with the body in the failure message).
+function upload(csv: string | Buffer, opts: { dryRun?: boolean; mapping?: Record<string, string>; as?: 'curator' | 'admin' } = {}) {
+  const send = async () => {
+    const agent = await signedInAgent(app, opts.as ?? 'curator');
+    const req = agent.post(`/api/import/pieces${opts.dryRun ? '?dryRun=true' : ''}`).set('Origin', ORIGIN);
+    if (opts.mapping) req.field('mapping', JSON.stringify(opts.mapping));
+    return req.attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv, 'utf8'), { filename: 'pieces.csv', contentType: 'text/csv' });
+  };
+  return {
+    expect: async (status: number) => {
+      const res = await send();
+      expect(res.status, JSON.stringify(res.body).slice(0, 500)).toBe(status);
+      return res;
+    },
+  };
+}
+
+describe('EDTF years', () => {
+  // Forms from the Library of Congress EDTF specification (ISO 8601-2 levels 0 and 1).
+  it.each([
+    ['1770/1785', 1770, 1785],
+    ['1780~', 1780, 1780],
+    ['18XX', 1800, 1899],
+    ['177X', 1770, 1779],
+    ['1850-04-12', 1850, 1850],
+    ['1850-21', 1850, 1850],
+    ['../1800', null, 1800],
+    ['1790?/1810', 1790, 1810],
+  ])('%s → %s…%s', (v, a, b) => expect(edtfYears(v)).toEqual({ earliest: a, latest: b }));
+  it.each(['around 1780', '1785/1770', '1850-13', '17', '../..'])('refuses %s', (v) => expect(edtfYears(v)).toBeNull());
+});
+
+describe('CSV import of pieces', () => {
+  it('round-trips: pieces exported as CSV re-import with every field unchanged', async () => {
+    const p = prefix();
+    const originals = [
+      await makePiece({
+        accessionNumber: `${p}.1a-b`, objectName: 'furnishing fabric', title: 'Bed hanging, "pheasant" pattern; with comma, and quote',
+        dateText: '1770–1785', dateEdtf: '1770/1785', earliestYear: 1770, latestYear: 1785, place: 'Calderwick', fibres: ['cotton', 'linen'],
+        weave: 'plain (tabby)', threadCount: '24 × 22 threads/cm', heightMm: 1840, widthMm: 915.5, repeatMm: 412,
+        techniques: ['block printing', 'mordant printing'],
+        dyestuffs: [{ name: 'madder', evidence: 'identified' }, { name: 'weld', evidence: 'attributed' }],
+        historicalMordants: [{ name: 'lead(II) acetate (sugar of lead)', evidence: 'attributed' }],
+        description: 'Two lines:\nreds and pinks from one madder bath.', provenance: 'Given 1931.', condition: 'Faded fold.', creditLine: 'Gift, 1931', status: 'published',
+      }),
+      await makePiece({ accessionNumber: `${p}.2`, objectName: 'panel', title: 'Plain panel', fibres: [], status: 'draft' }),
+    ];
+    const researcher = await signedInAgent(app, 'researcher');
+    const exported = await researcher.get('/api/export/pieces.csv').buffer(true).expect(200);
+    expect(exported.headers['content-type']).toMatch(/text\/csv/);
+    const rows: Record<string, string>[] = parse(exported.text, { columns: true });
+    const mine = rows.filter((r) => r.accessionNumber.startsWith(p));
+    expect(mine).toHaveLength(2);
+
+    const before = originals.map((o) => o.get({ plain: true }));
+    await Piece.destroy({ where: { id: originals.map((o) => o.id) }, force: true });
+    const csv = stringify(mine, { header: true, columns: Object.keys(rows[0]) });
+    const res = await upload(csv).expect(201);
+    expect(res.body.imported).toBe(2);
+
+    const after = await Piece.findAll({ where: { accessionNumber: { [Op.like]: `${p}%` } }, order: [['accessionNumber', 'ASC']] });
+    const fields = ['accessionNumber', 'objectName', 'title', 'dateText', 'dateEdtf', 'earliestYear', 'latestYear', 'place', 'fibres', 'weave', 'threadCount',
+      'heightMm', 'widthMm', 'repeatMm', 'techniques', 'dyestuffs', 'historicalMordants', 'description', 'provenance', 'condition', 'creditLine', 'status'] as const;
+    for (const [i, piece] of after.entries()) {
+      for (const f of fields) expect([f, piece.get(f)]).toEqual([f, before[i][f]]);
+    }
+  });
+
+  it('maps the file\'s own column names to fields, and fills the years from the EDTF date', async () => {
+    const p = prefix();
+    const csv = `Accession No.,Object,Name of piece,Date (EDTF),Ignored\n${p}.1,panel,Indigo panel,18XX,whatever\n`;
+    const res = await upload(csv, { mapping: { 'Accession No.': 'accessionNumber', Object: 'objectName', 'Name of piece': 'title', 'Date (EDTF)': 'dateEdtf', Ignored: '' } }).expect(201);
+    const piece = await Piece.findByPk(res.body.ids[0]);
+    expect(piece).toMatchObject({ accessionNumber: `${p}.1`, title: 'Indigo panel', earliestYear: 1800, latestYear: 1899, status: 'draft' });
+  });
+
+  it('previews a dry run with the errors of each row and writes nothing', async () => {
+    const p = prefix();
+    const csv = `${HEADER}\n${p}.1,panel,Good,1780,madder (identified),resist\n${p}.2,panel,Bad date,around 1780,,\n${p}.3,panel,Bad dye,,woad; unobtainium,block printing\n`;
+    const res = await upload(csv, { dryRun: true }).expect(200);
+    expect(res.body).toMatchObject({ dryRun: true, rows: 3, valid: 1, invalid: 2 });
+    expect(res.body.items.map((r: { line: number; errors: unknown[] }) => [r.line, r.errors.length])).toEqual([[2, 0], [3, 1], [4, 1]]);
+    expect(res.body.items[1].errors[0]).toMatchObject({ line: 3, field: 'dateEdtf' });
+    expect(res.body.items[2].errors[0]).toMatchObject({ line: 4, field: 'dyestuffs', message: 'Unknown dyestuff "unobtainium".' });
+    expect(await countWith(p)).toBe(0);
+  });
+
+  it('refuses a file missing a required column (422, line 1) and imports nothing', async () => {
+    const p = prefix();
+    const res = await upload(`accessionNumber,objectName\n${p}.1,panel\n`).expect(422);
+    expect(res.body.error.details.errors).toEqual([{ line: 1, field: 'title', message: expect.stringMatching(/required column Title/) }]);
+    expect(await countWith(p)).toBe(0);
+  });
+
+  it('reports duplicate accession numbers in the file and in the archive, each with its line', async () => {
+    const p = prefix();
+    const csv = `${HEADER}\n${p}.1,panel,One,,,\n1931.4.12,panel,Already catalogued,,,\n${p}.1,panel,Again,,,\n`;
+    const res = await upload(csv).expect(422);
+    expect(res.body.error.code).toBe('import_invalid');
+    expect(res.body.error.details.errors).toEqual([
+      { line: 3, field: 'accessionNumber', message: 'Accession number 1931.4.12 is already in the archive.' },
+      { line: 4, field: 'accessionNumber', message: `Accession number ${p}.1 is also on line 2 of this file.` },
+    ]);
+    expect(await countWith(p)).toBe(0);
+  });
+
+  it('refuses a Latin-1 file with a clear message naming the line', async () => {
+    const p = prefix();
+    // "é" in Latin-1 is the single byte 0xE9, which cannot stand alone in UTF-8 (RFC 3629 §3).
+    const latin1 = Buffer.from(`${HEADER}\n${p}.1,panel,Plain,,,\n${p}.2,panel,Toile à fleurs imprimée,,,\n`, 'latin1');
+    const res = await upload(latin1).expect(422);
+    expect(res.body.error.code).toBe('not_utf8');
+    expect(res.body.error.message).toMatch(/not UTF-8: line 3 has the byte 0xE0/);
+    expect(res.body.error.details.errors[0].line).toBe(3);
+    const dry = await upload(latin1, { dryRun: true }).expect(422);
+    expect(dry.body.error.code).toBe('not_utf8');
+    expect(await countWith(p)).toBe(0);
+  });
+
+  it('accepts UTF-8 with a byte-order mark and non-Latin text', async () => {
+    const p = prefix();
+    const res = await upload(Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(`${HEADER}\n${p}.1,panel,"Kalamkari — ""तोता"" motif",,,\n`)])).expect(201);
+    expect((await Piece.findByPk(res.body.ids[0]))?.title).toBe('Kalamkari — "तोता" motif');
+  });
+
+  it('imports nothing when 1 row among 1,000 is bad, and names that row\'s line', async () => {
+    const p = prefix();
+    const lines = [HEADER];
+    for (let i = 1; i <= 1000; i++) lines.push(`${p}.${i},fragment,Sample ${i},1800/1850,${i === 637 ? 'madder; unobtainium' : 'madder'},block printing`);
+    const res = await upload(`${lines.join('\n')}\n`).expect(422);
+    expect(res.body.error.details.errors).toEqual([{ line: 638, field: 'dyestuffs', message: 'Unknown dyestuff "unobtainium".' }]);
+    expect(await countWith(p)).toBe(0);
+    // The same file without the bad cell imports all 1,000 rows in one go.
+    lines[637] = lines[637].replace('madder; unobtainium', 'madder');
+    const ok = await upload(`${lines.join('\n')}\n`).expect(201);
+    expect(ok.body.imported).toBe(1000);
+    expect(await countWith(p)).toBe(1000);
+  });
+
+  it('counts lines across quoted cells that span lines', async () => {
+    const p = prefix();
+    const csv = `${HEADER}\n${p}.1,panel,"Title over\ntwo lines",,,\n${p}.2,,Missing object name,,,\n`;
+    const res = await upload(csv).expect(422);
+    expect(res.body.error.details.errors).toEqual([{ line: 4, field: 'objectName', message: 'Object name is required.' }]);
+  });
+
+  it('lets curators and admins import; researchers, dyers and visitors may not', async () => {
+    const csv = `${HEADER}\n${prefix()}.1,panel,Role check,,,\n`;
+    for (const role of ['researcher', 'dyer'] as const) {
+      const agent = await signedInAgent(app, role);
+      await agent.post('/api/import/pieces').set('Origin', ORIGIN).attach('file', Buffer.from(csv), 'p.csv').expect(403);
+    }
+    await request(app).post('/api/import/pieces').set('Origin', ORIGIN).attach('file', Buffer.from(csv), 'p.csv').expect(401);
+    await upload(csv, { as: 'admin', dryRun: true }).expect(200);
+    const curator = await signedInAgent(app, 'curator');
+    await curator.post('/api/import/pieces').attach('file', Buffer.from(csv), 'p.csv').expect(403);
+    await curator.post('/api/import/pieces').set('Origin', ORIGIN).expect(400);
+  });
+});

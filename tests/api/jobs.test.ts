@@ -1,0 +1,121 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import { Op } from 'sequelize';
+import { createSequelize } from '../../server/db/sequelize.ts';
+import { Job, sequelize } from '../../server/models/index.ts';
+import { claim, enqueue, requeueStale, PermanentJobError } from '../../server/jobs/queue.ts';
+import { registerHandler } from '../../server/jobs/registry.ts';
+import { drain, runOnce } from '../../server/jobs/worker.ts';
+
+// Two separate connection pools stand for two app servers sharing the jobs table.
+const serverA = createSequelize();
+const serverB = createSequelize();
+afterAll(async () => {
+  // Leave no test jobs behind for a server's worker to pick up later.
+  await Job.destroy({ where: { type: { [Op.like]: 't-%' } } });
+  await Promise.all([serverA.close(), serverB.close(), sequelize.close()]);
+});
+
+// Each test uses its own job type so other suites' queued jobs are never touched.
+const uniqueType = (what: string) => `t-${what}-${randomUUID().slice(0, 8)}`;
+
+describe('job queue', () => {
+  it('hands each job to exactly one of two workers claiming at once (SELECT … FOR UPDATE SKIP LOCKED)', async () => {
+    const type = uniqueType('race');
+    const runs: Array<{ job: number; worker: string }> = [];
+    registerHandler(type, {
+      async run(job, ctx) {
+        runs.push({ job: job.id, worker: ctx.workerId });
+        // Yield so the other worker's claims interleave with this one's work.
+        await new Promise((r) => setImmediate(r));
+      },
+    });
+    const jobs = [];
+    for (let i = 0; i < 24; i++) jobs.push(await enqueue({ type, payload: { i } }));
+    const [a, b] = await Promise.all([
+      drain({ db: serverA, workerId: 'server-a', types: [type] }),
+      drain({ db: serverB, workerId: 'server-b', types: [type] }),
+    ]);
+    const ids = jobs.map((j) => j.id).sort((x, y) => x - y);
+    expect([...a, ...b].sort((x, y) => x - y)).toEqual(ids);
+    expect(runs).toHaveLength(24);
+    expect(new Set(runs.map((r) => r.job)).size).toBe(24);
+    const rows = await Job.findAll({ where: { type } });
+    expect(rows.every((r) => r.state === 'done' && r.attempts === 1 && r.progress === 1)).toBe(true);
+  });
+
+  it('never returns the same job to simultaneous raw claims from two connections', async () => {
+    const type = uniqueType('claims');
+    for (let i = 0; i < 5; i++) await enqueue({ type });
+    const claims = await Promise.all(Array.from({ length: 12 }, (_, i) => claim(`w${i}`, { db: i % 2 ? serverA : serverB, types: [type] })));
+    const got = claims.filter((c) => c !== null).map((c) => c!.id);
+    expect(got).toHaveLength(5);
+    expect(new Set(got).size).toBe(5);
+  });
+
+  it('re-queues a running job whose lock went stale (a server died) and runs it again', async () => {
+    const type = uniqueType('stale');
+    let ran = 0;
+    registerHandler(type, { run: async () => void (ran += 1) });
+    const job = await enqueue({ type });
+    const claimed = await claim('server-that-died', { types: [type] });
+    expect(claimed?.id).toBe(job.id);
+    // The dead server's last heartbeat was an hour ago.
+    await Job.update({ lockedAt: new Date(Date.now() - 3600_000) }, { where: { id: job.id } });
+    expect(await runOnce({ types: [type] })).toBeNull();
+    expect(await requeueStale(10 * 60_000)).toBeGreaterThanOrEqual(1);
+    await job.reload();
+    expect(job.state).toBe('queued');
+    expect(job.lockedBy).toBeNull();
+    expect(await runOnce({ types: [type] })).toBe(job.id);
+    await job.reload();
+    expect(job.state).toBe('done');
+    expect(job.attempts).toBe(2);
+    expect(ran).toBe(1);
+  });
+
+  it('leaves a fresh running job alone', async () => {
+    const type = uniqueType('fresh');
+    const job = await enqueue({ type });
+    await claim('busy-server', { types: [type] });
+    await requeueStale(10 * 60_000);
+    await job.reload();
+    expect(job.state).toBe('running');
+    expect(job.lockedBy).toBe('busy-server');
+  });
+
+  it('retries a failing job with back-off, then marks it failed with the reason', async () => {
+    const type = uniqueType('flaky');
+    registerHandler(type, {
+      run: async () => {
+        throw new Error('disk full');
+      },
+    });
+    const job = await enqueue({ type, maxAttempts: 2 });
+    await runOnce({ types: [type] });
+    await job.reload();
+    expect(job.state).toBe('queued');
+    expect(job.error).toBe('disk full');
+    expect(job.runAfter.getTime()).toBeGreaterThan(Date.now());
+    await job.update({ runAfter: new Date(Date.now() - 1000) });
+    await runOnce({ types: [type] });
+    await job.reload();
+    expect(job.state).toBe('failed');
+    expect(job.attempts).toBe(2);
+  });
+
+  it('fails at once on a permanent error', async () => {
+    const type = uniqueType('permanent');
+    registerHandler(type, {
+      run: async () => {
+        throw new PermanentJobError('photo deleted');
+      },
+    });
+    const job = await enqueue({ type });
+    await runOnce({ types: [type] });
+    await job.reload();
+    expect(job.state).toBe('failed');
+    expect(job.error).toBe('photo deleted');
+    expect(job.attempts).toBe(1);
+  });
+});
