@@ -3,6 +3,9 @@ import { AppShell } from './components/AppShell';
 import { Home } from './routes/Home';
 import { NotFound, RouteError } from './routes/NotFound';
 import { SignIn } from './routes/SignIn';
+import { Archive } from './routes/Archive';
+import { PieceDetailPage } from './routes/PieceDetail';
+import { PieceEditPage, PieceNewPage } from './routes/PieceEdit';
 
 export const router = createBrowserRouter([
   {
@@ -11,6 +14,10 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: <Home /> },
       { path: 'sign-in', element: <SignIn /> },
+      { path: 'archive', element: <Archive /> },
+      { path: 'archive/new', element: <PieceNewPage /> },
+      { path: 'archive/:id', element: <PieceDetailPage /> },
+      { path: 'archive/:id/edit', element: <PieceEditPage /> },
       { path: '*', element: <NotFound /> },
     ],
   },
