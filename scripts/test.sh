@@ -4,6 +4,8 @@
 set -euo pipefail
 source "$(dirname "$0")/lib.sh"
 export DATA_DIR=$(realpath -m "${TEST_DATA_DIR:-$ROOT/.data/test}")
+# Uploaded files live with the throwaway database, so photo ids and files never disagree.
+export UPLOADS_DIR=$(realpath -m "${TEST_UPLOADS_DIR:-$DATA_DIR/uploads}")
 export NODE_ENV=test
 if [ -z "${DATABASE_URL:-}" ]; then bash scripts/db.sh stop 2>/dev/null || true; rm -rf "$DATA_DIR"; fi
 mkdir -p "$DATA_DIR"

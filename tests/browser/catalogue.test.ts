@@ -33,7 +33,7 @@ describe('cataloguing a piece in Chromium', () => {
     // A wrong accession number is explained beside the field before anything is sent.
     await page.getByLabel('Accession number').fill('1931/4/12');
     await page.getByRole('button', { name: 'Save draft' }).click();
-    await expect(page.getByText('Use a number such as 1931.4.12').first().isVisible()).resolves.toBe(true);
+    await page.getByText('Use a number such as 1931.4.12').first().waitFor();
 
     await page.getByLabel('Accession number').fill(accession);
     await page.getByLabel('Object name').fill('furnishing fabric');
@@ -44,8 +44,8 @@ describe('cataloguing a piece in Chromium', () => {
     await page.getByLabel(/Height/).fill('420');
     await page.getByRole('button', { name: 'Save draft' }).click();
     await page.getByRole('heading', { name: 'Browser-catalogued madder print' }).waitFor();
-    await expect(page.getByText(accession).first().isVisible()).resolves.toBe(true);
-    await expect(page.getByText('420 mm').isVisible()).resolves.toBe(true);
+    await page.getByText(accession).first().waitFor();
+    await page.getByText('420 mm').waitFor();
 
     const file = path.join(dir, 'recto.jpg');
     await writeFile(file, await clothJpeg({ seed: 21 }));
@@ -60,7 +60,7 @@ describe('cataloguing a piece in Chromium', () => {
     await colours.first().waitFor();
     expect(await colours.count()).toBeGreaterThan(1);
     await expect(colours.first().textContent()).resolves.toMatch(/#[0-9a-f]{6}.*L\*.*a\*.*b\*.*share/s);
-    await expect(page.getByText('source: image estimate').first().isVisible()).resolves.toBe(true);
+    await page.getByText('source: image estimate').first().waitFor();
 
     await page.getByRole('button', { name: 'Publish' }).click();
     await page.getByRole('button', { name: 'Unpublish' }).waitFor();
