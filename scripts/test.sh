@@ -4,8 +4,6 @@
 set -euo pipefail
 source "$(dirname "$0")/lib.sh"
 export DATA_DIR=$(realpath -m "${TEST_DATA_DIR:-$ROOT/.data/test}")
-# Uploaded files live with the throwaway database, so photo ids and files never disagree.
-export UPLOADS_DIR=$(realpath -m "${TEST_UPLOADS_DIR:-$DATA_DIR/uploads}")
 export NODE_ENV=test
 # Photos uploaded by the tests and the demo seed stay inside the throwaway data directory.
 export UPLOADS_DIR="${UPLOADS_DIR:-$DATA_DIR/uploads}"

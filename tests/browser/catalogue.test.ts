@@ -66,5 +66,5 @@ describe('cataloguing a piece in Chromium', () => {
     await page.getByRole('button', { name: 'Unpublish' }).waitFor();
     await page.getByRole('button', { name: 'Show who changed what' }).click();
     await expect(page.getByTestId('history').textContent()).resolves.toMatch(/published.*added a photo.*catalogued/s);
-  });
+  }, 120_000);
 });
