@@ -161,6 +161,7 @@ describe('pieces: soft delete and restore', () => {
     const listed = await curator.get('/api/pieces').query({ deleted: 'only', q: p.accessionNumber }).expect(200);
     expect(listed.body.items.map((x: { id: number }) => x.id)).toEqual([p.id]);
     await researcher.get('/api/pieces').query({ deleted: 'only' }).expect(403);
+    await request(app).get('/api/pieces').query({ deleted: 'only' }).expect(401);
     // The number stays taken while the piece can be restored.
     const dup = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber: p.accessionNumber })).expect(409);
     expect(dup.body.error.message).toMatch(/deleted/);
