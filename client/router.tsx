@@ -13,6 +13,9 @@ import { Team } from './routes/Team';
 import { PhotoZoom } from './routes/PhotoZoom';
 import { ImportPage } from './routes/ImportPage';
 import { FixityPage } from './routes/FixityPage';
+import { Archive } from './routes/Archive';
+import { PieceDetailPage } from './routes/PieceDetail';
+import { PieceEditPage, PieceNewPage } from './routes/PieceEdit';
 
 export const router = createBrowserRouter([
   {
@@ -30,6 +33,10 @@ export const router = createBrowserRouter([
       { path: 'photos/:photoId/zoom', element: <PhotoZoom /> },
       { path: 'import', element: <ImportPage /> },
       { path: 'admin/fixity', element: <FixityPage /> },
+      { path: 'archive', element: <Archive /> },
+      { path: 'archive/new', element: <PieceNewPage /> },
+      { path: 'archive/:id', element: <PieceDetailPage /> },
+      { path: 'archive/:id/edit', element: <PieceEditPage /> },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -10,6 +10,9 @@ import { jobsRouter } from './jobs/index.ts';
 import { fixityRouter } from './admin-fixity/index.ts';
 import { importRouter } from './import/index.ts';
 import { exportRouter, pieceExportRouter } from './export/index.ts';
+import { piecesRouter } from './pieces/index.ts';
+import { photosRouter } from './photos/index.ts';
+import { vocabulariesRouter } from './vocabularies/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -28,5 +31,8 @@ export function apiRouter() {
   router.use('/export', exportRouter);
   // Per-piece exports (Dublin Core, masters ZIP) beside the catalogue's own /pieces routes.
   router.use('/pieces', pieceExportRouter);
+  router.use('/pieces', piecesRouter);
+  router.use('/photos', photosRouter);
+  router.use('/vocabularies', vocabulariesRouter);
   return router;
 }
