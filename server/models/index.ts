@@ -7,6 +7,7 @@ import { initBatchModels, MordantBatch, BatchEvent } from './batches.ts';
 import { initAuditModel, AuditEvent } from './audit.ts';
 import { Session } from './session.ts';
 import { AuthToken } from './auth-token.ts';
+import { AppSetting } from './settings.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -16,6 +17,7 @@ initBatchModels(sequelize);
 initAuditModel(sequelize);
 Session.initModel(sequelize);
 AuthToken.initModel(sequelize);
+AppSetting.initModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -70,4 +72,5 @@ export {
   AuditEvent,
   Session,
   AuthToken,
+  AppSetting,
 };

@@ -2,6 +2,7 @@ import type { MigrationFn } from 'umzug';
 import type { MigrationContext } from '../migrator.ts';
 import * as m0001 from './0001-initial.ts';
 import * as m0002auth from './0002-auth-tokens.ts';
+import * as m0009trials from './0009-trials-settings.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -9,4 +10,5 @@ export type Migration = { name: string; up: MigrationFn<MigrationContext>; down:
 export const migrations: Migration[] = [
   { name: '0001-initial', ...m0001 },
   { name: '0002-auth-tokens', ...m0002auth },
+  { name: '0009-trials-settings', ...m0009trials },
 ];
