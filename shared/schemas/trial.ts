@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { fastnessSchema } from './fastness.ts';
 
 // Shared by the server's validation and the client's forms; types come from z.infer.
 
@@ -10,10 +11,6 @@ export const REASONS = ['toxicity', 'regulation', 'availability', 'waste'] as co
 export const GEOMETRIES = ['d:8°', '45°a:0°'] as const;
 export const ILLUMINANTS = ['D65', 'D50', 'A', 'F2', 'F11'] as const;
 export const OBSERVERS = ['2', '10'] as const;
-/** ISO 105-A02/A03 grey scale grades, half grades written the trade's way. */
-export const GREY_GRADES = ['5', '4-5', '4', '3-4', '3', '2-3', '2', '1-2', '1'] as const;
-/** ISO 105-B02 blue wool references 1–8. */
-export const BLUE_WOOL_GRADES = ['1', '2', '3', '4', '5', '6', '7', '8'] as const;
 
 export const operationLabels: Record<(typeof OPERATIONS)[number], string> = {
   scour: 'Scour',
@@ -42,17 +39,7 @@ export type LabInput = z.infer<typeof labSchema>;
 
 export const colourDifferenceSchema = z.object({ reference: labSchema, sample: labSchema });
 
-const fastnessTest = <T extends readonly [string, ...string[]]>(grades: T) =>
-  z.object({ grade: z.enum(grades, { error: `Grade is one of ${grades.join(', ')}` }), informal: z.boolean().optional(), note: text(255) });
-
-/** Light on the blue wool scale; washing and rubbing on the grey scale for change / staining. */
-export const fastnessSchema = z.object({
-  light: fastnessTest(BLUE_WOOL_GRADES).extend({ scale: z.literal('blue-wool').optional() }).nullable().optional(),
-  washing: fastnessTest(GREY_GRADES).nullable().optional(),
-  rubbingDry: fastnessTest(GREY_GRADES).nullable().optional(),
-  rubbingWet: fastnessTest(GREY_GRADES).nullable().optional(),
-});
-export type FastnessInput = z.infer<typeof fastnessSchema>;
+export { fastnessSchema };
 
 const targetFields = {
   targetPaletteColourId: optionalId,
