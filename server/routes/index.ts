@@ -5,6 +5,11 @@ import { authRouter } from './auth/index.ts';
 import { invitationsRouter } from './invitations/index.ts';
 import { teamRouter } from './team/index.ts';
 import { outboxRouter } from './outbox/index.ts';
+import { piecesRouter } from './pieces/index.ts';
+import { photosRouter } from './photos/index.ts';
+import { vocabulariesRouter } from './vocabularies/index.ts';
+import { pieceTrialsRouter, trialsRouter } from './trials/index.ts';
+import { colourRouter } from './colour/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -15,5 +20,11 @@ export function apiRouter() {
   router.use('/team', teamRouter);
   // The outbox shows the local mail catcher's messages; there is none in production.
   if (!isProduction) router.use('/outbox', outboxRouter);
+  router.use('/pieces', piecesRouter);
+  router.use('/pieces', pieceTrialsRouter);
+  router.use('/photos', photosRouter);
+  router.use('/vocabularies', vocabulariesRouter);
+  router.use('/trials', trialsRouter);
+  router.use('/colour', colourRouter);
   return router;
 }
