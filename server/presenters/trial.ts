@@ -2,7 +2,8 @@ import type { Chemical, ColourMeasurement, Dyestuff, Photo, Piece, RecipeStep, S
 import { abilities, type Actor } from '../policies/index.ts';
 import { computeStep, gramsInStep, type QStep } from '../../shared/trials/quantities.ts';
 import { trialMetalLoad } from '../../shared/trials/metal-load.ts';
-import { isHazardous, presentChemicalBrief } from './chemical-caution.ts';
+import { isHazardous } from './chemical-caution.ts';
+import { presentChemical } from './reference.ts';
 import type { trialColour } from '../services/trials/colour.ts';
 
 type Colour = Awaited<ReturnType<typeof trialColour>>;
@@ -80,7 +81,7 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
       batchVolumeMl: s.batchVolumeMl,
       notes: s.notes,
       computed: computeStep(q, t.dryMassG, roles),
-      cautions: [...new Map(chems.filter(isHazardous).map((c) => [c.id, presentChemicalBrief(c)])).values()],
+      cautions: [...new Map(chems.filter(isHazardous).map((c) => [c.id, presentChemical(c)])).values()],
       warnings,
     };
   });
@@ -95,10 +96,10 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
       id: s.id,
       stepId: s.stepId,
       stepPosition: step?.position ?? null,
-      historicalChemical: h ? presentChemicalBrief(h) : null,
+      historicalChemical: h ? presentChemical(h) : null,
       historicalPractice: s.historicalPractice,
       historicalAmountG: s.historicalAmountG,
-      modernChemical: m ? presentChemicalBrief(m) : null,
+      modernChemical: m ? presentChemical(m) : null,
       modernPractice: s.modernPractice,
       modernAmountG: s.modernAmountG,
       /** The modern amount used in the metal load: as entered, or from the recipe step. */

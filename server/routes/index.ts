@@ -10,6 +10,7 @@ import { photosRouter } from './photos/index.ts';
 import { vocabulariesRouter } from './vocabularies/index.ts';
 import { pieceTrialsRouter, trialsRouter } from './trials/index.ts';
 import { colourRouter } from './colour/index.ts';
+import { chemicalsRouter, dyestuffsRouter } from './reference/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -26,5 +27,7 @@ export function apiRouter() {
   router.use('/vocabularies', vocabulariesRouter);
   router.use('/trials', trialsRouter);
   router.use('/colour', colourRouter);
+  router.use('/chemicals', chemicalsRouter);
+  router.use('/dyestuffs', dyestuffsRouter);
   return router;
 }

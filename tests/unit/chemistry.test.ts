@@ -55,7 +55,7 @@ describe('metal load', () => {
     ]);
     expect(load.Pb).toBeCloseTo(20 * 0.546222, 4);
     expect(load.Al).toBeCloseTo(100 * 0.056879 + 10 * 0.166476, 4);
-    expect(load.K).toBeUndefined();
+    expect((load as Record<string, number>).K).toBeUndefined();
     const perKg = perKgFibre(load, 250);
     expect(perKg.Pb).toBeCloseTo(20 * 0.546222 * 4, 3);
   });

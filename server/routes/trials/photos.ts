@@ -6,7 +6,7 @@ import { actorOf } from '../../http/auth.ts';
 import { HttpError, badRequest } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
 import { ingestPhoto, removePhotoFiles } from '../../media/pipeline.ts';
-import { sequelize, type Photo } from '../../models/index.ts';
+import { sequelize, type PaletteColour, type Photo } from '../../models/index.ts';
 import { loadWritableTrial } from './load.ts';
 
 /** POST /api/trials/:id/photos: one swatch photo through the media pipeline (palette and all). */
@@ -40,7 +40,7 @@ trialPhotosRouter.post('/', async (req, res, next) => {
       });
       res.status(201).json({
         photo: { id: photo.id, width: photo.width, height: photo.height, view: photo.view, originalName: photo.originalName },
-        palette: palette.map((c) => ({ rank: c.rank, L: c.L, a: c.a, b: c.b, hex: c.hex, share: c.share, name: c.name, variant: c.variant, background: c.background })),
+        palette: palette.map((c: PaletteColour) => ({ rank: c.rank, L: c.L, a: c.a, b: c.b, hex: c.hex, share: c.share, name: c.name, variant: c.variant, background: c.background })),
       });
     } catch (e) {
       if (stored) await removePhotoFiles(stored).catch(() => undefined);

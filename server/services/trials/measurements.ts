@@ -45,7 +45,7 @@ export function parseMeasurementCsv(csv: string): { rows: ReturnType<typeof meas
   let records: Array<{ record: string[]; info: { lines: number } }>;
   try {
     // info.lines is the file line a record ends on, so blank lines do not shift the reported numbers.
-    records = parse(csv, { bom: true, skip_empty_lines: true, trim: true, relax_column_count: true, info: true }) as typeof records;
+    records = parse(csv, { bom: true, skip_empty_lines: true, trim: true, relax_column_count: true, info: true }) as unknown as typeof records;
   } catch (e) {
     const line = (e as { lines?: number }).lines ?? 1;
     return { rows: [], errors: [{ line, errors: [`The file is not readable CSV: ${(e as Error).message}`] }] };
@@ -70,7 +70,7 @@ export function parseMeasurementCsv(csv: string): { rows: ReturnType<typeof meas
       const n = Number(raw[k].replace(',', '.'));
       return Number.isFinite(n) ? n : raw[k];
     };
-    const io = raw.illuminantObserver ? splitIlluminant(raw.illuminantObserver) : {};
+    const io: { illuminant?: string; observer?: string } = raw.illuminantObserver ? splitIlluminant(raw.illuminantObserver) : {};
     const geometry = raw.geometry?.replace(/\s/g, '');
     const candidate = {
       L: num('L'), a: num('a'), b: num('b'),

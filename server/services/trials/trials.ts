@@ -81,7 +81,7 @@ export async function replaceSteps({ transaction, input }: Ctx<StepsInput & { tr
   return created;
 }
 
-async function checkSubstitution(trialId: number, v: SubstitutionInput, transaction: Transaction) {
+async function checkSubstitution(trialId: number, v: ReturnType<typeof substitutionSchema.parse>, transaction: Transaction) {
   if (v.stepId != null && !(await RecipeStep.findOne({ where: { id: v.stepId, trialId }, transaction }))) {
     throw badRequest('Some fields are not valid.', { fields: { stepId: ['Choose a step of this trial.'] } });
   }
