@@ -137,3 +137,7 @@ export const presentMeasurement = (m: ColourMeasurement) => ({
   id: m.id, L: m.L, a: m.a, b: m.b, illuminant: m.illuminant, observer: m.observer, geometry: m.geometry, specular: m.specular,
   instrument: m.instrument, label: m.label, takenOn: m.takenOn, source: m.source,
 });
+
+export type TrialSummaryView = ReturnType<typeof presentTrialSummary>;
+export type TrialView = ReturnType<typeof presentTrial>;
+export type MeasurementView = ReturnType<typeof presentMeasurement>;
