@@ -1,8 +1,8 @@
 import type { Transaction } from 'sequelize';
-import { DEFAULT_BANDS } from '../../shared/colour/index.ts';
+import { DEFAULT_BANDS, type Bands } from '../../shared/colour/index.ts';
 import { AppSetting } from '../models/index.ts';
 
-export type VerdictBands = typeof DEFAULT_BANDS;
+export type VerdictBands = Bands;
 export const VERDICT_BANDS_KEY = 'colour.verdictBands';
 const DEFAULT_SOURCE = 'common practice (ΔE00 ≤ 1 match, ≤ 2 close, ≤ 4 near, > 4 different); no published source';
 

@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { colourDifferenceSchema } from '../../../shared/schemas/trial.ts';
-import { differenceReport, verdictFor } from '../../../shared/colour/index.ts';
+import { differenceReport } from '../../../shared/colour/index.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden } from '../../http/errors.ts';
 import { parseBody } from '../../http/validate.ts';
@@ -19,21 +19,22 @@ export const colourRouter = Router();
 colourRouter.post('/difference', async (req, res) => {
   const { reference, sample } = parseBody(colourDifferenceSchema, req);
   const { bands, source } = await verdictBands();
-  const report = differenceReport(reference, sample);
-  res.json({ ...report, verdict: verdictFor(report.deltaE00, bands), bands, bandsSource: source });
+  res.json({ ...differenceReport(reference, sample, bands), bands, bandsSource: source });
 });
 
 colourRouter.get('/verdict-bands', async (_req, res) => {
   res.json(await verdictBands());
 });
 
-const bandsInput = z.object({ bands: z.record(z.string(), z.unknown()), source: z.string().trim().min(3).max(255) });
+const limit = z.number().positive().max(100);
+const bandsInput = z.object({
+  bands: z.object({ match: limit, close: limit, near: limit }).refine((b) => b.match < b.close && b.close < b.near, { message: 'Bands must rise: match < close < near.' }),
+  source: z.string().trim().min(3, 'Say where the bands come from').max(255),
+});
 
-/** Admins tune the verdict bands; the server checks the shape against the shared colour module's defaults. */
+/** Admins tune the verdict bands (ΔE00 upper bounds), naming their source. */
 colourRouter.put('/verdict-bands', requireUser, async (req, res) => {
   const input = parseBody(bandsInput, req);
   if (!can(actorOf(req), 'reference:manage')) throw forbidden('Only admins change the verdict bands.');
-  const current = await verdictBands();
-  const bands = { ...current.bands, ...input.bands } as typeof current.bands;
-  res.json(await sequelize.transaction((transaction) => setVerdictBands(bands, input.source, transaction)));
+  res.json(await sequelize.transaction((transaction) => setVerdictBands(input.bands, input.source, transaction)));
 });

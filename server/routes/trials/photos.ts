@@ -2,7 +2,7 @@ import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { idParams } from '../../../shared/schemas/trial.ts';
 import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
-import { actorOf } from '../../http/auth.ts';
+import { actorOf, currentUser } from '../../http/auth.ts';
 import { HttpError, badRequest } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
 import { ingestPhoto, removePhotoFiles } from '../../media/pipeline.ts';
@@ -34,7 +34,7 @@ trialPhotosRouter.post('/', async (req, res, next) => {
       const file = req.file;
       if (!file) throw badRequest(`Attach the swatch photo in the form field "${UPLOAD_FIELD}".`, { fields: { [UPLOAD_FIELD]: ['Attach a photo'] } });
       const { photo, palette } = await sequelize.transaction(async (transaction) => {
-        const result = await ingestPhoto({ actor, transaction, input: { buffer: file.buffer, originalName: file.originalname, trialId: trial.id, view: 'swatch' } });
+        const result = await ingestPhoto({ actor: currentUser(req), transaction, input: { buffer: file.buffer, originalName: file.originalname, trialId: trial.id, view: 'swatch' } });
         stored = result.photo;
         return result;
       });

@@ -1,5 +1,5 @@
 import { Op } from 'sequelize';
-import { differenceReport, verdictFor } from '../../../shared/colour/index.ts';
+import { differenceReport } from '../../../shared/colour/index.ts';
 import { ColourMeasurement, PaletteColour, Photo, type Trial } from '../../models/index.ts';
 import { verdictBands } from '../settings.ts';
 
@@ -64,6 +64,5 @@ export async function resolveResult(trial: Trial): Promise<ResolvedColour | null
 export async function trialColour(trial: Trial) {
   const [target, result, { bands, source }] = await Promise.all([resolveTarget(trial), resolveResult(trial), verdictBands()]);
   if (!target || !result) return { target, result, difference: null, bandsSource: source };
-  const report = differenceReport(lab(target), lab(result));
-  return { target, result, difference: { ...report, verdict: verdictFor(report.deltaE00, bands) }, bandsSource: source };
+  return { target, result, difference: differenceReport(lab(target), lab(result), bands), bandsSource: source };
 }
