@@ -2,11 +2,11 @@ import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { idParams } from '../../../shared/schemas/piece.ts';
 import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
-import { actorOf, requireUser } from '../../http/auth.ts';
+import { actorOf, currentUser, requireUser } from '../../http/auth.ts';
 import { HttpError, badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
 import { ingestPhoto, removePhotoFiles } from '../../media/pipeline.ts';
-import { sequelize, type Photo } from '../../models/index.ts';
+import { sequelize, type Photo, type User } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
 import { presentPhoto } from '../../presenters/photo.ts';
@@ -34,11 +34,11 @@ const receiveFiles: RequestHandler = (req, res, next) =>
   });
 
 /** One photo, all rows in one transaction; any failure removes every file it wrote. */
-async function ingestOne(actor: Actor, pieceId: number, file: Express.Multer.File) {
+async function ingestOne(user: User | null, actor: Actor, pieceId: number, file: Express.Multer.File) {
   let stored: Photo | null = null;
   try {
     return await sequelize.transaction(async (transaction) => {
-      const result = await ingestPhoto({ actor, transaction, input: { buffer: file.buffer, originalName: file.originalname, pieceId } });
+      const result = await ingestPhoto({ actor: user, transaction, input: { buffer: file.buffer, originalName: file.originalname, pieceId } });
       stored = result.photo;
       await audit({ actor, transaction }, 'piece', pieceId, 'photo-added', { photo: { from: null, to: result.photo.id } });
       return result;
@@ -63,7 +63,7 @@ photoUploadRouter.post('/', requireUser, async (req, res, next) => {
       const photos = [];
       for (const [index, file] of files.entries()) {
         try {
-          const { photo, palette } = await ingestOne(actor, piece.id, file);
+          const { photo, palette } = await ingestOne(currentUser(req), actor, piece.id, file);
           photos.push(presentPhoto(photo, actor, { palette }));
         } catch (e) {
           // Earlier files of the same request stay stored; the answer names the one refused.
