@@ -1,7 +1,10 @@
 // Every client route in one place; components build links from these, never by hand.
 export const paths = {
   home: () => '/',
-  signIn: () => '/sign-in',
+  signIn: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'),
+  forgotPassword: () => '/forgot-password',
+  resetPassword: (token: string) => `/reset-password/${token}`,
+  join: (token: string) => `/join/${token}`,
   archive: () => '/archive',
   pieceNew: () => '/archive/new',
   piece: (id: number | string) => `/archive/${id}`,
@@ -14,4 +17,5 @@ export const paths = {
   series: () => '/series',
   reference: () => '/reference',
   team: () => '/team',
+  outbox: () => '/outbox',
 } as const;
