@@ -126,13 +126,14 @@ trialsRouter.delete('/:id/measurements/:childId', async (req, res) => {
   res.status(204).end();
 });
 
-/** A CSV of readings as the request body (text/csv): all rows, or none with the bad lines listed. */
+/** A CSV of readings: all rows, or none with the bad lines listed. */
 trialsRouter.post('/:id/measurements/import', express.text({ type: ['text/csv', 'text/plain', 'application/csv'], limit: '2mb' }), async (req, res) => {
   const actor = actorOf(req);
   const { id } = parseParams(idParams, req);
   const trial = await loadWritableTrial(actor, id);
-  if (typeof req.body !== 'string' || !req.body.trim()) throw badRequest('Send the CSV file as the request body with Content-Type text/csv.');
-  const csv = req.body;
+  // The file as the body (text/csv), or { csv: "…" } as JSON.
+  const csv: unknown = typeof req.body === 'string' ? req.body : req.body?.csv;
+  if (typeof csv !== 'string' || !csv.trim()) throw badRequest('Send the CSV file as the request body (Content-Type text/csv) or as { "csv": "…" }.', { fields: { csv: ['Attach a CSV file of readings'] } });
   const rows = await sequelize.transaction((transaction) => importMeasurements({ actor, transaction, input: { trial, csv } }));
   res.status(201).json({ imported: rows.length, measurements: rows.map(presentMeasurement) });
 });
