@@ -13,6 +13,10 @@ import { Archive } from './routes/Archive';
 import { PieceDetailPage } from './routes/PieceDetail';
 import { PieceEditPage, PieceNewPage } from './routes/PieceEdit';
 import { Team } from './routes/Team';
+import { TrialsPage } from './features/trials/components/TrialsPage';
+import { TrialNewPage } from './features/trials/components/TrialNewPage';
+import { TrialPage } from './features/trials/components/TrialPage';
+import { SideBySidePage } from './features/trials/components/SideBySidePage';
 
 export const router = createBrowserRouter([
   {
@@ -31,6 +35,15 @@ export const router = createBrowserRouter([
       { path: 'join/:token', element: <JoinTeam /> },
       { element: <RequireAbility action="team:manage" />, children: [{ path: 'team', element: <Team /> }] },
       { element: <RequireAbility action="outbox:read" />, children: [{ path: 'outbox', element: <Outbox /> }] },
+      {
+        element: <RequireAbility action="trial:read" />,
+        children: [
+          { path: 'trials', element: <TrialsPage /> },
+          { path: 'trials/:id', element: <TrialPage /> },
+          { path: 'archive/:id/side-by-side', element: <SideBySidePage /> },
+        ],
+      },
+      { element: <RequireAbility action="trial:create" />, children: [{ path: 'trials/new', element: <TrialNewPage /> }] },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -1,3 +1,4 @@
+import type { TrialStatus } from '../models/trials.ts';
 import type { Chemical, ColourMeasurement, Dyestuff, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../models/index.ts';
 import { abilities, type Actor } from '../policies/index.ts';
 import { computeStep, gramsInStep, type QStep } from '../../shared/trials/quantities.ts';
@@ -21,7 +22,7 @@ export function presentTrialSummary(t: Trial & { piece?: Piece | null; dyer?: Us
     id: t.id,
     code: t.code,
     kind: t.kind,
-    status: t.status,
+    status: t.status as TrialStatus,
     piece: pieceRef(t.piece),
     dyer: userRef(t.dyer),
     fibre: t.fibre,

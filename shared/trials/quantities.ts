@@ -1,5 +1,5 @@
 import { pasteMakeUp, type PasteMakeUp } from '../compute/paste.ts';
-import { stepQuantities, type IngredientQuantity } from '../compute/recipe.ts';
+import { scaleRecipe, stepQuantities, type IngredientQuantity } from '../compute/recipe.ts';
 import type { Basis } from '../compute/recipe.ts';
 
 // Joins a stored recipe step to the shared recipe and paste arithmetic; the maths lives in shared/compute.
@@ -56,4 +56,10 @@ export function gramsInStep(step: QStep, chemicalId: number, dryMassG: number, r
     if (g != null) total = (total ?? 0) + g;
   });
   return total;
+}
+
+/** Scale stored steps to another dry mass (shared/compute's scaleRecipe; a paste's volume scales with the mass). */
+export function scaleSteps<S extends QStep>(steps: readonly S[], fromDryMassG: number, toDryMassG: number): S[] {
+  const like = steps.map((s) => ({ ...s, volumeL: s.paste ? s.paste.volumeMl / 1000 : null }));
+  return scaleRecipe(like, fromDryMassG, toDryMassG).map(({ volumeL, ...s }) => ({ ...s, paste: s.paste && volumeL != null ? { ...s.paste, volumeMl: volumeL * 1000 } : s.paste }) as unknown as S);
 }
