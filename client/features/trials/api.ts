@@ -6,7 +6,7 @@ import { http } from '../../lib/http';
 
 export type { TrialSummaryView, TrialView, MeasurementView };
 export type TrialList = { items: TrialSummaryView[]; total: number; page: number; pageSize: number };
-export type PieceTrials = TrialList & { piece: { id: number; accessionNumber: string; title: string } };
+export type PieceTrials = TrialList & { piece: { id: number; accessionNumber: string; title: string }; targets: { measurements: MeasurementView[] } };
 
 /** Every trial query key comes from here, so mutations invalidate exactly what changed. */
 export const trialKeys = {

@@ -1,6 +1,6 @@
 import { Op } from 'sequelize';
 import { differenceReport } from '../../../shared/colour/index.ts';
-import { ColourMeasurement, PaletteColour, Photo, type Trial } from '../../models/index.ts';
+import { ColourMeasurement, PaletteColour, Photo, Region, type Trial } from '../../models/index.ts';
 import { verdictBands } from '../settings.ts';
 
 export type ColourSource = 'instrument' | 'image-estimate';
@@ -65,4 +65,14 @@ export async function trialColour(trial: Trial) {
   const [target, result, { bands, source }] = await Promise.all([resolveTarget(trial), resolveResult(trial), verdictBands()]);
   if (!target || !result) return { target, result, difference: null, bandsSource: source };
   return { target, result, difference: differenceReport(lab(target), lab(result), bands), bandsSource: source };
+}
+
+/** Instrument readings of a piece's original: on the piece itself or on a region of one of its photos. */
+export async function pieceMeasurements(pieceId: number) {
+  const photoIds = (await Photo.findAll({ where: { pieceId }, attributes: ['id'] })).map((p) => p.id);
+  const regionIds = photoIds.length ? (await Region.findAll({ where: { photoId: photoIds }, attributes: ['id'] })).map((r) => r.id) : [];
+  return ColourMeasurement.findAll({
+    where: { trialId: { [Op.is]: null }, [Op.or]: [{ pieceId }, ...(regionIds.length ? [{ regionId: regionIds }] : [])] },
+    order: [['id', 'ASC']],
+  });
 }
