@@ -2,6 +2,7 @@ import { hashPassword } from '../../server/auth/passwords.ts';
 import { issueToken } from '../../server/auth/tokens.ts';
 import { Chemical, ColourMeasurement, Substitution, Trial, User } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
+import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 
 /**
@@ -112,5 +113,5 @@ export const routeMatrix: MatrixRow[] = [
   row('POST /api/pieces/:id/trials', dyersCreate, { setup: async () => ({ params: { id: (await makePiece()).id }, body: { dryMassG: 40 } }) }),
   row('POST /api/colour/difference', everyone('2xx'), { body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } } }),
   row('GET /api/colour/verdict-bands', everyone('2xx')),
-  row('PUT /api/colour/verdict-bands', adminOnly, { body: { bands: { match: 1, close: 2, near: 4 }, source: 'common practice (the defaults, written back by the route matrix)' } }),
+  row('PUT /api/colour/verdict-bands', adminOnly, { body: { bands: { match: 1, close: 2, near: 4 }, source: DEFAULT_BANDS_SOURCE } }),
 ];

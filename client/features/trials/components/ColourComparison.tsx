@@ -1,6 +1,6 @@
 import type { TrialSummaryView } from '../api';
-import { fmt } from '../format';
-import { Swatch } from './Swatch';
+import { labToHex } from '../../../../shared/colour';
+import { fmt, lab as labText } from '../format';
 import { VerdictBadge } from './VerdictBadge';
 
 type Colour = NonNullable<TrialSummaryView['colour']>;
@@ -10,10 +10,28 @@ const sourceWords = { instrument: 'instrument measurement', 'image-estimate': 'i
 export function ColourComparison({ colour, large = false }: { colour: Colour; large?: boolean }) {
   const d = colour.difference;
   const src = (c: Colour['target']) => (c ? `${sourceWords[c.source]}: ${c.label}${c.setAside ? ' (an image estimate of the same place was set aside: measured colour outranks it)' : ''}` : undefined);
+  const block = (c: Colour['target'], label: string) =>
+    c ? <div className="flex-1" role="img" aria-label={`${label}: ${labText(c)}`} style={{ background: labToHex(c) }} /> : <div className="flex flex-1 items-center justify-center bg-neutral-light text-sm text-ink-soft">{label}: no colour yet</div>;
+  const caption = (c: Colour['target'], label: string) => (
+    <div className="text-xs">
+      <p className="font-medium text-ink">{label}</p>
+      {c ? <p className="font-mono text-ink-soft">{labText(c)}</p> : null}
+      {c ? <p className="text-ink-soft">{src(c)}</p> : null}
+    </div>
+  );
   return (
-    <div className="grid gap-4 md:grid-cols-[1fr_1fr_minmax(12rem,16rem)]">
-      <div className="rounded-lg bg-neutral-ground p-3"><Swatch size={large ? 'lg' : 'md'} label="Original (target)" colour={colour.target} caption={src(colour.target)} /></div>
-      <div className="rounded-lg bg-neutral-ground p-3"><Swatch size={large ? 'lg' : 'md'} label="Reproduction (result)" colour={colour.result} caption={src(colour.result)} /></div>
+    <div className="grid gap-4 md:grid-cols-[1fr_minmax(12rem,16rem)]">
+      <div>
+        {/* Both colours touch on one neutral grey ground: the fairest way to judge them by eye. */}
+        <div className={`flex rounded-lg bg-neutral-ground p-6 ${large ? 'h-64' : 'h-40'}`}>
+          {block(colour.target, 'Original (target)')}
+          {block(colour.result, 'Reproduction (result)')}
+        </div>
+        <div className="mt-2 grid grid-cols-2 gap-4">
+          {caption(colour.target, 'Original (target)')}
+          {caption(colour.result, 'Reproduction (result)')}
+        </div>
+      </div>
       <div className="rounded-lg border border-rule bg-sheet p-3 text-sm">
         {d ? (
           <>
