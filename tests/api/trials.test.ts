@@ -235,3 +235,19 @@ describe('measurements and the colour difference to the target', () => {
     expect(await ColourMeasurement.count({ where: { trialId: t.id } })).toBe(3);
   });
 });
+
+describe('the demo scenario', () => {
+  it('shows T-2024-001 with its measured difference from the red ground and the lead it avoided', async () => {
+    const list = await dyer.get('/api/trials?q=T-2024-001').expect(200);
+    const summary = list.body.items.find((t: { code: string }) => t.code === 'T-2024-001');
+    const { trial } = (await dyer.get(`/api/trials/${summary.id}`).expect(200)).body;
+    expect(trial.colour.target).toMatchObject({ source: 'instrument', label: 'madder red ground' });
+    expect(trial.colour.result.label).toMatch(/mean of 2/);
+    expect(trial.colour.difference.deltaE00).toBeGreaterThan(0);
+    // 18 g of Pb(CH3COO)2·3H2O × 0.546222 (tests/reference/mordant-compounds.json).
+    const lead = trial.metalLoad.rows.find((r: { metal: string }) => r.metal === 'Pb');
+    expect(lead.avoidedG).toBeCloseTo(18 * compound('Pb(CH3COO)2·3H2O').metal_mass_fraction.Pb, 4);
+    expect(trial.fastness.washing).toMatchObject({ change: '4-5' });
+  });
+});
+
