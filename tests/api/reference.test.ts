@@ -2,8 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import compounds from '../reference/mordant-compounds.json' with { type: 'json' };
 import { createApp } from '../../server/app.ts';
-import { Chemical, sequelize } from '../../server/models/index.ts';
-import { signedInAgent, type DemoRole } from '../support/agents.ts';
+import { AuditEvent, Chemical, sequelize } from '../../server/models/index.ts';
+import { ORIGIN, signedInAgent, type DemoRole } from '../support/agents.ts';
 import type { ChemicalView } from '../../shared/schemas/reference.ts';
 
 const app = createApp();
@@ -26,6 +26,7 @@ beforeAll(async () => {
   });
 });
 afterAll(async () => {
+  if (made) await AuditEvent.destroy({ where: { entity: 'chemical', entityId: made.id } });
   await made?.destroy();
   await sequelize.close();
 });
@@ -98,5 +99,41 @@ describe('reference role matrix', () => {
     const agent = role ? await signedInAgent(app, role) : request.agent(app);
     for (const r of routes) await agent.get(r).expect(200);
     await agent.get(`/api/chemicals/${made.id}`).expect(200);
+  });
+});
+
+describe('PATCH /api/chemicals/:id (admin keeps the reference)', () => {
+  it('lets an admin change hazard data and the formula, recomputes the derived fields and audits the change', async () => {
+    const admin = await signedInAgent(app, 'admin');
+    const res = await admin
+      .patch(`/api/chemicals/${made.id}`)
+      .set('Origin', ORIGIN)
+      .send({ formula: 'Pb(CH3COO)2·3H2O', metal: 'Pb', hStatements: ['H360Df May damage the unborn child.'] })
+      .expect(200);
+    // Pb(CH3COO)2·3H2O: 379.333 g/mol, Pb 0.546222 (tests/reference/mordant-compounds.json, IUPAC 2021).
+    expect(res.body.molarMass).toBeCloseTo(379.333, 3);
+    expect(res.body.metalMassFraction).toBeCloseTo(0.546222, 6);
+    expect(res.body.ghs.hStatements).toEqual(['H360Df May damage the unborn child.']);
+    const audit = await AuditEvent.findOne({ where: { entity: 'chemical', entityId: made.id }, order: [['id', 'DESC']] });
+    expect(audit?.changes).toMatchObject({ formula: { from: 'K2Cr2O7', to: 'Pb(CH3COO)2·3H2O' }, metal: { from: 'Cr', to: 'Pb' } });
+  });
+
+  it('refuses a formula that does not parse, with the field named', async () => {
+    const admin = await signedInAgent(app, 'admin');
+    const res = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ formula: 'KAl(SO4' }).expect(400);
+    expect(res.body.error.details.fields).toHaveProperty('formula');
+    await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({}).expect(400);
+  });
+
+  it('answers 401 signed out, 403 for other roles, 403 without the Origin header, 404 for a missing row', async () => {
+    await request(app).patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ status: 'permitted' }).expect(401);
+    for (const role of ['curator', 'researcher', 'dyer'] as const) {
+      const agent = await signedInAgent(app, role);
+      await agent.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ status: 'permitted' }).expect(403);
+    }
+    const admin = await signedInAgent(app, 'admin');
+    await admin.patch(`/api/chemicals/${made.id}`).send({ status: 'permitted' }).expect(403);
+    await admin.patch('/api/chemicals/999999999').set('Origin', ORIGIN).send({ status: 'permitted' }).expect(404);
+    expect((await Chemical.findByPk(made.id))?.status).toBe('historical-only');
   });
 });

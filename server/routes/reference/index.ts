@@ -1,12 +1,13 @@
 import { Router } from 'express';
 import { Op, type WhereOptions } from 'sequelize';
-import { chemicalListQuery, dyestuffListQuery, idParams } from '../../../shared/schemas/reference.ts';
-import { actorOf } from '../../http/auth.ts';
+import { chemicalListQuery, chemicalPatchSchema, dyestuffListQuery, idParams } from '../../../shared/schemas/reference.ts';
+import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
-import { parseParams, parseQuery } from '../../http/validate.ts';
-import { Chemical, Dyestuff } from '../../models/index.ts';
+import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
+import { Chemical, Dyestuff, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { presentChemical, presentDyestuff } from '../../presenters/reference.ts';
+import { updateChemical } from '../../services/reference.ts';
 
 // The chemical and dyestuff reference is readable by everyone, signed in or not (`reference:read`).
 export const chemicalsRouter = Router();
@@ -36,6 +37,18 @@ chemicalsRouter.get('/:id', async (req, res) => {
   const chemical = await Chemical.findByPk(id);
   if (!chemical || !can(actorOf(req), 'reference:read')) throw notFound('Chemical');
   res.json(presentChemical(chemical));
+});
+
+// Admins keep the reference (hazard data, status, formula); every change is audited.
+chemicalsRouter.patch('/:id', requireUser, async (req, res) => {
+  const { id } = parseParams(idParams, req);
+  const patch = parseBody(chemicalPatchSchema, req);
+  const actor = actorOf(req);
+  const chemical = await Chemical.findByPk(id);
+  if (!chemical || !can(actor, 'reference:read')) throw notFound('Chemical');
+  if (!can(actor, 'reference:manage')) throw forbidden();
+  const updated = await sequelize.transaction((transaction) => updateChemical({ actor, transaction, input: { chemical, patch } }));
+  res.json(presentChemical(updated));
 });
 
 dyestuffsRouter.get('/', async (req, res) => {
