@@ -49,6 +49,7 @@ type DetailParts = {
   photos: Photo[];
   chemicals: Map<number, Chemical>;
   dyestuffs: Map<number, Dyestuff>;
+  batches: Map<number, { id: number; code: string; name: string }>;
   colour: Colour;
 };
 
@@ -79,6 +80,7 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
       ph: s.ph,
       paste: q.paste,
       batchId: s.batchId,
+      batch: s.batchId != null ? parts.batches.get(s.batchId) ?? null : null,
       batchVolumeMl: s.batchVolumeMl,
       notes: s.notes,
       computed: computeStep(q, t.dryMassG, roles),

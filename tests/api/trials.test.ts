@@ -248,6 +248,7 @@ describe('the demo scenario', () => {
     const lead = trial.metalLoad.rows.find((r: { metal: string }) => r.metal === 'Pb');
     expect(lead.avoidedG).toBeCloseTo(18 * compound('Pb(CH3COO)2·3H2O').metal_mass_fraction.Pb, 4);
     expect(trial.fastness.washing).toMatchObject({ change: '4-5' });
+    expect(trial.steps.find((s: { operation: string }) => s.operation === 'print-paste')).toMatchObject({ batch: { code: 'MB-07' }, batchVolumeMl: 160 });
   });
 });
 

@@ -2,7 +2,7 @@ import { Op, type WhereOptions } from 'sequelize';
 import type { z } from 'zod';
 import type { trialListQuerySchema } from '../../../shared/schemas/trial.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
-import { Chemical, ColourMeasurement, Dyestuff, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../../models/index.ts';
+import { Chemical, ColourMeasurement, Dyestuff, MordantBatch, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import { presentTrial, presentTrialSummary, trialPolicyRecord } from '../../presenters/trial.ts';
 import { trialColour } from '../../services/trials/colour.ts';
@@ -39,11 +39,17 @@ export async function presentTrialDetail(actor: Actor, trial: Trial & { piece?: 
   const dyeIds = new Set<number>();
   for (const s of steps) for (const i of s.ingredients) (i.kind === 'chemical' ? chemIds : dyeIds).add(i.refId);
   for (const s of substitutions) for (const id of [s.historicalChemicalId, s.modernChemicalId]) if (id != null) chemIds.add(id);
-  const [chemicals, dyestuffs] = await Promise.all([Chemical.findAll({ where: { id: [...chemIds] } }), Dyestuff.findAll({ where: { id: [...dyeIds] } })]);
+  const batchIds = [...new Set(steps.map((s) => s.batchId).filter((x): x is number => x != null))];
+  const [chemicals, dyestuffs, batches] = await Promise.all([
+    Chemical.findAll({ where: { id: [...chemIds] } }),
+    Dyestuff.findAll({ where: { id: [...dyeIds] } }),
+    MordantBatch.findAll({ where: { id: batchIds }, attributes: ['id', 'code', 'name'] }),
+  ]);
   return presentTrial(trial, actor, {
     steps, substitutions, measurements, photos, colour,
     chemicals: new Map(chemicals.map((c) => [c.id, c])),
     dyestuffs: new Map(dyestuffs.map((d) => [d.id, d])),
+    batches: new Map(batches.map((b) => [b.id, { id: b.id, code: b.code, name: b.name }])),
   });
 }
 

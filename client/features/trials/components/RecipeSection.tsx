@@ -50,7 +50,7 @@ function StepRow({ step, computed, modern }: { step: Step; computed: StepCompute
             {step.temperatureC != null ? <div><Qty value={step.temperatureC} unit="°C" decimals={0} /></div> : null}
             {step.minutes != null ? <div><Qty value={step.minutes} unit="min" decimals={0} /></div> : null}
             {step.ph != null ? <div>pH <span className="font-mono">{fmt(step.ph, 1)}</span></div> : null}
-            {step.batchVolumeMl != null ? <div>drawn from batch #{step.batchId}: <Qty value={step.batchVolumeMl} unit="mL" decimals={0} /></div> : null}
+            {step.batchVolumeMl != null ? <div>drawn from {step.batch ? <span className="font-mono">{step.batch.code}</span> : `batch #${step.batchId}`}: <Qty value={step.batchVolumeMl} unit="mL" decimals={0} /></div> : null}
           </div>
         </td>
       </tr>
