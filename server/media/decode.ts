@@ -21,14 +21,19 @@ export const open = (input: Input) =>
  */
 export async function workingImage(input: Input, region?: Rect, size = WORKING_SIZE): Promise<RawImage & { scale: number }> {
   let img = open(input).rotate();
+  let frameWidth = 0;
   if (region) {
-    // Extract after auto-orientation needs a materialised upright image.
-    const upright = await img.raw().toBuffer({ resolveWithObject: true });
-    const { width, height, channels } = upright.info;
+    const { width, height } = await uprightSize(input);
     const left = Math.min(width - 1, Math.max(0, Math.round(region.x))), top = Math.min(height - 1, Math.max(0, Math.round(region.y)));
-    img = sharp(upright.data, { raw: { width, height, channels: channels as 3 | 4 } }).extract({
-      left, top, width: Math.max(1, Math.min(width - left, Math.round(region.w))), height: Math.max(1, Math.min(height - top, Math.round(region.h))),
-    });
+    const box = { left, top, width: Math.max(1, Math.min(width - left, Math.round(region.w))), height: Math.max(1, Math.min(height - top, Math.round(region.h))) };
+    frameWidth = box.width;
+    if (!Buffer.isBuffer(input) || ((await open(input).metadata()).orientation ?? 1) === 1) {
+      img = open(input).extract(box);
+    } else {
+      // Extracting after auto-orientation needs the upright image materialised first.
+      const upright = await img.raw().toBuffer({ resolveWithObject: true });
+      img = sharp(upright.data, { raw: { width: upright.info.width, height: upright.info.height, channels: upright.info.channels as 3 | 4 } }).extract(box);
+    }
   }
   const { data, info } = await img
     .resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' })
@@ -36,7 +41,7 @@ export async function workingImage(input: Input, region?: Rect, size = WORKING_S
     .toColourspace('srgb')
     .raw()
     .toBuffer({ resolveWithObject: true });
-  const fullWidth = region ? region.w : (await uprightSize(input)).width;
+  const fullWidth = region ? frameWidth : (await uprightSize(input)).width;
   return { data: new Uint8Array(data.buffer, data.byteOffset, data.length), width: info.width, height: info.height, scale: info.width / fullWidth };
 }
 

@@ -184,8 +184,9 @@ function shouldMerge(h: Hist, x: number[], y: number[], mergeDeltaE: number) {
 }
 
 function mergeClose(h: Hist, centres: number[][], mergeDeltaE: number): number[][] {
-  for (;;) {
-    const assign = lloyd(h, centres, ITERATIONS);
+  // After a merge the other centres barely move, so a few iterations suffice.
+  for (let round = 0; ; round++) {
+    const assign = lloyd(h, centres, round === 0 ? ITERATIONS : 4);
     const weight = centres.map(() => 0);
     for (let i = 0; i < h.n; i++) weight[assign[i]] += h.w[i];
     let pair: [number, number] | null = null, bestGap = Infinity;

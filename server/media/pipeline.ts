@@ -107,13 +107,13 @@ export async function ingestPhoto({ actor, transaction, input }: { actor: User |
     );
     photoId = photo.id;
 
-    // 3. Derivatives (WebP, no metadata: sharp writes none unless asked), encoded on libvips'
+    // 3. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
     // threads while 4. the palette of the whole photo is computed here on a working-size copy.
     const encoding = Promise.all([
-      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 2 }).toBuffer({ resolveWithObject: true }),
+      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
       fromRaw(data, d.width, d.height)
         .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
-        .webp({ quality: 80, effort: 2 })
+        .webp({ quality: 80, effort: 0 })
         .toBuffer({ resolveWithObject: true }),
     ]);
     encoding.catch(() => undefined);

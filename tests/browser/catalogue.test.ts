@@ -29,6 +29,8 @@ describe('cataloguing a piece in Chromium', () => {
     await page.goto(`${server.url}/archive`);
     await page.getByRole('link', { name: 'Catalogue a piece' }).click();
 
+    // The vocabularies fill the checklists and move the form's button; wait for them first.
+    await page.getByLabel('cotton').waitFor();
     const accession = `2098.${Date.now() % 100000}.1`;
     // A wrong accession number is explained beside the field before anything is sent.
     await page.getByLabel('Accession number').fill('1931/4/12');

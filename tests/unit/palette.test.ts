@@ -126,6 +126,23 @@ describe('palette extraction accuracy', () => {
   });
 });
 
+describe('working image', () => {
+  it('reads a rectangle in upright pixels, also from an orientation-6 photo', async () => {
+    // Stored left half red, right half blue; upright (rotated 90° clockwise) the top is red.
+    const raw = Buffer.alloc(400 * 300 * 3);
+    for (let y = 0; y < 300; y++) for (let x = 0; x < 400; x++) raw.set(x < 200 ? [200, 20, 20] : [20, 20, 200], (y * 400 + x) * 3);
+    const plain = await sharp(raw, { raw: { width: 400, height: 300, channels: 3 } }).png().toBuffer();
+    const rotated = await sharp(raw, { raw: { width: 400, height: 300, channels: 3 } }).jpeg({ quality: 95 }).withMetadata({ orientation: 6 }).toBuffer();
+    const top = await workingImage(rotated, { x: 20, y: 20, w: 260, h: 160 });
+    expect([top.width, top.height]).toEqual([260, 160]);
+    expect(deltaE00(extractPalette(top, { detectBackground: false })[0].lab, srgbToLab({ r: 200, g: 20, b: 20 }))).toBeLessThan(2);
+    const right = await workingImage(plain, { x: 250, y: 10, w: 500, h: 100 }); // clipped at the edge
+    expect(right.width).toBe(150);
+    expect(right.scale).toBe(1);
+    expect(deltaE00(extractPalette(right, { detectBackground: false })[0].lab, srgbToLab({ r: 20, g: 20, b: 200 }))).toBeLessThan(1);
+  });
+});
+
 describe('fast CIELAB path used inside the palette', () => {
   // Oracle: colorjs.io through shared/colour (srgbToLab); the fast path takes its matrix and
   // transfer curve from the library, so the two must agree closely.
