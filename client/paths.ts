@@ -12,6 +12,8 @@ export const paths = {
   search: () => '/search',
   trials: () => '/trials',
   trial: (id: number | string) => `/trials/${id}`,
+  trialNew: (pieceId?: number | string) => (pieceId != null ? `/trials/new?pieceId=${pieceId}` : '/trials/new'),
+  sideBySide: (pieceId: number | string) => `/archive/${pieceId}/side-by-side`,
   baths: () => '/baths',
   bath: (id: number | string) => `/baths/${id}`,
   series: () => '/series',

@@ -16,6 +16,10 @@ import { FixityPage } from './routes/FixityPage';
 import { Archive } from './routes/Archive';
 import { PieceDetailPage } from './routes/PieceDetail';
 import { PieceEditPage, PieceNewPage } from './routes/PieceEdit';
+import { TrialsPage } from './features/trials/components/TrialsPage';
+import { TrialNewPage } from './features/trials/components/TrialNewPage';
+import { TrialPage } from './features/trials/components/TrialPage';
+import { SideBySidePage } from './features/trials/components/SideBySidePage';
 
 export const router = createBrowserRouter([
   {
@@ -25,6 +29,10 @@ export const router = createBrowserRouter([
       { index: true, element: <Home /> },
       { path: 'sign-in', element: <SignIn /> },
       { path: 'reference', element: <ReferencePage /> },
+      { path: 'archive', element: <Archive /> },
+      { path: 'archive/new', element: <PieceNewPage /> },
+      { path: 'archive/:id', element: <PieceDetailPage /> },
+      { path: 'archive/:id/edit', element: <PieceEditPage /> },
       { path: 'forgot-password', element: <ForgotPassword /> },
       { path: 'reset-password/:token', element: <ResetPassword /> },
       { path: 'join/:token', element: <JoinTeam /> },
@@ -33,10 +41,15 @@ export const router = createBrowserRouter([
       { path: 'photos/:photoId/zoom', element: <PhotoZoom /> },
       { path: 'import', element: <ImportPage /> },
       { path: 'admin/fixity', element: <FixityPage /> },
-      { path: 'archive', element: <Archive /> },
-      { path: 'archive/new', element: <PieceNewPage /> },
-      { path: 'archive/:id', element: <PieceDetailPage /> },
-      { path: 'archive/:id/edit', element: <PieceEditPage /> },
+      {
+        element: <RequireAbility action="trial:read" />,
+        children: [
+          { path: 'trials', element: <TrialsPage /> },
+          { path: 'trials/:id', element: <TrialPage /> },
+          { path: 'archive/:id/side-by-side', element: <SideBySidePage /> },
+        ],
+      },
+      { element: <RequireAbility action="trial:create" />, children: [{ path: 'trials/new', element: <TrialNewPage /> }] },
       { path: '*', element: <NotFound /> },
     ],
   },

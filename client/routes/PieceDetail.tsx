@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Button } from '../components/Button';
 import { Page } from '../components/Page';
+import { PieceTrialLinks } from '../features/trials/components/PieceTrialLinks';
 import { useDeletePiece, usePiece, useRestorePiece, useUpdatePiece } from '../features/pieces/api';
 import { StatusBadge } from '../features/pieces/components/ArchiveTable';
 import { PieceFacts } from '../features/pieces/components/PieceFacts';
@@ -35,6 +36,7 @@ export function PieceDetailPage() {
       }
       actions={
         <>
+          {!deleted ? <PieceTrialLinks pieceId={id} /> : null}
           {can['piece:update'] && !deleted ? (
             <Link to={paths.pieceEdit(id)} className="rounded-md border border-rule-strong bg-sheet px-4 py-2 text-sm font-medium hover:bg-paper">
               Edit

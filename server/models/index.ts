@@ -8,6 +8,7 @@ import { initAuditModel, AuditEvent } from './audit.ts';
 import { Session } from './session.ts';
 import { AuthToken } from './auth-token.ts';
 import { initJobModel, Job } from './job.ts';
+import { AppSetting } from './settings.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -18,6 +19,7 @@ initAuditModel(sequelize);
 Session.initModel(sequelize);
 AuthToken.initModel(sequelize);
 initJobModel(sequelize);
+AppSetting.initModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -74,4 +76,5 @@ export {
   Session,
   AuthToken,
   Job,
+  AppSetting,
 };

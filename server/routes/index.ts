@@ -13,6 +13,8 @@ import { exportRouter, pieceExportRouter } from './export/index.ts';
 import { piecesRouter } from './pieces/index.ts';
 import { photosRouter } from './photos/index.ts';
 import { vocabulariesRouter } from './vocabularies/index.ts';
+import { pieceTrialsRouter, trialsRouter } from './trials/index.ts';
+import { colourRouter } from './colour/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -32,7 +34,10 @@ export function apiRouter() {
   // Per-piece exports (Dublin Core, masters ZIP) beside the catalogue's own /pieces routes.
   router.use('/pieces', pieceExportRouter);
   router.use('/pieces', piecesRouter);
+  router.use('/pieces', pieceTrialsRouter);
   router.use('/photos', photosRouter);
   router.use('/vocabularies', vocabulariesRouter);
+  router.use('/trials', trialsRouter);
+  router.use('/colour', colourRouter);
   return router;
 }

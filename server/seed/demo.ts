@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Transaction } from 'sequelize';
 import { ROOT_DIR } from '../env.ts';
-import { BatchEvent, Chemical, Dyestuff, MordantBatch, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
+import { BatchEvent, Chemical, ColourMeasurement, Dyestuff, MordantBatch, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
 import type { Ingredient, Operation } from '../models/trials.ts';
 import { makePiece, makeUser, type PieceInput } from './factories.ts';
 import { seedDemoPhotos } from './demo-photos.ts';
@@ -116,7 +116,7 @@ export async function seedDemo(t: Transaction) {
 
   const p12 = pieces['1931.4.12'];
   const t1 = await makeTrial(
-    { pieceId: p12.id, status: 'finished', notes: 'Strong red from the aluminium acetate stock in place of the lead-based red liquor.', fastness: { light: { grade: '5', scale: 'blue-wool' }, washing: { grade: '4-5' }, rubbingDry: { grade: '4' }, rubbingWet: { grade: '3-4' } } },
+    { pieceId: p12.id, status: 'finished', notes: 'Strong red from the aluminium acetate stock in place of the lead-based red liquor.', fastness: { light: { blueWool: '5', informal: false }, washing: { change: '4-5', staining: '4', informal: false }, rubbingDry: { staining: '4', informal: false }, rubbingWet: { staining: '3-4', informal: false } } },
     [
       { operation: 'scour', ingredients: [['chemical', 'sodium carbonate (soda ash)', 5, 'owf']], liquorRatio: 40, temperatureC: 95, minutes: 60 },
       { operation: 'tannin', ingredients: [['chemical', 'tannic acid', 8, 'owf']], liquorRatio: 30, temperatureC: 50, minutes: 60 },
@@ -162,6 +162,20 @@ export async function seedDemo(t: Transaction) {
     await makeTrial({ pieceId: pieces['1958.22.4'].id, status: i ? 'planned' : 'finished', dryMassG: 100, notes: note }, [
       { operation: 'vat', ingredients: [['dyestuff', 'indigo', 3, 'owf']], liquorRatio: 50, temperatureC: 50, minutes: 20 },
     ]);
+  }
+
+  // Invented instrument readings: the original's red, pink and purple grounds as targets, and each result's swatch.
+  const reading = (attrs: { pieceId?: number; trialId?: number; L: number; a: number; b: number; label: string }) =>
+    ColourMeasurement.create({ pieceId: null, regionId: null, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', takenOn: '2024-04-02', createdById: users.researcher.id, ...attrs }, { transaction: t });
+  const grounds = [
+    { label: 'madder red ground', L: 42.5, a: 45.1, b: 26.3, result: [{ L: 43.9, a: 42.8, b: 27.5 }, { L: 44.2, a: 42.4, b: 27.9 }] },
+    { label: 'madder pink ground', L: 68.2, a: 24.5, b: 10.1, result: [{ L: 66.9, a: 26.0, b: 11.2 }] },
+    { label: 'madder purple ground', L: 35.4, a: 14.2, b: -6.8, result: [{ L: 37.0, a: 12.5, b: -4.9 }] },
+  ];
+  for (const [i, g] of grounds.entries()) {
+    const target = await reading({ pieceId: p12.id, L: g.L, a: g.a, b: g.b, label: g.label });
+    await trials[i].update({ targetMeasurementId: target.id }, { transaction: t });
+    for (const r of g.result) await reading({ trialId: trials[i].id, ...r, label: `${trials[i].code} swatch` });
   }
 
   // Events on the batches, in order; MB-07 topped up twice, then exhausted.

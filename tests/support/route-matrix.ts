@@ -1,8 +1,9 @@
 import { hashPassword } from '../../server/auth/passwords.ts';
 import { issueToken } from '../../server/auth/tokens.ts';
-import { Chemical, Dyestuff, Job, Photo, User } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
+import { Chemical, ColourMeasurement, Dyestuff, Job, Photo, Substitution, Trial, User } from '../../server/models/index.ts';
+import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 
 /**
@@ -83,6 +84,27 @@ async function failedJob() {
 const importCsv = () => Buffer.from(`accessionNumber,objectName,title\nMATRIX.${uniqueEmail('x').replace(/\W/g, '')},panel,Matrix import\n`);
 const exporter: Record<Who, Expected> = { visitor: 401, admin: '2xx', curator: '2xx', researcher: '2xx', dyer: 403 };
 
+// Trials: a fresh trial per request, owned by the actor for `:own` and by another dyer otherwise.
+async function makeTrial(ctx: SetupContext) {
+  const ownerId = ctx.ownership === 'own' && ctx.user ? ctx.user.id : (await makeUser('dyer')).id;
+  return Trial.create({ code: `T-1900-${(seq++).toString().padStart(3, '0')}-${Date.now().toString(36)}`.slice(0, 16), pieceId: null, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null, dyerId: ownerId, fibre: null, weave: null, gsm: null, dryMassG: 100, fastness: null, notes: null, startedOn: null });
+}
+const trialParams = async (ctx: SetupContext) => ({ params: { id: (await makeTrial(ctx)).id } });
+const ownTrial: MatrixRow['expect'] = { visitor: 401, admin: '2xx', curator: 403, researcher: 403, 'dyer:own': '2xx', 'dyer:other': 403 };
+const dyersCreate: MatrixRow['expect'] = { visitor: 401, admin: '2xx', curator: 403, researcher: 403, dyer: '2xx' };
+const substitutionBody = { historicalPractice: 'lead-based red liquor', modernPractice: 'aluminium acetate from alum and calcium acetate', reason: 'toxicity' };
+async function trialWithSubstitution(ctx: SetupContext) {
+  const t = await makeTrial(ctx);
+  const s = await Substitution.create({ trialId: t.id, stepId: null, historicalChemicalId: null, historicalPractice: 'x', historicalAmountG: null, modernChemicalId: null, modernPractice: 'y', modernAmountG: null, reason: 'waste', notes: null });
+  return { params: { id: t.id, childId: s.id }, body: substitutionBody };
+}
+async function trialWithReading(ctx: SetupContext) {
+  const t = await makeTrial(ctx);
+  const m = await ColourMeasurement.create({ pieceId: null, regionId: null, trialId: t.id, instrument: null, geometry: null, specular: null, L: 50, a: 10, b: 10, label: null, takenOn: null, createdById: null });
+  return { params: { id: t.id, childId: m.id } };
+}
+const alumId = async () => (await Chemical.findOne({ where: { name: 'potash alum' }, rejectOnEmpty: true })).id;
+
 export const routeMatrix: MatrixRow[] = [
   row('GET /api/health', everyone('2xx')),
 
@@ -119,4 +141,25 @@ export const routeMatrix: MatrixRow[] = [
   row('GET /api/export/trials.csv', exporter),
   row('GET /api/pieces/:id/dublin-core.jsonld', exporter, { setup: async () => ({ params: { id: (await pieceWithPhoto()).piece.id } }) }),
   row('GET /api/pieces/:id/masters.zip', exporter, { setup: async () => ({ params: { id: (await makePiece({ status: 'published' })).id } }) }),
+  row('GET /api/trials', signedIn),
+  row('POST /api/trials', dyersCreate, { body: { dryMassG: 25 } }),
+  row('GET /api/trials/:id', signedIn, { setup: trialParams }),
+  row('PATCH /api/trials/:id', ownTrial, { setup: async (ctx) => ({ ...(await trialParams(ctx)), body: { notes: 'matrix' } }) }),
+  row('DELETE /api/trials/:id', ownTrial, { setup: trialParams }),
+  row('PUT /api/trials/:id/steps', ownTrial, {
+    setup: async (ctx) => ({ ...(await trialParams(ctx)), body: { steps: [{ operation: 'mordant-bath', ingredients: [{ kind: 'chemical', refId: await alumId(), amount: 15, basis: 'owf' }], liquorRatio: 30 }] } }),
+  }),
+  row('POST /api/trials/:id/substitutions', ownTrial, { setup: async (ctx) => ({ ...(await trialParams(ctx)), body: substitutionBody }) }),
+  row('PUT /api/trials/:id/substitutions/:childId', ownTrial, { setup: trialWithSubstitution }),
+  row('DELETE /api/trials/:id/substitutions/:childId', ownTrial, { setup: trialWithSubstitution }),
+  row('POST /api/trials/:id/measurements', ownTrial, { setup: async (ctx) => ({ ...(await trialParams(ctx)), body: { L: 45, a: 40, b: 22 } }) }),
+  row('DELETE /api/trials/:id/measurements/:childId', ownTrial, { setup: trialWithReading }),
+  row('POST /api/trials/:id/measurements/import', ownTrial, { setup: async (ctx) => ({ ...(await trialParams(ctx)), body: { csv: 'L,a,b\n45,40,22\n' } }) }),
+  // No file is sent here, so those allowed get the 400 for a missing photo; the upload itself is tested in tests/api/trial-photos.test.ts.
+  row('POST /api/trials/:id/photos', { ...ownTrial, admin: 400, 'dyer:own': 400 }, { setup: trialParams }),
+  row('GET /api/pieces/:id/trials', signedIn, { setup: async () => ({ params: { id: (await makePiece()).id } }) }),
+  row('POST /api/pieces/:id/trials', dyersCreate, { setup: async () => ({ params: { id: (await makePiece()).id }, body: { dryMassG: 40 } }) }),
+  row('POST /api/colour/difference', everyone('2xx'), { body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } } }),
+  row('GET /api/colour/verdict-bands', everyone('2xx')),
+  row('PUT /api/colour/verdict-bands', adminOnly, { body: { bands: { match: 1, close: 2, near: 4 }, source: DEFAULT_BANDS_SOURCE } }),
 ];

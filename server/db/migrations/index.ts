@@ -3,6 +3,7 @@ import type { MigrationContext } from '../migrator.ts';
 import * as m0001 from './0001-initial.ts';
 import * as m0002auth from './0002-auth-tokens.ts';
 import * as m0008iiif from './0008-iiif-jobs.ts';
+import * as m0009trials from './0009-trials-settings.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -11,4 +12,5 @@ export const migrations: Migration[] = [
   { name: '0001-initial', ...m0001 },
   { name: '0002-auth-tokens', ...m0002auth },
   { name: '0008-iiif-jobs', ...m0008iiif },
+  { name: '0009-trials-settings', ...m0009trials },
 ];

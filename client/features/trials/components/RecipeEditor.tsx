@@ -1,0 +1,113 @@
+import { useState } from 'react';
+import { BASES, OPERATIONS, basisLabels, operationLabels, type StepInput } from '../../../../shared/schemas/trial';
+import { Button } from '../../../components/Button';
+import { FormAlert } from '../../../components/form/FormAlert';
+import { ApiError } from '../../../lib/http';
+import { useChemicals, useDyestuffs } from '../../reference/api';
+import { useReplaceSteps, type TrialView } from '../api';
+
+type Ing = { kind: 'dyestuff' | 'chemical'; refId: string; amount: string; basis: string };
+type Draft = { operation: string; liquorRatio: string; temperatureC: string; minutes: string; ph: string; pasteVolumeMl: string; stockGPerL: string; batchId: string; batchVolumeMl: string; notes: string; ingredients: Ing[] };
+
+const s = (x: number | null | undefined) => (x == null ? '' : String(x));
+const n = (x: string) => (x.trim() === '' ? null : Number(x));
+const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-1.5 text-sm';
+
+const fromStep = (st: TrialView['steps'][number]): Draft => ({
+  operation: st.operation, liquorRatio: s(st.liquorRatio), temperatureC: s(st.temperatureC), minutes: s(st.minutes), ph: s(st.ph),
+  pasteVolumeMl: s(st.paste?.volumeMl), stockGPerL: s(st.paste?.stockGPerL), batchId: s(st.batchId), batchVolumeMl: s(st.batchVolumeMl), notes: st.notes ?? '',
+  ingredients: st.ingredients.map((i) => ({ kind: i.kind as Ing['kind'], refId: String(i.refId), amount: String(i.amount), basis: i.basis })),
+});
+const blank = (): Draft => ({ operation: 'dye-bath', liquorRatio: '30', temperatureC: '', minutes: '', ph: '', pasteVolumeMl: '', stockGPerL: '', batchId: '', batchVolumeMl: '', notes: '', ingredients: [] });
+
+const toInput = (d: Draft): StepInput => ({
+  operation: d.operation as StepInput['operation'],
+  liquorRatio: n(d.liquorRatio), temperatureC: n(d.temperatureC), minutes: n(d.minutes), ph: n(d.ph),
+  paste: d.pasteVolumeMl.trim() ? { volumeMl: Number(d.pasteVolumeMl), stockGPerL: n(d.stockGPerL) } : null,
+  batchId: n(d.batchId), batchVolumeMl: n(d.batchVolumeMl), notes: d.notes || null,
+  ingredients: d.ingredients.map((i) => ({ kind: i.kind, refId: Number(i.refId), amount: Number(i.amount), basis: i.basis as 'owf' | 'g/L' | 'g' })),
+});
+
+function Num({ label, value, onChange, error, unit }: { label: string; value: string; onChange: (v: string) => void; error?: string[]; unit?: string }) {
+  return (
+    <label className="block text-xs font-medium">
+      {label}{unit ? <span className="font-normal text-ink-faint"> ({unit})</span> : null}
+      <input className={`${input} font-mono ${error ? 'border-danger' : ''}`} inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)} aria-invalid={error ? true : undefined} />
+      {error ? <span className="text-danger">{error.join(' ')}</span> : null}
+    </label>
+  );
+}
+
+/** Edit the whole ordered recipe and save it in one request (the server replaces it in one transaction). */
+export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () => void }) {
+  const [steps, setSteps] = useState<Draft[]>(trial.steps.length ? trial.steps.map(fromStep) : [blank()]);
+  const chemicals = useChemicals();
+  const dyestuffs = useDyestuffs();
+  const save = useReplaceSteps(trial.id);
+  const fields = save.error instanceof ApiError ? save.error.details?.fields : undefined;
+  const err = (i: number, k: string) => fields?.[`steps.${i}.${k}`];
+  const update = (i: number, patch: Partial<Draft>) => setSteps((all) => all.map((d, j) => (j === i ? { ...d, ...patch } : d)));
+  const move = (i: number, by: number) => setSteps((all) => { const next = [...all]; const [x] = next.splice(i, 1); next.splice(i + by, 0, x); return next; });
+  const setIng = (i: number, k: number, patch: Partial<Ing>) => update(i, { ingredients: steps[i].ingredients.map((x, j) => (j === k ? { ...x, ...patch } : x)) });
+
+  return (
+    <form className="space-y-4" onSubmit={(e) => { e.preventDefault(); save.mutate({ steps: steps.map(toInput) }, { onSuccess: onDone }); }}>
+      {steps.map((d, i) => (
+        <fieldset key={i} className="rounded-lg border border-rule bg-sheet p-4">
+          <legend className="px-1 text-sm font-semibold">Step {i + 1}</legend>
+          <div className="grid gap-3 sm:grid-cols-4">
+            <label className="block text-xs font-medium">Operation
+              <select className={input} value={d.operation} onChange={(e) => update(i, { operation: e.target.value })}>
+                {OPERATIONS.map((o) => <option key={o} value={o}>{operationLabels[o]}</option>)}
+              </select>
+            </label>
+            <Num label="Liquor ratio 1:" value={d.liquorRatio} onChange={(v) => update(i, { liquorRatio: v })} error={err(i, 'liquorRatio')} />
+            <Num label="Temperature" unit="°C" value={d.temperatureC} onChange={(v) => update(i, { temperatureC: v })} error={err(i, 'temperatureC')} />
+            <Num label="Time" unit="min" value={d.minutes} onChange={(v) => update(i, { minutes: v })} error={err(i, 'minutes')} />
+            <Num label="pH" value={d.ph} onChange={(v) => update(i, { ph: v })} error={err(i, 'ph')} />
+            <Num label="Paste volume" unit="mL" value={d.pasteVolumeMl} onChange={(v) => update(i, { pasteVolumeMl: v })} error={err(i, 'paste.volumeMl')} />
+            <Num label="Stock strength" unit="g/L" value={d.stockGPerL} onChange={(v) => update(i, { stockGPerL: v })} error={err(i, 'paste.stockGPerL')} />
+            <Num label="Batch id" value={d.batchId} onChange={(v) => update(i, { batchId: v })} error={err(i, 'batchId')} />
+            <Num label="Volume drawn" unit="mL" value={d.batchVolumeMl} onChange={(v) => update(i, { batchVolumeMl: v })} error={err(i, 'batchVolumeMl')} />
+          </div>
+          <table className="mt-3 w-full text-sm">
+            <thead className="text-left text-xs text-ink-soft"><tr><th>Kind</th><th>Ingredient</th><th>Amount</th><th>Basis</th><th /></tr></thead>
+            <tbody>
+              {d.ingredients.map((ing, k) => {
+                const options = ing.kind === 'chemical' ? (chemicals.data?.items ?? []).map((c) => ({ id: c.id, label: `${c.name}${c.status === 'historical-only' ? ' — historical only' : ''}` })) : (dyestuffs.data?.items ?? []).map((x) => ({ id: x.id, label: x.name }));
+                return (
+                  <tr key={k}>
+                    <td className="pr-2"><select aria-label={`Step ${i + 1} ingredient ${k + 1} kind`} className={input} value={ing.kind} onChange={(e) => setIng(i, k, { kind: e.target.value as Ing['kind'], refId: '' })}><option value="chemical">chemical</option><option value="dyestuff">dyestuff</option></select></td>
+                    <td className="pr-2">
+                      <select aria-label={`Step ${i + 1} ingredient ${k + 1}`} className={input} value={ing.refId} onChange={(e) => setIng(i, k, { refId: e.target.value })}>
+                        <option value="">Choose…</option>
+                        {options.map((o) => <option key={o.id} value={o.id}>{o.label}</option>)}
+                      </select>
+                      {err(i, `ingredients.${k}.refId`) ? <span className="text-xs text-danger">{err(i, `ingredients.${k}.refId`)!.join(' ')}</span> : null}
+                    </td>
+                    <td className="pr-2"><input aria-label={`Step ${i + 1} ingredient ${k + 1} amount`} className={`${input} w-24 font-mono`} inputMode="decimal" value={ing.amount} onChange={(e) => setIng(i, k, { amount: e.target.value })} />{err(i, `ingredients.${k}.amount`) ? <span className="text-xs text-danger">{err(i, `ingredients.${k}.amount`)!.join(' ')}</span> : null}</td>
+                    <td className="pr-2"><select aria-label={`Step ${i + 1} ingredient ${k + 1} basis`} className={input} value={ing.basis} onChange={(e) => setIng(i, k, { basis: e.target.value })}>{BASES.map((b) => <option key={b} value={b}>{basisLabels[b]}</option>)}</select></td>
+                    <td><button type="button" className="text-xs text-danger underline" onClick={() => update(i, { ingredients: d.ingredients.filter((_, j) => j !== k) })}>Remove</button></td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+          <label className="mt-3 block text-xs font-medium">Notes<textarea className={input} rows={2} value={d.notes} onChange={(e) => update(i, { notes: e.target.value })} /></label>
+          <div className="mt-3 flex flex-wrap gap-3 text-sm">
+            <button type="button" className="underline" onClick={() => update(i, { ingredients: [...d.ingredients, { kind: 'chemical', refId: '', amount: '', basis: 'owf' }] })}>Add ingredient</button>
+            <button type="button" className="underline disabled:opacity-40" disabled={i === 0} onClick={() => move(i, -1)}>Move up</button>
+            <button type="button" className="underline disabled:opacity-40" disabled={i === steps.length - 1} onClick={() => move(i, 1)}>Move down</button>
+            <button type="button" className="text-danger underline" onClick={() => setSteps((all) => all.filter((_, j) => j !== i))}>Remove step</button>
+          </div>
+        </fieldset>
+      ))}
+      <FormAlert message={save.error && !fields ? save.error.message : fields ? 'Some fields need attention; see the steps above.' : null} />
+      <div className="flex gap-3">
+        <Button type="button" variant="secondary" onClick={() => setSteps((all) => [...all, blank()])}>Add step</Button>
+        <Button type="submit" disabled={save.isPending}>{save.isPending ? 'Saving…' : 'Save recipe'}</Button>
+        <Button type="button" variant="quiet" onClick={onDone}>Cancel</Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,123 @@
+import { useMemo, useState } from 'react';
+import { basisLabels, operationLabels } from '../../../../shared/schemas/trial';
+import { computeStep, scaleSteps, type StepComputed } from '../../../../shared/trials/quantities';
+import { ChemicalCaution } from '../../reference/components/ChemicalCaution';
+import { useChemicals } from '../../reference/api';
+import type { TrialView } from '../api';
+import { fmt } from '../format';
+
+type Step = TrialView['steps'][number];
+
+const Qty = ({ value, unit, decimals = 1 }: { value: number | null | undefined; unit: string; decimals?: number }) =>
+  value == null ? <span className="text-ink-faint">—</span> : <span className="font-mono whitespace-nowrap">{fmt(value, decimals)} {unit}</span>;
+
+function PasteMakeUp({ c }: { c: StepComputed }) {
+  if (c.pasteProblem) return <p className="text-sm text-danger">Paste: {c.pasteProblem}</p>;
+  if (!c.paste) return null;
+  const p = c.paste;
+  return (
+    <div className="mt-2 rounded border border-rule bg-paper p-2 text-sm">
+      <p className="font-medium">Paste make-up for <Qty value={p.finalVolumeMl} unit="mL" decimals={0} /></p>
+      <ul className="mt-1 space-y-0.5">
+        {p.mordants.map((m) => (
+          <li key={m.name}>
+            {m.name}: <Qty value={m.gPerL} unit="g/L" /> → <Qty value={m.grams} unit="g" decimals={2} />
+            {m.stockMl != null ? <> , from stock: <Qty value={m.stockMl} unit="mL" decimals={0} /></> : null}
+          </li>
+        ))}
+        {p.thickener ? (
+          <li>
+            {p.thickener.name}: <Qty value={p.thickener.gPerL} unit="g/L" /> → <Qty value={p.thickener.grams} unit="g" decimals={2} />
+            {p.thickener.outsideUsualRange ? <span className="ml-2 text-warn">outside the usual 10–30 g/L (common practice)</span> : null}
+          </li>
+        ) : null}
+        <li>Water to make up: <Qty value={p.waterMl} unit="mL" decimals={0} /></li>
+      </ul>
+    </div>
+  );
+}
+
+function StepRow({ step, computed, modern }: { step: Step; computed: StepComputed; modern: boolean }) {
+  return (
+    <tbody className="border-t border-rule align-top">
+      <tr>
+        <td className="px-3 py-2 font-mono" rowSpan={Math.max(1, step.ingredients.length) + 1}>{step.position}</td>
+        <td className="px-3 py-2 font-medium" rowSpan={Math.max(1, step.ingredients.length) + 1}>
+          {operationLabels[step.operation as keyof typeof operationLabels]}
+          <div className="mt-1 text-xs font-normal text-ink-soft space-y-0.5">
+            {step.liquorRatio != null ? <div>liquor 1:{step.liquorRatio}</div> : null}
+            {computed.volumeL != null ? <div>{step.paste ? 'paste' : 'water'} <Qty value={computed.volumeL} unit="L" decimals={2} /></div> : null}
+            {step.temperatureC != null ? <div><Qty value={step.temperatureC} unit="°C" decimals={0} /></div> : null}
+            {step.minutes != null ? <div><Qty value={step.minutes} unit="min" decimals={0} /></div> : null}
+            {step.ph != null ? <div>pH <span className="font-mono">{fmt(step.ph, 1)}</span></div> : null}
+            {step.batchVolumeMl != null ? <div>drawn from {step.batch ? <span className="font-mono">{step.batch.code}</span> : `batch #${step.batchId}`}: <Qty value={step.batchVolumeMl} unit="mL" decimals={0} /></div> : null}
+          </div>
+        </td>
+      </tr>
+      {step.ingredients.map((ing, i) => (
+        <tr key={`${ing.kind}-${ing.refId}-${i}`}>
+          <td className="px-3 py-1.5">{ing.name}<span className="ml-1 text-xs text-ink-faint">{ing.kind}</span></td>
+          <td className="px-3 py-1.5 text-right"><Qty value={ing.amount} unit={basisLabels[ing.basis as keyof typeof basisLabels]} decimals={ing.basis === 'g' ? 2 : 1} /></td>
+          <td className="px-3 py-1.5 text-right"><Qty value={computed.ingredients[i]?.grams} unit="g" decimals={2} /></td>
+          <td className="px-3 py-1.5 text-right"><Qty value={computed.ingredients[i]?.gPerL} unit="g/L" decimals={2} /></td>
+          <td className="px-3 py-1.5 text-right"><Qty value={computed.ingredients[i]?.percentOwf} unit="% owf" /></td>
+        </tr>
+      ))}
+      {step.notes || step.cautions.length || computed.paste || computed.pasteProblem || computed.missing.some(Boolean) ? (
+        <tr>
+          <td />
+          <td colSpan={6} className="px-3 pb-3 space-y-2">
+            {step.warnings.map((w) => (
+              <p key={w.chemicalId} role="alert" className="rounded-md border-2 border-danger bg-danger-tint px-3 py-2 text-sm font-semibold text-danger">⚠ {w.message}</p>
+            ))}
+            {computed.missing.filter(Boolean).map((m, i) => <p key={i} className="text-xs text-warn">{m}</p>)}
+            <PasteMakeUp c={computed} />
+            {step.notes ? <p className="text-sm text-ink-soft">{step.notes}</p> : null}
+            {step.cautions.map((c) => <ChemicalCaution key={c.id} chemical={c} modernUse={modern} compact />)}
+          </td>
+        </tr>
+      ) : null}
+    </tbody>
+  );
+}
+
+/** The ordered recipe with every computed quantity, and scaling to another dry mass in one step. */
+export function RecipeSection({ trial }: { trial: TrialView }) {
+  const [scaleTo, setScaleTo] = useState('');
+  const chemicals = useChemicals();
+  const target = Number(scaleTo);
+  const scaling = scaleTo.trim() !== '' && target > 0 && target !== trial.dryMassG;
+  const roles = useMemo(() => new Map((chemicals.data?.items ?? []).map((c) => [c.id, c.role as string])), [chemicals.data]);
+  const rows = useMemo(() => {
+    if (!scaling) return trial.steps.map((s) => ({ step: s, computed: s.computed }));
+    return scaleSteps(trial.steps, trial.dryMassG, target).map((s) => ({ step: s, computed: computeStep(s, target, roles) }));
+  }, [scaling, trial, target, roles]);
+
+  return (
+    <section aria-labelledby="recipe-h" className="space-y-3">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <h2 id="recipe-h" className="text-xl font-semibold">Recipe</h2>
+        <label className="text-sm">
+          Scale to dry mass <span className="text-ink-faint">(g)</span>
+          <input className="ml-2 w-28 rounded-md border border-rule-strong bg-sheet px-2 py-1 font-mono" inputMode="decimal" value={scaleTo} placeholder={String(trial.dryMassG)} onChange={(e) => setScaleTo(e.target.value)} aria-describedby="scale-note" />
+        </label>
+      </div>
+      <p id="scale-note" className="text-xs text-ink-faint">
+        {scaling ? <>Showing the recipe for <span className="font-mono">{fmt(target, 1)} g</span> dry fibre (recorded for <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span>): % owf, g/L and the liquor ratio stay; fixed grams and paste volumes scale by mass.</> : <>For <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span> dry fibre. Grams = % owf ÷ 100 × dry mass; water = fibre kg × n for 1:n; g/L = 10 × % owf ÷ n (common practice).</>}
+      </p>
+      {trial.steps.length === 0 ? <p className="text-ink-soft">No steps yet.</p> : (
+        <div className="overflow-x-auto rounded-lg border border-rule bg-sheet">
+          <table className="w-full text-sm">
+            <thead className="bg-paper text-left text-ink-soft">
+              <tr>
+                <th className="px-3 py-2">#</th><th className="px-3 py-2">Step</th><th className="px-3 py-2">Ingredient</th>
+                <th className="px-3 py-2 text-right">Amount</th><th className="px-3 py-2 text-right">Grams</th><th className="px-3 py-2 text-right">Bath</th><th className="px-3 py-2 text-right">On fibre</th>
+              </tr>
+            </thead>
+            {rows.map(({ step, computed }) => <StepRow key={step.id} step={step} computed={computed} modern={trial.kind === 'modern'} />)}
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,104 @@
+import { useState } from 'react';
+import { GEOMETRIES, ILLUMINANTS, OBSERVERS, type MeasurementInput } from '../../../../shared/schemas/trial';
+import { Button } from '../../../components/Button';
+import { FormAlert } from '../../../components/form/FormAlert';
+import { ApiError } from '../../../lib/http';
+import { useAddMeasurement, useDeleteMeasurement, useImportMeasurements, useUploadSwatch, type TrialView } from '../api';
+import { fmt } from '../format';
+import { ColourComparison } from './ColourComparison';
+
+const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-1.5 text-sm';
+
+function MeasurementForm({ trialId }: { trialId: number }) {
+  const [d, setD] = useState({ L: '', a: '', b: '', illuminant: 'D65', observer: '10', geometry: 'd:8°', specular: 'SCI', instrument: '' });
+  const add = useAddMeasurement(trialId);
+  const fields = add.error instanceof ApiError ? add.error.details?.fields : undefined;
+  const set = (k: keyof typeof d) => (e: { target: { value: string } }) => setD({ ...d, [k]: e.target.value });
+  const num = (x: string) => (x.trim() === '' ? (undefined as unknown as number) : Number(x));
+  const err = (k: string) => (fields?.[k] ? <span className="text-xs text-danger">{fields[k].join(' ')}</span> : null);
+  return (
+    <form aria-label="Add a reading" className="grid gap-3 sm:grid-cols-4" onSubmit={(e) => {
+      e.preventDefault();
+      const body: MeasurementInput = { L: num(d.L), a: num(d.a), b: num(d.b), illuminant: d.illuminant as MeasurementInput['illuminant'], observer: d.observer as MeasurementInput['observer'], geometry: d.geometry as MeasurementInput['geometry'], specular: d.specular as 'SCI' | 'SCE', instrument: d.instrument || null };
+      add.mutate(body, { onSuccess: () => setD({ ...d, L: '', a: '', b: '' }) });
+    }}>
+      <label className="text-xs font-medium">L*<input className={`${input} font-mono`} inputMode="decimal" value={d.L} onChange={set('L')} />{err('L')}</label>
+      <label className="text-xs font-medium">a*<input className={`${input} font-mono`} inputMode="decimal" value={d.a} onChange={set('a')} />{err('a')}</label>
+      <label className="text-xs font-medium">b*<input className={`${input} font-mono`} inputMode="decimal" value={d.b} onChange={set('b')} />{err('b')}</label>
+      <label className="text-xs font-medium">Instrument<input className={input} value={d.instrument} onChange={set('instrument')} /></label>
+      <label className="text-xs font-medium">Illuminant<select className={input} value={d.illuminant} onChange={set('illuminant')}>{ILLUMINANTS.map((x) => <option key={x}>{x}</option>)}</select></label>
+      <label className="text-xs font-medium">Observer<select className={input} value={d.observer} onChange={set('observer')}>{OBSERVERS.map((x) => <option key={x} value={x}>{x}°</option>)}</select></label>
+      <label className="text-xs font-medium">Geometry<select className={input} value={d.geometry} onChange={set('geometry')}>{GEOMETRIES.map((x) => <option key={x}>{x}</option>)}</select></label>
+      <label className="text-xs font-medium">Specular<select className={input} value={d.specular} onChange={set('specular')}><option>SCI</option><option>SCE</option></select></label>
+      <div className="sm:col-span-4"><Button type="submit" variant="secondary" disabled={add.isPending}>Add reading</Button></div>
+    </form>
+  );
+}
+
+function CsvImport({ trialId }: { trialId: number }) {
+  const imp = useImportMeasurements(trialId);
+  const lines = imp.error instanceof ApiError ? (imp.error.details?.lines as Array<{ line: number; errors: string[] }> | undefined) : undefined;
+  return (
+    <div className="space-y-2">
+      <label className="block text-sm font-medium">
+        Import readings from CSV <span className="font-normal text-ink-faint">(columns L, a, b, illuminant/observer such as D65/10, geometry d:8° or 45°a:0°)</span>
+        <input className="mt-1 block text-sm" type="file" accept=".csv,text/csv" onChange={async (e) => { const f = e.target.files?.[0]; if (f) imp.mutate(await f.text()); e.target.value = ''; }} />
+      </label>
+      {imp.isPending ? <p className="text-sm">Importing…</p> : null}
+      {imp.data ? <FormAlert tone="ok" message={`${imp.data.imported} reading${imp.data.imported === 1 ? '' : 's'} imported.`} /> : null}
+      {imp.error ? (
+        <div role="alert" className="rounded-md bg-danger-tint p-3 text-sm text-danger">
+          <p className="font-medium">{imp.error.message}</p>
+          {lines ? <ul className="mt-1 list-disc pl-5">{lines.map((l) => <li key={l.line}>Line {l.line}: {l.errors.join('; ')}</li>)}</ul> : null}
+        </div>
+      ) : null}
+    </div>
+  );
+}
+
+/** The result: swatch photos, instrument readings, and the colour difference to the target. */
+export function ResultSection({ trial }: { trial: TrialView }) {
+  const canEdit = trial.abilities['trial:update'];
+  const remove = useDeleteMeasurement(trial.id);
+  const upload = useUploadSwatch(trial.id);
+  return (
+    <section aria-labelledby="result-h" className="space-y-4">
+      <h2 id="result-h" className="text-xl font-semibold">Result and colour difference</h2>
+      {trial.colour ? <ColourComparison colour={trial.colour} /> : null}
+      <h3 className="font-semibold">Instrument readings</h3>
+      {trial.measurements.length ? (
+        <table className="w-full max-w-3xl rounded-lg border border-rule bg-sheet text-sm">
+          <thead className="bg-paper text-left text-ink-soft"><tr><th className="px-3 py-1.5 text-right">L*</th><th className="px-3 py-1.5 text-right">a*</th><th className="px-3 py-1.5 text-right">b*</th><th className="px-3 py-1.5">Illuminant/observer</th><th className="px-3 py-1.5">Geometry</th><th /></tr></thead>
+          <tbody>
+            {trial.measurements.map((m) => (
+              <tr key={m.id} className="border-t border-rule">
+                <td className="px-3 py-1.5 text-right font-mono">{fmt(m.L, 2)}</td><td className="px-3 py-1.5 text-right font-mono">{fmt(m.a, 2)}</td><td className="px-3 py-1.5 text-right font-mono">{fmt(m.b, 2)}</td>
+                <td className="px-3 py-1.5">{m.illuminant}/{m.observer}°</td><td className="px-3 py-1.5">{m.geometry ?? '—'} {m.specular ?? ''}</td>
+                <td className="px-3 py-1.5">{canEdit ? <button className="text-xs text-danger underline" onClick={() => remove.mutate(m.id)}>Remove</button> : null}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      ) : <p className="text-ink-soft">No readings yet.</p>}
+      {canEdit ? (
+        <div className="grid gap-6 lg:grid-cols-2">
+          <MeasurementForm trialId={trial.id} />
+          <div className="space-y-4">
+            <CsvImport trialId={trial.id} />
+            <label className="block text-sm font-medium">
+              Add a swatch photo <span className="font-normal text-ink-faint">(its palette is an image estimate; readings outrank it)</span>
+              <input className="mt-1 block text-sm" type="file" accept="image/*" onChange={(e) => { const f = e.target.files?.[0]; if (f) upload.mutate(f); e.target.value = ''; }} />
+            </label>
+            {upload.isPending ? <p className="text-sm">Uploading and reading the palette…</p> : null}
+            {upload.error ? <FormAlert message={upload.error.message} /> : null}
+          </div>
+        </div>
+      ) : null}
+      {trial.photos.length ? (
+        <ul className="flex flex-wrap gap-3" aria-label="Swatch photos">
+          {trial.photos.map((p) => <li key={p.id} className="rounded bg-neutral-ground p-2"><img src={`/media/photos/${p.id}/thumb`} alt={p.caption ?? p.originalName ?? `Swatch photo ${p.id}`} className="h-32 w-auto" /></li>)}
+        </ul>
+      ) : null}
+    </section>
+  );
+}

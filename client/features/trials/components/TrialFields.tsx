@@ -1,0 +1,74 @@
+import { TRIAL_STATUSES } from '../../../../shared/schemas/trial';
+import { Field } from '../../../components/form/Field';
+import { Select } from '../../../components/form/Select';
+import { usePiece } from '../../pieces/api';
+import { usePieceTrials } from '../api';
+import { STATUS_WORDS } from '../format';
+
+export type TrialFormValues = {
+  status: string;
+  fibre: string;
+  weave: string;
+  gsm: string;
+  dryMassG: string;
+  startedOn: string;
+  notes: string;
+  target: string; // "palette:12", "region:4" or ""
+};
+export type FieldErrors = Record<string, string[]> | undefined;
+
+export const toTrialInput = (v: TrialFormValues) => {
+  const [kind, id] = v.target.split(':');
+  const num = (s: string) => (s.trim() === '' ? null : Number(s));
+  return {
+    status: v.status as (typeof TRIAL_STATUSES)[number],
+    fibre: v.fibre || null,
+    weave: v.weave || null,
+    gsm: num(v.gsm),
+    dryMassG: Number(v.dryMassG),
+    startedOn: v.startedOn || null,
+    notes: v.notes || null,
+    targetPaletteColourId: kind === 'palette' ? Number(id) : null,
+    targetRegionId: kind === 'region' ? Number(id) : null,
+    targetMeasurementId: kind === 'measurement' ? Number(id) : null,
+  };
+};
+
+/** The target choices of a piece: its colour regions and the leading palette colours of each photo. */
+function TargetSelect({ pieceId, value, onChange, error }: { pieceId: number; value: string; onChange: (v: string) => void; error?: string[] }) {
+  const piece = usePiece(pieceId);
+  const readings = usePieceTrials(pieceId).data?.targets.measurements ?? [];
+  const photos = piece.data?.photos ?? [];
+  const options = [
+    { value: '', label: 'No target yet' },
+    ...readings.map((m) => ({ value: `measurement:${m.id}`, label: `Instrument measurement: ${m.label ?? `#${m.id}`} (L* ${m.L.toFixed(1)} a* ${m.a.toFixed(1)} b* ${m.b.toFixed(1)})` })),
+    ...photos.flatMap((p) => p.regions.filter((r) => r.purpose === 'colour-area' || r.purpose === 'motif').map((r) => ({ value: `region:${r.id}`, label: `Region: ${r.label ?? `#${r.id}`} (photo ${p.id})` }))),
+    ...photos.flatMap((p) => p.palette.filter((c) => !c.background).map((c) => ({ value: `palette:${c.id}`, label: `Palette colour: ${c.name}${c.tradeName ? ` (${c.tradeName})` : ''}, ${Math.round(c.share * 100)} % of photo ${p.id}` }))),
+  ];
+  if (value.startsWith('measurement:') && !options.some((o) => o.value === value)) options.push({ value, label: `Instrument measurement #${value.split(':')[1]}` });
+  return <Select label="Target colour of the original" options={options} value={value} onChange={(e) => onChange(e.target.value)} error={error} />;
+}
+
+export function TrialFields({ values, onChange, errors, pieceId }: { values: TrialFormValues; onChange: (v: TrialFormValues) => void; errors: FieldErrors; pieceId: number | null }) {
+  const set = (k: keyof TrialFormValues) => (e: { target: { value: string } }) => onChange({ ...values, [k]: e.target.value });
+  return (
+    <div className="grid gap-4 sm:grid-cols-2">
+      <Select label="Status" options={TRIAL_STATUSES.map((s) => ({ value: s, label: STATUS_WORDS[s] }))} value={values.status} onChange={set('status')} error={errors?.status} />
+      <Field label="Dry fibre mass" unit="g" inputMode="decimal" required value={values.dryMassG} onChange={set('dryMassG')} error={errors?.dryMassG} hint="Weighed dry; every % owf is of this mass." />
+      <Field label="Fibre" value={values.fibre} onChange={set('fibre')} error={errors?.fibre} placeholder="cotton" />
+      <Field label="Weave" value={values.weave} onChange={set('weave')} error={errors?.weave} placeholder="plain (tabby)" />
+      <Field label="Fabric weight" unit="g/m²" inputMode="decimal" value={values.gsm} onChange={set('gsm')} error={errors?.gsm} />
+      <Field label="Started on" type="date" value={values.startedOn} onChange={set('startedOn')} error={errors?.startedOn} />
+      {pieceId != null ? (
+        <div className="sm:col-span-2">
+          <TargetSelect pieceId={pieceId} value={values.target} onChange={(target) => onChange({ ...values, target })} error={errors?.target ?? errors?.targetRegionId ?? errors?.targetPaletteColourId ?? errors?.targetMeasurementId} />
+        </div>
+      ) : null}
+      <label className="block text-sm font-medium sm:col-span-2">
+        Notes
+        <textarea className="mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm" rows={3} value={values.notes} onChange={set('notes')} />
+        {errors?.notes ? <span className="mt-1 block text-sm text-danger">{errors.notes.join(' ')}</span> : null}
+      </label>
+    </div>
+  );
+}

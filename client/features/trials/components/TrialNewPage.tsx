@@ -1,0 +1,60 @@
+import { useState } from 'react';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { Button } from '../../../components/Button';
+import { FormAlert } from '../../../components/form/FormAlert';
+import { Page } from '../../../components/Page';
+import { ApiError } from '../../../lib/http';
+import { paths } from '../../../paths';
+import { useQuery } from '@tanstack/react-query';
+import { pieceQuery } from '../../pieces/api';
+import { useCreateTrial } from '../api';
+import { TrialFields, toTrialInput, type TrialFormValues } from './TrialFields';
+
+/** /trials/new?pieceId=…: attach a new trial to a piece, or start one on its own. */
+export function TrialNewPage() {
+  const [params] = useSearchParams();
+  const pieceId = params.get('pieceId') ? Number(params.get('pieceId')) : null;
+  const piece = useQuery({ ...pieceQuery(pieceId ?? 0), enabled: pieceId != null });
+  const navigate = useNavigate();
+  const create = useCreateTrial();
+  const [kind, setKind] = useState<'modern' | 'historical'>('modern');
+  const [values, setValues] = useState<TrialFormValues>({ status: 'planned', fibre: 'cotton', weave: '', gsm: '', dryMassG: '', startedOn: '', notes: '', target: '' });
+  const err = create.error instanceof ApiError ? create.error : null;
+
+  return (
+    <Page
+      title={pieceId ? 'Attach a trial' : 'New trial'}
+      lead={
+        pieceId && piece.data ? (
+          <>
+            Reproducing <Link className="underline" to={paths.piece(pieceId)}><span className="font-mono">{piece.data.piece.accessionNumber}</span> {piece.data.piece.title}</Link>. The server gives the trial its code; the curator who catalogued the piece is told by e-mail.
+          </>
+        ) : (
+          'The server gives the trial its code. Attach it to a piece from the piece page to aim at one of its colours.'
+        )
+      }
+    >
+      <form
+        className="max-w-3xl space-y-5 rounded-lg border border-rule bg-sheet p-5"
+        onSubmit={(e) => {
+          e.preventDefault();
+          create.mutate({ ...toTrialInput(values), kind, pieceId }, { onSuccess: ({ trial }) => navigate(paths.trial(trial.id)) });
+        }}
+      >
+        <fieldset>
+          <legend className="text-sm font-medium">Kind of trial</legend>
+          <div className="mt-1 flex flex-wrap gap-4 text-sm">
+            <label className="flex items-center gap-2"><input type="radio" name="kind" checked={kind === 'modern'} onChange={() => setKind('modern')} /> Modern reproduction (to be dyed)</label>
+            <label className="flex items-center gap-2"><input type="radio" name="kind" checked={kind === 'historical'} onChange={() => setKind('historical')} /> Historical recipe, recorded for scholarship only</label>
+          </div>
+        </fieldset>
+        <TrialFields values={values} onChange={setValues} errors={err?.details?.fields} pieceId={pieceId} />
+        <FormAlert message={err && !err.details?.fields ? err.message : null} />
+        <div className="flex gap-3">
+          <Button type="submit" disabled={create.isPending}>{create.isPending ? 'Saving…' : 'Create trial'}</Button>
+          <Link className="px-4 py-2 text-sm underline" to={pieceId ? paths.piece(pieceId) : paths.trials()}>Cancel</Link>
+        </div>
+      </form>
+    </Page>
+  );
+}

@@ -1,0 +1,68 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import sharp from 'sharp';
+import { createApp } from '../../server/app.ts';
+import { ColourMeasurement, Photo, sequelize, User } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
+import { ORIGIN, signedInAgent } from '../support/agents.ts';
+import { clothJpeg } from '../support/images.ts';
+import { startTestMail } from '../support/mail.ts';
+
+const app = createApp();
+let mail: Awaited<ReturnType<typeof startTestMail>>;
+let dyer: Awaited<ReturnType<typeof signedInAgent>>;
+let curator: Awaited<ReturnType<typeof signedInAgent>>;
+beforeAll(async () => {
+  mail = await startTestMail();
+  dyer = await signedInAgent(app, 'dyer');
+  curator = await signedInAgent(app, 'curator');
+});
+afterAll(async () => {
+  await mail.close();
+  await sequelize.close();
+});
+
+/** A flat swatch of one colour, as a dyed sample photographed square on. */
+const swatchPng = (hex: string) => sharp({ create: { width: 240, height: 160, channels: 3, background: hex } }).png().toBuffer();
+
+describe('result swatches and which colour is used', () => {
+  it('takes a swatch photo through the pipeline, then lets instrument readings outrank its estimate; a region reading outranks the region palette', async () => {
+    const curatorUser = await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true });
+    const piece = await makePiece({ createdById: curatorUser.id });
+    // The original: the red rectangle of tests/support/images.ts (x 60, y 60, 160 × 200 px, #9b2d2a) marked as a colour area.
+    const photo = (await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', await clothJpeg({ seed: 5 }), 'original.jpg').expect(201)).body.photos[0];
+    const region = (await curator.post(`/api/photos/${photo.id}/regions`).set('Origin', ORIGIN).send({ x: 80, y: 80, w: 100, h: 150, purpose: 'colour-area', label: 'madder red' }).expect(201)).body.region;
+
+    const trial = (await dyer.post(`/api/pieces/${piece.id}/trials`).set('Origin', ORIGIN).send({ dryMassG: 20, targetRegionId: region.id }).expect(201)).body.trial;
+    expect(trial.colour.target).toMatchObject({ source: 'image-estimate' });
+    expect(deltaE00(hexToLab('#9b2d2a'), trial.colour.target)).toBeLessThan(2);
+
+    const up = await dyer.post(`/api/trials/${trial.id}/photos`).set('Origin', ORIGIN).attach('photo', await swatchPng('#a33a2e'), 'swatch.png').expect(201);
+    expect(up.body.photo.view).toBe('swatch');
+    expect((await Photo.findByPk(up.body.photo.id))?.trialId).toBe(trial.id);
+    // A flat PNG: its leading palette colour is the painted one (sRGB → CIELAB, own tolerance ΔE00 < 1).
+    expect(deltaE00(hexToLab('#a33a2e'), up.body.palette[0])).toBeLessThan(1);
+
+    const estimated = (await dyer.get(`/api/trials/${trial.id}`).expect(200)).body.trial;
+    expect(estimated.colour.result.source).toBe('image-estimate');
+    expect(estimated.colour.difference.deltaE00).toBeGreaterThan(0);
+    expect(estimated.photos).toHaveLength(1);
+
+    await dyer.post(`/api/trials/${trial.id}/measurements`).set('Origin', ORIGIN).send({ L: 40, a: 40, b: 25 }).expect(201);
+    await dyer.post(`/api/trials/${trial.id}/measurements`).set('Origin', ORIGIN).send({ L: 42, a: 42, b: 27 }).expect(201);
+    await ColourMeasurement.create({ pieceId: null, regionId: region.id, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', L: 38, a: 41, b: 24, label: 'madder red, measured', takenOn: null, createdById: null });
+    const measured = (await dyer.get(`/api/trials/${trial.id}`).expect(200)).body.trial;
+    expect(measured.colour.result).toMatchObject({ source: 'instrument', L: 41, a: 41, b: 26, setAside: { source: 'image-estimate' } });
+    expect(measured.colour.result.label).toMatch(/mean of 2/);
+    expect(measured.colour.target).toMatchObject({ source: 'instrument', L: 38, a: 41, b: 24, setAside: { source: 'image-estimate' } });
+    expect(measured.colour.difference.deltaE00).toBeCloseTo(deltaE00({ L: 38, a: 41, b: 24 }, { L: 41, a: 41, b: 26 }), 10);
+  });
+
+  it('refuses a photo from someone who does not keep the trial, and a request without a file', async () => {
+    const trial = (await dyer.post('/api/trials').set('Origin', ORIGIN).send({ dryMassG: 5 }).expect(201)).body.trial;
+    await curator.post(`/api/trials/${trial.id}/photos`).set('Origin', ORIGIN).attach('photo', await swatchPng('#336699'), 's.png').expect(403);
+    const none = await dyer.post(`/api/trials/${trial.id}/photos`).set('Origin', ORIGIN).expect(400);
+    expect(none.body.error.details.fields.photo).toBeDefined();
+    await dyer.post(`/api/trials/${trial.id}/photos`).set('Origin', ORIGIN).attach('photo', Buffer.from('not an image at all'), 'x.png').expect(415);
+  });
+});
