@@ -1,8 +1,11 @@
 import { hashPassword } from '../../server/auth/passwords.ts';
 import { issueToken } from '../../server/auth/tokens.ts';
+import sharp from 'sharp';
 import { makePiece } from '../../server/seed/factories.ts';
+import { ingestPhoto } from '../../server/media/pipeline.ts';
+import { sequelize } from '../../server/models/index.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
-import { Chemical, ColourMeasurement, Dyestuff, Job, Photo, Substitution, Trial, User } from '../../server/models/index.ts';
+import { Chemical, ColourMeasurement, Dyestuff, Job, PaletteColour, Photo, Region, Substitution, Trial, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 
@@ -105,6 +108,34 @@ async function trialWithReading(ctx: SetupContext) {
 }
 const alumId = async () => (await Chemical.findOne({ where: { name: 'potash alum' }, rejectOnEmpty: true })).id;
 
+// Catalogue: unique accession numbers in the pattern the schema accepts, and real photos through the pipeline.
+const accession = () => `2098.${Date.now() % 1_000_000}.${seq++}`;
+const pieceBody = () => ({ accessionNumber: accession(), objectName: 'fragment', title: 'Matrix piece', fibres: ['cotton'], techniques: [], dyestuffs: [], historicalMordants: [] });
+const draftPiece = async () => ({ params: { id: (await makePiece({ status: 'draft' })).id } });
+const deletedPiece = async () => {
+  const piece = await makePiece({ status: 'draft' });
+  await piece.destroy();
+  return { params: { id: piece.id } };
+};
+async function realPhoto() {
+  const piece = await makePiece({ status: 'draft' });
+  const buffer = await sharp({ create: { width: 96, height: 64, channels: 3, background: '#9b2f2f' } }).jpeg().toBuffer();
+  return (await sequelize.transaction((transaction) => ingestPhoto({ actor: null, transaction, input: { buffer, pieceId: piece.id } }))).photo;
+}
+const photoParams = async () => ({ params: { id: (await realPhoto()).id } });
+async function photoWithRegion() {
+  const photo = await realPhoto();
+  const region = await Region.create({ photoId: photo.id, x: 0, y: 0, w: 20, h: 20, purpose: 'colour-area', label: null, createdById: null });
+  return { params: { id: photo.id, regionId: region.id } };
+}
+async function photoWithColour() {
+  const photo = await realPhoto();
+  const colour = await PaletteColour.findOne({ where: { photoId: photo.id }, rejectOnEmpty: true });
+  return { params: { id: photo.id, colourId: colour.id }, body: { background: true } };
+}
+const curatorWrites: Record<Who, Expected> = { visitor: 401, admin: '2xx', curator: '2xx', researcher: 403, dyer: 403 };
+const jpeg = async () => sharp({ create: { width: 64, height: 48, channels: 3, background: '#4a3350' } }).jpeg().toBuffer();
+
 export const routeMatrix: MatrixRow[] = [
   row('GET /api/health', everyone('2xx')),
 
@@ -162,4 +193,24 @@ export const routeMatrix: MatrixRow[] = [
   row('POST /api/colour/difference', everyone('2xx'), { body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } } }),
   row('GET /api/colour/verdict-bands', everyone('2xx')),
   row('PUT /api/colour/verdict-bands', adminOnly, { body: { bands: { match: 1, close: 2, near: 4 }, source: DEFAULT_BANDS_SOURCE } }),
+
+  row('GET /api/pieces', everyone('2xx')),
+  row('POST /api/pieces', curatorWrites, { setup: async () => ({ body: pieceBody() }) }),
+  row('GET /api/pieces/:id', { ...signedIn, visitor: 404 }, { setup: draftPiece }),
+  row('PATCH /api/pieces/:id', curatorWrites, { setup: async () => ({ ...(await draftPiece()), body: { title: 'Matrix piece, renamed' } }) }),
+  row('DELETE /api/pieces/:id', curatorWrites, { setup: draftPiece }),
+  row('POST /api/pieces/:id/restore', { visitor: 401, admin: '2xx', curator: 403, researcher: 404, dyer: 404 }, { setup: deletedPiece }),
+  row('GET /api/pieces/:id/history', { visitor: 401, admin: '2xx', curator: '2xx', researcher: '2xx', dyer: 403 }, { setup: draftPiece }),
+  row('POST /api/pieces/:id/photos', curatorWrites, { setup: async () => ({ ...(await draftPiece()), attach: [{ field: 'photo', buffer: await jpeg(), filename: 'matrix.jpg' }] }) }),
+  row('GET /api/photos/:id', signedIn, { setup: photoParams }),
+  row('PATCH /api/photos/:id', curatorWrites, { setup: async () => ({ ...(await photoParams()), body: { caption: 'matrix' } }) }),
+  row('DELETE /api/photos/:id', curatorWrites, { setup: photoParams }),
+  row('GET /api/photos/:id/regions', signedIn, { setup: photoParams }),
+  row('POST /api/photos/:id/regions', curatorWrites, { setup: async () => ({ ...(await photoParams()), body: { x: 2, y: 2, w: 20, h: 20, purpose: 'colour-area' } }) }),
+  row('PATCH /api/photos/:id/regions/:regionId', curatorWrites, { setup: async () => ({ ...(await photoWithRegion()), body: { label: 'matrix' } }) }),
+  row('DELETE /api/photos/:id/regions/:regionId', curatorWrites, { setup: photoWithRegion }),
+  row('PUT /api/photos/:id/reference-patch', curatorWrites, { setup: async () => ({ ...(await photoParams()), body: { x: 0, y: 0, w: 10, h: 10 } }) }),
+  row('DELETE /api/photos/:id/reference-patch', curatorWrites, { setup: photoParams }),
+  row('PATCH /api/photos/:id/palette/:colourId', curatorWrites, { setup: photoWithColour }),
+  row('GET /api/vocabularies', everyone('2xx')),
 ];
