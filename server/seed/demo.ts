@@ -171,7 +171,7 @@ export async function seedDemo(t: Transaction) {
   await ev(mb07.id, 'test-strip', '2024-03-21', { result: 'strip dyed a full red: bath still strong' });
   await ev(mb07.id, 'top-up', '2024-03-22', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 30 }], volumeMl: 300 });
   await ev(mb07.id, 'use', '2024-04-02', { volumeMl: 900, fibreMassG: 400 });
-  await ev(mb07.id, 'use', '2024-04-10', { volumeMl: 940, fibreMassG: 350 });
+  await ev(mb07.id, 'use', '2024-04-10', { volumeMl: 640, fibreMassG: 350 });
   await ev(mb07.id, 'test-strip', '2024-04-11', { result: 'strip pale pink only: bath exhausted' });
   await ev(mb08.id, 'use', '2024-03-12', { volumeMl: 120, fibreMassG: 250, trialId: trials[1].id });
   await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, fibreMassG: 250, trialId: trials[2].id });

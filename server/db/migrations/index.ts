@@ -1,8 +1,12 @@
 import type { MigrationFn } from 'umzug';
 import type { MigrationContext } from '../migrator.ts';
 import * as m0001 from './0001-initial.ts';
+import * as m0010baths from './0010-baths-series-liquor-ratio.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
 // Listed explicitly so bundlers and tsx see every migration; order is the name order.
-export const migrations: Migration[] = [{ name: '0001-initial', ...m0001 }];
+export const migrations: Migration[] = [
+  { name: '0001-initial', ...m0001 },
+  { name: '0010-baths-series-liquor-ratio', ...m0010baths },
+];

@@ -1,0 +1,75 @@
+import { Op, type Transaction } from 'sequelize';
+import type { BatchCreateInput, BatchEventInput, BatchUpdateInput } from '../../../shared/schemas/batches.ts';
+import { conflict, unprocessable } from '../../http/errors.ts';
+import { BatchEvent, MordantBatch, Trial, sequelize } from '../../models/index.ts';
+import type { Actor } from '../../policies/index.ts';
+import { walkLedger } from './ledger-figures.ts';
+
+type Ctx<I> = { actor: NonNullable<Actor>; transaction: Transaction; input: I };
+
+export const eventOrder: [string, string][] = [['occurredAt', 'ASC'], ['id', 'ASC']];
+
+export async function loadEvents(batchId: number, transaction?: Transaction) {
+  return BatchEvent.findAll({ where: { batchId }, order: eventOrder, transaction });
+}
+
+export function figuresFor(batch: MordantBatch, events: BatchEvent[]) {
+  return walkLedger(
+    { volumeMl: batch.volumeMl, ingredients: batch.ingredients, uptakePerUse: batch.uptakePerUse },
+    events,
+    `${batch.madeOn}T00:00:00.000Z`,
+  );
+}
+
+export async function createBatch({ actor, transaction, input }: Ctx<BatchCreateInput>) {
+  if (input.parentId != null) {
+    const parent = await MordantBatch.findByPk(input.parentId, { transaction });
+    if (!parent) throw unprocessable('The parent batch does not exist.', { fields: { parentId: ['No such batch'] } });
+    if (parent.status === 'disposed') throw conflict(`${parent.code} has been disposed of; a dilution cannot be made from it.`);
+  }
+  return MordantBatch.create({ ...input, madeById: actor.id, status: 'active' }, { transaction });
+}
+
+export async function updateBatch({ transaction, input, batch }: Ctx<BatchUpdateInput> & { batch: MordantBatch }) {
+  if (batch.status === 'disposed') throw conflict(`${batch.code} has been disposed of and can no longer be changed.`);
+  return batch.update(input, { transaction });
+}
+
+/**
+ * Record one ledger event and its effect on the batch in one transaction.
+ * The batch row is locked (SELECT … FOR UPDATE) first, so concurrent draws are
+ * serialised and never take more than is left.
+ */
+export async function addEvent({ actor, input, batchId }: Omit<Ctx<BatchEventInput>, 'transaction'> & { batchId: number }) {
+  return sequelize.transaction(async (transaction) => {
+    const batch = await MordantBatch.findByPk(batchId, { transaction, lock: transaction.LOCK.UPDATE, rejectOnEmpty: true });
+    if (batch.status === 'disposed') throw conflict(`${batch.code} has been disposed of; no further events can be recorded.`, { status: batch.status });
+    const before = figuresFor(batch, await loadEvents(batch.id, transaction));
+
+    if (input.type === 'use') {
+      if (batch.status === 'exhausted' || before.remainingMl <= 0) throw conflict(`${batch.code} is exhausted; top it up before drawing from it.`, { remainingMl: before.remainingMl });
+      if (input.volumeMl! > before.remainingMl)
+        throw conflict(`Only ${before.remainingMl} mL is left in ${batch.code}; ${input.volumeMl} mL cannot be drawn.`, { remainingMl: before.remainingMl, requestedMl: input.volumeMl });
+      if (input.trialId != null && !(await Trial.findByPk(input.trialId, { transaction, attributes: ['id'] })))
+        throw unprocessable('That trial does not exist.', { fields: { trialId: ['No such trial'] } });
+    }
+    if (input.type === 'disposal' && batch.status !== 'exhausted' && !input.reason)
+      throw unprocessable(`${batch.code} is not exhausted. Give a reason to dispose of it now, or keep using and topping it up.`, { fields: { reason: ['Say why the batch is disposed of before it is exhausted'] } });
+
+    const notes = [input.reason ? `Reason: ${input.reason}` : null, input.notes ?? null].filter(Boolean).join('\n') || null;
+    const event = await BatchEvent.create(
+      {
+        batchId: batch.id, type: input.type, volumeMl: input.volumeMl ?? null, fibreMassG: input.fibreMassG ?? null, trialId: input.trialId ?? null,
+        additions: input.additions ?? null, ph: input.ph ?? null, result: input.result ?? null, route: input.route ?? null,
+        ruleFollowed: input.ruleFollowed ?? null, notes, occurredAt: input.occurredAt ? new Date(input.occurredAt) : new Date(), createdById: actor.id,
+      },
+      { transaction },
+    );
+    const after = figuresFor(batch, await loadEvents(batch.id, transaction));
+    const status = input.type === 'disposal' ? 'disposed' : after.remainingMl <= 0 ? 'exhausted' : 'active';
+    await batch.update({ status, ...(input.type === 'ph' ? { ph: input.ph! } : {}) }, { transaction });
+    return { batch, event };
+  });
+}
+
+export const dueForCheck = (today: string) => ({ status: 'active' as const, checkBy: { [Op.lte]: today } });
