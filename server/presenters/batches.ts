@@ -20,7 +20,7 @@ export function presentBatchSummary(b: MordantBatch, f: Figures) {
   };
 }
 
-export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], extra: { parent: { id: number; code: string } | null; children: Array<{ id: number; code: string; name: string }>; abilities: Record<string, boolean> }) {
+export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], extra: { cautions: Array<{ id: number; name: string; signalWord: string | null; hStatements: string[]; ppe: string | null; caution: string | null; status: string }>; parent: { id: number; code: string } | null; children: Array<{ id: number; code: string; name: string }>; abilities: Record<string, boolean> }) {
   return {
     ...presentBatchSummary(b, f),
     ingredients: b.ingredients, thickenerGPerL: b.thickenerGPerL, ph: b.ph, uptakePerUse: b.uptakePerUse, notes: b.notes,
@@ -28,8 +28,12 @@ export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], 
     testStripPrompt: f.testStripDue ? 'The estimated strength has fallen below half the fresh charge: dye a test strip before the next use.' : null,
     timeline: f.timeline,
     events: events.map(presentBatchEvent),
-    parent: extra.parent, children: extra.children,
+    cautions: extra.cautions, parent: extra.parent, children: extra.children,
     disposalNotice: DISPOSAL_NOTICE,
     abilities: extra.abilities,
   };
 }
+
+export type BatchSummary = ReturnType<typeof presentBatchSummary>;
+export type BatchDetail = ReturnType<typeof presentBatch>;
+export type BatchEventOut = ReturnType<typeof presentBatchEvent>;

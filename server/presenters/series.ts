@@ -31,3 +31,6 @@ export function presentSeries(s: TrialSeries, trials: Trial[], abilities: Record
     abilities,
   };
 }
+
+export type SeriesSummary = ReturnType<typeof presentSeriesSummary>;
+export type SeriesDetail = ReturnType<typeof presentSeries>;

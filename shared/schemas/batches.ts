@@ -58,6 +58,8 @@ export const batchEventSchema = z
     type: z.enum(BATCH_EVENT_TYPES),
     volumeMl: ml('The volume').optional(),
     trialId: z.number().int().positive().optional(),
+    // A trial may also be named by its code (T-YYYY-NNN), as dyers write it on the jar.
+    trialCode: z.string().trim().regex(/^T-\d{4}-\d{3,}$/, 'Use a trial code such as T-2024-001').optional(),
     fibreMassG: z.number().positive('Enter the fibre mass in g').max(100_000).optional(),
     additions: z.array(batchIngredientSchema).max(30).optional(),
     ph: z.number().min(0).max(14).optional(),

@@ -3,7 +3,7 @@ import { z } from 'zod';
 /** A mordant level: which chemical, and how much of it in % owf. */
 export const mordantLevelSchema = z.object({
   level: z.string().trim().min(1).max(40),
-  chemicals: z.array(z.object({ refId: z.number().int().positive(), name: z.string().min(1).max(160), owf: z.number().positive().max(200) })).min(1),
+  chemicals: z.array(z.object({ refId: z.number().int().positive().nullable().default(null), name: z.string().min(1).max(160), owf: z.number().positive().max(200) })).min(1),
 });
 
 export const factorSchema = z.object({

@@ -4,7 +4,8 @@ import { batchCreateSchema, batchEventSchema, batchListQuery, batchUpdateSchema 
 import { abilities, actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
-import { MordantBatch, sequelize } from '../../models/index.ts';
+import { Op } from 'sequelize';
+import { Chemical, MordantBatch, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { presentBatch, presentBatchEvent, presentBatchSummary } from '../../presenters/batches.ts';
 import { addEvent, createBatch, dueForCheck, figuresFor, loadEvents, updateBatch } from '../../services/batches/index.ts';
@@ -31,7 +32,10 @@ async function full(req: Request, batch: MordantBatch) {
     batch.parentId ? MordantBatch.findByPk(batch.parentId, { attributes: ['id', 'code'] }) : null,
     MordantBatch.findAll({ where: { parentId: batch.id }, attributes: ['id', 'code', 'name'], order: [['code', 'ASC']] }),
   ]);
+  const chemIds = [...batch.ingredients, ...events.flatMap((e) => e.additions ?? [])].filter((i) => i.kind === 'chemical').map((i) => i.refId);
+  const chems = chemIds.length ? await Chemical.findAll({ where: { id: { [Op.in]: [...new Set(chemIds)] } }, order: [['name', 'ASC']] }) : [];
   return presentBatch(batch, figuresFor(batch, events), events, {
+    cautions: chems.map((c) => ({ id: c.id, name: c.name, signalWord: c.signalWord, hStatements: c.hStatements, ppe: c.ppe, caution: c.caution, status: c.status })),
     parent: parent ? { id: parent.id, code: parent.code } : null,
     children: children.map((c) => ({ id: c.id, code: c.code, name: c.name })),
     abilities: abilities(actorOf(req), ['batch:update', 'batch-event:create'] as const, record(batch)),

@@ -50,7 +50,11 @@ export async function addEvent({ actor, input, batchId }: Omit<Ctx<BatchEventInp
       if (batch.status === 'exhausted' || before.remainingMl <= 0) throw conflict(`${batch.code} is exhausted; top it up before drawing from it.`, { remainingMl: before.remainingMl });
       if (input.volumeMl! > before.remainingMl)
         throw conflict(`Only ${before.remainingMl} mL is left in ${batch.code}; ${input.volumeMl} mL cannot be drawn.`, { remainingMl: before.remainingMl, requestedMl: input.volumeMl });
-      if (input.trialId != null && !(await Trial.findByPk(input.trialId, { transaction, attributes: ['id'] })))
+      if (input.trialCode) {
+        const t = await Trial.findOne({ where: { code: input.trialCode }, attributes: ['id'], transaction });
+        if (!t) throw unprocessable(`There is no trial ${input.trialCode}.`, { fields: { trialCode: ['No trial with that code'] } });
+        input.trialId = t.id;
+      } else if (input.trialId != null && !(await Trial.findByPk(input.trialId, { transaction, attributes: ['id'] })))
         throw unprocessable('That trial does not exist.', { fields: { trialId: ['No such trial'] } });
     }
     if (input.type === 'disposal' && batch.status !== 'exhausted' && !input.reason)

@@ -1,7 +1,7 @@
 import type { Transaction } from 'sequelize';
 import { cellKey, type Cell, type SeriesCreateInput, type SeriesUpdateInput } from '../../../shared/schemas/series.ts';
 import { conflict, unprocessable } from '../../http/errors.ts';
-import { RecipeStep, Trial, TrialSeries } from '../../models/index.ts';
+import { Chemical, Dyestuff, RecipeStep, Trial, TrialSeries } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
 import { allocateTrialCodes } from '../trial-codes.ts';
 import { cellRecipe, expand, type StoredFactor } from './plan.ts';
@@ -15,9 +15,10 @@ export async function createSeries({ actor, transaction, input }: Ctx<SeriesCrea
   const names = input.factors.map((f) => f.name);
   if (new Set(names).size !== names.length) throw unprocessable('Each factor needs its own name.', { fields: { factors: ['Two factors share a name'] } });
   if (input.kind === 'workshop' && !input.participants.length) throw unprocessable('A workshop needs participant codes.', { fields: { participants: ['Add pseudonymous codes such as P-01'] } });
-  const cells = expand(input.factors);
+  const factors = await resolveRefs(input.factors, transaction);
+  const cells = expand(factors);
   if (cells.length > 500) throw unprocessable(`That makes ${cells.length} cells; keep a series to 500 or fewer.`);
-  return TrialSeries.create({ ...input, factors: input.factors, cells, ownerId: actor.id }, { transaction });
+  return TrialSeries.create({ ...input, factors, cells, ownerId: actor.id }, { transaction });
 }
 
 export async function updateSeries({ transaction, input, series }: Ctx<SeriesUpdateInput> & { series: TrialSeries }) {
@@ -70,4 +71,23 @@ export async function createSeriesTrials({ actor, transaction, series }: Omit<Ct
     created.push(trial);
   }
   return created;
+}
+
+/** Dyestuffs and chemicals may be named rather than picked by id; names must match the reference list. */
+async function resolveRefs(factors: SeriesCreateInput['factors'], transaction: Transaction): Promise<StoredFactor[]> {
+  const missing: string[] = [];
+  const chem = async (name: string) => (await Chemical.findOne({ where: { name }, attributes: ['id'], transaction }))?.id ?? (missing.push(name), 0);
+  const out: StoredFactor[] = [];
+  for (const f of factors) {
+    let refId = f.refId;
+    if (!refId && f.refName && f.role === 'dyestuff') refId = (await Dyestuff.findOne({ where: { name: f.refName }, attributes: ['id'], transaction }))?.id ?? (missing.push(f.refName), null);
+    if (!refId && f.refName && f.role === 'tannin') refId = (await chem(f.refName)) || null;
+    const mordants = f.mordants
+      ? await Promise.all(f.mordants.map(async (m) => ({ level: m.level, chemicals: await Promise.all(m.chemicals.map(async (c) => ({ ...c, refId: c.refId ?? (await chem(c.name)) }))) })))
+      : undefined;
+    const { mordants: _drop, ...rest } = f;
+    out.push({ ...rest, refId, ...(mordants ? { mordants } : {}) });
+  }
+  if (missing.length) throw unprocessable(`Not in the reference list: ${missing.join(', ')}.`, { fields: { factors: [`Unknown: ${missing.join(', ')}`] } });
+  return out;
 }

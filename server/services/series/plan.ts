@@ -18,7 +18,7 @@ export function roleOf(f: StoredFactor) {
 }
 
 /** Every combination of levels, first factor varying slowest. */
-export function expand(factors: StoredFactor[]): Cell[] {
+export function expand(factors: Array<{ name: string; levels: string[] }>): Cell[] {
   return factors.reduce<Cell[]>((cells, f) => cells.flatMap((c) => f.levels.map((l) => ({ ...c, [f.name]: l }))), [{}]);
 }
 
