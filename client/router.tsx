@@ -3,6 +3,10 @@ import { AppShell } from './components/AppShell';
 import { Home } from './routes/Home';
 import { NotFound, RouteError } from './routes/NotFound';
 import { SignIn } from './routes/SignIn';
+import { BathsPage } from './features/batches/components/BathsPage';
+import { BathPage } from './features/batches/components/BathPage';
+import { SeriesListPage } from './features/series/components/SeriesListPage';
+import { SeriesPage } from './features/series/components/SeriesPage';
 
 export const router = createBrowserRouter([
   {
@@ -11,6 +15,10 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: <Home /> },
       { path: 'sign-in', element: <SignIn /> },
+      { path: 'baths', element: <BathsPage /> },
+      { path: 'baths/:id', element: <BathPage /> },
+      { path: 'series', element: <SeriesListPage /> },
+      { path: 'series/:id', element: <SeriesPage /> },
       { path: '*', element: <NotFound /> },
     ],
   },
