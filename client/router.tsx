@@ -7,6 +7,7 @@ import { BathsPage } from './features/batches/components/BathsPage';
 import { BathPage } from './features/batches/components/BathPage';
 import { SeriesListPage } from './features/series/components/SeriesListPage';
 import { SeriesPage } from './features/series/components/SeriesPage';
+import { ReferencePage } from './features/reference/components/ReferencePage';
 
 export const router = createBrowserRouter([
   {
@@ -19,6 +20,7 @@ export const router = createBrowserRouter([
       { path: 'baths/:id', element: <BathPage /> },
       { path: 'series', element: <SeriesListPage /> },
       { path: 'series/:id', element: <SeriesPage /> },
+      { path: 'reference', element: <ReferencePage /> },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -4,6 +4,7 @@ import { authRouter } from './auth/index.ts';
 import { batchesRouter } from './batches/index.ts';
 import { seriesRouter } from './series/index.ts';
 import { trialCardsRouter } from './trial-cards/index.ts';
+import { chemicalsRouter, dyestuffsRouter } from './reference/index.ts';
 
 /** Every API router, mounted under /api. */
 export function apiRouter() {
@@ -13,5 +14,7 @@ export function apiRouter() {
   router.use('/batches', batchesRouter);
   router.use('/series', seriesRouter);
   router.use('/trials', trialCardsRouter);
+  router.use('/chemicals', chemicalsRouter);
+  router.use('/dyestuffs', dyestuffsRouter);
   return router;
 }
