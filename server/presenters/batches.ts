@@ -1,13 +1,13 @@
 import { DISPOSAL_NOTICE } from '../../shared/schemas/batches.ts';
 import type { BatchEvent, MordantBatch } from '../models/index.ts';
-import type { walkLedger } from '../services/batches/ledger-figures.ts';
-
-type Figures = ReturnType<typeof walkLedger>;
+import type { Figures } from '../services/batches/ledger-figures.ts';
 
 export const presentBatchEvent = (e: BatchEvent) => ({
   id: e.id, type: e.type, volumeMl: e.volumeMl, fibreMassG: e.fibreMassG, trialId: e.trialId, additions: e.additions, ph: e.ph,
   result: e.result, route: e.route, ruleFollowed: e.ruleFollowed, notes: e.notes, occurredAt: e.occurredAt.toISOString(), createdById: e.createdById,
 });
+
+const STRIP_REASONS = { 'low-strength': 'the estimated strength is below half the fresh bath', drift: 'the strips have drifted', 'many-uses': 'three uses have passed without a strip' } as const;
 
 const today = () => new Date().toISOString().slice(0, 10);
 
@@ -16,7 +16,7 @@ export function presentBatchSummary(b: MordantBatch, f: Figures) {
     id: b.id, code: b.code, kind: b.kind, name: b.name, volumeMl: b.volumeMl, status: b.status, madeOn: b.madeOn, madeById: b.madeById,
     checkBy: b.checkBy, dueForCheck: b.status === 'active' && b.checkBy != null && b.checkBy <= today(), parentId: b.parentId,
     remainingMl: f.remainingMl, uses: f.uses, fibreMassG: f.fibreMassG,
-    estimatedStrength: { value: f.estimatedStrength, estimate: true, basis: 'relative to the fresh charge (1 = as made); each use takes the uptake share set for the batch [common practice]' },
+    estimatedStrength: { value: f.estimatedStrength, estimate: true, basis: 'relative to the bath as made (1 = as made), from the uptake per use the dyer set; an estimate, not a measurement' },
   };
 }
 
@@ -24,8 +24,10 @@ export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], 
   return {
     ...presentBatchSummary(b, f),
     ingredients: b.ingredients, thickenerGPerL: b.thickenerGPerL, ph: b.ph, uptakePerUse: b.uptakePerUse, notes: b.notes,
-    topUpSuggestion: { items: f.topUpSuggestion, rule: 'Add 25–50 % of the original charge per reuse [common practice, from memory]; check with a test strip.' },
-    testStripPrompt: f.testStripDue ? 'The estimated strength has fallen below half the fresh charge: dye a test strip before the next use.' : null,
+    topUpSuggestion: f.topUp
+      ? { items: f.topUp.ingredients, waterMl: f.topUp.waterMl, usesSinceTopUp: f.topUp.usesSinceTopUp, rule: `Add ${f.topUp.rule.minFraction * 100}–${f.topUp.rule.maxFraction * 100} % of the original charge for each use since the last top-up, and water back to the made volume (${f.topUp.rule.source}); confirm with a test strip.` }
+      : null,
+    testStripPrompt: f.testStrip.due ? `Dye a test strip before the next use: ${f.testStrip.reasons.map((r) => STRIP_REASONS[r]).join('; ')}.` : null,
     timeline: f.timeline,
     events: events.map(presentBatchEvent),
     cautions: extra.cautions, parent: extra.parent, children: extra.children,

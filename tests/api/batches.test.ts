@@ -42,8 +42,10 @@ describe('bath ledger through the API', () => {
     const got = (await dyer.get(`/api/batches/${b.id}`).expect(200)).body;
     expect(got).toMatchObject({ remainingMl: 640, uses: 4, fibreMassG: 1200, status: 'active' });
     expect(got.estimatedStrength.estimate).toBe(true);
-    // Top-up rule [CP, FM]: 25–50 % of the original 100 g charge.
-    expect(got.topUpSuggestion.items[0]).toMatchObject({ lowG: 25, highG: 50 });
+    // Top-up rule [CP, FM]: 25–50 % of the original 100 g charge per use since the last top-up (two uses) = 50–100 g,
+    // and water back to the 2000 mL made: 2000 − 640 = 1360 mL.
+    expect(got.topUpSuggestion.items[0]).toMatchObject({ name: 'potash alum', minG: 50, maxG: 100 });
+    expect(got.topUpSuggestion.waterMl).toBe(1360);
     expect(got.timeline).toHaveLength(7);
     expect(got.timeline.map((p: { remainingMl: number }) => p.remainingMl)).toEqual([2000, 1840, 1440, 1840, 1240, 1540, 640]);
 

@@ -42,7 +42,7 @@ describe('the bath ledger in Chromium', () => {
     // A draw larger than what is left is refused with the server's words, and nothing changes.
     await page.getByLabel('Volume drawn').fill('400');
     await page.getByRole('button', { name: 'Record' }).click();
-    await expect(page.getByRole('alert').textContent()).resolves.toMatch(/Only 380 mL is left/);
+    await expect(page.getByRole('alert').textContent()).resolves.toMatch(/Only 380 mL/);
     await expect(remaining.textContent()).resolves.toBe('380 mL');
   });
 });

@@ -8,7 +8,7 @@ import { Op } from 'sequelize';
 import { Chemical, MordantBatch, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { presentBatch, presentBatchEvent, presentBatchSummary } from '../../presenters/batches.ts';
-import { addEvent, createBatch, dueForCheck, figuresFor, loadEvents, updateBatch } from '../../services/batches/index.ts';
+import { addEvent, createBatch, dueForCheck, figuresFor, loadEvents, thickenerIds, updateBatch } from '../../services/batches/index.ts';
 import { batchLabelPdf } from '../../pdf/labels.ts';
 import { sendPdf } from '../../pdf/send.ts';
 
@@ -34,7 +34,7 @@ async function full(req: Request, batch: MordantBatch) {
   ]);
   const chemIds = [...batch.ingredients, ...events.flatMap((e) => e.additions ?? [])].filter((i) => i.kind === 'chemical').map((i) => i.refId);
   const chems = chemIds.length ? await Chemical.findAll({ where: { id: { [Op.in]: [...new Set(chemIds)] } }, order: [['name', 'ASC']] }) : [];
-  return presentBatch(batch, figuresFor(batch, events), events, {
+  return presentBatch(batch, figuresFor(batch, events, await thickenerIds()), events, {
     cautions: chems.map((c) => ({ id: c.id, name: c.name, signalWord: c.signalWord, hStatements: c.hStatements, ppe: c.ppe, caution: c.caution, status: c.status })),
     parent: parent ? { id: parent.id, code: parent.code } : null,
     children: children.map((c) => ({ id: c.id, code: c.code, name: c.name })),
@@ -47,7 +47,8 @@ batchesRouter.get('/', async (req, res) => {
   if (!can(actorOf(req), 'batch:read')) throw forbidden();
   const where = { ...(q.status ? { status: q.status } : {}), ...(q.kind ? { kind: q.kind } : {}), ...(q.due ? dueForCheck(today()) : {}) };
   const { rows, count } = await MordantBatch.findAndCountAll({ where, order: [['code', 'ASC']], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
-  const items = await Promise.all(rows.map(async (b) => presentBatchSummary(b, figuresFor(b, await loadEvents(b.id)))));
+  const thick = await thickenerIds();
+  const items = await Promise.all(rows.map(async (b) => presentBatchSummary(b, figuresFor(b, await loadEvents(b.id), thick))));
   res.json({ items, total: count, page: q.page, pageSize: q.pageSize });
 });
 

@@ -1,9 +1,9 @@
 import { Op, type Transaction } from 'sequelize';
 import type { BatchCreateInput, BatchEventInput, BatchUpdateInput } from '../../../shared/schemas/batches.ts';
 import { conflict, unprocessable } from '../../http/errors.ts';
-import { BatchEvent, MordantBatch, Trial, sequelize } from '../../models/index.ts';
+import { BatchEvent, Chemical, MordantBatch, Trial, sequelize } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
-import { walkLedger } from './ledger-figures.ts';
+import { checkEvent, figures } from './ledger-figures.ts';
 
 type Ctx<I> = { actor: NonNullable<Actor>; transaction: Transaction; input: I };
 
@@ -13,13 +13,13 @@ export async function loadEvents(batchId: number, transaction?: Transaction) {
   return BatchEvent.findAll({ where: { batchId }, order: eventOrder, transaction });
 }
 
-export function figuresFor(batch: MordantBatch, events: BatchEvent[]) {
-  return walkLedger(
-    { volumeMl: batch.volumeMl, ingredients: batch.ingredients, uptakePerUse: batch.uptakePerUse },
-    events,
-    `${batch.madeOn}T00:00:00.000Z`,
-  );
+/** Chemicals whose role is thickener: they make up a paste's body, not its mordant charge. */
+export async function thickenerIds(transaction?: Transaction) {
+  const rows = await Chemical.findAll({ where: { role: 'thickener' }, attributes: ['id'], transaction });
+  return new Set(rows.map((r) => r.id));
 }
+
+export const figuresFor = (batch: MordantBatch, events: BatchEvent[], thick: ReadonlySet<number>) => figures(batch, events, thick);
 
 export async function createBatch({ actor, transaction, input }: Ctx<BatchCreateInput>) {
   if (input.parentId != null) {
@@ -44,12 +44,12 @@ export async function addEvent({ actor, input, batchId }: Omit<Ctx<BatchEventInp
   return sequelize.transaction(async (transaction) => {
     const batch = await MordantBatch.findByPk(batchId, { transaction, lock: transaction.LOCK.UPDATE, rejectOnEmpty: true });
     if (batch.status === 'disposed') throw conflict(`${batch.code} has been disposed of; no further events can be recorded.`, { status: batch.status });
-    const before = figuresFor(batch, await loadEvents(batch.id, transaction));
+    const thick = await thickenerIds(transaction);
+    const history = await loadEvents(batch.id, transaction);
+    // The shared ledger refuses an overdraw or an event on a disposed batch (409) and an early disposal without a reason (422).
+    const after = checkEvent(batch, history, input, thick);
 
     if (input.type === 'use') {
-      if (batch.status === 'exhausted' || before.remainingMl <= 0) throw conflict(`${batch.code} is exhausted; top it up before drawing from it.`, { remainingMl: before.remainingMl });
-      if (input.volumeMl! > before.remainingMl)
-        throw conflict(`Only ${before.remainingMl} mL is left in ${batch.code}; ${input.volumeMl} mL cannot be drawn.`, { remainingMl: before.remainingMl, requestedMl: input.volumeMl });
       if (input.trialCode) {
         const t = await Trial.findOne({ where: { code: input.trialCode }, attributes: ['id'], transaction });
         if (!t) throw unprocessable(`There is no trial ${input.trialCode}.`, { fields: { trialCode: ['No trial with that code'] } });
@@ -57,8 +57,6 @@ export async function addEvent({ actor, input, batchId }: Omit<Ctx<BatchEventInp
       } else if (input.trialId != null && !(await Trial.findByPk(input.trialId, { transaction, attributes: ['id'] })))
         throw unprocessable('That trial does not exist.', { fields: { trialId: ['No such trial'] } });
     }
-    if (input.type === 'disposal' && batch.status !== 'exhausted' && !input.reason)
-      throw unprocessable(`${batch.code} is not exhausted. Give a reason to dispose of it now, or keep using and topping it up.`, { fields: { reason: ['Say why the batch is disposed of before it is exhausted'] } });
 
     const notes = [input.reason ? `Reason: ${input.reason}` : null, input.notes ?? null].filter(Boolean).join('\n') || null;
     const event = await BatchEvent.create(
@@ -69,8 +67,7 @@ export async function addEvent({ actor, input, batchId }: Omit<Ctx<BatchEventInp
       },
       { transaction },
     );
-    const after = figuresFor(batch, await loadEvents(batch.id, transaction));
-    const status = input.type === 'disposal' ? 'disposed' : after.remainingMl <= 0 ? 'exhausted' : 'active';
+    const status = input.type === 'disposal' ? 'disposed' : after.state.remainingMl <= 0 ? 'exhausted' : 'active';
     await batch.update({ status, ...(input.type === 'ph' ? { ph: input.ph! } : {}) }, { transaction });
     return { batch, event };
   });

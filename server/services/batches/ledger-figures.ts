@@ -1,57 +1,74 @@
-import type { BatchEventType, BatchIngredient } from '../../models/batches.ts';
+import { computeLedger, LedgerError, tryEvent, type LedgerBatch, type LedgerEvent } from '../../../shared/compute/ledger.ts';
+import { HttpError } from '../../http/errors.ts';
+import type { BatchEvent, MordantBatch } from '../../models/index.ts';
+import type { BatchEventInput } from '../../../shared/schemas/batches.ts';
 
-/**
- * Interim ledger walk for the batch routes, kept to what the routes need until
- * the shared ledger module (shared/compute/ledger.ts) takes it over.
- * Strength is relative to the fresh charge (1 = as made) and is an estimate:
- * each use takes `uptakePerUse` of what is left [CP].
- */
-export type LedgerBatch = { volumeMl: number; ingredients: BatchIngredient[]; uptakePerUse: number };
-export type LedgerEvent = { id: number; type: BatchEventType; volumeMl: number | null; fibreMassG: number | null; additions: BatchIngredient[] | null; occurredAt: Date };
-export type TimelinePoint = { eventId: number | null; at: string; type: BatchEventType | 'made'; remainingMl: number; strength: number };
-
-export const LOW_STRENGTH = 0.5; // below half the fresh charge, check with a test strip [CP]
-export const TOP_UP_SHARE = { low: 0.25, high: 0.5 }; // 25–50 % of the original charge per reuse [CP, FM]
-
-export function walkLedger(batch: LedgerBatch, events: LedgerEvent[], madeAt: string) {
-  const charge = batch.ingredients.reduce((s, i) => s + i.grams, 0);
-  let remainingMl = batch.volumeMl;
-  let strength = 1;
-  let uses = 0;
-  let fibreMassG = 0;
-  let lastStripAfterUse = -1;
-  const timeline: TimelinePoint[] = [{ eventId: null, at: madeAt, type: 'made', remainingMl, strength }];
-  for (const e of events) {
-    if (e.type === 'use') {
-      remainingMl -= e.volumeMl ?? 0;
-      uses += 1;
-      fibreMassG += e.fibreMassG ?? 0;
-      strength *= 1 - batch.uptakePerUse;
-    } else if (e.type === 'water' || e.type === 'top-up') {
-      const added = e.volumeMl ?? 0;
-      const before = remainingMl;
-      remainingMl += added;
-      // Water dilutes; chemicals added restore part of the charge.
-      if (remainingMl > 0) strength = (strength * before) / remainingMl;
-      if (e.type === 'top-up' && charge > 0) {
-        const grams = (e.additions ?? []).reduce((s, a) => s + a.grams, 0);
-        strength += (grams / charge) * (batch.volumeMl / Math.max(remainingMl, 1));
-      }
-    } else if (e.type === 'test-strip') {
-      lastStripAfterUse = uses;
-    }
-    remainingMl = Math.max(0, round(remainingMl));
-    timeline.push({ eventId: e.id, at: e.occurredAt.toISOString(), type: e.type, remainingMl, strength: round(strength, 3) });
-  }
-  const topUpSuggestion =
-    uses > 0
-      ? batch.ingredients.map((i) => ({ name: i.name, refId: i.refId, kind: i.kind, lowG: round(i.grams * TOP_UP_SHARE.low, 1), highG: round(i.grams * TOP_UP_SHARE.high, 1) }))
-      : [];
-  const testStripDue = strength < LOW_STRENGTH && lastStripAfterUse < uses;
-  return { remainingMl, uses, fibreMassG: round(fibreMassG, 1), estimatedStrength: round(strength, 3), topUpSuggestion, testStripDue, timeline };
+/** Maps stored batches and events onto the shared ledger (shared/compute/ledger.ts), which does all the arithmetic. */
+export function ledgerBatch(b: MordantBatch, thickenerIds: ReadonlySet<number>): LedgerBatch {
+  return {
+    volumeMl: b.volumeMl,
+    ingredients: b.ingredients.map((i) => ({ name: i.name, grams: i.grams, refId: i.refId, thickener: i.kind === 'chemical' && thickenerIds.has(i.refId) })),
+    uptakePerUse: b.uptakePerUse,
+    status: b.status,
+  };
 }
 
-function round(x: number, digits = 2) {
-  const f = 10 ** digits;
-  return Math.round(x * f) / f;
+type EventLike = Pick<BatchEvent, 'type' | 'volumeMl' | 'fibreMassG' | 'additions' | 'ph' | 'result' | 'route' | 'ruleFollowed'> & { reason?: string | null };
+
+export function ledgerEvent(e: EventLike, thickenerIds: ReadonlySet<number>): LedgerEvent {
+  switch (e.type) {
+    case 'use': return { type: 'use', volumeMl: e.volumeMl ?? 0, fibreMassG: e.fibreMassG };
+    case 'top-up': return { type: 'top-up', volumeMl: e.volumeMl, additions: (e.additions ?? []).map((a) => ({ name: a.name, grams: a.grams, refId: a.refId, thickener: a.kind === 'chemical' && thickenerIds.has(a.refId) })) };
+    case 'water': return { type: 'water', volumeMl: e.volumeMl ?? 0 };
+    case 'test-strip': return { type: 'test-strip', result: e.result };
+    case 'ph': return { type: 'ph', ph: e.ph ?? Number.NaN };
+    case 'disposal': return { type: 'disposal', route: e.route, ruleFollowed: e.ruleFollowed, reason: e.reason ?? null };
+  }
+}
+
+// A disposal already in the ledger was accepted when it was recorded (exhausted, or with a reason kept in its notes).
+const stored = (e: BatchEvent, t: ReadonlySet<number>) => ledgerEvent(e.type === 'disposal' ? { ...e.get({ plain: true }), reason: 'accepted when recorded' } : e, t);
+
+const asHttp = (err: LedgerError) =>
+  new HttpError(err.status, err.status === 409 ? 'conflict' : 'unprocessable', err.message, {
+    reason: err.code,
+    ...err.details,
+    ...(err.code === 'not-exhausted' ? { fields: { reason: ['Say why the batch is disposed of before it is exhausted'] } } : {}),
+  });
+
+const r = (x: number, d = 1) => Math.round(x * 10 ** d) / 10 ** d;
+
+/** The figures every batch answer carries, from the replayed ledger. */
+export function figures(b: MordantBatch, events: BatchEvent[], thickenerIds: ReadonlySet<number>) {
+  let ledger;
+  try {
+    ledger = computeLedger(ledgerBatch(b, thickenerIds), events.map((e) => stored(e, thickenerIds)));
+  } catch (err) {
+    if (err instanceof LedgerError) throw new HttpError(500, 'ledger_inconsistent', `The stored ledger of ${b.code} does not replay: ${err.message}`);
+    throw err;
+  }
+  const s = ledger.state;
+  return {
+    remainingMl: r(s.remainingMl),
+    uses: s.uses,
+    fibreMassG: r(s.fibreMassG),
+    estimatedStrength: r(s.strength, 3),
+    exhaustedEstimate: ledger.exhaustedEstimate,
+    topUp: ledger.topUp ? { ...ledger.topUp, ingredients: ledger.topUp.ingredients.map((i) => ({ ...i, minG: r(i.minG), maxG: r(i.maxG) })), waterMl: r(ledger.topUp.waterMl) } : null,
+    testStrip: ledger.testStrip,
+    timeline: ledger.timeline.map((p, i) => ({
+      eventId: i === 0 ? null : events[i - 1].id,
+      at: i === 0 ? `${b.madeOn}T00:00:00.000Z` : events[i - 1].occurredAt.toISOString(),
+      type: p.type, remainingMl: r(p.remainingMl), strength: r(p.strength, 3),
+    })),
+  };
+}
+export type Figures = ReturnType<typeof figures>;
+
+/** Refuse an event the ledger would not accept (overdraw, disposed, not exhausted) before anything is written. */
+export function checkEvent(b: MordantBatch, events: BatchEvent[], input: BatchEventInput, thickenerIds: ReadonlySet<number>) {
+  const next = ledgerEvent({ ...input, volumeMl: input.volumeMl ?? null, fibreMassG: input.fibreMassG ?? null, additions: input.additions ?? null, ph: input.ph ?? null, result: input.result ?? null, route: input.route ?? null, ruleFollowed: input.ruleFollowed ?? null, reason: input.reason ?? null }, thickenerIds);
+  const res = tryEvent(ledgerBatch(b, thickenerIds), events.map((e) => stored(e, thickenerIds)), next);
+  if (!res.ok) throw asHttp(res.error);
+  return res.ledger;
 }

@@ -48,10 +48,13 @@ export function BathPage() {
           {b.children.length ? (
             <p className="mt-2 text-sm">Dilutions: {b.children.map((c) => <Link key={c.id} className="text-action underline mr-2" to={paths.bath(c.id)}>{c.code}</Link>)}</p>
           ) : null}
-          {b.topUpSuggestion.items.length ? (
+          {b.topUpSuggestion ? (
             <div className="mt-4">
               <h3 className="font-semibold">Suggested top-up</h3>
-              <ul className="text-sm num">{b.topUpSuggestion.items.map((t) => <li key={t.refId}>{t.name}: {t.lowG}–{t.highG} g</li>)}</ul>
+              <ul className="text-sm num">
+                {b.topUpSuggestion.items.map((t) => <li key={t.name}>{t.name}: {t.minG}–{t.maxG} g</li>)}
+                <li>Water back to the made volume: {b.topUpSuggestion.waterMl} mL</li>
+              </ul>
               <p className="text-xs text-ink-faint">{b.topUpSuggestion.rule}</p>
             </div>
           ) : null}
