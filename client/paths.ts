@@ -1,9 +1,14 @@
 // Every client route in one place; components build links from these, never by hand.
 export const paths = {
   home: () => '/',
-  signIn: () => '/sign-in',
+  signIn: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'),
+  forgotPassword: () => '/forgot-password',
+  resetPassword: (token: string) => `/reset-password/${token}`,
+  join: (token: string) => `/join/${token}`,
   archive: () => '/archive',
+  pieceNew: () => '/archive/new',
   piece: (id: number | string) => `/archive/${id}`,
+  pieceEdit: (id: number | string) => `/archive/${id}/edit`,
   search: () => '/search',
   trials: () => '/trials',
   trial: (id: number | string) => `/trials/${id}`,
@@ -13,4 +18,5 @@ export const paths = {
   seriesOne: (id: number | string) => `/series/${id}`,
   reference: () => '/reference',
   team: () => '/team',
+  outbox: () => '/outbox',
 } as const;

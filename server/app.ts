@@ -6,6 +6,7 @@ import { ROOT_DIR, env, publicUrl } from './env.ts';
 import { apiNotFound, errorHandler } from './http/errors.ts';
 import { originCheck } from './http/origin-check.ts';
 import { apiRouter } from './routes/index.ts';
+import { mediaRouter } from './routes/media/index.ts';
 import { sessionMiddleware } from './auth/session.ts';
 import { passport } from './auth/passport.ts';
 
@@ -40,6 +41,7 @@ export function createApp(options: AppOptions = {}) {
 
   app.use('/api', apiRouter());
   app.use('/api', apiNotFound);
+  app.use('/media', mediaRouter);
 
   app.use('/fonts', express.static(path.join(ROOT_DIR, 'fonts'), { immutable: true, maxAge: '30d' }));
   const clientDir = options.clientDir ?? path.join(ROOT_DIR, 'dist/client');

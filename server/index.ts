@@ -2,12 +2,18 @@ import { env, publicUrl } from './env.ts';
 import { createApp } from './app.ts';
 import { migrate, seed } from './db/setup.ts';
 import { sequelize } from './models/index.ts';
+import { startLocalMail } from './mail/index.ts';
 
 // The running server: migrate, seed an empty database, then listen. SIGINT/SIGTERM close cleanly.
 const applied = await migrate();
 if (applied.length) console.log(`[tinctoria] migrations applied: ${applied.join(', ')}`);
 const seeded = await seed();
 if (seeded.demo) console.log('[tinctoria] demo scenario seeded');
+
+// Outside production and without SMTP_URL, mail goes to the local catcher (files under $DATA_DIR/mail/).
+const catcher = env.SMTP_URL || env.NODE_ENV === 'production' ? null : await startLocalMail();
+if (catcher) console.log(`[tinctoria] local mail catcher on 127.0.0.1:${catcher.port}, messages in ${catcher.dir}`);
+else if (!env.SMTP_URL) console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
 
 const app = createApp();
 const server = app.listen(env.PORT, env.HOST, () => {
@@ -21,6 +27,7 @@ async function shutdown(signal: string) {
   console.log(`[tinctoria] ${signal}: shutting down`);
   server.close();
   server.closeAllConnections();
+  await catcher?.close().catch(() => {});
   await sequelize.close().catch(() => {});
   process.exit(0);
 }

@@ -1,11 +1,14 @@
 import { useState, type FormEvent } from 'react';
-import { useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { loginSchema } from '../../shared/schemas/auth';
 import { Button } from '../components/Button';
 import { Field } from '../components/form/Field';
 import { useLogin } from '../features/auth/api';
 import { ApiError } from '../lib/http';
 import { paths } from '../paths';
+
+// Only a path inside the app, never another site (//host or a full URL).
+const safeNext = (next: string | null) => (next && next.startsWith('/') && !next.startsWith('//') ? next : paths.home());
 
 export function SignIn() {
   const navigate = useNavigate();
@@ -24,7 +27,7 @@ export function SignIn() {
     setFieldErrors({});
     try {
       await login.mutateAsync(parsed.data);
-      navigate(params.get('next') ?? paths.home(), { replace: true });
+      navigate(safeNext(params.get('next')), { replace: true });
     } catch (err) {
       if (err instanceof ApiError && err.details?.fields) setFieldErrors(err.details.fields);
     }
@@ -47,6 +50,11 @@ export function SignIn() {
           {login.isPending ? 'Signing in…' : 'Sign in'}
         </Button>
       </form>
+      <p className="mt-4 text-sm">
+        <Link to={paths.forgotPassword()} className="text-action underline">
+          Forgotten your password?
+        </Link>
+      </p>
     </div>
   );
 }

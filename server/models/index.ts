@@ -6,6 +6,8 @@ import { initTrialModels, Trial, RecipeStep, Substitution, TrialSeries } from '.
 import { initBatchModels, MordantBatch, BatchEvent } from './batches.ts';
 import { initAuditModel, AuditEvent } from './audit.ts';
 import { Session } from './session.ts';
+import { AuthToken } from './auth-token.ts';
+import { AppSetting } from './settings.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -14,6 +16,8 @@ initTrialModels(sequelize);
 initBatchModels(sequelize);
 initAuditModel(sequelize);
 Session.initModel(sequelize);
+AuthToken.initModel(sequelize);
+AppSetting.initModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -45,6 +49,8 @@ MordantBatch.belongsTo(MordantBatch, { as: 'parent', foreignKey: 'parentId' });
 MordantBatch.belongsTo(User, { as: 'madeBy', foreignKey: 'madeById' });
 BatchEvent.belongsTo(MordantBatch, { as: 'batch', foreignKey: 'batchId' });
 AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId' });
+AuthToken.belongsTo(User, { as: 'user', foreignKey: 'userId' });
+AuthToken.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
 
 export {
   sequelize,
@@ -65,4 +71,6 @@ export {
   BatchEvent,
   AuditEvent,
   Session,
+  AuthToken,
+  AppSetting,
 };

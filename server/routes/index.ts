@@ -1,16 +1,35 @@
 import { Router } from 'express';
+import { isProduction } from '../env.ts';
 import { healthRouter } from './health/index.ts';
 import { authRouter } from './auth/index.ts';
+import { invitationsRouter } from './invitations/index.ts';
+import { teamRouter } from './team/index.ts';
+import { outboxRouter } from './outbox/index.ts';
+import { piecesRouter } from './pieces/index.ts';
+import { photosRouter } from './photos/index.ts';
+import { vocabulariesRouter } from './vocabularies/index.ts';
+import { pieceTrialsRouter, trialsRouter } from './trials/index.ts';
+import { colourRouter } from './colour/index.ts';
 import { batchesRouter } from './batches/index.ts';
 import { seriesRouter } from './series/index.ts';
 import { trialCardsRouter } from './trial-cards/index.ts';
 import { chemicalsRouter, dyestuffsRouter } from './reference/index.ts';
 
-/** Every API router, mounted under /api. */
+/** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
   const router = Router();
   router.use('/health', healthRouter);
-  router.use('/auth', authRouter);
+  router.use('/auth', authRouter());
+  router.use('/invitations', invitationsRouter);
+  router.use('/team', teamRouter);
+  // The outbox shows the local mail catcher's messages; there is none in production.
+  if (!isProduction) router.use('/outbox', outboxRouter);
+  router.use('/pieces', piecesRouter);
+  router.use('/pieces', pieceTrialsRouter);
+  router.use('/photos', photosRouter);
+  router.use('/vocabularies', vocabulariesRouter);
+  router.use('/trials', trialsRouter);
+  router.use('/colour', colourRouter);
   router.use('/batches', batchesRouter);
   router.use('/series', seriesRouter);
   router.use('/trials', trialCardsRouter);

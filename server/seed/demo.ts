@@ -115,7 +115,7 @@ export async function seedDemo(t: Transaction) {
 
   const p12 = pieces['1931.4.12'];
   const t1 = await makeTrial(
-    { pieceId: p12.id, status: 'finished', notes: 'Strong red from the aluminium acetate stock in place of the lead-based red liquor.', fastness: { light: { grade: '5', scale: 'blue-wool' }, washing: { grade: '4-5' }, rubbingDry: { grade: '4' }, rubbingWet: { grade: '3-4' } } },
+    { pieceId: p12.id, status: 'finished', notes: 'Strong red from the aluminium acetate stock in place of the lead-based red liquor.', fastness: { light: { blueWool: '5', informal: false }, washing: { change: '4-5', staining: '4', informal: false }, rubbingDry: { staining: '4', informal: false }, rubbingWet: { staining: '3-4', informal: false } } },
     [
       { operation: 'scour', ingredients: [['chemical', 'sodium carbonate (soda ash)', 5, 'owf']], liquorRatio: 40, temperatureC: 95, minutes: 60 },
       { operation: 'tannin', ingredients: [['chemical', 'tannic acid', 8, 'owf']], liquorRatio: 30, temperatureC: 50, minutes: 60 },

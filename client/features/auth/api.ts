@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Abilities } from '../../../shared/abilities';
 import type { LoginInput, SessionUser } from '../../../shared/schemas/auth';
+import type { ResetPasswordInput, ResetRequestInput } from '../../../shared/schemas/team';
 import { ApiError, http } from '../../lib/http';
 
 export type Me = { user: SessionUser; abilities: Abilities } | null;
@@ -49,3 +50,9 @@ export function useLogout() {
     },
   });
 }
+
+export const requestPasswordReset = (input: ResetRequestInput) => http<{ message: string }>('/api/auth/password-reset', { method: 'POST', json: input });
+export const resetPassword = (token: string, input: ResetPasswordInput) => http<void>(`/api/auth/password-reset/${encodeURIComponent(token)}`, { method: 'POST', json: input });
+
+export const useRequestPasswordReset = () => useMutation({ mutationFn: requestPasswordReset });
+export const useResetPassword = (token: string) => useMutation({ mutationFn: (input: ResetPasswordInput) => resetPassword(token, input) });

@@ -1,6 +1,8 @@
 import type { MigrationFn } from 'umzug';
 import type { MigrationContext } from '../migrator.ts';
 import * as m0001 from './0001-initial.ts';
+import * as m0002auth from './0002-auth-tokens.ts';
+import * as m0009trials from './0009-trials-settings.ts';
 import * as m0010baths from './0010-baths-series-liquor-ratio.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
@@ -8,5 +10,7 @@ export type Migration = { name: string; up: MigrationFn<MigrationContext>; down:
 // Listed explicitly so bundlers and tsx see every migration; order is the name order.
 export const migrations: Migration[] = [
   { name: '0001-initial', ...m0001 },
+  { name: '0002-auth-tokens', ...m0002auth },
+  { name: '0009-trials-settings', ...m0009trials },
   { name: '0010-baths-series-liquor-ratio', ...m0010baths },
 ];

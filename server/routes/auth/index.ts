@@ -1,39 +1,61 @@
 import { Router, type NextFunction, type Request, type Response } from 'express';
 import { loginSchema } from '../../../shared/schemas/auth.ts';
+import { resetPasswordSchema, resetRequestSchema, tokenParams } from '../../../shared/schemas/team.ts';
+import { ACTIONS } from '../../../shared/abilities.ts';
 import { passport } from '../../auth/passport.ts';
+import { loginRateLimits } from '../../auth/rate-limit.ts';
 import { abilities, actorOf } from '../../http/auth.ts';
 import { HttpError, unauthorized } from '../../http/errors.ts';
-import { parseBody } from '../../http/validate.ts';
-import type { User } from '../../models/index.ts';
+import { parseBody, parseParams } from '../../http/validate.ts';
+import { sequelize, type User } from '../../models/index.ts';
 import { presentUser } from '../../presenters/user.ts';
-import { ACTIONS } from '../../../shared/abilities.ts';
-
-export const authRouter = Router();
+import { requestPasswordReset, resetPassword } from '../../services/password-reset.ts';
 
 const badCredentials = () => new HttpError(401, 'bad_credentials', 'That e-mail and password do not match an active account.');
 
-authRouter.post('/login', (req: Request, res: Response, next: NextFunction) => {
-  req.body = parseBody(loginSchema, req);
-  passport.authenticate('local', (err: unknown, user: User | false) => {
-    if (err) return next(err);
-    if (!user) return next(badCredentials());
-    // passport 0.7 regenerates the session id on login (no fixation).
-    req.logIn(user, (e) => (e ? next(e) : res.json({ user: presentUser(user), abilities: abilities(actorOf(req), ACTIONS) })));
-  })(req, res, next);
-});
+/** Sign-in, sign-out, the current user and password reset. A factory: each app gets its own rate-limit counters. */
+export function authRouter() {
+  const router = Router();
 
-authRouter.post('/logout', (req, res, next) => {
-  req.logout((err) => {
-    if (err) return next(err);
-    req.session.destroy((e) => {
-      if (e) return next(e);
-      res.clearCookie('tinctoria.sid');
-      res.status(204).end();
+  router.post('/login', ...loginRateLimits(), (req: Request, res: Response, next: NextFunction) => {
+    req.body = parseBody(loginSchema, req);
+    passport.authenticate('local', (err: unknown, user: User | false) => {
+      if (err) return next(err);
+      if (!user) return next(badCredentials());
+      // passport 0.7 regenerates the session id on login (no fixation).
+      req.logIn(user, (e) => (e ? next(e) : res.json({ user: presentUser(user), abilities: abilities(actorOf(req), ACTIONS) })));
+    })(req, res, next);
+  });
+
+  router.post('/logout', (req, res, next) => {
+    req.logout((err) => {
+      if (err) return next(err);
+      req.session.destroy((e) => {
+        if (e) return next(e);
+        res.clearCookie('tinctoria.sid');
+        res.status(204).end();
+      });
     });
   });
-});
 
-authRouter.get('/me', (req, res, next) => {
-  if (!req.user) return next(unauthorized());
-  res.json({ user: presentUser(req.user as User), abilities: abilities(actorOf(req), ACTIONS) });
-});
+  router.get('/me', (req, res, next) => {
+    if (!req.user) return next(unauthorized());
+    res.json({ user: presentUser(req.user as User), abilities: abilities(actorOf(req), ACTIONS) });
+  });
+
+  // 202 whatever the address; the lookup and the mail happen after the answer.
+  router.post('/password-reset', (req, res) => {
+    const { email } = parseBody(resetRequestSchema, req);
+    res.status(202).json({ message: 'If that address belongs to an account, a link to set a new password is on its way.' });
+    requestPasswordReset(email).catch((err) => console.error('[mail] password reset not sent:', err));
+  });
+
+  router.post('/password-reset/:token', async (req, res) => {
+    const { token } = parseParams(tokenParams, req);
+    const input = parseBody(resetPasswordSchema, req);
+    await sequelize.transaction((transaction) => resetPassword({ transaction, input: { ...input, token } }));
+    res.status(204).end();
+  });
+
+  return router;
+}

@@ -9,6 +9,7 @@ import { can } from '../../policies/index.ts';
 import { presentSeries, presentSeriesSummary } from '../../presenters/series.ts';
 import { createSeries, createSeriesTrials, updateSeries } from '../../services/series/index.ts';
 import { expand } from '../../services/series/plan.ts';
+import { withTrialCode } from '../../services/trials/code.ts';
 import { loadCards } from '../../pdf/card-data.ts';
 import { cardsPdf } from '../../pdf/cards.ts';
 import { hazardsFor, labelsPdf } from '../../pdf/labels.ts';
@@ -66,7 +67,7 @@ seriesRouter.post('/:id/trials', async (req, res) => {
   const s = await load(req);
   const actor = actorOf(req)!;
   if (!can(actor, 'series:update', record(s)) || !can(actor, 'trial:create')) throw forbidden();
-  const created = await sequelize.transaction((transaction) => createSeriesTrials({ actor, transaction, series: s }));
+  const created = await withTrialCode((transaction) => createSeriesTrials({ actor, transaction, series: s }));
   res.status(201).json({ created: created.map((t) => ({ id: t.id, code: t.code, cell: t.cell })), series: await full(req, s) });
 });
 

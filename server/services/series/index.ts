@@ -3,7 +3,7 @@ import { cellKey, type Cell, type SeriesCreateInput, type SeriesUpdateInput } fr
 import { conflict, unprocessable } from '../../http/errors.ts';
 import { Chemical, Dyestuff, RecipeStep, Trial, TrialSeries } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
-import { allocateTrialCodes } from '../trial-codes.ts';
+import { nextTrialCode } from '../trials/code.ts';
 import { cellRecipe, expand, type StoredFactor } from './plan.ts';
 
 type Ctx<I> = { actor: NonNullable<Actor>; transaction: Transaction; input: I };
@@ -51,12 +51,12 @@ export async function createSeriesTrials({ actor, transaction, series }: Omit<Ct
   const todo = plannedCells(locked).filter((c) => !done.has(cellKey(c, names)));
   if (!todo.length) throw conflict('Every kept cell of this series already has a trial.');
   if (!locked.dryMassG) throw unprocessable('Set the dry mass per cell before creating trials.');
-  const codes = await allocateTrialCodes(todo.length, transaction);
   const created: Trial[] = [];
-  for (const [i, cell] of todo.entries()) {
+  for (const cell of todo) {
     const trial = await Trial.create(
       {
-        code: codes[i], pieceId: locked.pieceId, seriesId: locked.id, cell, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null,
+        // Each call sees the codes this transaction has already used.
+        code: await nextTrialCode(new Date().getUTCFullYear(), transaction), pieceId: locked.pieceId, seriesId: locked.id, cell, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null,
         dyerId: actor.id, status: 'planned', fibre: null, weave: null, gsm: null, dryMassG: locked.dryMassG, fastness: null,
         notes: `Planned by series ${locked.code}: ${Object.entries(cell).map(([k, v]) => `${k} ${v}`).join(', ')}`, startedOn: null,
       },

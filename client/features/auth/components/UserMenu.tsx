@@ -1,8 +1,7 @@
 import { Link, useNavigate } from 'react-router-dom';
 import { useLogout, useMe } from '../api';
 import { paths } from '../../../paths';
-
-const roleLabel = { admin: 'Admin', curator: 'Curator', researcher: 'Researcher', dyer: 'Dyer' } as const;
+import { roleLabel } from '../../team/roles';
 
 export function UserMenu() {
   const me = useMe();

@@ -1,0 +1,102 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { PhotoUpdateInput, Rect, RegionCreateInput, RegionUpdateInput } from '../../../shared/schemas/photo';
+import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
+import type { presentPalettes, presentRegion } from '../../../server/presenters/photo';
+import { ApiError, http } from '../../lib/http';
+import { pieceKeys, type Photo } from '../pieces/api';
+
+export type Palettes = ReturnType<typeof presentPalettes>;
+export type Region = ReturnType<typeof presentRegion>;
+
+/**
+ * One file per request so each gets its own progress bar. XMLHttpRequest because
+ * fetch() reports no upload progress; `onUploaded` marks the switch to processing.
+ */
+export function uploadPhoto(pieceId: number, file: File, on: { progress: (fraction: number) => void; uploaded: () => void }) {
+  return new Promise<{ photos: Photo[] }>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', `/api/pieces/${pieceId}/photos`);
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.responseType = 'json';
+    xhr.upload.onprogress = (e) => e.lengthComputable && on.progress(e.loaded / e.total);
+    xhr.upload.onload = () => on.uploaded();
+    xhr.onload = () => {
+      const body = xhr.response;
+      if (xhr.status >= 200 && xhr.status < 300) return resolve(body);
+      const e = body?.error ?? {};
+      reject(new ApiError(xhr.status, e.code ?? 'http_error', e.message ?? `Upload failed (${xhr.status}).`, e.details));
+    };
+    xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload was interrupted; check the connection and try again.'));
+    const form = new FormData();
+    form.append(UPLOAD_FIELD, file, file.name);
+    xhr.send(form);
+  });
+}
+
+function useInvalidate(pieceId: number | null) {
+  const qc = useQueryClient();
+  return () => {
+    if (pieceId) {
+      void qc.invalidateQueries({ queryKey: pieceKeys.detail(pieceId) });
+      void qc.invalidateQueries({ queryKey: pieceKeys.history(pieceId) });
+    }
+    void qc.invalidateQueries({ queryKey: pieceKeys.lists() });
+  };
+}
+
+export function useUploadDone(pieceId: number) {
+  return useInvalidate(pieceId);
+}
+
+export function useUpdatePhoto(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({ mutationFn: (input: PhotoUpdateInput) => http(`/api/photos/${photo.id}`, { method: 'PATCH', json: input }), onSuccess: invalidate });
+}
+
+export function useDeletePhoto(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({ mutationFn: () => http<void>(`/api/photos/${photo.id}`, { method: 'DELETE' }), onSuccess: invalidate });
+}
+
+export function useAddRegion(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({
+    mutationFn: (input: RegionCreateInput) => http<{ region: Region; palettes: Palettes }>(`/api/photos/${photo.id}/regions`, { method: 'POST', json: input }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useUpdateRegion(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({
+    mutationFn: ({ id, ...input }: RegionUpdateInput & { id: number }) =>
+      http<{ region: Region; palettes: Palettes }>(`/api/photos/${photo.id}/regions/${id}`, { method: 'PATCH', json: input }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useDeleteRegion(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({
+    mutationFn: (id: number) => http<{ palettes: Palettes }>(`/api/photos/${photo.id}/regions/${id}`, { method: 'DELETE' }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useReferencePatch(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({
+    mutationFn: (rect: Rect | null) =>
+      http<{ palettes: Palettes }>(`/api/photos/${photo.id}/reference-patch`, rect ? { method: 'PUT', json: rect } : { method: 'DELETE' }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useToggleBackground(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({
+    mutationFn: ({ colourId, background }: { colourId: number; background: boolean }) =>
+      http<{ palettes: Palettes }>(`/api/photos/${photo.id}/palette/${colourId}`, { method: 'PATCH', json: { background } }),
+    onSuccess: invalidate,
+  });
+}

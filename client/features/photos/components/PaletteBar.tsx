@@ -1,0 +1,47 @@
+import type { Palettes } from '../api';
+
+type Colour = Palettes[number]['colours'][number];
+const pct = (x: number) => `${(x * 100).toFixed(1)} %`;
+const fix = (x: number) => x.toFixed(1);
+
+/**
+ * One palette: a bar whose segments are proportional to share, then swatches large
+ * enough to judge, all on neutral grey so no tinted surround biases the eye.
+ */
+export function PaletteBar({ title, colours, onToggleBackground }: { title: string; colours: Colour[]; onToggleBackground?: (c: Colour) => void }) {
+  const counted = colours.filter((c) => !c.background);
+  return (
+    <figure className="rounded-lg bg-neutral-ground p-3" aria-label={title}>
+      <figcaption className="mb-2 flex flex-wrap justify-between gap-2 text-sm text-white">
+        <span className="font-medium">{title}</span>
+        <span className="text-xs opacity-90">source: image estimate · CIELAB D65</span>
+      </figcaption>
+      <div className="flex h-10 w-full overflow-hidden rounded" role="img" aria-label={counted.map((c) => `${c.name} ${pct(c.share)}`).join(', ')}>
+        {counted.map((c) => (
+          <div key={c.id} style={{ width: `${c.share * 100}%`, background: c.hex }} title={`${c.name} · ${c.hex} · ${pct(c.share)}`} />
+        ))}
+      </div>
+      <ul className="mt-3 grid gap-2 grid-cols-1 sm:grid-cols-2 lg:grid-cols-4">
+        {colours.map((c) => (
+          <li key={c.id} className={`flex gap-3 rounded bg-neutral-light p-2 ${c.background ? 'opacity-70' : ''}`} data-testid="palette-colour">
+            <div className="h-16 w-16 shrink-0 rounded border border-rule-strong" style={{ background: c.hex }} aria-hidden="true" />
+            <div className="min-w-0 text-xs leading-5">
+              <div className="font-medium text-sm truncate">{c.tradeName ?? c.name}</div>
+              {c.tradeName ? <div className="text-ink-soft truncate">{c.name}</div> : null}
+              <div className="font-mono">{c.hex}</div>
+              <div className="font-mono">
+                L* {fix(c.lab.L)} a* {fix(c.lab.a)} b* {fix(c.lab.b)}
+              </div>
+              <div className="num">{c.background ? 'background, not counted' : `share ${pct(c.share)}`}</div>
+              {onToggleBackground ? (
+                <button type="button" className="text-action hover:underline" onClick={() => onToggleBackground(c)} aria-pressed={c.background}>
+                  {c.background ? 'Count this colour' : 'Mark as background'}
+                </button>
+              ) : null}
+            </div>
+          </li>
+        ))}
+      </ul>
+    </figure>
+  );
+}

@@ -1,0 +1,106 @@
+import type { Photo } from '../../pieces/api';
+import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
+import { PaletteBar } from './PaletteBar';
+import { PURPOSE_LABELS, RegionEditor } from './RegionEditor';
+
+const formatExif = (exif: Record<string, unknown>) =>
+  Object.entries(exif)
+    .filter(([, v]) => v != null && typeof v !== 'object')
+    .map(([k, v]) => `${k}: ${String(v)}`);
+
+/** One photo: the image with its regions, its palettes (raw and corrected, labelled), and its facts. */
+export function PhotoPanel({ photo }: { photo: Photo }) {
+  const canEdit = photo.abilities['region:create'];
+  const toggle = useToggleBackground(photo);
+  const removeRegion = useDeleteRegion(photo);
+  const clearPatch = useReferencePatch(photo);
+  const removePhoto = useDeletePhoto(photo);
+  const regionName = (id: number | null) => {
+    if (id == null) return 'Whole photo';
+    const r = photo.regions.find((x) => x.id === id);
+    return r ? `Region: ${r.label ?? PURPOSE_LABELS[r.purpose]}` : 'Region';
+  };
+
+  return (
+    <article className="space-y-4 rounded-lg border border-rule bg-sheet p-4" data-testid="photo-panel">
+      <header className="flex flex-wrap items-baseline justify-between gap-2">
+        <h3 className="font-serif text-lg">
+          {photo.view} · <span className="num">{photo.width} × {photo.height} px</span>
+        </h3>
+        <div className="flex gap-3 text-sm">
+          <a className="text-action hover:underline" href={photo.urls.master}>
+            Master file
+          </a>
+          {photo.abilities['photo:delete'] ? (
+            <button type="button" className="text-danger hover:underline" onClick={() => confirm('Remove this photo and its palettes?') && removePhoto.mutate()}>
+              Remove photo
+            </button>
+          ) : null}
+        </div>
+      </header>
+      <RegionEditor photo={photo} canEdit={canEdit} />
+
+      <div className="space-y-3">
+        {photo.palettes.length === 0 ? <p className="text-sm text-ink-soft">No palette yet.</p> : null}
+        {photo.palettes.map((p) => (
+          <PaletteBar
+            key={`${p.regionId}-${p.variant}`}
+            title={`${regionName(p.regionId)} — ${p.variant === 'raw' ? 'raw (as photographed)' : 'corrected to D65 from the reference patch'}`}
+            colours={p.colours}
+            onToggleBackground={canEdit ? (c) => toggle.mutate({ colourId: c.id, background: !c.background }) : undefined}
+          />
+        ))}
+      </div>
+
+      {photo.regions.length || photo.referencePatch ? (
+        <ul className="space-y-1 text-sm">
+          {photo.regions.map((r) => (
+            <li key={r.id} className="flex flex-wrap gap-2">
+              <span>
+                {PURPOSE_LABELS[r.purpose]}
+                {r.label ? `: ${r.label}` : ''}
+              </span>
+              <span className="font-mono text-xs text-ink-soft">{r.selector.value}</span>
+              {canEdit ? (
+                <button type="button" className="text-action hover:underline" onClick={() => removeRegion.mutate(r.id)}>
+                  Remove
+                </button>
+              ) : null}
+            </li>
+          ))}
+          {photo.referencePatch ? (
+            <li className="flex flex-wrap gap-2">
+              <span>grey reference patch</span>
+              <span className="font-mono text-xs text-ink-soft">
+                xywh=pixel:{photo.referencePatch.x},{photo.referencePatch.y},{photo.referencePatch.w},{photo.referencePatch.h}
+              </span>
+              {canEdit ? (
+                <button type="button" className="text-action hover:underline" onClick={() => clearPatch.mutate(null)}>
+                  Remove
+                </button>
+              ) : null}
+            </li>
+          ) : null}
+        </ul>
+      ) : null}
+
+      <details className="text-xs text-ink-soft">
+        <summary className="cursor-pointer">File facts</summary>
+        <p className="mt-1 font-mono break-all">SHA-256 (fixity) {photo.sha256}</p>
+        <p className="num">
+          {photo.format} · {(photo.bytes / 1024 / 1024).toFixed(1)} MB{photo.capturedAt ? ` · taken ${photo.capturedAt}` : ''}
+        </p>
+        <ul>
+          {formatExif(photo.exif).map((l) => (
+            <li key={l}>{l}</li>
+          ))}
+        </ul>
+        {'gps' in photo && photo.gps ? (
+          <p className="num">
+            GPS {photo.gps.latitude.toFixed(5)}, {photo.gps.longitude.toFixed(5)} (shown to curators and admins only)
+          </p>
+        ) : null}
+      </details>
+    </article>
+  );
+}

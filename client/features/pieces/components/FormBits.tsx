@@ -1,0 +1,124 @@
+import { useId, type ReactNode, type TextareaHTMLAttributes } from 'react';
+
+export const errorText = (e?: string[]) => (e?.length ? e.join(' ') : undefined);
+
+export function TextAreaField({ label, error, ...rest }: TextareaHTMLAttributes<HTMLTextAreaElement> & { label: string; error?: string[] }) {
+  const id = useId();
+  return (
+    <div>
+      <label htmlFor={id} className="block text-sm font-medium">
+        {label}
+      </label>
+      <textarea
+        id={id}
+        rows={3}
+        aria-invalid={error?.length ? true : undefined}
+        aria-describedby={error?.length ? `${id}-err` : undefined}
+        className={`mt-1 block w-full rounded-md border bg-sheet px-3 py-2 text-sm ${error?.length ? 'border-danger' : 'border-rule-strong'}`}
+        {...rest}
+      />
+      {error?.length ? (
+        <p id={`${id}-err`} className="mt-1 text-sm text-danger">
+          {errorText(error)}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** A group of checkboxes for terms from a vocabulary. */
+export function TermChecklist({ legend, terms, value, onChange, error }: { legend: string; terms: string[]; value: string[]; onChange: (v: string[]) => void; error?: string[] }) {
+  const id = useId();
+  return (
+    <fieldset aria-describedby={error?.length ? `${id}-err` : undefined}>
+      <legend className="text-sm font-medium">{legend}</legend>
+      <div className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
+        {terms.map((t) => (
+          <label key={t} className="flex items-center gap-1.5 text-sm">
+            <input type="checkbox" checked={value.includes(t)} onChange={(e) => onChange(e.target.checked ? [...value, t] : value.filter((x) => x !== t))} />
+            {t}
+          </label>
+        ))}
+      </div>
+      {error?.length ? (
+        <p id={`${id}-err`} className="mt-1 text-sm text-danger">
+          {errorText(error)}
+        </p>
+      ) : null}
+    </fieldset>
+  );
+}
+
+export type Evidenced = { name: string; evidence: 'attributed' | 'identified' };
+
+/** Rows of name + evidence (attributed | identified), for dyestuffs and historical mordants. */
+export function EvidencedList({
+  legend,
+  suggestions,
+  value,
+  onChange,
+  errors,
+  field,
+  hint,
+}: {
+  legend: string;
+  suggestions: string[];
+  value: Evidenced[];
+  onChange: (v: Evidenced[]) => void;
+  errors: Record<string, string[]>;
+  field: string;
+  hint?: ReactNode;
+}) {
+  const listId = useId();
+  const set = (i: number, patch: Partial<Evidenced>) => onChange(value.map((row, j) => (j === i ? { ...row, ...patch } : row)));
+  return (
+    <fieldset>
+      <legend className="text-sm font-medium">{legend}</legend>
+      {hint ? <p className="text-xs text-ink-faint">{hint}</p> : null}
+      <datalist id={listId}>
+        {suggestions.map((s) => (
+          <option key={s} value={s} />
+        ))}
+      </datalist>
+      <ul className="mt-1 space-y-2">
+        {value.map((row, i) => (
+          <li key={i} className="flex flex-wrap items-start gap-2">
+            <label className="flex-1 min-w-48 text-sm">
+              <span className="sr-only">
+                {legend} {i + 1} name
+              </span>
+              <input
+                list={listId}
+                value={row.name}
+                onChange={(e) => set(i, { name: e.target.value })}
+                aria-invalid={errors[`${field}.${i}.name`] ? true : undefined}
+                className="block w-full rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm"
+              />
+              {errors[`${field}.${i}.name`] ? <span className="text-danger">{errorText(errors[`${field}.${i}.name`])}</span> : null}
+            </label>
+            <label className="text-sm">
+              <span className="sr-only">
+                {legend} {i + 1} evidence
+              </span>
+              <select
+                value={row.evidence}
+                onChange={(e) => set(i, { evidence: e.target.value as Evidenced['evidence'] })}
+                className="rounded-md border border-rule-strong bg-sheet px-2 py-2 text-sm"
+              >
+                <option value="attributed">attributed</option>
+                <option value="identified">identified (by analysis)</option>
+              </select>
+            </label>
+            <button type="button" className="px-2 py-2 text-sm text-action hover:underline" onClick={() => onChange(value.filter((_, j) => j !== i))}>
+              Remove
+            </button>
+          </li>
+        ))}
+      </ul>
+      <button type="button" className="mt-2 text-sm text-action hover:underline" onClick={() => onChange([...value, { name: '', evidence: 'attributed' }])}>
+        Add a line
+      </button>
+      {errors[field] ? <p className="mt-1 text-sm text-danger">{errorText(errors[field])}</p> : null}
+    </fieldset>
+  );
+}

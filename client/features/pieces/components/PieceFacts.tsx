@@ -1,0 +1,40 @@
+import type { ReactNode } from 'react';
+import type { Piece } from '../api';
+import { yearsOf } from './ArchiveTable';
+
+const mm = (v: number | null) => (v == null ? null : `${v} mm`);
+
+/** The catalogue fields of a piece as a definition list; empty fields are left out. */
+export function PieceFacts({ piece }: { piece: Piece }) {
+  const rows: [string, ReactNode][] = [
+    ['Accession number', <span className="font-mono">{piece.accessionNumber}</span>],
+    ['Object', piece.objectName],
+    ['Date', <span className="num">{yearsOf(piece)}</span>],
+    ['Date (EDTF)', piece.dateEdtf ? <span className="font-mono">{piece.dateEdtf}</span> : null],
+    ['Place', piece.place],
+    ['Fibres', piece.fibres.join(', ') || null],
+    ['Weave', piece.weave],
+    ['Thread count', piece.threadCount],
+    ['Height × width', piece.heightMm != null || piece.widthMm != null ? <span className="num">{`${mm(piece.heightMm) ?? '—'} × ${mm(piece.widthMm) ?? '—'}`}</span> : null],
+    ['Pattern repeat', piece.repeatMm != null ? <span className="num">{mm(piece.repeatMm)}</span> : null],
+    ['Techniques', piece.techniques.join(', ') || null],
+    ['Dyestuffs', piece.dyestuffs.length ? piece.dyestuffs.map((d) => `${d.name} (${d.evidence})`).join('; ') : null],
+    ['Historical mordants', piece.historicalMordants.length ? piece.historicalMordants.map((d) => `${d.name} (${d.evidence})`).join('; ') : null],
+    ['Description', piece.description],
+    ['Provenance', piece.provenance],
+    ['Condition', piece.condition],
+    ['Credit line', piece.creditLine],
+  ];
+  return (
+    <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[12rem_1fr] text-sm">
+      {rows
+        .filter(([, v]) => v != null && v !== '')
+        .map(([k, v]) => (
+          <div key={k} className="contents">
+            <dt className="font-medium text-ink-soft">{k}</dt>
+            <dd className="whitespace-pre-line">{v}</dd>
+          </div>
+        ))}
+    </dl>
+  );
+}

@@ -1,0 +1,142 @@
+import { useState, type FormEvent } from 'react';
+import { edtfYears } from '../../../../shared/edtf';
+import { pieceCreateSchema, type PieceCreateInput } from '../../../../shared/schemas/piece';
+import { Button } from '../../../components/Button';
+import { Field } from '../../../components/form/Field';
+import { ApiError } from '../../../lib/http';
+import { useVocabularies } from '../../vocabularies/api';
+import type { Piece } from '../api';
+import { EvidencedList, TermChecklist, TextAreaField, type Evidenced } from './FormBits';
+
+type Text = Record<
+  'accessionNumber' | 'objectName' | 'title' | 'dateText' | 'dateEdtf' | 'earliestYear' | 'latestYear' | 'place' | 'weave' | 'threadCount' | 'heightMm' | 'widthMm' | 'repeatMm' | 'description' | 'provenance' | 'condition' | 'creditLine',
+  string
+>;
+type State = Text & { fibres: string[]; techniques: string[]; dyestuffs: Evidenced[]; historicalMordants: Evidenced[] };
+
+const NUMERIC = new Set(['earliestYear', 'latestYear', 'heightMm', 'widthMm', 'repeatMm']);
+const str = (v: unknown) => (v == null ? '' : String(v));
+
+function initial(p?: Piece): State {
+  const keys = ['accessionNumber', 'objectName', 'title', 'dateText', 'dateEdtf', 'earliestYear', 'latestYear', 'place', 'weave', 'threadCount', 'heightMm', 'widthMm', 'repeatMm', 'description', 'provenance', 'condition', 'creditLine'] as const;
+  const text = Object.fromEntries(keys.map((k) => [k, str(p?.[k])])) as Text;
+  return { ...text, fibres: p?.fibres ?? [], techniques: p?.techniques ?? [], dyestuffs: p?.dyestuffs ?? [], historicalMordants: p?.historicalMordants ?? [] };
+}
+
+/** Form text → the shared schema's input: empty text is null, numbers are numbers. */
+function toInput(s: State): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(s)) {
+    if (Array.isArray(v)) out[k] = v;
+    else if (NUMERIC.has(k)) out[k] = v.trim() === '' ? null : Number(v);
+    else out[k] = v.trim() === '' ? null : v.trim();
+  }
+  return out;
+}
+
+export function PieceForm({ piece, submitLabel, onSubmit }: { piece?: Piece; submitLabel: string; onSubmit: (input: PieceCreateInput) => Promise<unknown> }) {
+  const vocab = useVocabularies().data;
+  const [state, setState] = useState<State>(() => initial(piece));
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [formError, setFormError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const set = <K extends keyof State>(k: K, v: State[K]) => setState((s) => ({ ...s, [k]: v }));
+  const text = (k: keyof Text) => ({ value: state[k], onChange: (e: { target: { value: string } }) => set(k, e.target.value), error: errors[k] });
+  const years = state.dateEdtf ? edtfYears(state.dateEdtf) : null;
+  // Years that merely echoed the old EDTF date follow a new one instead of contradicting it.
+  const setEdtf = (value: string) =>
+    setState((s) => {
+      const old = s.dateEdtf ? edtfYears(s.dateEdtf) : null;
+      const echo = (y: string, v: number | null | undefined) => (y !== '' && old && String(v) === y ? '' : y);
+      return { ...s, dateEdtf: value, earliestYear: echo(s.earliestYear, old?.earliest), latestYear: echo(s.latestYear, old?.latest) };
+    });
+
+  async function submit(e: FormEvent) {
+    e.preventDefault();
+    setFormError(null);
+    const parsed = pieceCreateSchema.safeParse(toInput(state));
+    if (!parsed.success) {
+      const fields: Record<string, string[]> = {};
+      for (const i of parsed.error.issues) (fields[i.path.join('.') || '_'] ??= []).push(i.message);
+      setErrors(fields);
+      setFormError('Some fields need attention; see the messages beside them.');
+      return;
+    }
+    setErrors({});
+    setBusy(true);
+    try {
+      await onSubmit(parsed.data);
+    } catch (err) {
+      if (err instanceof ApiError && err.details?.fields) setErrors(err.details.fields);
+      setFormError(err instanceof Error ? err.message : 'Saving failed.');
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <form onSubmit={submit} noValidate className="space-y-8 max-w-4xl">
+      <fieldset className="grid gap-4 sm:grid-cols-2">
+        <legend className="mb-2 text-lg font-semibold font-serif">Identification</legend>
+        <Field label="Accession number" hint="e.g. 1931.4.12; parts as 1931.4.12a-b" className="font-mono" {...text('accessionNumber')} />
+        <Field label="Object name" hint="e.g. furnishing fabric, panel, dress fabric" {...text('objectName')} />
+        <Field label="Title" className="sm:col-span-2" {...text('title')} />
+      </fieldset>
+
+      <fieldset className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
+        <legend className="mb-2 text-lg font-semibold font-serif">Date and place</legend>
+        <Field label="Date as written" hint="e.g. about 1770–1785" className="lg:col-span-2" {...text('dateText')} />
+        <Field label="Date (EDTF)" hint="e.g. 1770/1785, 1820~, 17XX" className="lg:col-span-2 font-mono" {...text('dateEdtf')} onChange={(e) => setEdtf(e.target.value)} />
+        <Field label="Earliest year" inputMode="numeric" placeholder={years?.earliest != null ? String(years.earliest) : ''} hint="Filled from the EDTF date when left empty" {...text('earliestYear')} />
+        <Field label="Latest year" inputMode="numeric" placeholder={years?.latest != null ? String(years.latest) : ''} {...text('latestYear')} />
+        <Field label="Place" className="lg:col-span-2" {...text('place')} />
+      </fieldset>
+
+      <fieldset className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
+        <legend className="mb-2 text-lg font-semibold font-serif">Cloth</legend>
+        <div className="sm:col-span-2 lg:col-span-4">
+          <TermChecklist legend="Fibres" terms={vocab?.fibres.map((t) => t.term) ?? []} value={state.fibres} onChange={(v) => set('fibres', v)} error={errors.fibres} />
+        </div>
+        <Field label="Weave" list="weave-terms" {...text('weave')} />
+        <datalist id="weave-terms">{vocab?.weaves.map((t) => <option key={t.term} value={t.term} />)}</datalist>
+        <Field label="Thread count" hint="e.g. 24 × 22 threads/cm" {...text('threadCount')} />
+        <Field label="Height" unit="mm" inputMode="decimal" {...text('heightMm')} />
+        <Field label="Width" unit="mm" inputMode="decimal" {...text('widthMm')} />
+        <Field label="Pattern repeat" unit="mm" inputMode="decimal" {...text('repeatMm')} />
+      </fieldset>
+
+      <fieldset className="space-y-4">
+        <legend className="mb-2 text-lg font-semibold font-serif">Making</legend>
+        <TermChecklist legend="Techniques" terms={vocab?.techniques.map((t) => t.term) ?? []} value={state.techniques} onChange={(v) => set('techniques', v)} error={errors.techniques} />
+        <EvidencedList legend="Dyestuffs" field="dyestuffs" suggestions={vocab?.dyestuffs.map((d) => d.name) ?? []} value={state.dyestuffs} onChange={(v) => set('dyestuffs', v)} errors={errors} />
+        <EvidencedList
+          legend="Historical mordants"
+          field="historicalMordants"
+          hint="What the maker used, for the record; several were toxic (lead, chromium, tin, arsenic). Trials record the safer substitutes."
+          suggestions={vocab?.mordants.map((m) => m.name) ?? []}
+          value={state.historicalMordants}
+          onChange={(v) => set('historicalMordants', v)}
+          errors={errors}
+        />
+      </fieldset>
+
+      <fieldset className="grid gap-4">
+        <legend className="mb-2 text-lg font-semibold font-serif">Record</legend>
+        <TextAreaField label="Description" {...text('description')} />
+        <TextAreaField label="Provenance" {...text('provenance')} />
+        <TextAreaField label="Condition" {...text('condition')} />
+        <Field label="Credit line" {...text('creditLine')} />
+      </fieldset>
+
+      {formError ? (
+        <p role="alert" className="rounded-md bg-danger-tint px-3 py-2 text-sm text-danger">
+          {formError}
+          {errors._ ? ` ${errors._.join(' ')}` : ''}
+        </p>
+      ) : null}
+      <Button type="submit" disabled={busy}>
+        {busy ? 'Saving…' : submitLabel}
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,32 @@
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { InviteInput, TeamMember, TeamPatchInput } from '../../../shared/schemas/team';
+import type { Role } from '../../../shared/roles';
+import { http } from '../../lib/http';
+
+export type TeamPage = { items: TeamMember[]; total: number; page: number; pageSize: number };
+export type Invitation = { email: string; role: Role; expiresAt: string };
+
+export const teamKeys = {
+  all: ['team'] as const,
+  list: (page: number) => ['team', 'list', page] as const,
+};
+
+export const fetchTeam = (page = 1) => http<TeamPage>(`/api/team?page=${page}&pageSize=100`);
+export const teamQuery = (page = 1) => queryOptions({ queryKey: teamKeys.list(page), queryFn: () => fetchTeam(page), placeholderData: keepPreviousData });
+export const useTeam = (page = 1) => useQuery(teamQuery(page));
+
+export const invite = (input: InviteInput) => http<{ invitation: Invitation }>('/api/invitations', { method: 'POST', json: input });
+export const updateMember = (id: number, input: TeamPatchInput) => http<{ member: TeamMember }>(`/api/team/${id}`, { method: 'PATCH', json: input });
+
+export function useInvite() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: invite, onSuccess: () => qc.invalidateQueries({ queryKey: teamKeys.all }) });
+}
+
+export function useUpdateMember() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, ...input }: TeamPatchInput & { id: number }) => updateMember(id, input),
+    onSuccess: () => qc.invalidateQueries({ queryKey: teamKeys.all }),
+  });
+}

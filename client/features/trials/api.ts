@@ -1,0 +1,126 @@
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { MeasurementView, TrialSummaryView, TrialView } from '../../../server/presenters/trial';
+import type { MeasurementInput, StepsInput, SubstitutionInput, TrialCreateInput, TrialListQuery, TrialUpdateInput } from '../../../shared/schemas/trial';
+import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
+import { http } from '../../lib/http';
+
+export type { TrialSummaryView, TrialView, MeasurementView };
+export type TrialList = { items: TrialSummaryView[]; total: number; page: number; pageSize: number };
+export type PieceTrials = TrialList & { piece: { id: number; accessionNumber: string; title: string } };
+
+/** Every trial query key comes from here, so mutations invalidate exactly what changed. */
+export const trialKeys = {
+  all: ['trials'] as const,
+  lists: () => [...trialKeys.all, 'list'] as const,
+  list: (q: TrialListQuery) => [...trialKeys.lists(), q] as const,
+  detail: (id: number) => [...trialKeys.all, 'detail', id] as const,
+  ofPiece: (pieceId: number) => [...trialKeys.all, 'piece', pieceId] as const,
+};
+
+const qs = (q: Record<string, unknown>) => {
+  const p = new URLSearchParams();
+  for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== null && v !== '') p.set(k, String(v));
+  const s = p.toString();
+  return s ? `?${s}` : '';
+};
+
+export const fetchTrials = (q: TrialListQuery) => http<TrialList>(`/api/trials${qs(q)}`);
+export const fetchTrial = (id: number) => http<{ trial: TrialView }>(`/api/trials/${id}`).then((r) => r.trial);
+export const fetchPieceTrials = (pieceId: number) => http<PieceTrials>(`/api/pieces/${pieceId}/trials`);
+
+export const trialsQuery = (q: TrialListQuery) => queryOptions({ queryKey: trialKeys.list(q), queryFn: () => fetchTrials(q), placeholderData: keepPreviousData });
+export const trialQuery = (id: number) => queryOptions({ queryKey: trialKeys.detail(id), queryFn: () => fetchTrial(id) });
+export const pieceTrialsQuery = (pieceId: number) => queryOptions({ queryKey: trialKeys.ofPiece(pieceId), queryFn: () => fetchPieceTrials(pieceId) });
+
+export const useTrials = (q: TrialListQuery) => useQuery(trialsQuery(q));
+export const useTrial = (id: number) => useQuery(trialQuery(id));
+export const usePieceTrials = (pieceId: number) => useQuery(pieceTrialsQuery(pieceId));
+
+type Created = { trial: TrialView; notified: boolean };
+export const createTrial = (input: TrialCreateInput) =>
+  input.pieceId != null
+    ? http<Created>(`/api/pieces/${input.pieceId}/trials`, { method: 'POST', json: input })
+    : http<Created>('/api/trials', { method: 'POST', json: input });
+
+/** After any change to one trial: its page, the lists and its piece's side-by-side view. */
+function useTrialInvalidation() {
+  const qc = useQueryClient();
+  return (trial?: Pick<TrialView, 'id'> | null) => {
+    if (trial) qc.invalidateQueries({ queryKey: trialKeys.detail(trial.id) });
+    qc.invalidateQueries({ queryKey: trialKeys.lists() });
+    qc.invalidateQueries({ queryKey: [...trialKeys.all, 'piece'] });
+  };
+}
+
+export function useCreateTrial() {
+  const invalidate = useTrialInvalidation();
+  return useMutation({ mutationFn: createTrial, onSuccess: ({ trial }) => invalidate(trial) });
+}
+
+export function useUpdateTrial(id: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({
+    mutationFn: (input: TrialUpdateInput) => http<{ trial: TrialView }>(`/api/trials/${id}`, { method: 'PATCH', json: input }),
+    onSuccess: () => invalidate({ id }),
+  });
+}
+
+export function useDeleteTrial(id: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({ mutationFn: () => http<void>(`/api/trials/${id}`, { method: 'DELETE' }), onSuccess: () => invalidate(null) });
+}
+
+export function useReplaceSteps(id: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({
+    mutationFn: (input: StepsInput) => http<{ trial: TrialView; warning: boolean }>(`/api/trials/${id}/steps`, { method: 'PUT', json: input }),
+    onSuccess: () => invalidate({ id }),
+  });
+}
+
+export function useSaveSubstitution(trialId: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({
+    mutationFn: ({ id, ...input }: SubstitutionInput & { id?: number }) =>
+      id ? http(`/api/trials/${trialId}/substitutions/${id}`, { method: 'PUT', json: input }) : http(`/api/trials/${trialId}/substitutions`, { method: 'POST', json: input }),
+    onSuccess: () => invalidate({ id: trialId }),
+  });
+}
+
+export function useDeleteSubstitution(trialId: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({ mutationFn: (id: number) => http<void>(`/api/trials/${trialId}/substitutions/${id}`, { method: 'DELETE' }), onSuccess: () => invalidate({ id: trialId }) });
+}
+
+export function useAddMeasurement(trialId: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({
+    mutationFn: (input: MeasurementInput) => http<{ measurement: MeasurementView }>(`/api/trials/${trialId}/measurements`, { method: 'POST', json: input }),
+    onSuccess: () => invalidate({ id: trialId }),
+  });
+}
+
+export function useDeleteMeasurement(trialId: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({ mutationFn: (id: number) => http<void>(`/api/trials/${trialId}/measurements/${id}`, { method: 'DELETE' }), onSuccess: () => invalidate({ id: trialId }) });
+}
+
+export function useImportMeasurements(trialId: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({
+    mutationFn: (csv: string) => http<{ imported: number }>(`/api/trials/${trialId}/measurements/import`, { method: 'POST', body: csv, headers: { 'Content-Type': 'text/csv' } }),
+    onSuccess: () => invalidate({ id: trialId }),
+  });
+}
+
+export function useUploadSwatch(trialId: number) {
+  const invalidate = useTrialInvalidation();
+  return useMutation({
+    mutationFn: (file: File) => {
+      const form = new FormData();
+      form.append(UPLOAD_FIELD, file);
+      return http<{ photo: { id: number } }>(`/api/trials/${trialId}/photos`, { method: 'POST', body: form });
+    },
+    onSuccess: () => invalidate({ id: trialId }),
+  });
+}

@@ -1,0 +1,144 @@
+import { createHash } from 'node:crypto';
+import { readFile, rm } from 'node:fs/promises';
+import sharp, { type Metadata } from 'sharp';
+import type { Transaction } from 'sequelize';
+import { HttpError } from '../http/errors.ts';
+import { PaletteColour, Photo, type User } from '../models/index.ts';
+import type { PhotoView } from '../models/catalogue.ts';
+import { MAX_PIXELS, WORKING_SIZE } from './decode.ts';
+import { readExif } from './exif.ts';
+import { exists, WrittenFiles } from './files.ts';
+import { extractPalette } from './palette.ts';
+import { paletteRows } from './rows.ts';
+import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
+export { repalette } from './repalette.ts';
+
+export const MAX_BYTES = 60 * 1024 * 1024;
+export const DERIVATIVES = { thumb: 320, display: 1600 } as const;
+
+const FORMATS: Record<string, string> = { jpeg: 'jpg', png: 'png', tiff: 'tif', webp: 'webp', heif: 'heic' };
+
+export type IngestInput = { buffer: Buffer; originalName?: string | null; pieceId?: number | null; trialId?: number | null; view?: PhotoView };
+
+/** Format and upright size, decided by content; refuses what is not a supported image. */
+async function probe(buffer: Buffer) {
+  if (buffer.length === 0) throw new HttpError(422, 'empty_file', 'The file is empty.');
+  if (buffer.length > MAX_BYTES) throw new HttpError(413, 'too_large', `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`);
+  let meta: Metadata;
+  try {
+    meta = await sharp(buffer, { limitInputPixels: false }).metadata();
+  } catch (err) {
+    if (/unsupported image format/i.test(String(err))) throw new HttpError(415, 'unsupported_type', 'This file is not an image in a supported format (JPEG, PNG, TIFF, WebP, HEIF/AVIF).');
+    throw new HttpError(422, 'corrupt_image', 'The image file is damaged and cannot be read.');
+  }
+  const format = meta.format ?? '';
+  if (!FORMATS[format]) throw new HttpError(415, 'unsupported_type', `Images of type ${format || 'unknown'} are not accepted; use JPEG, PNG, TIFF, WebP or HEIF/AVIF.`);
+  if (!meta.width || !meta.height) throw new HttpError(422, 'corrupt_image', 'The image has no size.');
+  if (meta.width * meta.height > MAX_PIXELS) {
+    throw new HttpError(422, 'pixel_limit', `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${MAX_PIXELS / 1e6} megapixels.`);
+  }
+  const swap = (meta.orientation ?? 1) >= 5;
+  const ext = format === 'heif' && meta.compression === 'av1' ? 'avif' : FORMATS[format];
+  return { format: ext === 'avif' ? 'avif' : format, ext, width: swap ? meta.height : meta.width, height: swap ? meta.width : meta.height };
+}
+
+/**
+ * One decode serves every output: upright, sRGB (from an embedded ICC profile), reduced
+ * to the display size. A linear kernel avoids edge overshoot that would invent colours.
+ */
+async function decodeDisplay(buffer: Buffer) {
+  try {
+    return await sharp(buffer, { limitInputPixels: MAX_PIXELS, failOn: 'error' })
+      .rotate()
+      .resize({ width: DERIVATIVES.display, height: DERIVATIVES.display, fit: 'inside', withoutEnlargement: true, kernel: 'linear' })
+      .removeAlpha()
+      .toColourspace('srgb')
+      .raw()
+      .toBuffer({ resolveWithObject: true });
+  } catch {
+    throw new HttpError(422, 'corrupt_image', 'The image is truncated or damaged and cannot be decoded.');
+  }
+}
+
+const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { raw: { width, height, channels: 3 } });
+
+/**
+ * The media pipeline, in this order: check → store the master (by SHA-256) → EXIF →
+ * derivatives → palette. All rows go into the caller's transaction; on any failure every
+ * file written here is removed again and an HttpError is thrown.
+ */
+export async function ingestPhoto({ actor, transaction, input }: { actor: User | null; transaction: Transaction; input: IngestInput }) {
+  const { buffer } = input;
+  const info = await probe(buffer);
+  const files = new WrittenFiles();
+  let photoId: number | null = null;
+  try {
+    // 1. Store the master byte for byte; an identical file already stored is shared.
+    const sha256 = createHash('sha256').update(buffer).digest('hex');
+    const master = masterPath(sha256, info.ext);
+    if (!(await exists(master))) await files.write(master, buffer);
+
+    // 2. EXIF (GPS kept apart, on the row only).
+    const { exif, gps, capturedAt } = await readExif(buffer);
+    const photo = await Photo.create(
+      {
+        pieceId: input.pieceId ?? null, trialId: input.trialId ?? null, sha256, format: info.format, bytes: buffer.length,
+        width: info.width, height: info.height, view: input.view ?? 'recto', originalName: input.originalName?.slice(0, 255) ?? null,
+        caption: null, capturedAt, exif, gps, derivatives: { master: { path: master, width: info.width, height: info.height } },
+        referencePatch: null, correction: null, createdById: actor?.id ?? null,
+      },
+      { transaction },
+    );
+    photoId = photo.id;
+
+    // 3. Derivatives (WebP, no metadata: sharp writes none unless asked).
+    const { data, info: d } = await decodeDisplay(buffer);
+    const display = await fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 2 }).toBuffer({ resolveWithObject: true });
+    const thumb = await fromRaw(data, d.width, d.height)
+      .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
+      .webp({ quality: 80, effort: 2 })
+      .toBuffer({ resolveWithObject: true });
+    const derivatives = { ...photo.derivatives };
+    for (const [kind, out] of [['display', display], ['thumb', thumb]] as const) {
+      const rel = derivativePath(photo.id, kind);
+      await files.write(rel, out.data);
+      derivatives[kind] = { path: rel, width: out.info.width, height: out.info.height };
+    }
+    await photo.update({ derivatives }, { transaction });
+
+    // 4. Palette of the whole photo, on the working-size reduction of the same decode.
+    const work = await fromRaw(data, d.width, d.height)
+      .resize({ width: WORKING_SIZE, height: WORKING_SIZE, fit: 'inside', withoutEnlargement: true, kernel: 'linear' })
+      .raw()
+      .toBuffer({ resolveWithObject: true });
+    const colours = extractPalette({ data: work.data, width: work.info.width, height: work.info.height });
+    const palette = await PaletteColour.bulkCreate(paletteRows(photo.id, null, 'raw', colours), { transaction });
+    return { photo, palette };
+  } catch (err) {
+    await files.removeAll();
+    if (photoId) await rm(resolveInsideUploads(derivativesDir(photoId)), { recursive: true, force: true });
+    if (err instanceof HttpError) throw err;
+    throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', { reason: err instanceof Error ? err.message : String(err) });
+  }
+}
+
+/** Deletes a photo's derivatives and tiles, and its master unless another photo row shares it. */
+export async function removePhotoFiles(photo: Photo, transaction?: Transaction) {
+  await rm(resolveInsideUploads(derivativesDir(photo.id)), { recursive: true, force: true });
+  await rm(resolveInsideUploads(tilesDir(photo.id)), { recursive: true, force: true });
+  const others = await Photo.count({ where: { sha256: photo.sha256 }, transaction });
+  const stillUsed = others - ((await Photo.findByPk(photo.id, { transaction })) ? 1 : 0);
+  const master = photo.derivatives.master?.path;
+  if (stillUsed <= 0 && master) await rm(resolveInsideUploads(master), { force: true });
+}
+
+/** Absolute path of a photo's file for res.sendFile. */
+export function photoFile(photo: Photo, kind: 'thumb' | 'display' | 'master'): string {
+  const rel = photo.derivatives[kind]?.path;
+  if (!rel) throw new HttpError(404, 'not_found', `This photo has no ${kind} file.`);
+  return resolveInsideUploads(rel);
+}
+
+export async function readMaster(photo: Photo) {
+  return readFile(photoFile(photo, 'master'));
+}

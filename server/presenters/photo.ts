@@ -1,0 +1,71 @@
+import { xywhSelector } from '../../shared/schemas/photo.ts';
+import type { PaletteColour, Photo, Region } from '../models/index.ts';
+import { abilities, can, type Actor } from '../policies/index.ts';
+
+export const mediaUrl = (id: number, kind: 'thumb' | 'display' | 'master') => `/media/photos/${id}/${kind}`;
+
+export function presentColour(c: PaletteColour) {
+  return {
+    id: c.id,
+    rank: c.rank,
+    hex: c.hex,
+    lab: { L: c.L, a: c.a, b: c.b },
+    share: c.share,
+    spread: c.spread,
+    name: c.name,
+    tradeName: c.tradeName,
+    background: c.background,
+    source: 'image estimate' as const,
+  };
+}
+
+export function presentRegion(r: Region) {
+  return { id: r.id, x: r.x, y: r.y, w: r.w, h: r.h, purpose: r.purpose, label: r.label, selector: xywhSelector(r) };
+}
+
+/** Palettes of one photo grouped as { regionId, variant, colours }, whole photo first, raw before corrected. */
+export function presentPalettes(rows: PaletteColour[]) {
+  const groups = new Map<string, { regionId: number | null; variant: 'raw' | 'corrected'; colours: ReturnType<typeof presentColour>[] }>();
+  const sorted = [...rows].sort(
+    (x, y) => (x.regionId ?? 0) - (y.regionId ?? 0) || (x.variant === y.variant ? 0 : x.variant === 'raw' ? -1 : 1) || x.rank - y.rank,
+  );
+  for (const c of sorted) {
+    const key = `${c.regionId ?? 'photo'}:${c.variant}`;
+    if (!groups.has(key)) groups.set(key, { regionId: c.regionId, variant: c.variant, colours: [] });
+    groups.get(key)!.colours.push(presentColour(c));
+  }
+  return [...groups.values()];
+}
+
+const GPS_KEY = /^gps|latitude|longitude|altitude/i;
+
+/** EXIF as a role may see it: GPS only for roles allowed to (curators and admins). */
+export function presentExif(exif: Record<string, unknown>, seeGps: boolean) {
+  return seeGps ? exif : Object.fromEntries(Object.entries(exif ?? {}).filter(([k]) => !GPS_KEY.test(k)));
+}
+
+export function presentPhoto(p: Photo, actor: Actor, extra: { palette: PaletteColour[]; regions?: Region[] }) {
+  const seeGps = can(actor, 'photo:see-gps');
+  const wholeRaw = extra.palette.filter((c) => c.regionId == null && c.variant === 'raw').sort((x, y) => x.rank - y.rank);
+  return {
+    id: p.id,
+    pieceId: p.pieceId,
+    width: p.width,
+    height: p.height,
+    format: p.format,
+    bytes: p.bytes,
+    sha256: p.sha256,
+    view: p.view,
+    caption: p.caption,
+    originalName: p.originalName,
+    capturedAt: p.capturedAt,
+    exif: presentExif(p.exif, seeGps),
+    ...(seeGps ? { gps: p.gps } : {}),
+    referencePatch: p.referencePatch,
+    palette: wholeRaw.map(presentColour),
+    palettes: presentPalettes(extra.palette),
+    regions: (extra.regions ?? []).map(presentRegion),
+    urls: { thumb: mediaUrl(p.id, 'thumb'), display: mediaUrl(p.id, 'display'), master: mediaUrl(p.id, 'master') },
+    abilities: abilities(actor, ['photo:update', 'photo:delete', 'region:create', 'region:update', 'region:delete'] as const),
+  };
+}

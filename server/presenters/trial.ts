@@ -1,0 +1,143 @@
+import type { Chemical, ColourMeasurement, Dyestuff, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../models/index.ts';
+import { abilities, type Actor } from '../policies/index.ts';
+import { computeStep, gramsInStep, type QStep } from '../../shared/trials/quantities.ts';
+import { trialMetalLoad } from '../../shared/trials/metal-load.ts';
+import { isHazardous } from './chemical-caution.ts';
+import { presentChemical } from './reference.ts';
+import type { trialColour } from '../services/trials/colour.ts';
+
+type Colour = Awaited<ReturnType<typeof trialColour>>;
+const TRIAL_ACTIONS = ['trial:update', 'trial:delete'] as const;
+
+export const trialPolicyRecord = (t: Trial) => ({ ownerId: t.dyerId });
+
+const pieceRef = (p: Piece | null | undefined) => (p ? { id: p.id, accessionNumber: p.accessionNumber, title: p.title, createdById: p.createdById } : null);
+const userRef = (u: User | null | undefined) => (u ? { id: u.id, name: u.name } : null);
+
+export type StepWarning = { code: 'historical-only-in-modern'; chemicalId: number; name: string; message: string };
+
+export function presentTrialSummary(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, colour: Colour | null) {
+  return {
+    id: t.id,
+    code: t.code,
+    kind: t.kind,
+    status: t.status,
+    piece: pieceRef(t.piece),
+    dyer: userRef(t.dyer),
+    fibre: t.fibre,
+    dryMassG: t.dryMassG,
+    startedOn: t.startedOn,
+    notes: t.notes,
+    updatedAt: t.updatedAt.toISOString(),
+    colour,
+    abilities: abilities(actor, TRIAL_ACTIONS, trialPolicyRecord(t)),
+  };
+}
+
+const toQStep = (s: RecipeStep): QStep => ({
+  operation: s.operation,
+  ingredients: s.ingredients,
+  liquorRatio: s.liquorRatio,
+  paste: s.paste ? { volumeMl: Number(s.paste.volumeMl), stockGPerL: s.paste.stockGPerL == null ? null : Number(s.paste.stockGPerL) } : null,
+});
+
+type DetailParts = {
+  steps: RecipeStep[];
+  substitutions: Substitution[];
+  measurements: ColourMeasurement[];
+  photos: Photo[];
+  chemicals: Map<number, Chemical>;
+  dyestuffs: Map<number, Dyestuff>;
+  colour: Colour;
+};
+
+export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, parts: DetailParts) {
+  const roles = new Map([...parts.chemicals].map(([id, c]) => [id, c.role as string]));
+  const stepById = new Map(parts.steps.map((s) => [s.id, s]));
+  const steps = parts.steps.map((s) => {
+    const q = toQStep(s);
+    const chems = s.ingredients.filter((i) => i.kind === 'chemical').map((i) => parts.chemicals.get(i.refId)).filter((c): c is Chemical => Boolean(c));
+    const warnings: StepWarning[] =
+      t.kind === 'modern'
+        ? chems.filter((c) => c.status === 'historical-only').map((c) => ({
+            code: 'historical-only-in-modern' as const, chemicalId: c.id, name: c.name,
+            message: `${c.name} is recorded for historical recipes only. Do not use it in a modern trial; see the substitutions and the supplier's safety data sheet.`,
+          }))
+        : [];
+    return {
+      id: s.id,
+      position: s.position,
+      operation: s.operation,
+      ingredients: s.ingredients.map((i) => ({
+        kind: i.kind, refId: i.refId, amount: i.amount, basis: i.basis,
+        name: (i.kind === 'chemical' ? parts.chemicals.get(i.refId)?.name : parts.dyestuffs.get(i.refId)?.name) ?? i.name,
+      })),
+      liquorRatio: s.liquorRatio,
+      temperatureC: s.temperatureC,
+      minutes: s.minutes,
+      ph: s.ph,
+      paste: q.paste,
+      batchId: s.batchId,
+      batchVolumeMl: s.batchVolumeMl,
+      notes: s.notes,
+      computed: computeStep(q, t.dryMassG, roles),
+      cautions: [...new Map(chems.filter(isHazardous).map((c) => [c.id, presentChemical(c)])).values()],
+      warnings,
+    };
+  });
+
+  const chemOf = (id: number | null) => (id != null ? parts.chemicals.get(id) ?? null : null);
+  const substitutions = parts.substitutions.map((s) => {
+    const h = chemOf(s.historicalChemicalId);
+    const m = chemOf(s.modernChemicalId);
+    const step = s.stepId != null ? stepById.get(s.stepId) : undefined;
+    const modernFromRecipe = s.modernAmountG == null && m && step ? gramsInStep(toQStep(step), m.id, t.dryMassG, roles) : null;
+    return {
+      id: s.id,
+      stepId: s.stepId,
+      stepPosition: step?.position ?? null,
+      historicalChemical: h ? presentChemical(h) : null,
+      historicalPractice: s.historicalPractice,
+      historicalAmountG: s.historicalAmountG,
+      modernChemical: m ? presentChemical(m) : null,
+      modernPractice: s.modernPractice,
+      modernAmountG: s.modernAmountG,
+      /** The modern amount used in the metal load: as entered, or from the recipe step. */
+      modernAmountUsedG: s.modernAmountG ?? modernFromRecipe,
+      modernAmountFrom: s.modernAmountG != null ? 'entered' : modernFromRecipe != null ? 'recipe' : null,
+      reason: s.reason,
+      notes: s.notes,
+    };
+  });
+  const metalLoad = trialMetalLoad(
+    substitutions.map((s) => ({
+      historical: s.historicalChemical ? { formula: s.historicalChemical.formula, grams: s.historicalAmountG } : null,
+      modern: s.modernChemical ? { formula: s.modernChemical.formula, grams: s.modernAmountUsedG } : null,
+    })),
+    t.dryMassG,
+  );
+
+  return {
+    ...presentTrialSummary(t, actor, parts.colour),
+    weave: t.weave,
+    gsm: t.gsm,
+    fastness: t.fastness,
+    target: { paletteColourId: t.targetPaletteColourId, regionId: t.targetRegionId, measurementId: t.targetMeasurementId },
+    steps,
+    substitutions,
+    metalLoad,
+    measurements: parts.measurements.map(presentMeasurement),
+    photos: parts.photos.map((p) => ({ id: p.id, width: p.width, height: p.height, view: p.view, caption: p.caption, originalName: p.originalName })),
+    warnings: steps.flatMap((s) => s.warnings.map((w) => ({ ...w, stepPosition: s.position }))),
+    historicalRecord: t.kind === 'historical',
+  };
+}
+
+export const presentMeasurement = (m: ColourMeasurement) => ({
+  id: m.id, L: m.L, a: m.a, b: m.b, illuminant: m.illuminant, observer: m.observer, geometry: m.geometry, specular: m.specular,
+  instrument: m.instrument, label: m.label, takenOn: m.takenOn, source: m.source,
+});
+
+export type TrialSummaryView = ReturnType<typeof presentTrialSummary>;
+export type TrialView = ReturnType<typeof presentTrial>;
+export type MeasurementView = ReturnType<typeof presentMeasurement>;

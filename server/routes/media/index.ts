@@ -1,0 +1,23 @@
+import { Router } from 'express';
+import { mediaParams } from '../../../shared/schemas/photo.ts';
+import { actorOf } from '../../http/auth.ts';
+import { notFound } from '../../http/errors.ts';
+import { parseParams } from '../../http/validate.ts';
+import { photoFile } from '../../media/pipeline.ts';
+import { can } from '../../policies/index.ts';
+import { loadReadablePhoto } from '../photos/load.ts';
+
+/** Image files behind the same read rule as their piece: visitors only for published pieces. */
+export const mediaRouter = Router();
+
+mediaRouter.get('/photos/:id/:kind', async (req, res) => {
+  const actor = actorOf(req);
+  const { id, kind } = parseParams(mediaParams, req);
+  const { photo } = await loadReadablePhoto(actor, id);
+  // The master keeps its GPS tags untouched, so it goes only to roles that may see them.
+  if (kind === 'master' && photo.gps && !can(actor, 'photo:see-gps')) throw notFound('Photo');
+  const file = photoFile(photo, kind);
+  res.set('Cache-Control', 'private, max-age=3600');
+  if (kind === 'master') res.attachment(photo.originalName ?? `${photo.sha256}.${photo.format}`);
+  await new Promise<void>((resolve, reject) => res.sendFile(file, { dotfiles: 'deny' }, (err) => (err && !res.headersSent ? reject(notFound('Photo file')) : resolve())));
+});

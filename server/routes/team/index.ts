@@ -1,0 +1,27 @@
+import { Router } from 'express';
+import { idParams, teamPatchSchema, teamQuerySchema } from '../../../shared/schemas/team.ts';
+import { actorOf, requireUser } from '../../http/auth.ts';
+import { forbidden } from '../../http/errors.ts';
+import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
+import { sequelize, User } from '../../models/index.ts';
+import { can } from '../../policies/index.ts';
+import { presentTeamMember } from '../../presenters/user.ts';
+import { updateMember } from '../../services/team.ts';
+
+export const teamRouter = Router();
+
+teamRouter.get('/', requireUser, async (req, res) => {
+  const { page, pageSize } = parseQuery(teamQuerySchema, req);
+  if (!can(actorOf(req), 'team:manage')) throw forbidden();
+  const { rows, count } = await User.findAndCountAll({ order: [['active', 'DESC'], ['name', 'ASC']], limit: pageSize, offset: (page - 1) * pageSize });
+  res.json({ items: rows.map(presentTeamMember), total: count, page, pageSize });
+});
+
+teamRouter.patch('/:id', requireUser, async (req, res) => {
+  const { id } = parseParams(idParams, req);
+  const input = parseBody(teamPatchSchema, req);
+  const actor = actorOf(req);
+  if (!can(actor, 'team:manage')) throw forbidden();
+  const member = await sequelize.transaction((transaction) => updateMember({ actor, transaction, input: { ...input, id } }));
+  res.json({ member: presentTeamMember(member) });
+});

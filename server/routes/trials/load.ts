@@ -1,0 +1,71 @@
+import { Op, type WhereOptions } from 'sequelize';
+import type { z } from 'zod';
+import type { trialListQuerySchema } from '../../../shared/schemas/trial.ts';
+import { forbidden, notFound } from '../../http/errors.ts';
+import { Chemical, ColourMeasurement, Dyestuff, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../../models/index.ts';
+import { can, type Actor } from '../../policies/index.ts';
+import { presentTrial, presentTrialSummary, trialPolicyRecord } from '../../presenters/trial.ts';
+import { trialColour } from '../../services/trials/colour.ts';
+
+const withPeople = [
+  { model: Piece, as: 'piece', paranoid: false },
+  { model: User, as: 'dyer' },
+];
+
+/** A trial the actor may read (404 otherwise), with its piece and dyer. */
+export async function loadReadableTrial(actor: Actor, id: number) {
+  const trial = await Trial.findByPk(id, { include: withPeople });
+  if (!trial || !can(actor, 'trial:read', trialPolicyRecord(trial))) throw notFound('Trial');
+  return trial as Trial & { piece: Piece | null; dyer: User | null };
+}
+
+/** A trial the actor may change: readable, then owned (403 for someone else's). */
+export async function loadWritableTrial(actor: Actor, id: number) {
+  const trial = await loadReadableTrial(actor, id);
+  if (!can(actor, 'trial:update', trialPolicyRecord(trial))) throw forbidden('Only the dyer who keeps this trial may change it.');
+  return trial;
+}
+
+/** Everything the trial page shows, in a handful of queries. */
+export async function presentTrialDetail(actor: Actor, trial: Trial & { piece?: Piece | null; dyer?: User | null }) {
+  const [steps, substitutions, measurements, photos, colour] = await Promise.all([
+    RecipeStep.findAll({ where: { trialId: trial.id }, order: [['position', 'ASC']] }),
+    Substitution.findAll({ where: { trialId: trial.id }, order: [['id', 'ASC']] }),
+    ColourMeasurement.findAll({ where: { trialId: trial.id }, order: [['id', 'ASC']] }),
+    Photo.findAll({ where: { trialId: trial.id }, order: [['id', 'ASC']] }),
+    trialColour(trial),
+  ]);
+  const chemIds = new Set<number>();
+  const dyeIds = new Set<number>();
+  for (const s of steps) for (const i of s.ingredients) (i.kind === 'chemical' ? chemIds : dyeIds).add(i.refId);
+  for (const s of substitutions) for (const id of [s.historicalChemicalId, s.modernChemicalId]) if (id != null) chemIds.add(id);
+  const [chemicals, dyestuffs] = await Promise.all([Chemical.findAll({ where: { id: [...chemIds] } }), Dyestuff.findAll({ where: { id: [...dyeIds] } })]);
+  return presentTrial(trial, actor, {
+    steps, substitutions, measurements, photos, colour,
+    chemicals: new Map(chemicals.map((c) => [c.id, c])),
+    dyestuffs: new Map(dyestuffs.map((d) => [d.id, d])),
+  });
+}
+
+export async function listTrials(actor: Actor, q: z.output<typeof trialListQuerySchema>) {
+  const and: WhereOptions[] = [];
+  if (q.status) and.push({ status: q.status });
+  if (q.kind) and.push({ kind: q.kind });
+  if (q.pieceId) and.push({ pieceId: q.pieceId });
+  if (q.dyerId) and.push({ dyerId: q.dyerId });
+  if (q.mine === '1' && actor) and.push({ dyerId: actor.id });
+  if (q.q) {
+    const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    and.push({ [Op.or]: [{ code: { [Op.like]: like } }, { notes: { [Op.like]: like } }, { '$piece.accessionNumber$': { [Op.like]: like } }, { '$piece.title$': { [Op.like]: like } }] });
+  }
+  const { rows, count } = await Trial.findAndCountAll({
+    where: { [Op.and]: and },
+    include: withPeople,
+    order: [['code', 'DESC'], ['id', 'DESC']],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+    distinct: true,
+  });
+  const items = await Promise.all(rows.map(async (t) => presentTrialSummary(t as Trial & { piece: Piece | null; dyer: User | null }, actor, await trialColour(t))));
+  return { items, total: count, page: q.page, pageSize: q.pageSize };
+}

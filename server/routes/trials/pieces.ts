@@ -1,0 +1,39 @@
+import { Router } from 'express';
+import { idParams, trialCreateSchema } from '../../../shared/schemas/trial.ts';
+import { actorOf, requireUser } from '../../http/auth.ts';
+import { forbidden, notFound } from '../../http/errors.ts';
+import { parseParams, parseQuery } from '../../http/validate.ts';
+import { can } from '../../policies/index.ts';
+import { withTrialCode } from '../../services/trials/code.ts';
+import { notifyCurator } from '../../services/trials/notify.ts';
+import { createTrial } from '../../services/trials/trials.ts';
+import { loadReadablePiece } from '../pieces/load.ts';
+import { listTrials, loadReadableTrial, presentTrialDetail } from './load.ts';
+import { z } from 'zod';
+
+/** /api/pieces/:id/trials: the reproductions of one piece (mounted beside the pieces router). */
+export const pieceTrialsRouter = Router();
+
+const pieceTrialsQuery = z.object({ page: z.coerce.number().int().min(1).default(1), pageSize: z.coerce.number().int().min(1).max(100).default(100) });
+
+pieceTrialsRouter.get('/:id/trials', requireUser, async (req, res) => {
+  const actor = actorOf(req);
+  const { id } = parseParams(idParams, req);
+  const { page, pageSize } = parseQuery(pieceTrialsQuery, req);
+  const piece = await loadReadablePiece(actor, id);
+  const list = await listTrials(actor, { pieceId: piece.id, page, pageSize });
+  res.json({ ...list, piece: { id: piece.id, accessionNumber: piece.accessionNumber, title: piece.title } });
+});
+
+/** Attach a new trial to the piece; the curator who catalogued it is told by e-mail. */
+pieceTrialsRouter.post('/:id/trials', requireUser, async (req, res) => {
+  const actor = actorOf(req);
+  const { id } = parseParams(idParams, req);
+  const piece = await loadReadablePiece(actor, id);
+  if (piece.deletedAt) throw notFound('Piece');
+  const input = trialCreateSchema.parse({ ...(req.body ?? {}), pieceId: piece.id });
+  if (!can(actor, 'trial:create')) throw forbidden('Only dyers record trials.');
+  const created = await withTrialCode((transaction) => createTrial({ actor, transaction, input }));
+  const notified = await notifyCurator(created, actor);
+  res.status(201).json({ trial: await presentTrialDetail(actor, await loadReadableTrial(actor, created.id)), notified });
+});

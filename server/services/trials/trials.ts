@@ -1,0 +1,110 @@
+import type { Transaction } from 'sequelize';
+import type { StepsInput, SubstitutionInput, TrialCreateInput, TrialUpdateInput } from '../../../shared/schemas/trial.ts';
+import { stepsSchema, substitutionSchema, trialCreateSchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
+import { badRequest } from '../../http/errors.ts';
+import { ColourMeasurement, RecipeStep, Substitution, Trial } from '../../models/index.ts';
+import type { Actor } from '../../policies/index.ts';
+import { checkChemical, checkPiece, checkTarget, loadIngredientRefs } from './refs.ts';
+import { nextTrialCode } from './code.ts';
+
+type Ctx<I> = { actor: Actor; transaction: Transaction; input: I };
+
+/** Create a trial with a server-assigned code; the caller retries on a code clash (withTrialCode). */
+export async function createTrial({ actor, transaction, input }: Ctx<TrialCreateInput>) {
+  const v = trialCreateSchema.parse(input);
+  await checkPiece(v.pieceId, transaction);
+  await checkTarget(v.pieceId ?? null, v, transaction);
+  const code = await nextTrialCode(new Date().getUTCFullYear(), transaction);
+  return Trial.create(
+    {
+      code, pieceId: v.pieceId ?? null, seriesId: null, cell: null,
+      targetPaletteColourId: v.targetPaletteColourId ?? null, targetRegionId: v.targetRegionId ?? null, targetMeasurementId: v.targetMeasurementId ?? null,
+      dyerId: actor?.id ?? null, status: v.status, kind: v.kind, fibre: v.fibre ?? null, weave: v.weave ?? null, gsm: v.gsm ?? null,
+      dryMassG: v.dryMassG, fastness: v.fastness ?? null, notes: v.notes ?? null, startedOn: v.startedOn ?? null,
+    },
+    { transaction },
+  );
+}
+
+/** Update the fields given; a changed piece clears a target that belonged to the old one. */
+export async function updateTrial({ transaction, input }: Ctx<TrialUpdateInput & { trial: Trial }>) {
+  const { trial, ...rest } = input;
+  const v = trialUpdateSchema.parse(rest);
+  const pieceId = v.pieceId === undefined ? trial.pieceId : v.pieceId;
+  if (v.pieceId !== undefined && v.pieceId !== trial.pieceId) await checkPiece(v.pieceId, transaction);
+  const targetGiven = v.targetPaletteColourId !== undefined || v.targetRegionId !== undefined || v.targetMeasurementId !== undefined;
+  const targets = targetGiven || pieceId !== trial.pieceId
+    ? { targetPaletteColourId: v.targetPaletteColourId ?? null, targetRegionId: v.targetRegionId ?? null, targetMeasurementId: v.targetMeasurementId ?? null }
+    : {};
+  await checkTarget(pieceId, { ...trial.get(), ...targets }, transaction);
+  const { targetPaletteColourId: _p, targetRegionId: _r, targetMeasurementId: _m, ...fields } = v;
+  await trial.update({ ...fields, pieceId, ...targets }, { transaction });
+  return trial;
+}
+
+export async function deleteTrial({ transaction, input }: Ctx<{ trial: Trial }>) {
+  const trialId = input.trial.id;
+  await Substitution.destroy({ where: { trialId }, transaction });
+  await RecipeStep.destroy({ where: { trialId }, transaction });
+  await ColourMeasurement.destroy({ where: { trialId }, transaction });
+  await input.trial.destroy({ transaction });
+}
+
+/**
+ * Replace the ordered recipe in one go. Substitutions keep pointing at the step in
+ * the same position; those whose position disappears lose their step link.
+ */
+export async function replaceSteps({ transaction, input }: Ctx<StepsInput & { trial: Trial }>) {
+  const { steps } = stepsSchema.parse({ steps: input.steps });
+  const { chemicals, dyestuffs } = await loadIngredientRefs(steps, transaction);
+  const trialId = input.trial.id;
+  const old = await RecipeStep.findAll({ where: { trialId }, order: [['position', 'ASC']], transaction, lock: transaction.LOCK.UPDATE });
+  const positionOf = new Map(old.map((s) => [s.id, s.position]));
+  const subs = await Substitution.findAll({ where: { trialId }, transaction });
+  await Substitution.update({ stepId: null }, { where: { trialId }, transaction });
+  await RecipeStep.destroy({ where: { trialId }, transaction });
+  const created = await RecipeStep.bulkCreate(
+    steps.map((s, i) => ({
+      trialId, position: i + 1, operation: s.operation,
+      ingredients: s.ingredients.map((ing) => ({ ...ing, name: (ing.kind === 'chemical' ? chemicals.get(ing.refId)?.name : dyestuffs.get(ing.refId)?.name) ?? '' })),
+      liquorRatio: s.liquorRatio ?? null, temperatureC: s.temperatureC ?? null, minutes: s.minutes ?? null, ph: s.ph ?? null,
+      paste: s.paste ?? null, batchId: s.batchId ?? null, batchVolumeMl: s.batchVolumeMl ?? null, notes: s.notes ?? null,
+    })),
+    { transaction },
+  );
+  const byPosition = new Map(created.map((s) => [s.position, s.id]));
+  for (const sub of subs) {
+    const pos = sub.stepId != null ? positionOf.get(sub.stepId) : undefined;
+    const stepId = pos != null ? byPosition.get(pos) ?? null : null;
+    if (stepId != null) await sub.update({ stepId }, { transaction });
+  }
+  return created;
+}
+
+async function checkSubstitution(trialId: number, v: ReturnType<typeof substitutionSchema.parse>, transaction: Transaction) {
+  if (v.stepId != null && !(await RecipeStep.findOne({ where: { id: v.stepId, trialId }, transaction }))) {
+    throw badRequest('Some fields are not valid.', { fields: { stepId: ['Choose a step of this trial.'] } });
+  }
+  await checkChemical('historicalChemicalId', v.historicalChemicalId, transaction);
+  await checkChemical('modernChemicalId', v.modernChemicalId, transaction);
+}
+
+const substitutionRow = (v: ReturnType<typeof substitutionSchema.parse>) => ({
+  stepId: v.stepId ?? null, historicalChemicalId: v.historicalChemicalId ?? null, historicalPractice: v.historicalPractice ?? null,
+  historicalAmountG: v.historicalAmountG ?? null, modernChemicalId: v.modernChemicalId ?? null, modernPractice: v.modernPractice ?? null,
+  modernAmountG: v.modernAmountG ?? null, reason: v.reason, notes: v.notes ?? null,
+});
+
+export async function addSubstitution({ transaction, input }: Ctx<SubstitutionInput & { trial: Trial }>) {
+  const { trial, ...rest } = input;
+  const v = substitutionSchema.parse(rest);
+  await checkSubstitution(trial.id, v, transaction);
+  return Substitution.create({ trialId: trial.id, ...substitutionRow(v) }, { transaction });
+}
+
+export async function updateSubstitution({ transaction, input }: Ctx<SubstitutionInput & { substitution: Substitution }>) {
+  const { substitution, ...rest } = input;
+  const v = substitutionSchema.parse(rest);
+  await checkSubstitution(substitution.trialId, v, transaction);
+  return substitution.update(substitutionRow(v), { transaction });
+}

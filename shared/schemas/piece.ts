@@ -1,0 +1,111 @@
+import { z } from 'zod';
+import { edtfYears } from '../edtf.ts';
+
+// Accession numbers: dot-separated groups (year.lot.item, optional letter prefix such
+// as "T.12"), then optional parts written "a" or "a-b" (e.g. 1931.4.12a-b).
+export const ACCESSION_PATTERN = /^[A-Z0-9]{1,12}(?:\.[A-Z0-9]{1,12}){0,5}(?:\.?[a-z](?:-[a-z])?)?$/;
+
+export const EVIDENCE = ['attributed', 'identified'] as const;
+export const PIECE_STATUSES = ['draft', 'published'] as const;
+
+const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters`);
+const optionalText = (max: number) =>
+  z
+    .union([text(max), z.null()])
+    .optional()
+    .transform((v) => (v === '' ? null : v));
+const mm = z
+  .number({ error: 'Enter a number of millimetres' })
+  .positive('Must be more than 0 mm')
+  .max(100_000, 'Must be at most 100 000 mm')
+  .multipleOf(0.1, 'Use at most one decimal place')
+  .nullable()
+  .optional();
+const year = z.number({ error: 'Enter a year' }).int('Enter a whole year').min(-5000).max(2200).nullable().optional();
+
+export const evidencedTerm = z.object({
+  name: text(120).min(1, 'Enter a name'),
+  evidence: z.enum(EVIDENCE, { error: 'Choose attributed or identified' }),
+});
+export type EvidencedTermInput = z.infer<typeof evidencedTerm>;
+
+const termList = (what: string) =>
+  z
+    .array(text(120).min(1, `Enter a ${what}`))
+    .max(20)
+    .refine((a) => new Set(a).size === a.length, `Each ${what} only once`);
+const evidencedList = z
+  .array(evidencedTerm)
+  .max(20)
+  .refine((a) => new Set(a.map((t) => t.name)).size === a.length, 'Each name only once');
+
+const pieceFields = {
+  accessionNumber: text(40).regex(ACCESSION_PATTERN, 'Use a number such as 1931.4.12, with parts as 1931.4.12a-b'),
+  objectName: text(120).min(1, 'Enter the object name, e.g. panel'),
+  title: text(255).min(1, 'Enter a title'),
+  dateText: optionalText(120),
+  dateEdtf: optionalText(60),
+  earliestYear: year,
+  latestYear: year,
+  place: optionalText(160),
+  fibres: termList('fibre').optional(),
+  weave: optionalText(80),
+  threadCount: optionalText(60),
+  heightMm: mm,
+  widthMm: mm,
+  repeatMm: mm,
+  techniques: termList('technique').optional(),
+  dyestuffs: evidencedList.optional(),
+  historicalMordants: evidencedList.optional(),
+  description: optionalText(10_000),
+  provenance: optionalText(10_000),
+  condition: optionalText(10_000),
+  creditLine: optionalText(255),
+  status: z.enum(PIECE_STATUSES).optional(),
+};
+
+type DateFields = { dateEdtf?: string | null; earliestYear?: number | null; latestYear?: number | null };
+
+/** Date rules shared by create, update (on the merged record) and the form. */
+export function dateIssues(p: DateFields): { path: keyof DateFields; message: string }[] {
+  const issues: { path: keyof DateFields; message: string }[] = [];
+  const { earliestYear: from, latestYear: to } = p;
+  if (from != null && to != null && from > to) issues.push({ path: 'latestYear', message: 'Latest year must not be before the earliest year' });
+  if (p.dateEdtf) {
+    const range = edtfYears(p.dateEdtf);
+    if (!range) issues.push({ path: 'dateEdtf', message: 'Use EDTF such as 1770/1785, 1820~, 17XX or 1850-06' });
+    else {
+      if (from != null && range.earliest != null && from !== range.earliest)
+        issues.push({ path: 'earliestYear', message: `The EDTF date starts in ${range.earliest}` });
+      if (to != null && range.latest != null && to !== range.latest) issues.push({ path: 'latestYear', message: `The EDTF date ends in ${range.latest}` });
+    }
+  }
+  return issues;
+}
+
+const withDateRules = <T extends z.ZodType<DateFields>>(schema: T) =>
+  schema.superRefine((p, ctx) => {
+    for (const i of dateIssues(p)) ctx.addIssue({ code: 'custom', path: [i.path], message: i.message });
+  });
+
+export const pieceCreateSchema = withDateRules(z.object(pieceFields).strict());
+export const pieceUpdateSchema = withDateRules(z.object(pieceFields).partial().strict());
+export type PieceCreateInput = z.infer<typeof pieceCreateSchema>;
+export type PieceUpdateInput = z.infer<typeof pieceUpdateSchema>;
+
+export const PIECE_SORTS = ['accessionNumber', 'title', 'objectName', 'earliestYear', 'updatedAt', 'createdAt'] as const;
+export const pieceListQuery = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(25),
+  sort: z.enum(PIECE_SORTS).default('accessionNumber'),
+  dir: z.enum(['asc', 'desc']).default('asc'),
+  status: z.enum(PIECE_STATUSES).optional(),
+  fibre: z.string().trim().min(1).max(120).optional(),
+  technique: z.string().trim().min(1).max(120).optional(),
+  dyestuff: z.string().trim().min(1).max(120).optional(),
+  q: z.string().trim().min(1).max(120).optional(),
+  deleted: z.enum(['only']).optional(),
+});
+export type PieceListQuery = z.infer<typeof pieceListQuery>;
+
+export const idParams = z.object({ id: z.coerce.number().int().positive() });

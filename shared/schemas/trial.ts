@@ -1,0 +1,148 @@
+import { z } from 'zod';
+import { fastnessSchema } from './fastness.ts';
+
+// Shared by the server's validation and the client's forms; types come from z.infer.
+
+export const TRIAL_STATUSES = ['planned', 'in-progress', 'finished', 'abandoned'] as const;
+export const TRIAL_KINDS = ['modern', 'historical'] as const;
+export const OPERATIONS = ['scour', 'tannin', 'mordant-bath', 'print-paste', 'dye-bath', 'vat', 'overdye', 'after-treatment', 'rinse'] as const;
+export const BASES = ['owf', 'g/L', 'g'] as const;
+export const REASONS = ['toxicity', 'regulation', 'availability', 'waste'] as const;
+export const GEOMETRIES = ['d:8°', '45°a:0°'] as const;
+export const ILLUMINANTS = ['D65', 'D50', 'A', 'F2', 'F11'] as const;
+export const OBSERVERS = ['2', '10'] as const;
+
+export const operationLabels: Record<(typeof OPERATIONS)[number], string> = {
+  scour: 'Scour',
+  tannin: 'Tannin',
+  'mordant-bath': 'Mordant bath',
+  'print-paste': 'Print paste',
+  'dye-bath': 'Dye bath',
+  vat: 'Vat',
+  overdye: 'Overdye',
+  'after-treatment': 'After-treatment',
+  rinse: 'Rinse',
+};
+export const basisLabels: Record<(typeof BASES)[number], string> = { owf: '% owf', 'g/L': 'g/L', g: 'g' };
+
+const id = z.coerce.number().int().positive();
+const optionalId = id.nullable().optional();
+const text = (max: number) => z.string().trim().max(max).nullable().optional();
+const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive(`${what} must be more than 0`);
+
+export const labSchema = z.object({
+  L: z.number({ error: 'L* must be a number' }).min(0, 'L* is 0–100').max(100, 'L* is 0–100'),
+  a: z.number({ error: 'a* must be a number' }).min(-200, 'a* is −200 to 200').max(200, 'a* is −200 to 200'),
+  b: z.number({ error: 'b* must be a number' }).min(-200, 'b* is −200 to 200').max(200, 'b* is −200 to 200'),
+});
+export type LabInput = z.infer<typeof labSchema>;
+
+export const colourDifferenceSchema = z.object({ reference: labSchema, sample: labSchema });
+
+export { fastnessSchema };
+
+const targetFields = {
+  targetPaletteColourId: optionalId,
+  targetRegionId: optionalId,
+  targetMeasurementId: optionalId,
+};
+const oneTarget = (v: { targetPaletteColourId?: number | null; targetRegionId?: number | null; targetMeasurementId?: number | null }) =>
+  [v.targetPaletteColourId, v.targetRegionId, v.targetMeasurementId].filter((x) => x != null).length <= 1;
+const oneTargetIssue = { message: 'Choose one target: a palette colour, a region or a measurement.', path: ['target'] };
+
+const trialFields = {
+  status: z.enum(TRIAL_STATUSES).default('planned'),
+  fibre: text(80),
+  weave: text(80),
+  gsm: positive('g/m²').max(2000).nullable().optional(),
+  dryMassG: positive('Dry mass').max(100_000, 'Dry mass above 100 kg is not a trial'),
+  notes: text(5000),
+  startedOn: z.iso.date({ error: 'A date like 2024-03-12' }).nullable().optional(),
+  fastness: fastnessSchema.nullable().optional(),
+  ...targetFields,
+};
+
+export const trialCreateSchema = z
+  .object({ pieceId: optionalId, kind: z.enum(TRIAL_KINDS).default('modern'), ...trialFields })
+  .refine(oneTarget, oneTargetIssue);
+export type TrialCreateInput = z.input<typeof trialCreateSchema>;
+
+/** The kind is fixed at creation: a historical record never turns into a modern recipe. */
+export const trialUpdateSchema = z
+  .object({ pieceId: optionalId, ...trialFields, status: z.enum(TRIAL_STATUSES).optional(), dryMassG: trialFields.dryMassG.optional() })
+  .partial()
+  .refine(oneTarget, oneTargetIssue);
+export type TrialUpdateInput = z.input<typeof trialUpdateSchema>;
+
+export const trialListQuerySchema = z.object({
+  q: z.string().trim().max(100).optional(),
+  status: z.enum(TRIAL_STATUSES).optional(),
+  kind: z.enum(TRIAL_KINDS).optional(),
+  pieceId: id.optional(),
+  dyerId: id.optional(),
+  mine: z.enum(['1', '0']).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(25),
+});
+export type TrialListQuery = z.input<typeof trialListQuerySchema>;
+
+export const ingredientSchema = z.object({
+  kind: z.enum(['dyestuff', 'chemical']),
+  refId: id,
+  amount: positive('Amount'),
+  basis: z.enum(BASES),
+});
+export type IngredientInput = z.infer<typeof ingredientSchema>;
+
+/** Print paste make-up: final volume, and the stock solution the mordant is drawn from. */
+export const pasteSchema = z.object({
+  volumeMl: positive('Paste volume'),
+  stockGPerL: positive('Stock strength').nullable().optional(),
+});
+
+export const stepSchema = z.object({
+  operation: z.enum(OPERATIONS),
+  ingredients: z.array(ingredientSchema).max(20).default([]),
+  liquorRatio: positive('Liquor ratio').max(500).nullable().optional(),
+  temperatureC: z.number().min(0).max(130, '°C above 130 is not a dye bath').nullable().optional(),
+  minutes: z.number().min(0).max(100_000).nullable().optional(),
+  ph: z.number().min(0, 'pH is 0–14').max(14, 'pH is 0–14').nullable().optional(),
+  paste: pasteSchema.nullable().optional(),
+  batchId: optionalId,
+  batchVolumeMl: positive('Volume drawn').nullable().optional(),
+  notes: text(2000),
+});
+export type StepInput = z.input<typeof stepSchema>;
+
+export const stepsSchema = z.object({ steps: z.array(stepSchema).max(40) });
+export type StepsInput = z.input<typeof stepsSchema>;
+
+const substitutionFields = z.object({
+  stepId: optionalId,
+  historicalChemicalId: optionalId,
+  historicalPractice: text(255),
+  historicalAmountG: positive('Historical amount').nullable().optional(),
+  modernChemicalId: optionalId,
+  modernPractice: text(255),
+  modernAmountG: z.number().min(0, 'Amount cannot be negative').nullable().optional(),
+  reason: z.enum(REASONS),
+  notes: text(2000),
+});
+export const substitutionSchema = substitutionFields
+  .refine((v) => v.historicalChemicalId != null || Boolean(v.historicalPractice), { message: 'Name the historical chemical or practice.', path: ['historicalChemicalId'] })
+  .refine((v) => v.modernChemicalId != null || Boolean(v.modernPractice), { message: 'Name the modern chemical or practice.', path: ['modernChemicalId'] });
+export type SubstitutionInput = z.input<typeof substitutionSchema>;
+
+export const measurementSchema = labSchema.extend({
+  illuminant: z.enum(ILLUMINANTS).default('D65'),
+  observer: z.enum(OBSERVERS).default('10'),
+  geometry: z.enum(GEOMETRIES).nullable().optional(),
+  specular: z.enum(['SCI', 'SCE']).nullable().optional(),
+  instrument: text(120),
+  label: text(160),
+  takenOn: z.iso.date({ error: 'A date like 2024-03-12' }).nullable().optional(),
+});
+export type MeasurementInput = z.input<typeof measurementSchema>;
+
+export const idParams = z.object({ id });
+export const childParams = z.object({ id, childId: id });

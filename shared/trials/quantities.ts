@@ -1,0 +1,59 @@
+import { pasteMakeUp, type PasteMakeUp } from '../compute/paste.ts';
+import { stepQuantities, type IngredientQuantity } from '../compute/recipe.ts';
+import type { Basis } from '../compute/recipe.ts';
+
+// Joins a stored recipe step to the shared recipe and paste arithmetic; the maths lives in shared/compute.
+
+export type QIngredient = { kind: 'dyestuff' | 'chemical'; refId: number; name: string; amount: number; basis: Basis };
+export type QStep = {
+  operation: string;
+  ingredients: QIngredient[];
+  liquorRatio: number | null;
+  paste: { volumeMl: number; stockGPerL?: number | null } | null;
+};
+/** The role of each chemical by id, to tell the mordant of a paste from its thickener. */
+export type ChemicalRoles = ReadonlyMap<number, string>;
+
+export type StepComputed = {
+  /** Bath or paste volume in litres: fibre kg × n for 1:n, or the paste's final volume. */
+  volumeL: number | null;
+  ingredients: IngredientQuantity[];
+  missing: Array<string | null>;
+  paste: PasteMakeUp | null;
+  pasteProblem: string | null;
+};
+
+export function computeStep(step: QStep, dryMassG: number, roles: ChemicalRoles): StepComputed {
+  const volumeL = step.paste?.volumeMl ? step.paste.volumeMl / 1000 : null;
+  const q = stepQuantities({ ingredients: step.ingredients, liquorRatio: step.liquorRatio, volumeL }, dryMassG);
+  let paste: PasteMakeUp | null = null;
+  let pasteProblem: string | null = null;
+  if (step.paste?.volumeMl) {
+    const perLitre = step.ingredients.filter((i) => i.kind === 'chemical' && i.basis === 'g/L');
+    const mordants = perLitre.filter((i) => roles.get(i.refId) === 'mordant');
+    const thickener = perLitre.find((i) => roles.get(i.refId) === 'thickener');
+    try {
+      // The stock solution named on the paste is the one its (first) mordant is drawn from.
+      paste = pasteMakeUp({
+        finalVolumeMl: step.paste.volumeMl,
+        mordants: mordants.map((m, i) => ({ name: m.name, gPerL: m.amount, stockGPerL: i === 0 ? step.paste?.stockGPerL ?? null : null })),
+        thickener: thickener ? { name: thickener.name, gPerL: thickener.amount } : null,
+      });
+    } catch (e) {
+      pasteProblem = (e as Error).message;
+    }
+  }
+  return { volumeL: q.volumeL, ingredients: q.ingredients, missing: q.missing, paste, pasteProblem };
+}
+
+/** Grams of one chemical in a step, from the recipe; null when the step does not say enough. */
+export function gramsInStep(step: QStep, chemicalId: number, dryMassG: number, roles: ChemicalRoles): number | null {
+  const c = computeStep(step, dryMassG, roles);
+  let total: number | null = null;
+  step.ingredients.forEach((ing, i) => {
+    if (ing.kind !== 'chemical' || ing.refId !== chemicalId) return;
+    const g = c.ingredients[i].grams;
+    if (g != null) total = (total ?? 0) + g;
+  });
+  return total;
+}

@@ -1,0 +1,73 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { createApp } from '../../server/app.ts';
+import { LOGIN_LIMITS } from '../../server/auth/rate-limit.ts';
+import { sequelize } from '../../server/models/index.ts';
+import { ORIGIN, signedInAgent } from '../support/agents.ts';
+
+afterAll(() => sequelize.close());
+
+const login = (app: ReturnType<typeof createApp>, email: string, password: string, ip = '127.0.0.1') =>
+  request(app).post('/api/auth/login').set('Origin', ORIGIN).set('X-Forwarded-For', ip).send({ email, password });
+
+describe('sign-in hardening', () => {
+  it('limits failed sign-ins per e-mail: the 11th try in 15 minutes answers 429, even with the right password', async () => {
+    const app = createApp();
+    for (let i = 0; i < LOGIN_LIMITS.perEmail; i++) await login(app, 'researcher@demo.test', 'wrong password').expect(401);
+    const res = await login(app, 'researcher@demo.test', 'tinctoria-demo').expect(429);
+    expect(res.body.error).toMatchObject({ code: 'too_many_attempts', message: expect.stringMatching(/Too many failed sign-in attempts/) });
+    expect(res.headers['ratelimit-policy']).toBeDefined();
+    // Another address from the same IP is not affected; a fresh app has fresh counters.
+    await login(app, 'curator@demo.test', 'tinctoria-demo').expect(200);
+    await login(createApp(), 'researcher@demo.test', 'tinctoria-demo').expect(200);
+  });
+
+  it('limits failed sign-ins per IP address across e-mails; successful sign-ins do not count', async () => {
+    const app = createApp();
+    for (let i = 0; i < 5; i++) await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.7').expect(200);
+    for (let i = 0; i < LOGIN_LIMITS.perIp; i++) await login(app, `spray-${i}@nowhere.test`, 'guess', '10.9.8.7').expect(401);
+    await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.7').expect(429);
+    await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.8').expect(200);
+  });
+
+  it('refuses state-changing requests with a foreign or missing Origin on every new route', async () => {
+    const app = createApp();
+    const admin = await signedInAgent(app, 'admin');
+    for (const [method, url] of [
+      ['post', '/api/invitations'],
+      ['patch', '/api/team/1'],
+      ['post', '/api/auth/password-reset'],
+      ['post', `/api/invitations/${'A'.repeat(43)}/accept`],
+    ] as const) {
+      const foreign = await admin[method](url).set('Origin', 'http://evil.example').send({});
+      expect(foreign.status, `${method} ${url}`).toBe(403);
+      expect(foreign.body.error.code).toBe('bad_origin');
+      expect((await admin[method](url).send({})).status, `${method} ${url} without Origin`).toBe(403);
+    }
+  });
+
+  it('sends a Content-Security-Policy of self only', async () => {
+    const res = await request(createApp()).get('/api/health');
+    const csp = Object.fromEntries(
+      String(res.headers['content-security-policy'])
+        .split(';')
+        .map((d) => d.trim().split(/\s+/))
+        .map(([k, ...v]) => [k, v]),
+    );
+    expect(csp['default-src']).toEqual(["'self'"]);
+    expect(csp['script-src']).toEqual(["'self'"]);
+    expect(csp['connect-src']).toEqual(["'self'"]);
+    expect(csp['font-src']).toEqual(["'self'"]);
+    expect(csp['frame-ancestors']).toEqual(["'self'"]);
+    expect(csp['object-src']).toEqual(["'none'"]);
+  });
+
+  it('keeps a session across a server restart: a cookie from one app instance works on another over the same database', async () => {
+    const first = createApp();
+    const res = await login(first, 'curator@demo.test', 'tinctoria-demo').expect(200);
+    const cookie = res.headers['set-cookie'][0].split(';')[0];
+    const second = createApp();
+    const me = await request(second).get('/api/auth/me').set('Cookie', cookie).expect(200);
+    expect(me.body.user.email).toBe('curator@demo.test');
+  });
+});

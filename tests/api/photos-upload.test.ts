@@ -1,0 +1,124 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import sharp from 'sharp';
+import { createApp } from '../../server/app.ts';
+import { Photo, sequelize } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { ORIGIN, signedInAgent } from '../support/agents.ts';
+import { clothJpeg, pngClaiming, uploadedFiles } from '../support/images.ts';
+
+const app = createApp();
+let pieceId: number;
+let jpeg: Buffer;
+beforeAll(async () => {
+  pieceId = (await makePiece({ status: 'draft' })).id;
+  jpeg = await clothJpeg({ gps: true });
+});
+afterAll(() => sequelize.close());
+
+const shareSum = (palette: { share: number; background: boolean }[]) => palette.filter((c) => !c.background).reduce((s, c) => s + c.share, 0);
+
+describe('photo upload', () => {
+  it('stores a photo and answers its size, fixity, EXIF, palette and URLs; GPS only for curators and admins', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const res = await curator.post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'recto.jpg').expect(201);
+    const [photo] = res.body.photos;
+    expect(photo).toMatchObject({ width: 480, height: 320, urls: { thumb: `/media/photos/${photo.id}/thumb`, display: expect.any(String), master: expect.any(String) } });
+    expect(photo.sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(photo.exif).toMatchObject({ make: 'Weldfold', model: 'Copy Stand 2' });
+    // Latitude 54° 30′ N, longitude 2° 15′ W as written into the test file above.
+    expect(photo.gps).toEqual({ latitude: 54.5, longitude: -2.25 });
+    expect(photo.palette.length).toBeGreaterThan(0);
+    expect(shareSum(photo.palette)).toBeCloseTo(1, 6);
+    expect(photo.palette[0]).toMatchObject({ hex: expect.stringMatching(/^#[0-9a-f]{6}$/), lab: { L: expect.any(Number), a: expect.any(Number), b: expect.any(Number) }, source: 'image estimate' });
+
+    const researcher = await signedInAgent(app, 'researcher');
+    const seen = await researcher.get(`/api/pieces/${pieceId}`).expect(200);
+    const asResearcher = seen.body.photos.find((p: { id: number }) => p.id === photo.id);
+    expect(asResearcher).not.toHaveProperty('gps');
+    expect(JSON.stringify(asResearcher)).not.toMatch(/latitude|GPS/i);
+    const asAdmin = (await (await signedInAgent(app, 'admin')).get(`/api/photos/${photo.id}`).expect(200)).body.photo;
+    expect(asAdmin.gps).toEqual({ latitude: 54.5, longitude: -2.25 });
+  });
+
+  it('serves media by role: drafts to signed-in users only, masters with GPS only to curators and admins', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const piece = await makePiece({ status: 'draft' });
+    const photo = (await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'a.jpg').expect(201)).body.photos[0];
+    const thumb = await curator.get(photo.urls.thumb).buffer(true).expect(200);
+    expect(thumb.headers['content-type']).toBe('image/webp');
+    const meta = await sharp(thumb.body).metadata();
+    expect(Math.max(meta.width!, meta.height!)).toBeLessThanOrEqual(320);
+    expect(meta.exif).toBeUndefined();
+    const master = await curator.get(photo.urls.master).buffer(true).expect(200);
+    expect(Buffer.compare(master.body, jpeg)).toBe(0);
+
+    await request(app).get(photo.urls.thumb).expect(404);
+    await curator.patch(`/api/pieces/${piece.id}`).set('Origin', ORIGIN).send({ status: 'published' }).expect(200);
+    await request(app).get(photo.urls.thumb).expect(200);
+    await request(app).get(photo.urls.display).expect(200);
+    await request(app).get(photo.urls.master).expect(404);
+    await (await signedInAgent(app, 'researcher')).get(photo.urls.master).expect(404);
+    await request(app).get(`/media/photos/${photo.id}/original`).expect(400);
+  });
+
+  it('lets only curators and admins upload', async () => {
+    await request(app).post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'x.jpg').expect(401);
+    for (const role of ['researcher', 'dyer'] as const) {
+      await (await signedInAgent(app, role)).post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'x.jpg').expect(403);
+    }
+    await (await signedInAgent(app, 'curator')).post('/api/pieces/999999999/photos').set('Origin', ORIGIN).attach('photo', jpeg, 'x.jpg').expect(404);
+  });
+});
+
+describe('refused uploads leave nothing behind', () => {
+  const truncated = async () => (await clothJpeg({ seed: 99 })).subarray(0, 4000);
+  const cases: [string, () => Promise<Buffer> | Buffer, string, number][] = [
+    ['text renamed .jpg', () => Buffer.from('This is a letter, not a photograph.\n'.repeat(20)), 'letter.jpg', 415],
+    ['a truncated JPEG', truncated, 'cut.jpg', 422],
+    ['a pixel bomb (PNG claiming 20 000 × 20 000 px)', () => pngClaiming(20_000, 20_000), 'bomb.png', 422],
+    ['zero bytes', () => Buffer.alloc(0), 'empty.jpg', 422],
+  ];
+  it.each(cases)('%s', async (_name, make, filename, status) => {
+    const curator = await signedInAgent(app, 'curator');
+    const piece = await makePiece();
+    const before = await uploadedFiles();
+    const res = await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', await make(), filename).expect(status);
+    expect(res.body.error.message).toContain(filename);
+    expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
+    expect(await uploadedFiles()).toEqual(before);
+  });
+
+  it('answers an unknown field name with a clear 400, and no file with 400', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const piece = await makePiece();
+    const res = await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('image', jpeg, 'x.jpg').expect(400);
+    expect(res.body.error.message).toMatch(/"photo"/);
+    await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).field('note', 'nothing').expect(400);
+    expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
+  });
+
+  it('answers a file over 60 MB with 413', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const piece = await makePiece();
+    const before = await uploadedFiles();
+    const big = Buffer.concat([jpeg, Buffer.alloc(60 * 1024 * 1024 + 1 - jpeg.length)]);
+    const res = await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', big, 'huge.jpg').expect(413);
+    expect(res.body.error.code).toBe('too_large');
+    expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
+    expect(await uploadedFiles()).toEqual(before);
+  });
+
+  it('accepts several files at once', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const piece = await makePiece();
+    const res = await curator
+      .post(`/api/pieces/${piece.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', await clothJpeg({ seed: 3 }), 'one.jpg')
+      .attach('photo', await clothJpeg({ seed: 4 }), 'two.jpg')
+      .expect(201);
+    expect(res.body.photos).toHaveLength(2);
+    expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(2);
+  });
+});

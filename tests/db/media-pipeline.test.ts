@@ -1,0 +1,196 @@
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { crc32 } from 'node:zlib';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { env } from '../../server/env.ts';
+import { HttpError } from '../../server/http/errors.ts';
+import { ingestPhoto, photoFile, removePhotoFiles, repalette } from '../../server/media/pipeline.ts';
+import { masterPath, resolveInsideUploads } from '../../server/media/paths.ts';
+import { PaletteColour, Photo, Region, sequelize, type Piece } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { paintCloth } from '../../server/seed/cloth-image.ts';
+import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
+
+let piece: Piece;
+beforeAll(async () => { piece = await makePiece({ title: 'Media pipeline test piece' }); });
+afterAll(async () => {
+  for (const photo of await Photo.findAll({ where: { pieceId: piece.id } })) {
+    await PaletteColour.destroy({ where: { photoId: photo.id } });
+    await Region.destroy({ where: { photoId: photo.id } });
+    await photo.destroy();
+    await removePhotoFiles(photo);
+  }
+  await piece.destroy({ force: true });
+});
+
+function filesUnder(dir: string): string[] {
+  let out: string[] = [];
+  let entries: string[] = [];
+  try { entries = readdirSync(dir); } catch { return out; }
+  for (const name of entries) {
+    const p = path.join(dir, name);
+    out = statSync(p).isDirectory() ? out.concat(filesUnder(p)) : out.concat(p);
+  }
+  return out;
+}
+
+const ingest = (buffer: Buffer, extra: Record<string, unknown> = {}) =>
+  sequelize.transaction((transaction) => ingestPhoto({ actor: null, transaction, input: { buffer, pieceId: piece.id, originalName: 'x.jpg', ...extra } }));
+
+const solid = (colour: string, width = 64, height = 48) => sharp({ create: { width, height, channels: 3, background: colour } });
+
+describe('ingestPhoto', () => {
+  it('keeps the master byte for byte by SHA-256, makes WebP derivatives and a palette, all in one transaction', async () => {
+    const cloth = paintCloth({ width: 900, height: 600, ground: '#e6d9bf', shapes: [{ kind: 'rect', x: 300, y: 150, w: 300, h: 300, colour: '#2e3f66' }], noise: 3, seed: 2 });
+    const buffer = await sharp(cloth.data, { raw: { width: 900, height: 600, channels: 3 } }).png().toBuffer();
+    const { photo, palette } = await ingest(buffer);
+    const master = photoFile(photo, 'master');
+    expect(readFileSync(master).equals(buffer)).toBe(true);
+    expect(photo.sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(master.endsWith(masterPath(photo.sha256, 'png'))).toBe(true);
+    expect([photo.format, photo.width, photo.height, photo.bytes]).toEqual(['png', 900, 600, buffer.length]);
+    for (const [kind, long] of [['thumb', 320], ['display', 900]] as const) {
+      const meta = await sharp(photoFile(photo, kind)).metadata();
+      expect([meta.format, Math.max(meta.width!, meta.height!)]).toEqual(['webp', long]);
+      expect(meta.exif).toBeUndefined();
+    }
+    expect(palette.map((p) => [p.rank, p.variant, p.regionId, p.source])).toEqual(palette.map((_, i) => [i, 'raw', null, 'image-estimate']));
+    const indigo = palette.find((p) => deltaE00(p, hexToLab('#2e3f66')) < 1.5);
+    expect(indigo?.share).toBeCloseTo(cloth.truth[1].share, 1);
+    expect(await PaletteColour.count({ where: { photoId: photo.id } })).toBe(palette.length);
+  });
+
+  it('reads EXIF (dates as written, no time zone) and keeps GPS only in photo.gps', async () => {
+    // sharp's withExif takes strings only; GPS rationals as "d/1 m/1 s/1".
+    const buffer = await solid('#9e2a2b').jpeg().withExif({
+      IFD0: { Make: 'Weldfold Optics', Model: 'Copy stand 2' },
+      IFD2: { DateTimeOriginal: '2024:05:06 07:08:09', ExposureTime: '1/125', FNumber: '8/1', LensModel: 'Flat-field 60mm' },
+      IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 0/1', GPSLongitudeRef: 'W', GPSLongitude: '0/1 7/1 30/1' },
+    }).toBuffer();
+    const { photo } = await ingest(buffer);
+    expect(photo.exif).toMatchObject({ make: 'Weldfold Optics', model: 'Copy stand 2', lens: 'Flat-field 60mm', exposureTime: 0.008, fNumber: 8, dateTimeOriginal: '2024:05:06 07:08:09' });
+    expect(photo.capturedAt).toBe('2024-05-06T07:08:09');
+    expect(photo.gps).toEqual({ latitude: 51.5, longitude: -0.125 });
+    expect(JSON.stringify(photo.exif)).not.toMatch(/51\.5|GPS|latitude/i);
+    for (const kind of ['thumb', 'display'] as const) expect((await sharp(photoFile(photo, kind)).metadata()).exif).toBeUndefined();
+  });
+
+  it('turns an orientation-6 photo upright in its derivatives', async () => {
+    // Stored left half red, right half blue; orientation 6 means "rotate 90° clockwise to view",
+    // so upright the top is red and the image is portrait.
+    const raw = Buffer.alloc(64 * 48 * 3);
+    for (let y = 0; y < 48; y++) for (let x = 0; x < 64; x++) raw.set(x < 32 ? [200, 20, 20] : [20, 20, 200], (y * 64 + x) * 3);
+    const buffer = await sharp(raw, { raw: { width: 64, height: 48, channels: 3 } }).jpeg({ quality: 95 }).withMetadata({ orientation: 6 }).toBuffer();
+    const { photo } = await ingest(buffer);
+    expect([photo.width, photo.height]).toEqual([48, 64]);
+    const { data, info } = await sharp(photoFile(photo, 'display')).raw().toBuffer({ resolveWithObject: true });
+    expect([info.width, info.height]).toEqual([48, 64]);
+    const px = (x: number, y: number) => [...data.subarray((y * info.width + x) * info.channels, (y * info.width + x) * info.channels + 3)];
+    expect(px(24, 8)[0]).toBeGreaterThan(150);
+    expect(px(24, 56)[2]).toBeGreaterThan(150);
+  });
+
+  it('shares one master between identical uploads and deletes it with the last photo', async () => {
+    const buffer = await solid('#6b8a3a').png().toBuffer();
+    const a = (await ingest(buffer)).photo;
+    const b = (await ingest(buffer)).photo;
+    expect(photoFile(a, 'master')).toBe(photoFile(b, 'master'));
+    await sequelize.transaction(async (transaction) => {
+      await PaletteColour.destroy({ where: { photoId: a.id }, transaction });
+      await a.destroy({ transaction });
+      await removePhotoFiles(a, transaction);
+    });
+    expect(filesUnder(path.dirname(photoFile(b, 'master')))).toContain(photoFile(b, 'master'));
+    expect(() => statSync(photoFile(a, 'display'))).toThrow();
+    await PaletteColour.destroy({ where: { photoId: b.id } });
+    await b.destroy();
+    await removePhotoFiles(b);
+    expect(() => statSync(photoFile(b, 'master'))).toThrow();
+  });
+
+  describe('refuses bad files and leaves nothing behind', () => {
+    // A small PNG whose header claims 12 000 × 10 000 pixels (120 MP), with a valid header CRC.
+    const bomb = async () => {
+      const png = Buffer.from(await solid('#ffffff', 16, 16).png().toBuffer());
+      png.writeUInt32BE(12000, 16);
+      png.writeUInt32BE(10000, 20);
+      png.writeUInt32BE(crc32(png.subarray(12, 29)), 29);
+      return png;
+    };
+    const cases: Array<[string, () => Promise<Buffer>, number, string]> = [
+      ['a text file renamed .jpg', async () => Buffer.from('These are not the pixels you are looking for.\n'), 415, 'unsupported_type'],
+      ['a truncated JPEG', async () => { const j = await paintJpeg(); return j.subarray(0, Math.floor(j.length / 2)); }, 422, 'corrupt_image'],
+      ['a pixel bomb', bomb, 422, 'pixel_limit'],
+      ['zero bytes', async () => Buffer.alloc(0), 422, 'empty_file'],
+      ['an SVG (not accepted)', async () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"/>'), 415, 'unsupported_type'],
+    ];
+    it.each(cases)('%s', async (_, make, status, code) => {
+      const before = filesUnder(env.UPLOADS_DIR).sort();
+      const rowsBefore = await Photo.count({ where: { pieceId: piece.id } });
+      const err = await ingest(await make()).catch((e: unknown) => e);
+      expect(err).toBeInstanceOf(HttpError);
+      expect([(err as HttpError).status, (err as HttpError).code]).toEqual([status, code]);
+      expect((err as HttpError).message.length).toBeGreaterThan(10);
+      expect(filesUnder(env.UPLOADS_DIR).sort()).toEqual(before);
+      expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(rowsBefore);
+    });
+
+    it('a file above 60 MB answers 413', async () => {
+      const err = await ingest(Buffer.alloc(60 * 1024 * 1024 + 1)).catch((e: unknown) => e);
+      expect([(err as HttpError).status, (err as HttpError).code]).toEqual([413, 'too_large']);
+    });
+  });
+});
+
+async function paintJpeg() {
+  const cloth = paintCloth({ width: 600, height: 400, ground: '#e6d9bf', shapes: [{ kind: 'rect', x: 100, y: 100, w: 200, h: 200, colour: '#9e2a2b' }], noise: 3, seed: 4 });
+  return sharp(cloth.data, { raw: { width: 600, height: 400, channels: 3 } }).jpeg().toBuffer();
+}
+
+describe('repalette', () => {
+  it('adds a palette per colour area, leaves out exclusions, and a corrected palette from a reference patch', async () => {
+    const spec = {
+      width: 1200, height: 800, ground: '#e6d9bf', tint: [1.1, 1, 0.8] as [number, number, number], noise: 3, seed: 9,
+      shapes: [
+        { kind: 'rect' as const, x: 100, y: 100, w: 400, h: 400, colour: '#9e2a2b' },
+        { kind: 'rect' as const, x: 700, y: 100, w: 300, h: 300, colour: '#2e3f66' },
+        { kind: 'rect' as const, x: 950, y: 600, w: 200, h: 150, colour: '#9a9a9a' },
+      ],
+    };
+    const buffer = await sharp(paintCloth(spec).data, { raw: { width: 1200, height: 800, channels: 3 } }).png().toBuffer();
+    const { photo } = await ingest(buffer);
+    const rows = await sequelize.transaction(async (transaction) => {
+      await Region.bulkCreate([
+        { photoId: photo.id, x: 120, y: 120, w: 360, h: 360, purpose: 'colour-area', label: 'red ground', createdById: null },
+        { photoId: photo.id, x: 680, y: 80, w: 340, h: 340, purpose: 'exclusion', label: 'blue patch out', createdById: null },
+        { photoId: photo.id, x: 950, y: 600, w: 200, h: 150, purpose: 'reference-patch', label: 'grey card', createdById: null },
+      ], { transaction });
+      return repalette({ transaction, photo });
+    });
+    const region = await Region.findOne({ where: { photoId: photo.id, purpose: 'colour-area' } });
+    const whole = rows.filter((r) => r.regionId === null && r.variant === 'raw');
+    const wholeCorrected = rows.filter((r) => r.regionId === null && r.variant === 'corrected');
+    const area = rows.filter((r) => r.regionId === region!.id && r.variant === 'corrected');
+    expect(whole.length).toBeGreaterThan(0);
+    expect(wholeCorrected.length).toBeGreaterThan(0);
+    // The excluded blue rectangle and the grey patch do not appear.
+    expect(whole.every((r) => deltaE00(r, { L: 28, a: 3, b: -25 }) > 10 && Math.hypot(r.a, r.b) > 5)).toBe(true);
+    // The region palette is the red area alone; corrected, it is within ΔE00 2 of the true red.
+    expect(area).toHaveLength(1);
+    expect(deltaE00(area[0], hexToLab('#9e2a2b'))).toBeLessThanOrEqual(2);
+    expect(area[0].share).toBeCloseTo(1, 9);
+    expect(await PaletteColour.count({ where: { photoId: photo.id } })).toBe(rows.length);
+    await photo.reload();
+    expect(photo.correction).toMatchObject({ method: 'bradford', to: 'D65' });
+  });
+});
+
+describe('paths', () => {
+  it('refuses paths that leave the uploads folder', () => {
+    for (const bad of ['../x', 'masters/../../x', '/etc/passwd', '', '.']) expect(() => resolveInsideUploads(bad)).toThrow(HttpError);
+    expect(resolveInsideUploads('masters/ab/x.jpg')).toBe(path.join(path.resolve(env.UPLOADS_DIR), 'masters/ab/x.jpg'));
+    expect(() => masterPath('../etc', 'jpg')).toThrow();
+  });
+});
+
