@@ -19,6 +19,7 @@ afterAll(async () => {
   await sequelize.close();
 });
 
+// Generous timeouts: Chromium shares two cores with everything else; nothing here asserts on time.
 describe('the team and invitations in Chromium', () => {
   it('an admin invites from the team page; the invitee joins through the mailed link and is signed in', async () => {
     const email = `browser-${Date.now().toString(36)}@invite.test`;
@@ -55,7 +56,7 @@ describe('the team and invitations in Chromium', () => {
     // The link works once.
     await page.goto(`${server.url}/join/${token}`);
     await page.getByRole('heading', { name: 'This invitation can no longer be used' }).waitFor();
-  });
+  }, 120_000);
 
   it('sends a visitor who opens the team page to sign-in, and back after signing in', async () => {
     const page = await browser.context.newPage();
@@ -66,5 +67,5 @@ describe('the team and invitations in Chromium', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL(/\/team$/);
     await page.getByTestId('member-curator@demo.test').waitFor();
-  });
+  }, 60_000);
 });
