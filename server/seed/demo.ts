@@ -5,6 +5,7 @@ import { ROOT_DIR } from '../env.ts';
 import { BatchEvent, Chemical, Dyestuff, MordantBatch, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
 import type { Ingredient, Operation } from '../models/trials.ts';
 import { makePiece, makeUser, type PieceInput } from './factories.ts';
+import { seedDemoPhotos } from './demo-photos.ts';
 
 /** The invented demo scenario: the Calderwick museum and the Weldfold dye studio. */
 export const DEMO_PASSWORD = 'tinctoria-demo';
@@ -195,5 +196,6 @@ export async function seedDemo(t: Transaction) {
       { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 50, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 60 },
     ]);
   }
+  await seedDemoPhotos(t, { pieces, trials, curator: users.curator, dyer: users.dyer });
   return { users, pieces, trials, batches: { mb07, mb08, mb09 }, series };
 }
