@@ -31,7 +31,8 @@ export async function cardsPdf(title: string, cards: CardData[]) {
     const cell = c.cell ? Object.entries(c.cell).map(([k, v]) => `${k}: ${v}`).join(' · ') : null;
     doc.text([`${c.fibre ?? 'fibre not set'}, ${c.dryMassG} g dry`, cell, `status: ${c.status}`].filter(Boolean).join('\n'), tx, y + 36, { width: 260 });
     doc.moveDown(0.4).fontSize(7.5).text(c.steps.length ? c.steps.join('\n') : 'No recipe steps yet.', { width: 260, height: 120, ellipsis: true });
-    doc.font('sans-bold').fontSize(10).fillColor('#111').text(c.deltaE00 != null ? `ΔE00 to target: ${c.deltaE00.toFixed(2)}` : 'ΔE00 to target: —', tx, y + CARD_H - 28, { width: 260 });
+    doc.font('sans-bold').fontSize(10).fillColor('#111').text(c.deltaE00 != null ? `ΔE00 to target: ${c.deltaE00.toFixed(2)} (${c.verdict})` : 'ΔE00 to target: —', tx, y + CARD_H - 34, { width: 260 });
+    if (c.words.length) doc.font('sans').fontSize(8).fillColor('#333').text(`than the target: ${c.words.join(', ')}`, tx, y + CARD_H - 20, { width: 260 });
 
     doc.image(await qrPng(c.url), x + CARD_W - 102, y + 12, { width: 90, height: 90 });
     doc.font('sans').fontSize(6.5).fillColor(GREY).text(c.url, x + CARD_W - 106, y + 106, { width: 98, align: 'center' });

@@ -1,6 +1,6 @@
 import { hashPassword } from '../../server/auth/passwords.ts';
 import { issueToken } from '../../server/auth/tokens.ts';
-import { Chemical, ColourMeasurement, Substitution, Trial, User } from '../../server/models/index.ts';
+import { Chemical, ColourMeasurement, MordantBatch, Substitution, Trial, TrialSeries, User } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import type { Role } from '../../shared/roles.ts';
 
@@ -72,6 +72,21 @@ async function trialWithReading(ctx: SetupContext) {
   const m = await ColourMeasurement.create({ pieceId: null, regionId: null, trialId: t.id, instrument: null, geometry: null, specular: null, L: 50, a: 10, b: 10, label: null, takenOn: null, createdById: null });
   return { params: { id: t.id, childId: m.id } };
 }
+
+// Baths and series: owned by the actor for `:own`, by another dyer otherwise.
+const shortCode = (p: string) => `${p}${Date.now().toString(36)}${(seq++).toString(36)}`.slice(0, 20);
+const ownerFor = async (ctx: SetupContext) => (ctx.ownership === 'own' && ctx.user ? ctx.user.id : (await makeUser('dyer')).id);
+async function batchParams(ctx: SetupContext) {
+  const b = await MordantBatch.create({ code: shortCode('MX-'), kind: 'mordant-bath', name: 'Matrix bath', ingredients: [], volumeMl: 1000, thickenerGPerL: null, ph: null, madeOn: '2024-05-01', madeById: await ownerFor(ctx), checkBy: null, parentId: null, notes: null });
+  return { params: { id: b.id } };
+}
+async function seriesParams(ctx: SetupContext) {
+  const s = await TrialSeries.create({ code: shortCode('SX-'), title: 'Matrix series', pieceId: null, factors: [{ name: 'tannin', levels: ['0', '10'] }], cells: [{ tannin: '0' }, { tannin: '10' }], participants: [], dryMassG: 10, ownerId: await ownerFor(ctx), heldOn: null, notes: null });
+  return { params: { id: s.id } };
+}
+const ownRecord: MatrixRow['expect'] = { visitor: 401, admin: '2xx', curator: 403, researcher: 403, 'dyer:own': '2xx', 'dyer:other': 403 };
+const batchBody = () => ({ code: shortCode('MN-'), kind: 'mordant-bath', name: 'Matrix new bath', volumeMl: 500, madeOn: '2024-05-01' });
+const seriesBody = () => ({ code: shortCode('SN-'), title: 'Matrix new series', factors: [{ name: 'madder', levels: ['25', '50'] }], dryMassG: 10 });
 const alumId = async () => (await Chemical.findOne({ where: { name: 'potash alum' }, rejectOnEmpty: true })).id;
 
 export const routeMatrix: MatrixRow[] = [
@@ -113,4 +128,19 @@ export const routeMatrix: MatrixRow[] = [
   row('POST /api/colour/difference', everyone('2xx'), { body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } } }),
   row('GET /api/colour/verdict-bands', everyone('2xx')),
   row('PUT /api/colour/verdict-bands', adminOnly, { body: { bands: { match: 1, close: 2, near: 4 }, source: 'common practice (the defaults, written back by the route matrix)' } }),
+  row('GET /api/batches', signedIn),
+  row('POST /api/batches', dyersCreate, { setup: async () => ({ body: batchBody() }) }),
+  row('GET /api/batches/:id', signedIn, { setup: batchParams }),
+  row('PATCH /api/batches/:id', ownRecord, { setup: async (ctx) => ({ ...(await batchParams(ctx)), body: { notes: 'matrix' } }) }),
+  row('POST /api/batches/:id/events', dyersCreate, { setup: async (ctx) => ({ ...(await batchParams(ctx)), body: { type: 'use', volumeMl: 10 } }) }),
+  row('GET /api/batches/:id/label.pdf', signedIn, { setup: batchParams }),
+  row('GET /api/series', signedIn),
+  row('POST /api/series/preview', signedIn, { body: { factors: [{ name: 'madder', levels: ['25', '50'] }] } }),
+  row('POST /api/series', dyersCreate, { setup: async () => ({ body: seriesBody() }) }),
+  row('GET /api/series/:id', signedIn, { setup: seriesParams }),
+  row('PATCH /api/series/:id', ownRecord, { setup: async (ctx) => ({ ...(await seriesParams(ctx)), body: { keep: ['tannin=10'] } }) }),
+  row('POST /api/series/:id/trials', ownRecord, { setup: seriesParams }),
+  row('GET /api/series/:id/cards.pdf', signedIn, { setup: seriesParams }),
+  row('GET /api/series/:id/labels.pdf', signedIn, { setup: seriesParams }),
+  row('GET /api/trials/:id/card.pdf', signedIn, { setup: trialParams }),
 ];
