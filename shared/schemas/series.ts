@@ -50,6 +50,3 @@ export const seriesListQuery = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(50),
 });
 
-export type Cell = Record<string, string>;
-/** A stable key for a cell: factor=level pairs in factor order. */
-export const cellKey = (cell: Cell, factorNames: string[]) => factorNames.map((f) => `${f}=${cell[f] ?? ''}`).join('|');

@@ -49,8 +49,8 @@ describe('trial series through the API', () => {
     const grams = Object.fromEntries(cell.recipe.flatMap((st: { ingredients: Array<{ name: string; grams: number }> }) => st.ingredients.map((i) => [i.name, i.grams])));
     expect(grams).toEqual({ 'tannic acid': 2, 'potash alum': 3, madder: 10 });
     // Madder over the 21 kept cells: 7 cells each of 25, 50 and 100 % → 7 × (5 + 10 + 20) = 245 g, +10 % dead volume = 269.5 g.
-    const madder = pruned.materials.whole.items.find((i: { name: string }) => i.name === 'madder');
-    expect(madder).toMatchObject({ grams: 245, withAllowanceG: 269.5 });
+    const madder = pruned.materials.whole.lines.find((i: { name: string }) => i.name === 'madder');
+    expect(madder).toMatchObject({ grams: 245, gramsWithAllowance: 269.5 });
 
     const made = await dyer.post(`/api/series/${s.id}/trials`).set('Origin', ORIGIN).expect(201);
     expect(made.body.created).toHaveLength(21);
@@ -69,8 +69,10 @@ describe('trial series through the API', () => {
     expect(res.body.cells).toHaveLength(8);
     expect(res.body.materials.perParticipant.map((p: { code: string }) => p.code)).toEqual(['P-01', 'P-02', 'P-03']);
     // Tannic acid: 4 cells at 10 % of 10 g = 4 g per participant; ×3 = 12 g, +15 % = 13.8 g.
-    expect(res.body.materials.perParticipant[0].items.find((i: { name: string }) => i.name === 'tannic acid').grams).toBe(4);
-    expect(res.body.materials.whole.items.find((i: { name: string }) => i.name === 'tannic acid')).toMatchObject({ grams: 12, withAllowanceG: 13.8 });
+    expect(res.body.materials.perParticipant[0].lines.find((i: { name: string }) => i.name === 'tannic acid').grams).toBe(4);
+    expect(res.body.materials.whole.lines.find((i: { name: string }) => i.name === 'tannic acid')).toMatchObject({ grams: 12, gramsWithAllowance: 13.8 });
+    // Liquor at 1:30 [BRIEF §4.1]: 10 g × 30 = 0.3 L per step; per participant 4 tannin + 8 mordant steps = 3.6 L.
+    expect(res.body.materials.perParticipant[0].bathL).toBe(3.6);
     const made = await dyer.post(`/api/series/${res.body.id}/trials`).set('Origin', ORIGIN).expect(201);
     expect(made.body.created).toHaveLength(24);
     expect(made.body.created[0].cell.participant).toBe('P-01');

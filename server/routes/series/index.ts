@@ -2,7 +2,7 @@ import { Router, type Request } from 'express';
 import { z } from 'zod';
 import { seriesCreateSchema, seriesListQuery, seriesUpdateSchema, factorSchema } from '../../../shared/schemas/series.ts';
 import { abilities, actorOf, requireUser } from '../../http/auth.ts';
-import { forbidden, notFound } from '../../http/errors.ts';
+import { forbidden, notFound, unprocessable } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
 import { RecipeStep, Trial, TrialSeries, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
@@ -40,6 +40,7 @@ seriesRouter.get('/', async (req, res) => {
 /** Cells a set of factors would make, before anything is saved. */
 seriesRouter.post('/preview', async (req, res) => {
   const { factors } = parseBody(z.object({ factors: z.array(factorSchema).min(1).max(6) }), req);
+  if (new Set(factors.map((f) => f.name)).size !== factors.length) throw unprocessable('Each factor needs its own name.', { fields: { factors: ['Two factors share a name'] } });
   const cells = expand(factors);
   res.json({ count: cells.length, cells: cells.slice(0, 500) });
 });

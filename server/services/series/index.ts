@@ -1,10 +1,11 @@
 import type { Transaction } from 'sequelize';
-import { cellKey, type Cell, type SeriesCreateInput, type SeriesUpdateInput } from '../../../shared/schemas/series.ts';
+import type { SeriesCreateInput, SeriesUpdateInput } from '../../../shared/schemas/series.ts';
+import type { Cell } from '../../../shared/compute/series.ts';
 import { conflict, unprocessable } from '../../http/errors.ts';
 import { Chemical, Dyestuff, RecipeStep, Trial, TrialSeries } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
 import { nextTrialCode } from '../trials/code.ts';
-import { cellRecipe, expand, type StoredFactor } from './plan.ts';
+import { cellKey, cellRecipe, expand, type StoredFactor } from './plan.ts';
 
 type Ctx<I> = { actor: NonNullable<Actor>; transaction: Transaction; input: I };
 
@@ -25,12 +26,11 @@ export async function updateSeries({ transaction, input, series }: Ctx<SeriesUpd
   const { keep, ...rest } = input;
   const patch: Partial<TrialSeries['_creationAttributes']> = { ...rest };
   if (keep) {
-    const names = factorsOf(series).map((f) => f.name);
     const all = expand(factorsOf(series));
     const wanted = new Set(keep);
-    const unknown = keep.filter((k) => !all.some((c) => cellKey(c, names) === k));
+    const unknown = keep.filter((k) => !all.some((c) => cellKey(c) === k));
     if (unknown.length) throw unprocessable('Some kept cells are not in this series.', { unknown });
-    patch.cells = all.filter((c) => wanted.has(cellKey(c, names)));
+    patch.cells = all.filter((c) => wanted.has(cellKey(c)));
   }
   return series.update(patch, { transaction });
 }
@@ -46,9 +46,8 @@ export function plannedCells(series: TrialSeries): Cell[] {
 export async function createSeriesTrials({ actor, transaction, series }: Omit<Ctx<unknown>, 'input'> & { series: TrialSeries }) {
   const locked = await TrialSeries.findByPk(series.id, { transaction, lock: transaction.LOCK.UPDATE, rejectOnEmpty: true });
   const existing = await Trial.findAll({ where: { seriesId: locked.id }, attributes: ['cell'], transaction });
-  const names = [...factorsOf(locked).map((f) => f.name), 'participant'];
-  const done = new Set(existing.map((t) => cellKey((t.cell ?? {}) as Cell, names)));
-  const todo = plannedCells(locked).filter((c) => !done.has(cellKey(c, names)));
+  const done = new Set(existing.map((t) => cellKey((t.cell ?? {}) as Cell)));
+  const todo = plannedCells(locked).filter((c) => !done.has(cellKey(c)));
   if (!todo.length) throw conflict('Every kept cell of this series already has a trial.');
   if (!locked.dryMassG) throw unprocessable('Set the dry mass per cell before creating trials.');
   const created: Trial[] = [];

@@ -52,19 +52,22 @@ export function SeriesPage() {
           </div>
         ) : null}
       </section>
-      <section aria-labelledby="mat" className="mb-8 grid gap-6 lg:grid-cols-2">
-        <div>
-          <h2 id="mat" className="text-xl font-semibold mb-2">Materials for the whole {s.kind}</h2>
-          <MaterialsTable m={s.materials.whole} label="Materials for the whole series" />
-        </div>
-        {s.materials.perParticipant.length ? (
+      {s.materials ? (
+        <section aria-labelledby="mat" className="mb-8 grid gap-6 lg:grid-cols-2">
           <div>
-            <h2 className="text-xl font-semibold mb-2">Per participant</h2>
-            <p className="text-sm text-ink-soft mb-2">Each of {s.materials.perParticipant.map((p) => p.code).join(', ')} needs:</p>
-            <MaterialsTable m={s.materials.perParticipant[0]} label="Materials per participant" />
+            <h2 id="mat" className="text-xl font-semibold mb-2">Materials for the whole {s.kind}</h2>
+            <MaterialsTable m={s.materials.whole} deadVolumePct={s.materials.deadVolumePct} label="Materials for the whole series" />
+            {s.materials.unresolved.length ? <p className="text-sm text-warn">Not computed: {s.materials.unresolved.join(', ')}.</p> : null}
           </div>
-        ) : null}
-      </section>
+          {s.materials.perParticipant.length ? (
+            <div>
+              <h2 className="text-xl font-semibold mb-2">Per participant</h2>
+              <p className="text-sm text-ink-soft mb-2">Each of {s.materials.perParticipant.map((p) => p.code).join(', ')} needs:</p>
+              <MaterialsTable m={s.materials.perParticipant[0]} deadVolumePct={s.materials.deadVolumePct} label="Materials per participant" />
+            </div>
+          ) : null}
+        </section>
+      ) : <p className="mb-8 text-sm text-ink-faint">Set the dry mass per cell to see the materials.</p>}
       <section aria-labelledby="tr">
         <h2 id="tr" className="text-xl font-semibold mb-2">Trials</h2>
         {s.trials.length ? (
