@@ -55,24 +55,30 @@ function rng(seed: number) {
 
 type Hist = { n: number; w: Float64Array; lab: Float64Array; rgb: Float64Array; pixelBin: Int32Array; total: number };
 
-// Scratch tables reused between calls: clearing them is much cheaper than allocating.
+// Scratch tables reused between calls (extraction is synchronous, so never shared):
+// only the bins a call touched are cleared again, much cheaper than allocating.
 const count = new Uint32Array(BINS);
 const sums = new Uint32Array(BINS * 3);
 const binOf = new Int32Array(BINS);
+let pixelScratch = new Int32Array(0);
 
-/** Colour histogram of the non-excluded pixels: per occupied bin its pixel count, mean sRGB and the L*a*b* of that mean. */
+/**
+ * Colour histogram of the non-excluded pixels: per occupied bin its pixel count, mean sRGB and
+ * the L*a*b* of that mean. pixelBin gives each pixel's raw bin (-1 when excluded); binOf maps
+ * a raw bin to its index among the occupied bins.
+ */
 function histogram(img: RawImage, mask: Uint8Array | null): Hist {
   const { data, width, height } = img;
-  count.fill(0);
-  sums.fill(0);
   const pixels = width * height;
-  const pixelBin = new Int32Array(pixels);
+  if (pixelScratch.length < pixels) pixelScratch = new Int32Array(pixels);
+  const pixelBin = pixelScratch;
+  const occupied: number[] = [];
   let total = 0;
   for (let p = 0, i = 0; p < pixels; p++, i += 3) {
     if (mask !== null && mask[p] === 1) { pixelBin[p] = -1; continue; }
     const r = data[i], g = data[i + 1], b = data[i + 2];
     const bin = ((r >> SHIFT) << (2 * BITS)) | ((g >> SHIFT) << BITS) | (b >> SHIFT);
-    count[bin]++;
+    if (count[bin]++ === 0) occupied.push(bin);
     const s = bin * 3;
     sums[s] += r;
     sums[s + 1] += g;
@@ -80,20 +86,24 @@ function histogram(img: RawImage, mask: Uint8Array | null): Hist {
     pixelBin[p] = bin;
     total++;
   }
-  let n = 0;
-  for (let bin = 0; bin < BINS; bin++) binOf[bin] = count[bin] ? n++ : -1;
+  occupied.sort((x, y) => x - y); // bin order, so results do not depend on pixel order
+  const n = occupied.length;
   const w = new Float64Array(n), lab = new Float64Array(n * 3), rgb = new Float64Array(n * 3);
-  for (let bin = 0; bin < BINS; bin++) {
-    const j = binOf[bin];
-    if (j < 0) continue;
+  for (let j = 0; j < n; j++) {
+    const bin = occupied[j];
     const c = count[bin];
+    binOf[bin] = j;
     w[j] = c;
     for (let k = 0; k < 3; k++) rgb[j * 3 + k] = sums[bin * 3 + k] / c;
     linearToLab(decode(rgb[j * 3]), decode(rgb[j * 3 + 1]), decode(rgb[j * 3 + 2]), lab, j * 3);
+    count[bin] = 0;
+    sums[bin * 3] = sums[bin * 3 + 1] = sums[bin * 3 + 2] = 0;
   }
-  for (let p = 0; p < pixels; p++) if (pixelBin[p] >= 0) pixelBin[p] = binOf[pixelBin[p]];
   return { n, w, lab, rgb, pixelBin, total };
 }
+
+/** Index among the occupied bins of pixel p, or -1 when it is excluded. */
+const binAt = (h: Hist, p: number) => (h.pixelBin[p] < 0 ? -1 : binOf[h.pixelBin[p]]);
 
 const d2 = (lab: Float64Array, i: number, c: number[]) => {
   const x = lab[i * 3] - c[0], y = lab[i * 3 + 1] - c[1], z = lab[i * 3 + 2] - c[2];
@@ -233,7 +243,7 @@ function assignAll(h: Hist, centres: number[][]) {
 }
 
 /** Pixels of `isBg` clusters reachable from the image border through such pixels. */
-function borderConnected(img: RawImage, h: Hist, pixelLabel: (p: number) => number, isBg: boolean[]) {
+function borderConnected(img: RawImage, pixelLabel: (p: number) => number, isBg: boolean[]) {
   const { width, height } = img;
   const seen = new Uint8Array(width * height);
   const stack: number[] = [];
@@ -295,7 +305,7 @@ export function extractPalette(img: RawImage, options: PaletteOptions = {}): Ext
     for (let y = 0; y < img.height; y++) {
       for (let x = 0; x < img.width; x++) {
         if (x >= band && x < img.width - band && y >= band && y < img.height - band) continue;
-        const j = h.pixelBin[y * img.width + x];
+        const j = binAt(h, y * img.width + x);
         if (j < 0) continue;
         inBand[assign[j]]++;
         bandTotal++;
@@ -303,7 +313,7 @@ export function extractPalette(img: RawImage, options: PaletteOptions = {}): Ext
     }
     centres.forEach((c, i) => { isBg[i] = bandTotal > 0 && inBand[i] / bandTotal >= BG_BORDER_SHARE && Math.hypot(c[1], c[2]) <= BG_MAX_CHROMA; });
     if (isBg.some(Boolean)) {
-      const reached = borderConnected(img, h, (p) => (h.pixelBin[p] < 0 ? -1 : assign[h.pixelBin[p]]), isBg);
+      const reached = borderConnected(img, (p) => { const j = binAt(h, p); return j < 0 ? -1 : assign[j]; }, isBg);
       centres.forEach((_, i) => { if (isBg[i] && reached[i] < 0.5 * weight[i]) isBg[i] = false; });
     }
   }

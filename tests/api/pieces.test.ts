@@ -141,6 +141,11 @@ describe('pieces: visibility, updates, history', () => {
     expect(linen.body.total).toBe(2);
     const resistIndigo = await curator.get('/api/pieces').query({ q: tag, technique: 'resist', dyestuff: 'indigo' }).expect(200);
     expect(resistIndigo.body.items.map((p: { id: number }) => p.id)).toEqual([made[0].id]);
+    // Natural order of accession numbers: .9 before .10.
+    const base = `2097.${run}`;
+    for (const item of ['10', '9']) await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber: `${base}.${item}` })).expect(201);
+    const natural = await curator.get('/api/pieces').query({ q: `${base}.`, sort: 'accessionNumber' }).expect(200);
+    expect(natural.body.items.map((p: { accessionNumber: string }) => p.accessionNumber)).toEqual([`${base}.9`, `${base}.10`]);
     const bad = await curator.get('/api/pieces').query({ sort: 'colour' }).expect(400);
     expect(bad.body.error.details.fields.sort).toBeDefined();
   });
@@ -161,6 +166,7 @@ describe('pieces: soft delete and restore', () => {
     const listed = await curator.get('/api/pieces').query({ deleted: 'only', q: p.accessionNumber }).expect(200);
     expect(listed.body.items.map((x: { id: number }) => x.id)).toEqual([p.id]);
     await researcher.get('/api/pieces').query({ deleted: 'only' }).expect(403);
+    await request(app).get('/api/pieces').query({ deleted: 'only' }).expect(401);
     // The number stays taken while the piece can be restored.
     const dup = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber: p.accessionNumber })).expect(409);
     expect(dup.body.error.message).toMatch(/deleted/);

@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { idParams, pieceCreateSchema, pieceListQuery, pieceUpdateSchema } from '../../../shared/schemas/piece.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
-import { forbidden, notFound } from '../../http/errors.ts';
+import { forbidden, notFound, unauthorized } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
 import { AuditEvent, User, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
@@ -16,6 +16,7 @@ export const piecesRouter = Router();
 piecesRouter.get('/', async (req, res) => {
   const actor = actorOf(req);
   const q = parseQuery(pieceListQuery, req);
+  if (q.deleted && !actor) throw unauthorized();
   if (q.deleted && !can(actor, 'piece:read', { deleted: true })) throw forbidden('Only curators and admins see deleted pieces.');
   const { rows, total, firstPhoto } = await listPieces(actor, q);
   res.json({ items: rows.map((p) => presentPieceRow(p, firstPhoto.get(p.id) ?? null)), total, page: q.page, pageSize: q.pageSize });

@@ -1,0 +1,72 @@
+import { writeFile, mkdtemp, rm } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser, signInAs } from '../support/browser.ts';
+import { startServer } from '../support/server.ts';
+import { clothJpeg } from '../support/images.ts';
+import { sequelize } from '../../server/models/index.ts';
+
+let server: Awaited<ReturnType<typeof startServer>>;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+let dir: string;
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser();
+  dir = await mkdtemp(path.join(os.tmpdir(), 'tinctoria-upload-'));
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  await rm(dir, { recursive: true, force: true });
+  await sequelize.close();
+});
+
+describe('cataloguing a piece in Chromium', () => {
+  it('the curator catalogues a piece, uploads a photo, watches the progress and sees the palette', async () => {
+    const page = await browser.context.newPage();
+    await signInAs(page, server.url, 'curator@demo.test');
+    await page.goto(`${server.url}/archive`);
+    await page.getByRole('link', { name: 'Catalogue a piece' }).click();
+
+    // The vocabularies fill the checklists and move the form's button; wait for them first.
+    await page.getByLabel('cotton').waitFor();
+    const accession = `2098.${Date.now() % 100000}.1`;
+    // A wrong accession number is explained beside the field before anything is sent.
+    await page.getByLabel('Accession number').fill('1931/4/12');
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await page.getByText('Use a number such as 1931.4.12').first().waitFor();
+
+    await page.getByLabel('Accession number').fill(accession);
+    await page.getByLabel('Object name').fill('furnishing fabric');
+    await page.getByLabel('Title', { exact: true }).fill('Browser-catalogued madder print');
+    await page.getByLabel('Date (EDTF)').fill('1770/1785');
+    await page.getByLabel('cotton').check();
+    await page.getByLabel('block printing').check();
+    await page.getByLabel(/Height/).fill('420');
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await page.getByRole('heading', { name: 'Browser-catalogued madder print' }).waitFor();
+    await page.getByText(accession).first().waitFor();
+    await page.getByText('420 mm').waitFor();
+
+    const file = path.join(dir, 'recto.jpg');
+    await writeFile(file, await clothJpeg({ seed: 21 }));
+    await page.getByLabel('Photos to upload').setInputFiles(file);
+    const item = page.getByTestId('upload-item');
+    await item.locator('progress').waitFor();
+    await item.getByText('Done').waitFor({ timeout: 20_000 });
+    await expect(item.locator('progress').getAttribute('value')).resolves.toBe('1');
+
+    await page.getByTestId('photo-panel').waitFor();
+    const colours = page.getByTestId('palette-colour');
+    await colours.first().waitFor();
+    expect(await colours.count()).toBeGreaterThan(1);
+    await expect(colours.first().textContent()).resolves.toMatch(/#[0-9a-f]{6}.*L\*.*a\*.*b\*.*share/s);
+    await page.getByText('source: image estimate').first().waitFor();
+
+    await page.getByRole('button', { name: 'Publish' }).click();
+    await page.getByRole('button', { name: 'Unpublish' }).waitFor();
+    await page.getByRole('button', { name: 'Show who changed what' }).click();
+    await expect(page.getByTestId('history').textContent()).resolves.toMatch(/published.*added a photo.*catalogued/s);
+  }, 120_000);
+});
