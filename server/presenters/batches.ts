@@ -1,9 +1,10 @@
 import { DISPOSAL_NOTICE } from '../../shared/schemas/batches.ts';
+import type { ChemicalView } from '../../shared/schemas/reference.ts';
 import type { BatchEvent, MordantBatch } from '../models/index.ts';
 import type { Figures } from '../services/batches/ledger-figures.ts';
 
-export const presentBatchEvent = (e: BatchEvent) => ({
-  id: e.id, type: e.type, volumeMl: e.volumeMl, fibreMassG: e.fibreMassG, trialId: e.trialId, additions: e.additions, ph: e.ph,
+export const presentBatchEvent = (e: BatchEvent, trialCodes: ReadonlyMap<number, string> = new Map()) => ({
+  id: e.id, type: e.type, volumeMl: e.volumeMl, fibreMassG: e.fibreMassG, trialId: e.trialId, trialCode: e.trialId ? (trialCodes.get(e.trialId) ?? null) : null, additions: e.additions, ph: e.ph,
   result: e.result, route: e.route, ruleFollowed: e.ruleFollowed, notes: e.notes, occurredAt: e.occurredAt.toISOString(), createdById: e.createdById,
 });
 
@@ -20,7 +21,7 @@ export function presentBatchSummary(b: MordantBatch, f: Figures) {
   };
 }
 
-export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], extra: { cautions: Array<{ id: number; name: string; signalWord: string | null; hStatements: string[]; ppe: string | null; caution: string | null; status: string }>; parent: { id: number; code: string } | null; children: Array<{ id: number; code: string; name: string }>; abilities: Record<string, boolean> }) {
+export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], extra: { trialCodes: ReadonlyMap<number, string>; cautions: ChemicalView[]; parent: { id: number; code: string } | null; children: Array<{ id: number; code: string; name: string }>; abilities: Record<string, boolean> }) {
   return {
     ...presentBatchSummary(b, f),
     ingredients: b.ingredients, thickenerGPerL: b.thickenerGPerL, ph: b.ph, uptakePerUse: b.uptakePerUse, notes: b.notes,
@@ -29,7 +30,7 @@ export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], 
       : null,
     testStripPrompt: f.testStrip.due ? `Dye a test strip before the next use: ${f.testStrip.reasons.map((r) => STRIP_REASONS[r]).join('; ')}.` : null,
     timeline: f.timeline,
-    events: events.map(presentBatchEvent),
+    events: events.map((e) => presentBatchEvent(e, extra.trialCodes)),
     cautions: extra.cautions, parent: extra.parent, children: extra.children,
     disposalNotice: DISPOSAL_NOTICE,
     abilities: extra.abilities,

@@ -5,8 +5,9 @@ import { abilities, actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
 import { Op } from 'sequelize';
-import { Chemical, MordantBatch, sequelize } from '../../models/index.ts';
+import { Chemical, MordantBatch, Trial, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
+import { presentChemical } from '../../presenters/reference.ts';
 import { presentBatch, presentBatchEvent, presentBatchSummary } from '../../presenters/batches.ts';
 import { addEvent, createBatch, dueForCheck, figuresFor, loadEvents, thickenerIds, updateBatch } from '../../services/batches/index.ts';
 import { batchLabelPdf } from '../../pdf/labels.ts';
@@ -34,8 +35,11 @@ async function full(req: Request, batch: MordantBatch) {
   ]);
   const chemIds = [...batch.ingredients, ...events.flatMap((e) => e.additions ?? [])].filter((i) => i.kind === 'chemical').map((i) => i.refId);
   const chems = chemIds.length ? await Chemical.findAll({ where: { id: { [Op.in]: [...new Set(chemIds)] } }, order: [['name', 'ASC']] }) : [];
+  const trialIds = [...new Set(events.flatMap((e) => (e.trialId ? [e.trialId] : [])))];
+  const trials = trialIds.length ? await Trial.findAll({ where: { id: { [Op.in]: trialIds } }, attributes: ['id', 'code'] }) : [];
   return presentBatch(batch, figuresFor(batch, events, await thickenerIds()), events, {
-    cautions: chems.map((c) => ({ id: c.id, name: c.name, signalWord: c.signalWord, hStatements: c.hStatements, ppe: c.ppe, caution: c.caution, status: c.status })),
+    trialCodes: new Map(trials.map((t) => [t.id, t.code])),
+    cautions: chems.map(presentChemical),
     parent: parent ? { id: parent.id, code: parent.code } : null,
     children: children.map((c) => ({ id: c.id, code: c.code, name: c.name })),
     abilities: abilities(actorOf(req), ['batch:update', 'batch-event:create'] as const, record(batch)),

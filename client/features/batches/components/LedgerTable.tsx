@@ -45,7 +45,7 @@ export function LedgerTable({ batch }: { batch: BatchDetail }) {
               <td className="pr-3">{e.type}</td>
               <td className="pr-3 text-right">{e.volumeMl == null ? '' : e.type === 'use' ? `−${e.volumeMl}` : `+${e.volumeMl}`}</td>
               <td className="pr-3 text-right">{e.fibreMassG ?? ''}</td>
-              <td className="pr-3">{e.trialId ? <Link className="text-action underline" to={paths.trial(e.trialId)}>trial {e.trialId}</Link> : ''}</td>
+              <td className="pr-3">{e.trialId ? <Link className="text-action underline" to={paths.trial(e.trialId)}>{e.trialCode ?? `trial ${e.trialId}`}</Link> : ''}</td>
               <td className="pr-3 text-right">{after.get(e.id)?.remainingMl ?? ''}</td>
               <td className="font-sans">{describe(e)}</td>
             </tr>
