@@ -75,7 +75,9 @@ async function trialWithReading(ctx: SetupContext) {
 
 // Baths and series: owned by the actor for `:own`, by another dyer otherwise.
 const shortCode = (p: string) => `${p}${Date.now().toString(36)}${(seq++).toString(36)}`.slice(0, 20);
-const ownerFor = async (ctx: SetupContext) => (ctx.ownership === 'own' && ctx.user ? ctx.user.id : (await makeUser('dyer')).id);
+// "Another dyer" is the seeded workshop lead, so these rows add no users to the shared database.
+const otherDyerId = async () => (await User.findOne({ where: { email: 'tamsin.orrery@weldfold.test' }, rejectOnEmpty: true })).id;
+const ownerFor = async (ctx: SetupContext) => (ctx.ownership === 'own' && ctx.user ? ctx.user.id : otherDyerId());
 async function batchParams(ctx: SetupContext) {
   const b = await MordantBatch.create({ code: shortCode('MX-'), kind: 'mordant-bath', name: 'Matrix bath', ingredients: [], volumeMl: 1000, thickenerGPerL: null, ph: null, madeOn: '2024-05-01', madeById: await ownerFor(ctx), checkBy: null, parentId: null, notes: null });
   return { params: { id: b.id } };
