@@ -17,6 +17,7 @@ export const paths = {
   baths: () => '/baths',
   bath: (id: number | string) => `/baths/${id}`,
   series: () => '/series',
+  seriesOne: (id: number | string) => `/series/${id}`,
   reference: () => '/reference',
   team: () => '/team',
   outbox: () => '/outbox',

@@ -8,6 +8,10 @@ import { NotFound, RouteError } from './routes/NotFound';
 import { Outbox } from './routes/Outbox';
 import { ResetPassword } from './routes/ResetPassword';
 import { SignIn } from './routes/SignIn';
+import { BathsPage } from './features/batches/components/BathsPage';
+import { BathPage } from './features/batches/components/BathPage';
+import { SeriesListPage } from './features/series/components/SeriesListPage';
+import { SeriesPage } from './features/series/components/SeriesPage';
 import { ReferencePage } from './features/reference/components/ReferencePage';
 import { Team } from './routes/Team';
 import { PhotoZoom } from './routes/PhotoZoom';
@@ -28,6 +32,10 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: <Home /> },
       { path: 'sign-in', element: <SignIn /> },
+      { path: 'baths', element: <BathsPage /> },
+      { path: 'baths/:id', element: <BathPage /> },
+      { path: 'series', element: <SeriesListPage /> },
+      { path: 'series/:id', element: <SeriesPage /> },
       { path: 'reference', element: <ReferencePage /> },
       { path: 'archive', element: <Archive /> },
       { path: 'archive/new', element: <PieceNewPage /> },

@@ -74,6 +74,7 @@ export class TrialSeries extends Model<InferAttributes<TrialSeries>, InferCreati
   declare participants: string[];
   declare dryMassG: number | null;
   declare deadVolumePct: CreationOptional<number>;
+  declare liquorRatio: CreationOptional<number>;
   declare ownerId: number | null;
   declare heldOn: string | null;
   declare notes: string | null;
@@ -163,6 +164,7 @@ export function initTrialModels(sequelize: Sequelize) {
       participants: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
       dryMassG: DataTypes.DOUBLE,
       deadVolumePct: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 10 },
+      liquorRatio: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 30 },
       ownerId: fk(),
       heldOn: DataTypes.DATEONLY,
       notes: DataTypes.TEXT,

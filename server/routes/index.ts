@@ -15,6 +15,9 @@ import { photosRouter } from './photos/index.ts';
 import { vocabulariesRouter } from './vocabularies/index.ts';
 import { pieceTrialsRouter, trialsRouter } from './trials/index.ts';
 import { colourRouter } from './colour/index.ts';
+import { batchesRouter } from './batches/index.ts';
+import { seriesRouter } from './series/index.ts';
+import { trialCardsRouter } from './trial-cards/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -39,5 +42,8 @@ export function apiRouter() {
   router.use('/vocabularies', vocabulariesRouter);
   router.use('/trials', trialsRouter);
   router.use('/colour', colourRouter);
+  router.use('/batches', batchesRouter);
+  router.use('/series', seriesRouter);
+  router.use('/trials', trialCardsRouter);
   return router;
 }

@@ -192,15 +192,25 @@ export async function seedDemo(t: Transaction) {
   await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, fibreMassG: 250, trialId: trials[2].id });
 
   // The workshop: six shades per participant from shared baths.
-  const levels = { mordant: ['strong Al', 'weak Al', 'Fe', 'Al+Fe'], tannin: ['0', '10'] };
+  // Factors say what they change in the recipe, so the series can scale it and list the materials.
+  const al = (owf: number) => ({ refId: alum.id, name: alum.name, owf });
+  const fe = (owf: number) => ({ refId: ferrous.id, name: ferrous.name, owf });
+  const factors = [
+    { name: 'madder', role: 'dyestuff', refId: madder.id, refName: madder.name, levels: ['50'] },
+    {
+      name: 'mordant', role: 'mordant', refId: null, refName: null, levels: ['strong Al', 'weak Al', 'Fe', 'Al+Fe'],
+      mordants: [{ level: 'strong Al', chemicals: [al(15)] }, { level: 'weak Al', chemicals: [al(5)] }, { level: 'Fe', chemicals: [fe(2)] }, { level: 'Al+Fe', chemicals: [al(10), fe(1)] }],
+    },
+    { name: 'tannin', role: 'tannin', refId: tannin.id, refName: tannin.name, levels: ['0', '10'] },
+  ];
   const cells = [
     { mordant: 'strong Al', tannin: '10' }, { mordant: 'weak Al', tannin: '10' }, { mordant: 'Fe', tannin: '10' },
     { mordant: 'Al+Fe', tannin: '10' }, { mordant: 'strong Al', tannin: '0' }, { mordant: 'weak Al', tannin: '0' },
-  ];
+  ].map((c) => ({ madder: '50', ...c }));
   const series = await TrialSeries.create(
     {
       code: 'WS-2024-01', title: 'Madder on four mordants: a six-shade card', kind: 'workshop', pieceId: p12.id,
-      factors: Object.entries(levels).map(([name, l]) => ({ name, levels: l })), cells, participants: ['P-01', 'P-02', 'P-03', 'P-04'],
+      factors, cells, participants: ['P-01', 'P-02', 'P-03', 'P-04'],
       dryMassG: 10, deadVolumePct: 15, ownerId: tamsin.id, heldOn: '2024-04-20', notes: 'Each participant dyes six 10 g swatches from the shared baths MB-08 and MB-09.',
     },
     { transaction: t },

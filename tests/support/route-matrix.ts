@@ -5,7 +5,7 @@ import { makePiece } from '../../server/seed/factories.ts';
 import { ingestPhoto } from '../../server/media/pipeline.ts';
 import { sequelize } from '../../server/models/index.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
-import { Chemical, ColourMeasurement, Dyestuff, Job, PaletteColour, Photo, Region, Substitution, Trial, User } from '../../server/models/index.ts';
+import { Chemical, ColourMeasurement, Dyestuff, Job, MordantBatch, PaletteColour, Photo, Region, Substitution, Trial, TrialSeries, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 
@@ -106,6 +106,23 @@ async function trialWithReading(ctx: SetupContext) {
   const m = await ColourMeasurement.create({ pieceId: null, regionId: null, trialId: t.id, instrument: null, geometry: null, specular: null, L: 50, a: 10, b: 10, label: null, takenOn: null, createdById: null });
   return { params: { id: t.id, childId: m.id } };
 }
+
+// Baths and series: owned by the actor for `:own`, by another dyer otherwise.
+const shortCode = (p: string) => `${p}${Date.now().toString(36)}${(seq++).toString(36)}`.slice(0, 20);
+// "Another dyer" is the seeded workshop lead, so these rows add no users to the shared database.
+const otherDyerId = async () => (await User.findOne({ where: { email: 'tamsin.orrery@weldfold.test' }, rejectOnEmpty: true })).id;
+const ownerFor = async (ctx: SetupContext) => (ctx.ownership === 'own' && ctx.user ? ctx.user.id : otherDyerId());
+async function batchParams(ctx: SetupContext) {
+  const b = await MordantBatch.create({ code: shortCode('MX-'), kind: 'mordant-bath', name: 'Matrix bath', ingredients: [], volumeMl: 1000, thickenerGPerL: null, ph: null, madeOn: '2024-05-01', madeById: await ownerFor(ctx), checkBy: null, parentId: null, notes: null });
+  return { params: { id: b.id } };
+}
+async function seriesParams(ctx: SetupContext) {
+  const s = await TrialSeries.create({ code: shortCode('SX-'), title: 'Matrix series', pieceId: null, factors: [{ name: 'tannin', levels: ['0', '10'] }], cells: [{ tannin: '0' }, { tannin: '10' }], participants: [], dryMassG: 10, ownerId: await ownerFor(ctx), heldOn: null, notes: null });
+  return { params: { id: s.id } };
+}
+const ownRecord: MatrixRow['expect'] = { visitor: 401, admin: '2xx', curator: 403, researcher: 403, 'dyer:own': '2xx', 'dyer:other': 403 };
+const batchBody = () => ({ code: shortCode('MN-'), kind: 'mordant-bath', name: 'Matrix new bath', volumeMl: 500, madeOn: '2024-05-01' });
+const seriesBody = () => ({ code: shortCode('SN-'), title: 'Matrix new series', factors: [{ name: 'madder', levels: ['25', '50'] }], dryMassG: 10 });
 const alumId = async () => (await Chemical.findOne({ where: { name: 'potash alum' }, rejectOnEmpty: true })).id;
 
 // Catalogue: unique accession numbers in the pattern the schema accepts, and real photos through the pipeline.
@@ -213,4 +230,19 @@ export const routeMatrix: MatrixRow[] = [
   row('DELETE /api/photos/:id/reference-patch', curatorWrites, { setup: photoParams }),
   row('PATCH /api/photos/:id/palette/:colourId', curatorWrites, { setup: photoWithColour }),
   row('GET /api/vocabularies', everyone('2xx')),
+  row('GET /api/batches', signedIn),
+  row('POST /api/batches', dyersCreate, { setup: async () => ({ body: batchBody() }) }),
+  row('GET /api/batches/:id', signedIn, { setup: batchParams }),
+  row('PATCH /api/batches/:id', ownRecord, { setup: async (ctx) => ({ ...(await batchParams(ctx)), body: { notes: 'matrix' } }) }),
+  row('POST /api/batches/:id/events', dyersCreate, { setup: async (ctx) => ({ ...(await batchParams(ctx)), body: { type: 'use', volumeMl: 10 } }) }),
+  row('GET /api/batches/:id/label.pdf', signedIn, { setup: batchParams }),
+  row('GET /api/series', signedIn),
+  row('POST /api/series/preview', signedIn, { body: { factors: [{ name: 'madder', levels: ['25', '50'] }] } }),
+  row('POST /api/series', dyersCreate, { setup: async () => ({ body: seriesBody() }) }),
+  row('GET /api/series/:id', signedIn, { setup: seriesParams }),
+  row('PATCH /api/series/:id', ownRecord, { setup: async (ctx) => ({ ...(await seriesParams(ctx)), body: { keep: ['tannin=10'] } }) }),
+  row('POST /api/series/:id/trials', ownRecord, { setup: seriesParams }),
+  row('GET /api/series/:id/cards.pdf', signedIn, { setup: seriesParams }),
+  row('GET /api/series/:id/labels.pdf', signedIn, { setup: seriesParams }),
+  row('GET /api/trials/:id/card.pdf', signedIn, { setup: trialParams }),
 ];

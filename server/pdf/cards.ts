@@ -1,0 +1,42 @@
+import type { CardData } from './card-data.ts';
+import { finish, newDoc, qrPng } from './doc.ts';
+
+const CARD_W = 523;
+const CARD_H = 240;
+const GREY = '#8a8a86';
+
+/** Sample cards, three to an A4 page: swatch, recipe summary, ΔE00 to the target, QR to the trial page. */
+export async function cardsPdf(title: string, cards: CardData[]) {
+  const doc = newDoc(title);
+  for (const [i, c] of cards.entries()) {
+    if (i > 0 && i % 3 === 0) doc.addPage();
+    const x = 36;
+    const y = 36 + (i % 3) * (CARD_H + 18);
+    doc.rect(x, y, CARD_W, CARD_H).lineWidth(0.5).strokeColor('#c8c8c4').stroke();
+    // Swatch on a neutral grey surround so the colour is judged fairly.
+    doc.rect(x + 12, y + 12, 130, 130).fill('#bdbdb9');
+    if (c.colour) doc.rect(x + 20, y + 20, 114, 114).fill(c.colour.hex);
+    else doc.fillColor('#444').font('sans').fontSize(8).text('no colour recorded yet', x + 24, y + 72, { width: 106, align: 'center' });
+    if (c.target) {
+      doc.rect(x + 12, y + 150, 130, 30).fill('#bdbdb9');
+      doc.rect(x + 20, y + 155, 114, 20).fill(c.target.hex);
+    }
+    doc.fillColor('#222').font('sans').fontSize(7);
+    doc.text(c.colour ? `${c.colour.source === 'measured' ? 'measured' : 'image estimate'}  L* ${c.colour.L.toFixed(1)}  a* ${c.colour.a.toFixed(1)}  b* ${c.colour.b.toFixed(1)}` : '', x + 12, y + 186, { width: 140 });
+    doc.text(c.target ? 'target (lower strip)' : 'no target colour', x + 12, y + 198, { width: 140 });
+
+    const tx = x + 156;
+    doc.font('sans-bold').fontSize(14).fillColor('#111').text(c.code, tx, y + 14, { width: 260 });
+    doc.font('sans').fontSize(8.5).fillColor('#333');
+    const cell = c.cell ? Object.entries(c.cell).map(([k, v]) => `${k}: ${v}`).join(' · ') : null;
+    doc.text([`${c.fibre ?? 'fibre not set'}, ${c.dryMassG} g dry`, cell, `status: ${c.status}`].filter(Boolean).join('\n'), tx, y + 36, { width: 260 });
+    doc.moveDown(0.4).fontSize(7.5).text(c.steps.length ? c.steps.join('\n') : 'No recipe steps yet.', { width: 260, height: 120, ellipsis: true });
+    doc.font('sans-bold').fontSize(10).fillColor('#111').text(c.deltaE00 != null ? `ΔE00 to target: ${c.deltaE00.toFixed(2)} (${c.verdict})` : 'ΔE00 to target: —', tx, y + CARD_H - 34, { width: 260 });
+    if (c.words.length) doc.font('sans').fontSize(8).fillColor('#333').text(`than the target: ${c.words.join(', ')}`, tx, y + CARD_H - 20, { width: 260 });
+
+    doc.image(await qrPng(c.url), x + CARD_W - 102, y + 12, { width: 90, height: 90 });
+    doc.font('sans').fontSize(6.5).fillColor(GREY).text(c.url, x + CARD_W - 106, y + 106, { width: 98, align: 'center' });
+  }
+  if (!cards.length) doc.font('sans').fontSize(11).text('This series has no trials yet.');
+  return finish(doc);
+}

@@ -1,0 +1,28 @@
+import path from 'node:path';
+import PDFDocument from 'pdfkit';
+import QRCode from 'qrcode';
+import { ROOT_DIR } from '../env.ts';
+
+const FONT_DIR = path.join(ROOT_DIR, 'fonts');
+
+/** A new A4 document with the shipped IBM Plex Sans (pdfkit reads WOFF, not WOFF2). */
+export function newDoc(title: string) {
+  const doc = new PDFDocument({ size: 'A4', margin: 36, info: { Title: title, Creator: 'Tinctoria' } });
+  doc.registerFont('sans', path.join(FONT_DIR, 'IBMPlexSans-Regular.woff'));
+  doc.registerFont('sans-bold', path.join(FONT_DIR, 'IBMPlexSans-SemiBold.woff'));
+  doc.font('sans');
+  return doc;
+}
+
+export function finish(doc: PDFKit.PDFDocument): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = [];
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+    doc.end();
+  });
+}
+
+/** The QR image drawn on cards: exposed on its own so tests can decode exactly what is embedded. */
+export const qrPng = (url: string) => QRCode.toBuffer(url, { type: 'png', errorCorrectionLevel: 'M', margin: 2, scale: 6 });

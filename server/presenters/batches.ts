@@ -1,0 +1,42 @@
+import { DISPOSAL_NOTICE } from '../../shared/schemas/batches.ts';
+import type { ChemicalView } from '../../shared/schemas/reference.ts';
+import type { BatchEvent, MordantBatch } from '../models/index.ts';
+import type { Figures } from '../services/batches/ledger-figures.ts';
+
+export const presentBatchEvent = (e: BatchEvent, trialCodes: ReadonlyMap<number, string> = new Map()) => ({
+  id: e.id, type: e.type, volumeMl: e.volumeMl, fibreMassG: e.fibreMassG, trialId: e.trialId, trialCode: e.trialId ? (trialCodes.get(e.trialId) ?? null) : null, additions: e.additions, ph: e.ph,
+  result: e.result, route: e.route, ruleFollowed: e.ruleFollowed, notes: e.notes, occurredAt: e.occurredAt.toISOString(), createdById: e.createdById,
+});
+
+const STRIP_REASONS = { 'low-strength': 'the estimated strength is below half the fresh bath', drift: 'the strips have drifted', 'many-uses': 'three uses have passed without a strip' } as const;
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+export function presentBatchSummary(b: MordantBatch, f: Figures) {
+  return {
+    id: b.id, code: b.code, kind: b.kind, name: b.name, volumeMl: b.volumeMl, status: b.status, madeOn: b.madeOn, madeById: b.madeById,
+    checkBy: b.checkBy, dueForCheck: b.status === 'active' && b.checkBy != null && b.checkBy <= today(), parentId: b.parentId,
+    remainingMl: f.remainingMl, uses: f.uses, fibreMassG: f.fibreMassG,
+    estimatedStrength: { value: f.estimatedStrength, estimate: true, basis: 'relative to the bath as made (1 = as made), from the uptake per use the dyer set; an estimate, not a measurement' },
+  };
+}
+
+export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], extra: { trialCodes: ReadonlyMap<number, string>; cautions: ChemicalView[]; parent: { id: number; code: string } | null; children: Array<{ id: number; code: string; name: string }>; abilities: Record<string, boolean> }) {
+  return {
+    ...presentBatchSummary(b, f),
+    ingredients: b.ingredients, thickenerGPerL: b.thickenerGPerL, ph: b.ph, uptakePerUse: b.uptakePerUse, notes: b.notes,
+    topUpSuggestion: f.topUp
+      ? { items: f.topUp.ingredients, waterMl: f.topUp.waterMl, usesSinceTopUp: f.topUp.usesSinceTopUp, rule: `Add ${f.topUp.rule.minFraction * 100}–${f.topUp.rule.maxFraction * 100} % of the original charge for each use since the last top-up, and water back to the made volume (${f.topUp.rule.source}); confirm with a test strip.` }
+      : null,
+    testStripPrompt: f.testStrip.due ? `Dye a test strip before the next use: ${f.testStrip.reasons.map((r) => STRIP_REASONS[r]).join('; ')}.` : null,
+    timeline: f.timeline,
+    events: events.map((e) => presentBatchEvent(e, extra.trialCodes)),
+    cautions: extra.cautions, parent: extra.parent, children: extra.children,
+    disposalNotice: DISPOSAL_NOTICE,
+    abilities: extra.abilities,
+  };
+}
+
+export type BatchSummary = ReturnType<typeof presentBatchSummary>;
+export type BatchDetail = ReturnType<typeof presentBatch>;
+export type BatchEventOut = ReturnType<typeof presentBatchEvent>;

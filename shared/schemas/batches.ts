@@ -1,0 +1,91 @@
+import { z } from 'zod';
+
+export const BATCH_KINDS = ['mordant-bath', 'print-paste', 'dye-bath', 'vat'] as const;
+export const BATCH_STATUSES = ['active', 'exhausted', 'disposed'] as const;
+export const BATCH_EVENT_TYPES = ['use', 'top-up', 'water', 'test-strip', 'ph', 'disposal'] as const;
+
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date such as 2024-03-04');
+const ml = (label: string) => z.number({ error: `Enter ${label} in mL` }).positive(`${label} must be more than 0 mL`).max(1_000_000, `${label} must be at most 1,000,000 mL`);
+
+export const batchIngredientSchema = z.object({
+  kind: z.enum(['dyestuff', 'chemical']),
+  refId: z.number().int().positive(),
+  name: z.string().trim().min(1).max(160),
+  grams: z.number().positive('Enter the amount in g').max(100_000),
+});
+export type BatchIngredientInput = z.infer<typeof batchIngredientSchema>;
+
+export const batchCreateSchema = z.object({
+  code: z.string().trim().min(2, 'Give the batch a code such as MB-12').max(20).regex(/^[A-Za-z0-9-]+$/, 'Letters, digits and dashes only'),
+  kind: z.enum(BATCH_KINDS),
+  name: z.string().trim().min(1, 'Name the batch').max(160),
+  ingredients: z.array(batchIngredientSchema).max(30).default([]),
+  volumeMl: ml('The volume'),
+  thickenerGPerL: z.number().min(0).max(500).nullable().default(null),
+  ph: z.number().min(0).max(14).nullable().default(null),
+  madeOn: isoDate,
+  checkBy: isoDate.nullable().default(null),
+  parentId: z.number().int().positive().nullable().default(null),
+  // Share of the strength taken by one use: a dyer's estimate, not a measurement.
+  uptakePerUse: z.number().min(0).max(1).default(0.1),
+  notes: z.string().trim().max(4000).nullable().default(null),
+});
+export type BatchCreateInput = z.infer<typeof batchCreateSchema>;
+
+export const batchUpdateSchema = z
+  .object({
+    name: z.string().trim().min(1).max(160),
+    checkBy: isoDate.nullable(),
+    thickenerGPerL: z.number().min(0).max(500).nullable(),
+    ph: z.number().min(0).max(14).nullable(),
+    uptakePerUse: z.number().min(0).max(1),
+    notes: z.string().trim().max(4000).nullable(),
+  })
+  .partial();
+export type BatchUpdateInput = z.infer<typeof batchUpdateSchema>;
+
+export const batchListQuery = z.object({
+  status: z.enum(BATCH_STATUSES).optional(),
+  kind: z.enum(BATCH_KINDS).optional(),
+  due: z.enum(['1', 'true']).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(50),
+});
+
+/** One ledger event; which fields are required depends on its type. */
+export const batchEventSchema = z
+  .object({
+    type: z.enum(BATCH_EVENT_TYPES),
+    volumeMl: ml('The volume').optional(),
+    trialId: z.number().int().positive().optional(),
+    // A trial may also be named by its code (T-YYYY-NNN), as dyers write it on the jar.
+    trialCode: z.string().trim().regex(/^T-\d{4}-\d{3,}$/, 'Use a trial code such as T-2024-001').optional(),
+    fibreMassG: z.number().positive('Enter the fibre mass in g').max(100_000).optional(),
+    additions: z.array(batchIngredientSchema).max(30).optional(),
+    ph: z.number().min(0).max(14).optional(),
+    result: z.string().trim().min(1).max(255).optional(),
+    route: z.string().trim().min(1).max(255).optional(),
+    ruleFollowed: z.string().trim().min(1).max(255).optional(),
+    reason: z.string().trim().min(1).max(1000).optional(),
+    notes: z.string().trim().max(4000).optional(),
+    occurredAt: z.iso.datetime().optional(),
+  })
+  .superRefine((e, ctx) => {
+    const need = (field: keyof typeof e, message: string) => {
+      if (e[field] === undefined) ctx.addIssue({ code: 'custom', path: [field], message });
+    };
+    if (e.type === 'use') need('volumeMl', 'Enter the volume drawn in mL');
+    if (e.type === 'water') need('volumeMl', 'Enter the water added in mL');
+    if (e.type === 'top-up' && !e.additions?.length && e.volumeMl === undefined) ctx.addIssue({ code: 'custom', path: ['additions'], message: 'Add a chemical or a volume' });
+    if (e.type === 'test-strip') need('result', 'Describe what the strip showed');
+    if (e.type === 'ph') need('ph', 'Enter the pH reading');
+    if (e.type === 'disposal') {
+      need('route', 'Say how it was disposed of (e.g. collected by a licensed waste contractor)');
+      need('ruleFollowed', 'Name the local rule or the safety data sheet section followed');
+    }
+  });
+export type BatchEventInput = z.infer<typeof batchEventSchema>;
+
+/** Said wherever disposal comes up; the product gives no disposal advice of its own. */
+export const DISPOSAL_NOTICE =
+  'Dispose of spent baths only as your local regulations and the supplier’s safety data sheet require; where they call for it, use a licensed waste contractor. Tinctoria gives no disposal advice of its own.';

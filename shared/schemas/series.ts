@@ -1,0 +1,52 @@
+import { z } from 'zod';
+
+/** A mordant level: which chemical, and how much of it in % owf. */
+export const mordantLevelSchema = z.object({
+  level: z.string().trim().min(1).max(40),
+  chemicals: z.array(z.object({ refId: z.number().int().positive().nullable().default(null), name: z.string().min(1).max(160), owf: z.number().positive().max(200) })).min(1),
+});
+
+export const factorSchema = z.object({
+  name: z.string().trim().min(1, 'Name the factor').max(40),
+  // What the factor changes in the recipe: a dyestuff or tannin amount in % owf, or the mordant used.
+  role: z.enum(['dyestuff', 'tannin', 'mordant', 'other']).default('other'),
+  refId: z.number().int().positive().nullable().default(null),
+  refName: z.string().trim().max(160).nullable().default(null),
+  levels: z.array(z.string().trim().min(1, 'Empty level').max(40)).min(1, 'Give at least one level').max(12),
+  mordants: z.array(mordantLevelSchema).max(12).optional(),
+});
+export type FactorInput = z.infer<typeof factorSchema>;
+
+export const seriesCreateSchema = z.object({
+  code: z.string().trim().min(2).max(20).regex(/^[A-Za-z0-9-]+$/, 'Letters, digits and dashes only'),
+  title: z.string().trim().min(1, 'Give the series a title').max(200),
+  kind: z.enum(['series', 'workshop']).default('series'),
+  pieceId: z.number().int().positive().nullable().default(null),
+  factors: z.array(factorSchema).min(1, 'Add at least one factor').max(6),
+  participants: z.array(z.string().trim().min(1).max(20)).max(60).default([]),
+  dryMassG: z.number().positive('Enter the dry mass per cell in g').max(10_000),
+  liquorRatio: z.number().positive().max(200).default(30),
+  deadVolumePct: z.number().min(0).max(100).default(10),
+  heldOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).nullable().default(null),
+  notes: z.string().trim().max(4000).nullable().default(null),
+});
+export type SeriesCreateInput = z.infer<typeof seriesCreateSchema>;
+
+export const seriesUpdateSchema = z
+  .object({
+    title: z.string().trim().min(1).max(200),
+    participants: z.array(z.string().trim().min(1).max(20)).max(60),
+    dryMassG: z.number().positive().max(10_000),
+    deadVolumePct: z.number().min(0).max(100),
+    // Cells kept, as their keys (see cellKey); the others are pruned.
+    keep: z.array(z.string().min(1).max(400)).max(2000),
+    notes: z.string().trim().max(4000).nullable(),
+  })
+  .partial();
+export type SeriesUpdateInput = z.infer<typeof seriesUpdateSchema>;
+
+export const seriesListQuery = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(50),
+});
+
