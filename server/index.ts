@@ -10,6 +10,10 @@ const seeded = await seed();
 if (seeded.demo) console.log('[tinctoria] demo scenario seeded');
 
 const app = createApp();
+const { searchEngine } = await import('./search/engine.ts');
+const t0 = Date.now();
+await searchEngine.ready();
+console.log(`[tinctoria] search indexes loaded in ${Date.now() - t0} ms`);
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`[tinctoria] serving at ${publicUrl}`);
 });
