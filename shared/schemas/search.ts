@@ -7,7 +7,7 @@ const many = z
   .transform((v) => (Array.isArray(v) ? v : [v]).map((s) => s.trim()).filter(Boolean))
   .pipe(z.array(z.string().max(160, 'Use at most 160 characters')).max(10, 'Choose at most 10 values'))
   .optional();
-const int = (min: number, max: number, msg: string) => z.coerce.number<string | number>({ error: msg }).int(msg).min(min, msg).max(max, msg);
+const int = (min: number, max: number, msg: string) => z.coerce.number<string>({ error: msg }).int(msg).min(min, msg).max(max, msg);
 
 export const searchFiltersSchema = z.object({
   q: z.string().trim().max(200, 'Use at most 200 characters').optional(),
