@@ -105,6 +105,7 @@ export class TextIndex {
     const results = this.ms.search(q, {
       prefix: (term) => term.length >= 2,
       fuzzy: (term) => (term.length >= 5 ? 0.2 : term.length >= 4 ? 1 : 0),
+      maxFuzzy: 2,
       boost: BOOST,
       combineWith: 'AND',
       filter: (r) => withTrials || r.kind === 'piece',
@@ -122,17 +123,6 @@ export class TextIndex {
       hits.set(pieceId, hit);
     }
     return hits;
-  }
-
-  /** Unmatched trials the signed-in user may want to open directly. */
-  trialHits(q: string, limit: number) {
-    return this.ms
-      .search(q, { prefix: true, fuzzy: 0.2, boost: BOOST, combineWith: 'AND', filter: (r) => r.kind === 'trial' })
-      .slice(0, limit)
-      .map((r) => {
-        const t = this.trials.get(r.refId as number)!;
-        return { id: t.id, code: t.code, pieceId: t.pieceId, score: r.score, terms: r.terms };
-      });
   }
 }
 
