@@ -5,6 +5,7 @@ export const paths = {
   archive: () => '/archive',
   piece: (id: number | string) => `/archive/${id}`,
   search: () => '/search',
+  shadeSearch: (hex: string, maxDeltaE?: number) => `/search?hex=${hex}${maxDeltaE ? `&maxDeltaE=${maxDeltaE}` : ''}`,
   trials: () => '/trials',
   trial: (id: number | string) => `/trials/${id}`,
   baths: () => '/baths',

@@ -3,6 +3,7 @@ import { AppShell } from './components/AppShell';
 import { Home } from './routes/Home';
 import { NotFound, RouteError } from './routes/NotFound';
 import { SignIn } from './routes/SignIn';
+import { Search } from './routes/Search';
 
 export const router = createBrowserRouter([
   {
@@ -11,6 +12,7 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: <Home /> },
       { path: 'sign-in', element: <SignIn /> },
+      { path: 'search', element: <Search /> },
       { path: '*', element: <NotFound /> },
     ],
   },

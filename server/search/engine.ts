@@ -23,7 +23,7 @@ class SearchEngine {
 
   /** Load both indexes (once); later calls wait for the same load. */
   ready(): Promise<void> {
-    this.loading ??= this.reloadAll().catch((err) => {
+    this.loading ??= Promise.all([this.reloadText(), this.reloadShade()]).then(() => undefined).catch((err) => {
       this.loading = null;
       throw err;
     });
@@ -34,8 +34,11 @@ class SearchEngine {
     return this.loading !== null;
   }
 
+  /** Read everything again from MariaDB (start-up, and the benchmark between data sets). */
   async reloadAll() {
-    await Promise.all([this.reloadText(), this.reloadShade()]);
+    const load = Promise.all([this.reloadText(), this.reloadShade()]).then(() => undefined);
+    this.loading ??= load;
+    await load;
   }
 
   private async reloadText() {

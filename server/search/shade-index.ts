@@ -13,7 +13,17 @@ import { shadeBox } from './shade-bounds.ts';
  */
 export type ShadeRow = { id: number; photoId: number; L: number; a: number; b: number; hex: string; share: number };
 export type ShadeMatch = { pieceId: number; photoId: number; colourId: number; L: number; a: number; b: number; hex: string; share: number; deltaE00: number };
-export type ShadeQuery = { L: number; a: number; b: number; maxDeltaE: number; limit: number; offset?: number; allow?: Uint8Array | null };
+export type ShadeQuery = {
+  L: number;
+  a: number;
+  b: number;
+  maxDeltaE: number;
+  limit: number;
+  offset?: number;
+  allow?: Uint8Array | null;
+  /** Skip the prefilter and compute ΔE00 for every colour: the brute-force scan the benchmark compares against. */
+  scanAll?: boolean;
+};
 
 const CELL = 2;
 const L_MIN = 0;
@@ -197,7 +207,7 @@ export class ShadeIndex {
   query(q: ShadeQuery): { total: number; items: ShadeMatch[]; candidates: number } {
     const { L: qL, a: qa, b: qb, maxDeltaE: r } = q;
     const qC = Math.hypot(qa, qb);
-    const box = shadeBox(q, r);
+    const box = q.scanAll ? { hwL: Infinity, hwAB: Infinity } : shadeBox(q, r);
     const gen = ++this.gen;
     const stamp = this.pieceStamp;
     const bestSlot = this.pieceBest;
@@ -242,11 +252,13 @@ export class ShadeIndex {
     const a1 = abIdx(qa + box.hwAB);
     const b0 = abIdx(qb - box.hwAB);
     const b1 = abIdx(qb + box.hwAB);
-    for (let li = l0; li <= l1; li++)
-      for (let ai = a0; ai <= a1; ai++) {
-        const base = (li * NAB + ai) * NAB;
-        scan(this.main, this.start[base + b0], this.start[base + b1 + 1], 0);
-      }
+    if (q.scanAll) scan(this.main, 0, this.main.n, 0);
+    else
+      for (let li = l0; li <= l1; li++)
+        for (let ai = a0; ai <= a1; ai++) {
+          const base = (li * NAB + ai) * NAB;
+          scan(this.main, this.start[base + b0], this.start[base + b1 + 1], 0);
+        }
     scan(this.tail, 0, this.tail.n, TAIL_BIT);
 
     const need = (q.offset ?? 0) + q.limit;

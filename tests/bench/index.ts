@@ -1,7 +1,8 @@
 import { healthBench } from './health.bench.ts';
+import { searchBench } from './search.bench.ts';
 
 export type BenchResult = { metric: string; value: number; unit: string; target?: string; pass?: boolean };
 export type Bench = { name: string; run: () => Promise<BenchResult[]> };
 
 // Each benchmark registers here.
-export const benches: Bench[] = [healthBench];
+export const benches: Bench[] = [healthBench, searchBench];
