@@ -92,7 +92,7 @@ export function Search() {
           {shadeError ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
           {text.error && !hasShade ? <p className="text-danger text-sm mb-2">{text.error.message}</p> : null}
           <p className="text-sm text-ink-soft mb-3" data-testid="result-count">
-            {list ? (hasShade ? `${total} pieces within ΔE00 ${shade.data?.query.maxDeltaE} of ${shade.data?.query.hex}` : `${total} pieces`) : 'Searching…'}
+            {list ? `${total} ${total === 1 ? 'piece' : 'pieces'}${hasShade ? ` within ΔE00 ${shade.data?.query.maxDeltaE} of ${shade.data?.query.hex}` : ''}` : 'Searching…'}
           </p>
           {hasShade && shade.data ? (
             <div className="space-y-4">
