@@ -18,7 +18,24 @@ export type PieceDoc = {
   fibres: string[];
   centuries: number[];
   status: 'draft' | 'published';
+  /** Facet values, lower-cased and de-duplicated once here so facet counting does no string work per query. */
+  keys: Record<FacetKey, string[]>;
 };
+export type FacetKey = 'dyestuff' | 'historicalMordant' | 'modernMordant' | 'fibre' | 'technique' | 'century' | 'place' | 'status';
+
+const keyList = (xs: Array<string | number>) => [...new Set(xs.map((x) => String(x).trim().toLowerCase()).filter(Boolean))];
+export function facetKeys(d: Omit<PieceDoc, 'keys'>): Record<FacetKey, string[]> {
+  return {
+    dyestuff: keyList(d.dyestuffs),
+    historicalMordant: keyList(d.historicalMordants),
+    modernMordant: keyList(d.modernMordants),
+    fibre: keyList(d.fibres),
+    technique: keyList(d.techniques),
+    century: keyList(d.centuries),
+    place: keyList(d.place ? [d.place] : []),
+    status: [d.status],
+  };
+}
 
 /** A reproduction trial: its code, notes and the modern mordants of its substitutions and recipe. */
 export type TrialDoc = { id: number; code: string; pieceId: number | null; notes: string; modernMordants: string[]; dyestuffs: string[] };
@@ -50,7 +67,7 @@ export function centuriesOf(earliest: number | null, latest: number | null): num
 type PieceRow = Record<string, unknown> & { id: number };
 
 function pieceDoc(r: PieceRow, modern: string[]): PieceDoc {
-  return {
+  const doc = {
     id: r.id,
     accessionNumber: String(r.accessionNumber),
     title: String(r.title),
@@ -65,8 +82,9 @@ function pieceDoc(r: PieceRow, modern: string[]): PieceDoc {
     modernMordants: modern,
     fibres: json<string[]>(r.fibres, []),
     centuries: centuriesOf(r.earliestYear as number | null, r.latestYear as number | null),
-    status: r.status === 'published' ? 'published' : 'draft',
+    status: r.status === 'published' ? ('published' as const) : ('draft' as const),
   };
+  return { ...doc, keys: facetKeys(doc) };
 }
 
 const PIECE_COLS = 'id, accessionNumber, title, objectName, description, provenance, place, dateText, techniques, dyestuffs, historicalMordants, fibres, earliestYear, latestYear, status';

@@ -21,27 +21,6 @@ const ordinal = (n: number) => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['
 const centuryLabel = (c: number) => `${ordinal(c)} century (${(c - 1) * 100}–${(c - 1) * 100 + 99})`;
 const norm = (s: string) => s.trim().toLowerCase();
 
-function valuesOf(doc: PieceDoc, f: FacetName): string[] {
-  switch (f) {
-    case 'dyestuff':
-      return doc.dyestuffs;
-    case 'historicalMordant':
-      return doc.historicalMordants;
-    case 'modernMordant':
-      return doc.modernMordants;
-    case 'fibre':
-      return doc.fibres;
-    case 'technique':
-      return doc.techniques;
-    case 'century':
-      return doc.centuries.map(String);
-    case 'place':
-      return doc.place ? [doc.place] : [];
-    case 'status':
-      return [doc.status];
-  }
-}
-
 type Selected = Partial<Record<FacetName, Set<string>>> & { mordant?: Set<string> };
 
 function selected(f: SearchFilters): Selected {
@@ -65,51 +44,67 @@ function passes(doc: PieceDoc, sel: Selected, skip?: FacetName): boolean {
   for (const f of FACETS) {
     const want = sel[f];
     if (!want || f === skip) continue;
-    const have = new Set(valuesOf(doc, f).map(norm));
+    const have = doc.keys[f];
     if (NARROWING.has(f)) {
-      for (const w of want) if (!have.has(w)) return false;
-    } else if (![...want].some((w) => have.has(w))) return false;
+      for (const w of want) if (!have.includes(w)) return false;
+    } else if (!have.some((h) => want.has(h))) return false;
   }
   if (sel.mordant) {
-    const have = new Set([...doc.historicalMordants, ...doc.modernMordants].map(norm));
-    for (const w of sel.mordant) if (!have.has(w)) return false;
+    for (const w of sel.mordant) if (!doc.keys.historicalMordant.includes(w) && !doc.keys.modernMordant.includes(w)) return false;
   }
   return true;
 }
 
-function visibleDocs(actor: Actor): PieceDoc[] {
-  const all = [...searchEngine.text.pieces.values()];
-  return can(actor, 'piece:list-drafts') ? all : all.filter((d) => d.status === 'published');
+function visibleDocs(actor: Actor, ids?: Iterable<number>): PieceDoc[] {
+  const drafts = can(actor, 'piece:list-drafts');
+  const out: PieceDoc[] = [];
+  const pieces = searchEngine.text.pieces;
+  if (ids) {
+    for (const id of ids) {
+      const d = pieces.get(id);
+      if (d && (drafts || d.status === 'published')) out.push(d);
+    }
+  } else for (const d of pieces.values()) if (drafts || d.status === 'published') out.push(d);
+  return out;
 }
 
 /** Pieces passing visibility, text and every filter; with the text hits for ranking and highlights. */
 function candidates(actor: Actor, f: SearchFilters) {
-  let docs = visibleDocs(actor);
-  let hits: Map<number, TextHit> | null = null;
-  if (f.q) {
-    hits = searchEngine.text.search(f.q, can(actor, 'trial:read'));
-    docs = docs.filter((d) => hits!.has(d.id));
-  }
+  const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
+  const docs = visibleDocs(actor, hits?.keys());
   const sel = selected(f);
-  return { textMatched: docs, matched: docs.filter((d) => passes(d, sel)), hits, sel };
+  return { textMatched: docs, matched: Object.keys(sel).length ? docs.filter((d) => passes(d, sel)) : docs, hits, sel };
+}
+
+// Display labels: the first spelling met for each lower-cased value.
+function labelFor(d: PieceDoc, f: FacetName, key: string): string {
+  if (f === 'century') return centuryLabel(Number(key));
+  if (f === 'status') return key;
+  const src = { dyestuff: d.dyestuffs, historicalMordant: d.historicalMordants, modernMordant: d.modernMordants, fibre: d.fibres, technique: d.techniques, place: [d.place] }[f];
+  return src.find((v) => norm(v) === key) ?? key;
 }
 
 function facetCounts(docs: PieceDoc[], sel: Selected): FacetCounts {
-  const out = {} as FacetCounts;
-  for (const f of FACETS) {
-    const pool = NARROWING.has(f) ? docs.filter((d) => passes(d, sel)) : docs.filter((d) => passes(d, sel, f));
-    const counts = new Map<string, { label: string; count: number }>();
-    for (const d of pool)
-      for (const v of new Set(valuesOf(d, f))) {
-        const key = norm(v);
-        const c = counts.get(key) ?? { label: f === 'century' ? centuryLabel(Number(v)) : v, count: 0 };
-        c.count++;
-        counts.set(key, c);
+  const counts = Object.fromEntries(FACETS.map((f) => [f, new Map<string, { label: string; count: number }>()])) as Record<FacetName, Map<string, { label: string; count: number }>>;
+  const anyOr = FACETS.some((f) => !NARROWING.has(f) && sel[f]);
+  for (const d of docs) {
+    const all = passes(d, sel);
+    for (const f of FACETS) {
+      if (!(NARROWING.has(f) || !anyOr || !sel[f] ? all : passes(d, sel, f))) continue;
+      const m = counts[f];
+      for (const key of d.keys[f]) {
+        const c = m.get(key);
+        if (c) c.count++;
+        else m.set(key, { label: labelFor(d, f, key), count: 1 });
       }
-    out[f] = [...counts.entries()]
-      .map(([value, c]) => ({ value: f === 'century' ? value : c.label, label: c.label, count: c.count }))
-      .sort((x, y) => (f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label)));
+    }
   }
+  const out = {} as FacetCounts;
+  for (const f of FACETS)
+    out[f] = [...counts[f].entries()]
+      .map(([key, c]) => ({ value: f === 'century' ? key : c.label, label: c.label, count: c.count }))
+      .sort((x, y) => (f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label)))
+      .slice(0, 100);
   return out;
 }
 
