@@ -31,6 +31,9 @@ const same = (idx: ShadeIndex, q: { L: number; a: number; b: number; maxDeltaE: 
   const got = idx.query({ ...q, limit: want.length + 5 });
   expect(got.total).toBe(want.length);
   expect(got.items.map((m) => [m.pieceId, m.deltaE00])).toEqual(want.map((m) => [m.pieceId, m.deltaE00]));
+  // The benchmark's brute-force baseline (no prefilter, typed arrays) must agree too.
+  const scan = idx.query({ ...q, limit: want.length + 5, scanAll: true });
+  expect(scan.items.map((m) => m.pieceId)).toEqual(want.map((m) => m.pieceId));
   return want.length;
 };
 
