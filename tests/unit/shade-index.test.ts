@@ -41,6 +41,7 @@ describe('shade prefilter box (shade-bounds.ts)', () => {
   it('never excludes a colour within the ΔE00 radius: 40 000 pairs placed just inside the radius, biased to greys and blues', () => {
     let checked = 0;
     const missed: unknown[] = [];
+    let naiveMissed = 0;
     for (let i = 0; i < 40_000; i++) {
       const q = i % 3 === 0 ? { L: rnd() * 100, a: gauss() * 3, b: gauss() * 3 } : colour(i);
       const r = [0.5, 1, 2, 5, 10, 20, 30][i % 7];
@@ -57,11 +58,14 @@ describe('shade prefilter box (shade-bounds.ts)', () => {
       if (deltaE00(q, s) > r) continue;
       const box = shadeBox(q, r);
       if (Math.abs(s.L - q.L) > box.hwL || Math.abs(s.a - q.a) > box.hwAB || Math.abs(s.b - q.b) > box.hwAB) missed.push({ q, s, r, box });
+      if (Math.abs(s.L - q.L) > r || Math.abs(s.a - q.a) > r || Math.abs(s.b - q.b) > r) naiveMissed++;
       checked++;
     }
     expect(missed).toEqual([]);
+    // The same points defeat a naive ±r box, so this check has teeth.
+    expect(naiveMissed / checked).toBeGreaterThan(0.3);
     expect(checked).toBeGreaterThan(30_000);
-  });
+  }, 180_000);
 
   it('is far tighter than "everything" away from blue hues, and wider than a naive ±r box', () => {
     const red = shadeBox({ L: 45, a: 45, b: 25 }, 5);
@@ -74,14 +78,14 @@ describe('shade prefilter box (shade-bounds.ts)', () => {
 describe('shade index = brute-force CIEDE2000 scan', () => {
   const idx = build(12_000, 1_500);
 
-  it('on 250 random queries (uniform, clustered, grey, radius 0.5–30), same pieces in the same order with the same ΔE00', () => {
+  it('on 150 random queries (uniform, clustered, grey, radius 0.5–30), same pieces in the same order with the same ΔE00', () => {
     let matches = 0;
-    for (let i = 0; i < 250; i++) {
+    for (let i = 0; i < 150; i++) {
       const base = i % 2 ? colour(i) : { L: rnd() * 100, a: rnd() * 160 - 80, b: rnd() * 160 - 80 };
       matches += same(idx, { ...base, maxDeltaE: [0.5, 2, 5, 5, 10, 30][i % 6] });
     }
-    expect(matches).toBeGreaterThan(2_000);
-  });
+    expect(matches).toBeGreaterThan(1_000);
+  }, 180_000);
 
   it('at colours lying exactly on the radius edge and at the a*b* origin', () => {
     const rows = [...idx.entries()].slice(0, 60);
@@ -90,7 +94,7 @@ describe('shade index = brute-force CIEDE2000 scan', () => {
       same(idx, { ...q, maxDeltaE: deltaE00(q, c) });
     }
     for (const L of [0, 5, 25, 50, 75, 95, 100]) same(idx, { L, a: 0, b: 0, maxDeltaE: 4 });
-  });
+  }, 180_000);
 
   it('honours an allow-list of pieces and pages through a bounded selection', () => {
     const allow = new Uint8Array(1501);
