@@ -49,9 +49,17 @@ class SearchEngine {
 
   private async reloadShade() {
     const photos = await sequelize.query<{ id: number; pieceId: number | null }>('SELECT id, pieceId FROM photos', { type: QueryTypes.SELECT });
-    const rows = await sequelize.query<ShadeRow>('SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0', {
-      type: QueryTypes.SELECT,
-    });
+    // In keyset-paged chunks: one 1M-row result set can stall past the server's net_write_timeout.
+    const rows: ShadeRow[] = [];
+    for (let after = 0; ; ) {
+      const chunk = await sequelize.query<ShadeRow>(
+        'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT 50000',
+        { replacements: [after], type: QueryTypes.SELECT },
+      );
+      for (const r of chunk) rows.push(r);
+      if (chunk.length < 50_000) break;
+      after = chunk[chunk.length - 1].id;
+    }
     this.shade.load(rows, photos);
   }
 
