@@ -5,7 +5,9 @@ import { hexToLab, labToHex } from '../../shared/search/lab.ts';
 import type { PieceDoc } from './docs.ts';
 import { searchEngine } from './engine.ts';
 import { highlights } from './highlight.ts';
-import type { TextHit } from './text-index.ts';
+import { selectTop } from './top.ts';
+
+const collator = new Intl.Collator('en', { numeric: true });
 
 /**
  * Text, facets and shade combined. Visitors only ever see published pieces;
@@ -112,8 +114,11 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
   await searchEngine.settled();
   const { textMatched, matched, hits, sel } = candidates(actor, input);
   const score = (d: PieceDoc) => hits?.get(d.id)?.score ?? 0;
-  const sorted = hits ? matched.sort((x, y) => score(y) - score(x) || x.id - y.id) : matched.sort((x, y) => x.accessionNumber.localeCompare(y.accessionNumber, 'en', { numeric: true }));
-  const page = sorted.slice((input.page - 1) * input.pageSize, input.page * input.pageSize);
+  // Rank only as far as the page asked for (bounded heap), not the whole match list.
+  const before = hits
+    ? (x: PieceDoc, y: PieceDoc) => score(x) > score(y) || (score(x) === score(y) && x.id < y.id)
+    : (x: PieceDoc, y: PieceDoc) => collator.compare(x.accessionNumber, y.accessionNumber) < 0;
+  const page = selectTop(matched, input.page * input.pageSize, before).slice((input.page - 1) * input.pageSize);
   const photos = searchEngine.shade.firstPhotoOf(page.map((d) => d.id));
   const items: SearchItem[] = page.map((d) => {
     const hit = hits?.get(d.id);

@@ -1,5 +1,6 @@
 import { deltaE00Raw } from './ciede2000.ts';
 import { shadeBox } from './shade-bounds.ts';
+import { selectTop } from './top.ts';
 
 /**
  * In-memory shade index over palette colours. Colours sit in flat typed arrays
@@ -293,41 +294,4 @@ const TAIL_BIT = 1 << 30;
 /** Ranking order: smaller ΔE00, then larger share, then lower piece id (stable across runs). */
 export function compareMatch(deA: number, shareA: number, pidA: number, deB: number, shareB: number, pidB: number) {
   return deA - deB || shareB - shareA || pidA - pidB;
-}
-
-/** The `need` best of `ids` in order, via a bounded max-heap: O(n log need). */
-function selectTop(ids: number[], need: number, better: (x: number, y: number) => boolean): number[] {
-  if (need <= 0) return [];
-  const heap: number[] = [];
-  const worse = (x: number, y: number) => better(y, x);
-  const up = (i: number) => {
-    while (i > 0) {
-      const p = (i - 1) >> 1;
-      if (!worse(heap[i], heap[p])) break;
-      [heap[i], heap[p]] = [heap[p], heap[i]];
-      i = p;
-    }
-  };
-  const down = (i: number) => {
-    for (;;) {
-      const l = 2 * i + 1;
-      const r = l + 1;
-      let m = i;
-      if (l < heap.length && worse(heap[l], heap[m])) m = l;
-      if (r < heap.length && worse(heap[r], heap[m])) m = r;
-      if (m === i) return;
-      [heap[i], heap[m]] = [heap[m], heap[i]];
-      i = m;
-    }
-  };
-  for (const id of ids) {
-    if (heap.length < need) {
-      heap.push(id);
-      up(heap.length - 1);
-    } else if (better(id, heap[0])) {
-      heap[0] = id;
-      down(0);
-    }
-  }
-  return heap.sort((x, y) => (better(x, y) ? -1 : better(y, x) ? 1 : 0));
 }
