@@ -132,7 +132,17 @@ function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
 
 /** Every live (not soft-deleted) piece and every trial, read once at start. */
 export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[] }> {
-  const rows = await sequelize.query<PieceRow>(`SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL`, { type: QueryTypes.SELECT });
+  // Keyset-paged: one huge result set can stall past the server's net_write_timeout.
+  const rows: PieceRow[] = [];
+  for (let after = 0; ; ) {
+    const chunk = await sequelize.query<PieceRow>(`SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT 20000`, {
+      replacements: [after],
+      type: QueryTypes.SELECT,
+    });
+    for (const r of chunk) rows.push(r);
+    if (chunk.length < 20_000) break;
+    after = chunk[chunk.length - 1].id;
+  }
   const trials = await trialDocs('', []);
   return { pieces: attachModern(rows, trials), trials };
 }
