@@ -124,6 +124,18 @@ describe('GET /api/search (text and facets)', () => {
     expect((await (await signedInAgent(app, 'curator')).get('/api/search').query({ q: word('medlar') })).body.total).toBe(0);
   });
 
+  it('is open to every role; drafts appear for signed-in roles only (role matrix)', async () => {
+    const visitor = await request(app).get('/api/search').query({ q: word('pomegranate') });
+    expect([visitor.status, visitor.body.total]).toEqual([200, 3]);
+    for (const role of ['admin', 'curator', 'researcher', 'dyer'] as const) {
+      const agent = await signedInAgent(app, role);
+      const res = await agent.get('/api/search').query({ q: word('pomegranate') });
+      expect([role, res.status, res.body.total]).toEqual([role, 200, 4]);
+      const shade = await agent.get('/api/search/shade').query({ hex: '9b2f2f', q: word('pomegranate'), maxDeltaE: 0.5 });
+      expect([role, shade.status, shade.body.items.map((i: { pieceId: number }) => i.pieceId).sort()]).toEqual([role, 200, [madderA.id, draftD.id].sort()]);
+    }
+  });
+
   it('answers 400 with per-field details for bad parameters', async () => {
     const res = await request(app).get('/api/search').query({ page: '0', century: 'x', q: 'a'.repeat(201) });
     expect(res.status).toBe(400);
