@@ -60,7 +60,8 @@ describe('search page in Chromium', () => {
     await expect(page.getByRole('list', { name: 'Shade matches' }).locator('li').count()).resolves.toBe(3);
 
     await page.getByRole('button', { name: 'Clear shade' }).click();
-    await page.getByRole('checkbox', { name: new RegExp(`^logwood${u}`) }).check();
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('4 pieces');
+    await page.getByRole('checkbox', { name: new RegExp(`^logwood${u}`) }).click();
     await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('1 piece');
     await expect(page.getByRole('list', { name: 'Pieces found' }).textContent()).resolves.toContain(accessions[0]);
     await page.getByRole('button', { name: 'Clear all' }).click();
