@@ -10,6 +10,7 @@ export const paths = {
   piece: (id: number | string) => `/archive/${id}`,
   pieceEdit: (id: number | string) => `/archive/${id}/edit`,
   search: () => '/search',
+  shadeSearch: (hex: string, maxDeltaE?: number) => `/search?hex=${hex}${maxDeltaE ? `&maxDeltaE=${maxDeltaE}` : ''}`,
   trials: () => '/trials',
   trial: (id: number | string) => `/trials/${id}`,
   trialNew: (pieceId?: number | string) => (pieceId != null ? `/trials/new?pieceId=${pieceId}` : '/trials/new'),

@@ -24,6 +24,7 @@ import { TrialsPage } from './features/trials/components/TrialsPage';
 import { TrialNewPage } from './features/trials/components/TrialNewPage';
 import { TrialPage } from './features/trials/components/TrialPage';
 import { SideBySidePage } from './features/trials/components/SideBySidePage';
+import { Search } from './routes/Search';
 
 export const router = createBrowserRouter([
   {
@@ -58,6 +59,7 @@ export const router = createBrowserRouter([
         ],
       },
       { element: <RequireAbility action="trial:create" />, children: [{ path: 'trials/new', element: <TrialNewPage /> }] },
+      { path: 'search', element: <Search /> },
       { path: '*', element: <NotFound /> },
     ],
   },

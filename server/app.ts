@@ -10,11 +10,14 @@ import { iiifRouter } from './routes/iiif/index.ts';
 import { mediaRouter } from './routes/media/index.ts';
 import { sessionMiddleware } from './auth/session.ts';
 import { passport } from './auth/passport.ts';
+import { installSearchHooks } from './search/hooks.ts';
 
 export type AppOptions = { clientDir?: string };
 
 /** The Express app, without listening: tests drive it with supertest. */
 export function createApp(options: AppOptions = {}) {
+  // Search indexes follow every write through model hooks; they load on first use (tests) or at start (server/index.ts).
+  installSearchHooks();
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

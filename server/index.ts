@@ -22,6 +22,10 @@ if (queuedTiles) console.log(`[tinctoria] deep-zoom tiles queued for ${queuedTil
 startWorker();
 
 const app = createApp();
+const { searchEngine } = await import('./search/engine.ts');
+const t0 = Date.now();
+await searchEngine.ready();
+console.log(`[tinctoria] search indexes loaded in ${Date.now() - t0} ms`);
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`[tinctoria] serving at ${publicUrl}`);
 });

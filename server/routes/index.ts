@@ -18,6 +18,7 @@ import { colourRouter } from './colour/index.ts';
 import { batchesRouter } from './batches/index.ts';
 import { seriesRouter } from './series/index.ts';
 import { trialCardsRouter } from './trial-cards/index.ts';
+import { searchRouter } from './search/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -45,5 +46,6 @@ export function apiRouter() {
   router.use('/batches', batchesRouter);
   router.use('/series', seriesRouter);
   router.use('/trials', trialCardsRouter);
+  router.use('/search', searchRouter);
   return router;
 }

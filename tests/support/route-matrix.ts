@@ -245,4 +245,7 @@ export const routeMatrix: MatrixRow[] = [
   row('GET /api/series/:id/cards.pdf', signedIn, { setup: seriesParams }),
   row('GET /api/series/:id/labels.pdf', signedIn, { setup: seriesParams }),
   row('GET /api/trials/:id/card.pdf', signedIn, { setup: trialParams }),
+
+  row('GET /api/search', everyone('2xx'), { setup: async () => ({ query: { q: 'madder' } }) }),
+  row('GET /api/search/shade', everyone('2xx'), { setup: async () => ({ query: { hex: '9b2f2f', maxDeltaE: '5' } }) }),
 ];

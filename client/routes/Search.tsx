@@ -1,0 +1,124 @@
+import { useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import type { FacetName } from '../../shared/schemas/search';
+import { Button } from '../components/Button';
+import { Page } from '../components/Page';
+import { ApiError } from '../lib/http';
+import { useSearch, useShade, type SearchParams } from '../features/search/api';
+import { AbPlot } from '../features/search/components/AbPlot';
+import { ColourChooser, type ShadeChoice } from '../features/search/components/ColourChooser';
+import { FacetList } from '../features/search/components/FacetList';
+import { ShadeResults } from '../features/search/components/ShadeResults';
+import { TextResults } from '../features/search/components/TextResults';
+
+const FACETS: FacetName[] = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'];
+const SHADE = ['hex', 'L', 'a', 'b', 'maxDeltaE'];
+
+/** Find: words, facets and shade together; every choice lives in the URL so it can be shared or linked. */
+export function Search() {
+  const [url, setUrl] = useSearchParams();
+  const params: SearchParams = {};
+  for (const k of new Set(url.keys())) params[k] = url.getAll(k).length > 1 ? url.getAll(k) : (url.get(k) ?? '');
+  const hasShade = Boolean(url.get('hex') || url.get('L'));
+  const text = useSearch(params);
+  const shade = useShade(params, hasShade);
+  const [q, setQ] = useState(url.get('q') ?? '');
+
+  const update = (fn: (u: URLSearchParams) => void) => {
+    const next = new URLSearchParams(url);
+    fn(next);
+    next.delete('page');
+    setUrl(next);
+  };
+  const chosen = (f: FacetName) => url.getAll(f);
+  const toggle = (f: FacetName, v: string) =>
+    update((u) => {
+      const have = u.getAll(f);
+      u.delete(f);
+      for (const x of have.includes(v) ? have.filter((y) => y !== v) : [...have, v]) u.append(f, x);
+    });
+  const clearFacets = () => update((u) => FACETS.forEach((f) => u.delete(f)));
+  const setShade = (c: ShadeChoice) =>
+    update((u) => {
+      SHADE.forEach((k) => u.delete(k));
+      for (const [k, v] of Object.entries(c)) if (v !== undefined && v !== '' && !Number.isNaN(v)) u.set(k, String(v));
+    });
+  const clearShade = () => update((u) => SHADE.forEach((k) => u.delete(k)));
+  const page = Number(url.get('page') ?? 1);
+  const goPage = (p: number) => {
+    const next = new URLSearchParams(url);
+    next.set('page', String(p));
+    setUrl(next);
+  };
+
+  const shadeError = shade.error instanceof ApiError ? shade.error : null;
+  const choice: ShadeChoice | null = hasShade
+    ? { hex: url.get('hex') ?? undefined, L: num(url.get('L')), a: num(url.get('a')), b: num(url.get('b')), maxDeltaE: num(url.get('maxDeltaE')) ?? 5 }
+    : null;
+  const list = hasShade ? shade.data : text.data;
+  const total = list?.total ?? 0;
+  const pageSize = list?.pageSize ?? 20;
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+
+  return (
+    <Page title="Find" lead="Search the archive by words, by dyestuff and mordant, and by shade within a CIEDE2000 radius.">
+      <form
+        role="search"
+        className="flex gap-2 mb-6"
+        onSubmit={(e) => {
+          e.preventDefault();
+          update((u) => (q.trim() ? u.set('q', q.trim()) : u.delete('q')));
+        }}
+      >
+        <label className="sr-only" htmlFor="search-q">
+          Words
+        </label>
+        <input
+          id="search-q"
+          type="search"
+          value={q}
+          onChange={(e) => setQ(e.target.value)}
+          placeholder="Accession number, title, dyestuff, mordant, place, trial code…"
+          className="flex-1 rounded-md border border-rule-strong bg-sheet px-3 py-2"
+        />
+        <Button type="submit">Search</Button>
+      </form>
+      <div className="grid gap-6 md:grid-cols-[16rem_1fr]">
+        <aside className="space-y-6">
+          <ColourChooser value={choice} errors={shadeError?.details?.fields} onSearch={setShade} onClear={clearShade} />
+          <FacetList facets={text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
+        </aside>
+        <section aria-live="polite" aria-busy={text.isFetching || shade.isFetching}>
+          {shadeError ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
+          {text.error && !hasShade ? <p className="text-danger text-sm mb-2">{text.error.message}</p> : null}
+          <p className="text-sm text-ink-soft mb-3" data-testid="result-count">
+            {list ? `${total} ${total === 1 ? 'piece' : 'pieces'}${hasShade ? ` within ΔE00 ${shade.data?.query.maxDeltaE} of ${shade.data?.query.hex}` : ''}` : 'Searching…'}
+          </p>
+          {hasShade && shade.data ? (
+            <div className="space-y-4">
+              {shade.data.items.length ? <AbPlot items={shade.data.items} query={shade.data.query} /> : null}
+              <ShadeResults items={shade.data.items} />
+            </div>
+          ) : !hasShade && text.data ? (
+            <TextResults items={text.data.items} />
+          ) : null}
+          {pages > 1 ? (
+            <nav aria-label="Pages" className="mt-4 flex items-center gap-3 text-sm">
+              <Button variant="secondary" disabled={page <= 1} onClick={() => goPage(page - 1)}>
+                Previous
+              </Button>
+              <span className="num">
+                Page {page} of {pages}
+              </span>
+              <Button variant="secondary" disabled={page >= pages} onClick={() => goPage(page + 1)}>
+                Next
+              </Button>
+            </nav>
+          ) : null}
+        </section>
+      </div>
+    </Page>
+  );
+}
+
+const num = (v: string | null) => (v === null || v === '' ? undefined : Number(v));

@@ -1,0 +1,91 @@
+import { z } from 'zod';
+import { HEX_RE } from '../search/lab.ts';
+
+// A facet parameter may be repeated (?dyestuff=madder&dyestuff=weld).
+const many = z
+  .union([z.string(), z.array(z.string())])
+  .transform((v) => (Array.isArray(v) ? v : [v]).map((s) => s.trim()).filter(Boolean))
+  .pipe(z.array(z.string().max(160, 'Use at most 160 characters')).max(10, 'Choose at most 10 values'))
+  .optional();
+const int = (min: number, max: number, msg: string) => z.coerce.number<string>({ error: msg }).int(msg).min(min, msg).max(max, msg);
+
+export const searchFiltersSchema = z.object({
+  q: z.string().trim().max(200, 'Use at most 200 characters').optional(),
+  dyestuff: many,
+  mordant: many,
+  historicalMordant: many,
+  modernMordant: many,
+  fibre: many,
+  technique: many,
+  place: many,
+  status: z
+    .union([z.enum(['draft', 'published']), z.array(z.enum(['draft', 'published']))])
+    .transform((v) => (Array.isArray(v) ? v : [v]))
+    .optional(),
+  century: z
+    .union([z.string(), z.array(z.string())])
+    .transform((v) => (Array.isArray(v) ? v : [v]))
+    .pipe(z.array(int(1, 21, 'Give a century from 1 to 21 (18 = 1700–1799)')).max(10))
+    .optional(),
+});
+
+export const searchQuerySchema = searchFiltersSchema.extend({
+  page: int(1, 10_000, 'Give a page number of 1 or more').default(1),
+  pageSize: int(1, 100, 'Give a page size from 1 to 100').default(20),
+});
+export type SearchQuery = z.infer<typeof searchQuerySchema>;
+export type SearchFilters = z.infer<typeof searchFiltersSchema>;
+
+const labNum = (min: number, max: number, name: string) =>
+  z.coerce.number({ error: `Give ${name} as a number` }).min(min, `${name} runs from ${min} to ${max}`).max(max, `${name} runs from ${min} to ${max}`).optional();
+
+export const MAX_RADIUS = 30;
+
+export const shadeQuerySchema = searchFiltersSchema
+  .extend({
+    hex: z.string().trim().regex(HEX_RE, 'Give a colour as six hex digits, e.g. 9b2f2f').optional(),
+    L: labNum(0, 100, 'L*'),
+    a: labNum(-160, 160, 'a*'),
+    b: labNum(-160, 160, 'b*'),
+    maxDeltaE: z.coerce.number({ error: 'Give the radius as a number' }).gt(0, 'The radius must be above 0').max(MAX_RADIUS, `Use a radius of at most ${MAX_RADIUS} ΔE00`).default(5),
+    limit: int(1, 200, 'Give a limit from 1 to 200').default(50),
+    page: int(1, 10_000, 'Give a page number of 1 or more').default(1),
+  })
+  .superRefine((v, ctx) => {
+    const lab = [v.L, v.a, v.b].filter((x) => x !== undefined).length;
+    if (v.hex && lab) ctx.addIssue({ code: 'custom', path: ['hex'], message: 'Give either a hex colour or L*, a*, b*, not both' });
+    else if (!v.hex && lab === 0) ctx.addIssue({ code: 'custom', path: ['hex'], message: 'Give a colour: hex, or L*, a* and b*' });
+    else if (!v.hex && lab < 3)
+      for (const k of ['L', 'a', 'b'] as const) if (v[k] === undefined) ctx.addIssue({ code: 'custom', path: [k], message: `Give ${k}* too` });
+  });
+export type ShadeQuery = z.infer<typeof shadeQuerySchema>;
+
+export type FacetName = 'dyestuff' | 'historicalMordant' | 'modernMordant' | 'fibre' | 'technique' | 'century' | 'place' | 'status';
+export type FacetCounts = Record<FacetName, Array<{ value: string; label: string; count: number }>>;
+
+export type SearchHighlight = { field: string; text: string; marks: Array<[number, number]> };
+export type SearchItem = {
+  id: number;
+  accessionNumber: string;
+  title: string;
+  objectName: string;
+  place: string;
+  dateText: string;
+  status: 'draft' | 'published';
+  dyestuffs: string[];
+  photoId: number | null;
+  score: number | null;
+  highlights: SearchHighlight[];
+  viaTrials: string[];
+};
+export type SearchResponse = { items: SearchItem[]; facets: FacetCounts; total: number; page: number; pageSize: number };
+
+export type ShadeItem = {
+  pieceId: number;
+  accessionNumber: string;
+  title: string;
+  photoId: number;
+  colour: { hex: string; lab: { L: number; a: number; b: number }; share: number };
+  deltaE00: number;
+};
+export type ShadeResponse = { items: ShadeItem[]; total: number; page: number; pageSize: number; query: { L: number; a: number; b: number; hex: string; maxDeltaE: number } };

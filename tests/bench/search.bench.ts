@@ -1,0 +1,115 @@
+import type { Bench, BenchResult } from './index.ts';
+import { CLUSTERS, VOCAB, clusteredColour, insertPalettes, insertPieces, rnd, uniformColour, zipfWord } from './search-data.ts';
+
+/**
+ * Search at archive scale, through the real API on a throwaway database:
+ * 1,000,000 palette colours on 166,667 pieces, uniform and clustered; shade
+ * search p95 and its speed-up over a brute-force CIEDE2000 scan of every colour
+ * (same process, same run), with results checked identical; then text search
+ * over the same pieces with its index build time and memory.
+ */
+const PIECES = 166_667;
+const PER_PHOTO = 6;
+const QUERIES = 200;
+const CHECKED = 40;
+
+const pct = (xs: number[], p: number) => [...xs].sort((x, y) => x - y)[Math.min(xs.length - 1, Math.floor((p / 100) * xs.length))];
+const mean = (xs: number[]) => xs.reduce((s, x) => s + x, 0) / xs.length;
+
+async function timed<T>(fn: () => Promise<T>): Promise<[T, number]> {
+  const t0 = performance.now();
+  const v = await fn();
+  return [v, performance.now() - t0];
+}
+
+export const searchBench: Bench = {
+  name: 'search',
+  async run() {
+    const { migrate } = await import('../../server/db/setup.ts');
+    const { startServer } = await import('../support/server.ts');
+    const { searchEngine } = await import('../../server/search/engine.ts');
+    await migrate();
+    const out: BenchResult[] = [];
+    const [photoIds, insertMs] = await timed(() => insertPieces(PIECES));
+    out.push({ metric: 'setup: insert pieces + photos', value: insertMs / 1000, unit: `s (${PIECES} pieces)` });
+    const server = await startServer();
+    const get = async (path: string) => {
+      const t0 = performance.now();
+      const res = await fetch(`${server.url}${path}`);
+      const body = await res.json();
+      if (res.status !== 200) throw new Error(`${path}: ${res.status} ${JSON.stringify(body)}`);
+      return { body, ms: performance.now() - t0 };
+    };
+
+    for (const [label, make, queryAt] of [
+      ['uniform', uniformColour, () => uniformColour()],
+      [
+        'clustered',
+        clusteredColour,
+        () => {
+          const c = CLUSTERS[Math.floor(rnd() * 4)];
+          return { L: c.L + (rnd() - 0.5) * 4, a: c.a + (rnd() - 0.5) * 4, b: c.b + (rnd() - 0.5) * 4 };
+        },
+      ],
+    ] as const) {
+      const [, palMs] = await timed(() => insertPalettes(photoIds, PER_PHOTO, make));
+      out.push({ metric: `${label}: insert palette colours`, value: palMs / 1000, unit: `s (${photoIds.length * PER_PHOTO} colours)` });
+      const [, loadMs] = await timed(() => searchEngine.reloadAll());
+      out.push({ metric: `${label}: load indexes from MariaDB`, value: loadMs / 1000, unit: 's' });
+      const api: number[] = [];
+      const brute: number[] = [];
+      const matches: number[] = [];
+      let mismatches = 0;
+      const allow = new Uint8Array(PIECES + 10).fill(1);
+      for (let i = 0; i < QUERIES; i++) {
+        const q = queryAt();
+        const { body, ms } = await get(`/api/search/shade?L=${q.L.toFixed(3)}&a=${q.a.toFixed(3)}&b=${q.b.toFixed(3)}&maxDeltaE=5&limit=50`);
+        api.push(ms);
+        matches.push(body.total);
+        if (i < CHECKED) {
+          const lab = { L: Number(q.L.toFixed(3)), a: Number(q.a.toFixed(3)), b: Number(q.b.toFixed(3)) };
+          const t0 = performance.now();
+          const scan = searchEngine.shade.query({ ...lab, maxDeltaE: 5, limit: 50, allow, scanAll: true });
+          brute.push(performance.now() - t0);
+          const same =
+            scan.total === body.total &&
+            scan.items.length === body.items.length &&
+            scan.items.every((m, k) => m.pieceId === body.items[k].pieceId && Math.abs(m.deltaE00 - body.items[k].deltaE00) < 5e-4);
+          if (!same) mismatches++;
+        }
+      }
+      const p95 = pct(api, 95);
+      out.push(
+        { metric: `${label}: shade search p50 via API`, value: pct(api, 50), unit: 'ms' },
+        { metric: `${label}: shade search p95 via API`, value: p95, unit: 'ms', target: '≤ 25', pass: p95 <= 25 },
+        { metric: `${label}: matching pieces per query (mean)`, value: mean(matches), unit: 'pieces' },
+        { metric: `${label}: brute-force ΔE00 scan of every colour (mean)`, value: mean(brute), unit: 'ms' },
+        { metric: `${label}: speed-up over brute force (scan mean / API p50)`, value: mean(brute) / pct(api, 50), unit: '×' },
+        { metric: `${label}: queries differing from brute force`, value: mismatches, unit: `of ${CHECKED}`, target: '0', pass: mismatches === 0 },
+      );
+    }
+
+    // Text: rebuild the text index alone to time it and weigh it.
+    const before = process.memoryUsage().heapUsed;
+    const [, textMs] = await timed(async () => {
+      await searchEngine.reloadAll();
+    });
+    out.push({ metric: 'text: load pieces + build both indexes', value: textMs / 1000, unit: `s (${PIECES} pieces, ${VOCAB.length} vocabulary words)` });
+    out.push({ metric: 'heap after indexes (approximate, no forced GC)', value: process.memoryUsage().heapUsed / 2 ** 20, unit: `MB (was ${(before / 2 ** 20).toFixed(0)} MB)` });
+    const text: number[] = [];
+    for (let i = 0; i < QUERIES; i++) {
+      const kind = i % 4;
+      const w = zipfWord();
+      const q = kind === 0 ? w : kind === 1 ? `${w} ${zipfWord()}` : kind === 2 ? w.slice(0, Math.max(3, w.length - 2)) : `${w.slice(0, 2)}x${w.slice(3)}`;
+      const extra = i % 5 === 0 ? '&dyestuff=madder' : '';
+      text.push((await get(`/api/search?q=${encodeURIComponent(q)}${extra}`)).ms);
+    }
+    const tp95 = pct(text, 95);
+    out.push(
+      { metric: 'text search p50 via API', value: pct(text, 50), unit: 'ms' },
+      { metric: 'text search p95 via API', value: tp95, unit: 'ms', target: '≤ 50', pass: tp95 <= 50 },
+    );
+    await server.close();
+    return out;
+  },
+};

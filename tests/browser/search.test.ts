@@ -1,0 +1,77 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { PaletteColour, Photo, sequelize } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { deltaE00 } from '../../server/search/ciede2000.ts';
+import { hexToLab, labToHex } from '../../shared/search/lab.ts';
+import { launchBrowser, signInAs } from '../support/browser.ts';
+import { startServer } from '../support/server.ts';
+
+let server: Awaited<ReturnType<typeof startServer>>;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const u = `w${Array.from({ length: 10 }, () => 'bcdfghjkmnpqrstvwxz'[Math.floor(Math.random() * 19)]).join('')}`;
+const target = '#6a3d5c';
+const t = hexToLab(target);
+// Three shades at growing CIEDE2000 distances from the target, and one well outside the radius.
+const shades = [target, labToHex({ ...t, L: t.L + 1.5 }), labToHex({ ...t, a: t.a + 4, L: t.L - 2 }), labToHex({ ...t, L: t.L + 15 })];
+const accessions: string[] = [];
+
+beforeAll(async () => {
+  for (const [i, hex] of shades.entries()) {
+    const p = await makePiece({
+      title: `Plum ${u} sample ${i}`, status: 'published',
+      dyestuffs: [{ name: i === 0 ? `logwood${u}` : `cochineal${u}`, evidence: 'attributed' }],
+    });
+    accessions.push(p.accessionNumber);
+    const photo = await Photo.create({
+      pieceId: p.id, trialId: null, sha256: `${u}${i}`.padEnd(64, '0'), format: 'jpeg', bytes: 1, width: 1, height: 1, originalName: null, caption: null,
+      capturedAt: null, exif: {}, gps: null, derivatives: {}, referencePatch: null, correction: null, createdById: null,
+    });
+    await PaletteColour.create({ photoId: photo.id, regionId: null, variant: 'raw', rank: 1, ...hexToLab(hex), hex, share: 0.5, spread: 1, name: 'plum', tradeName: null, background: false });
+  }
+  server = await startServer();
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  await sequelize.close();
+});
+
+describe('search page in Chromium', () => {
+  it('a researcher types a shade hex and sees the matches ranked by ΔE00, then narrows words by a facet', async () => {
+    const page = await browser.context.newPage();
+    await signInAs(page, server.url, 'researcher@demo.test');
+    await page.goto(`${server.url}/search`);
+    await page.getByLabel('Words').fill(u);
+    await page.getByRole('button', { name: 'Search', exact: true }).click();
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('4 pieces');
+
+    await page.getByLabel('Hex').fill(target.slice(1));
+    await page.getByRole('button', { name: 'Find this hex' }).click();
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toContain('3 pieces within ΔE00 5');
+    const rows = page.getByRole('table', { name: 'Shade matches' }).locator('tbody tr');
+    const texts = await rows.allTextContents();
+    // Ranked by ΔE00 from the target (CIEDE2000, checked against Sharma et al. 2005 in tests/unit).
+    const expected = [0, 1, 2].sort((x, y) => deltaE00(t, hexToLab(shades[x])) - deltaE00(t, hexToLab(shades[y])));
+    expect(texts.map((r) => accessions.findIndex((a) => r.includes(a)))).toEqual(expected);
+    expect(new URL(page.url()).searchParams.get('hex')).toBe(target.slice(1));
+    await expect(page.getByRole('img', { name: 'Matches on the a*b* plane' }).isVisible()).resolves.toBe(true);
+    await page.getByRole('button', { name: 'Swatches' }).click();
+    await expect(page.getByRole('list', { name: 'Shade matches' }).locator('li').count()).resolves.toBe(3);
+
+    await page.getByRole('button', { name: 'Clear shade' }).click();
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('4 pieces');
+    await page.getByRole('checkbox', { name: new RegExp(`^logwood${u}`) }).click();
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('1 piece');
+    await expect(page.getByRole('list', { name: 'Pieces found' }).textContent()).resolves.toContain(accessions[0]);
+    await page.getByRole('button', { name: 'Clear all' }).click();
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('4 pieces');
+  });
+
+  it('opens straight on a shade from a link such as /search?hex=…', async () => {
+    const page = await browser.context.newPage();
+    await page.goto(`${server.url}/search?hex=${target.slice(1)}&q=${u}`);
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toContain('3 pieces within ΔE00 5');
+    await expect(page.getByLabel('Hex').inputValue()).resolves.toBe(target.slice(1));
+  });
+});
