@@ -2,6 +2,7 @@ import { NavLink, Outlet, Link } from 'react-router-dom';
 import { paths } from '../paths';
 import { Wordmark } from './Wordmark';
 import { UserMenu } from '../features/auth/components/UserMenu';
+import { useCan } from '../features/auth/api';
 
 const areas = [
   { to: paths.archive(), label: 'Archive' },
@@ -10,9 +11,11 @@ const areas = [
   { to: paths.baths(), label: 'Baths' },
   { to: paths.series(), label: 'Series' },
   { to: paths.reference(), label: 'Reference' },
-];
+  { to: paths.importPieces(), label: 'Import', action: 'import:run' },
+] as const;
 
 export function AppShell() {
+  const can = useCan();
   return (
     <div className="min-h-screen flex flex-col">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 bg-sheet px-3 py-2 rounded">
@@ -25,7 +28,7 @@ export function AppShell() {
           </Link>
           <nav aria-label="Main" className="flex-1 overflow-x-auto">
             <ul className="flex gap-1 text-sm">
-              {areas.map((a) => (
+              {areas.filter((a) => !('action' in a) || can(a.action)).map((a) => (
                 <li key={a.to}>
                   <NavLink
                     to={a.to}
