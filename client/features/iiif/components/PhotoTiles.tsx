@@ -9,6 +9,8 @@ export function PhotoTiles({ photoId }: { photoId: number }) {
   const me = useMe();
   const jobs = usePhotoJobs(photoId, Boolean(me.data));
   const job = jobs.data?.items[0];
+  // Signed-in users wait for the job list, so a photo whose tiling failed never offers a zoom that cannot open.
+  if (me.isPending || (me.data && jobs.isPending)) return null;
   const ready = !job || job.state === 'done';
   return (
     <div className="flex flex-wrap items-start gap-3">
