@@ -18,7 +18,8 @@ export function PhotoZoom() {
   const jobs = usePhotoJobs(photoId, Number.isSafeInteger(photoId) && signedIn);
   const regions = usePhotoRegions(photoId);
   const valid = Number.isSafeInteger(photoId) && photoId > 0;
-  const photo = usePhoto(photoId, valid).data?.photo;
+  // The photo API is for signed-in users; visitors see the tiles and regions without the piece's name.
+  const photo = usePhoto(photoId, valid && signedIn).data?.photo;
   const piece = usePiece(photo?.pieceId ?? 0, photo?.pieceId != null).data?.piece;
   if (!valid || (regions.isError && !regions.data)) return <NotFound />;
   const job = jobs.data?.items[0];
