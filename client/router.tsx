@@ -39,7 +39,7 @@ export const router = createBrowserRouter([
       { path: 'series/:id', element: <SeriesPage /> },
       { path: 'reference', element: <ReferencePage /> },
       { path: 'archive', element: <Archive /> },
-      { path: 'archive/new', element: <PieceNewPage /> },
+      { element: <RequireAbility action="piece:create" />, children: [{ path: 'archive/new', element: <PieceNewPage /> }] },
       { path: 'archive/:id', element: <PieceDetailPage /> },
       { path: 'archive/:id/edit', element: <PieceEditPage /> },
       { path: 'forgot-password', element: <ForgotPassword /> },
@@ -48,8 +48,8 @@ export const router = createBrowserRouter([
       { element: <RequireAbility action="team:manage" />, children: [{ path: 'team', element: <Team /> }] },
       { element: <RequireAbility action="outbox:read" />, children: [{ path: 'outbox', element: <Outbox /> }] },
       { path: 'photos/:photoId/zoom', element: <PhotoZoom /> },
-      { path: 'import', element: <ImportPage /> },
-      { path: 'admin/fixity', element: <FixityPage /> },
+      { element: <RequireAbility action="import:run" />, children: [{ path: 'import', element: <ImportPage /> }] },
+      { element: <RequireAbility action="fixity:run" />, children: [{ path: 'admin/fixity', element: <FixityPage /> }] },
       {
         element: <RequireAbility action="trial:read" />,
         children: [

@@ -2,6 +2,7 @@ import { NavLink, Outlet, Link } from 'react-router-dom';
 import { paths } from '../paths';
 import { Wordmark } from './Wordmark';
 import { UserMenu } from '../features/auth/components/UserMenu';
+import { useCan } from '../features/auth/api';
 
 const areas = [
   { to: paths.archive(), label: 'Archive' },
@@ -10,22 +11,25 @@ const areas = [
   { to: paths.baths(), label: 'Baths' },
   { to: paths.series(), label: 'Series' },
   { to: paths.reference(), label: 'Reference' },
-];
+  { to: paths.importPieces(), label: 'Import', action: 'import:run' },
+] as const;
 
 export function AppShell() {
+  const can = useCan();
   return (
     <div className="min-h-screen flex flex-col">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 bg-sheet px-3 py-2 rounded">
         Skip to content
       </a>
       <header className="border-b border-rule bg-sheet">
-        <div className="mx-auto max-w-7xl px-4 md:px-6 h-14 flex items-center gap-6">
+        <div className="mx-auto max-w-7xl px-4 md:px-6 min-h-14 py-2 flex flex-wrap items-center justify-between gap-x-6 gap-y-1">
           <Link to={paths.home()} aria-label="Tinctoria home">
             <Wordmark compact />
           </Link>
-          <nav aria-label="Main" className="flex-1 overflow-x-auto">
+          {/* Below lg the areas take a row of their own, so none hide behind a scroll at tablet width. */}
+          <nav aria-label="Main" className="order-last w-full overflow-x-auto lg:order-none lg:w-auto lg:flex-1">
             <ul className="flex gap-1 text-sm">
-              {areas.map((a) => (
+              {areas.filter((a) => !('action' in a) || can(a.action)).map((a) => (
                 <li key={a.to}>
                   <NavLink
                     to={a.to}

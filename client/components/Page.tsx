@@ -8,7 +8,7 @@ export function Page({ title, lead, actions, children }: { title: string; lead?:
           <h1 className="text-3xl font-semibold text-ink">{title}</h1>
           {lead ? <p className="mt-1 text-ink-soft max-w-3xl">{lead}</p> : null}
         </div>
-        {actions ? <div className="flex gap-2">{actions}</div> : null}
+        {actions ? <div className="flex flex-wrap items-center gap-2">{actions}</div> : null}
       </div>
       {children}
     </section>

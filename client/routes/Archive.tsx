@@ -4,6 +4,8 @@ import { useCan } from '../features/auth/api';
 import { usePieces, type ListParams } from '../features/pieces/api';
 import { ArchiveFilters } from '../features/pieces/components/ArchiveFilters';
 import { ArchiveGrid, ArchiveTable } from '../features/pieces/components/ArchiveTable';
+import { DownloadLink } from '../features/export/components/DownloadLink';
+import { exportUrls } from '../features/export/urls';
 import { paths } from '../paths';
 
 const KEYS = ['q', 'status', 'fibre', 'technique', 'dyestuff', 'sort', 'dir', 'deleted'] as const;
@@ -29,11 +31,23 @@ export function Archive() {
       title="Archive"
       lead="Catalogued pieces with their photos and measured palettes."
       actions={
-        can('piece:create') ? (
-          <Link to={paths.pieceNew()} className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong">
-            Catalogue a piece
-          </Link>
-        ) : null
+        <>
+          {can('export:run') ? (
+            <DownloadLink href={exportUrls.piecesCsv()} hint="Every piece as a CSV that the import reads back">
+              Export pieces (CSV)
+            </DownloadLink>
+          ) : null}
+          {can('import:run') ? (
+            <Link to={paths.importPieces()} className="rounded-md border border-rule-strong bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Import CSV
+            </Link>
+          ) : null}
+          {can('piece:create') ? (
+            <Link to={paths.pieceNew()} className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong">
+              Catalogue a piece
+            </Link>
+          ) : null}
+        </>
       }
     >
       <ArchiveFilters value={params} onChange={update} canSeeDrafts={can('piece:list-drafts')} canSeeDeleted={can('piece:delete')} />

@@ -7,6 +7,7 @@ import { useDeletePiece, usePiece, useRestorePiece, useUpdatePiece } from '../fe
 import { StatusBadge } from '../features/pieces/components/ArchiveTable';
 import { PieceFacts } from '../features/pieces/components/PieceFacts';
 import { PieceHistory } from '../features/pieces/components/PieceHistory';
+import { PieceShareLinks } from '../features/export/components/PieceShareLinks';
 import { PhotoPanel } from '../features/photos/components/PhotoPanel';
 import { UploadPanel } from '../features/photos/components/UploadPanel';
 import { paths } from '../paths';
@@ -66,6 +67,7 @@ export function PieceDetailPage() {
       ) : null}
       <div className="grid gap-8">
         <PieceFacts piece={piece} />
+        {!deleted ? <PieceShareLinks pieceId={id} published={piece.status === 'published'} hasPhotos={photos.length > 0} /> : null}
         <section className="space-y-4">
           <h2 className="font-serif text-2xl">Photos and palettes</h2>
           {can['photo:create'] && !deleted ? <UploadPanel pieceId={id} /> : null}

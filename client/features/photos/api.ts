@@ -1,4 +1,4 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PhotoUpdateInput, Rect, RegionCreateInput, RegionUpdateInput } from '../../../shared/schemas/photo';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
 import type { presentPalettes, presentRegion } from '../../../server/presenters/photo';
@@ -7,6 +7,12 @@ import { pieceKeys, type Photo } from '../pieces/api';
 
 export type Palettes = ReturnType<typeof presentPalettes>;
 export type Region = ReturnType<typeof presentRegion>;
+
+export const photoKeys = { one: (id: number) => ['photos', id] as const };
+export const fetchPhoto = (id: number) => http<{ photo: Photo }>(`/api/photos/${id}`);
+export const photoQuery = (id: number) => queryOptions({ queryKey: photoKeys.one(id), queryFn: () => fetchPhoto(id) });
+/** One photo with its palettes and regions (the zoom page names it and links back to its piece). */
+export const usePhoto = (id: number, enabled = true) => useQuery({ ...photoQuery(id), enabled });
 
 /**
  * One file per request so each gets its own progress bar. XMLHttpRequest because

@@ -32,7 +32,7 @@ export const usePieces = (q: ListParams) => useQuery(piecesQuery(q));
 
 export const fetchPiece = (id: number) => http<PieceDetail>(`/api/pieces/${id}`);
 export const pieceQuery = (id: number) => queryOptions({ queryKey: pieceKeys.detail(id), queryFn: () => fetchPiece(id) });
-export const usePiece = (id: number) => useQuery(pieceQuery(id));
+export const usePiece = (id: number, enabled = true) => useQuery({ ...pieceQuery(id), enabled });
 
 export const fetchHistory = (id: number) => http<{ items: HistoryEvent[] }>(`/api/pieces/${id}/history`);
 export const historyQuery = (id: number) => queryOptions({ queryKey: pieceKeys.history(id), queryFn: () => fetchHistory(id) });

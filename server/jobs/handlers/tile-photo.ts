@@ -1,5 +1,6 @@
 import { Photo } from '../../models/index.ts';
-import { findMaster } from '../../iiif/files.ts';
+import { rm } from 'node:fs/promises';
+import { findMaster, tilesDir } from '../../iiif/files.ts';
 import { buildTiles } from '../../iiif/tiles.ts';
 import { PermanentJobError } from '../queue.ts';
 import { registerHandler } from '../registry.ts';
@@ -16,6 +17,11 @@ registerHandler(TILE_JOB, {
     if (!master) throw new PermanentJobError(`The master file of photo ${photoId} is missing (sha256 ${photo.sha256}).`);
     await ctx.progress(0.1);
     await buildTiles(photoId, master, `${job.id}-${job.attempts}`);
+    // Removed while its tiles were being built: take the tiles away too, so no orphan folder stays behind.
+    if (!(await Photo.findByPk(photoId))) {
+      await rm(tilesDir(photoId), { recursive: true, force: true });
+      throw new PermanentJobError(`Photo ${photoId} was removed while its tiles were built.`);
+    }
     await ctx.progress(0.95);
     await photo.update({ tileStatus: 'done' });
     return { photoId };

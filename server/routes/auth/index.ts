@@ -5,11 +5,16 @@ import { ACTIONS } from '../../../shared/abilities.ts';
 import { passport } from '../../auth/passport.ts';
 import { loginRateLimits } from '../../auth/rate-limit.ts';
 import { abilities, actorOf } from '../../http/auth.ts';
+import { isProduction } from '../../env.ts';
+import type { Actor } from '../../policies/index.ts';
 import { HttpError, unauthorized } from '../../http/errors.ts';
 import { parseBody, parseParams } from '../../http/validate.ts';
 import { sequelize, type User } from '../../models/index.ts';
 import { presentUser } from '../../presenters/user.ts';
 import { requestPasswordReset, resetPassword } from '../../services/password-reset.ts';
+
+// The local outbox route does not exist in production, so nobody is offered it there.
+const sessionAbilities = (actor: Actor) => ({ ...abilities(actor, ACTIONS), ...(isProduction ? { 'outbox:read': false } : {}) });
 
 const badCredentials = () => new HttpError(401, 'bad_credentials', 'That e-mail and password do not match an active account.');
 
@@ -23,7 +28,7 @@ export function authRouter() {
       if (err) return next(err);
       if (!user) return next(badCredentials());
       // passport 0.7 regenerates the session id on login (no fixation).
-      req.logIn(user, (e) => (e ? next(e) : res.json({ user: presentUser(user), abilities: abilities(actorOf(req), ACTIONS) })));
+      req.logIn(user, (e) => (e ? next(e) : res.json({ user: presentUser(user), abilities: sessionAbilities(actorOf(req)) })));
     })(req, res, next);
   });
 
@@ -40,7 +45,7 @@ export function authRouter() {
 
   router.get('/me', (req, res, next) => {
     if (!req.user) return next(unauthorized());
-    res.json({ user: presentUser(req.user as User), abilities: abilities(actorOf(req), ACTIONS) });
+    res.json({ user: presentUser(req.user as User), abilities: sessionAbilities(actorOf(req)) });
   });
 
   // 202 whatever the address; the lookup and the mail happen after the answer.

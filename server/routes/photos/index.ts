@@ -15,7 +15,8 @@ import { actorOf, requireUser } from '../../http/auth.ts';
 import { badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams } from '../../http/validate.ts';
 import { removePhotoFiles, repalette } from '../../media/pipeline.ts';
-import { PaletteColour, Region, sequelize, type Photo } from '../../models/index.ts';
+import { Job, PaletteColour, Region, sequelize, type Photo } from '../../models/index.ts';
+import { TILE_JOB } from '../../jobs/handlers/tile-photo.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import type { Action } from '../../../shared/abilities.ts';
 import { presentPalettes, presentPhoto, presentRegion } from '../../presenters/photo.ts';
@@ -68,6 +69,8 @@ photosRouter.delete('/:id', async (req, res) => {
   await sequelize.transaction(async (transaction) => {
     await PaletteColour.destroy({ where: { photoId: photo.id }, transaction });
     await Region.destroy({ where: { photoId: photo.id }, transaction });
+    // Tiling not yet started has nothing left to tile.
+    await Job.destroy({ where: { type: TILE_JOB, subjectType: 'photo', subjectId: photo.id, state: 'queued' }, transaction });
     await photo.destroy({ transaction });
     await auditPhoto({ actor, transaction }, photo, 'photo-removed', { sha256: { from: photo.sha256, to: null } });
   });

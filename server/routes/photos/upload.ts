@@ -11,6 +11,7 @@ import { can, type Actor } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
 import { presentPhoto } from '../../presenters/photo.ts';
 import { audit } from '../../services/audit.ts';
+import { enqueueTiles } from '../../iiif/enqueue.ts';
 import { loadReadablePiece } from '../pieces/load.ts';
 
 export const photoUploadRouter = Router({ mergeParams: true });
@@ -40,6 +41,8 @@ async function ingestOne(user: User | null, actor: Actor, pieceId: number, file:
     return await sequelize.transaction(async (transaction) => {
       const result = await ingestPhoto({ actor: user, transaction, input: { buffer: file.buffer, originalName: file.originalname, pieceId } });
       stored = result.photo;
+      // Queued with the rows, so a photo never exists without its deep-zoom job.
+      await enqueueTiles(result.photo.id, transaction, user?.id ?? null);
       await audit({ actor, transaction }, 'piece', pieceId, 'photo-added', { photo: { from: null, to: result.photo.id } });
       return result;
     });

@@ -7,6 +7,7 @@ import { HttpError, badRequest } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
 import { ingestPhoto, removePhotoFiles } from '../../media/pipeline.ts';
 import { sequelize, type PaletteColour, type Photo } from '../../models/index.ts';
+import { enqueueTiles } from '../../iiif/enqueue.ts';
 import { loadWritableTrial } from './load.ts';
 
 /** POST /api/trials/:id/photos: one swatch photo through the media pipeline (palette and all). */
@@ -36,6 +37,7 @@ trialPhotosRouter.post('/', async (req, res, next) => {
       const { photo, palette } = await sequelize.transaction(async (transaction) => {
         const result = await ingestPhoto({ actor: currentUser(req), transaction, input: { buffer: file.buffer, originalName: file.originalname, trialId: trial.id, view: 'swatch' } });
         stored = result.photo;
+        await enqueueTiles(result.photo.id, transaction, currentUser(req)?.id ?? null);
         return result;
       });
       res.status(201).json({

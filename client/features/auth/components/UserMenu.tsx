@@ -3,6 +3,13 @@ import { useLogout, useMe } from '../api';
 import { paths } from '../../../paths';
 import { roleLabel } from '../../team/roles';
 
+// Shown by ability; the server leaves the outbox out in production, where it does not exist.
+const adminLinks = [
+  { action: 'team:manage', to: paths.team(), label: 'Team' },
+  { action: 'fixity:run', to: paths.fixity(), label: 'Fixity' },
+  { action: 'outbox:read', to: paths.outbox(), label: 'Outbox' },
+] as const;
+
 export function UserMenu() {
   const me = useMe();
   const logout = useLogout();
@@ -17,10 +24,16 @@ export function UserMenu() {
   const { user, abilities } = me.data;
   return (
     <div className="flex items-center gap-3 text-sm">
-      {abilities['team:manage'] ? (
-        <Link to={paths.team()} className="text-ink-soft hover:text-ink">
-          Team
-        </Link>
+      {adminLinks.some((l) => abilities[l.action]) ? (
+        <nav aria-label="Administration" className="flex gap-3">
+          {adminLinks
+            .filter((l) => abilities[l.action])
+            .map((l) => (
+              <Link key={l.to} to={l.to} className="text-ink-soft hover:text-ink">
+                {l.label}
+              </Link>
+            ))}
+        </nav>
       ) : null}
       <span className="hidden md:inline text-ink-soft" data-testid="signed-in-as">
         {user.name} · <span className="text-ink-faint">{roleLabel[user.role]}</span>

@@ -1,3 +1,4 @@
+import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
 import type { Palettes } from '../api';
 
 type Colour = Palettes[number]['colours'][number];
@@ -33,6 +34,11 @@ export function PaletteBar({ title, colours, onToggleBackground }: { title: stri
                 L* {fix(c.lab.L)} a* {fix(c.lab.a)} b* {fix(c.lab.b)}
               </div>
               <div className="num">{c.background ? 'background, not counted' : `share ${pct(c.share)}`}</div>
+              <div>
+                <ShadeSearchLink hex={c.hex} className="text-action hover:underline">
+                  Pieces with this shade
+                </ShadeSearchLink>
+              </div>
               {onToggleBackground ? (
                 <button type="button" className="text-action hover:underline" onClick={() => onToggleBackground(c)} aria-pressed={c.background}>
                   {c.background ? 'Count this colour' : 'Mark as background'}

@@ -1,5 +1,6 @@
 import type { Photo } from '../../pieces/api';
 import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
+import { PhotoTiles } from '../../iiif/components/PhotoTiles';
 import { PaletteBar } from './PaletteBar';
 import { PURPOSE_LABELS, RegionEditor } from './RegionEditor';
 
@@ -39,6 +40,7 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
         </div>
       </header>
       <RegionEditor photo={photo} canEdit={canEdit} />
+      <PhotoTiles photoId={photo.id} />
 
       <div className="space-y-3">
         {photo.palettes.length === 0 ? <p className="text-sm text-ink-soft">No palette yet.</p> : null}

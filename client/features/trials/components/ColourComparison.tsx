@@ -1,6 +1,7 @@
 import type { TrialSummaryView } from '../api';
 import { labToHex } from '../../../../shared/colour';
 import { fmt, lab as labText } from '../format';
+import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
 import { VerdictBadge } from './VerdictBadge';
 
 type Colour = NonNullable<TrialSummaryView['colour']>;
@@ -17,6 +18,7 @@ export function ColourComparison({ colour, large = false }: { colour: Colour; la
       <p className="font-medium text-ink">{label}</p>
       {c ? <p className="font-mono text-ink-soft">{labText(c)}</p> : null}
       {c ? <p className="text-ink-soft">{src(c)}</p> : null}
+      {c ? <ShadeSearchLink hex={labToHex(c)} className="text-action hover:underline" /> : null}
     </div>
   );
   return (

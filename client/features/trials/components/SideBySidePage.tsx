@@ -1,6 +1,7 @@
 import { Link, useParams } from 'react-router-dom';
 import { Page } from '../../../components/Page';
 import { paths } from '../../../paths';
+import { useCan } from '../../auth/api';
 import { usePieceTrials } from '../api';
 import { fmt, STATUS_WORDS } from '../format';
 import { ColourComparison } from './ColourComparison';
@@ -9,6 +10,7 @@ import { ColourComparison } from './ColourComparison';
 export function SideBySidePage() {
   const pieceId = Number(useParams().id);
   const q = usePieceTrials(pieceId);
+  const can = useCan();
   if (q.isPending) return <p className="py-10 text-ink-soft">Loading…</p>;
   if (q.isError) return <p role="alert" className="text-danger">{q.error.message}</p>;
   const rank = (d: number | undefined) => d ?? Number.POSITIVE_INFINITY;
@@ -17,7 +19,7 @@ export function SideBySidePage() {
     <Page
       title="Side by side"
       lead={<>Every trial of <Link className="underline" to={paths.piece(pieceId)}><span className="font-mono">{q.data.piece.accessionNumber}</span> {q.data.piece.title}</Link> beside its target, closest (lowest ΔE00) first.</>}
-      actions={<Link className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong" to={paths.trialNew(pieceId)}>Attach a trial</Link>}
+      actions={can('trial:create') ? <Link className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong" to={paths.trialNew(pieceId)}>Attach a trial</Link> : null}
     >
       {items.length === 0 ? <p className="text-ink-soft">No trials reproduce this piece yet.</p> : (
         <ol className="space-y-6">

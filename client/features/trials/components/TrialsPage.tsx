@@ -6,6 +6,8 @@ import { useCan } from '../../auth/api';
 import { paths } from '../../../paths';
 import { useTrials } from '../api';
 import { fmt, STATUS_WORDS } from '../format';
+import { DownloadLink } from '../../export/components/DownloadLink';
+import { exportUrls } from '../../export/urls';
 import { Swatch } from './Swatch';
 import { VerdictBadge } from './VerdictBadge';
 
@@ -39,7 +41,12 @@ export function TrialsPage() {
     <Page
       title="Trials"
       lead="Reproduction trials: recipes, the safer chemistry that replaced historical mordants, and how close each result came to its original."
-      actions={can('trial:create') ? <Link className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong" to={paths.trialNew()}>New trial</Link> : null}
+      actions={
+        <>
+          {can('export:run') ? <DownloadLink href={exportUrls.trialsCsv()} hint="Every trial as a CSV spreadsheet">Export trials (CSV)</DownloadLink> : null}
+          {can('trial:create') ? <Link className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong" to={paths.trialNew()}>New trial</Link> : null}
+        </>
+      }
     >
       <form className="mb-4 flex flex-wrap items-end gap-3" role="search" onSubmit={(e) => { e.preventDefault(); set('q', text.trim()); }}>
         <label className="text-sm font-medium">
@@ -91,7 +98,7 @@ export function TrialsPage() {
                     <td className="px-3 py-2">{t.piece ? <Link className="underline" to={paths.piece(t.piece.id)}><span className="font-mono">{t.piece.accessionNumber}</span></Link> : <span className="text-ink-faint">—</span>}</td>
                     <td className="px-3 py-2">{t.dyer?.name ?? '—'}</td>
                     <td className="px-3 py-2">{STATUS_WORDS[t.status as keyof typeof STATUS_WORDS]}</td>
-                    <td className="px-3 py-2"><Swatch size="sm" label={`${t.code} result`} colour={t.colour?.result ?? null} /></td>
+                    <td className="px-3 py-2"><Swatch size="sm" label={`${t.code} result`} colour={t.colour?.result ?? null} shadeLink /></td>
                     <td className="px-3 py-2 text-right font-mono">{fmt(t.colour?.difference?.deltaE00, 2)}</td>
                     <td className="px-3 py-2">{t.colour?.difference ? <VerdictBadge verdict={t.colour.difference.verdict} /> : <span className="text-ink-faint">—</span>}</td>
                   </tr>

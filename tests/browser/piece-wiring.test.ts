@@ -1,0 +1,102 @@
+import { rm } from 'node:fs/promises';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { sequelize, type Photo } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { enqueueTiles } from '../../server/iiif/enqueue.ts';
+import { drain } from '../../server/jobs/worker.ts';
+import { launchBrowser, signInAs } from '../support/browser.ts';
+import { makePhotoWithMaster } from '../support/photos.ts';
+import { startServer } from '../support/server.ts';
+
+let server: Awaited<ReturnType<typeof startServer>>;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+let pieceId: number;
+let tiled: Photo;
+let lost: Photo;
+
+beforeAll(async () => {
+  const piece = await makePiece({ status: 'published', title: 'Wiring check piece' });
+  pieceId = piece.id;
+  ({ photo: tiled } = await makePhotoWithMaster(piece.id, { width: 900, height: 600 }));
+  const made = await makePhotoWithMaster(piece.id, { width: 300, height: 200 });
+  lost = made.photo;
+  // A missing master makes its real tiling job fail, as a lost file would.
+  await rm(made.file);
+  await enqueueTiles(tiled.id);
+  await enqueueTiles(lost.id);
+  await drain({ types: ['tile-photo'] });
+  server = await startServer();
+  browser = await launchBrowser();
+}, 120_000);
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  await sequelize.close();
+});
+
+async function asRole(email: string) {
+  const context = browser.context;
+  await context.clearCookies();
+  const page = await context.newPage();
+  await signInAs(page, server.url, email);
+  return page;
+}
+
+describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offers what each role may do', () => {
+  it('curator: zoom link for tiled photos, failed tiling with its reason and a retry, manifest and export links, Import in the menu', async () => {
+    const page = await asRole('curator@demo.test');
+    await page.goto(`${server.url}/archive/${pieceId}`);
+    const failed = page.locator('[data-testid="job-status"][data-state="failed"]');
+    await failed.waitFor();
+    const zoom = page.getByRole('link', { name: /Zoom in/ });
+    expect(await zoom.count()).toBe(1);
+    expect(await zoom.getAttribute('href')).toBe(`/photos/${tiled.id}/zoom`);
+
+    expect(await failed.count()).toBe(1);
+    expect(await failed.textContent()).toMatch(/master file .* is missing/);
+    await failed.getByRole('button', { name: 'Try again' }).click();
+    await page.locator('[data-testid="job-status"][data-state="queued"]').waitFor();
+
+    expect(await page.getByTestId('iiif-manifest-link').getAttribute('href')).toBe(`/iiif/${pieceId}/manifest.json`);
+    const dc = await page.getByRole('link', { name: 'Dublin Core (JSON-LD)' }).getAttribute('href');
+    const answer = await page.request.get(`${server.url}${dc}`);
+    expect(answer.status()).toBe(200);
+    expect(await page.getByRole('link', { name: /Masters \(ZIP/ }).getAttribute('href')).toBe(`/api/pieces/${pieceId}/masters.zip`);
+    const manifest = await page.request.get(`${server.url}/iiif/${pieceId}/manifest.json`);
+    expect(manifest.status()).toBe(200);
+
+    const main = page.getByRole('navigation', { name: 'Main' });
+    await main.getByRole('link', { name: 'Import' }).click();
+    await page.waitForURL((u) => u.pathname === '/import');
+    expect(await page.getByRole('navigation', { name: 'Administration' }).count()).toBe(0);
+    await page.goto(`${server.url}/archive`);
+    expect(await page.getByRole('link', { name: 'Export pieces (CSV)' }).getAttribute('href')).toBe('/api/export/pieces.csv');
+    await page.close();
+  });
+
+  it('dyer: the manifest but no exports, no retry and no Import', async () => {
+    const page = await asRole('dyer@demo.test');
+    await page.goto(`${server.url}/archive/${pieceId}`);
+    await page.getByTestId('iiif-manifest-link').waitFor();
+    expect(await page.getByRole('link', { name: 'Dublin Core (JSON-LD)' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Try again' }).count()).toBe(0);
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Import' }).count()).toBe(0);
+    await page.goto(`${server.url}/trials`);
+    await page.getByRole('heading', { name: 'Trials' }).waitFor();
+    expect(await page.getByRole('link', { name: 'Export trials (CSV)' }).count()).toBe(0);
+    await page.close();
+  });
+
+  it('admin: Team, Fixity and (outside production) Outbox in the administration links, each opening its page', async () => {
+    const page = await asRole('admin@demo.test');
+    const admin = page.getByRole('navigation', { name: 'Administration' });
+    await admin.waitFor();
+    expect(await admin.getByRole('link').allTextContents()).toEqual(['Team', 'Fixity', 'Outbox']);
+    await admin.getByRole('link', { name: 'Fixity' }).click();
+    await page.getByRole('heading', { name: 'Fixity', exact: true, level: 1 }).waitFor();
+    await admin.getByRole('link', { name: 'Outbox' }).click();
+    await page.waitForURL((u) => u.pathname === '/outbox');
+    await page.getByRole('heading', { level: 1 }).waitFor();
+    await page.close();
+  });
+});
