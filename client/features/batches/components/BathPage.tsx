@@ -34,7 +34,7 @@ export function BathPage() {
         <Figure label="Strength (estimate)" value={`${Math.round(b.estimatedStrength.value * 100)} %`} note={`uptake ${Math.round(b.uptakePerUse * 100)} % per use, an estimate`} />
       </dl>
       {b.dueForCheck ? <p role="status" className="mb-4 rounded-md bg-warn-tint px-3 py-2 text-sm text-warn">Due for a check since {b.checkBy}.</p> : null}
-      {b.testStripPrompt ? <p role="status" className="mb-4 rounded-md bg-warn-tint px-3 py-2 text-sm text-warn">{b.testStripPrompt}</p> : null}
+      {b.testStripPrompt && b.status === 'active' ? <p role="status" className="mb-4 rounded-md bg-warn-tint px-3 py-2 text-sm text-warn">{b.testStripPrompt}</p> : null}
       <div className="grid gap-6 lg:grid-cols-2">
         <section aria-labelledby="ingr">
           <h2 id="ingr" className="text-xl font-semibold mb-2">Ingredients</h2>
@@ -48,7 +48,7 @@ export function BathPage() {
           {b.children.length ? (
             <p className="mt-2 text-sm">Dilutions: {b.children.map((c) => <Link key={c.id} className="text-action underline mr-2" to={paths.bath(c.id)}>{c.code}</Link>)}</p>
           ) : null}
-          {b.topUpSuggestion ? (
+          {b.topUpSuggestion && b.status === 'active' ? (
             <div className="mt-4">
               <h3 className="font-semibold">Suggested top-up</h3>
               <ul className="text-sm num">
@@ -68,7 +68,7 @@ export function BathPage() {
         <h2 id="caut" className="text-xl font-semibold mb-2">Cautions</h2>
         <Cautions items={b.cautions} />
       </section>
-      {b.abilities['batch-event:create'] ? (
+      {b.abilities['batch-event:create'] && b.status !== 'disposed' ? (
         <section aria-labelledby="rec" className="mt-6">
           <h2 id="rec" className="text-xl font-semibold mb-2">Record an event</h2>
           <EventForms batch={b} />

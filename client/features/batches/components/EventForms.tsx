@@ -15,12 +15,19 @@ const TYPES = [
 ] as const;
 type T = (typeof TYPES)[number]['type'];
 
+/** The ledger's words for each event type. */
+export const EVENT_LABELS: Record<T, string> = { use: 'draw', 'top-up': 'top-up', water: 'water added', 'test-strip': 'test strip', ph: 'pH check', disposal: 'disposal' };
+
+// An exhausted bath can only be disposed of; a disposed one takes no more events.
+const offered = (status: BatchDetail['status']) => (status === 'active' ? TYPES : status === 'exhausted' ? TYPES.filter((t) => t.type === 'disposal') : []);
+
 const num = (v: FormDataEntryValue | null) => (v === null || v === '' ? undefined : Number(v));
 const str = (v: FormDataEntryValue | null) => (v === null || String(v).trim() === '' ? undefined : String(v).trim());
 
 /** One form per ledger event type; the server decides and explains any refusal. */
 export function EventForms({ batch }: { batch: BatchDetail }) {
-  const [type, setType] = useState<T>('use');
+  const types = offered(batch.status);
+  const [type, setType] = useState<T>(types[0]?.type ?? 'use');
   const add = useAddBatchEvent(batch.id);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const [done, setDone] = useState<string | null>(null);
@@ -54,7 +61,7 @@ export function EventForms({ batch }: { batch: BatchDetail }) {
   return (
     <div>
       <div role="tablist" aria-label="Event type" className="flex flex-wrap gap-1 mb-4">
-        {TYPES.map((t) => (
+        {types.map((t) => (
           <button key={t.type} role="tab" type="button" aria-selected={type === t.type} onClick={() => { setType(t.type); setErrors({}); setDone(null); add.reset(); }}
             className={`px-3 py-1.5 rounded-md text-sm border ${type === t.type ? 'bg-action text-white border-action' : 'border-rule-strong bg-sheet hover:bg-paper'}`}>
             {t.label}
