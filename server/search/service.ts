@@ -73,7 +73,7 @@ function visibleDocs(actor: Actor, ids?: Iterable<number>): PieceDoc[] {
 /** Pieces passing visibility, text and every filter; with the text hits for ranking and highlights. */
 function candidates(actor: Actor, f: SearchFilters) {
   const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
-  const docs = visibleDocs(actor, hits?.keys());
+  const docs = visibleDocs(actor, hits?.scores.keys());
   const sel = selected(f);
   return { textMatched: docs, matched: Object.keys(sel).length ? docs.filter((d) => passes(d, sel)) : docs, hits, sel };
 }
@@ -113,7 +113,7 @@ function facetCounts(docs: PieceDoc[], sel: Selected): FacetCounts {
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
   const { textMatched, matched, hits, sel } = candidates(actor, input);
-  const score = (d: PieceDoc) => hits?.get(d.id)?.score ?? 0;
+  const score = (d: PieceDoc) => hits?.scores.get(d.id) ?? 0;
   // Rank only as far as the page asked for (bounded heap), not the whole match list.
   const before = hits
     ? (x: PieceDoc, y: PieceDoc) => score(x) > score(y) || (score(x) === score(y) && x.id < y.id)
@@ -121,7 +121,7 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
   const page = selectTop(matched, input.page * input.pageSize, before).slice((input.page - 1) * input.pageSize);
   const photos = searchEngine.shade.firstPhotoOf(page.map((d) => d.id));
   const items: SearchItem[] = page.map((d) => {
-    const hit = hits?.get(d.id);
+    const hit = hits?.detail(d.id);
     return {
       id: d.id,
       accessionNumber: d.accessionNumber,

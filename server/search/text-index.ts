@@ -53,6 +53,33 @@ const queryTokens = (text: string) => text.split(/\s+/).map((w) => w.replace(EDG
 
 export type TextHit = { score: number; terms: Set<string>; fields: Set<TextField>; viaTrials: string[] };
 
+/** The pieces a text query matched: every score (for ranking and facets), details only when asked (for the page shown). */
+export type TextMatches = { scores: Map<number, number>; detail: (pieceId: number) => TextHit };
+
+// minisearch's defaults (7.2.0): prefix/fuzzy weights and BM25+ parameters; the scorer below reproduces its formula.
+const WEIGHT_PREFIX = 0.375;
+const WEIGHT_FUZZY = 0.45;
+const BM25 = { k: 1.2, b: 0.7, d: 0.5 };
+const MAX_FUZZY = 2;
+const prefixOk = (term: string) => term.length >= 2;
+// 1 edit from 4 letters, 20 % of the length from 5 (at most MAX_FUZZY).
+const fuzzyEdits = (term: string) => (term.length >= 5 ? Math.min(MAX_FUZZY, Math.round(term.length * 0.2)) : term.length >= 4 ? 1 : 0);
+
+type Postings = Map<number, Map<number, number>>;
+/** The parts of minisearch's index the scorer reads (pinned minisearch 7.2.0; checked against its own search in tests/unit/text-index.test.ts). */
+type MsInternals = {
+  _index: { get(t: string): Postings | undefined; atPrefix(t: string): Iterable<[string, Postings]>; fuzzyGet(t: string, d: number): Map<string, [Postings, number]> };
+  _fieldIds: Record<string, number>;
+  _avgFieldLength: number[];
+  _fieldLength: Map<number, number[]>;
+  _documentCount: number;
+  _documentIds: Map<number, string>;
+  _storedFields: Map<number, { kind: 'piece' | 'trial'; refId: number; pieceId: number | null }>;
+  _nextId: number;
+  _idToShortId: Map<string, number>;
+};
+type Expansion = { term: string; weight: number; data: Postings };
+
 export class TextIndex {
   readonly pieces = new Map<number, PieceDoc>();
   readonly trials = new Map<number, TrialDoc>();
@@ -78,8 +105,10 @@ export class TextIndex {
     this.ms.addAll([...pieces.map(pieceEntry), ...trials.map(trialEntry)]);
   }
 
+  // remove() (not discard()) so the postings never hold stale documents and every score follows minisearch's formula exactly.
   setPiece(id: number, doc: PieceDoc | null) {
-    if (this.pieces.has(id)) this.ms.discard(`p${id}`);
+    const prev = this.pieces.get(id);
+    if (prev) this.ms.remove(pieceEntry(prev));
     this.pieces.delete(id);
     if (doc) {
       this.pieces.set(id, doc);
@@ -88,7 +117,8 @@ export class TextIndex {
   }
 
   setTrial(id: number, doc: TrialDoc | null) {
-    if (this.trials.has(id)) this.ms.discard(`t${id}`);
+    const prev = this.trials.get(id);
+    if (prev) this.ms.remove(trialEntry(prev));
     this.trials.delete(id);
     if (doc) {
       this.trials.set(id, doc);
@@ -96,35 +126,119 @@ export class TextIndex {
     }
   }
 
-  /**
-   * Pieces matching every word (prefix and fuzzy), scored by minisearch with the
-   * field boosts; trial hits count for their piece when `withTrials`.
-   */
-  search(q: string, withTrials: boolean): Map<number, TextHit> {
-    const hits = new Map<number, TextHit>();
-    const results = this.ms.search(q, {
-      prefix: (term) => term.length >= 2,
+  /** The same query through minisearch's own search(): the oracle the fast scorer is tested against. */
+  searchWithMinisearch(q: string) {
+    return this.ms.search(q, {
+      prefix: prefixOk,
       fuzzy: (term) => (term.length >= 5 ? 0.2 : term.length >= 4 ? 1 : 0),
-      maxFuzzy: 2,
+      maxFuzzy: MAX_FUZZY,
       boost: BOOST,
       combineWith: 'AND',
-      filter: (r) => withTrials || r.kind === 'piece',
     });
-    for (const r of results) {
-      const pieceId = r.pieceId as number | null;
-      if (pieceId == null) continue;
-      const hit = hits.get(pieceId) ?? { score: 0, terms: new Set<string>(), fields: new Set<TextField>(), viaTrials: [] };
-      hit.score += r.score;
-      for (const [term, fields] of Object.entries(r.match)) {
-        hit.terms.add(term);
-        for (const f of fields) hit.fields.add(f as TextField);
+  }
+
+  /** Each query word's index terms: itself, its prefix extensions and its fuzzy neighbours, weighted as minisearch does. */
+  private expand(word: string): Expansion[] {
+    const ms = this.ms as unknown as MsInternals;
+    const out: Expansion[] = [];
+    const exact = ms._index.get(word);
+    if (exact) out.push({ term: word, weight: 1, data: exact });
+    const prefixed = new Set<string>();
+    if (prefixOk(word))
+      for (const [term, data] of ms._index.atPrefix(word)) {
+        const distance = term.length - word.length;
+        if (!distance) continue;
+        prefixed.add(term);
+        out.push({ term, weight: (WEIGHT_PREFIX * term.length) / (term.length + 0.3 * distance), data });
       }
-      if (r.kind === 'trial') hit.viaTrials.push(this.trials.get(r.refId as number)?.code ?? '');
-      hits.set(pieceId, hit);
-    }
-    return hits;
+    const edits = fuzzyEdits(word);
+    if (edits)
+      for (const [term, [data, distance]] of ms._index.fuzzyGet(word, edits)) {
+        if (!distance || prefixed.has(term)) continue;
+        out.push({ term, weight: (WEIGHT_FUZZY * term.length) / (term.length + distance), data });
+      }
+    return out;
+  }
+
+  /**
+   * Documents matching every word (prefix and fuzzy) with minisearch's BM25+
+   * score and field boosts, summed per piece (trial hits count for their piece
+   * when `withTrials`). Scores go into flat arrays indexed by minisearch's
+   * short document id, so a word found in most documents costs one pass over
+   * its postings, not an object per document; words, fields and trial codes are
+   * worked out only for the pieces a page shows.
+   */
+  search(q: string, withTrials: boolean): TextMatches {
+    const ms = this.ms as unknown as MsInternals;
+    const words = queryTokens(q).map((t) => t.toLowerCase());
+    const perWord = words.map((w) => this.expand(w));
+    const n = ms._nextId;
+    const score = new Float64Array(n);
+    const hitCount = new Uint16Array(n);
+    const seen = new Uint16Array(n);
+    const fieldIds = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
+    const boosts = TEXT_FIELDS.map((f) => BOOST[f] ?? 1);
+    const docCount = ms._documentCount;
+    let live: number[] = [];
+    perWord.forEach((exps, w) => {
+      const stamp = w + 1;
+      const touched: number[] = [];
+      for (const { weight, data } of exps)
+        for (let f = 0; f < fieldIds.length; f++) {
+          const freqs = data.get(fieldIds[f]);
+          if (!freqs) continue;
+          const fid = fieldIds[f];
+          const matching = freqs.size;
+          const idf = Math.log(1 + (docCount - matching + 0.5) / (matching + 0.5));
+          const avg = ms._avgFieldLength[fid];
+          const wb = weight * boosts[f];
+          for (const [doc, tf] of freqs) {
+            // AND: after the first word, only documents that matched every earlier word can still match.
+            if (hitCount[doc] !== w) continue;
+            const len = ms._fieldLength.get(doc)![fid];
+            score[doc] += wb * idf * (BM25.d + (tf * (BM25.k + 1)) / (tf + BM25.k * (1 - BM25.b + (BM25.b * len) / avg)));
+            if (seen[doc] !== stamp) {
+              seen[doc] = stamp;
+              touched.push(doc);
+            }
+          }
+        }
+      for (const doc of touched) hitCount[doc] = w + 1;
+      live = touched;
+    });
+    // minisearch multiplies by the number of distinct query words a document matched: all of them, under AND.
+    const quality = new Set(words).size;
+    const scores = new Map<number, number>();
+    const trialsOf = new Map<number, number[]>();
+    if (words.length)
+      for (const doc of live) {
+        const stored = ms._storedFields.get(doc)!;
+        if (stored.pieceId == null || (stored.kind === 'trial' && !withTrials)) continue;
+        scores.set(stored.pieceId, (scores.get(stored.pieceId) ?? 0) + score[doc] * quality);
+        if (stored.kind === 'trial') trialsOf.set(stored.pieceId, [...(trialsOf.get(stored.pieceId) ?? []), doc]);
+      }
+    const detail = (pieceId: number): TextHit => {
+      const hit: TextHit = { score: scores.get(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
+      const own = shortIdOf(ms, `p${pieceId}`);
+      const docs = [...(own === undefined ? [] : [own]), ...(trialsOf.get(pieceId) ?? [])].filter((d) => hitCount[d] === words.length);
+      for (const doc of docs) {
+        const stored = ms._storedFields.get(doc)!;
+        if (stored.kind === 'trial') hit.viaTrials.push(this.trials.get(stored.refId)?.code ?? '');
+        for (const exps of perWord)
+          for (const { term, data } of exps)
+            for (let f = 0; f < fieldIds.length; f++)
+              if (data.get(fieldIds[f])?.has(doc)) {
+                hit.terms.add(term);
+                hit.fields.add(TEXT_FIELDS[f]);
+              }
+      }
+      return hit;
+    };
+    return { scores, detail };
   }
 }
+
+const shortIdOf = (ms: MsInternals, id: string) => ms._idToShortId.get(id);
 
 const list = (xs: string[]) => xs.join(' ; ');
 
