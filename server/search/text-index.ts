@@ -84,8 +84,28 @@ export class TextIndex {
   readonly pieces = new Map<number, PieceDoc>();
   readonly trials = new Map<number, TrialDoc>();
   private ms = this.fresh();
+  /** Per short document id: field lengths (NF per document), piece id and kind, in typed arrays; rebuilt lazily after a change. */
+  private flat: { fieldLen: Float64Array; piece: Int32Array; trial: Uint8Array } | null = null;
+
+  private flatten() {
+    if (this.flat) return this.flat;
+    const ms = this.ms as unknown as MsInternals;
+    const n = ms._nextId;
+    const nf = TEXT_FIELDS.length;
+    const fieldLen = new Float64Array(n * nf);
+    const piece = new Int32Array(n).fill(-1);
+    const trial = new Uint8Array(n);
+    const fids = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
+    for (const [doc, lens] of ms._fieldLength) for (let f = 0; f < nf; f++) fieldLen[doc * nf + f] = lens[fids[f]] ?? 0;
+    for (const [doc, st] of ms._storedFields) {
+      piece[doc] = st.pieceId ?? -1;
+      trial[doc] = st.kind === 'trial' ? 1 : 0;
+    }
+    return (this.flat = { fieldLen, piece, trial });
+  }
 
   private fresh() {
+    this.flat = null;
     return new MiniSearch<IndexedDoc>({
       fields: [...TEXT_FIELDS],
       storeFields: ['kind', 'refId', 'pieceId'],
@@ -103,10 +123,12 @@ export class TextIndex {
     for (const p of pieces) this.pieces.set(p.id, p);
     for (const t of trials) this.trials.set(t.id, t);
     this.ms.addAll([...pieces.map(pieceEntry), ...trials.map(trialEntry)]);
+    this.flat = null;
   }
 
   // remove() (not discard()) so the postings never hold stale documents and every score follows minisearch's formula exactly.
   setPiece(id: number, doc: PieceDoc | null) {
+    this.flat = null;
     const prev = this.pieces.get(id);
     if (prev) this.ms.remove(pieceEntry(prev));
     this.pieces.delete(id);
@@ -117,6 +139,7 @@ export class TextIndex {
   }
 
   setTrial(id: number, doc: TrialDoc | null) {
+    this.flat = null;
     const prev = this.trials.get(id);
     if (prev) this.ms.remove(trialEntry(prev));
     this.trials.delete(id);
@@ -179,6 +202,8 @@ export class TextIndex {
     const fieldIds = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
     const boosts = TEXT_FIELDS.map((f) => BOOST[f] ?? 1);
     const docCount = ms._documentCount;
+    const { fieldLen, piece, trial } = this.flatten();
+    const nf = TEXT_FIELDS.length;
     let live: number[] = [];
     perWord.forEach((exps, w) => {
       const stamp = w + 1;
@@ -192,11 +217,14 @@ export class TextIndex {
           const idf = Math.log(1 + (docCount - matching + 0.5) / (matching + 0.5));
           const avg = ms._avgFieldLength[fid];
           const wb = weight * boosts[f];
+          const k1 = BM25.k * (1 - BM25.b);
+          const k2 = (BM25.k * BM25.b) / avg;
+          const base = wb * idf;
           for (const [doc, tf] of freqs) {
             // AND: after the first word, only documents that matched every earlier word can still match.
             if (hitCount[doc] !== w) continue;
-            const len = ms._fieldLength.get(doc)![fid];
-            score[doc] += wb * idf * (BM25.d + (tf * (BM25.k + 1)) / (tf + BM25.k * (1 - BM25.b + (BM25.b * len) / avg)));
+            const len = fieldLen[doc * nf + f];
+            score[doc] += base * (BM25.d + (tf * (BM25.k + 1)) / (tf + k1 + k2 * len));
             if (seen[doc] !== stamp) {
               seen[doc] = stamp;
               touched.push(doc);
@@ -212,10 +240,10 @@ export class TextIndex {
     const trialsOf = new Map<number, number[]>();
     if (words.length)
       for (const doc of live) {
-        const stored = ms._storedFields.get(doc)!;
-        if (stored.pieceId == null || (stored.kind === 'trial' && !withTrials)) continue;
-        scores.set(stored.pieceId, (scores.get(stored.pieceId) ?? 0) + score[doc] * quality);
-        if (stored.kind === 'trial') trialsOf.set(stored.pieceId, [...(trialsOf.get(stored.pieceId) ?? []), doc]);
+        const pid = piece[doc];
+        if (pid < 0 || (trial[doc] && !withTrials)) continue;
+        scores.set(pid, (scores.get(pid) ?? 0) + score[doc] * quality);
+        if (trial[doc]) trialsOf.set(pid, [...(trialsOf.get(pid) ?? []), doc]);
       }
     const detail = (pieceId: number): TextHit => {
       const hit: TextHit = { score: scores.get(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
