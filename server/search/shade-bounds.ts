@@ -35,7 +35,10 @@
  * F(ρ) = ρ·A/(1 − Bρ); F(ρ)/ρ grows with ρ, so d' ≤ (ρ/r)·F(r) = (ρ/r)·hwAB.
  * √(Δa² + Δb²) ≤ d' (a' = a(1+G)), and SL ≤ hwL/r inside the box, so
  * (ΔL/hwL)² ≤ u²/r². Adding: ≤ u²/r² + ρ²/r² = 1. The index skips grid cells
- * and colours outside it.
+ * and colours outside it. The same steps with any t ≤ r in place of r (ΔE00 = t)
+ * give (ΔL/hwL)² + (Δa² + Δb²)/hwAB² ≤ t²/r²: inside the box, ΔE00 ≥ r·e with e
+ * the ellipsoid norm, a lower bound the index uses to skip colours that cannot
+ * beat their piece's best.
  */
 const DEG = Math.PI / 180;
 const P25_7 = 25 ** 7;

@@ -35,6 +35,8 @@ const NCELLS = NL * NAB * NAB;
 const TAIL_LIMIT = 20_000;
 // The ellipsoid test is done in floating point; this slack keeps points on its surface.
 const ELLIPSOID_SLACK = 1 + 1e-9;
+// The ΔE00 lower bound r·√e2 is shrunk by a hair for floating-point rounding before it is trusted to skip a colour.
+const LB_SHRINK = 1 - 1e-9;
 
 /** Distance from v to grid cell i of n cells starting at min (0 inside it); the clamped edge cells reach to ±∞. */
 function gap(v: number, min: number, i: number, n: number) {
@@ -237,11 +239,14 @@ export class ShadeIndex {
         const dL = L[j] - qL;
         const da = A[j] - qa;
         const db = B[j] - qb;
-        if (dL * dL * invL2 + (da * da + db * db) * invAB2 > ELLIPSOID_SLACK) continue;
+        const e2 = dL * dL * invL2 + (da * da + db * db) * invAB2;
+        if (e2 > ELLIPSOID_SLACK) continue;
         if (!alive[j]) continue;
         const ph = photo[j];
         const pid = ph < photoPiece.length ? photoPiece[ph] : 0;
         if (pid <= 0 || (allow !== null && !allow[pid])) continue;
+        // Per-piece early exit: ΔE00 ≥ r·√e2 (shade-bounds.ts), so a colour that cannot beat the piece's best is skipped.
+        if (stamp[pid] === gen && r * Math.sqrt(e2) * LB_SHRINK > bestDe[pid]) continue;
         candidates++;
         const de = deltaE00Raw(qL, qa, qb, qC, L[j], A[j], B[j], C[j]);
         if (de > r) continue;
