@@ -245,21 +245,32 @@ export class TextIndex {
         scores.set(pid, (scores.get(pid) ?? 0) + score[doc] * quality);
         if (trial[doc]) trialsOf.set(pid, [...(trialsOf.get(pid) ?? []), doc]);
       }
+    // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
+    const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
     const detail = (pieceId: number): TextHit => {
       const hit: TextHit = { score: scores.get(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
       const own = shortIdOf(ms, `p${pieceId}`);
-      const docs = [...(own === undefined ? [] : [own]), ...(trialsOf.get(pieceId) ?? [])].filter((d) => hitCount[d] === words.length);
-      for (const doc of docs) {
-        const stored = ms._storedFields.get(doc)!;
-        if (stored.kind === 'trial') hit.viaTrials.push(this.trials.get(stored.refId)?.code ?? '');
-        for (const exps of perWord)
-          for (const { term, data } of exps)
-            for (let f = 0; f < fieldIds.length; f++)
-              if (data.get(fieldIds[f])?.has(doc)) {
-                hit.terms.add(term);
-                hit.fields.add(TEXT_FIELDS[f]);
-              }
+      const doc = this.pieces.get(pieceId);
+      const entries: IndexedDoc[] = [];
+      if (doc && own !== undefined && hitCount[own] === words.length) entries.push(pieceEntry(doc));
+      for (const t of trialsOf.get(pieceId) ?? []) {
+        const tr = this.trials.get(ms._storedFields.get(t)!.refId);
+        if (!tr) continue;
+        hit.viaTrials.push(tr.code);
+        entries.push(trialEntry(tr));
       }
+      for (const e of entries)
+        for (const f of TEXT_FIELDS) {
+          const text = e[f];
+          if (!text) continue;
+          for (const tok of tokenize(text)) {
+            const term = tok.toLowerCase();
+            if (expanded.has(term)) {
+              hit.terms.add(term);
+              hit.fields.add(f);
+            }
+          }
+        }
       return hit;
     };
     return { scores, detail };

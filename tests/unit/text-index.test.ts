@@ -32,6 +32,10 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
       expect(got.scores.size, q).toBe(want.length);
       for (const r of want) {
         expect(got.scores.get(r.pieceId as number), `${q} piece ${r.pieceId}`).toBeCloseTo(r.score, 9);
+        // Matched words and fields (for highlights) as minisearch reports them.
+        const d = got.detail(r.pieceId as number);
+        expect([...d.terms].sort(), q).toEqual(Object.keys(r.match).sort());
+        expect([...d.fields].sort(), q).toEqual([...new Set(Object.values(r.match).flat())].sort());
         compared++;
       }
     }
