@@ -54,7 +54,7 @@ const queryTokens = (text: string) => text.split(/\s+/).map((w) => w.replace(EDG
 export type TextHit = { score: number; terms: Set<string>; fields: Set<TextField>; viaTrials: string[] };
 
 /** The pieces a text query matched: every score (for ranking and facets), details only when asked (for the page shown). */
-export type TextMatches = { scores: Map<number, number>; detail: (pieceId: number) => TextHit };
+export type TextMatches = { ids: number[]; score: (pieceId: number) => number | undefined; detail: (pieceId: number) => TextHit };
 
 // minisearch's defaults (7.2.0): prefix/fuzzy weights and BM25+ parameters; the scorer below reproduces its formula.
 const WEIGHT_PREFIX = 0.375;
@@ -82,6 +82,8 @@ type Expansion = { term: string; weight: number; data: Postings };
 
 export class TextIndex {
   readonly pieces = new Map<number, PieceDoc>();
+  /** The same documents in an array indexed by piece id, for lookups over tens of thousands of hits. */
+  readonly byId: Array<PieceDoc | undefined> = [];
   readonly trials = new Map<number, TrialDoc>();
   private ms = this.fresh();
   /** Per short document id: field lengths (NF per document), piece id and kind, in typed arrays; rebuilt lazily after a change. */
@@ -119,8 +121,12 @@ export class TextIndex {
   load(pieces: PieceDoc[], trials: TrialDoc[]) {
     this.ms = this.fresh();
     this.pieces.clear();
+    this.byId.length = 0;
     this.trials.clear();
-    for (const p of pieces) this.pieces.set(p.id, p);
+    for (const p of pieces) {
+      this.pieces.set(p.id, p);
+      this.byId[p.id] = p;
+    }
     for (const t of trials) this.trials.set(t.id, t);
     this.ms.addAll([...pieces.map(pieceEntry), ...trials.map(trialEntry)]);
     this.flat = null;
@@ -132,6 +138,7 @@ export class TextIndex {
     const prev = this.pieces.get(id);
     if (prev) this.ms.remove(pieceEntry(prev));
     this.pieces.delete(id);
+    this.byId[id] = doc ?? undefined;
     if (doc) {
       this.pieces.set(id, doc);
       this.ms.add(pieceEntry(doc));
@@ -236,19 +243,28 @@ export class TextIndex {
     });
     // minisearch multiplies by the number of distinct query words a document matched: all of them, under AND.
     const quality = new Set(words).size;
-    const scores = new Map<number, number>();
+    let maxPiece = 0;
+    for (const id of this.pieces.keys()) if (id > maxPiece) maxPiece = id;
+    const pieceScore = new Float64Array(maxPiece + 1);
+    const matched = new Uint8Array(maxPiece + 1);
+    const ids: number[] = [];
     const trialsOf = new Map<number, number[]>();
     if (words.length)
       for (const doc of live) {
         const pid = piece[doc];
-        if (pid < 0 || (trial[doc] && !withTrials)) continue;
-        scores.set(pid, (scores.get(pid) ?? 0) + score[doc] * quality);
+        if (pid < 0 || pid > maxPiece || (trial[doc] && !withTrials)) continue;
+        pieceScore[pid] += score[doc] * quality;
+        if (!matched[pid]) {
+          matched[pid] = 1;
+          ids.push(pid);
+        }
         if (trial[doc]) trialsOf.set(pid, [...(trialsOf.get(pid) ?? []), doc]);
       }
+    const scoreOf = (pid: number) => (pid <= maxPiece && matched[pid] ? pieceScore[pid] : undefined);
     // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
     const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
     const detail = (pieceId: number): TextHit => {
-      const hit: TextHit = { score: scores.get(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
+      const hit: TextHit = { score: scoreOf(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
       const own = shortIdOf(ms, `p${pieceId}`);
       const doc = this.pieces.get(pieceId);
       const entries: IndexedDoc[] = [];
@@ -273,7 +289,7 @@ export class TextIndex {
         }
       return hit;
     };
-    return { scores, detail };
+    return { ids, score: scoreOf, detail };
   }
 }
 

@@ -29,9 +29,9 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     for (const q of queries) {
       const want = idx.searchWithMinisearch(q);
       const got = idx.search(q, true);
-      expect(got.scores.size, q).toBe(want.length);
+      expect(got.ids.length, q).toBe(want.length);
       for (const r of want) {
-        expect(got.scores.get(r.pieceId as number), `${q} piece ${r.pieceId}`).toBeCloseTo(r.score, 9);
+        expect(got.score(r.pieceId as number), `${q} piece ${r.pieceId}`).toBeCloseTo(r.score, 9);
         // Matched words and fields (for highlights) as minisearch reports them.
         const d = got.detail(r.pieceId as number);
         expect([...d.terms].sort(), q).toEqual(Object.keys(r.match).sort());
@@ -41,15 +41,15 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     }
     expect(compared).toBeGreaterThan(1000);
     // The removed pieces match nothing.
-    expect(idx.search('T.2', true).scores.has(2)).toBe(false);
+    expect(idx.search('T.2', true).score(2)).toBeUndefined();
   });
 
   it('reports words and fields only for the pieces asked about, and counts trial text for its piece only when allowed', () => {
     const idx = new TextIndex();
     idx.load([piece(1), piece(2)], [{ ...trial(9, 2), notes: 'overdyed with quercitron' }]);
-    expect(idx.search('quercitron', false).scores.size).toBe(0);
+    expect(idx.search('quercitron', false).ids).toEqual([]);
     const hits = idx.search('quercitro', true);
-    expect([...hits.scores.keys()]).toEqual([2]);
+    expect(hits.ids).toEqual([2]);
     const d = hits.detail(2);
     expect(d.viaTrials).toEqual(['TR-9']);
     expect([...d.terms]).toEqual(['quercitron']);
