@@ -60,10 +60,10 @@ function passes(doc: PieceDoc, sel: Selected, skip?: FacetName): boolean {
 function visibleDocs(actor: Actor, ids?: Iterable<number>): PieceDoc[] {
   const drafts = can(actor, 'piece:list-drafts');
   const out: PieceDoc[] = [];
-  const pieces = searchEngine.text.pieces;
+  const { pieces, byId } = searchEngine.text;
   if (ids) {
     for (const id of ids) {
-      const d = pieces.get(id);
+      const d = byId[id];
       if (d && (drafts || d.status === 'published')) out.push(d);
     }
   } else for (const d of pieces.values()) if (drafts || d.status === 'published') out.push(d);
@@ -73,7 +73,7 @@ function visibleDocs(actor: Actor, ids?: Iterable<number>): PieceDoc[] {
 /** Pieces passing visibility, text and every filter; with the text hits for ranking and highlights. */
 function candidates(actor: Actor, f: SearchFilters) {
   const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
-  const docs = visibleDocs(actor, hits?.keys());
+  const docs = visibleDocs(actor, hits?.ids);
   const sel = selected(f);
   return { textMatched: docs, matched: Object.keys(sel).length ? docs.filter((d) => passes(d, sel)) : docs, hits, sel };
 }
@@ -86,34 +86,74 @@ function labelFor(d: PieceDoc, f: FacetName, key: string): string {
   return src.find((v) => norm(v) === key) ?? key;
 }
 
-function facetCounts(docs: PieceDoc[], sel: Selected): FacetCounts {
-  const counts = Object.fromEntries(FACETS.map((f) => [f, new Map<string, { label: string; count: number }>()])) as Record<FacetName, Map<string, { label: string; count: number }>>;
-  const anyOr = FACETS.some((f) => !NARROWING.has(f) && sel[f]);
-  for (const d of docs) {
-    const all = passes(d, sel);
-    for (const f of FACETS) {
-      if (!(NARROWING.has(f) || !anyOr || !sel[f] ? all : passes(d, sel, f))) continue;
-      const m = counts[f];
-      for (const key of d.keys[f]) {
-        const c = m.get(key);
-        if (c) c.count++;
-        else m.set(key, { label: labelFor(d, f, key), count: 1 });
+/**
+ * Every piece's facet values as small integers in one flat array (facet index in the top byte), built once per
+ * index version: counting tens of thousands of hits is then array increments, not string work.
+ */
+type FacetTable = { version: number; start: Int32Array; vals: Int32Array; keys: string[][]; labels: string[][] };
+let table: FacetTable | null = null;
+function facetTable(): FacetTable {
+  if (table?.version === searchEngine.version) return table;
+  const { byId } = searchEngine.text;
+  const intern = FACETS.map(() => new Map<string, number>());
+  const keys: string[][] = FACETS.map(() => []);
+  const labels: string[][] = FACETS.map(() => []);
+  const start = new Int32Array(byId.length + 1);
+  const vals: number[] = [];
+  for (let id = 0; id < byId.length; id++) {
+    start[id] = vals.length;
+    const d = byId[id];
+    if (!d) continue;
+    FACETS.forEach((f, fi) => {
+      for (const k of d.keys[f]) {
+        let i = intern[fi].get(k);
+        if (i === undefined) {
+          intern[fi].set(k, (i = keys[fi].length));
+          keys[fi].push(k);
+          labels[fi].push(labelFor(d, f, k));
+        }
+        vals.push((fi << 24) | i);
       }
+    });
+  }
+  start[byId.length] = vals.length;
+  return (table = { version: searchEngine.version, start, vals: Int32Array.from(vals), keys, labels });
+}
+
+function facetCounts(docs: PieceDoc[], sel: Selected): FacetCounts {
+  const t = facetTable();
+  const counts = FACETS.map((_, fi) => new Int32Array(t.keys[fi].length));
+  const anySel = Object.keys(sel).length > 0;
+  // A widening (OR) facet's own counts ignore its own choice.
+  const ownRule = FACETS.map((f) => !NARROWING.has(f) && Boolean(sel[f]));
+  const anyOwn = ownRule.some(Boolean);
+  const { start, vals } = t;
+  for (const d of docs) {
+    const all = !anySel || passes(d, sel);
+    if (!all && !anyOwn) continue;
+    for (let k = start[d.id], end = start[d.id + 1]; k < end; k++) {
+      const v = vals[k];
+      const fi = v >>> 24;
+      if (ownRule[fi] ? !passes(d, sel, FACETS[fi]) : !all) continue;
+      counts[fi][v & 0xffffff]++;
     }
   }
   const out = {} as FacetCounts;
-  for (const f of FACETS)
-    out[f] = [...counts[f].entries()]
-      .map(([key, c]) => ({ value: f === 'century' ? key : c.label, label: c.label, count: c.count }))
-      .sort((x, y) => (f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label)))
-      .slice(0, 100);
+  FACETS.forEach((f, fi) => {
+    const rows: Array<{ value: string; label: string; count: number }> = [];
+    t.keys[fi].forEach((key, i) => {
+      const n = counts[fi][i];
+      if (n) rows.push({ value: f === 'century' ? key : t.labels[fi][i], label: t.labels[fi][i], count: n });
+    });
+    out[f] = rows.sort((x, y) => (f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label))).slice(0, 100);
+  });
   return out;
 }
 
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
   const { textMatched, matched, hits, sel } = candidates(actor, input);
-  const score = (d: PieceDoc) => hits?.get(d.id)?.score ?? 0;
+  const score = (d: PieceDoc) => hits?.score(d.id) ?? 0;
   // Rank only as far as the page asked for (bounded heap), not the whole match list.
   const before = hits
     ? (x: PieceDoc, y: PieceDoc) => score(x) > score(y) || (score(x) === score(y) && x.id < y.id)
@@ -121,7 +161,7 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
   const page = selectTop(matched, input.page * input.pageSize, before).slice((input.page - 1) * input.pageSize);
   const photos = searchEngine.shade.firstPhotoOf(page.map((d) => d.id));
   const items: SearchItem[] = page.map((d) => {
-    const hit = hits?.get(d.id);
+    const hit = hits?.detail(d.id);
     return {
       id: d.id,
       accessionNumber: d.accessionNumber,

@@ -27,6 +27,18 @@
  * h̄' come to 275° (if the box, stretched by 1+G in a*, contains the a*b*
  * origin, h̄' is still within 90° of the query's hue). Each step uses only facts true for every match
  * inside the previous box, so every box is safe and we keep the smallest.
+ *
+ * Ellipsoid. The box's corners are not reachable together: a match has
+ * (ΔL/hwL)² + (Δa² + Δb²)/hwAB² ≤ 1. Proof: write u = ΔL/SL, so Q ≤ r² − u²
+ * =: ρ². The chroma argument above with ρ in place of r (its constants k, G, SC
+ * bounds are facts about the same box) gives d' ≤ F(ρ) with
+ * F(ρ) = ρ·A/(1 − Bρ); F(ρ)/ρ grows with ρ, so d' ≤ (ρ/r)·F(r) = (ρ/r)·hwAB.
+ * √(Δa² + Δb²) ≤ d' (a' = a(1+G)), and SL ≤ hwL/r inside the box, so
+ * (ΔL/hwL)² ≤ u²/r². Adding: ≤ u²/r² + ρ²/r² = 1. The index skips grid cells
+ * and colours outside it. The same steps with any t ≤ r in place of r (ΔE00 = t)
+ * give (ΔL/hwL)² + (Δa² + Δb²)/hwAB² ≤ t²/r²: inside the box, ΔE00 ≥ r·e with e
+ * the ellipsoid norm, a lower bound the index uses to skip colours that cannot
+ * beat their piece's best.
  */
 const DEG = Math.PI / 180;
 const P25_7 = 25 ** 7;
@@ -136,4 +148,9 @@ export function chromaHalfWidth(a1: number, b1: number, r: number): number {
 export function shadeBox(q: { L: number; a: number; b: number }, r: number): ShadeBox {
   const pad = 1e-6;
   return { hwL: lightnessHalfWidth(q.L, r) * (1 + pad) + pad, hwAB: chromaHalfWidth(q.a, q.b, r) * (1 + pad) + pad };
+}
+
+/** Whether an offset from the query lies in the ellipsoid inscribed in the box (see the module comment); every match does. */
+export function inShadeEllipsoid(box: ShadeBox, dL: number, da: number, db: number): boolean {
+  return (dL * dL) / (box.hwL * box.hwL) + (da * da + db * db) / (box.hwAB * box.hwAB) <= 1 + 1e-9;
 }

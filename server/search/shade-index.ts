@@ -33,6 +33,18 @@ const AB_MIN = -128;
 const NAB = 128;
 const NCELLS = NL * NAB * NAB;
 const TAIL_LIMIT = 20_000;
+// The ellipsoid test is done in floating point; this slack keeps points on its surface.
+const ELLIPSOID_SLACK = 1 + 1e-9;
+// The ΔE00 lower bound r·√e2 is shrunk by a hair for floating-point rounding before it is trusted to skip a colour.
+const LB_SHRINK = 1 - 1e-9;
+
+/** Distance from v to grid cell i of n cells starting at min (0 inside it); the clamped edge cells reach to ±∞. */
+function gap(v: number, min: number, i: number, n: number) {
+  const lo = min + i * CELL;
+  if (v < lo) return i === 0 ? 0 : lo - v;
+  if (v > lo + CELL) return i === n - 1 ? 0 : v - lo - CELL;
+  return 0;
+}
 
 const clampIdx = (v: number, n: number) => (v < 0 ? 0 : v >= n ? n - 1 : v);
 const lIdx = (L: number) => clampIdx(Math.floor((L - L_MIN) / CELL), NL);
@@ -218,19 +230,23 @@ export class ShadeIndex {
     const touched: number[] = [];
     let candidates = 0;
 
+    // The ellipsoid of shade-bounds.ts (inside the box): (ΔL/hwL)² + ((Δa²+Δb²)/hwAB²) ≤ 1 for every match.
+    const invL2 = q.scanAll ? 0 : 1 / (box.hwL * box.hwL);
+    const invAB2 = q.scanAll ? 0 : 1 / (box.hwAB * box.hwAB);
     const scan = (c: Columns, from: number, to: number, tailFlag: number) => {
       const { L, A, B, C, alive, photo, share } = c;
       for (let j = from; j < to; j++) {
         const dL = L[j] - qL;
-        if (dL > box.hwL || dL < -box.hwL) continue;
         const da = A[j] - qa;
-        if (da > box.hwAB || da < -box.hwAB) continue;
         const db = B[j] - qb;
-        if (db > box.hwAB || db < -box.hwAB) continue;
+        const e2 = dL * dL * invL2 + (da * da + db * db) * invAB2;
+        if (e2 > ELLIPSOID_SLACK) continue;
         if (!alive[j]) continue;
         const ph = photo[j];
         const pid = ph < photoPiece.length ? photoPiece[ph] : 0;
         if (pid <= 0 || (allow !== null && !allow[pid])) continue;
+        // Per-piece early exit: ΔE00 ≥ r·√e2 (shade-bounds.ts), so a colour that cannot beat the piece's best is skipped.
+        if (stamp[pid] === gen && r * Math.sqrt(e2) * LB_SHRINK > bestDe[pid]) continue;
         candidates++;
         const de = deltaE00Raw(qL, qa, qb, qC, L[j], A[j], B[j], C[j]);
         if (de > r) continue;
@@ -255,11 +271,24 @@ export class ShadeIndex {
     const b1 = abIdx(qb + box.hwAB);
     if (q.scanAll) scan(this.main, 0, this.main.n, 0);
     else
-      for (let li = l0; li <= l1; li++)
+      for (let li = l0; li <= l1; li++) {
+        // Skip whole cells by their point nearest the query: what the ellipsoid leaves of a*b* after this L* slab.
+        const gL = gap(qL, L_MIN, li, NL);
+        const restL = ELLIPSOID_SLACK - gL * gL * invL2;
+        if (restL < 0) continue;
         for (let ai = a0; ai <= a1; ai++) {
+          const ga = gap(qa, AB_MIN, ai, NAB);
+          const restAB = restL / invAB2 - ga * ga;
+          if (restAB < 0) continue;
+          // Cells whose b* span comes within √restAB of the query's b* (one contiguous run of the grid).
+          const hb = Math.sqrt(restAB);
+          const lo = Math.max(b0, abIdx(qb - hb));
+          const hi = Math.min(b1, abIdx(qb + hb));
+          if (lo > hi) continue;
           const base = (li * NAB + ai) * NAB;
-          scan(this.main, this.start[base + b0], this.start[base + b1 + 1], 0);
+          scan(this.main, this.start[base + lo], this.start[base + hi + 1], 0);
         }
+      }
     scan(this.tail, 0, this.tail.n, TAIL_BIT);
 
     const need = (q.offset ?? 0) + q.limit;

@@ -53,12 +53,61 @@ const queryTokens = (text: string) => text.split(/\s+/).map((w) => w.replace(EDG
 
 export type TextHit = { score: number; terms: Set<string>; fields: Set<TextField>; viaTrials: string[] };
 
+/** The pieces a text query matched: every score (for ranking and facets), details only when asked (for the page shown). */
+export type TextMatches = { ids: number[]; score: (pieceId: number) => number | undefined; detail: (pieceId: number) => TextHit };
+
+// minisearch's defaults (7.2.0): prefix/fuzzy weights and BM25+ parameters; the scorer below reproduces its formula.
+const WEIGHT_PREFIX = 0.375;
+const WEIGHT_FUZZY = 0.45;
+const BM25 = { k: 1.2, b: 0.7, d: 0.5 };
+const MAX_FUZZY = 2;
+const prefixOk = (term: string) => term.length >= 2;
+// 1 edit from 4 letters, 20 % of the length from 5 (at most MAX_FUZZY).
+const fuzzyEdits = (term: string) => (term.length >= 5 ? Math.min(MAX_FUZZY, Math.round(term.length * 0.2)) : term.length >= 4 ? 1 : 0);
+
+type Postings = Map<number, Map<number, number>>;
+/** The parts of minisearch's index the scorer reads (pinned minisearch 7.2.0; checked against its own search in tests/unit/text-index.test.ts). */
+type MsInternals = {
+  _index: { get(t: string): Postings | undefined; atPrefix(t: string): Iterable<[string, Postings]>; fuzzyGet(t: string, d: number): Map<string, [Postings, number]> };
+  _fieldIds: Record<string, number>;
+  _avgFieldLength: number[];
+  _fieldLength: Map<number, number[]>;
+  _documentCount: number;
+  _documentIds: Map<number, string>;
+  _storedFields: Map<number, { kind: 'piece' | 'trial'; refId: number; pieceId: number | null }>;
+  _nextId: number;
+  _idToShortId: Map<string, number>;
+};
+type Expansion = { term: string; weight: number; data: Postings };
+
 export class TextIndex {
   readonly pieces = new Map<number, PieceDoc>();
+  /** The same documents in an array indexed by piece id, for lookups over tens of thousands of hits. */
+  readonly byId: Array<PieceDoc | undefined> = [];
   readonly trials = new Map<number, TrialDoc>();
   private ms = this.fresh();
+  /** Per short document id: field lengths (NF per document), piece id and kind, in typed arrays; rebuilt lazily after a change. */
+  private flat: { fieldLen: Float64Array; piece: Int32Array; trial: Uint8Array } | null = null;
+
+  private flatten() {
+    if (this.flat) return this.flat;
+    const ms = this.ms as unknown as MsInternals;
+    const n = ms._nextId;
+    const nf = TEXT_FIELDS.length;
+    const fieldLen = new Float64Array(n * nf);
+    const piece = new Int32Array(n).fill(-1);
+    const trial = new Uint8Array(n);
+    const fids = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
+    for (const [doc, lens] of ms._fieldLength) for (let f = 0; f < nf; f++) fieldLen[doc * nf + f] = lens[fids[f]] ?? 0;
+    for (const [doc, st] of ms._storedFields) {
+      piece[doc] = st.pieceId ?? -1;
+      trial[doc] = st.kind === 'trial' ? 1 : 0;
+    }
+    return (this.flat = { fieldLen, piece, trial });
+  }
 
   private fresh() {
+    this.flat = null;
     return new MiniSearch<IndexedDoc>({
       fields: [...TEXT_FIELDS],
       storeFields: ['kind', 'refId', 'pieceId'],
@@ -72,15 +121,24 @@ export class TextIndex {
   load(pieces: PieceDoc[], trials: TrialDoc[]) {
     this.ms = this.fresh();
     this.pieces.clear();
+    this.byId.length = 0;
     this.trials.clear();
-    for (const p of pieces) this.pieces.set(p.id, p);
+    for (const p of pieces) {
+      this.pieces.set(p.id, p);
+      this.byId[p.id] = p;
+    }
     for (const t of trials) this.trials.set(t.id, t);
     this.ms.addAll([...pieces.map(pieceEntry), ...trials.map(trialEntry)]);
+    this.flat = null;
   }
 
+  // remove() (not discard()) so the postings never hold stale documents and every score follows minisearch's formula exactly.
   setPiece(id: number, doc: PieceDoc | null) {
-    if (this.pieces.has(id)) this.ms.discard(`p${id}`);
+    this.flat = null;
+    const prev = this.pieces.get(id);
+    if (prev) this.ms.remove(pieceEntry(prev));
     this.pieces.delete(id);
+    this.byId[id] = doc ?? undefined;
     if (doc) {
       this.pieces.set(id, doc);
       this.ms.add(pieceEntry(doc));
@@ -88,7 +146,9 @@ export class TextIndex {
   }
 
   setTrial(id: number, doc: TrialDoc | null) {
-    if (this.trials.has(id)) this.ms.discard(`t${id}`);
+    this.flat = null;
+    const prev = this.trials.get(id);
+    if (prev) this.ms.remove(trialEntry(prev));
     this.trials.delete(id);
     if (doc) {
       this.trials.set(id, doc);
@@ -96,35 +156,144 @@ export class TextIndex {
     }
   }
 
-  /**
-   * Pieces matching every word (prefix and fuzzy), scored by minisearch with the
-   * field boosts; trial hits count for their piece when `withTrials`.
-   */
-  search(q: string, withTrials: boolean): Map<number, TextHit> {
-    const hits = new Map<number, TextHit>();
-    const results = this.ms.search(q, {
-      prefix: (term) => term.length >= 2,
+  /** The same query through minisearch's own search(): the oracle the fast scorer is tested against. */
+  searchWithMinisearch(q: string) {
+    return this.ms.search(q, {
+      prefix: prefixOk,
       fuzzy: (term) => (term.length >= 5 ? 0.2 : term.length >= 4 ? 1 : 0),
-      maxFuzzy: 2,
+      maxFuzzy: MAX_FUZZY,
       boost: BOOST,
       combineWith: 'AND',
-      filter: (r) => withTrials || r.kind === 'piece',
     });
-    for (const r of results) {
-      const pieceId = r.pieceId as number | null;
-      if (pieceId == null) continue;
-      const hit = hits.get(pieceId) ?? { score: 0, terms: new Set<string>(), fields: new Set<TextField>(), viaTrials: [] };
-      hit.score += r.score;
-      for (const [term, fields] of Object.entries(r.match)) {
-        hit.terms.add(term);
-        for (const f of fields) hit.fields.add(f as TextField);
+  }
+
+  /** Each query word's index terms: itself, its prefix extensions and its fuzzy neighbours, weighted as minisearch does. */
+  private expand(word: string): Expansion[] {
+    const ms = this.ms as unknown as MsInternals;
+    const out: Expansion[] = [];
+    const exact = ms._index.get(word);
+    if (exact) out.push({ term: word, weight: 1, data: exact });
+    const prefixed = new Set<string>();
+    if (prefixOk(word))
+      for (const [term, data] of ms._index.atPrefix(word)) {
+        const distance = term.length - word.length;
+        if (!distance) continue;
+        prefixed.add(term);
+        out.push({ term, weight: (WEIGHT_PREFIX * term.length) / (term.length + 0.3 * distance), data });
       }
-      if (r.kind === 'trial') hit.viaTrials.push(this.trials.get(r.refId as number)?.code ?? '');
-      hits.set(pieceId, hit);
-    }
-    return hits;
+    const edits = fuzzyEdits(word);
+    if (edits)
+      for (const [term, [data, distance]] of ms._index.fuzzyGet(word, edits)) {
+        if (!distance || prefixed.has(term)) continue;
+        out.push({ term, weight: (WEIGHT_FUZZY * term.length) / (term.length + distance), data });
+      }
+    return out;
+  }
+
+  /**
+   * Documents matching every word (prefix and fuzzy) with minisearch's BM25+
+   * score and field boosts, summed per piece (trial hits count for their piece
+   * when `withTrials`). Scores go into flat arrays indexed by minisearch's
+   * short document id, so a word found in most documents costs one pass over
+   * its postings, not an object per document; words, fields and trial codes are
+   * worked out only for the pieces a page shows.
+   */
+  search(q: string, withTrials: boolean): TextMatches {
+    const ms = this.ms as unknown as MsInternals;
+    const words = queryTokens(q).map((t) => t.toLowerCase());
+    const perWord = words.map((w) => this.expand(w));
+    const n = ms._nextId;
+    const score = new Float64Array(n);
+    const hitCount = new Uint16Array(n);
+    const seen = new Uint16Array(n);
+    const fieldIds = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
+    const boosts = TEXT_FIELDS.map((f) => BOOST[f] ?? 1);
+    const docCount = ms._documentCount;
+    const { fieldLen, piece, trial } = this.flatten();
+    const nf = TEXT_FIELDS.length;
+    let live: number[] = [];
+    perWord.forEach((exps, w) => {
+      const stamp = w + 1;
+      const touched: number[] = [];
+      for (const { weight, data } of exps)
+        for (let f = 0; f < fieldIds.length; f++) {
+          const freqs = data.get(fieldIds[f]);
+          if (!freqs) continue;
+          const fid = fieldIds[f];
+          const matching = freqs.size;
+          const idf = Math.log(1 + (docCount - matching + 0.5) / (matching + 0.5));
+          const avg = ms._avgFieldLength[fid];
+          const wb = weight * boosts[f];
+          const k1 = BM25.k * (1 - BM25.b);
+          const k2 = (BM25.k * BM25.b) / avg;
+          const base = wb * idf;
+          for (const [doc, tf] of freqs) {
+            // AND: after the first word, only documents that matched every earlier word can still match.
+            if (hitCount[doc] !== w) continue;
+            const len = fieldLen[doc * nf + f];
+            score[doc] += base * (BM25.d + (tf * (BM25.k + 1)) / (tf + k1 + k2 * len));
+            if (seen[doc] !== stamp) {
+              seen[doc] = stamp;
+              touched.push(doc);
+            }
+          }
+        }
+      for (const doc of touched) hitCount[doc] = w + 1;
+      live = touched;
+    });
+    // minisearch multiplies by the number of distinct query words a document matched: all of them, under AND.
+    const quality = new Set(words).size;
+    let maxPiece = 0;
+    for (const id of this.pieces.keys()) if (id > maxPiece) maxPiece = id;
+    const pieceScore = new Float64Array(maxPiece + 1);
+    const matched = new Uint8Array(maxPiece + 1);
+    const ids: number[] = [];
+    const trialsOf = new Map<number, number[]>();
+    if (words.length)
+      for (const doc of live) {
+        const pid = piece[doc];
+        if (pid < 0 || pid > maxPiece || (trial[doc] && !withTrials)) continue;
+        pieceScore[pid] += score[doc] * quality;
+        if (!matched[pid]) {
+          matched[pid] = 1;
+          ids.push(pid);
+        }
+        if (trial[doc]) trialsOf.set(pid, [...(trialsOf.get(pid) ?? []), doc]);
+      }
+    const scoreOf = (pid: number) => (pid <= maxPiece && matched[pid] ? pieceScore[pid] : undefined);
+    // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
+    const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
+    const detail = (pieceId: number): TextHit => {
+      const hit: TextHit = { score: scoreOf(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
+      const own = shortIdOf(ms, `p${pieceId}`);
+      const doc = this.pieces.get(pieceId);
+      const entries: IndexedDoc[] = [];
+      if (doc && own !== undefined && hitCount[own] === words.length) entries.push(pieceEntry(doc));
+      for (const t of trialsOf.get(pieceId) ?? []) {
+        const tr = this.trials.get(ms._storedFields.get(t)!.refId);
+        if (!tr) continue;
+        hit.viaTrials.push(tr.code);
+        entries.push(trialEntry(tr));
+      }
+      for (const e of entries)
+        for (const f of TEXT_FIELDS) {
+          const text = e[f];
+          if (!text) continue;
+          for (const tok of tokenize(text)) {
+            const term = tok.toLowerCase();
+            if (expanded.has(term)) {
+              hit.terms.add(term);
+              hit.fields.add(f);
+            }
+          }
+        }
+      return hit;
+    };
+    return { ids, score: scoreOf, detail };
   }
 }
+
+const shortIdOf = (ms: MsInternals, id: string) => ms._idToShortId.get(id);
 
 const list = (xs: string[]) => xs.join(' ; ');
 

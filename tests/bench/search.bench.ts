@@ -8,7 +8,10 @@ import { CLUSTERS, VOCAB, clusteredColour, insertPalettes, insertPieces, rnd, un
  * (same process, same run), with results checked identical; then text search
  * over the same pieces with its index build time and memory.
  */
-const PIECES = 166_667;
+// BENCH_SIZE scales the archive for quick runs (0.1 = a tenth); BENCH_PARTS picks uniform, clustered and/or text.
+const SIZE = Number(process.env.BENCH_SIZE ?? 1);
+const PARTS = (process.env.BENCH_PARTS ?? 'uniform,clustered,text').split(',');
+const PIECES = Math.round(166_667 * SIZE);
 const PER_PHOTO = 6;
 const QUERIES = 200;
 const CHECKED = 40;
@@ -52,6 +55,7 @@ export const searchBench: Bench = {
         },
       ],
     ] as const) {
+      if (!PARTS.includes(label)) continue;
       const [, palMs] = await timed(() => insertPalettes(photoIds, PER_PHOTO, make));
       out.push({ metric: `${label}: insert palette colours`, value: palMs / 1000, unit: `s (${photoIds.length * PER_PHOTO} colours)` });
       const [, loadMs] = await timed(() => searchEngine.reloadAll());
@@ -89,6 +93,10 @@ export const searchBench: Bench = {
       );
     }
 
+    if (!PARTS.includes('text')) {
+      await server.close();
+      return out;
+    }
     // Text: rebuild the text index alone to time it and weigh it.
     const before = process.memoryUsage().heapUsed;
     const [, textMs] = await timed(async () => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { bruteForceShade } from '../../server/search/brute.ts';
 import { deltaE00 } from '../../server/search/ciede2000.ts';
-import { shadeBox } from '../../server/search/shade-bounds.ts';
+import { inShadeEllipsoid, shadeBox } from '../../server/search/shade-bounds.ts';
 import { ShadeIndex, type ShadeRow } from '../../server/search/shade-index.ts';
 
 let seed = 12345;
@@ -38,10 +38,11 @@ const same = (idx: ShadeIndex, q: { L: number; a: number; b: number; maxDeltaE: 
 };
 
 describe('shade prefilter box (shade-bounds.ts)', () => {
-  it('never excludes a colour within the ΔE00 radius: 40 000 pairs placed just inside the radius, biased to greys and blues', () => {
+  it('never excludes a colour within the ΔE00 radius (box and inscribed ellipsoid): 40 000 pairs placed just inside the radius, biased to greys and blues', () => {
     let checked = 0;
     const missed: unknown[] = [];
     let naiveMissed = 0;
+    let cornerInside = 0;
     for (let i = 0; i < 40_000; i++) {
       const q = i % 3 === 0 ? { L: rnd() * 100, a: gauss() * 3, b: gauss() * 3 } : colour(i);
       const r = [0.5, 1, 2, 5, 10, 20, 30][i % 7];
@@ -58,10 +59,14 @@ describe('shade prefilter box (shade-bounds.ts)', () => {
       if (deltaE00(q, s) > r) continue;
       const box = shadeBox(q, r);
       if (Math.abs(s.L - q.L) > box.hwL || Math.abs(s.a - q.a) > box.hwAB || Math.abs(s.b - q.b) > box.hwAB) missed.push({ q, s, r, box });
+      if (!inShadeEllipsoid(box, s.L - q.L, s.a - q.a, s.b - q.b)) missed.push({ ellipsoid: true, q, s, r, box });
+      if (inShadeEllipsoid(box, box.hwL, box.hwAB, box.hwAB)) cornerInside++;
       if (Math.abs(s.L - q.L) > r || Math.abs(s.a - q.a) > r || Math.abs(s.b - q.b) > r) naiveMissed++;
       checked++;
     }
     expect(missed).toEqual([]);
+    // The ellipsoid really is tighter than the box: its corners lie outside.
+    expect(cornerInside).toBe(0);
     // The same points defeat a naive ±r box, so this check has teeth.
     expect(naiveMissed / checked).toBeGreaterThan(0.3);
     expect(checked).toBeGreaterThan(30_000);

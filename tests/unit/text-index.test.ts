@@ -1,0 +1,58 @@
+import { describe, expect, it } from 'vitest';
+import { facetKeys, type PieceDoc, type TrialDoc } from '../../server/search/docs.ts';
+import { TextIndex } from '../../server/search/text-index.ts';
+
+let seed = 777;
+const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+// A skewed vocabulary: a few words in most documents, many rare ones (so prefix and fuzzy neighbours exist).
+const VOCAB = ['madder', 'mader', 'madders', 'indigo', 'indigos', 'weld', 'welds', 'alum', 'alumina', 'iron', 'ironed', 'chintz', 'chints', 'resist', 'calico'];
+for (let i = 0; i < 300; i++) VOCAB.push(['ka', 'lo', 'mer', 'tin', 'va', 'dre'][i % 6] + ['sol', 'pa', 'ri', 'gon'][i % 4] + String.fromCharCode(97 + (i % 26)) + (i > 150 ? 'e' : ''));
+const word = () => VOCAB[Math.min(VOCAB.length - 1, Math.floor(VOCAB.length * rnd() ** 3))];
+const words = (n: number) => Array.from({ length: n }, word).join(' ');
+
+function piece(id: number): PieceDoc {
+  const d: Omit<PieceDoc, 'keys'> = {
+    id, accessionNumber: `T.${id}`, title: words(3), objectName: 'panel', description: words(20), provenance: words(3), place: 'market town', dateText: '',
+    techniques: ['resist'], dyestuffs: [word()], historicalMordants: ['potash alum'], modernMordants: [], fibres: ['cotton'], centuries: [18], status: 'published',
+  };
+  return { ...d, keys: facetKeys(d) };
+}
+const trial = (id: number, pieceId: number): TrialDoc => ({ id, code: `TR-${id}`, pieceId, notes: words(8), modernMordants: [], dyestuffs: [word()] });
+
+describe('text index scorer (text-index.ts) = minisearch search() (the library itself as oracle)', () => {
+  it('gives the same documents and scores for exact, prefix, fuzzy and multi-word queries, through edits and removals', () => {
+    const idx = new TextIndex();
+    idx.load(Array.from({ length: 600 }, (_, i) => piece(i + 1)), []);
+    for (let i = 1; i <= 40; i++) idx.setPiece(i, i % 2 ? piece(i) : null);
+    const queries = ['madder', 'madd', 'maxder', 'indigo weld', 'al', 'chintz iron', 'kasola', 'T.77', 'madder madder', 'zzzz', 'lopa merri'];
+    let compared = 0;
+    for (const q of queries) {
+      const want = idx.searchWithMinisearch(q);
+      const got = idx.search(q, true);
+      expect(got.ids.length, q).toBe(want.length);
+      for (const r of want) {
+        expect(got.score(r.pieceId as number), `${q} piece ${r.pieceId}`).toBeCloseTo(r.score, 9);
+        // Matched words and fields (for highlights) as minisearch reports them.
+        const d = got.detail(r.pieceId as number);
+        expect([...d.terms].sort(), q).toEqual(Object.keys(r.match).sort());
+        expect([...d.fields].sort(), q).toEqual([...new Set(Object.values(r.match).flat())].sort());
+        compared++;
+      }
+    }
+    expect(compared).toBeGreaterThan(1000);
+    // The removed pieces match nothing.
+    expect(idx.search('T.2', true).score(2)).toBeUndefined();
+  });
+
+  it('reports words and fields only for the pieces asked about, and counts trial text for its piece only when allowed', () => {
+    const idx = new TextIndex();
+    idx.load([piece(1), piece(2)], [{ ...trial(9, 2), notes: 'overdyed with quercitron' }]);
+    expect(idx.search('quercitron', false).ids).toEqual([]);
+    const hits = idx.search('quercitro', true);
+    expect(hits.ids).toEqual([2]);
+    const d = hits.detail(2);
+    expect(d.viaTrials).toEqual(['TR-9']);
+    expect([...d.terms]).toEqual(['quercitron']);
+    expect([...d.fields]).toEqual(['notes']);
+  });
+});
