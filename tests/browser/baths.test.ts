@@ -45,4 +45,29 @@ describe('the bath ledger in Chromium', () => {
     await expect(page.getByRole('alert').textContent()).resolves.toMatch(/Only 380 mL/);
     await expect(remaining.textContent()).resolves.toBe('380 mL');
   });
+
+  it('lets the dyer make a new bath from chemicals in grams, and shows them with its cautions', async () => {
+    const page = await browser.context.newPage();
+    await signInAs(page, server.url, 'dyer@demo.test');
+    await page.goto(`${server.url}/baths`);
+    await page.getByRole('heading', { name: 'Baths', level: 1 }).waitFor();
+    await page.getByRole('button', { name: 'New bath' }).click();
+    const form = page.getByRole('form', { name: 'New bath' });
+    const code = `NB-${Date.now() % 1_000_000}`;
+    await form.getByLabel('Code').fill(code);
+    await form.getByLabel('Name').fill('Alum and chalk bath made in the browser');
+    await form.getByLabel(/^Volume/).fill('3000');
+    await form.getByLabel('Ingredient 1', { exact: true }).selectOption({ label: 'potash alum' });
+    await form.getByLabel('Amount of ingredient 1 (g)').fill('45');
+    await form.getByRole('button', { name: 'Add an ingredient' }).click();
+    await form.getByLabel('Ingredient 2', { exact: true }).selectOption({ label: 'calcium carbonate (chalk)' });
+    await form.getByLabel('Amount of ingredient 2 (g)').fill('6');
+    await form.getByRole('button', { name: 'Create bath' }).click();
+    await page.getByRole('heading', { name: new RegExp(code) }).waitFor();
+    const ingredients = await page.getByRole('region', { name: 'Ingredients' }).textContent();
+    expect(ingredients).toContain('potash alum: 45 g');
+    expect(ingredients).toContain('calcium carbonate (chalk): 6 g');
+    expect(ingredients).toContain('Water: 3000 mL');
+    await page.close();
+  });
 });

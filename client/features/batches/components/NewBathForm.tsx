@@ -6,6 +6,7 @@ import { Field } from '../../../components/form/Field';
 import { ApiError } from '../../../lib/http';
 import { paths } from '../../../paths';
 import { useBatches, useCreateBatch } from '../api';
+import { IngredientRows, ingredientsFrom } from './IngredientRows';
 
 const num = (v: FormDataEntryValue | null) => (v === null || v === '' ? undefined : Number(v));
 
@@ -15,6 +16,7 @@ export function NewBathForm({ onDone }: { onDone: () => void }) {
   const parents = useBatches({ status: 'active' });
   const navigate = useNavigate();
   const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [rows, setRows] = useState([{ key: '', grams: '' }]);
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -22,7 +24,7 @@ export function NewBathForm({ onDone }: { onDone: () => void }) {
     const raw = {
       code: f.get('code'), kind: f.get('kind'), name: f.get('name'), volumeMl: num(f.get('volumeMl')), madeOn: f.get('madeOn'),
       checkBy: f.get('checkBy') || null, thickenerGPerL: num(f.get('thickenerGPerL')) ?? null, ph: num(f.get('ph')) ?? null,
-      uptakePerUse: (num(f.get('uptakePct')) ?? 10) / 100, parentId: num(f.get('parentId')) ?? null, notes: f.get('notes') || null,
+      ingredients: ingredientsFrom(rows), uptakePerUse: (num(f.get('uptakePct')) ?? 10) / 100, parentId: num(f.get('parentId')) ?? null, notes: f.get('notes') || null,
     };
     const parsed = batchCreateSchema.safeParse(raw);
     if (!parsed.success) {
@@ -60,6 +62,7 @@ export function NewBathForm({ onDone }: { onDone: () => void }) {
           {parents.data?.items.map((p) => <option key={p.id} value={p.id}>{p.code} · {p.name}</option>)}
         </select>
       </label>
+      <IngredientRows rows={rows} onChange={setRows} error={errors.ingredients} />
       <Field label="Notes" name="notes" className="sm:col-span-2" error={errors.notes} />
       {formError ? <p role="alert" className="sm:col-span-3 rounded-md bg-danger-tint px-3 py-2 text-sm text-danger">{formError}</p> : null}
       <div className="sm:col-span-3"><Button type="submit" disabled={create.isPending}>Create bath</Button></div>
