@@ -26,6 +26,11 @@ export async function signInAs(page: import('playwright-core').Page, baseUrl: st
   await page.goto(`${baseUrl}/sign-in`);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
+  // Wait for the answer itself: when the context is already signed in, the user menu shows
+  // before the new session's cookie arrives, and navigating then would abort the sign-in.
+  const answered = page.waitForResponse((r) => r.url().endsWith('/api/auth/login') && r.request().method() === 'POST');
   await page.getByRole('button', { name: 'Sign in' }).click();
+  const res = await answered;
+  if (res.status() !== 200) throw new Error(`sign-in as ${email} answered ${res.status()}`);
   await page.getByTestId('signed-in-as').waitFor();
 }
