@@ -54,7 +54,13 @@ const queryTokens = (text: string) => text.split(/\s+/).map((w) => w.replace(EDG
 export type TextHit = { score: number; terms: Set<string>; fields: Set<TextField>; viaTrials: string[] };
 
 /** The pieces a text query matched: every score (for ranking and facets), details only when asked (for the page shown). */
-export type TextMatches = { ids: number[]; score: (pieceId: number) => number | undefined; detail: (pieceId: number) => TextHit };
+export type TextMatches = {
+  ids: number[];
+  /** Scores indexed by piece id; meaningful only for the ids matched. */
+  scores: Float64Array;
+  score: (pieceId: number) => number | undefined;
+  detail: (pieceId: number) => TextHit;
+};
 
 // minisearch's defaults (7.2.0): prefix/fuzzy weights and BM25+ parameters; the scorer below reproduces its formula.
 const WEIGHT_PREFIX = 0.375;
@@ -243,8 +249,7 @@ export class TextIndex {
     });
     // minisearch multiplies by the number of distinct query words a document matched: all of them, under AND.
     const quality = new Set(words).size;
-    let maxPiece = 0;
-    for (const id of this.pieces.keys()) if (id > maxPiece) maxPiece = id;
+    const maxPiece = Math.max(0, this.byId.length - 1);
     const pieceScore = new Float64Array(maxPiece + 1);
     const matched = new Uint8Array(maxPiece + 1);
     const ids: number[] = [];
@@ -289,7 +294,7 @@ export class TextIndex {
         }
       return hit;
     };
-    return { ids, score: scoreOf, detail };
+    return { ids, scores: pieceScore, score: scoreOf, detail };
   }
 }
 
