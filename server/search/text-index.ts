@@ -94,9 +94,14 @@ export class TextIndex {
   private ms = this.fresh();
   /** Per short document id: field lengths (NF per document), piece id and kind, in typed arrays; rebuilt lazily after a change. */
   private flat: { fieldLen: Float64Array; piece: Int32Array; trial: Uint8Array } | null = null;
+  /** Flattened postings per index term, valid while `flat` is (both are dropped on every change). */
+  private posted = new Map<string, { docs: Int32Array; contrib: Float64Array }>();
+  private postedSize = 0;
 
   private flatten() {
     if (this.flat) return this.flat;
+    this.posted.clear();
+    this.postedSize = 0;
     const ms = this.ms as unknown as MsInternals;
     const n = ms._nextId;
     const nf = TEXT_FIELDS.length;
@@ -173,6 +178,47 @@ export class TextIndex {
     });
   }
 
+  /**
+   * One index term's postings over every field as flat arrays: document ids and each one's BM25+ contribution
+   * with its field boost (idf, term frequency and field length do not depend on the query; the prefix/fuzzy
+   * weight does, and multiplies in). Built on first use and kept until the index changes, so a common word is
+   * a pass over two typed arrays rather than over nested Maps.
+   */
+  private postings(term: string, data: Postings) {
+    const hit = this.posted.get(term);
+    if (hit) return hit;
+    const ms = this.ms as unknown as MsInternals;
+    const { fieldLen } = this.flatten();
+    const nf = TEXT_FIELDS.length;
+    let size = 0;
+    for (const freqs of data.values()) size += freqs.size;
+    const docs = new Int32Array(size);
+    const contrib = new Float64Array(size);
+    let i = 0;
+    for (let f = 0; f < nf; f++) {
+      const fid = ms._fieldIds[TEXT_FIELDS[f]];
+      const freqs = data.get(fid);
+      if (!freqs) continue;
+      const matching = freqs.size;
+      const idf = Math.log(1 + (ms._documentCount - matching + 0.5) / (matching + 0.5));
+      const k1 = BM25.k * (1 - BM25.b);
+      const k2 = (BM25.k * BM25.b) / ms._avgFieldLength[fid];
+      const base = (BOOST[TEXT_FIELDS[f]] ?? 1) * idf;
+      for (const [doc, tf] of freqs) {
+        docs[i] = doc;
+        contrib[i++] = base * (BM25.d + (tf * (BM25.k + 1)) / (tf + k1 + k2 * fieldLen[doc * nf + f]));
+      }
+    }
+    const out = { docs: docs.subarray(0, i), contrib: contrib.subarray(0, i) };
+    // Bounded: a few million cached postings at most, then start again.
+    if ((this.postedSize += i) > 4_000_000) {
+      this.posted.clear();
+      this.postedSize = i;
+    }
+    this.posted.set(term, out);
+    return out;
+  }
+
   /** Each query word's index terms: itself, its prefix extensions and its fuzzy neighbours, weighted as minisearch does. */
   private expand(word: string): Expansion[] {
     const ms = this.ms as unknown as MsInternals;
@@ -212,38 +258,24 @@ export class TextIndex {
     const score = new Float64Array(n);
     const hitCount = new Uint16Array(n);
     const seen = new Uint16Array(n);
-    const fieldIds = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
-    const boosts = TEXT_FIELDS.map((f) => BOOST[f] ?? 1);
-    const docCount = ms._documentCount;
-    const { fieldLen, piece, trial } = this.flatten();
-    const nf = TEXT_FIELDS.length;
+    const { piece, trial } = this.flatten();
     let live: number[] = [];
     perWord.forEach((exps, w) => {
       const stamp = w + 1;
       const touched: number[] = [];
-      for (const { weight, data } of exps)
-        for (let f = 0; f < fieldIds.length; f++) {
-          const freqs = data.get(fieldIds[f]);
-          if (!freqs) continue;
-          const fid = fieldIds[f];
-          const matching = freqs.size;
-          const idf = Math.log(1 + (docCount - matching + 0.5) / (matching + 0.5));
-          const avg = ms._avgFieldLength[fid];
-          const wb = weight * boosts[f];
-          const k1 = BM25.k * (1 - BM25.b);
-          const k2 = (BM25.k * BM25.b) / avg;
-          const base = wb * idf;
-          for (const [doc, tf] of freqs) {
-            // AND: after the first word, only documents that matched every earlier word can still match.
-            if (hitCount[doc] !== w) continue;
-            const len = fieldLen[doc * nf + f];
-            score[doc] += base * (BM25.d + (tf * (BM25.k + 1)) / (tf + k1 + k2 * len));
-            if (seen[doc] !== stamp) {
-              seen[doc] = stamp;
-              touched.push(doc);
-            }
+      for (const { term, weight, data } of exps) {
+        const { docs, contrib } = this.postings(term, data);
+        for (let i = 0; i < docs.length; i++) {
+          const doc = docs[i];
+          // AND: after the first word, only documents that matched every earlier word can still match.
+          if (hitCount[doc] !== w) continue;
+          score[doc] += weight * contrib[i];
+          if (seen[doc] !== stamp) {
+            seen[doc] = stamp;
+            touched.push(doc);
           }
         }
+      }
       for (const doc of touched) hitCount[doc] = w + 1;
       live = touched;
     });
