@@ -97,6 +97,7 @@ export class TextIndex {
   /** Flattened postings per index term, valid while `flat` is (both are dropped on every change). */
   private posted = new Map<string, { docs: Int32Array; contrib: Float64Array }>();
   private postedSize = 0;
+  private scratch: { score: Float64Array; hitCount: Uint16Array; seen: Uint16Array } | null = null;
 
   private flatten() {
     if (this.flat) return this.flat;
@@ -255,9 +256,10 @@ export class TextIndex {
     const words = queryTokens(q).map((t) => t.toLowerCase());
     const perWord = words.map((w) => this.expand(w));
     const n = ms._nextId;
-    const score = new Float64Array(n);
-    const hitCount = new Uint16Array(n);
-    const seen = new Uint16Array(n);
+    // Per-document scratch reused across queries (zeroed again below over the documents this query touched).
+    if (!this.scratch || this.scratch.score.length < n) this.scratch = { score: new Float64Array(n), hitCount: new Uint16Array(n), seen: new Uint16Array(n) };
+    const { score, hitCount, seen } = this.scratch;
+    let first: number[] = [];
     const { piece, trial } = this.flatten();
     let live: number[] = [];
     perWord.forEach((exps, w) => {
@@ -277,6 +279,7 @@ export class TextIndex {
         }
       }
       for (const doc of touched) hitCount[doc] = w + 1;
+      if (!w) first = touched;
       live = touched;
     });
     // minisearch multiplies by the number of distinct query words a document matched: all of them, under AND.
@@ -284,6 +287,7 @@ export class TextIndex {
     const maxPiece = Math.max(0, this.byId.length - 1);
     const pieceScore = new Float64Array(maxPiece + 1);
     const matched = new Uint8Array(maxPiece + 1);
+    const ownMatched = new Uint8Array(maxPiece + 1);
     const ids: number[] = [];
     const trialsOf = new Map<number, number[]>();
     if (words.length)
@@ -296,16 +300,22 @@ export class TextIndex {
           ids.push(pid);
         }
         if (trial[doc]) trialsOf.set(pid, [...(trialsOf.get(pid) ?? []), doc]);
+        else ownMatched[pid] = 1;
       }
+    // Every document scored was touched by the first word (AND), so this clears the scratch.
+    for (const doc of first) {
+      score[doc] = 0;
+      hitCount[doc] = 0;
+      seen[doc] = 0;
+    }
     const scoreOf = (pid: number) => (pid <= maxPiece && matched[pid] ? pieceScore[pid] : undefined);
     // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
     const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
     const detail = (pieceId: number): TextHit => {
       const hit: TextHit = { score: scoreOf(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
-      const own = shortIdOf(ms, `p${pieceId}`);
       const doc = this.pieces.get(pieceId);
       const entries: IndexedDoc[] = [];
-      if (doc && own !== undefined && hitCount[own] === words.length) entries.push(pieceEntry(doc));
+      if (doc && pieceId <= maxPiece && ownMatched[pieceId]) entries.push(pieceEntry(doc));
       for (const t of trialsOf.get(pieceId) ?? []) {
         const tr = this.trials.get(ms._storedFields.get(t)!.refId);
         if (!tr) continue;
@@ -329,8 +339,6 @@ export class TextIndex {
     return { ids, scores: pieceScore, score: scoreOf, detail };
   }
 }
-
-const shortIdOf = (ms: MsInternals, id: string) => ms._idToShortId.get(id);
 
 const list = (xs: string[]) => xs.join(' ; ');
 
