@@ -115,23 +115,35 @@ function compile(sel: Selected, t: FacetTable): Compiled {
   return { facets, mordant };
 }
 
+// Plain functions, not closures made per call: passes() runs once per hit.
+function holds(vals: Int32Array, from: number, to: number, v: number): boolean {
+  if (v < 0) return false;
+  for (let k = from; k < to; k++) if (vals[k] === v) return true;
+  return false;
+}
+
 function passes(id: number, c: Compiled, t: FacetTable, skip = -1): boolean {
   const { vals } = t;
   const from = t.start[id];
   const to = t.start[id + 1];
-  const has = (v: number) => {
-    if (v < 0) return false;
-    for (let k = from; k < to; k++) if (vals[k] === v) return true;
-    return false;
-  };
   for (const { fi, narrowing, want } of c.facets) {
     if (fi === skip) continue;
     if (narrowing) {
-      for (const w of want) if (!has(w)) return false;
-    } else if (!want.some(has)) return false;
+      for (const w of want) if (!holds(vals, from, to, w)) return false;
+    } else {
+      let any = false;
+      for (const w of want) if (holds(vals, from, to, w)) any = true;
+      if (!any) return false;
+    }
   }
-  for (const [h, m] of c.mordant) if (!has(h) && !has(m)) return false;
+  for (const [h, m] of c.mordant) if (!holds(vals, from, to, h) && !holds(vals, from, to, m)) return false;
   return true;
+}
+
+function keep(ids: number[], c: Compiled, t: FacetTable): number[] {
+  const out: number[] = [];
+  for (const id of ids) if (passes(id, c, t)) out.push(id);
+  return out;
 }
 
 /** Piece ids passing visibility, text and every filter; with the text hits for ranking and highlights. */
@@ -148,7 +160,7 @@ function candidates(actor: Actor, f: SearchFilters) {
   const sel = selected(f);
   const c = compile(sel, t);
   const filtered = c.facets.length > 0 || c.mordant.length > 0;
-  return { textMatched: visible, matched: filtered ? visible.filter((id) => passes(id, c, t)) : visible, hits, c, filtered };
+  return { textMatched: visible, matched: filtered ? keep(visible, c, t) : visible, hits, c, filtered };
 }
 
 function facetCounts(ids: number[], c: Compiled, filtered: boolean): FacetCounts {
