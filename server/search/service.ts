@@ -42,42 +42,6 @@ function selected(f: SearchFilters): Selected {
   return s;
 }
 
-function passes(doc: PieceDoc, sel: Selected, skip?: FacetName): boolean {
-  for (const f of FACETS) {
-    const want = sel[f];
-    if (!want || f === skip) continue;
-    const have = doc.keys[f];
-    if (NARROWING.has(f)) {
-      for (const w of want) if (!have.includes(w)) return false;
-    } else if (!have.some((h) => want.has(h))) return false;
-  }
-  if (sel.mordant) {
-    for (const w of sel.mordant) if (!doc.keys.historicalMordant.includes(w) && !doc.keys.modernMordant.includes(w)) return false;
-  }
-  return true;
-}
-
-function visibleDocs(actor: Actor, ids?: Iterable<number>): PieceDoc[] {
-  const drafts = can(actor, 'piece:list-drafts');
-  const out: PieceDoc[] = [];
-  const { pieces, byId } = searchEngine.text;
-  if (ids) {
-    for (const id of ids) {
-      const d = byId[id];
-      if (d && (drafts || d.status === 'published')) out.push(d);
-    }
-  } else for (const d of pieces.values()) if (drafts || d.status === 'published') out.push(d);
-  return out;
-}
-
-/** Pieces passing visibility, text and every filter; with the text hits for ranking and highlights. */
-function candidates(actor: Actor, f: SearchFilters) {
-  const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
-  const docs = visibleDocs(actor, hits?.ids);
-  const sel = selected(f);
-  return { textMatched: docs, matched: Object.keys(sel).length ? docs.filter((d) => passes(d, sel)) : docs, hits, sel };
-}
-
 // Display labels: the first spelling met for each lower-cased value.
 function labelFor(d: PieceDoc, f: FacetName, key: string): string {
   if (f === 'century') return centuryLabel(Number(key));
@@ -87,10 +51,14 @@ function labelFor(d: PieceDoc, f: FacetName, key: string): string {
 }
 
 /**
- * Every piece's facet values as small integers in one flat array (facet index in the top byte), built once per
- * index version: counting tens of thousands of hits is then array increments, not string work.
+ * Per index version, built once: every piece's facet values as small integers in one flat array (facet index in
+ * the top byte), which pieces are published, and each piece's rank by accession number. Filtering, counting and
+ * ranking tens of thousands of hits are then array reads over piece ids, not string work or document objects.
  */
-type FacetTable = { version: number; start: Int32Array; vals: Int32Array; keys: string[][]; labels: string[][] };
+type FacetTable = {
+  version: number; start: Int32Array; vals: Int32Array; keys: string[][]; labels: string[][]; intern: Array<Map<string, number>>;
+  exists: Uint8Array; published: Uint8Array; accessionRank: Int32Array; all: Int32Array;
+};
 let table: FacetTable | null = null;
 function facetTable(): FacetTable {
   if (table?.version === searchEngine.version) return table;
@@ -99,11 +67,17 @@ function facetTable(): FacetTable {
   const keys: string[][] = FACETS.map(() => []);
   const labels: string[][] = FACETS.map(() => []);
   const start = new Int32Array(byId.length + 1);
+  const exists = new Uint8Array(byId.length);
+  const published = new Uint8Array(byId.length);
   const vals: number[] = [];
+  const present: PieceDoc[] = [];
   for (let id = 0; id < byId.length; id++) {
     start[id] = vals.length;
     const d = byId[id];
     if (!d) continue;
+    present.push(d);
+    exists[id] = 1;
+    published[id] = d.status === 'published' ? 1 : 0;
     FACETS.forEach((f, fi) => {
       for (const k of d.keys[f]) {
         let i = intern[fi].get(k);
@@ -117,24 +91,92 @@ function facetTable(): FacetTable {
     });
   }
   start[byId.length] = vals.length;
-  return (table = { version: searchEngine.version, start, vals: Int32Array.from(vals), keys, labels });
+  const accessionRank = new Int32Array(byId.length);
+  present.sort((x, y) => collator.compare(x.accessionNumber, y.accessionNumber) || x.id - y.id).forEach((d, r) => (accessionRank[d.id] = r));
+  const all = Int32Array.from(present.map((d) => d.id).sort((x, y) => x - y));
+  return (table = { version: searchEngine.version, start, vals: Int32Array.from(vals), keys, labels, intern, exists, published, accessionRank, all });
 }
 
-function facetCounts(docs: PieceDoc[], sel: Selected): FacetCounts {
+/** The chosen facet values as interned codes: per facet, the codes wanted (-1 for a value no piece has). */
+type Compiled = { facets: Array<{ fi: number; narrowing: boolean; want: number[] }>; mordant: Array<[number, number]> };
+function compile(sel: Selected, t: FacetTable): Compiled {
+  const code = (fi: number, v: string) => {
+    const i = t.intern[fi].get(v);
+    return i === undefined ? -1 : (fi << 24) | i;
+  };
+  const facets: Compiled['facets'] = [];
+  FACETS.forEach((f, fi) => {
+    const want = sel[f];
+    if (want) facets.push({ fi, narrowing: NARROWING.has(f), want: [...want].map((v) => code(fi, v)) });
+  });
+  const h = FACETS.indexOf('historicalMordant');
+  const m = FACETS.indexOf('modernMordant');
+  const mordant = [...(sel.mordant ?? [])].map((v): [number, number] => [code(h, v), code(m, v)]);
+  return { facets, mordant };
+}
+
+// Plain functions, not closures made per call: passes() runs once per hit.
+function holds(vals: Int32Array, from: number, to: number, v: number): boolean {
+  if (v < 0) return false;
+  for (let k = from; k < to; k++) if (vals[k] === v) return true;
+  return false;
+}
+
+function passes(id: number, c: Compiled, t: FacetTable, skip = -1): boolean {
+  const { vals } = t;
+  const from = t.start[id];
+  const to = t.start[id + 1];
+  for (const { fi, narrowing, want } of c.facets) {
+    if (fi === skip) continue;
+    if (narrowing) {
+      for (const w of want) if (!holds(vals, from, to, w)) return false;
+    } else {
+      let any = false;
+      for (const w of want) if (holds(vals, from, to, w)) any = true;
+      if (!any) return false;
+    }
+  }
+  for (const [h, m] of c.mordant) if (!holds(vals, from, to, h) && !holds(vals, from, to, m)) return false;
+  return true;
+}
+
+function keep(ids: number[], c: Compiled, t: FacetTable): number[] {
+  const out: number[] = [];
+  for (const id of ids) if (passes(id, c, t)) out.push(id);
+  return out;
+}
+
+/** Piece ids passing visibility, text and every filter; with the text hits for ranking and highlights. */
+function candidates(actor: Actor, f: SearchFilters) {
+  const t = facetTable();
+  const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
+  const drafts = can(actor, 'piece:list-drafts');
+  const source: ArrayLike<number> = hits ? hits.ids : t.all;
+  const visible: number[] = [];
+  for (let i = 0; i < source.length; i++) {
+    const id = source[i];
+    if (id < t.exists.length && t.exists[id] && (drafts || t.published[id])) visible.push(id);
+  }
+  const sel = selected(f);
+  const c = compile(sel, t);
+  const filtered = c.facets.length > 0 || c.mordant.length > 0;
+  return { textMatched: visible, matched: filtered ? keep(visible, c, t) : visible, hits, c, filtered };
+}
+
+function facetCounts(ids: number[], c: Compiled, filtered: boolean): FacetCounts {
   const t = facetTable();
   const counts = FACETS.map((_, fi) => new Int32Array(t.keys[fi].length));
-  const anySel = Object.keys(sel).length > 0;
   // A widening (OR) facet's own counts ignore its own choice.
-  const ownRule = FACETS.map((f) => !NARROWING.has(f) && Boolean(sel[f]));
+  const ownRule = FACETS.map((f, fi) => !NARROWING.has(f) && c.facets.some((x) => x.fi === fi));
   const anyOwn = ownRule.some(Boolean);
   const { start, vals } = t;
-  for (const d of docs) {
-    const all = !anySel || passes(d, sel);
+  for (const id of ids) {
+    const all = !filtered || passes(id, c, t);
     if (!all && !anyOwn) continue;
-    for (let k = start[d.id], end = start[d.id + 1]; k < end; k++) {
+    for (let k = start[id], end = start[id + 1]; k < end; k++) {
       const v = vals[k];
       const fi = v >>> 24;
-      if (ownRule[fi] ? !passes(d, sel, FACETS[fi]) : !all) continue;
+      if (ownRule[fi] ? !passes(id, c, t, fi) : !all) continue;
       counts[fi][v & 0xffffff]++;
     }
   }
@@ -152,14 +194,16 @@ function facetCounts(docs: PieceDoc[], sel: Selected): FacetCounts {
 
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
-  const { textMatched, matched, hits, sel } = candidates(actor, input);
-  const score = (d: PieceDoc) => hits?.score(d.id) ?? 0;
+  const { textMatched, matched, hits, c, filtered } = candidates(actor, input);
+  const rank = facetTable().accessionRank;
+  const s = hits?.scores;
   // Rank only as far as the page asked for (bounded heap), not the whole match list.
-  const before = hits
-    ? (x: PieceDoc, y: PieceDoc) => score(x) > score(y) || (score(x) === score(y) && x.id < y.id)
-    : (x: PieceDoc, y: PieceDoc) => collator.compare(x.accessionNumber, y.accessionNumber) < 0;
-  const page = selectTop(matched, input.page * input.pageSize, before).slice((input.page - 1) * input.pageSize);
-  const photos = searchEngine.shade.firstPhotoOf(page.map((d) => d.id));
+  const before = s
+    ? (x: number, y: number) => s[x] > s[y] || (s[x] === s[y] && x < y)
+    : (x: number, y: number) => rank[x] < rank[y];
+  const ids = selectTop(matched, input.page * input.pageSize, before).slice((input.page - 1) * input.pageSize);
+  const page = ids.map((id) => searchEngine.text.byId[id]!);
+  const photos = searchEngine.shade.firstPhotoOf(ids);
   const items: SearchItem[] = page.map((d) => {
     const hit = hits?.detail(d.id);
     return {
@@ -177,7 +221,7 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
       viaTrials: hit?.viaTrials.filter(Boolean) ?? [],
     };
   });
-  return { items, facets: facetCounts(textMatched, sel), total: matched.length, page: input.page, pageSize: input.pageSize };
+  return { items, facets: facetCounts(textMatched, c, filtered), total: matched.length, page: input.page, pageSize: input.pageSize };
 }
 
 // Unfiltered shade queries reuse one allow-list per audience until a piece changes.
@@ -188,11 +232,11 @@ function allowList(actor: Actor, f: SearchFilters): Uint8Array {
   const audience = can(actor, 'piece:list-drafts') ? 'all' : 'published';
   const cached = allowCache.get(audience);
   if (!filtered && cached?.version === searchEngine.version) return cached.allow;
-  const docs = filtered ? candidates(actor, f).matched : visibleDocs(actor);
+  const ids = candidates(actor, f).matched;
   let max = 0;
-  for (const d of docs) if (d.id > max) max = d.id;
+  for (const id of ids) if (id > max) max = id;
   const allow = new Uint8Array(max + 1);
-  for (const d of docs) allow[d.id] = 1;
+  for (const id of ids) allow[id] = 1;
   if (!filtered) allowCache.set(audience, { version: searchEngine.version, allow });
   return allow;
 }

@@ -120,6 +120,8 @@ export class ShadeIndex {
   private tail = new Columns(0);
   private dead = 0;
   private photoPiece = new Int32Array(1024);
+  /** Per piece id, its lowest photo id (0: none); rebuilt on first use after a photo changes. */
+  private firstPhoto: Int32Array | null = null;
   private pieceStamp = new Int32Array(1024);
   private pieceBest = new Int32Array(1024);
   private pieceDe = new Float64Array(1024);
@@ -149,17 +151,24 @@ export class ShadeIndex {
       this.photoPiece = next;
     }
     this.photoPiece[photoId] = pieceId ?? 0;
+    this.firstPhoto = null;
     this.ensurePieces(pieceId ?? 0);
   }
 
   /** The first photo of each piece, for thumbnails. */
   firstPhotoOf(pieceIds: number[]): Map<number, number> {
-    const want = new Set(pieceIds);
-    const out = new Map<number, number>();
-    for (let ph = 1; ph < this.photoPiece.length && out.size < want.size; ph++) {
-      const p = this.photoPiece[ph];
-      if (p > 0 && want.has(p) && !out.has(p)) out.set(p, ph);
+    if (!this.firstPhoto) {
+      let max = 0;
+      for (let ph = 1; ph < this.photoPiece.length; ph++) if (this.photoPiece[ph] > max) max = this.photoPiece[ph];
+      const first = new Int32Array(max + 1);
+      for (let ph = 1; ph < this.photoPiece.length; ph++) {
+        const p = this.photoPiece[ph];
+        if (p > 0 && !first[p]) first[p] = ph;
+      }
+      this.firstPhoto = first;
     }
+    const out = new Map<number, number>();
+    for (const p of pieceIds) if (p > 0 && p < this.firstPhoto.length && this.firstPhoto[p]) out.set(p, this.firstPhoto[p]);
     return out;
   }
 

@@ -54,7 +54,13 @@ const queryTokens = (text: string) => text.split(/\s+/).map((w) => w.replace(EDG
 export type TextHit = { score: number; terms: Set<string>; fields: Set<TextField>; viaTrials: string[] };
 
 /** The pieces a text query matched: every score (for ranking and facets), details only when asked (for the page shown). */
-export type TextMatches = { ids: number[]; score: (pieceId: number) => number | undefined; detail: (pieceId: number) => TextHit };
+export type TextMatches = {
+  ids: number[];
+  /** Scores indexed by piece id; meaningful only for the ids matched. */
+  scores: Float64Array;
+  score: (pieceId: number) => number | undefined;
+  detail: (pieceId: number) => TextHit;
+};
 
 // minisearch's defaults (7.2.0): prefix/fuzzy weights and BM25+ parameters; the scorer below reproduces its formula.
 const WEIGHT_PREFIX = 0.375;
@@ -88,9 +94,15 @@ export class TextIndex {
   private ms = this.fresh();
   /** Per short document id: field lengths (NF per document), piece id and kind, in typed arrays; rebuilt lazily after a change. */
   private flat: { fieldLen: Float64Array; piece: Int32Array; trial: Uint8Array } | null = null;
+  /** Flattened postings per index term, valid while `flat` is (both are dropped on every change). */
+  private posted = new Map<string, { docs: Int32Array; contrib: Float64Array }>();
+  private postedSize = 0;
+  private scratch: { score: Float64Array; hitCount: Uint16Array; seen: Uint16Array } | null = null;
 
   private flatten() {
     if (this.flat) return this.flat;
+    this.posted.clear();
+    this.postedSize = 0;
     const ms = this.ms as unknown as MsInternals;
     const n = ms._nextId;
     const nf = TEXT_FIELDS.length;
@@ -167,6 +179,47 @@ export class TextIndex {
     });
   }
 
+  /**
+   * One index term's postings over every field as flat arrays: document ids and each one's BM25+ contribution
+   * with its field boost (idf, term frequency and field length do not depend on the query; the prefix/fuzzy
+   * weight does, and multiplies in). Built on first use and kept until the index changes, so a common word is
+   * a pass over two typed arrays rather than over nested Maps.
+   */
+  private postings(term: string, data: Postings) {
+    const hit = this.posted.get(term);
+    if (hit) return hit;
+    const ms = this.ms as unknown as MsInternals;
+    const { fieldLen } = this.flatten();
+    const nf = TEXT_FIELDS.length;
+    let size = 0;
+    for (const freqs of data.values()) size += freqs.size;
+    const docs = new Int32Array(size);
+    const contrib = new Float64Array(size);
+    let i = 0;
+    for (let f = 0; f < nf; f++) {
+      const fid = ms._fieldIds[TEXT_FIELDS[f]];
+      const freqs = data.get(fid);
+      if (!freqs) continue;
+      const matching = freqs.size;
+      const idf = Math.log(1 + (ms._documentCount - matching + 0.5) / (matching + 0.5));
+      const k1 = BM25.k * (1 - BM25.b);
+      const k2 = (BM25.k * BM25.b) / ms._avgFieldLength[fid];
+      const base = (BOOST[TEXT_FIELDS[f]] ?? 1) * idf;
+      for (const [doc, tf] of freqs) {
+        docs[i] = doc;
+        contrib[i++] = base * (BM25.d + (tf * (BM25.k + 1)) / (tf + k1 + k2 * fieldLen[doc * nf + f]));
+      }
+    }
+    const out = { docs: docs.subarray(0, i), contrib: contrib.subarray(0, i) };
+    // Bounded: a few million cached postings at most, then start again.
+    if ((this.postedSize += i) > 4_000_000) {
+      this.posted.clear();
+      this.postedSize = i;
+    }
+    this.posted.set(term, out);
+    return out;
+  }
+
   /** Each query word's index terms: itself, its prefix extensions and its fuzzy neighbours, weighted as minisearch does. */
   private expand(word: string): Expansion[] {
     const ms = this.ms as unknown as MsInternals;
@@ -203,50 +256,38 @@ export class TextIndex {
     const words = queryTokens(q).map((t) => t.toLowerCase());
     const perWord = words.map((w) => this.expand(w));
     const n = ms._nextId;
-    const score = new Float64Array(n);
-    const hitCount = new Uint16Array(n);
-    const seen = new Uint16Array(n);
-    const fieldIds = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
-    const boosts = TEXT_FIELDS.map((f) => BOOST[f] ?? 1);
-    const docCount = ms._documentCount;
-    const { fieldLen, piece, trial } = this.flatten();
-    const nf = TEXT_FIELDS.length;
+    // Per-document scratch reused across queries (zeroed again below over the documents this query touched).
+    if (!this.scratch || this.scratch.score.length < n) this.scratch = { score: new Float64Array(n), hitCount: new Uint16Array(n), seen: new Uint16Array(n) };
+    const { score, hitCount, seen } = this.scratch;
+    let first: number[] = [];
+    const { piece, trial } = this.flatten();
     let live: number[] = [];
     perWord.forEach((exps, w) => {
       const stamp = w + 1;
       const touched: number[] = [];
-      for (const { weight, data } of exps)
-        for (let f = 0; f < fieldIds.length; f++) {
-          const freqs = data.get(fieldIds[f]);
-          if (!freqs) continue;
-          const fid = fieldIds[f];
-          const matching = freqs.size;
-          const idf = Math.log(1 + (docCount - matching + 0.5) / (matching + 0.5));
-          const avg = ms._avgFieldLength[fid];
-          const wb = weight * boosts[f];
-          const k1 = BM25.k * (1 - BM25.b);
-          const k2 = (BM25.k * BM25.b) / avg;
-          const base = wb * idf;
-          for (const [doc, tf] of freqs) {
-            // AND: after the first word, only documents that matched every earlier word can still match.
-            if (hitCount[doc] !== w) continue;
-            const len = fieldLen[doc * nf + f];
-            score[doc] += base * (BM25.d + (tf * (BM25.k + 1)) / (tf + k1 + k2 * len));
-            if (seen[doc] !== stamp) {
-              seen[doc] = stamp;
-              touched.push(doc);
-            }
+      for (const { term, weight, data } of exps) {
+        const { docs, contrib } = this.postings(term, data);
+        for (let i = 0; i < docs.length; i++) {
+          const doc = docs[i];
+          // AND: after the first word, only documents that matched every earlier word can still match.
+          if (hitCount[doc] !== w) continue;
+          score[doc] += weight * contrib[i];
+          if (seen[doc] !== stamp) {
+            seen[doc] = stamp;
+            touched.push(doc);
           }
         }
+      }
       for (const doc of touched) hitCount[doc] = w + 1;
+      if (!w) first = touched;
       live = touched;
     });
     // minisearch multiplies by the number of distinct query words a document matched: all of them, under AND.
     const quality = new Set(words).size;
-    let maxPiece = 0;
-    for (const id of this.pieces.keys()) if (id > maxPiece) maxPiece = id;
+    const maxPiece = Math.max(0, this.byId.length - 1);
     const pieceScore = new Float64Array(maxPiece + 1);
     const matched = new Uint8Array(maxPiece + 1);
+    const ownMatched = new Uint8Array(maxPiece + 1);
     const ids: number[] = [];
     const trialsOf = new Map<number, number[]>();
     if (words.length)
@@ -259,16 +300,22 @@ export class TextIndex {
           ids.push(pid);
         }
         if (trial[doc]) trialsOf.set(pid, [...(trialsOf.get(pid) ?? []), doc]);
+        else ownMatched[pid] = 1;
       }
+    // Every document scored was touched by the first word (AND), so this clears the scratch.
+    for (const doc of first) {
+      score[doc] = 0;
+      hitCount[doc] = 0;
+      seen[doc] = 0;
+    }
     const scoreOf = (pid: number) => (pid <= maxPiece && matched[pid] ? pieceScore[pid] : undefined);
     // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
     const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
     const detail = (pieceId: number): TextHit => {
       const hit: TextHit = { score: scoreOf(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
-      const own = shortIdOf(ms, `p${pieceId}`);
       const doc = this.pieces.get(pieceId);
       const entries: IndexedDoc[] = [];
-      if (doc && own !== undefined && hitCount[own] === words.length) entries.push(pieceEntry(doc));
+      if (doc && pieceId <= maxPiece && ownMatched[pieceId]) entries.push(pieceEntry(doc));
       for (const t of trialsOf.get(pieceId) ?? []) {
         const tr = this.trials.get(ms._storedFields.get(t)!.refId);
         if (!tr) continue;
@@ -289,11 +336,9 @@ export class TextIndex {
         }
       return hit;
     };
-    return { ids, score: scoreOf, detail };
+    return { ids, scores: pieceScore, score: scoreOf, detail };
   }
 }
-
-const shortIdOf = (ms: MsInternals, id: string) => ms._idToShortId.get(id);
 
 const list = (xs: string[]) => xs.join(' ; ');
 

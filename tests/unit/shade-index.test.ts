@@ -125,3 +125,14 @@ describe('shade index = brute-force CIEDE2000 scan', () => {
     same(small, { L: 30, a: -3, b: -35, maxDeltaE: 6 });
   });
 });
+
+describe('first photo of each piece (thumbnails)', () => {
+  it('is the lowest photo id of the piece and follows photo changes', () => {
+    const idx = new ShadeIndex();
+    idx.load([], [{ id: 7, pieceId: 3 }, { id: 4, pieceId: 3 }, { id: 9, pieceId: 5 }, { id: 2, pieceId: null }]);
+    expect([...idx.firstPhotoOf([3, 5, 6]).entries()]).toEqual([[3, 4], [5, 9]]);
+    idx.setPhoto(4, null);
+    idx.setPhoto(1, 6);
+    expect([...idx.firstPhotoOf([3, 5, 6]).entries()]).toEqual([[3, 7], [5, 9], [6, 1]]);
+  });
+});

@@ -40,6 +40,16 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
       }
     }
     expect(compared).toBeGreaterThan(1000);
+    // Postings cached by the queries above are dropped when the index changes: an edit after a query still scores as minisearch does.
+    idx.setPiece(77, { ...piece(77), description: 'quercitron quercitron madder' });
+    idx.setPiece(78, null);
+    for (const q of ['madder', 'quercitron', 'madd']) {
+      const want = idx.searchWithMinisearch(q);
+      const got = idx.search(q, true);
+      expect(got.ids.length, q).toBe(want.length);
+      for (const r of want) expect(got.score(r.pieceId as number), `${q} piece ${r.pieceId}`).toBeCloseTo(r.score, 9);
+    }
+    expect(idx.search('quercitron', true).ids).toEqual([77]);
     // The removed pieces match nothing.
     expect(idx.search('T.2', true).score(2)).toBeUndefined();
   });
