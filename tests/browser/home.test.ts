@@ -1,27 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../support/browser.ts';
-import { startServer } from '../support/server.ts';
-import { sequelize } from '../../server/models/index.ts';
+import { describe, expect, it } from 'vitest';
+import { useBrowserSuite } from '../support/browser-suite.ts';
 
-let server: Awaited<ReturnType<typeof startServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await sequelize.close();
-});
+const suite = useBrowserSuite();
 
 describe('home page in Chromium', () => {
   it('shows the product name in the shipped fonts', async () => {
-    const page = await browser.context.newPage();
+    const page = await suite.browser.context.newPage();
     const failed: string[] = [];
     page.on('requestfailed', (r) => failed.push(r.url()));
-    await page.goto(server.url, { waitUntil: 'networkidle' });
+    await page.goto(suite.server.url, { waitUntil: 'networkidle' });
     await expect(page.getByRole('link', { name: 'Tinctoria home' }).textContent()).resolves.toContain('Tinctoria');
     await page.evaluate(() => document.fonts.ready);
     const fonts = await page.evaluate(() => ({

@@ -1,28 +1,18 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { Op } from 'sequelize';
-import { launchBrowser, signInAs } from '../support/browser.ts';
-import { startServer } from '../support/server.ts';
-import { Piece, sequelize } from '../../server/models/index.ts';
+import { signInAs } from '../support/browser.ts';
+import { useBrowserSuite } from '../support/browser-suite.ts';
+import { Piece } from '../../server/models/index.ts';
 
-let server: Awaited<ReturnType<typeof startServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await sequelize.close();
-});
+const suite = useBrowserSuite();
 
 describe('importing a spreadsheet catalogue in Chromium', () => {
   it('maps the columns, shows each bad row with its line, and imports once the file is right', async () => {
     const tag = `BR.${Date.now().toString(36)}`;
     const bad = `Accession No.,Object,Title,Dyes\n${tag}.1,panel,Good row,madder (identified)\n${tag}.2,panel,Bad row,unobtainium\n`;
-    const page = await browser.context.newPage();
-    await signInAs(page, server.url, 'curator@demo.test');
-    await page.goto(`${server.url}/import`);
+    const page = await suite.browser.context.newPage();
+    await signInAs(page, suite.server.url, 'curator@demo.test');
+    await page.goto(`${suite.server.url}/import`);
     await page.getByLabel('CSV file (UTF-8)').setInputFiles({ name: 'catalogue.csv', mimeType: 'text/csv', buffer: Buffer.from(bad) });
     // "Title" is guessed; the others are mapped by hand with the keyboard-usable selects.
     await page.getByLabel('Field for column Accession No.').selectOption('accessionNumber');

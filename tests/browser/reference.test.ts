@@ -1,25 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../support/browser.ts';
-import { startServer } from '../support/server.ts';
-import { sequelize } from '../../server/models/index.ts';
+import { describe, expect, it } from 'vitest';
+import { useBrowserSuite } from '../support/browser-suite.ts';
 
-let server: Awaited<ReturnType<typeof startServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await sequelize.close();
-});
+const suite = useBrowserSuite();
 
 describe('reference page in Chromium', () => {
   it('shows each chemical with molar mass, metal fraction, status and its safety caution, and the dyestuffs', async () => {
-    const page = await browser.context.newPage();
-    await page.goto(`${server.url}/reference`);
+    const page = await suite.browser.context.newPage();
+    await page.goto(`${suite.server.url}/reference`);
     await page.getByRole('heading', { name: 'Chemicals' }).waitFor();
     const lead = page.locator('tr[data-testid^="chemical-"]', { hasText: 'lead(II) acetate' });
     await lead.waitFor();
