@@ -36,6 +36,40 @@ describe('hand-written CIEDE2000 used by the shade index', () => {
     }
     expect(worst).toBeLessThan(1e-9);
   });
+
+  it('agrees with colorjs.io where the vector form of the hue terms has edge cases: opposite hues, greys, hue means near 0°/360°, 100° and 275°', () => {
+    const pairs: Array<[number[], number[]]> = [
+      [[50, 10, 0], [50, -10, 0]], // exactly opposite on the a* axis
+      [[50, 0, 12], [60, 0, -12]], // exactly opposite on the b* axis
+      [[40, 3, 4], [40, -6, -8]], // opposite, different chroma
+      [[50, 0, 0], [50, 20, -5]], // one achromatic
+      [[50, 0, 0], [52, 0, 0]], // both achromatic
+      [[50, 20, 0.5], [50, 20, -0.5]], // hue mean at 0°/360°
+      [[50, 20, 0.01], [50, 20, -0.03]],
+      [[50, -3.4, 19.7], [50, -3.6, 19.6]], // hue mean near 100°
+      [[50, 2, -25], [55, 1, -26]], // near 275°, the rotation term at its strongest
+    ];
+    for (const [x, y] of pairs) {
+      const a = { L: x[0], a: x[1], b: x[2] };
+      const b = { L: y[0], a: y[1], b: y[2] };
+      const oracle = new Color('lab', x as [number, number, number]).deltaE2000(new Color('lab', y as [number, number, number]));
+      expect(deltaE00(a, b), JSON.stringify([x, y])).toBeCloseTo(oracle, 9);
+      expect(deltaE00(b, a), JSON.stringify([y, x])).toBeCloseTo(oracle, 9);
+    }
+    // Hues in the 90°–110° band on both sides of the 100° cut-off of the rotation term.
+    let worst = 0;
+    for (let i = 0; i < 2_000; i++) {
+      const h1 = (90 + rnd() * 20) * (Math.PI / 180);
+      const h2 = h1 + (rnd() - 0.5) * 0.2;
+      const c1 = 5 + rnd() * 60;
+      const c2 = c1 + rnd() * 6 - 3;
+      const x: [number, number, number] = [rnd() * 100, c1 * Math.cos(h1), c1 * Math.sin(h1)];
+      const y: [number, number, number] = [x[0] + rnd() * 4 - 2, c2 * Math.cos(h2), c2 * Math.sin(h2)];
+      const oracle = new Color('lab', x).deltaE2000(new Color('lab', y));
+      worst = Math.max(worst, Math.abs(deltaE00({ L: x[0], a: x[1], b: x[2] }, { L: y[0], a: y[1], b: y[2] }) - oracle));
+    }
+    expect(worst).toBeLessThan(1e-9);
+  });
 });
 
 describe('hex ↔ CIELAB (D65) for the shade chooser', () => {
