@@ -1,16 +1,25 @@
 import { deltaE00Raw } from './ciede2000.ts';
+import { boundQuery, chromaHueTerms, lightnessTerms, lowerBound, type Terms, upperBound } from './box-bound.ts';
 import { shadeBox } from './shade-bounds.ts';
 import { selectTop } from './top.ts';
 
 /**
  * In-memory shade index over palette colours. Colours sit in flat typed arrays
- * sorted by an L*, a*, b* grid (cells of CELL units, counting-sorted), so the
- * conservative box of shade-bounds.ts turns into a few hundred contiguous runs.
- * Every candidate in the box gets an exact CIEDE2000; each piece keeps its best
- * colour (smallest ΔE00, then largest share), and only the page asked for is
- * ranked (a bounded heap), so a query with 17 000 matching pieces does not sort
- * them all. New colours go to a small unsorted tail that is scanned linearly
- * and folded into the grid when it grows; removed colours are tombstoned.
+ * counting-sorted by a 1-unit L*, a*, b* grid. A query takes the conservative
+ * box of shade-bounds.ts, walks its a*b* rectangles down to single columns and
+ * then each column's L* cells, skipping whatever box-bound.ts proves is beyond
+ * the radius. Each piece keeps its best colour (smallest ΔE00, then largest
+ * share); only the page asked for is ranked exactly:
+ * - a colour is scored (exact CIEDE2000) only if its piece has not matched yet,
+ *   or if its lower bound could still beat the piece's best and reach the page;
+ * - in a cell wholly within the radius (its upper bound says so), a colour of a
+ *   piece not yet matched whose lower bound already keeps it off the page just
+ *   counts, unscored.
+ * So a query with 17 000 matching pieces neither scores every colour near it
+ * nor sorts every match. Per-piece state is one interleaved typed array (the
+ * scan's random accesses are the cost), and each colour carries its piece id.
+ * New colours go to a small unsorted tail that is scanned linearly and folded
+ * into the grid when it grows; removed colours are tombstoned.
  */
 export type ShadeRow = { id: number; photoId: number; L: number; a: number; b: number; hex: string; share: number };
 export type ShadeMatch = { pieceId: number; photoId: number; colourId: number; L: number; a: number; b: number; hex: string; share: number; deltaE00: number };
@@ -26,11 +35,14 @@ export type ShadeQuery = {
   scanAll?: boolean;
 };
 
-const CELL = 2;
+// 1-unit cells: the smaller the cells, the fewer colours sit in cells straddling the region's edge (where every
+// colour needs an exact ΔE00); the walk's bounds are per a*b* column and per L* slice, so small cells cost little.
+const CELL_L = 1;
+const CELL_AB = 1;
 const L_MIN = 0;
-const NL = 50;
+const NL = 100;
 const AB_MIN = -128;
-const NAB = 128;
+const NAB = 256;
 const NCELLS = NL * NAB * NAB;
 const TAIL_LIMIT = 20_000;
 // The ellipsoid test is done in floating point; this slack keeps points on its surface.
@@ -38,17 +50,18 @@ const ELLIPSOID_SLACK = 1 + 1e-9;
 // The ΔE00 lower bound r·√e2 is shrunk by a hair for floating-point rounding before it is trusted to skip a colour.
 const LB_SHRINK = 1 - 1e-9;
 
-/** Distance from v to grid cell i of n cells starting at min (0 inside it); the clamped edge cells reach to ±∞. */
-function gap(v: number, min: number, i: number, n: number) {
-  const lo = min + i * CELL;
-  if (v < lo) return i === 0 ? 0 : lo - v;
-  if (v > lo + CELL) return i === n - 1 ? 0 : v - lo - CELL;
+/** Distance from v to grid cells i0..i1 of n cells starting at min (0 inside them); the clamped edge cells reach to ±∞. */
+function span(v: number, min: number, cell: number, i0: number, i1: number, n: number) {
+  const lo = min + i0 * cell;
+  const hi = min + (i1 + 1) * cell;
+  if (v < lo) return i0 === 0 ? 0 : lo - v;
+  if (v > hi) return i1 === n - 1 ? 0 : v - hi;
   return 0;
 }
 
 const clampIdx = (v: number, n: number) => (v < 0 ? 0 : v >= n ? n - 1 : v);
-const lIdx = (L: number) => clampIdx(Math.floor((L - L_MIN) / CELL), NL);
-const abIdx = (x: number) => clampIdx(Math.floor((x - AB_MIN) / CELL), NAB);
+const lIdx = (L: number) => clampIdx(Math.floor((L - L_MIN) / CELL_L), NL);
+const abIdx = (x: number) => clampIdx(Math.floor((x - AB_MIN) / CELL_AB), NAB);
 const hexToInt = (hex: string) => parseInt(hex.replace('#', ''), 16) | 0;
 const intToHex = (n: number) => `#${(n >>> 0).toString(16).padStart(6, '0')}`;
 
@@ -60,6 +73,8 @@ class Columns {
   C: Float64Array;
   share: Float32Array;
   photo: Int32Array;
+  /** The colour's piece (0: none), kept beside it so the scan makes no lookup through the photo. */
+  piece: Int32Array;
   id: Int32Array;
   rgb: Int32Array;
   alive: Uint8Array;
@@ -70,6 +85,7 @@ class Columns {
     this.C = new Float64Array(cap);
     this.share = new Float32Array(cap);
     this.photo = new Int32Array(cap);
+    this.piece = new Int32Array(cap);
     this.id = new Int32Array(cap);
     this.rgb = new Int32Array(cap);
     this.alive = new Uint8Array(cap);
@@ -82,7 +98,7 @@ class Columns {
     const next = new Columns(Math.max(min, this.cap * 2, 64));
     next.copyFrom(this, 0, 0, this.n);
     next.n = this.n;
-    Object.assign(this, { L: next.L, A: next.A, B: next.B, C: next.C, share: next.share, photo: next.photo, id: next.id, rgb: next.rgb, alive: next.alive });
+    Object.assign(this, { L: next.L, A: next.A, B: next.B, C: next.C, share: next.share, photo: next.photo, piece: next.piece, id: next.id, rgb: next.rgb, alive: next.alive });
   }
   copyFrom(src: Columns, from: number, to: number, count = 1) {
     for (let k = 0; k < count; k++) {
@@ -94,12 +110,13 @@ class Columns {
       this.C[j] = src.C[i];
       this.share[j] = src.share[i];
       this.photo[j] = src.photo[i];
+      this.piece[j] = src.piece[i];
       this.id[j] = src.id[i];
       this.rgb[j] = src.rgb[i];
       this.alive[j] = src.alive[i];
     }
   }
-  push(r: ShadeRow) {
+  push(r: ShadeRow, piece: number) {
     this.grow(this.n + 1);
     const j = this.n++;
     this.L[j] = r.L;
@@ -108,6 +125,7 @@ class Columns {
     this.C[j] = Math.hypot(r.a, r.b);
     this.share[j] = r.share;
     this.photo[j] = r.photoId;
+    this.piece[j] = piece;
     this.id[j] = r.id;
     this.rgb[j] = hexToInt(r.hex);
     this.alive[j] = 1;
@@ -122,10 +140,12 @@ export class ShadeIndex {
   private photoPiece = new Int32Array(1024);
   /** Per piece id, its lowest photo id (0: none); rebuilt on first use after a photo changes. */
   private firstPhoto: Int32Array | null = null;
-  private pieceStamp = new Int32Array(1024);
+  /** Per piece id, side by side (one cache line per piece touched): the query generation that last matched it, and its best ΔE00 then. */
+  private pieceState = new Float64Array(2048);
   private pieceBest = new Int32Array(1024);
-  private pieceDe = new Float64Array(1024);
   private gen = 0;
+  /** Per L* slice: lower and upper bounds of the lightness term for the current query. */
+  private lightScratch = new Float64Array(2 * NL);
 
   get size() {
     return this.main.n + this.tail.n - this.dead;
@@ -133,12 +153,11 @@ export class ShadeIndex {
 
   /** Replace every colour and the photo → piece map (start-up). */
   load(rows: Iterable<ShadeRow>, photos: Iterable<{ id: number; pieceId: number | null }>) {
+    this.main = new Columns(0);
+    this.tail = new Columns(1024);
     this.photoPiece = new Int32Array(1024);
     for (const p of photos) this.setPhoto(p.id, p.pieceId);
-    const all = new Columns(1024);
-    for (const r of rows) all.push(r);
-    this.main = new Columns(0);
-    this.tail = all;
+    for (const r of rows) this.tail.push(r, this.pieceOf(r.photoId));
     this.dead = 0;
     this.compact();
   }
@@ -153,6 +172,11 @@ export class ShadeIndex {
     this.photoPiece[photoId] = pieceId ?? 0;
     this.firstPhoto = null;
     this.ensurePieces(pieceId ?? 0);
+    for (const c of [this.main, this.tail]) for (let j = 0; j < c.n; j++) if (c.photo[j] === photoId) c.piece[j] = pieceId ?? 0;
+  }
+
+  private pieceOf(photoId: number) {
+    return photoId < this.photoPiece.length ? this.photoPiece[photoId] : 0;
   }
 
   /** The first photo of each piece, for thumbnails. */
@@ -185,7 +209,7 @@ export class ShadeIndex {
   }
 
   add(rows: ShadeRow[]) {
-    for (const r of rows) this.tail.push(r);
+    for (const r of rows) this.tail.push(r, this.pieceOf(r.photoId));
     if (this.tail.n > TAIL_LIMIT || this.dead > Math.max(TAIL_LIMIT, this.main.n / 10)) this.compact();
   }
 
@@ -213,16 +237,14 @@ export class ShadeIndex {
   }
 
   private ensurePieces(pieceId: number) {
-    if (pieceId < this.pieceStamp.length) return;
-    const n = Math.max(pieceId + 1, this.pieceStamp.length * 2);
-    const grow = <T extends Int32Array | Float64Array>(a: T, make: (n: number) => T) => {
-      const b = make(n);
-      b.set(a);
-      return b;
-    };
-    this.pieceStamp = grow(this.pieceStamp, (k) => new Int32Array(k));
-    this.pieceBest = grow(this.pieceBest, (k) => new Int32Array(k));
-    this.pieceDe = grow(this.pieceDe, (k) => new Float64Array(k));
+    if (pieceId < this.pieceBest.length) return;
+    const n = Math.max(pieceId + 1, this.pieceBest.length * 2);
+    const state = new Float64Array(2 * n);
+    state.set(this.pieceState);
+    this.pieceState = state;
+    const best = new Int32Array(n);
+    best.set(this.pieceBest);
+    this.pieceBest = best;
   }
 
   /** Pieces with a colour within maxDeltaE of the query, best colour each, ranked by ΔE00 then share; `total` counts all of them. */
@@ -231,19 +253,54 @@ export class ShadeIndex {
     const qC = Math.hypot(qa, qb);
     const box = q.scanAll ? { hwL: Infinity, hwAB: Infinity } : shadeBox(q, r);
     const gen = ++this.gen;
-    const stamp = this.pieceStamp;
+    // state[2p] === gen: piece p has matched in this query, with best ΔE00 state[2p + 1] (colour bestSlot[p]).
+    const state = this.pieceState;
     const bestSlot = this.pieceBest;
-    const bestDe = this.pieceDe;
-    const photoPiece = this.photoPiece;
     const allow = q.allow ?? null;
     const touched: number[] = [];
     let candidates = 0;
+    // Only the first `need` pieces are ranked. `kth` is the largest ΔE00 in a max-heap holding, for `need` distinct
+    // pieces, the ΔE00 each matched with first: every value is ≥ that piece's final best, so the need-th best ΔE00
+    // of the final answer is ≤ kth. A colour of an already-matched piece whose lower bound exceeds kth can neither
+    // put its piece on the page nor change a best shown there; it is not scored. Pieces not yet matched are always
+    // scored: they count towards `total`.
+    const need = (q.offset ?? 0) + q.limit;
+    const heap = new Float64Array(Math.max(1, need));
+    let heapN = 0;
+    let kth = Infinity;
+    const admit = (de: number) => {
+      if (heapN < need) {
+        let i = heapN++;
+        while (i > 0) {
+          const p = (i - 1) >> 1;
+          if (heap[p] >= de) break;
+          heap[i] = heap[p];
+          i = p;
+        }
+        heap[i] = de;
+        if (heapN === need) kth = heap[0];
+      } else if (de < heap[0]) {
+        let i = 0;
+        for (;;) {
+          const l = 2 * i + 1;
+          if (l >= heapN) break;
+          const c = l + 1 < heapN && heap[l + 1] > heap[l] ? l + 1 : l;
+          if (heap[c] <= de) break;
+          heap[i] = heap[c];
+          i = c;
+        }
+        heap[i] = de;
+        kth = heap[0];
+      }
+    };
 
     // The ellipsoid of shade-bounds.ts (inside the box): (ΔL/hwL)² + ((Δa²+Δb²)/hwAB²) ≤ 1 for every match.
     const invL2 = q.scanAll ? 0 : 1 / (box.hwL * box.hwL);
     const invAB2 = q.scanAll ? 0 : 1 / (box.hwAB * box.hwAB);
-    const scan = (c: Columns, from: number, to: number, tailFlag: number) => {
-      const { L, A, B, C, alive, photo, share } = c;
+    // `blockLb`: a lower bound on ΔE00 for every colour in the run (0 when unknown); `inside`: every colour in the
+    // run is within the radius (its block's upper bound says so).
+    const scan = (c: Columns, from: number, to: number, tailFlag: number, blockLb: number, inside: boolean) => {
+      const { L, A, B, C, alive, piece, share } = c;
       for (let j = from; j < to; j++) {
         const dL = L[j] - qL;
         const da = A[j] - qa;
@@ -251,59 +308,116 @@ export class ShadeIndex {
         const e2 = dL * dL * invL2 + (da * da + db * db) * invAB2;
         if (e2 > ELLIPSOID_SLACK) continue;
         if (!alive[j]) continue;
-        const ph = photo[j];
-        const pid = ph < photoPiece.length ? photoPiece[ph] : 0;
+        const pid = piece[j];
         if (pid <= 0 || (allow !== null && !allow[pid])) continue;
-        // Per-piece early exit: ΔE00 ≥ r·√e2 (shade-bounds.ts), so a colour that cannot beat the piece's best is skipped.
-        if (stamp[pid] === gen && r * Math.sqrt(e2) * LB_SHRINK > bestDe[pid]) continue;
+        // Per-piece early exit: ΔE00 ≥ r·√e2 (shade-bounds.ts), so a colour that cannot beat the piece's best, or
+        // cannot reach the page (kth, above), is skipped.
+        const slot = tailFlag | j;
+        const lb = Math.max(blockLb, r * Math.sqrt(e2) * LB_SHRINK);
+        const matched = state[2 * pid] === gen;
+        if (matched) {
+          if (lb > state[2 * pid + 1] || lb > kth) continue;
+        } else if (inside && lb > kth) {
+          // A match for certain that cannot reach the page: it counts, with its lower bound standing in for its
+          // ΔE00 (that keeps it behind every piece on the page; a later exact colour may still replace it).
+          state[2 * pid] = gen;
+          state[2 * pid + 1] = lb;
+          bestSlot[pid] = slot;
+          touched.push(pid);
+          continue;
+        }
         candidates++;
         const de = deltaE00Raw(qL, qa, qb, qC, L[j], A[j], B[j], C[j]);
         if (de > r) continue;
-        const slot = tailFlag | j;
-        if (stamp[pid] !== gen) {
-          stamp[pid] = gen;
-          bestDe[pid] = de;
+        if (!matched) {
+          state[2 * pid] = gen;
+          state[2 * pid + 1] = de;
           bestSlot[pid] = slot;
           touched.push(pid);
-        } else if (de < bestDe[pid] || (de === bestDe[pid] && share[j] > this.shareOf(bestSlot[pid]))) {
-          bestDe[pid] = de;
+          admit(de);
+        } else if (de < state[2 * pid + 1] || (de === state[2 * pid + 1] && share[j] > this.shareOf(bestSlot[pid]))) {
+          state[2 * pid + 1] = de;
           bestSlot[pid] = slot;
         }
       }
     };
 
-    const l0 = lIdx(qL - box.hwL);
-    const l1 = lIdx(qL + box.hwL);
-    const a0 = abIdx(qa - box.hwAB);
-    const a1 = abIdx(qa + box.hwAB);
-    const b0 = abIdx(qb - box.hwAB);
-    const b1 = abIdx(qb + box.hwAB);
-    if (q.scanAll) scan(this.main, 0, this.main.n, 0);
-    else
-      for (let li = l0; li <= l1; li++) {
-        // Skip whole cells by their point nearest the query: what the ellipsoid leaves of a*b* after this L* slab.
-        const gL = gap(qL, L_MIN, li, NL);
-        const restL = ELLIPSOID_SLACK - gL * gL * invL2;
-        if (restL < 0) continue;
-        for (let ai = a0; ai <= a1; ai++) {
-          const ga = gap(qa, AB_MIN, ai, NAB);
-          const restAB = restL / invAB2 - ga * ga;
-          if (restAB < 0) continue;
-          // Cells whose b* span comes within √restAB of the query's b* (one contiguous run of the grid).
-          const hb = Math.sqrt(restAB);
-          const lo = Math.max(b0, abIdx(qb - hb));
-          const hi = Math.min(b1, abIdx(qb + hb));
-          if (lo > hi) continue;
-          const base = (li * NAB + ai) * NAB;
-          scan(this.main, this.start[base + lo], this.start[base + hi + 1], 0);
+    const nA = abIdx(qa + box.hwAB) - abIdx(qa - box.hwAB) + 1;
+    const nB = abIdx(qb + box.hwAB) - abIdx(qb - box.hwAB) + 1;
+    const nCells = (lIdx(qL + box.hwL) - lIdx(qL - box.hwL) + 1) * nA * nB;
+    // A box with far more cells than there are colours (a wide radius on a small archive) is cheaper to scan whole.
+    if (q.scanAll || nCells > 4 * this.main.n) scan(this.main, 0, this.main.n, 0, 0, false);
+    else {
+      // Walk the a*b* grid from the prefilter box down to single columns, dropping every rectangle that the
+      // ellipsoid (cheap) or its ΔE00 lower bound (box-bound.ts, which follows the tolerance region's real shape)
+      // puts beyond the radius; then each column's L* cells, with bounds from the column's chroma/hue terms plus
+      // each slice's lightness terms (worked out once per query). The half holding the query goes first, so
+      // close matches settle kth early. The grid's edge cells also hold everything clamped into them, so they get
+      // no finer bound than the ellipsoid's.
+      const bq = boundQuery(qL, qa, qb);
+      const lLo = lIdx(qL - box.hwL);
+      const lHi = lIdx(qL + box.hwL);
+      const slices = centreOut(lIdx(qL), lLo, lHi);
+      const light = this.lightScratch;
+      const t: Terms = { lo: 0, hi: 0 };
+      for (const li of slices) {
+        if (li === 0 || li === NL - 1) {
+          light[2 * li] = 0;
+          light[2 * li + 1] = Infinity;
+        } else {
+          lightnessTerms(bq, L_MIN + li * CELL_L, L_MIN + (li + 1) * CELL_L, t);
+          light[2 * li] = t.lo;
+          light[2 * li + 1] = t.hi;
         }
       }
-    scan(this.tail, 0, this.tail.n, TAIL_BIT);
+      const innerAB = (i: number) => i > 0 && i < NAB - 1;
+      const column = (ai: number, bi: number, abLo: number, abHi: number) => {
+        const ga = span(qa, AB_MIN, CELL_AB, ai, ai, NAB);
+        const gb = span(qb, AB_MIN, CELL_AB, bi, bi, NAB);
+        const restAB = (ga * ga + gb * gb) * invAB2;
+        for (const li of slices) {
+          const gL = span(qL, L_MIN, CELL_L, li, li, NL);
+          if (gL * gL * invL2 + restAB > ELLIPSOID_SLACK) continue;
+          const lb = lowerBound(light[2 * li], abLo);
+          if (lb > r) continue;
+          const cell = (li * NAB + ai) * NAB + bi;
+          scan(this.main, this.start[cell], this.start[cell + 1], 0, lb, upperBound(light[2 * li + 1], abHi) <= r * LB_SHRINK);
+        }
+      };
+      const visit = (a0: number, a1: number, b0: number, b1: number) => {
+        const ga = span(qa, AB_MIN, CELL_AB, a0, a1, NAB);
+        const gb = span(qb, AB_MIN, CELL_AB, b0, b1, NAB);
+        if ((ga * ga + gb * gb) * invAB2 > ELLIPSOID_SLACK) return;
+        let abLo = 0;
+        let abHi = Infinity;
+        if (innerAB(a0) && innerAB(a1) && innerAB(b0) && innerAB(b1)) {
+          chromaHueTerms(bq, AB_MIN + a0 * CELL_AB, AB_MIN + (a1 + 1) * CELL_AB, AB_MIN + b0 * CELL_AB, AB_MIN + (b1 + 1) * CELL_AB, t);
+          abLo = t.lo;
+          abHi = t.hi;
+          if (lowerBound(0, abLo) > r) return;
+        }
+        if (a0 === a1 && b0 === b1) column(a0, b0, abLo, abHi);
+        else if (b1 - b0 >= a1 - a0) {
+          const m = (b0 + b1) >> 1;
+          const low = qb < AB_MIN + (m + 1) * CELL_AB;
+          visit(a0, a1, low ? b0 : m + 1, low ? m : b1);
+          visit(a0, a1, low ? m + 1 : b0, low ? b1 : m);
+        } else {
+          const m = (a0 + a1) >> 1;
+          const low = qa < AB_MIN + (m + 1) * CELL_AB;
+          visit(low ? a0 : m + 1, low ? m : a1, b0, b1);
+          visit(low ? m + 1 : a0, low ? a1 : m, b0, b1);
+        }
+      };
+      visit(abIdx(qa - box.hwAB), abIdx(qa + box.hwAB), abIdx(qb - box.hwAB), abIdx(qb + box.hwAB));
+    }
+    scan(this.tail, 0, this.tail.n, TAIL_BIT, 0, false);
 
-    const need = (q.offset ?? 0) + q.limit;
-    const better = (p: number, o: number) => compareMatch(bestDe[p], this.shareOf(bestSlot[p]), p, bestDe[o], this.shareOf(bestSlot[o]), o) < 0;
-    const top = selectTop(touched, need, better);
-    return { total: touched.length, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe[pid])), candidates };
+    const bestDe = (p: number) => state[2 * p + 1];
+    const better = (p: number, o: number) => compareMatch(bestDe(p), this.shareOf(bestSlot[p]), p, bestDe(o), this.shareOf(bestSlot[o]), o) < 0;
+    // The page holds only pieces whose best is ≤ kth (see above): rank those, not every match.
+    const top = selectTop(kth === Infinity ? touched : touched.filter((p) => bestDe(p) <= kth), need, better);
+    return { total: touched.length, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))), candidates };
   }
 
   private shareOf(slot: number) {
@@ -321,13 +435,26 @@ export class ShadeIndex {
     for (const c of [this.main, this.tail])
       for (let j = 0; j < c.n; j++) {
         if (!c.alive[j]) continue;
-        const pid = c.photo[j] < this.photoPiece.length ? this.photoPiece[c.photo[j]] : 0;
+        const pid = c.piece[j];
         if (pid > 0) yield { pieceId: pid, photoId: c.photo[j], colourId: c.id[j], L: c.L[j], a: c.A[j], b: c.B[j], hex: intToHex(c.rgb[j]), share: c.share[j], deltaE00: NaN };
       }
   }
 }
 
 const TAIL_BIT = 1 << 30;
+
+/** lo..hi in the order c, c−1, c+1, c−2, … (c clamped into the range). */
+function centreOut(c: number, lo: number, hi: number): number[] {
+  const m = Math.min(hi, Math.max(lo, c));
+  const out = [m];
+  for (let d = 1; m - d >= lo || m + d <= hi; d++) {
+    if (m - d >= lo) out.push(m - d);
+    if (m + d <= hi) out.push(m + d);
+  }
+  return out;
+}
+
+
 
 /** Ranking order: smaller ΔE00, then larger share, then lower piece id (stable across runs). */
 export function compareMatch(deA: number, shareA: number, pidA: number, deB: number, shareB: number, pidB: number) {
