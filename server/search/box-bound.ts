@@ -10,11 +10,12 @@
  *
  *   ΔE00² = (ΔL'/SL)² + x² + y² + RT·x·y,   x = ΔC'/SC,  y = ΔH'/SH.
  *
- * 1. RT = −sin(2Δθ)·RC ≤ 0. Where the signs of ΔC' and ΔH' are known and
- *    opposite, the cross term RT·x·y is ≥ 0 (so x² + y² is a lower bound);
- *    where they are known and equal it is ≤ 0 (x² + y² is an upper bound);
- *    otherwise x² + y² − |RT|·|x|·|y| ≤ the sum ≤ x² + y² + |RT|·|x|·|y|, and
- *    the lower one is minimised exactly over the box of |x|, |y| (minTiltedForm).
+ * 1. RT = −sin(2Δθ)·RC ≤ 0, with |RT| between a smallest and a largest value
+ *    (below). Where the signs of ΔC' and ΔH' are known and opposite, the sum is
+ *    x² + y² + |RT|·|x|·|y|; where they are known and equal, x² + y² − |RT|·|x|·|y|;
+ *    otherwise it lies between x² + y² ∓ |RT|max·|x|·|y|. Each is bounded over
+ *    the box of |x|, |y| exactly: increasing forms at the box's corners, the
+ *    convex u² + v² − R·u·v at its corners (largest) or on its edges (smallest).
  * 2. Each term is bounded separately over the box, which is safe because every
  *    term lies between its own extremes at every point. The lightness term
  *    depends only on L* and the rest only on a*, b*, so the index works them out
@@ -41,7 +42,9 @@
  *      T > 0, so SH = 1 + 0.015·C̄'·T lies between its values at the extremes;
  *      Δθ ≤ 30°·exp(−(d/25°)²) with d the circular distance from the arc to
  *      275° (the formula's linear |h̄' − 275°| is never smaller); and
- *      |RT| ≤ RC(C̄'max)·sin 2Δθmax.
+ *      |RT| ≤ RC(C̄'max)·sin 2Δθmax. Likewise |RT| ≥ RC(C̄'min)·sin 2Δθmin with
+ *      Δθmin from the arc's point furthest from 275° on [0°, 360°) (0 when the
+ *      arc crosses 0°).
  *    When the query is achromatic (C1' = 0), ΔH' = 0 and h̄' = h2'.
  * Lower bounds are shrunk and upper bounds grown by a hair for floating-point
  * rounding. Checked against exact ΔE00 at random points of random boxes in
@@ -186,8 +189,8 @@ export function chromaHueTerms(q: BoundQuery, a0: number, a1: number, b0: number
       // The query's primed hue as s runs over [sLo, sHi], relative to its unprimed hue.
       const e0 = wrap180(Math.atan2(q.b, q.a * sLo) / DEG - q.hRef);
       const e1 = wrap180(Math.atan2(q.b, q.a * sHi) / DEG - q.hRef);
-      const qLo = Math.min(e0, e1, 0);
-      const qHi = Math.max(e0, e1, 0);
+      const qLo = Math.min(e0, e1);
+      const qHi = Math.max(e0, e1);
       if (rLo - qHi > -179 && rHi - qLo < 179) {
         // No pair is near-opposite: Δh' = h2' − h1' without wrapping, h̄' = (h1' + h2')/2.
         const dLo = rLo - qHi;
@@ -210,14 +213,25 @@ export function chromaHueTerms(q: BoundQuery, a0: number, a1: number, b0: number
   tOver(hStart, hWidth);
   const d = arcDistance(275, hStart, hWidth) / 25;
   const rt = rcOf(cBarPMax) * Math.sin(60 * DEG * Math.exp(-d * d));
+  // The smallest |RT|: Δθ at the arc's point furthest from 275° in the formula's own linear sense (h̄' on [0°, 360°));
+  // none when the arc is wide or crosses 0°, where h̄' may be 0 (|h̄' − 275°| = 275°, Δθ ≈ 0).
+  const s0 = ((hStart % 360) + 360) % 360;
+  const far = hWidth >= 360 || s0 + hWidth >= 360 ? Infinity : Math.max(Math.abs(s0 - 275), Math.abs(s0 + hWidth - 275)) / 25;
+  const rtMin = far === Infinity ? 0 : rcOf(cBarPMin) * Math.sin(60 * DEG * Math.exp(-far * far));
   // |x| and |y| ranges; RT ≤ 0 always, so the cross term RT·x·y is ≥ 0 when ΔC' and ΔH' have opposite signs.
   const x = dC / (1 + 0.045 * cBarPMax);
   const y = dH / (1 + 0.015 * cBarPMax * tMax);
   const xMax = dCMax / (1 + 0.045 * cBarPMin);
   const yMax = dHMax / (1 + 0.015 * cBarPMin * tMin);
   const signs = (c2Lo > c1Hi ? 1 : c2Hi < c1Lo ? -1 : 0) * hueSign;
-  out.lo = signs < 0 ? x * x + y * y : minTiltedForm(x, xMax, y, yMax, rt);
-  out.hi = signs > 0 ? xMax * xMax + yMax * yMax : xMax * xMax + yMax * yMax + rt * xMax * yMax;
+  out.lo = signs < 0 ? x * x + y * y + rtMin * x * y : minTiltedForm(x, xMax, y, yMax, rt);
+  out.hi = signs > 0 ? maxTiltedForm(x, xMax, y, yMax, rtMin) : xMax * xMax + yMax * yMax + rt * xMax * yMax;
+}
+
+/** Largest u² + v² − R·u·v over the same box: a convex function, so at a corner. */
+function maxTiltedForm(u0: number, u1: number, v0: number, v1: number, R: number): number {
+  const g = (u: number, v: number) => u * u + v * v - R * u * v;
+  return Math.max(g(u0, v0), g(u0, v1), g(u1, v0), g(u1, v1));
 }
 
 /**

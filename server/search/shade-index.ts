@@ -134,7 +134,10 @@ class Columns {
 
 export class ShadeIndex {
   private main = new Columns(0);
+  /** Grid cell i holds main[start[i] .. start[i + 1]); cells run L* fastest, so a column's slices are one run. */
   private start = new Int32Array(NCELLS + 1);
+  /** Summed-area table of colours per a*b* column (all L*): an empty rectangle of columns is skipped unvisited. */
+  private colSum = new Int32Array((NAB + 1) * (NAB + 1));
   private tail = new Columns(0);
   private dead = 0;
   private photoPiece = new Int32Array(1024);
@@ -215,7 +218,7 @@ export class ShadeIndex {
 
   /** Fold the tail into the grid and drop tombstones: a counting sort by cell. */
   private compact() {
-    const cellOf = (c: Columns, j: number) => (lIdx(c.L[j]) * NAB + abIdx(c.A[j])) * NAB + abIdx(c.B[j]);
+    const cellOf = (c: Columns, j: number) => (abIdx(c.A[j]) * NAB + abIdx(c.B[j])) * NL + lIdx(c.L[j]);
     const counts = new Int32Array(NCELLS + 1);
     let live = 0;
     for (const c of [this.main, this.tail])
@@ -232,6 +235,14 @@ export class ShadeIndex {
     next.n = live;
     this.main = next;
     this.start = start;
+    const W = NAB + 1;
+    const sum = new Int32Array(W * W);
+    for (let ai = 0; ai < NAB; ai++)
+      for (let bi = 0; bi < NAB; bi++) {
+        const col = ai * NAB + bi;
+        sum[(ai + 1) * W + bi + 1] = start[(col + 1) * NL] - start[col * NL] + sum[ai * W + bi + 1] + sum[(ai + 1) * W + bi] - sum[ai * W + bi];
+      }
+    this.colSum = sum;
     this.tail = new Columns(0);
     this.dead = 0;
   }
@@ -371,20 +382,26 @@ export class ShadeIndex {
         }
       }
       const innerAB = (i: number) => i > 0 && i < NAB - 1;
+      const { start, colSum } = this;
+      const W = NAB + 1;
       const column = (ai: number, bi: number, abLo: number, abHi: number) => {
+        const base = (ai * NAB + bi) * NL;
+        if (start[base + lLo] === start[base + lHi + 1]) return;
         const ga = span(qa, AB_MIN, CELL_AB, ai, ai, NAB);
         const gb = span(qb, AB_MIN, CELL_AB, bi, bi, NAB);
         const restAB = (ga * ga + gb * gb) * invAB2;
         for (const li of slices) {
+          const cell = base + li;
+          if (start[cell] === start[cell + 1]) continue;
           const gL = span(qL, L_MIN, CELL_L, li, li, NL);
           if (gL * gL * invL2 + restAB > ELLIPSOID_SLACK) continue;
           const lb = lowerBound(light[2 * li], abLo);
           if (lb > r) continue;
-          const cell = (li * NAB + ai) * NAB + bi;
-          scan(this.main, this.start[cell], this.start[cell + 1], 0, lb, upperBound(light[2 * li + 1], abHi) <= r * LB_SHRINK);
+          scan(this.main, start[cell], start[cell + 1], 0, lb, upperBound(light[2 * li + 1], abHi) <= r * LB_SHRINK);
         }
       };
       const visit = (a0: number, a1: number, b0: number, b1: number) => {
+        if (colSum[(a1 + 1) * W + b1 + 1] - colSum[a0 * W + b1 + 1] - colSum[(a1 + 1) * W + b0] + colSum[a0 * W + b0] === 0) return;
         const ga = span(qa, AB_MIN, CELL_AB, a0, a1, NAB);
         const gb = span(qb, AB_MIN, CELL_AB, b0, b1, NAB);
         if ((ga * ga + gb * gb) * invAB2 > ELLIPSOID_SLACK) return;
