@@ -146,6 +146,7 @@ export class ShadeIndex {
   /** Per piece id, side by side (one cache line per piece touched): the query generation that last matched it, and its best ΔE00 then. */
   private pieceState = new Float64Array(2048);
   private pieceBest = new Int32Array(1024);
+  private matchedScratch = new Int32Array(0);
   private gen = 0;
   /** Per L* slice: lower and upper bounds of the lightness term for the current query. */
   private lightScratch = new Float64Array(2 * NL);
@@ -268,7 +269,10 @@ export class ShadeIndex {
     const state = this.pieceState;
     const bestSlot = this.pieceBest;
     const allow = q.allow ?? null;
-    const touched: number[] = [];
+    // The pieces matched so far, in a buffer reused across queries (a piece is added once: it has one per piece id).
+    if (this.matchedScratch.length < bestSlot.length) this.matchedScratch = new Int32Array(bestSlot.length);
+    const matchedIds = this.matchedScratch;
+    let total = 0;
     let candidates = 0;
     // Only the first `need` pieces are ranked. `kth` is the largest ΔE00 in a max-heap holding, for `need` distinct
     // pieces, the ΔE00 each matched with first: every value is ≥ that piece's final best, so the need-th best ΔE00
@@ -334,7 +338,7 @@ export class ShadeIndex {
           state[2 * pid] = gen;
           state[2 * pid + 1] = lb;
           bestSlot[pid] = slot;
-          touched.push(pid);
+          matchedIds[total++] = pid;
           continue;
         }
         candidates++;
@@ -344,7 +348,7 @@ export class ShadeIndex {
           state[2 * pid] = gen;
           state[2 * pid + 1] = de;
           bestSlot[pid] = slot;
-          touched.push(pid);
+          matchedIds[total++] = pid;
           admit(de);
         } else if (de < state[2 * pid + 1] || (de === state[2 * pid + 1] && share[j] > this.shareOf(bestSlot[pid]))) {
           state[2 * pid + 1] = de;
@@ -433,8 +437,10 @@ export class ShadeIndex {
     const bestDe = (p: number) => state[2 * p + 1];
     const better = (p: number, o: number) => compareMatch(bestDe(p), this.shareOf(bestSlot[p]), p, bestDe(o), this.shareOf(bestSlot[o]), o) < 0;
     // The page holds only pieces whose best is ≤ kth (see above): rank those, not every match.
-    const top = selectTop(kth === Infinity ? touched : touched.filter((p) => bestDe(p) <= kth), need, better);
-    return { total: touched.length, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))), candidates };
+    const onPage: number[] = [];
+    for (let i = 0; i < total; i++) if (bestDe(matchedIds[i]) <= kth) onPage.push(matchedIds[i]);
+    const top = selectTop(onPage, need, better);
+    return { total, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))), candidates };
   }
 
   private shareOf(slot: number) {
