@@ -1,4 +1,4 @@
-import { deltaE00Raw } from './ciede2000.ts';
+import { deltaE00Kernel, K_A, K_B, K_C, K_L, K_OUT, kernelBlock } from './ciede2000.ts';
 import { boundQuery, chromaHueTerms, lightnessTerms, lowerBound, type Terms, upperBound } from './box-bound.ts';
 import { shadeBox } from './shade-bounds.ts';
 import { selectTop } from './top.ts';
@@ -122,7 +122,7 @@ class Columns {
     this.L[j] = r.L;
     this.A[j] = r.a;
     this.B[j] = r.b;
-    this.C[j] = Math.hypot(r.a, r.b);
+    this.C[j] = Math.sqrt(r.a * r.a + r.b * r.b);
     this.share[j] = r.share;
     this.photo[j] = r.photoId;
     this.piece[j] = piece;
@@ -147,6 +147,10 @@ export class ShadeIndex {
   private pieceState = new Float64Array(2048);
   private pieceBest = new Int32Array(1024);
   private matchedScratch = new Int32Array(0);
+  /** The ΔE00 kernel's argument block (query colour, result) and the current cell's lower bound: typed slots, not
+   * arguments, because floating-point arguments to a call that is not inlined are boxed on the heap. */
+  private kernel = kernelBlock();
+  private cellLb = new Float64Array(2);
   private gen = 0;
   /** Per L* slice: lower and upper bounds of the lightness term for the current query. */
   private lightScratch = new Float64Array(2 * NL);
@@ -262,7 +266,11 @@ export class ShadeIndex {
   /** Pieces with a colour within maxDeltaE of the query, best colour each, ranked by ΔE00 then share; `total` counts all of them. */
   query(q: ShadeQuery): { total: number; items: ShadeMatch[]; candidates: number } {
     const { L: qL, a: qa, b: qb, maxDeltaE: r } = q;
-    const qC = Math.hypot(qa, qb);
+    const k = this.kernel;
+    k[K_L] = qL;
+    k[K_A] = qa;
+    k[K_B] = qb;
+    k[K_C] = Math.sqrt(qa * qa + qb * qb);
     const box = q.scanAll ? { hwL: Infinity, hwAB: Infinity } : shadeBox(q, r);
     const gen = ++this.gen;
     // state[2p] === gen: piece p has matched in this query, with best ΔE00 state[2p + 1] (colour bestSlot[p]).
@@ -282,8 +290,11 @@ export class ShadeIndex {
     const need = (q.offset ?? 0) + q.limit;
     const heap = new Float64Array(Math.max(1, need));
     let heapN = 0;
-    let kth = Infinity;
-    const admit = (de: number) => {
+    // kth lives in a typed slot (as does the ΔE00 admitted, k[K_OUT]): a captured variable holding a float is boxed on every write.
+    const kthSlot = this.cellLb.subarray(1, 2);
+    kthSlot[0] = Infinity;
+    const admit = () => {
+      const de = k[K_OUT];
       if (heapN < need) {
         let i = heapN++;
         while (i > 0) {
@@ -293,7 +304,7 @@ export class ShadeIndex {
           i = p;
         }
         heap[i] = de;
-        if (heapN === need) kth = heap[0];
+        if (heapN === need) kthSlot[0] = heap[0];
       } else if (de < heap[0]) {
         let i = 0;
         for (;;) {
@@ -305,16 +316,18 @@ export class ShadeIndex {
           i = c;
         }
         heap[i] = de;
-        kth = heap[0];
+        kthSlot[0] = heap[0];
       }
     };
 
     // The ellipsoid of shade-bounds.ts (inside the box): (ΔL/hwL)² + ((Δa²+Δb²)/hwAB²) ≤ 1 for every match.
     const invL2 = q.scanAll ? 0 : 1 / (box.hwL * box.hwL);
     const invAB2 = q.scanAll ? 0 : 1 / (box.hwAB * box.hwAB);
-    // `blockLb`: a lower bound on ΔE00 for every colour in the run (0 when unknown); `inside`: every colour in the
-    // run is within the radius (its block's upper bound says so).
-    const scan = (c: Columns, from: number, to: number, tailFlag: number, blockLb: number, inside: boolean) => {
+    // cellLb[0]: a lower bound on ΔE00 for every colour in the run (0 when unknown); `inside`: every colour in the
+    // run is within the radius (its cell's upper bound says so).
+    const cellLb = this.cellLb;
+    const scan = (c: Columns, from: number, to: number, tailFlag: number, inside: boolean) => {
+      const blockLb = cellLb[0];
       const { L, A, B, C, alive, piece, share } = c;
       for (let j = from; j < to; j++) {
         const dL = L[j] - qL;
@@ -331,8 +344,8 @@ export class ShadeIndex {
         const lb = Math.max(blockLb, r * Math.sqrt(e2) * LB_SHRINK);
         const matched = state[2 * pid] === gen;
         if (matched) {
-          if (lb > state[2 * pid + 1] || lb > kth) continue;
-        } else if (inside && lb > kth) {
+          if (lb > state[2 * pid + 1] || lb > kthSlot[0]) continue;
+        } else if (inside && lb > kthSlot[0]) {
           // A match for certain that cannot reach the page: it counts, with its lower bound standing in for its
           // ΔE00 (that keeps it behind every piece on the page; a later exact colour may still replace it).
           state[2 * pid] = gen;
@@ -342,14 +355,15 @@ export class ShadeIndex {
           continue;
         }
         candidates++;
-        const de = deltaE00Raw(qL, qa, qb, qC, L[j], A[j], B[j], C[j]);
+        deltaE00Kernel(k, L, A, B, C, j);
+        const de = k[K_OUT];
         if (de > r) continue;
         if (!matched) {
           state[2 * pid] = gen;
           state[2 * pid + 1] = de;
           bestSlot[pid] = slot;
           matchedIds[total++] = pid;
-          admit(de);
+          admit();
         } else if (de < state[2 * pid + 1] || (de === state[2 * pid + 1] && share[j] > this.shareOf(bestSlot[pid]))) {
           state[2 * pid + 1] = de;
           bestSlot[pid] = slot;
@@ -361,7 +375,8 @@ export class ShadeIndex {
     const nB = abIdx(qb + box.hwAB) - abIdx(qb - box.hwAB) + 1;
     const nCells = (lIdx(qL + box.hwL) - lIdx(qL - box.hwL) + 1) * nA * nB;
     // A box with far more cells than there are colours (a wide radius on a small archive) is cheaper to scan whole.
-    if (q.scanAll || nCells > 4 * this.main.n) scan(this.main, 0, this.main.n, 0, 0, false);
+    cellLb[0] = 0;
+    if (q.scanAll || nCells > 4 * this.main.n) scan(this.main, 0, this.main.n, 0, false);
     else {
       // Walk the a*b* grid from the prefilter box down to single columns, dropping every rectangle that the
       // ellipsoid (cheap) or its ΔE00 lower bound (box-bound.ts, which follows the tolerance region's real shape)
@@ -401,7 +416,8 @@ export class ShadeIndex {
           if (gL * gL * invL2 + restAB > ELLIPSOID_SLACK) continue;
           const lb = lowerBound(light[2 * li], abLo);
           if (lb > r) continue;
-          scan(this.main, start[cell], start[cell + 1], 0, lb, upperBound(light[2 * li + 1], abHi) <= r * LB_SHRINK);
+          cellLb[0] = lb;
+          scan(this.main, start[cell], start[cell + 1], 0, upperBound(light[2 * li + 1], abHi) <= r * LB_SHRINK);
         }
       };
       const visit = (a0: number, a1: number, b0: number, b1: number) => {
@@ -432,13 +448,14 @@ export class ShadeIndex {
       };
       visit(abIdx(qa - box.hwAB), abIdx(qa + box.hwAB), abIdx(qb - box.hwAB), abIdx(qb + box.hwAB));
     }
-    scan(this.tail, 0, this.tail.n, TAIL_BIT, 0, false);
+    cellLb[0] = 0;
+    scan(this.tail, 0, this.tail.n, TAIL_BIT, false);
 
     const bestDe = (p: number) => state[2 * p + 1];
     const better = (p: number, o: number) => compareMatch(bestDe(p), this.shareOf(bestSlot[p]), p, bestDe(o), this.shareOf(bestSlot[o]), o) < 0;
     // The page holds only pieces whose best is ≤ kth (see above): rank those, not every match.
     const onPage: number[] = [];
-    for (let i = 0; i < total; i++) if (bestDe(matchedIds[i]) <= kth) onPage.push(matchedIds[i]);
+    for (let i = 0; i < total; i++) if (bestDe(matchedIds[i]) <= kthSlot[0]) onPage.push(matchedIds[i]);
     const top = selectTop(onPage, need, better);
     return { total, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))), candidates };
   }
