@@ -57,6 +57,8 @@ function labelFor(d: PieceDoc, f: FacetName, key: string): string {
  */
 type FacetTable = {
   version: number; start: Int32Array; vals: Int32Array; keys: string[][]; labels: string[][]; intern: Array<Map<string, number>>;
+  /** The same values numbered densely across facets (facet fi's value i is base[fi] + i), so counting is one array increment. */
+  dense: Int32Array; base: Int32Array;
   exists: Uint8Array; published: Uint8Array; accessionRank: Int32Array; all: Int32Array;
 };
 let table: FacetTable | null = null;
@@ -94,7 +96,10 @@ function facetTable(): FacetTable {
   const accessionRank = new Int32Array(byId.length);
   present.sort((x, y) => collator.compare(x.accessionNumber, y.accessionNumber) || x.id - y.id).forEach((d, r) => (accessionRank[d.id] = r));
   const all = Int32Array.from(present.map((d) => d.id).sort((x, y) => x - y));
-  return (table = { version: searchEngine.version, start, vals: Int32Array.from(vals), keys, labels, intern, exists, published, accessionRank, all });
+  const base = new Int32Array(FACETS.length + 1);
+  FACETS.forEach((_, fi) => (base[fi + 1] = base[fi] + keys[fi].length));
+  const dense = Int32Array.from(vals, (v) => base[v >>> 24] + (v & 0xffffff));
+  return (table = { version: searchEngine.version, start, vals: Int32Array.from(vals), dense, base, keys, labels, intern, exists, published, accessionRank, all });
 }
 
 /** The chosen facet values as interned codes: per facet, the codes wanted (-1 for a value no piece has). */
@@ -140,51 +145,71 @@ function passes(id: number, c: Compiled, t: FacetTable, skip = -1): boolean {
   return true;
 }
 
-function keep(ids: number[], c: Compiled, t: FacetTable): number[] {
-  const out: number[] = [];
-  for (const id of ids) if (passes(id, c, t)) out.push(id);
-  return out;
-}
+// Id lists reused across requests rather than allocated per query: a search runs synchronously from the
+// text index to the response once the engine has settled, so no two requests share them at once.
+let visibleBuf = new Int32Array(0);
+let matchedBuf = new Int32Array(0);
 
-/** Piece ids passing visibility, text and every filter; with the text hits for ranking and highlights. */
+/** Piece ids passing visibility and text (`textMatched`, for facet counts) and also every filter (`matched`). */
 function candidates(actor: Actor, f: SearchFilters) {
   const t = facetTable();
   const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
   const drafts = can(actor, 'piece:list-drafts');
-  const source: ArrayLike<number> = hits ? hits.ids : t.all;
-  const visible: number[] = [];
+  const source = hits ? hits.ids : t.all;
+  const c = compile(selected(f), t);
+  const filtered = c.facets.length > 0 || c.mordant.length > 0;
+  if (visibleBuf.length < source.length) {
+    visibleBuf = new Int32Array(source.length + 1024);
+    matchedBuf = new Int32Array(source.length + 1024);
+  }
+  const { exists, published } = t;
+  let nv = 0;
+  let nm = 0;
   for (let i = 0; i < source.length; i++) {
     const id = source[i];
-    if (id < t.exists.length && t.exists[id] && (drafts || t.published[id])) visible.push(id);
+    if (id >= exists.length || !exists[id] || !(drafts || published[id])) continue;
+    visibleBuf[nv++] = id;
+    if (filtered && passes(id, c, t)) matchedBuf[nm++] = id;
   }
-  const sel = selected(f);
-  const c = compile(sel, t);
-  const filtered = c.facets.length > 0 || c.mordant.length > 0;
-  return { textMatched: visible, matched: filtered ? keep(visible, c, t) : visible, hits, c, filtered };
+  const textMatched = visibleBuf.subarray(0, nv);
+  return { textMatched, matched: filtered ? matchedBuf.subarray(0, nm) : textMatched, hits, c, filtered };
 }
 
-function facetCounts(ids: number[], c: Compiled, filtered: boolean): FacetCounts {
+/** Values counted per facet over `ids` (one flat array, facet fi's value i at base[fi] + i). */
+function countAll(ids: Int32Array, t: FacetTable): Int32Array {
+  const counts = new Int32Array(t.base[FACETS.length]);
+  const { start, dense } = t;
+  for (let i = 0; i < ids.length; i++) {
+    const id = ids[i];
+    for (let k = start[id], end = start[id + 1]; k < end; k++) counts[dense[k]]++;
+  }
+  return counts;
+}
+
+function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled): FacetCounts {
   const t = facetTable();
-  const counts = FACETS.map((_, fi) => new Int32Array(t.keys[fi].length));
   // A widening (OR) facet's own counts ignore its own choice.
   const ownRule = FACETS.map((f, fi) => !NARROWING.has(f) && c.facets.some((x) => x.fi === fi));
-  const anyOwn = ownRule.some(Boolean);
-  const { start, vals } = t;
-  for (const id of ids) {
-    const all = !filtered || passes(id, c, t);
-    if (!all && !anyOwn) continue;
-    for (let k = start[id], end = start[id + 1]; k < end; k++) {
-      const v = vals[k];
-      const fi = v >>> 24;
-      if (ownRule[fi] ? !passes(id, c, t, fi) : !all) continue;
-      counts[fi][v & 0xffffff]++;
+  let counts: Int32Array;
+  // Usually every facet counts the pieces that pass every filter: one pass over their values.
+  if (!ownRule.some(Boolean)) counts = countAll(matched, t);
+  else {
+    counts = new Int32Array(t.base[FACETS.length]);
+    const { start, vals, dense } = t;
+    for (const id of textMatched) {
+      const all = passes(id, c, t);
+      for (let k = start[id], end = start[id + 1]; k < end; k++) {
+        const fi = vals[k] >>> 24;
+        if (ownRule[fi] ? !passes(id, c, t, fi) : !all) continue;
+        counts[dense[k]]++;
+      }
     }
   }
   const out = {} as FacetCounts;
   FACETS.forEach((f, fi) => {
     const rows: Array<{ value: string; label: string; count: number }> = [];
     t.keys[fi].forEach((key, i) => {
-      const n = counts[fi][i];
+      const n = counts[t.base[fi] + i];
       if (n) rows.push({ value: f === 'century' ? key : t.labels[fi][i], label: t.labels[fi][i], count: n });
     });
     out[f] = rows.sort((x, y) => (f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label))).slice(0, 100);
@@ -194,7 +219,7 @@ function facetCounts(ids: number[], c: Compiled, filtered: boolean): FacetCounts
 
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
-  const { textMatched, matched, hits, c, filtered } = candidates(actor, input);
+  const { textMatched, matched, hits, c } = candidates(actor, input);
   const rank = facetTable().accessionRank;
   const s = hits?.scores;
   // Rank only as far as the page asked for (bounded heap), not the whole match list.
@@ -221,7 +246,7 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
       viaTrials: hit?.viaTrials.filter(Boolean) ?? [],
     };
   });
-  return { items, facets: facetCounts(textMatched, c, filtered), total: matched.length, page: input.page, pageSize: input.pageSize };
+  return { items, facets: facetCounts(textMatched, matched, c), total: matched.length, page: input.page, pageSize: input.pageSize };
 }
 
 // Unfiltered shade queries reuse one allow-list per audience until a piece changes.
