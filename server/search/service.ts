@@ -2,26 +2,19 @@ import type { Actor } from '../policies/index.ts';
 import { can } from '../policies/index.ts';
 import type { FacetCounts, FacetName, SearchFilters, SearchItem, SearchQuery, SearchResponse, ShadeItem, ShadeQuery, ShadeResponse } from '../../shared/schemas/search.ts';
 import { hexToLab, labToHex } from '../../shared/search/lab.ts';
-import type { PieceDoc } from './docs.ts';
 import { searchEngine } from './engine.ts';
+import { countMatched, FACETS, type FacetTable, facetTableFor, norm } from './facet-table.ts';
 import { highlights } from './highlight.ts';
 import { selectTop } from './top.ts';
-
-const collator = new Intl.Collator('en', { numeric: true });
 
 /**
  * Text, facets and shade combined. Visitors only ever see published pieces;
  * signed-in users see drafts too; soft-deleted pieces are not in the index.
  * Trial text counts for its piece only for users who may read trials.
  */
-const FACETS: FacetName[] = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'];
 // Pieces carry several of these at once: choosing two narrows (AND). The rest hold one value per piece
 // (a century is one of a few): choosing two widens (OR), and their counts ignore their own choice.
 const NARROWING = new Set<FacetName>(['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique']);
-
-const ordinal = (n: number) => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
-const centuryLabel = (c: number) => `${ordinal(c)} century (${(c - 1) * 100}–${(c - 1) * 100 + 99})`;
-const norm = (s: string) => s.trim().toLowerCase();
 
 type Selected = Partial<Record<FacetName, Set<string>>> & { mordant?: Set<string> };
 
@@ -42,65 +35,7 @@ function selected(f: SearchFilters): Selected {
   return s;
 }
 
-// Display labels: the first spelling met for each lower-cased value.
-function labelFor(d: PieceDoc, f: FacetName, key: string): string {
-  if (f === 'century') return centuryLabel(Number(key));
-  if (f === 'status') return key;
-  const src = { dyestuff: d.dyestuffs, historicalMordant: d.historicalMordants, modernMordant: d.modernMordants, fibre: d.fibres, technique: d.techniques, place: [d.place] }[f];
-  return src.find((v) => norm(v) === key) ?? key;
-}
-
-/**
- * Per index version, built once: every piece's facet values as small integers in one flat array (facet index in
- * the top byte), which pieces are published, and each piece's rank by accession number. Filtering, counting and
- * ranking tens of thousands of hits are then array reads over piece ids, not string work or document objects.
- */
-type FacetTable = {
-  version: number; start: Int32Array; vals: Int32Array; keys: string[][]; labels: string[][]; intern: Array<Map<string, number>>;
-  /** The same values numbered densely across facets (facet fi's value i is base[fi] + i), so counting is one array increment. */
-  dense: Int32Array; base: Int32Array;
-  exists: Uint8Array; published: Uint8Array; accessionRank: Int32Array; all: Int32Array;
-};
-let table: FacetTable | null = null;
-function facetTable(): FacetTable {
-  if (table?.version === searchEngine.version) return table;
-  const { byId } = searchEngine.text;
-  const intern = FACETS.map(() => new Map<string, number>());
-  const keys: string[][] = FACETS.map(() => []);
-  const labels: string[][] = FACETS.map(() => []);
-  const start = new Int32Array(byId.length + 1);
-  const exists = new Uint8Array(byId.length);
-  const published = new Uint8Array(byId.length);
-  const vals: number[] = [];
-  const present: PieceDoc[] = [];
-  for (let id = 0; id < byId.length; id++) {
-    start[id] = vals.length;
-    const d = byId[id];
-    if (!d) continue;
-    present.push(d);
-    exists[id] = 1;
-    published[id] = d.status === 'published' ? 1 : 0;
-    FACETS.forEach((f, fi) => {
-      for (const k of d.keys[f]) {
-        let i = intern[fi].get(k);
-        if (i === undefined) {
-          intern[fi].set(k, (i = keys[fi].length));
-          keys[fi].push(k);
-          labels[fi].push(labelFor(d, f, k));
-        }
-        vals.push((fi << 24) | i);
-      }
-    });
-  }
-  start[byId.length] = vals.length;
-  const accessionRank = new Int32Array(byId.length);
-  present.sort((x, y) => collator.compare(x.accessionNumber, y.accessionNumber) || x.id - y.id).forEach((d, r) => (accessionRank[d.id] = r));
-  const all = Int32Array.from(present.map((d) => d.id).sort((x, y) => x - y));
-  const base = new Int32Array(FACETS.length + 1);
-  FACETS.forEach((_, fi) => (base[fi + 1] = base[fi] + keys[fi].length));
-  const dense = Int32Array.from(vals, (v) => base[v >>> 24] + (v & 0xffffff));
-  return (table = { version: searchEngine.version, start, vals: Int32Array.from(vals), dense, base, keys, labels, intern, exists, published, accessionRank, all });
-}
+const facetTable = (): FacetTable => facetTableFor(searchEngine.text, searchEngine.version);
 
 /** The chosen facet values as interned codes: per facet, the codes wanted (-1 for a value no piece has). */
 type Compiled = { facets: Array<{ fi: number; narrowing: boolean; want: number[] }>; mordant: Array<[number, number]> };
@@ -175,24 +110,13 @@ function candidates(actor: Actor, f: SearchFilters) {
   return { textMatched, matched: filtered ? matchedBuf.subarray(0, nm) : textMatched, hits, c, filtered };
 }
 
-/** Values counted per facet over `ids` (one flat array, facet fi's value i at base[fi] + i). */
-function countAll(ids: Int32Array, t: FacetTable): Int32Array {
-  const counts = new Int32Array(t.base[FACETS.length]);
-  const { start, dense } = t;
-  for (let i = 0; i < ids.length; i++) {
-    const id = ids[i];
-    for (let k = start[id], end = start[id + 1]; k < end; k++) counts[dense[k]]++;
-  }
-  return counts;
-}
-
-function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled): FacetCounts {
+function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, drafts: boolean): FacetCounts {
   const t = facetTable();
   // A widening (OR) facet's own counts ignore its own choice.
   const ownRule = FACETS.map((f, fi) => !NARROWING.has(f) && c.facets.some((x) => x.fi === fi));
   let counts: Int32Array;
   // Usually every facet counts the pieces that pass every filter: one pass over their values.
-  if (!ownRule.some(Boolean)) counts = countAll(matched, t);
+  if (!ownRule.some(Boolean)) counts = countMatched(matched, t, drafts);
   else {
     counts = new Int32Array(t.base[FACETS.length]);
     const { start, vals, dense } = t;
@@ -246,7 +170,7 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
       viaTrials: hit?.viaTrials.filter(Boolean) ?? [],
     };
   });
-  return { items, facets: facetCounts(textMatched, matched, c), total: matched.length, page: input.page, pageSize: input.pageSize };
+  return { items, facets: facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts')), total: matched.length, page: input.page, pageSize: input.pageSize };
 }
 
 // Unfiltered shade queries reuse one allow-list per audience until a piece changes.

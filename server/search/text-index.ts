@@ -37,6 +37,7 @@ const BOOST: Partial<Record<TextField, number>> = { accessionNumber: 6, trialCod
 
 const EDGE = /^[\p{P}\p{S}]+|[\p{P}\p{S}]+$/gu;
 const PARTS = /[\s\p{P}\p{S}]+/u;
+const INNER = /[\p{P}\p{S}]/u;
 
 /** Whole words (so "1931.4.12" and "iron(II)" match as typed) and their punctuation-free parts. */
 export function tokenize(text: string): string[] {
@@ -45,6 +46,8 @@ export function tokenize(text: string): string[] {
     const whole = raw.replace(EDGE, '');
     if (!whole) continue;
     out.push(whole);
+    // Most words have no inner punctuation: test first rather than split every word (tokenising pages and loads).
+    if (!INNER.test(whole)) continue;
     const parts = whole.split(PARTS).filter(Boolean);
     if (parts.length > 1) out.push(...parts);
   }
@@ -233,6 +236,10 @@ export class TextIndex {
     const scoreOf = (pid: number) => (pid >= 0 && pid <= maxPiece && matched[pid] === stamp ? pieceScore[pid] : undefined);
     // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
     const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
+    // A token equal to an expanded term is a substring of its lower-cased field (lower-casing works character by
+    // character, except Greek final sigma: hence the guard), so a field holding none of them needs no tokenising.
+    const termList = [...expanded];
+    const shortcut = !termList.some((t) => t.includes('σ') || t.includes('ς'));
     const detail = (pieceId: number): TextHit => {
       const hit: TextHit = { score: scoreOf(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
       const doc = this.pieces.get(pieceId);
@@ -248,6 +255,10 @@ export class TextIndex {
         for (const f of TEXT_FIELDS) {
           const text = e[f];
           if (!text) continue;
+          if (shortcut) {
+            const lower = text.toLowerCase();
+            if (!termList.some((t) => lower.includes(t))) continue;
+          }
           for (const tok of tokenize(text)) {
             const term = tok.toLowerCase();
             if (expanded.has(term)) {
