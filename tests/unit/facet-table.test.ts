@@ -46,4 +46,21 @@ describe('facet counts (facet-table.ts)', () => {
     }
     expect(checked).toBe(15);
   });
+
+  it('ranks by accession number after edits exactly as a full sort does (only the changed pieces are sorted in)', () => {
+    const idx = new TextIndex();
+    idx.load(Array.from({ length: 300 }, (_, i) => ({ ...piece(i + 1), accessionNumber: `F.${(i * 37) % 300}.${i % 4}` })), []);
+    facetTableFor(idx, 2_000_001);
+    // Renumbered, removed and added pieces.
+    for (const id of [3, 50, 51, 299]) idx.setPiece(id, { ...idx.byId[id]!, accessionNumber: `F.${id % 9}.9` });
+    for (const id of [10, 11]) idx.setPiece(id, null);
+    for (const id of [301, 302, 400]) idx.setPiece(id, { ...piece(id), accessionNumber: `F.${id % 5}` });
+    const t = facetTableFor(idx, 2_000_002);
+    // The oracle: every present piece sorted afresh by localeCompare with numeric collation, ties by id.
+    const present = idx.byId.filter((d) => d !== undefined);
+    const want = [...present].sort((x, y) => x.accessionNumber.localeCompare(y.accessionNumber, 'en', { numeric: true }) || x.id - y.id).map((d) => d.id);
+    const got = [...present].sort((x, y) => t.accessionRank[x.id] - t.accessionRank[y.id]).map((d) => d.id);
+    expect(got).toEqual(want);
+    expect(got).toHaveLength(301);
+  });
 });
