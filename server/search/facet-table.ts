@@ -53,7 +53,7 @@ function accessionOrder(byId: ReadonlyArray<PieceDoc | undefined>, present: Piec
     while (i < kept.length || j < changed.length)
       order.push(j >= changed.length || (i < kept.length && byAccession(kept[i], changed[j]) < 0) ? kept[i++] : changed[j++]);
   }
-  const acc = new Array<string | undefined>(byId.length).fill(undefined);
+  const acc: Array<string | undefined> = Array.from({ length: byId.length });
   for (const d of present) acc[d.id] = d.accessionNumber;
   lastOrder = { ids: order.map((d) => d.id), acc };
   return order;
