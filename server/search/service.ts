@@ -2,26 +2,19 @@ import type { Actor } from '../policies/index.ts';
 import { can } from '../policies/index.ts';
 import type { FacetCounts, FacetName, SearchFilters, SearchItem, SearchQuery, SearchResponse, ShadeItem, ShadeQuery, ShadeResponse } from '../../shared/schemas/search.ts';
 import { hexToLab, labToHex } from '../../shared/search/lab.ts';
-import type { PieceDoc } from './docs.ts';
 import { searchEngine } from './engine.ts';
+import { countMatched, FACETS, type FacetTable, facetTableFor, norm } from './facet-table.ts';
 import { highlights } from './highlight.ts';
 import { selectTop } from './top.ts';
-
-const collator = new Intl.Collator('en', { numeric: true });
 
 /**
  * Text, facets and shade combined. Visitors only ever see published pieces;
  * signed-in users see drafts too; soft-deleted pieces are not in the index.
  * Trial text counts for its piece only for users who may read trials.
  */
-const FACETS: FacetName[] = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'];
 // Pieces carry several of these at once: choosing two narrows (AND). The rest hold one value per piece
 // (a century is one of a few): choosing two widens (OR), and their counts ignore their own choice.
 const NARROWING = new Set<FacetName>(['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique']);
-
-const ordinal = (n: number) => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
-const centuryLabel = (c: number) => `${ordinal(c)} century (${(c - 1) * 100}–${(c - 1) * 100 + 99})`;
-const norm = (s: string) => s.trim().toLowerCase();
 
 type Selected = Partial<Record<FacetName, Set<string>>> & { mordant?: Set<string> };
 
@@ -42,60 +35,7 @@ function selected(f: SearchFilters): Selected {
   return s;
 }
 
-// Display labels: the first spelling met for each lower-cased value.
-function labelFor(d: PieceDoc, f: FacetName, key: string): string {
-  if (f === 'century') return centuryLabel(Number(key));
-  if (f === 'status') return key;
-  const src = { dyestuff: d.dyestuffs, historicalMordant: d.historicalMordants, modernMordant: d.modernMordants, fibre: d.fibres, technique: d.techniques, place: [d.place] }[f];
-  return src.find((v) => norm(v) === key) ?? key;
-}
-
-/**
- * Per index version, built once: every piece's facet values as small integers in one flat array (facet index in
- * the top byte), which pieces are published, and each piece's rank by accession number. Filtering, counting and
- * ranking tens of thousands of hits are then array reads over piece ids, not string work or document objects.
- */
-type FacetTable = {
-  version: number; start: Int32Array; vals: Int32Array; keys: string[][]; labels: string[][]; intern: Array<Map<string, number>>;
-  exists: Uint8Array; published: Uint8Array; accessionRank: Int32Array; all: Int32Array;
-};
-let table: FacetTable | null = null;
-function facetTable(): FacetTable {
-  if (table?.version === searchEngine.version) return table;
-  const { byId } = searchEngine.text;
-  const intern = FACETS.map(() => new Map<string, number>());
-  const keys: string[][] = FACETS.map(() => []);
-  const labels: string[][] = FACETS.map(() => []);
-  const start = new Int32Array(byId.length + 1);
-  const exists = new Uint8Array(byId.length);
-  const published = new Uint8Array(byId.length);
-  const vals: number[] = [];
-  const present: PieceDoc[] = [];
-  for (let id = 0; id < byId.length; id++) {
-    start[id] = vals.length;
-    const d = byId[id];
-    if (!d) continue;
-    present.push(d);
-    exists[id] = 1;
-    published[id] = d.status === 'published' ? 1 : 0;
-    FACETS.forEach((f, fi) => {
-      for (const k of d.keys[f]) {
-        let i = intern[fi].get(k);
-        if (i === undefined) {
-          intern[fi].set(k, (i = keys[fi].length));
-          keys[fi].push(k);
-          labels[fi].push(labelFor(d, f, k));
-        }
-        vals.push((fi << 24) | i);
-      }
-    });
-  }
-  start[byId.length] = vals.length;
-  const accessionRank = new Int32Array(byId.length);
-  present.sort((x, y) => collator.compare(x.accessionNumber, y.accessionNumber) || x.id - y.id).forEach((d, r) => (accessionRank[d.id] = r));
-  const all = Int32Array.from(present.map((d) => d.id).sort((x, y) => x - y));
-  return (table = { version: searchEngine.version, start, vals: Int32Array.from(vals), keys, labels, intern, exists, published, accessionRank, all });
-}
+const facetTable = (): FacetTable => facetTableFor(searchEngine.text, searchEngine.version);
 
 /** The chosen facet values as interned codes: per facet, the codes wanted (-1 for a value no piece has). */
 type Compiled = { facets: Array<{ fi: number; narrowing: boolean; want: number[] }>; mordant: Array<[number, number]> };
@@ -140,51 +80,60 @@ function passes(id: number, c: Compiled, t: FacetTable, skip = -1): boolean {
   return true;
 }
 
-function keep(ids: number[], c: Compiled, t: FacetTable): number[] {
-  const out: number[] = [];
-  for (const id of ids) if (passes(id, c, t)) out.push(id);
-  return out;
-}
+// Id lists reused across requests rather than allocated per query: a search runs synchronously from the
+// text index to the response once the engine has settled, so no two requests share them at once.
+let visibleBuf = new Int32Array(0);
+let matchedBuf = new Int32Array(0);
 
-/** Piece ids passing visibility, text and every filter; with the text hits for ranking and highlights. */
+/** Piece ids passing visibility and text (`textMatched`, for facet counts) and also every filter (`matched`). */
 function candidates(actor: Actor, f: SearchFilters) {
   const t = facetTable();
   const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
   const drafts = can(actor, 'piece:list-drafts');
-  const source: ArrayLike<number> = hits ? hits.ids : t.all;
-  const visible: number[] = [];
+  const source = hits ? hits.ids : t.all;
+  const c = compile(selected(f), t);
+  const filtered = c.facets.length > 0 || c.mordant.length > 0;
+  if (visibleBuf.length < source.length) {
+    visibleBuf = new Int32Array(source.length + 1024);
+    matchedBuf = new Int32Array(source.length + 1024);
+  }
+  const { exists, published } = t;
+  let nv = 0;
+  let nm = 0;
   for (let i = 0; i < source.length; i++) {
     const id = source[i];
-    if (id < t.exists.length && t.exists[id] && (drafts || t.published[id])) visible.push(id);
+    if (id >= exists.length || !exists[id] || !(drafts || published[id])) continue;
+    visibleBuf[nv++] = id;
+    if (filtered && passes(id, c, t)) matchedBuf[nm++] = id;
   }
-  const sel = selected(f);
-  const c = compile(sel, t);
-  const filtered = c.facets.length > 0 || c.mordant.length > 0;
-  return { textMatched: visible, matched: filtered ? keep(visible, c, t) : visible, hits, c, filtered };
+  const textMatched = visibleBuf.subarray(0, nv);
+  return { textMatched, matched: filtered ? matchedBuf.subarray(0, nm) : textMatched, hits, c, filtered };
 }
 
-function facetCounts(ids: number[], c: Compiled, filtered: boolean): FacetCounts {
+function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, drafts: boolean): FacetCounts {
   const t = facetTable();
-  const counts = FACETS.map((_, fi) => new Int32Array(t.keys[fi].length));
   // A widening (OR) facet's own counts ignore its own choice.
   const ownRule = FACETS.map((f, fi) => !NARROWING.has(f) && c.facets.some((x) => x.fi === fi));
-  const anyOwn = ownRule.some(Boolean);
-  const { start, vals } = t;
-  for (const id of ids) {
-    const all = !filtered || passes(id, c, t);
-    if (!all && !anyOwn) continue;
-    for (let k = start[id], end = start[id + 1]; k < end; k++) {
-      const v = vals[k];
-      const fi = v >>> 24;
-      if (ownRule[fi] ? !passes(id, c, t, fi) : !all) continue;
-      counts[fi][v & 0xffffff]++;
+  let counts: Int32Array;
+  // Usually every facet counts the pieces that pass every filter: one pass over their values.
+  if (!ownRule.some(Boolean)) counts = countMatched(matched, t, drafts);
+  else {
+    counts = new Int32Array(t.base[FACETS.length]);
+    const { start, vals, dense } = t;
+    for (const id of textMatched) {
+      const all = passes(id, c, t);
+      for (let k = start[id], end = start[id + 1]; k < end; k++) {
+        const fi = vals[k] >>> 24;
+        if (ownRule[fi] ? !passes(id, c, t, fi) : !all) continue;
+        counts[dense[k]]++;
+      }
     }
   }
   const out = {} as FacetCounts;
   FACETS.forEach((f, fi) => {
     const rows: Array<{ value: string; label: string; count: number }> = [];
     t.keys[fi].forEach((key, i) => {
-      const n = counts[fi][i];
+      const n = counts[t.base[fi] + i];
       if (n) rows.push({ value: f === 'century' ? key : t.labels[fi][i], label: t.labels[fi][i], count: n });
     });
     out[f] = rows.sort((x, y) => (f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label))).slice(0, 100);
@@ -194,7 +143,7 @@ function facetCounts(ids: number[], c: Compiled, filtered: boolean): FacetCounts
 
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
-  const { textMatched, matched, hits, c, filtered } = candidates(actor, input);
+  const { textMatched, matched, hits, c } = candidates(actor, input);
   const rank = facetTable().accessionRank;
   const s = hits?.scores;
   // Rank only as far as the page asked for (bounded heap), not the whole match list.
@@ -221,7 +170,7 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
       viaTrials: hit?.viaTrials.filter(Boolean) ?? [],
     };
   });
-  return { items, facets: facetCounts(textMatched, c, filtered), total: matched.length, page: input.page, pageSize: input.pageSize };
+  return { items, facets: facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts')), total: matched.length, page: input.page, pageSize: input.pageSize };
 }
 
 // Unfiltered shade queries reuse one allow-list per audience until a piece changes.

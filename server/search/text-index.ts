@@ -1,5 +1,6 @@
 import MiniSearch from 'minisearch';
 import type { PieceDoc, TrialDoc } from './docs.ts';
+import { type MsInternals, type Postings, PostingStore } from './postings.ts';
 
 /**
  * Full-text index over pieces and trials (minisearch), plus the documents
@@ -36,6 +37,7 @@ const BOOST: Partial<Record<TextField, number>> = { accessionNumber: 6, trialCod
 
 const EDGE = /^[\p{P}\p{S}]+|[\p{P}\p{S}]+$/gu;
 const PARTS = /[\s\p{P}\p{S}]+/u;
+const INNER = /[\p{P}\p{S}]/u;
 
 /** Whole words (so "1931.4.12" and "iron(II)" match as typed) and their punctuation-free parts. */
 export function tokenize(text: string): string[] {
@@ -44,6 +46,8 @@ export function tokenize(text: string): string[] {
     const whole = raw.replace(EDGE, '');
     if (!whole) continue;
     out.push(whole);
+    // Most words have no inner punctuation: test first rather than split every word (tokenising pages and loads).
+    if (!INNER.test(whole)) continue;
     const parts = whole.split(PARTS).filter(Boolean);
     if (parts.length > 1) out.push(...parts);
   }
@@ -55,35 +59,21 @@ export type TextHit = { score: number; terms: Set<string>; fields: Set<TextField
 
 /** The pieces a text query matched: every score (for ranking and facets), details only when asked (for the page shown). */
 export type TextMatches = {
-  ids: number[];
+  ids: Int32Array;
   /** Scores indexed by piece id; meaningful only for the ids matched. */
   scores: Float64Array;
   score: (pieceId: number) => number | undefined;
   detail: (pieceId: number) => TextHit;
 };
 
-// minisearch's defaults (7.2.0): prefix/fuzzy weights and BM25+ parameters; the scorer below reproduces its formula.
+// minisearch's defaults (7.2.0): prefix/fuzzy weights; postings.ts has its BM25+ parameters and formula.
 const WEIGHT_PREFIX = 0.375;
 const WEIGHT_FUZZY = 0.45;
-const BM25 = { k: 1.2, b: 0.7, d: 0.5 };
 const MAX_FUZZY = 2;
 const prefixOk = (term: string) => term.length >= 2;
 // 1 edit from 4 letters, 20 % of the length from 5 (at most MAX_FUZZY).
 const fuzzyEdits = (term: string) => (term.length >= 5 ? Math.min(MAX_FUZZY, Math.round(term.length * 0.2)) : term.length >= 4 ? 1 : 0);
 
-type Postings = Map<number, Map<number, number>>;
-/** The parts of minisearch's index the scorer reads (pinned minisearch 7.2.0; checked against its own search in tests/unit/text-index.test.ts). */
-type MsInternals = {
-  _index: { get(t: string): Postings | undefined; atPrefix(t: string): Iterable<[string, Postings]>; fuzzyGet(t: string, d: number): Map<string, [Postings, number]> };
-  _fieldIds: Record<string, number>;
-  _avgFieldLength: number[];
-  _fieldLength: Map<number, number[]>;
-  _documentCount: number;
-  _documentIds: Map<number, string>;
-  _storedFields: Map<number, { kind: 'piece' | 'trial'; refId: number; pieceId: number | null }>;
-  _nextId: number;
-  _idToShortId: Map<string, number>;
-};
 type Expansion = { term: string; weight: number; data: Postings };
 
 export class TextIndex {
@@ -92,34 +82,11 @@ export class TextIndex {
   readonly byId: Array<PieceDoc | undefined> = [];
   readonly trials = new Map<number, TrialDoc>();
   private ms = this.fresh();
-  /** Per short document id: field lengths (NF per document), piece id and kind, in typed arrays; rebuilt lazily after a change. */
-  private flat: { fieldLen: Float64Array; piece: Int32Array; trial: Uint8Array } | null = null;
-  /** Flattened postings per index term, valid while `flat` is (both are dropped on every change). */
-  private posted = new Map<string, { docs: Int32Array; contrib: Float64Array }>();
-  private postedSize = 0;
-  private scratch: { score: Float64Array; hitCount: Uint16Array; seen: Uint16Array } | null = null;
-
-  private flatten() {
-    if (this.flat) return this.flat;
-    this.posted.clear();
-    this.postedSize = 0;
-    const ms = this.ms as unknown as MsInternals;
-    const n = ms._nextId;
-    const nf = TEXT_FIELDS.length;
-    const fieldLen = new Float64Array(n * nf);
-    const piece = new Int32Array(n).fill(-1);
-    const trial = new Uint8Array(n);
-    const fids = TEXT_FIELDS.map((f) => ms._fieldIds[f]);
-    for (const [doc, lens] of ms._fieldLength) for (let f = 0; f < nf; f++) fieldLen[doc * nf + f] = lens[fids[f]] ?? 0;
-    for (const [doc, st] of ms._storedFields) {
-      piece[doc] = st.pieceId ?? -1;
-      trial[doc] = st.kind === 'trial' ? 1 : 0;
-    }
-    return (this.flat = { fieldLen, piece, trial });
-  }
+  /** Flat postings and per-document tables for the scorer, kept in step with minisearch by load/setPiece/setTrial. */
+  private store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
+  private scratch: Scratch | null = null;
 
   private fresh() {
-    this.flat = null;
     return new MiniSearch<IndexedDoc>({
       fields: [...TEXT_FIELDS],
       storeFields: ['kind', 'refId', 'pieceId'],
@@ -141,31 +108,43 @@ export class TextIndex {
     }
     for (const t of trials) this.trials.set(t.id, t);
     this.ms.addAll([...pieces.map(pieceEntry), ...trials.map(trialEntry)]);
-    this.flat = null;
+    this.store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
+    this.store.rebuild();
   }
 
   // remove() (not discard()) so the postings never hold stale documents and every score follows minisearch's formula exactly.
   setPiece(id: number, doc: PieceDoc | null) {
-    this.flat = null;
     const prev = this.pieces.get(id);
-    if (prev) this.ms.remove(pieceEntry(prev));
+    if (prev) this.remove(pieceEntry(prev));
     this.pieces.delete(id);
     this.byId[id] = doc ?? undefined;
     if (doc) {
       this.pieces.set(id, doc);
-      this.ms.add(pieceEntry(doc));
+      this.add(pieceEntry(doc));
     }
   }
 
   setTrial(id: number, doc: TrialDoc | null) {
-    this.flat = null;
     const prev = this.trials.get(id);
-    if (prev) this.ms.remove(trialEntry(prev));
+    if (prev) this.remove(trialEntry(prev));
     this.trials.delete(id);
     if (doc) {
       this.trials.set(id, doc);
-      this.ms.add(trialEntry(doc));
+      this.add(trialEntry(doc));
     }
+  }
+
+  private add(e: IndexedDoc) {
+    this.ms.add(e);
+    this.store.noteDoc((this.ms as unknown as MsInternals)._idToShortId.get(e.id)!);
+    this.store.forget(termsOf(e));
+  }
+
+  private remove(e: IndexedDoc) {
+    const doc = (this.ms as unknown as MsInternals)._idToShortId.get(e.id);
+    this.ms.remove(e);
+    if (doc !== undefined) this.store.dropDoc(doc);
+    this.store.forget(termsOf(e));
   }
 
   /** The same query through minisearch's own search(): the oracle the fast scorer is tested against. */
@@ -177,47 +156,6 @@ export class TextIndex {
       boost: BOOST,
       combineWith: 'AND',
     });
-  }
-
-  /**
-   * One index term's postings over every field as flat arrays: document ids and each one's BM25+ contribution
-   * with its field boost (idf, term frequency and field length do not depend on the query; the prefix/fuzzy
-   * weight does, and multiplies in). Built on first use and kept until the index changes, so a common word is
-   * a pass over two typed arrays rather than over nested Maps.
-   */
-  private postings(term: string, data: Postings) {
-    const hit = this.posted.get(term);
-    if (hit) return hit;
-    const ms = this.ms as unknown as MsInternals;
-    const { fieldLen } = this.flatten();
-    const nf = TEXT_FIELDS.length;
-    let size = 0;
-    for (const freqs of data.values()) size += freqs.size;
-    const docs = new Int32Array(size);
-    const contrib = new Float64Array(size);
-    let i = 0;
-    for (let f = 0; f < nf; f++) {
-      const fid = ms._fieldIds[TEXT_FIELDS[f]];
-      const freqs = data.get(fid);
-      if (!freqs) continue;
-      const matching = freqs.size;
-      const idf = Math.log(1 + (ms._documentCount - matching + 0.5) / (matching + 0.5));
-      const k1 = BM25.k * (1 - BM25.b);
-      const k2 = (BM25.k * BM25.b) / ms._avgFieldLength[fid];
-      const base = (BOOST[TEXT_FIELDS[f]] ?? 1) * idf;
-      for (const [doc, tf] of freqs) {
-        docs[i] = doc;
-        contrib[i++] = base * (BM25.d + (tf * (BM25.k + 1)) / (tf + k1 + k2 * fieldLen[doc * nf + f]));
-      }
-    }
-    const out = { docs: docs.subarray(0, i), contrib: contrib.subarray(0, i) };
-    // Bounded: a few million cached postings at most, then start again.
-    if ((this.postedSize += i) > 4_000_000) {
-      this.posted.clear();
-      this.postedSize = i;
-    }
-    this.posted.set(term, out);
-    return out;
   }
 
   /** Each query word's index terms: itself, its prefix extensions and its fuzzy neighbours, weighted as minisearch does. */
@@ -249,73 +187,64 @@ export class TextIndex {
    * when `withTrials`). Scores go into flat arrays indexed by minisearch's
    * short document id, so a word found in most documents costs one pass over
    * its postings, not an object per document; words, fields and trial codes are
-   * worked out only for the pieces a page shows.
+   * worked out only for the pieces a page shows. The result lives in scratch
+   * buffers reused by the next search: use it before searching again.
    */
   search(q: string, withTrials: boolean): TextMatches {
     const ms = this.ms as unknown as MsInternals;
     const words = queryTokens(q).map((t) => t.toLowerCase());
     const perWord = words.map((w) => this.expand(w));
-    const n = ms._nextId;
-    // Per-document scratch reused across queries (zeroed again below over the documents this query touched).
-    if (!this.scratch || this.scratch.score.length < n) this.scratch = { score: new Float64Array(n), hitCount: new Uint16Array(n), seen: new Uint16Array(n) };
-    const { score, hitCount, seen } = this.scratch;
-    let first: number[] = [];
-    const { piece, trial } = this.flatten();
-    let live: number[] = [];
-    perWord.forEach((exps, w) => {
-      const stamp = w + 1;
-      const touched: number[] = [];
-      for (const { term, weight, data } of exps) {
-        const { docs, contrib } = this.postings(term, data);
-        for (let i = 0; i < docs.length; i++) {
-          const doc = docs[i];
-          // AND: after the first word, only documents that matched every earlier word can still match.
-          if (hitCount[doc] !== w) continue;
-          score[doc] += weight * contrib[i];
-          if (seen[doc] !== stamp) {
-            seen[doc] = stamp;
-            touched.push(doc);
-          }
-        }
-      }
-      for (const doc of touched) hitCount[doc] = w + 1;
-      if (!w) first = touched;
-      live = touched;
-    });
+    const { piece, trial } = this.store;
+    const s = this.scratchFor(ms._nextId, this.byId.length);
+    const { score, hitCount, first, live, pieceScore, matched, own } = s;
+    // Stamps mark this query's pieces, so the per-piece arrays need no clearing between queries.
+    const stamp = ++s.stamp;
+    let nFirst = 0;
+    let nLive = 0;
+    for (let w = 0; w < perWord.length; w++) {
+      // The first word's documents are kept apart: every document scored is among them, which is how the scratch is cleared.
+      const into = w === 0 ? first : live;
+      let n = 0;
+      for (const { term, weight, data } of perWord[w]) n = this.store.score(term, data, weight, w, s, into, n);
+      if (w === 0) nFirst = n;
+      nLive = n;
+    }
+    const liveDocs = perWord.length === 1 ? first : live;
     // minisearch multiplies by the number of distinct query words a document matched: all of them, under AND.
     const quality = new Set(words).size;
-    const maxPiece = Math.max(0, this.byId.length - 1);
-    const pieceScore = new Float64Array(maxPiece + 1);
-    const matched = new Uint8Array(maxPiece + 1);
-    const ownMatched = new Uint8Array(maxPiece + 1);
-    const ids: number[] = [];
+    const maxPiece = this.byId.length - 1;
+    let nIds = 0;
     const trialsOf = new Map<number, number[]>();
-    if (words.length)
-      for (const doc of live) {
-        const pid = piece[doc];
-        if (pid < 0 || pid > maxPiece || (trial[doc] && !withTrials)) continue;
-        pieceScore[pid] += score[doc] * quality;
-        if (!matched[pid]) {
-          matched[pid] = 1;
-          ids.push(pid);
-        }
-        if (trial[doc]) trialsOf.set(pid, [...(trialsOf.get(pid) ?? []), doc]);
-        else ownMatched[pid] = 1;
+    for (let i = 0; i < nLive; i++) {
+      const doc = liveDocs[i];
+      const pid = piece[doc];
+      if (pid < 0 || pid > maxPiece || (trial[doc] && !withTrials)) continue;
+      if (matched[pid] !== stamp) {
+        matched[pid] = stamp;
+        pieceScore[pid] = 0;
+        s.ids[nIds++] = pid;
       }
-    // Every document scored was touched by the first word (AND), so this clears the scratch.
-    for (const doc of first) {
-      score[doc] = 0;
-      hitCount[doc] = 0;
-      seen[doc] = 0;
+      pieceScore[pid] += score[doc] * quality;
+      if (!trial[doc]) own[pid] = stamp;
+      else {
+        const list = trialsOf.get(pid);
+        if (list) list.push(doc);
+        else trialsOf.set(pid, [doc]);
+      }
     }
-    const scoreOf = (pid: number) => (pid <= maxPiece && matched[pid] ? pieceScore[pid] : undefined);
+    clearDocs(first, nFirst, score, hitCount);
+    const scoreOf = (pid: number) => (pid >= 0 && pid <= maxPiece && matched[pid] === stamp ? pieceScore[pid] : undefined);
     // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
     const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
+    // A token equal to an expanded term is a substring of its lower-cased field (lower-casing works character by
+    // character, except Greek final sigma: hence the guard), so a field holding none of them needs no tokenising.
+    const termList = [...expanded];
+    const shortcut = !termList.some((t) => t.includes('σ') || t.includes('ς'));
     const detail = (pieceId: number): TextHit => {
       const hit: TextHit = { score: scoreOf(pieceId) ?? 0, terms: new Set(), fields: new Set(), viaTrials: [] };
       const doc = this.pieces.get(pieceId);
       const entries: IndexedDoc[] = [];
-      if (doc && pieceId <= maxPiece && ownMatched[pieceId]) entries.push(pieceEntry(doc));
+      if (doc && pieceId <= maxPiece && own[pieceId] === stamp) entries.push(pieceEntry(doc));
       for (const t of trialsOf.get(pieceId) ?? []) {
         const tr = this.trials.get(ms._storedFields.get(t)!.refId);
         if (!tr) continue;
@@ -326,6 +255,10 @@ export class TextIndex {
         for (const f of TEXT_FIELDS) {
           const text = e[f];
           if (!text) continue;
+          if (shortcut) {
+            const lower = text.toLowerCase();
+            if (!termList.some((t) => lower.includes(t))) continue;
+          }
           for (const tok of tokenize(text)) {
             const term = tok.toLowerCase();
             if (expanded.has(term)) {
@@ -336,11 +269,45 @@ export class TextIndex {
         }
       return hit;
     };
-    return { ids, scores: pieceScore, score: scoreOf, detail };
+    return { ids: s.ids.subarray(0, nIds), scores: pieceScore, score: scoreOf, detail };
+  }
+
+  /** Scratch arrays sized to the documents and pieces, reused across queries (grown, never shrunk). */
+  private scratchFor(docs: number, pieces: number): Scratch {
+    let s = this.scratch;
+    if (!s || s.score.length < docs) {
+      const n = docs + 1024;
+      s = { ...(s ?? emptyPieces(0)), score: new Float64Array(n), hitCount: new Uint16Array(n), first: new Int32Array(n), live: new Int32Array(n) };
+    }
+    if (s.pieceScore.length < pieces) s = { ...s, ...emptyPieces(pieces + 1024) };
+    return (this.scratch = s);
+  }
+}
+
+type Scratch = {
+  score: Float64Array; hitCount: Uint16Array; first: Int32Array; live: Int32Array;
+  pieceScore: Float64Array; matched: Uint32Array; own: Uint32Array; ids: Int32Array; stamp: number;
+};
+const emptyPieces = (n: number) => ({ pieceScore: new Float64Array(n), matched: new Uint32Array(n), own: new Uint32Array(n), ids: new Int32Array(n), stamp: 0 });
+
+function clearDocs(docs: Int32Array, n: number, score: Float64Array, hitCount: Uint16Array) {
+  for (let i = 0; i < n; i++) {
+    score[docs[i]] = 0;
+    hitCount[docs[i]] = 0;
   }
 }
 
 const list = (xs: string[]) => xs.join(' ; ');
+
+/** The index terms of a document, as minisearch derives them (tokenize, then lower case). */
+function termsOf(e: IndexedDoc): Set<string> {
+  const out = new Set<string>();
+  for (const f of TEXT_FIELDS) {
+    const text = e[f];
+    if (text) for (const tok of tokenize(text)) out.add(tok.toLowerCase());
+  }
+  return out;
+}
 
 function pieceEntry(p: PieceDoc): IndexedDoc {
   return {

@@ -1,5 +1,5 @@
 /** The `need` best of `ids` in order, via a bounded max-heap: O(n log need). */
-export function selectTop<T>(ids: T[], need: number, better: (x: T, y: T) => boolean): T[] {
+export function selectTop<T>(ids: Iterable<T>, need: number, better: (x: T, y: T) => boolean): T[] {
   if (need <= 0) return [];
   const heap: T[] = [];
   const worse = (x: T, y: T) => better(y, x);

@@ -49,17 +49,60 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
       expect(got.ids.length, q).toBe(want.length);
       for (const r of want) expect(got.score(r.pieceId as number), `${q} piece ${r.pieceId}`).toBeCloseTo(r.score, 9);
     }
-    expect(idx.search('quercitron', true).ids).toEqual([77]);
+    expect([...idx.search('quercitron', true).ids]).toEqual([77]);
     // The removed pieces match nothing.
     expect(idx.search('T.2', true).score(2)).toBeUndefined();
+  });
+
+  it('follows edits: cached postings and per-document tables stay exact through changed, removed and added pieces and trials', () => {
+    const idx = new TextIndex();
+    const trials = Array.from({ length: 60 }, (_, i) => trial(i + 1, (i % 30) + 1));
+    idx.load(Array.from({ length: 300 }, (_, i) => piece(i + 1)), trials);
+    const queries = ['madder', 'madd', 'maxder', 'indigo weld', 'al', 'chintz iron', 'kasola', 'T.77', 'TR-7', 'quercitron', 'lopa merri', 'resist'];
+    // minisearch answers per document: a piece's own and its trials' scores add up, their words join.
+    const same = (q: string) => {
+      const want = new Map<number, { score: number; terms: Set<string> }>();
+      for (const r of idx.searchWithMinisearch(q)) {
+        const w = want.get(r.pieceId as number) ?? { score: 0, terms: new Set<string>() };
+        w.score += r.score;
+        for (const t of Object.keys(r.match)) w.terms.add(t);
+        want.set(r.pieceId as number, w);
+      }
+      const got = idx.search(q, true);
+      expect(got.ids.length, q).toBe(want.size);
+      for (const [pid, w] of want) {
+        expect(got.score(pid), `${q} piece ${pid}`).toBeCloseTo(w.score, 9);
+        expect([...got.detail(pid).terms].sort(), q).toEqual([...w.terms].sort());
+      }
+      return want.size;
+    };
+    // Queried first, so every common term's postings are cached before the edits.
+    for (const q of queries) same(q);
+    // Changed text (a new word, common words gone), removals, and enough new pieces to outgrow the per-document tables.
+    idx.setPiece(5, { ...piece(5), description: 'quercitron quercitron quercitron', title: 'quercitron' });
+    for (let i = 10; i < 60; i += 3) idx.setPiece(i, null);
+    for (let i = 301; i <= 2400; i++) idx.setPiece(i, piece(i));
+    // A trial moved to another piece, one removed, one added with new words.
+    idx.setTrial(7, { ...trial(7, 200), notes: 'quercitron madder' });
+    idx.setTrial(8, null);
+    idx.setTrial(61, { ...trial(61, 2300), notes: 'quercitron' });
+    let compared = 0;
+    for (const q of queries) compared += same(q);
+    expect(compared).toBeGreaterThan(3000);
+    // Trial 7 now counts for piece 200, not for piece 8 (its old piece); trial 8 counts for nothing.
+    const moved = idx.search('TR-7', true);
+    expect(moved.detail(200).viaTrials).toContain('TR-7');
+    expect(moved.detail(8).viaTrials).not.toContain('TR-7');
+    expect(idx.search('TR-8', true).detail(9).viaTrials).not.toContain('TR-8');
+    expect([...idx.search('quercitron', true).ids].sort((x, y) => x - y)).toEqual([5, 200, 2300]);
   });
 
   it('reports words and fields only for the pieces asked about, and counts trial text for its piece only when allowed', () => {
     const idx = new TextIndex();
     idx.load([piece(1), piece(2)], [{ ...trial(9, 2), notes: 'overdyed with quercitron' }]);
-    expect(idx.search('quercitron', false).ids).toEqual([]);
+    expect([...idx.search('quercitron', false).ids]).toEqual([]);
     const hits = idx.search('quercitro', true);
-    expect(hits.ids).toEqual([2]);
+    expect([...hits.ids]).toEqual([2]);
     const d = hits.detail(2);
     expect(d.viaTrials).toEqual(['TR-9']);
     expect([...d.terms]).toEqual(['quercitron']);
