@@ -228,10 +228,13 @@ export function chromaHueTerms(q: BoundQuery, a0: number, a1: number, b0: number
   out.hi = signs > 0 ? maxTiltedForm(x, xMax, y, yMax, rtMin) : xMax * xMax + yMax * yMax + rt * xMax * yMax;
 }
 
+// Module-level helpers, not closures made per call: the walk calls these thousands of times a query.
+const tilted = (u: number, v: number, R: number) => u * u + v * v - R * u * v;
+const clamp = (t: number, lo: number, hi: number) => (t < lo ? lo : t > hi ? hi : t);
+
 /** Largest u² + v² − R·u·v over the same box: a convex function, so at a corner. */
 function maxTiltedForm(u0: number, u1: number, v0: number, v1: number, R: number): number {
-  const g = (u: number, v: number) => u * u + v * v - R * u * v;
-  return Math.max(g(u0, v0), g(u0, v1), g(u1, v0), g(u1, v1));
+  return Math.max(tilted(u0, v0, R), tilted(u0, v1, R), tilted(u1, v0, R), tilted(u1, v1, R));
 }
 
 /**
@@ -240,11 +243,14 @@ function maxTiltedForm(u0: number, u1: number, v0: number, v1: number, R: number
  */
 function minTiltedForm(u0: number, u1: number, v0: number, v1: number, R: number): number {
   if (u0 === 0 && v0 === 0) return 0;
-  const g = (u: number, v: number) => u * u + v * v - R * u * v;
-  const clamp = (t: number, lo: number, hi: number) => (t < lo ? lo : t > hi ? hi : t);
   return Math.max(
     0,
-    Math.min(g(u0, clamp((R * u0) / 2, v0, v1)), g(u1, clamp((R * u1) / 2, v0, v1)), g(clamp((R * v0) / 2, u0, u1), v0), g(clamp((R * v1) / 2, u0, u1), v1)),
+    Math.min(
+      tilted(u0, clamp((R * u0) / 2, v0, v1), R),
+      tilted(u1, clamp((R * u1) / 2, v0, v1), R),
+      tilted(clamp((R * v0) / 2, u0, u1), v0, R),
+      tilted(clamp((R * v1) / 2, u0, u1), v1, R),
+    ),
   );
 }
 
