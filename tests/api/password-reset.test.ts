@@ -2,7 +2,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { hashPassword } from '../../server/auth/passwords.ts';
+import { RESET_LIMITS } from '../../server/auth/rate-limit.ts';
 import { hashToken } from '../../server/auth/tokens.ts';
+import { mailDir } from '../../server/mail/index.ts';
+import { mailFiles, readMail } from '../../server/mail/outbox.ts';
 import { AuthToken, User, sequelize } from '../../server/models/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { newestMailTo, startTestMail, tokenFrom, waitForMail } from '../support/mail.ts';
@@ -23,7 +26,37 @@ async function member(password = 'the-old-password') {
   return email;
 }
 
+async function mailsTo(to: string) {
+  let n = 0;
+  for (const f of await mailFiles(mailDir())) if ((await readMail(mailDir(), f)).to.includes(to.toLowerCase())) n++;
+  return n;
+}
+
 describe('password reset by e-mail', () => {
+  it('limits requests per address and per IP address, the same for known and unknown addresses', async () => {
+    // A fresh app: its own counters, so the other tests here are not affected.
+    const limited = createApp();
+    const ask = (email: string) => request(limited).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email });
+    const email = await member();
+    for (let i = 0; i < RESET_LIMITS.perEmail; i++) await ask(i % 2 ? email : email.toUpperCase()).expect(202);
+    const refused = await ask(email).expect(429);
+    expect(refused.body.error).toMatchObject({ code: 'too_many_requests', details: { retryAfterSeconds: 3600 } });
+    expect(refused.body.error.message).toMatch(/Wait 60 minutes/);
+    // An unknown address is limited the same way, so the answers still say nothing about which addresses exist.
+    const unknown = `nobody-${Date.now().toString(36)}@reset.test`;
+    for (let i = 0; i < RESET_LIMITS.perEmail; i++) await ask(unknown).expect(202);
+    await ask(unknown).expect(429);
+    // Other addresses get through until the per-IP limit (the refused requests counted too).
+    const used = 2 * (RESET_LIMITS.perEmail + 1);
+    for (let i = used; i < RESET_LIMITS.perIp; i++) await ask(`other-${i}-${Date.now().toString(36)}@reset.test`).expect(202);
+    await ask(`one-more-${Date.now().toString(36)}@reset.test`).expect(429);
+    // The known address got one mail per accepted request, none for the refused one.
+    await waitForMail(email);
+    for (let i = 0; i < 50 && (await mailsTo(email)) < RESET_LIMITS.perEmail; i++) await new Promise((r) => setTimeout(r, 100));
+    await new Promise((r) => setTimeout(r, 300));
+    expect(await mailsTo(email)).toBe(RESET_LIMITS.perEmail);
+  });
+
   it('answers 202 for a known and an unknown address alike, and mails only the known one', async () => {
     const email = await member();
     const known = await request(app).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email }).expect(202);

@@ -3,7 +3,7 @@ import { loginSchema } from '../../../shared/schemas/auth.ts';
 import { resetPasswordSchema, resetRequestSchema, tokenParams } from '../../../shared/schemas/team.ts';
 import { ACTIONS } from '../../../shared/abilities.ts';
 import { passport } from '../../auth/passport.ts';
-import { loginRateLimits } from '../../auth/rate-limit.ts';
+import { loginRateLimits, resetRequestRateLimits } from '../../auth/rate-limit.ts';
 import { abilities, actorOf } from '../../http/auth.ts';
 import { isProduction } from '../../env.ts';
 import type { Actor } from '../../policies/index.ts';
@@ -48,8 +48,8 @@ export function authRouter() {
     res.json({ user: presentUser(req.user as User), abilities: sessionAbilities(actorOf(req)) });
   });
 
-  // 202 whatever the address; the lookup and the mail happen after the answer.
-  router.post('/password-reset', (req, res) => {
+  // 202 whatever the address; the lookup and the mail happen after the answer. Limited, as each may send a mail.
+  router.post('/password-reset', ...resetRequestRateLimits(), (req, res) => {
     const { email } = parseBody(resetRequestSchema, req);
     res.status(202).json({ message: 'If that address belongs to an account, a link to set a new password is on its way.' });
     requestPasswordReset(email).catch((err) => console.error('[mail] password reset not sent:', err));
