@@ -99,7 +99,14 @@ export function TrialsPage() {
                     <td className="px-3 py-2">{t.dyer?.name ?? '—'}</td>
                     <td className="px-3 py-2">{STATUS_WORDS[t.status as keyof typeof STATUS_WORDS]}</td>
                     <td className="px-3 py-2"><Swatch size="sm" label={`${t.code} result`} colour={t.colour?.result ?? null} shadeLink /></td>
-                    <td className="px-3 py-2 text-right font-mono">{fmt(t.colour?.difference?.deltaE00, 2)}</td>
+                    <td className="px-3 py-2 text-right font-mono">
+                      {t.colour?.difference ? (
+                        fmt(t.colour.difference.deltaE00, 2)
+                      ) : (
+                        // Say why there is no figure: nothing measured yet, or no original colour to compare with.
+                        <span className="font-sans text-xs text-ink-faint">{t.colour?.result ? 'no original colour' : 'no result yet'}</span>
+                      )}
+                    </td>
                     <td className="px-3 py-2">{t.colour?.difference ? <VerdictBadge verdict={t.colour.difference.verdict} /> : <span className="text-ink-faint">—</span>}</td>
                   </tr>
                 ))}
