@@ -4,14 +4,15 @@ import { paths } from '../../../paths';
 import type { ListParams, PieceRow } from '../api';
 
 type Sort = (typeof PIECE_SORTS)[number];
-const columns: { key: Sort | null; label: string }[] = [
+// `wide`: shown from the lg breakpoint only, so the table fits a tablet held upright without scrolling sideways.
+const columns: { key: Sort | null; label: string; wide?: boolean }[] = [
   { key: 'accessionNumber', label: 'Accession no.' },
   { key: 'title', label: 'Title' },
   { key: 'objectName', label: 'Object' },
   { key: 'earliestYear', label: 'Date' },
   { key: null, label: 'Fibres' },
   { key: null, label: 'Status' },
-  { key: 'updatedAt', label: 'Last changed' },
+  { key: 'updatedAt', label: 'Last changed', wide: true },
 ];
 
 export const yearsOf = (p: { dateText: string | null; earliestYear: number | null; latestYear: number | null }) =>
@@ -38,7 +39,7 @@ export function ArchiveTable({ rows, params, onSort }: { rows: PieceRow[]; param
               <th
                 key={c.label}
                 scope="col"
-                className="px-3 py-2 font-medium whitespace-nowrap"
+                className={`px-3 py-2 font-medium whitespace-nowrap ${c.wide ? 'hidden lg:table-cell' : ''}`}
                 aria-sort={c.key === sort ? (dir === 'asc' ? 'ascending' : 'descending') : undefined}
               >
                 {c.key ? (
@@ -67,7 +68,7 @@ export function ArchiveTable({ rows, params, onSort }: { rows: PieceRow[]; param
               <td className="px-3 py-2">
                 <StatusBadge status={p.status} deleted={p.deletedAt != null} />
               </td>
-              <td className="px-3 py-2 num whitespace-nowrap">{new Date(p.updatedAt).toLocaleDateString()}</td>
+              <td className="hidden px-3 py-2 num whitespace-nowrap lg:table-cell">{new Date(p.updatedAt).toLocaleDateString()}</td>
             </tr>
           ))}
         </tbody>
