@@ -147,10 +147,11 @@ export class ShadeIndex {
   private pieceState = new Float64Array(2048);
   private pieceBest = new Int32Array(1024);
   private matchedScratch = new Int32Array(0);
-  /** The ΔE00 kernel's argument block (query colour, result) and the current cell's lower bound: typed slots, not
+  /** The ΔE00 kernel's argument block (query colour, result), the current cell's lower bound and kth: typed slots, not
    * arguments, because floating-point arguments to a call that is not inlined are boxed on the heap. */
   private kernel = kernelBlock();
-  private cellLb = new Float64Array(2);
+  private cellLb = new Float64Array(1);
+  private kthSlot = new Float64Array(1);
   private gen = 0;
   /** Per L* slice: lower and upper bounds of the lightness term for the current query. */
   private lightScratch = new Float64Array(2 * NL);
@@ -291,7 +292,7 @@ export class ShadeIndex {
     const heap = new Float64Array(Math.max(1, need));
     let heapN = 0;
     // kth lives in a typed slot (as does the ΔE00 admitted, k[K_OUT]): a captured variable holding a float is boxed on every write.
-    const kthSlot = this.cellLb.subarray(1, 2);
+    const kthSlot = this.kthSlot;
     kthSlot[0] = Infinity;
     const admit = () => {
       const de = k[K_OUT];

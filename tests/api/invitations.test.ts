@@ -1,20 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { hashToken } from '../../server/auth/tokens.ts';
-import { AuthToken, User, sequelize } from '../../server/models/index.ts';
+import { AuthToken, User } from '../../server/models/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
-import { startTestMail, tokenFrom, waitForMail } from '../support/mail.ts';
+import { useTestMail, tokenFrom, waitForMail } from '../support/mail.ts';
 
 const app = createApp();
-let mail: Awaited<ReturnType<typeof startTestMail>>;
-beforeAll(async () => {
-  mail = await startTestMail();
-});
-afterAll(async () => {
-  await mail.close();
-  await sequelize.close();
-});
+useTestMail();
 
 const unique = (what: string) => `${what}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}@invite.test`;
 

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { hashPassword } from '../../server/auth/passwords.ts';
@@ -6,19 +6,12 @@ import { RESET_LIMITS } from '../../server/auth/rate-limit.ts';
 import { hashToken } from '../../server/auth/tokens.ts';
 import { mailDir } from '../../server/mail/index.ts';
 import { mailFiles, readMail } from '../../server/mail/outbox.ts';
-import { AuthToken, User, sequelize } from '../../server/models/index.ts';
+import { AuthToken, User } from '../../server/models/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
-import { newestMailTo, startTestMail, tokenFrom, waitForMail } from '../support/mail.ts';
+import { newestMailTo, useTestMail, tokenFrom, waitForMail } from '../support/mail.ts';
 
 const app = createApp();
-let mail: Awaited<ReturnType<typeof startTestMail>>;
-beforeAll(async () => {
-  mail = await startTestMail();
-});
-afterAll(async () => {
-  await mail.close();
-  await sequelize.close();
-});
+useTestMail();
 
 async function member(password = 'the-old-password') {
   const email = `reset-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}@reset.test`;

@@ -1,21 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
-import { sequelize } from '../../server/models/index.ts';
 import type { Role } from '../../shared/roles.ts';
 import { ORIGIN } from '../support/agents.ts';
-import { startTestMail } from '../support/mail.ts';
+import { useTestMail } from '../support/mail.ts';
 import { WHO, routeMatrix, type ActorKey, type Expected, type MatrixRow, type Ownership, type Who } from '../support/route-matrix.ts';
 
 const app = createApp();
-let mail: Awaited<ReturnType<typeof startTestMail>>;
-beforeAll(async () => {
-  mail = await startTestMail();
-});
-afterAll(async () => {
-  await mail.close();
-  await sequelize.close();
-});
+useTestMail();
 
 type Layer = { route?: { path: string; methods: Record<string, boolean> }; handle?: { stack?: Layer[] }; rawPath?: string | string[] };
 

@@ -1,25 +1,20 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
-import { ColourMeasurement, Photo, sequelize, User } from '../../server/models/index.ts';
+import { ColourMeasurement, Photo, User } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
-import { startTestMail } from '../support/mail.ts';
+import { useTestMail } from '../support/mail.ts';
 
 const app = createApp();
-let mail: Awaited<ReturnType<typeof startTestMail>>;
 let dyer: Awaited<ReturnType<typeof signedInAgent>>;
 let curator: Awaited<ReturnType<typeof signedInAgent>>;
+useTestMail();
 beforeAll(async () => {
-  mail = await startTestMail();
   dyer = await signedInAgent(app, 'dyer');
   curator = await signedInAgent(app, 'curator');
-});
-afterAll(async () => {
-  await mail.close();
-  await sequelize.close();
 });
 
 /** A flat swatch of one colour, as a dyed sample photographed square on. */

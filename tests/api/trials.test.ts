@@ -1,14 +1,13 @@
 import { readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
-import { Chemical, ColourMeasurement, Dyestuff, sequelize, Trial, User } from '../../server/models/index.ts';
+import { Chemical, ColourMeasurement, Dyestuff, Trial, User } from '../../server/models/index.ts';
 import { makePiece, makeUser } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
-import { startTestMail, waitForMail } from '../support/mail.ts';
+import { useTestMail, waitForMail } from '../support/mail.ts';
 
 const app = createApp();
-let mail: Awaited<ReturnType<typeof startTestMail>>;
 let curator: User;
 let dyer: Awaited<ReturnType<typeof signedInAgent>>;
 let otherDyer: Awaited<ReturnType<typeof signedInAgent>>;
@@ -20,8 +19,8 @@ type Compound = { name: string; formula: string; molar_mass_g_per_mol: number; m
 const compounds = JSON.parse(readFileSync(new URL('../reference/mordant-compounds.json', import.meta.url), 'utf8')) as Compound[];
 const compound = (formula: string) => compounds.find((c) => c.formula === formula)!;
 
+useTestMail();
 beforeAll(async () => {
-  mail = await startTestMail();
   curator = (await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true }))!;
   dyer = await signedInAgent(app, 'dyer');
   const other = await makeUser({ role: 'dyer', password: 'another-dyer-password', email: `dyer-${Date.now().toString(36)}@trials.test` });
@@ -30,10 +29,6 @@ beforeAll(async () => {
     chem[name] = (await Chemical.findOne({ where: { name }, rejectOnEmpty: true }))!;
   }
   madder = (await Dyestuff.findOne({ where: { name: 'madder' }, rejectOnEmpty: true }))!;
-});
-afterAll(async () => {
-  await mail.close();
-  await sequelize.close();
 });
 
 const newPiece = () => makePiece({ createdById: curator.id, title: `Trials test piece ${Date.now().toString(36)}` });

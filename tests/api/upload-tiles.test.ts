@@ -1,27 +1,22 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
-import { Job, Photo, sequelize, User } from '../../server/models/index.ts';
+import { Job, Photo, User } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
-import { startTestMail } from '../support/mail.ts';
+import { useTestMail } from '../support/mail.ts';
 
 const app = createApp();
 let curator: Awaited<ReturnType<typeof signedInAgent>>;
 let dyer: Awaited<ReturnType<typeof signedInAgent>>;
-let mail: Awaited<ReturnType<typeof startTestMail>>;
+useTestMail();
 beforeAll(async () => {
-  mail = await startTestMail();
   curator = await signedInAgent(app, 'curator');
   dyer = await signedInAgent(app, 'dyer');
 });
 // Seeds of their own: identical bytes would share one master with another suite's photo.
 const seed = () => 100_000 + Math.floor(Math.random() * 1e6);
-afterAll(async () => {
-  await mail.close();
-  await sequelize.close();
-});
 
 describe('an upload queues the deep-zoom tiles of each new photo', () => {
   it('queues one tile-photo job per piece photo, visible through the jobs API', async () => {

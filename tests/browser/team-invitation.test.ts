@@ -1,31 +1,17 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signInAs } from '../support/browser.ts';
-import { startTestMail, tokenFrom, waitForMail } from '../support/mail.ts';
-import { startServer } from '../support/server.ts';
-import { sequelize } from '../../server/models/index.ts';
+import { describe, expect, it } from 'vitest';
+import { signInAs } from '../support/browser.ts';
+import { useBrowserSuite } from '../support/browser-suite.ts';
+import { tokenFrom, waitForMail } from '../support/mail.ts';
 
-let server: Awaited<ReturnType<typeof startServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let mail: Awaited<ReturnType<typeof startTestMail>>;
-beforeAll(async () => {
-  mail = await startTestMail();
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await mail?.close();
-  await sequelize.close();
-});
+const suite = useBrowserSuite({ mail: true });
 
 // Generous timeouts: Chromium shares two cores with everything else; nothing here asserts on time.
 describe('the team and invitations in Chromium', () => {
   it('an admin invites from the team page; the invitee joins through the mailed link and is signed in', async () => {
     const email = `browser-${Date.now().toString(36)}@invite.test`;
-    const admin = await browser.context.newPage();
-    await signInAs(admin, server.url, 'admin@demo.test');
-    await admin.goto(`${server.url}/team`);
+    const admin = await suite.browser.context.newPage();
+    await signInAs(admin, suite.server.url, 'admin@demo.test');
+    await admin.goto(`${suite.server.url}/team`);
     await admin.getByRole('heading', { name: 'Team' }).waitFor();
     await admin.getByLabel('E-mail').fill(email);
     await admin.getByLabel('Role', { exact: true }).selectOption('dyer');
@@ -36,8 +22,8 @@ describe('the team and invitations in Chromium', () => {
 
     // The link in the mail names the public origin; follow its path on the test server.
     const token = tokenFrom(await waitForMail(email), 'join');
-    const page = await browser.context.newPage();
-    await page.goto(`${server.url}/join/${token}`);
+    const page = await suite.browser.context.newPage();
+    await page.goto(`${suite.server.url}/join/${token}`);
     await page.getByText(email).waitFor();
     await page.getByLabel('Password').fill('short');
     await page.getByRole('button', { name: 'Join Tinctoria' }).click();
@@ -48,19 +34,19 @@ describe('the team and invitations in Chromium', () => {
     await expect(page.getByTestId('signed-in-as').textContent()).resolves.toContain('Corin Ashgrove');
 
     // A dyer may not open the team page: the 403 page, not the table.
-    await page.goto(`${server.url}/team`);
+    await page.goto(`${suite.server.url}/team`);
     await page.getByRole('heading', { name: 'Not allowed' }).waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('link', { name: 'Sign in' }).waitFor();
 
     // The link works once.
-    await page.goto(`${server.url}/join/${token}`);
+    await page.goto(`${suite.server.url}/join/${token}`);
     await page.getByRole('heading', { name: 'This invitation can no longer be used' }).waitFor();
   }, 120_000);
 
   it('sends a visitor who opens the team page to sign-in, and back after signing in', async () => {
-    const page = await browser.context.newPage();
-    await page.goto(`${server.url}/team`);
+    const page = await suite.browser.context.newPage();
+    await page.goto(`${suite.server.url}/team`);
     await page.waitForURL(/\/sign-in\?next=%2Fteam$/);
     await page.getByLabel('E-mail').fill('admin@demo.test');
     await page.getByLabel('Password').fill('tinctoria-demo');

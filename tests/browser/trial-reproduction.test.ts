@@ -1,24 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signInAs } from '../support/browser.ts';
-import { startServer } from '../support/server.ts';
-import { startTestMail } from '../support/mail.ts';
-import { ColourMeasurement, sequelize, Trial, User } from '../../server/models/index.ts';
+import { describe, expect, it } from 'vitest';
+import { signInAs } from '../support/browser.ts';
+import { useBrowserSuite } from '../support/browser-suite.ts';
+import { ColourMeasurement, Trial, User } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 
-let server: Awaited<ReturnType<typeof startServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let mail: Awaited<ReturnType<typeof startTestMail>>;
-beforeAll(async () => {
-  mail = await startTestMail();
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await mail?.close();
-  await sequelize.close();
-});
+const suite = useBrowserSuite({ mail: true });
 
 describe('the demo dyer records a reproduction in Chromium', () => {
   it('attaches a trial with a lead-to-aluminium substitution to a piece and sees ΔE00, the verdict and the lead avoided', async () => {
@@ -26,9 +12,9 @@ describe('the demo dyer records a reproduction in Chromium', () => {
     const piece = await makePiece({ createdById: curator.id, title: `Madder red ground, browser ${Date.now().toString(36)}`, status: 'published' });
     await ColourMeasurement.create({ pieceId: piece.id, regionId: null, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', L: 45, a: 48, b: 28, label: 'red ground', takenOn: null, createdById: null });
 
-    const page = await browser.context.newPage();
-    await signInAs(page, server.url, 'dyer@demo.test');
-    await page.goto(`${server.url}/archive/${piece.id}`);
+    const page = await suite.browser.context.newPage();
+    await signInAs(page, suite.server.url, 'dyer@demo.test');
+    await page.goto(`${suite.server.url}/archive/${piece.id}`);
     await page.getByRole('link', { name: 'Attach a trial' }).click();
     await page.waitForURL(/\/trials\/new\?pieceId=/);
     await page.getByLabel('Dry fibre mass').fill('250');

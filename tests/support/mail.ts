@@ -1,4 +1,6 @@
+import { afterAll, beforeAll } from 'vitest';
 import { mailDir, startLocalMail } from '../../server/mail/index.ts';
+import { sequelize } from '../../server/models/index.ts';
 import { mailFiles, readMail, type CaughtMail } from '../../server/mail/outbox.ts';
 
 /** Start the local SMTP catcher and route the app's mail to it; close it in afterAll. */
@@ -6,6 +8,21 @@ export async function startTestMail() {
   const catcher = await startLocalMail();
   if (!catcher) throw new Error('SMTP_URL is set: the tests need the local mail catcher');
   return catcher;
+}
+
+/**
+ * The usual hooks of a suite that sends mail: the catcher starts before the suite's own beforeAll hooks (call this
+ * first) and closes, with the database connection, after its own afterAll hooks.
+ */
+export function useTestMail() {
+  let catcher: Awaited<ReturnType<typeof startTestMail>> | undefined;
+  beforeAll(async () => {
+    catcher = await startTestMail();
+  });
+  afterAll(async () => {
+    await catcher?.close();
+    await sequelize.close();
+  });
 }
 
 /** The newest caught message addressed to `to`, or null. */
