@@ -48,7 +48,11 @@ describe('POST /api/colour/difference', () => {
 
   it('explains the difference in words and gives the verdict from the default bands (common practice)', async () => {
     const res = await difference({ L: 45, a: 48, b: 28 }, { L: 52, a: 40, b: 28 }).expect(200);
-    expect(res.body.words).toEqual(expect.arrayContaining(['lighter', 'duller', 'greener']));
+    // h_ab 30.3° → 35.0°: a red whose hue angle grows turns yellower (CIE 15 components, sample minus standard).
+    expect(res.body.words).toEqual(['lighter', 'duller', 'yellower']);
+    expect(res.body.dL).toBeCloseTo(7, 9);
+    expect(res.body.dH).toBeGreaterThan(0);
+    expect(res.body.dL ** 2 + res.body.dC ** 2 + res.body.dH ** 2).toBeCloseTo(res.body.deltaEab ** 2, 9);
     expect(res.body.verdict).toBe('different');
     expect(res.body.bands).toEqual({ match: 1, close: 2, near: 4 });
     expect(res.body.bandsSource).toMatch(/common practice/);

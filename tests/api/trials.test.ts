@@ -203,7 +203,8 @@ describe('measurements and the colour difference to the target', () => {
     // Sharma, Wu & Dalal (2005) Table 1 pair 1: ΔE00 = 2.0425.
     expect(colour.difference.deltaE00).toBeCloseTo(2.0425, 4);
     expect(colour.difference.verdict).toBe('near');
-    expect(colour.difference.words).toEqual(expect.arrayContaining(['bluer']));
+    // h_ab 271.9° → 270.0°: a blue whose hue angle shrinks moves towards green; its chroma grows by 2.9.
+    expect(colour.difference.words).toEqual(['brighter', 'greener']);
   });
 
   it('refuses a target from another piece', async () => {

@@ -87,11 +87,13 @@ describe('difference report and verdicts', () => {
   it('puts the direction of a difference into words', () => {
     const original = { L: 45, a: 40, b: 20 };
     const r = differenceReport(original, { L: 48, a: 44, b: 17 });
-    expect(r.words).toEqual(['lighter', 'brighter', 'redder', 'bluer']);
+    // h_ab 26.6° → 21.1°: a red whose hue angle shrinks turns bluer (see colour-words.test.ts).
+    expect(r.words).toEqual(['lighter', 'brighter', 'bluer']);
     expect(r.deltaE00).toBeCloseTo(deltaE00(original, { L: 48, a: 44, b: 17 }), 12);
     expect(r.cmc21).toBeCloseTo(deltaECMC(original, { L: 48, a: 44, b: 17 }, 2, 1), 12);
     expect(r.cmc11).toBeGreaterThan(r.cmc21);
-    expect(differenceReport(original, { L: 43, a: 30, b: 25 }).words).toEqual(['darker', 'duller', 'greener', 'yellower']);
+    // h_ab 26.6° → 39.8°: yellower; ΔL* −2 is 3 % of ΔE*ab² (11.4²), too small beside the rest to name.
+    expect(differenceReport(original, { L: 43, a: 30, b: 25 }).words).toEqual(['duller', 'yellower']);
     expect(differenceReport(original, original)).toMatchObject({ deltaE00: 0, words: [], verdict: 'match' });
   });
 });
