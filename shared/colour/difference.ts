@@ -1,5 +1,6 @@
 import Color from 'colorjs.io';
 import { labToLch, type Lab } from './convert.ts';
+import { hueFamily, type HueFamily } from './hues.ts';
 
 // colorjs.io's difference formulas read their input as 'lab' coordinates. Passing
 // our stored D65 values straight in as those coordinates applies the formulas to
@@ -40,26 +41,24 @@ export function labComponents(standard: Lab, sample: Lab) {
 export type HueWord = 'redder' | 'yellower' | 'greener' | 'bluer';
 
 /**
- * Which way a hue moves, in dyers' words, by the standard's hue family and the sign of the
- * hue-angle change. The families follow the plain-words hue names (shadeName); on the a*b*
- * plane hue angles run red → yellow → green → blue → purple → red, so a growing angle takes a
- * red towards yellow, a yellow towards green, a green towards blue, a blue or purple towards
- * red, and a shrinking one the other way. Common practice of colour-difference reports.
+ * Which way a hue moves, in dyers' words, by the standard's hue family (shared with the shade
+ * names, ./hues.ts) and the sign of the hue-angle change. On the a*b* plane hue angles run
+ * red → yellow → green → blue → purple → red, so a growing angle takes a red or an orange towards
+ * yellow, a yellow towards green, a green towards blue, a blue or a purple towards red, and a
+ * shrinking one the other way. Common practice of colour-difference reports.
  */
-const HUE_MOVES: Array<[upTo: number, up: HueWord, down: HueWord]> = [
-  [45, 'yellower', 'bluer'], // red
-  [70, 'yellower', 'redder'], // orange
-  [105, 'greener', 'redder'], // yellow
-  [200, 'bluer', 'yellower'], // green
-  [290, 'redder', 'greener'], // blue
-  [350, 'redder', 'bluer'], // purple
-  [361, 'yellower', 'bluer'], // red again
-];
+const HUE_MOVES: Record<HueFamily, [up: HueWord, down: HueWord]> = {
+  red: ['yellower', 'bluer'],
+  orange: ['yellower', 'redder'],
+  yellow: ['greener', 'redder'],
+  green: ['bluer', 'yellower'],
+  blue: ['redder', 'greener'],
+  purple: ['redder', 'bluer'],
+};
 
 export function hueWord(standardHue: number, dh: number): HueWord | null {
   if (dh === 0) return null;
-  const h = ((standardHue % 360) + 360) % 360;
-  const [, up, down] = HUE_MOVES.find(([upTo]) => h < upTo)!;
+  const [up, down] = HUE_MOVES[hueFamily(standardHue)];
   return dh > 0 ? up : down;
 }
 

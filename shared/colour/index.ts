@@ -3,4 +3,5 @@
 export * from './convert.ts';
 export * from './difference.ts';
 export * from './names.ts';
+export * from './hues.ts';
 export * from './adapt.ts';

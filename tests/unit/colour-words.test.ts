@@ -10,12 +10,16 @@ import { deltaE76, differenceReport, labComponents, type Lab } from '../../share
 
 const lch = converter('lch65');
 const fromLch = (L: number, C: number, h: number): Lab => ({ L, a: C * Math.cos((h * Math.PI) / 180), b: C * Math.sin((h * Math.PI) / 180) });
-const asCulori = (x: Lab) => lch({ mode: 'lab65', l: x.L, a: x.a, b: x.b });
+const asCulori = (x: Lab) => {
+  const c = lch({ mode: 'lab65', l: x.L, a: x.a, b: x.b });
+  return { c: c.c, h: c.h ?? 0 };
+};
 const hueOf = (x: Lab) => new Color('lab', [x.L, x.a, x.b]).to('lch').coords[2] as number;
 
 // Standard hues around the circle, with the words a ±4° rotation must give. The hue families are
-// the plain-words ones (red below 45° and from 350°, orange to 70°, yellow to 105°, green to 200°,
-// blue to 290°, purple to 350°); the words follow the hue circle red → yellow → green → blue → purple → red.
+// the plain-words ones of shared/colour/hues.ts (red below 45° and from 352°, orange to 75°, yellow to
+// 115°, green to 200°, blue to 310°, purple to 352°); the words follow the hue circle
+// red → yellow → green → blue → purple → red.
 const HUES: Array<[name: string, L: number, C: number, h: number, up: string, down: string]> = [
   ['madder red', 44, 55, 28, 'yellower', 'bluer'],
   ['red near 0°', 45, 40, 2, 'yellower', 'bluer'],
@@ -27,6 +31,7 @@ const HUES: Array<[name: string, L: number, C: number, h: number, up: string, do
   ['teal', 50, 25, 195, 'bluer', 'yellower'],
   ['indigo blue', 30, 30, 274, 'redder', 'greener'],
   ['light blue', 65, 25, 240, 'redder', 'greener'],
+  ['navy', 13, 80, 306, 'redder', 'greener'],
   ['madder purple', 34, 18, 333, 'redder', 'bluer'],
   ['lilac', 66, 20, 317, 'redder', 'bluer'],
 ];

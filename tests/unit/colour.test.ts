@@ -101,7 +101,8 @@ describe('difference report and verdicts', () => {
 describe('shade names', () => {
   it('names hue, lightness and chroma in plain words', () => {
     expect(shadeName(srgbToLab({ r: 158, g: 42, b: 43 }))).toBe('dark vivid red');
-    expect(shadeName({ L: 75, a: 20, b: 5 })).toBe('pale red');
+    expect(shadeName({ L: 75, a: 20, b: 5 })).toBe('pink');
+    expect(shadeName({ L: 45, a: 40, b: 25 })).toBe('red');
     expect(shadeName({ L: 35, a: 2, b: -30 })).toBe('dark blue');
     expect(shadeName({ L: 55, a: -10, b: 12 })).toBe('greyish green');
     expect(shadeName({ L: 85, a: 0, b: 70 })).toBe('pale vivid yellow');
