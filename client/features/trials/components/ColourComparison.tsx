@@ -7,10 +7,7 @@ import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
 import { VerdictBadge } from './VerdictBadge';
 
 type Colour = NonNullable<TrialSummaryView['colour']>;
-type Resolved = NonNullable<Colour['target']>;
 type Difference = NonNullable<Colour['difference']>;
-
-const readingsWords = (c: Resolved) => (c.readings && c.readings > 1 ? `mean of ${c.readings} readings under the same conditions` : null);
 
 /** ΔE00, CMC and the signed CIELAB components (CIE 15), sample minus original. */
 function Figures({ d }: { d: Difference }) {
@@ -44,7 +41,7 @@ export function ColourComparison({ colour, large = false }: { colour: Colour; la
         <>
           <p className="font-mono text-ink-soft">{labText(c)}</p>
           <p><ViewingConditions colour={c} /></p>
-          <p className="text-ink-soft">{c.label}{readingsWords(c) ? ` (${readingsWords(c)})` : ''}</p>
+          <p className="text-ink-soft">{c.label}</p>
           {c.setAside ? <p className="text-ink-faint">An image estimate of the same place ({conditionsText(c.setAside)}) was set aside: a measured colour outranks it.</p> : null}
           <ShadeSearchLink hex={labToHex(c)} className="text-action hover:underline" />
         </>
@@ -81,7 +78,7 @@ export function ColourComparison({ colour, large = false }: { colour: Colour; la
               <p className="mt-2 text-xs text-ink-faint">CIEDE2000 (1:1:1); ΔL*, ΔC*ab, ΔH*ab (CIE 15) are the reproduction minus the original, which is the standard for CMC. Verdict bands: {colour.bandsSource}.</p>
             </>
           ) : colour.missing ? (
-            <p role="status" className="text-ink-soft" data-testid="missing-reading">No ΔE is given. {colour.missing.message}</p>
+            <p role="status" className="text-ink-soft" data-testid="missing-reading">No ΔE is given under {colour.missing.illuminant}. {colour.missing.message}</p>
           ) : (
             <p className="text-ink-soft">{!colour.target ? 'Choose a target colour of the original to compare with.' : 'Record a measurement or a swatch photo of the result to compare.'}</p>
           )}

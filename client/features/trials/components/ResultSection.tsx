@@ -69,7 +69,8 @@ export function ResultSection({ trial }: { trial: TrialView }) {
       <h3 className="font-semibold">Instrument readings</h3>
       <p className="text-xs text-ink-soft">Readings are averaged only with others under the same illuminant and observer; the comparison uses those under the original's illuminant.</p>
       {trial.measurements.length ? (
-        <table className="w-full max-w-3xl rounded-lg border border-rule bg-sheet text-sm">
+        <div className="max-w-3xl overflow-x-auto">
+        <table className="w-full rounded-lg border border-rule bg-sheet text-sm">
           <thead className="bg-paper text-left text-ink-soft"><tr><th className="px-3 py-1.5 text-right">L*</th><th className="px-3 py-1.5 text-right">a*</th><th className="px-3 py-1.5 text-right">b*</th><th className="px-3 py-1.5">Illuminant/observer</th><th className="px-3 py-1.5">Geometry</th><th /></tr></thead>
           <tbody>
             {trial.measurements.map((m) => (
@@ -81,6 +82,7 @@ export function ResultSection({ trial }: { trial: TrialView }) {
             ))}
           </tbody>
         </table>
+        </div>
       ) : <p className="text-ink-soft">No readings yet.</p>}
       {canEdit ? (
         <div className="grid gap-6 lg:grid-cols-2">

@@ -9,6 +9,7 @@ import { fmt, STATUS_WORDS } from '../format';
 import { DownloadLink } from '../../export/components/DownloadLink';
 import { exportUrls } from '../../export/urls';
 import { Swatch } from './Swatch';
+import { viewingLabel } from '../../../../shared/colour/conditions';
 import { VerdictBadge } from './VerdictBadge';
 
 const select = 'mt-1 block rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm';
@@ -98,7 +99,7 @@ export function TrialsPage() {
                     <td className="px-3 py-2">{t.piece ? <Link className="underline" to={paths.piece(t.piece.id)}><span className="font-mono">{t.piece.accessionNumber}</span></Link> : <span className="text-ink-faint">—</span>}</td>
                     <td className="px-3 py-2">{t.dyer?.name ?? '—'}</td>
                     <td className="px-3 py-2">{STATUS_WORDS[t.status as keyof typeof STATUS_WORDS]}</td>
-                    <td className="px-3 py-2"><Swatch size="sm" label={`${t.code} result`} colour={t.colour?.result ?? null} shadeLink /></td>
+                    <td className="px-3 py-2"><Swatch size="sm" label={`${t.code} result${t.colour?.result ? `, ${viewingLabel(t.colour.result)}` : ''}`} colour={t.colour?.result ?? null} shadeLink /></td>
                     <td className="px-3 py-2 text-right font-mono">
                       {t.colour?.difference ? (
                         <>
