@@ -51,7 +51,7 @@ export function AppShell() {
       </main>
       <footer className="border-t border-rule text-xs text-ink-faint">
         <div className="mx-auto max-w-7xl px-4 md:px-6 py-3">
-          Tinctoria — archive and reproduction notebook for dyed and printed textiles. Colour values are CIELAB (D65); image palettes are estimates, instrument readings outrank them.
+          Tinctoria — archive and reproduction notebook for dyed and printed textiles. Colour values are CIELAB, each labelled with its illuminant and observer; image palettes are estimates (D65/2°), instrument readings outrank them.
         </div>
       </footer>
     </div>

@@ -1,11 +1,39 @@
 import type { Writable } from 'node:stream';
 import { stringify } from 'csv-stringify';
 import { Chemical, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
+import { trialColour, type ResolvedColour } from '../services/trials/colour.ts';
 
+// Colour columns: each colour with the illuminant and observer it is under, and the figures of
+// the one comparison the trial page shows (target and result under the same illuminant).
+const COLOUR_COLUMNS = [
+  'targetSource', 'targetIlluminant', 'targetObserver', 'targetL', 'targetA', 'targetB',
+  'resultSource', 'resultIlluminant', 'resultObserver', 'resultReadings', 'resultL', 'resultA', 'resultB',
+  'deltaE00', 'cmc21', 'cmc11', 'deltaEab', 'dL', 'dC', 'dH', 'verdict', 'colourNote',
+] as const;
 const COLUMNS = [
   'code', 'pieceAccessionNumber', 'series', 'status', 'kind', 'dyer', 'fibre', 'weave', 'gsm', 'dryMassG',
-  'startedOn', 'recipe', 'substitutions', 'fastness', 'notes',
+  'startedOn', 'recipe', 'substitutions', 'fastness', ...COLOUR_COLUMNS, 'notes',
 ] as const;
+
+const n = (x: number | null | undefined, decimals: number) => (x == null ? '' : x.toFixed(decimals));
+const colourCells = (prefix: 'target' | 'result', c: ResolvedColour | null) => ({
+  [`${prefix}Source`]: c?.source ?? '',
+  [`${prefix}Illuminant`]: c?.illuminant ?? '',
+  [`${prefix}Observer`]: c ? `${c.observer}°` : '',
+  [`${prefix}L`]: n(c?.L, 2), [`${prefix}A`]: n(c?.a, 2), [`${prefix}B`]: n(c?.b, 2),
+});
+
+async function colourRow(t: Trial) {
+  const { target, result, difference: d, note, missing } = await trialColour(t);
+  return {
+    ...colourCells('target', target),
+    ...colourCells('result', result),
+    resultReadings: result?.readings ?? '',
+    deltaE00: n(d?.deltaE00, 2), cmc21: n(d?.cmc21, 2), cmc11: n(d?.cmc11, 2), deltaEab: n(d?.deltaEab, 2),
+    dL: n(d?.dL, 2), dC: n(d?.dC, 2), dH: n(d?.dH, 2), verdict: d?.verdict ?? '',
+    colourNote: note ?? missing?.message ?? '',
+  };
+}
 
 type Loaded = Trial & {
   piece?: Piece | null;
@@ -69,6 +97,7 @@ export async function writeTrialsCsv(out: Writable) {
       recipe: (t.steps ?? []).map(stepText).join(' | '),
       substitutions: (t.substitutions ?? []).map(substitutionText).join(' | '),
       fastness: t.fastness ? JSON.stringify(t.fastness) : '',
+      ...(await colourRow(t)),
       notes: t.notes ?? '',
     });
   }

@@ -1,4 +1,5 @@
 import type { CardData } from './card-data.ts';
+import { signed } from '../../shared/colour/conditions.ts';
 import { finish, newDoc, qrPng } from './doc.ts';
 
 const CARD_W = 523;
@@ -21,18 +22,25 @@ export async function cardsPdf(title: string, cards: CardData[]) {
       doc.rect(x + 12, y + 150, 130, 30).fill('#bdbdb9');
       doc.rect(x + 20, y + 155, 114, 20).fill(c.target.hex);
     }
-    doc.fillColor('#222').font('sans').fontSize(7);
-    doc.text(c.colour ? `${c.colour.source === 'measured' ? 'measured' : 'image estimate'}  L* ${c.colour.L.toFixed(1)}  a* ${c.colour.a.toFixed(1)}  b* ${c.colour.b.toFixed(1)}` : '', x + 12, y + 186, { width: 140 });
-    doc.text(c.target ? 'target (lower strip)' : 'no target colour', x + 12, y + 198, { width: 140 });
+    // Every figure printed with the illuminant and observer it is under.
+    const labLine = (v: { L: number; a: number; b: number }) => `L* ${v.L.toFixed(1)}  a* ${v.a.toFixed(1)}  b* ${v.b.toFixed(1)}`;
+    doc.fillColor('#222').font('sans').fontSize(6.5);
+    doc.text(c.colour ? `swatch: ${c.colour.conditions}${c.colour.readings && c.colour.readings > 1 ? ` (mean of ${c.colour.readings})` : ''}\n${labLine(c.colour)}` : '', x + 12, y + 184, { width: 140 });
+    doc.text(c.target ? `target (lower strip): ${c.target.conditions}\n${labLine(c.target)}` : 'no target colour', x + 12, y + 207, { width: 140 });
 
     const tx = x + 156;
     doc.font('sans-bold').fontSize(14).fillColor('#111').text(c.code, tx, y + 14, { width: 260 });
     doc.font('sans').fontSize(8.5).fillColor('#333');
     const cell = c.cell ? Object.entries(c.cell).map(([k, v]) => `${k}: ${v}`).join(' · ') : null;
     doc.text([`${c.fibre ?? 'fibre not set'}, ${c.dryMassG} g dry`, cell, `status: ${c.status}`].filter(Boolean).join('\n'), tx, y + 36, { width: 260 });
-    doc.moveDown(0.4).fontSize(7.5).text(c.steps.length ? c.steps.join('\n') : 'No recipe steps yet.', { width: 260, height: 120, ellipsis: true });
-    doc.font('sans-bold').fontSize(10).fillColor('#111').text(c.deltaE00 != null ? `ΔE00 to target: ${c.deltaE00.toFixed(2)} (${c.verdict})` : 'ΔE00 to target: —', tx, y + CARD_H - 34, { width: 260 });
-    if (c.words.length) doc.font('sans').fontSize(8).fillColor('#333').text(`than the target: ${c.words.join(', ')}`, tx, y + CARD_H - 20, { width: 260 });
+    doc.moveDown(0.4).fontSize(7.5).text(c.steps.length ? c.steps.join('\n') : 'No recipe steps yet.', { width: 260, height: 96, ellipsis: true });
+    doc.font('sans-bold').fontSize(10).fillColor('#111').text(c.deltaE00 != null ? `ΔE00 to target: ${c.deltaE00.toFixed(2)} (${c.verdict})` : 'ΔE00 to target: —', tx, y + CARD_H - 58, { width: 260 });
+    doc.font('sans').fontSize(7.5).fillColor('#333');
+    if (c.dL != null && c.dC != null && c.dH != null && c.cmc21 != null) {
+      doc.text(`ΔL* ${signed(c.dL)}   ΔC*ab ${signed(c.dC)}   ΔH*ab ${signed(c.dH)}   CMC(2:1) ${c.cmc21.toFixed(2)}`, tx, y + CARD_H - 44, { width: 260 });
+    }
+    const lines = [c.words.length ? `than the target: ${c.words.join(', ')}` : null, c.note].filter(Boolean).join('\n');
+    if (lines) doc.text(lines, tx, y + CARD_H - 33, { width: 260, height: 30, ellipsis: true });
 
     doc.image(await qrPng(c.url), x + CARD_W - 102, y + 12, { width: 90, height: 90 });
     doc.font('sans').fontSize(6.5).fillColor(GREY).text(c.url, x + CARD_W - 106, y + 106, { width: 98, align: 'center' });

@@ -165,7 +165,7 @@ export async function seedDemo(t: Transaction) {
   }
 
   // Invented instrument readings: the original's red, pink and purple grounds as targets, and each result's swatch.
-  const reading = (attrs: { pieceId?: number; trialId?: number; L: number; a: number; b: number; label: string }) =>
+  const reading = (attrs: { pieceId?: number; trialId?: number; L: number; a: number; b: number; label: string; illuminant?: string }) =>
     ColourMeasurement.create({ pieceId: null, regionId: null, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', takenOn: '2024-04-02', createdById: users.researcher.id, ...attrs }, { transaction: t });
   const grounds = [
     { label: 'madder red ground', L: 42.5, a: 45.1, b: 26.3, result: [{ L: 43.9, a: 42.8, b: 27.5 }, { L: 44.2, a: 42.4, b: 27.9 }] },
@@ -177,6 +177,10 @@ export async function seedDemo(t: Transaction) {
     await trials[i].update({ targetMeasurementId: target.id }, { transaction: t });
     for (const r of g.result) await reading({ trialId: trials[i].id, ...r, label: `${trials[i].code} swatch` });
   }
+  // The red ground and T-2024-001's swatch read again under tungsten light (A/10°): compared under A
+  // beside the primary D65 comparison, never averaged with the D65 readings.
+  await reading({ pieceId: p12.id, L: 44.6, a: 48.3, b: 33.4, label: 'madder red ground', illuminant: 'A' });
+  await reading({ trialId: trials[0].id, L: 46.2, a: 44.9, b: 35.8, label: `${trials[0].code} swatch`, illuminant: 'A' });
 
   // Events on the batches, in order; MB-07 topped up twice, then exhausted.
   await ev(mb07.id, 'use', '2024-03-12', { volumeMl: 160, fibreMassG: 250, trialId: t1.id });

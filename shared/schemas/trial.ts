@@ -37,7 +37,9 @@ export const labSchema = z.object({
 });
 export type LabInput = z.infer<typeof labSchema>;
 
-export const colourDifferenceSchema = z.object({ reference: labSchema, sample: labSchema });
+/** A colour to compare, optionally with the conditions it was measured under (unstated: the caller vouches they match). */
+export const conditionedLabSchema = labSchema.extend({ illuminant: z.enum(ILLUMINANTS).optional(), observer: z.enum(OBSERVERS).optional() });
+export const colourDifferenceSchema = z.object({ reference: conditionedLabSchema, sample: conditionedLabSchema });
 
 export { fastnessSchema };
 

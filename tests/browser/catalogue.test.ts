@@ -62,7 +62,8 @@ describe('cataloguing a piece in Chromium', () => {
     await colours.first().waitFor();
     expect(await colours.count()).toBeGreaterThan(1);
     await expect(colours.first().textContent()).resolves.toMatch(/#[0-9a-f]{6}.*L\*.*a\*.*b\*.*share/s);
-    await page.getByText('source: image estimate').first().waitFor();
+    // The palette carries the shared viewing-conditions label: photo estimates are D65/2° (was "source: image estimate").
+    await page.getByText('image estimate · D65/2°').first().waitFor();
 
     await page.getByRole('button', { name: 'Publish' }).click();
     await page.getByRole('button', { name: 'Unpublish' }).waitFor();

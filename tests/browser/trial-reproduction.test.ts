@@ -20,7 +20,8 @@ describe('the demo dyer records a reproduction in Chromium', () => {
     await page.getByLabel('Dry fibre mass').fill('250');
     const target = page.getByLabel('Target colour of the original');
     await target.locator('option', { hasText: 'red ground' }).waitFor({ state: 'attached' });
-    await target.selectOption({ label: 'Instrument measurement: red ground (L* 45.0 a* 48.0 b* 28.0)' });
+    // Each target reading now names its illuminant and observer (the model's default D65/10°).
+    await target.selectOption({ label: 'Instrument measurement: red ground, D65/10° (L* 45.0 a* 48.0 b* 28.0)' });
     await page.getByRole('button', { name: 'Create trial' }).click();
     await page.waitForURL(/\/trials\/\d+$/);
     const trialId = Number(new URL(page.url()).pathname.split('/').pop());
@@ -49,7 +50,10 @@ describe('the demo dyer records a reproduction in Chromium', () => {
     expect(await delta.textContent()).toMatch(/ΔE00 \d+\.\d\d/);
     // The verdict from the default bands (common practice) is shown beside it.
     await page.getByText(/^(Match|Close|Near|Different)$/).first().waitFor();
-    await page.getByText(/instrument measurement: red ground/).first().waitFor();
+    // The colours are labelled with their source and viewing conditions (was "instrument measurement: red ground").
+    await page.getByText('red ground', { exact: true }).first().waitFor();
+    await page.getByTestId('viewing-conditions').getByText('instrument reading · D65/10°').first().waitFor();
+    expect(await page.getByTestId('comparison-conditions').textContent()).toBe('Under D65; original 10°, reproduction 10° observer');
     await page.close();
   });
 });

@@ -1,21 +1,63 @@
 import { Op } from 'sequelize';
 import { differenceReport } from '../../../shared/colour/index.ts';
+import { conditionsText, IMAGE_ESTIMATE_CONDITIONS, type ColourSource, type Illuminant, type Observer, type ViewingConditions } from '../../../shared/colour/conditions.ts';
+import { ILLUMINANTS } from '../../../shared/schemas/trial.ts';
 import { ColourMeasurement, PaletteColour, Photo, Region, type Trial } from '../../models/index.ts';
 import { verdictBands } from '../settings.ts';
 
-export type ColourSource = 'instrument' | 'image-estimate';
-export type ResolvedColour = {
-  L: number; a: number; b: number;
+export type { ColourSource };
+type Lab = { L: number; a: number; b: number };
+type Estimate = Lab & ViewingConditions & { source: 'image-estimate' };
+
+/** A colour with the conditions it was measured or estimated under. */
+export type ResolvedColour = Lab & ViewingConditions & {
   source: ColourSource;
   /** What the colour is, in words, e.g. "region 'ground red', measured". */
   label: string;
+  /** How many instrument readings under these conditions were averaged (null for an image estimate). */
+  readings: number | null;
   /** When an instrument reading replaced an image estimate of the same place, the estimate that was set aside. */
-  setAside: { L: number; a: number; b: number; source: 'image-estimate' } | null;
+  setAside: Estimate | null;
 };
 
-const lab = (x: { L: number; a: number; b: number }) => ({ L: x.L, a: x.a, b: x.b });
+export type Difference = ReturnType<typeof differenceReport>;
+/** One comparison: a target and a result under the same illuminant. */
+export type Comparison = {
+  illuminant: Illuminant;
+  target: ResolvedColour;
+  result: ResolvedColour;
+  difference: Difference;
+  observersDiffer: boolean;
+  note: string | null;
+  primary: boolean;
+};
+export type Missing = ViewingConditions & { message: string };
 
-const latestReading = (where: Record<string, unknown>) => ColourMeasurement.findOne({ where: { ...where, trialId: { [Op.is]: null } }, order: [['takenOn', 'DESC'], ['id', 'DESC']] });
+const lab = (x: Lab) => ({ L: x.L, a: x.a, b: x.b });
+const conditionsOf = (m: ColourMeasurement): ViewingConditions => ({ illuminant: m.illuminant as Illuminant, observer: m.observer as Observer });
+const key = (c: ViewingConditions) => `${c.illuminant}/${c.observer}`;
+const estimateOf = (pc: PaletteColour): Estimate => ({ ...lab(pc), ...IMAGE_ESTIMATE_CONDITIONS, source: 'image-estimate' });
+const byConditions = (x: ViewingConditions, y: ViewingConditions) => ILLUMINANTS.indexOf(x.illuminant) - ILLUMINANTS.indexOf(y.illuminant) || Number(y.observer) - Number(x.observer);
+
+const reading = (m: ColourMeasurement, label: string, setAside: Estimate | null = null): ResolvedColour => ({
+  ...lab(m), ...conditionsOf(m), source: 'instrument', label: m.label ?? label, readings: 1, setAside,
+});
+const estimated = (pc: PaletteColour, label: string): ResolvedColour => ({ ...estimateOf(pc), label, readings: null, setAside: null });
+
+/** Readings of one place of the original, newest first (an undated reading counts as oldest). */
+const readingsOf = (where: Record<string, unknown>) =>
+  ColourMeasurement.findAll({ where: { ...where, trialId: { [Op.is]: null } }, order: [['takenOn', 'DESC'], ['id', 'DESC']] });
+
+/** The newest reading under each set of conditions, leaving out the one already chosen. */
+function newestPerConditions(rows: ColourMeasurement[], chosen: ColourMeasurement | null) {
+  const seen = new Set(chosen ? [key(conditionsOf(chosen))] : []);
+  return rows.filter((m) => {
+    const k = key(conditionsOf(m));
+    if (seen.has(k)) return false;
+    seen.add(k);
+    return true;
+  });
+}
 
 /** The estimate of a region (or of a whole photo): the leading non-background colour, corrected variant first. */
 async function estimate(where: Record<string, unknown>) {
@@ -23,49 +65,148 @@ async function estimate(where: Record<string, unknown>) {
   return rows.find((r) => r.variant === 'corrected') ?? rows[0] ?? null;
 }
 
-/** The original's colour a trial aims at; an instrument reading of the same place outranks an image estimate. */
-export async function resolveTarget(trial: Trial): Promise<ResolvedColour | null> {
+/**
+ * The original's colours a trial aims at, the chosen target first: an instrument reading of the
+ * same place outranks an image estimate. The rest are the same place under other conditions
+ * (the newest reading under each, then the image estimate), for comparisons under other illuminants.
+ */
+export async function targetCandidates(trial: Trial): Promise<ResolvedColour[]> {
   if (trial.targetMeasurementId != null) {
     const m = await ColourMeasurement.findByPk(trial.targetMeasurementId);
-    return m ? { ...lab(m), source: 'instrument', label: m.label ?? 'instrument measurement of the original', setAside: null } : null;
+    if (!m) return [];
+    // The same place: the same region, or on the piece itself a reading with the same label.
+    const place = m.regionId != null ? { regionId: m.regionId } : m.pieceId != null && m.label != null ? { pieceId: m.pieceId, regionId: { [Op.is]: null }, label: m.label } : null;
+    const others = place ? newestPerConditions(await readingsOf(place), m) : [];
+    const pc = m.regionId != null ? await estimate({ regionId: m.regionId }) : null;
+    return [
+      reading(m, 'instrument measurement of the original'),
+      ...others.map((o) => reading(o, 'instrument measurement of the original')),
+      ...(pc ? [estimated(pc, `palette of the measured region (${pc.name})`)] : []),
+    ];
   }
   if (trial.targetRegionId != null) {
-    const [m, pc] = await Promise.all([latestReading({ regionId: trial.targetRegionId }), estimate({ regionId: trial.targetRegionId })]);
-    if (m) return { ...lab(m), source: 'instrument', label: m.label ?? 'instrument measurement of the target region', setAside: pc ? { ...lab(pc), source: 'image-estimate' } : null };
-    return pc ? { ...lab(pc), source: 'image-estimate', label: `palette of the target region (${pc.name})`, setAside: null } : null;
+    const [rows, pc] = await Promise.all([readingsOf({ regionId: trial.targetRegionId }), estimate({ regionId: trial.targetRegionId })]);
+    const est = pc ? estimated(pc, `palette of the target region (${pc.name})`) : null;
+    if (!rows.length) return est ? [est] : [];
+    const label = 'instrument measurement of the target region';
+    return [reading(rows[0], label, pc ? estimateOf(pc) : null), ...newestPerConditions(rows, rows[0]).map((o) => reading(o, label)), ...(est ? [est] : [])];
   }
   if (trial.targetPaletteColourId != null) {
     const pc = await PaletteColour.findByPk(trial.targetPaletteColourId);
-    if (!pc) return null;
-    const m = pc.regionId != null ? await latestReading({ regionId: pc.regionId }) : null;
-    if (m) return { ...lab(m), source: 'instrument', label: m.label ?? 'instrument measurement of the region this palette colour comes from', setAside: { ...lab(pc), source: 'image-estimate' } };
-    return { ...lab(pc), source: 'image-estimate', label: `palette colour ${pc.name}${pc.tradeName ? ` (${pc.tradeName})` : ''}`, setAside: null };
+    if (!pc) return [];
+    const est = estimated(pc, `palette colour ${pc.name}${pc.tradeName ? ` (${pc.tradeName})` : ''}`);
+    const rows = pc.regionId != null ? await readingsOf({ regionId: pc.regionId }) : [];
+    if (!rows.length) return [est];
+    const label = 'instrument measurement of the region this palette colour comes from';
+    return [reading(rows[0], label, estimateOf(pc)), ...newestPerConditions(rows, rows[0]).map((o) => reading(o, label)), est];
   }
-  return null;
+  return [];
 }
 
-/** The trial's own colour: the mean of its instrument readings, else the estimate from its swatch photo. */
-export async function resolveResult(trial: Trial): Promise<ResolvedColour | null> {
-  const readings = await ColourMeasurement.findAll({ where: { trialId: trial.id } });
-  const photos = await Photo.findAll({ where: { trialId: trial.id }, attributes: ['id'], order: [['id', 'DESC']] });
+/** The chosen target: the first candidate. */
+export async function resolveTarget(trial: Trial): Promise<ResolvedColour | null> {
+  return (await targetCandidates(trial))[0] as ResolvedColour | undefined ?? null;
+}
+
+/**
+ * The trial's own colours: its instrument readings grouped by illuminant and observer, each
+ * group averaged on its own (readings under different conditions are never averaged together),
+ * then the estimate from its latest swatch photo (D65/2°).
+ */
+export async function resultCandidates(trial: Trial): Promise<ResolvedColour[]> {
+  const [rows, photos] = await Promise.all([
+    ColourMeasurement.findAll({ where: { trialId: trial.id }, order: [['id', 'ASC']] }),
+    Photo.findAll({ where: { trialId: trial.id }, attributes: ['id'], order: [['id', 'DESC']] }),
+  ]);
   const pc = photos.length ? await estimate({ photoId: photos[0].id, regionId: { [Op.is]: null } }) : null;
-  if (readings.length) {
-    const mean = (k: 'L' | 'a' | 'b') => readings.reduce((s, r) => s + r[k], 0) / readings.length;
+  const groups = new Map<string, ColourMeasurement[]>();
+  for (const r of rows) groups.set(key(conditionsOf(r)), [...(groups.get(key(conditionsOf(r))) ?? []), r]);
+  const measured = [...groups.values()].map((g): ResolvedColour => {
+    const mean = (k: 'L' | 'a' | 'b') => g.reduce((s, r) => s + r[k], 0) / g.length;
     return {
-      L: mean('L'), a: mean('a'), b: mean('b'), source: 'instrument',
-      label: readings.length === 1 ? 'instrument reading of the swatch' : `mean of ${readings.length} instrument readings of the swatch`,
-      setAside: pc ? { ...lab(pc), source: 'image-estimate' } : null,
+      L: mean('L'), a: mean('a'), b: mean('b'), ...conditionsOf(g[0]), source: 'instrument', readings: g.length,
+      label: g.length === 1 ? 'instrument reading of the swatch' : `mean of ${g.length} instrument readings of the swatch`,
+      setAside: pc ? estimateOf(pc) : null,
     };
-  }
-  return pc ? { ...lab(pc), source: 'image-estimate', label: `swatch photo palette (${pc.name})`, setAside: null } : null;
+  });
+  measured.sort(byConditions);
+  return [...measured, ...(pc ? [estimated(pc, `swatch photo palette (${pc.name})`)] : [])];
 }
 
-/** Target, result and their difference with the verdict from the bands in force. */
-export async function trialColour(trial: Trial) {
-  const [target, result, { bands, source }] = await Promise.all([resolveTarget(trial), resolveResult(trial), verdictBands()]);
-  if (!target || !result) return { target, result, difference: null, bandsSource: source };
-  return { target, result, difference: differenceReport(lab(target), lab(result), bands), bandsSource: source };
+/**
+ * The result to compare with a target: only one under the target's illuminant. An instrument
+ * reading outranks an image estimate, and the target's observer is preferred.
+ */
+export function matchResult(target: ViewingConditions, results: ResolvedColour[]) {
+  const rank = (r: ResolvedColour) => (r.source === 'instrument' ? 0 : 2) + (r.observer === target.observer ? 0 : 1);
+  return results.filter((r) => r.illuminant === target.illuminant).sort((x, y) => rank(x) - rank(y))[0] ?? null;
 }
+
+/** The result chosen for the trial's comparison. */
+export async function resolveResult(trial: Trial): Promise<ResolvedColour | null> {
+  const [target, results] = await Promise.all([resolveTarget(trial), resultCandidates(trial)]);
+  return target ? matchResult(target, results) : (results[0] as ResolvedColour | undefined) ?? null;
+}
+
+const sideWords = (c: ResolvedColour) => (c.source === 'instrument' ? 'reading' : 'image estimate');
+
+/** Said beside the figures when the two colours were computed for different observers. */
+export function observerNote(target: ResolvedColour, result: ResolvedColour) {
+  if (target.observer === result.observer) return null;
+  return `Observers differ: the original's ${sideWords(target)} is for the ${target.observer}° observer and the reproduction's ${sideWords(result)} for the ${result.observer}° observer (both under ${target.illuminant}). The figures are given, but part of the difference may come from the observer rather than the dyeing.`;
+}
+
+/** Which reading would make the comparison possible, in the words a dyer would act on. */
+export function missingReading(target: ResolvedColour, results: ResolvedColour[]): Missing {
+  const want = conditionsText(target);
+  const elsewhere = results.filter((r) => r.source === 'instrument').map((r) => conditionsText(r));
+  const why = elsewhere.length ? ` Its readings under ${elsewhere.join(', ')} are not compared with a colour under ${target.illuminant}.` : '';
+  const message =
+    target.source === 'instrument'
+      ? `No reading of the swatch under ${want}: measure it under ${target.illuminant} to compare with the original's reading.${why}`
+      : `No reading of the swatch under ${target.illuminant} and no swatch photo: measure it under ${target.illuminant} or add a swatch photo to compare with the original's image estimate (${want}).${why}`;
+  return { illuminant: target.illuminant, observer: target.observer, message };
+}
+
+/**
+ * Target, result and their difference with the verdict from the bands in force. The primary
+ * comparison is under the chosen target's illuminant; `comparisons` also gives one under every
+ * other illuminant both sides were read under (useful for judging metamerism).
+ */
+export async function trialColour(trial: Trial) {
+  const [targets, results, { bands, source }] = await Promise.all([targetCandidates(trial), resultCandidates(trial), verdictBands()]);
+  const target = (targets[0] as ResolvedColour | undefined) ?? null;
+  const compare = (t: ResolvedColour, primary: boolean): Comparison | null => {
+    const r = matchResult(t, results);
+    if (!r) return null;
+    return { illuminant: t.illuminant, target: t, result: r, difference: differenceReport(lab(t), lab(r), bands), observersDiffer: t.observer !== r.observer, note: observerNote(t, r), primary };
+  };
+  const primary = target ? compare(target, true) : null;
+  const comparisons: Comparison[] = primary ? [primary] : [];
+  const illuminants = new Set([target?.illuminant]);
+  for (const t of targets.slice(1)) {
+    if (illuminants.has(t.illuminant)) continue;
+    const c = compare(t, false);
+    if (c) {
+      illuminants.add(t.illuminant);
+      comparisons.push(c);
+    }
+  }
+  return {
+    target,
+    result: primary?.result ?? (target ? null : (results[0] as ResolvedColour | undefined) ?? null),
+    difference: primary?.difference ?? null,
+    conditions: primary ? { illuminant: primary.illuminant, targetObserver: primary.target.observer, resultObserver: primary.result.observer, observersDiffer: primary.observersDiffer } : null,
+    note: primary?.note ?? null,
+    missing: target && !primary ? missingReading(target, results) : null,
+    /** Every colour of the trial: each group of readings under one set of conditions, then the swatch-photo estimate. */
+    results,
+    comparisons,
+    bandsSource: source,
+  };
+}
+
+export type TrialColour = Awaited<ReturnType<typeof trialColour>>;
 
 /** Instrument readings of a piece's original: on the piece itself or on a region of one of its photos. */
 export async function pieceMeasurements(pieceId: number) {

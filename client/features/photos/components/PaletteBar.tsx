@@ -1,3 +1,4 @@
+import { IMAGE_ESTIMATE, ViewingConditions } from '../../../components/ViewingConditions';
 import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
 import type { Palettes } from '../api';
 
@@ -15,7 +16,7 @@ export function PaletteBar({ title, colours, onToggleBackground }: { title: stri
     <figure className="rounded-lg bg-neutral-ground p-3" aria-label={title}>
       <figcaption className="mb-2 flex flex-wrap justify-between gap-2 text-sm text-white">
         <span className="font-medium">{title}</span>
-        <span className="text-xs opacity-90">source: image estimate · CIELAB D65</span>
+        <span className="rounded bg-sheet/90 px-1.5 py-0.5 text-xs text-ink-soft">CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} /></span>
       </figcaption>
       <div className="flex h-10 w-full overflow-hidden rounded" role="img" aria-label={counted.map((c) => `${c.name} ${pct(c.share)}`).join(', ')}>
         {counted.map((c) => (

@@ -1,4 +1,5 @@
 import type { ShadeItem } from '../../../../shared/schemas/search';
+import { IMAGE_ESTIMATE, ViewingConditions } from '../../../components/ViewingConditions';
 
 type Props = { items: ShadeItem[]; query: { L: number; a: number; b: number; hex: string } };
 
@@ -57,7 +58,7 @@ export function AbPlot({ items, query }: Props) {
           <path d={`M 30 ${ly(query.L)} l 8 -4 v 8 z`} fill="#1d1f21" />
         </g>
       </svg>
-      <figcaption className="mt-1 text-xs text-ink-faint">Ring and arrow: the chosen shade. Dot size: the colour's share of its photo.</figcaption>
+      <figcaption className="mt-1 text-xs text-ink-faint">Ring and arrow: the chosen shade. Dot size: the colour's share of its photo. CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} className="text-ink-faint" />.</figcaption>
     </figure>
   );
 }

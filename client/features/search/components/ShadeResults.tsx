@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { ShadeItem } from '../../../../shared/schemas/search';
 import { paths } from '../../../paths';
+import { IMAGE_ESTIMATE, ViewingConditions } from '../../../components/ViewingConditions';
 
 const thumb = (photoId: number) => `/media/photos/${photoId}/thumb`;
 const pct = (share: number) => `${(share * 100).toFixed(0)} %`;
@@ -18,6 +19,8 @@ export function ShadeResults({ items }: { items: ShadeItem[] }) {
           </button>
         ))}
       </div>
+      {/* Every match is a photo palette colour, so all the figures share one set of conditions. */}
+      <p className="mb-2 text-xs text-ink-soft">Colours of the matches: CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} /></p>
       {view === 'table' ? (
         <table className="w-full text-sm" aria-label="Shade matches">
           <thead className="text-left text-ink-soft border-b border-rule">

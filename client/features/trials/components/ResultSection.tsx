@@ -4,6 +4,7 @@ import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { ApiError } from '../../../lib/http';
 import { useAddMeasurement, useDeleteMeasurement, useImportMeasurements, useUploadSwatch, type TrialView } from '../api';
+import { conditionsText } from '../../../../shared/colour/conditions';
 import { fmt } from '../format';
 import { ColourComparison } from './ColourComparison';
 
@@ -66,19 +67,22 @@ export function ResultSection({ trial }: { trial: TrialView }) {
       <h2 id="result-h" className="text-xl font-semibold">Result and colour difference</h2>
       {trial.colour ? <ColourComparison colour={trial.colour} /> : null}
       <h3 className="font-semibold">Instrument readings</h3>
+      <p className="text-xs text-ink-soft">Readings are averaged only with others under the same illuminant and observer; the comparison uses those under the original's illuminant.</p>
       {trial.measurements.length ? (
-        <table className="w-full max-w-3xl rounded-lg border border-rule bg-sheet text-sm">
+        <div className="max-w-3xl overflow-x-auto">
+        <table className="w-full rounded-lg border border-rule bg-sheet text-sm">
           <thead className="bg-paper text-left text-ink-soft"><tr><th className="px-3 py-1.5 text-right">L*</th><th className="px-3 py-1.5 text-right">a*</th><th className="px-3 py-1.5 text-right">b*</th><th className="px-3 py-1.5">Illuminant/observer</th><th className="px-3 py-1.5">Geometry</th><th /></tr></thead>
           <tbody>
             {trial.measurements.map((m) => (
               <tr key={m.id} className="border-t border-rule">
                 <td className="px-3 py-1.5 text-right font-mono">{fmt(m.L, 2)}</td><td className="px-3 py-1.5 text-right font-mono">{fmt(m.a, 2)}</td><td className="px-3 py-1.5 text-right font-mono">{fmt(m.b, 2)}</td>
-                <td className="px-3 py-1.5">{m.illuminant}/{m.observer}°</td><td className="px-3 py-1.5">{m.geometry ?? '—'} {m.specular ?? ''}</td>
+                <td className="px-3 py-1.5">{conditionsText(m)}</td><td className="px-3 py-1.5">{m.geometry ?? '—'} {m.specular ?? ''}</td>
                 <td className="px-3 py-1.5">{canEdit ? <button className="text-xs text-danger underline" onClick={() => remove.mutate(m.id)}>Remove</button> : null}</td>
               </tr>
             ))}
           </tbody>
         </table>
+        </div>
       ) : <p className="text-ink-soft">No readings yet.</p>}
       {canEdit ? (
         <div className="grid gap-6 lg:grid-cols-2">

@@ -9,6 +9,7 @@ import { fmt, STATUS_WORDS } from '../format';
 import { DownloadLink } from '../../export/components/DownloadLink';
 import { exportUrls } from '../../export/urls';
 import { Swatch } from './Swatch';
+import { viewingLabel } from '../../../../shared/colour/conditions';
 import { VerdictBadge } from './VerdictBadge';
 
 const select = 'mt-1 block rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm';
@@ -98,13 +99,18 @@ export function TrialsPage() {
                     <td className="px-3 py-2">{t.piece ? <Link className="underline" to={paths.piece(t.piece.id)}><span className="font-mono">{t.piece.accessionNumber}</span></Link> : <span className="text-ink-faint">—</span>}</td>
                     <td className="px-3 py-2">{t.dyer?.name ?? '—'}</td>
                     <td className="px-3 py-2">{STATUS_WORDS[t.status as keyof typeof STATUS_WORDS]}</td>
-                    <td className="px-3 py-2"><Swatch size="sm" label={`${t.code} result`} colour={t.colour?.result ?? null} shadeLink /></td>
+                    <td className="px-3 py-2"><Swatch size="sm" label={`${t.code} result${t.colour?.result ? `, ${viewingLabel(t.colour.result)}` : ''}`} colour={t.colour?.result ?? null} shadeLink /></td>
                     <td className="px-3 py-2 text-right font-mono">
                       {t.colour?.difference ? (
-                        fmt(t.colour.difference.deltaE00, 2)
+                        <>
+                          {fmt(t.colour.difference.deltaE00, 2)}
+                          {t.colour.conditions ? <span className="block font-sans text-xs text-ink-faint">{t.colour.conditions.illuminant}{t.colour.conditions.observersDiffer ? ', observers differ' : ''}</span> : null}
+                        </>
                       ) : (
-                        // Say why there is no figure: nothing measured yet, or no original colour to compare with.
-                        <span className="font-sans text-xs text-ink-faint">{t.colour?.result ? 'no original colour' : 'no result yet'}</span>
+                        // Say why there is no figure: nothing measured yet, no original colour, or no reading under the original's illuminant.
+                        <span className="font-sans text-xs text-ink-faint" title={t.colour?.missing?.message}>
+                          {t.colour?.missing && t.colour.results.length ? `no reading under ${t.colour.missing.illuminant}` : t.colour?.result ? 'no original colour' : 'no result yet'}
+                        </span>
                       )}
                     </td>
                     <td className="px-3 py-2">{t.colour?.difference ? <VerdictBadge verdict={t.colour.difference.verdict} /> : <span className="text-ink-faint">—</span>}</td>
