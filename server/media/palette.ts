@@ -1,8 +1,12 @@
 import { deltaE00, labToHex, shadeName, tradeShade, type Lab } from '../../shared/colour/index.ts';
 import { decode, linearToLab } from './fast-lab.ts';
 
-/** Interleaved 8-bit sRGB pixels (3 channels), as sharp's .raw() gives them. */
-export type RawImage = { data: Uint8Array; width: number; height: number };
+/**
+ * Interleaved sRGB pixels (3 channels) on 0–255: 8-bit as sharp's .raw() gives them, or
+ * fractional and unclipped (below 0 or above 255 for colours outside sRGB) from a photo read
+ * through its ICC profile.
+ */
+export type RawImage = { data: Uint8Array | Float32Array; width: number; height: number };
 export type Rect = { x: number; y: number; w: number; h: number };
 
 export type PaletteOptions = {
@@ -34,9 +38,14 @@ export type ExtractedColour = {
 
 const INITIAL_K = 16;
 const ITERATIONS = 12;
-const BITS = 6; // histogram bins per channel: 2^6 (steps of 4 code values)
-const SHIFT = 8 - BITS;
-const BINS = 1 << (3 * BITS);
+// Histogram bins per channel: 64 steps of 4 code values over 0–255, and beyond them 8 coarser
+// bins (16 code values each) on either side for colours outside sRGB.
+const EXTRA = 8;
+const PER_CHANNEL = 64 + 2 * EXTRA;
+const BINS = PER_CHANNEL ** 3;
+const U8_BIN = Int32Array.from({ length: 256 }, (_, v) => EXTRA + (v >> 2));
+const binOfValue = (v: number) =>
+  v < 0 ? EXTRA - 1 - Math.min(EXTRA - 1, (-v / 16) | 0) : v < 256 ? EXTRA + (v >> 2) : EXTRA + 64 + Math.min(EXTRA - 1, ((v - 256) / 16) | 0);
 const BORDER_FRACTION = 0.03; // width of the border band, of the shorter side
 const BG_BORDER_SHARE = 0.3; // a background colour covers at least this much of the band
 const BG_MAX_CHROMA = 10; // …and is near-neutral (C*ab)
@@ -58,7 +67,7 @@ type Hist = { n: number; w: Float64Array; lab: Float64Array; rgb: Float64Array; 
 // Scratch tables reused between calls (extraction is synchronous, so never shared):
 // only the bins a call touched are cleared again, much cheaper than allocating.
 const count = new Uint32Array(BINS);
-const sums = new Uint32Array(BINS * 3);
+const sums = new Float64Array(BINS * 3);
 const binOf = new Int32Array(BINS);
 let pixelScratch = new Int32Array(0);
 
@@ -74,10 +83,13 @@ function histogram(img: RawImage, mask: Uint8Array | null): Hist {
   const pixelBin = pixelScratch;
   const occupied: number[] = [];
   let total = 0;
+  const u8 = data instanceof Uint8Array;
   for (let p = 0, i = 0; p < pixels; p++, i += 3) {
     if (mask !== null && mask[p] === 1) { pixelBin[p] = -1; continue; }
     const r = data[i], g = data[i + 1], b = data[i + 2];
-    const bin = ((r >> SHIFT) << (2 * BITS)) | ((g >> SHIFT) << BITS) | (b >> SHIFT);
+    const bin = u8
+      ? (U8_BIN[r] * PER_CHANNEL + U8_BIN[g]) * PER_CHANNEL + U8_BIN[b]
+      : (binOfValue(r) * PER_CHANNEL + binOfValue(g)) * PER_CHANNEL + binOfValue(b);
     if (count[bin]++ === 0) occupied.push(bin);
     const s = bin * 3;
     sums[s] += r;
