@@ -211,6 +211,17 @@ describe('repalette', () => {
   });
 });
 
+describe('the whole-photo palette at ingest and after a full recompute', () => {
+  it('is the same: same rows, same ids, same values (both reduce the photo the same way)', async () => {
+    const cloth = paintCloth({ width: 2400, height: 1600, ground: '#e6d9bf', shapes: [{ kind: 'ellipse', cx: 800, cy: 800, rx: 400, ry: 300, colour: '#9e2a2b' }, { kind: 'rect', x: 1500, y: 300, w: 600, h: 900, colour: '#2e3f66' }], noise: 4, weave: 0.05, seed: 17 });
+    const jpeg = await sharp(cloth.data, { raw: { width: 2400, height: 1600, channels: 3 } }).jpeg({ quality: 90 }).toBuffer();
+    const { photo, palette } = await ingest(jpeg);
+    const values = (rows: PaletteColour[]) => rows.map((c) => [c.id, c.rank, c.L, c.a, c.b, c.share, c.background]).sort((x, y) => Number(x[0]) - Number(y[0]));
+    const after = await sequelize.transaction((transaction) => repalette({ transaction, photo, scope: 'all' }));
+    expect(values(after)).toEqual(values(palette));
+  });
+});
+
 describe('paths', () => {
   it('refuses paths that leave the uploads folder', () => {
     for (const bad of ['../x', 'masters/../../x', '/etc/passwd', '', '.']) expect(() => resolveInsideUploads(bad)).toThrow(HttpError);
