@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
+import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
 import { AuditEvent, PaletteColour, Photo, Region, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
@@ -113,6 +114,17 @@ describe('regions and the palette', () => {
     expect(after.filter((c) => !c.background).reduce((s, c) => s + c.share, 0)).toBeCloseTo(1, 6);
     await curator.delete(`/api/photos/${photo.id}/regions/${res.body.region.id}`).set('Origin', ORIGIN).expect(200);
     await curator.patch(`/api/photos/${photo.id}/palette/${target.id}`).set('Origin', ORIGIN).send({ background: false }).expect(200);
+  });
+
+  it('shows how the colours were read, and refuses a CMYK upload in plain words with nothing stored', async () => {
+    const detail = (await curator.get(`/api/photos/${photo.id}`).expect(200)).body.photo;
+    expect(detail.colour).toEqual({ profile: null, assumedSrgb: true, bitDepth: 8, colourSpace: 'RGB', cmykConverted: false, conversion: 'none' });
+    const filesBefore = await uploadedFiles();
+    const cmyk = await sharp(await clothJpeg({ seed: 13 })).toColourspace('cmyk').withIccProfile('cmyk').jpeg().toBuffer();
+    const res = await curator.post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', cmyk, 'print.jpg').expect(415);
+    expect(res.body.error.code).toBe('cmyk_not_supported');
+    expect(res.body.error.message).toMatch(/print\.jpg: .*CMYK.*Export it as RGB/);
+    expect(await uploadedFiles()).toEqual(filesBefore);
   });
 
   it('keeps regions and palette changes to curators and admins', async () => {
