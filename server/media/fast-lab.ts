@@ -30,12 +30,28 @@ const t = () => tables ?? build();
 /** Linear light of an 8-bit sRGB value. */
 export const decode8 = (v: number) => t().decode8[v];
 
-/** Linear light of an sRGB value on 0–255 (fractional allowed, e.g. a mean). */
+/**
+ * Linear light of an sRGB value on 0–255 (fractional allowed, e.g. a mean). Values outside 0–255
+ * (colours outside sRGB, from a wide-gamut photo) follow the curve's extension: mirrored below 0,
+ * the power law above 255, as colorjs.io extends sRGB.
+ */
 export function decode(v: number): number {
-  const x = (Math.min(255, Math.max(0, v)) / 255) * STEPS;
+  if (v < 0) return -decode(-v);
+  if (v > 255) return ((v / 255 + 0.055) / 1.055) ** 2.4;
+  const x = (v / 255) * STEPS;
   const i = Math.min(STEPS - 1, Math.floor(x));
   const d = t().decode;
   return d[i] + (d[i + 1] - d[i]) * (x - i);
+}
+
+/** The sRGB value on 0–255 (fractional, unclipped) of a linear-light value: the inverse of decode(). */
+export function encodeValue(lin: number): number {
+  if (lin < 0) return -encodeValue(-lin);
+  if (lin > 1) return 255 * (1.055 * lin ** (1 / 2.4) - 0.055);
+  const x = Math.sqrt(lin) * STEPS;
+  const i = Math.min(STEPS - 1, Math.floor(x));
+  const e = t().encode;
+  return (e[i] + (e[i + 1] - e[i]) * (x - i)) * 255;
 }
 
 /** 8-bit sRGB value of a linear-light value (clipped to 0–1). */

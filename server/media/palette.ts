@@ -1,8 +1,12 @@
 import { deltaE00, labToHex, shadeName, tradeShade, type Lab } from '../../shared/colour/index.ts';
 import { decode, linearToLab } from './fast-lab.ts';
 
-/** Interleaved 8-bit sRGB pixels (3 channels), as sharp's .raw() gives them. */
-export type RawImage = { data: Uint8Array; width: number; height: number };
+/**
+ * Interleaved sRGB pixels (3 channels) on 0–255: 8-bit as sharp's .raw() gives them, or
+ * fractional and unclipped (below 0 or above 255 for colours outside sRGB) from a photo read
+ * through its ICC profile.
+ */
+export type RawImage = { data: Uint8Array | Float32Array; width: number; height: number };
 export type Rect = { x: number; y: number; w: number; h: number };
 
 export type PaletteOptions = {
@@ -34,12 +38,19 @@ export type ExtractedColour = {
 
 const INITIAL_K = 16;
 const ITERATIONS = 12;
-const BITS = 6; // histogram bins per channel: 2^6 (steps of 4 code values)
-const SHIFT = 8 - BITS;
-const BINS = 1 << (3 * BITS);
+// Histogram bins per channel: 64 steps of 4 code values over 0–255, and beyond them 8 coarser
+// bins (16 code values each) on either side for colours outside sRGB.
+const EXTRA = 8;
+const PER_CHANNEL = 64 + 2 * EXTRA;
+const BINS = PER_CHANNEL ** 3;
+const U8_BIN = Int32Array.from({ length: 256 }, (_, v) => EXTRA + (v >> 2));
+const binOfValue = (v: number) =>
+  v < 0 ? EXTRA - 1 - Math.min(EXTRA - 1, (-v / 16) | 0) : v < 256 ? EXTRA + (v >> 2) : EXTRA + 64 + Math.min(EXTRA - 1, ((v - 256) / 16) | 0);
 const BORDER_FRACTION = 0.03; // width of the border band, of the shorter side
 const BG_BORDER_SHARE = 0.3; // a background colour covers at least this much of the band
 const BG_MAX_CHROMA = 10; // …and is near-neutral (C*ab)
+const BG_MAX_ENCLOSED = 0.5; // …and at most this share of it lies between cloth pixels (else it is the cloth's own ground)
+const CLOTH_MIN_AREA = 0.0002; // cloth components smaller than this share of the frame (noise, stray pixels) are ignored
 
 /** A small deterministic PRNG (mulberry32) so the same photo always gives the same palette. */
 function rng(seed: number) {
@@ -58,7 +69,7 @@ type Hist = { n: number; w: Float64Array; lab: Float64Array; rgb: Float64Array; 
 // Scratch tables reused between calls (extraction is synchronous, so never shared):
 // only the bins a call touched are cleared again, much cheaper than allocating.
 const count = new Uint32Array(BINS);
-const sums = new Uint32Array(BINS * 3);
+const sums = new Float64Array(BINS * 3);
 const binOf = new Int32Array(BINS);
 let pixelScratch = new Int32Array(0);
 
@@ -74,10 +85,13 @@ function histogram(img: RawImage, mask: Uint8Array | null): Hist {
   const pixelBin = pixelScratch;
   const occupied: number[] = [];
   let total = 0;
+  const u8 = data instanceof Uint8Array;
   for (let p = 0, i = 0; p < pixels; p++, i += 3) {
     if (mask !== null && mask[p] === 1) { pixelBin[p] = -1; continue; }
     const r = data[i], g = data[i + 1], b = data[i + 2];
-    const bin = ((r >> SHIFT) << (2 * BITS)) | ((g >> SHIFT) << BITS) | (b >> SHIFT);
+    const bin = u8
+      ? (U8_BIN[r] * PER_CHANNEL + U8_BIN[g]) * PER_CHANNEL + U8_BIN[b]
+      : (binOfValue(r) * PER_CHANNEL + binOfValue(g)) * PER_CHANNEL + binOfValue(b);
     if (count[bin]++ === 0) occupied.push(bin);
     const s = bin * 3;
     sums[s] += r;
@@ -270,6 +284,54 @@ function borderConnected(img: RawImage, pixelLabel: (p: number) => number, isBg:
   return counts;
 }
 
+/**
+ * Share of colour c's pixels that lie between pixels of the cloth (every other colour, in
+ * components big enough not to be noise) on their row or on their column. A mount or backdrop
+ * lies outside the cloth's outline, so almost none of it does; the ground of a close-up that
+ * fills the frame lies between its motifs, so most of it does.
+ */
+function enclosedShare(labels: Int32Array, width: number, height: number, c: number) {
+  const n = width * height;
+  const seen = new Uint8Array(n), keep = new Uint8Array(n);
+  const order = new Int32Array(n);
+  const minArea = Math.max(16, Math.round(CLOTH_MIN_AREA * n));
+  const isCloth = (p: number) => labels[p] >= 0 && labels[p] !== c;
+  for (let start = 0; start < n; start++) {
+    if (seen[start] || !isCloth(start)) continue;
+    // Flood one 4-connected component; `order` doubles as its pixel list and the stack.
+    let head = 0, tail = 0;
+    order[tail++] = start;
+    seen[start] = 1;
+    while (head < tail) {
+      const p = order[head++];
+      const x = p % width;
+      if (x > 0 && !seen[p - 1] && isCloth(p - 1)) { seen[p - 1] = 1; order[tail++] = p - 1; }
+      if (x < width - 1 && !seen[p + 1] && isCloth(p + 1)) { seen[p + 1] = 1; order[tail++] = p + 1; }
+      if (p >= width && !seen[p - width] && isCloth(p - width)) { seen[p - width] = 1; order[tail++] = p - width; }
+      if (p < n - width && !seen[p + width] && isCloth(p + width)) { seen[p + width] = 1; order[tail++] = p + width; }
+    }
+    if (tail >= minArea) for (let k = 0; k < tail; k++) keep[order[k]] = 1;
+  }
+  const rowMin = new Int32Array(height).fill(width), rowMax = new Int32Array(height).fill(-1);
+  const colMin = new Int32Array(width).fill(height), colMax = new Int32Array(width).fill(-1);
+  for (let p = 0; p < n; p++) {
+    if (!keep[p]) continue;
+    const x = p % width, y = (p - x) / width;
+    if (x < rowMin[y]) rowMin[y] = x;
+    if (x > rowMax[y]) rowMax[y] = x;
+    if (y < colMin[x]) colMin[x] = y;
+    if (y > colMax[x]) colMax[x] = y;
+  }
+  let inside = 0, all = 0;
+  for (let p = 0; p < n; p++) {
+    if (labels[p] !== c) continue;
+    all++;
+    const x = p % width, y = (p - x) / width;
+    if ((x > rowMin[y] && x < rowMax[y]) || (y > colMin[x] && y < colMax[x])) inside++;
+  }
+  return all ? inside / all : 0;
+}
+
 function maskOf(img: RawImage, exclude: Rect[]): Uint8Array | null {
   if (!exclude.length) return null;
   const mask = new Uint8Array(img.width * img.height);
@@ -314,8 +376,12 @@ export function extractPalette(img: RawImage, options: PaletteOptions = {}): Ext
     }
     centres.forEach((c, i) => { isBg[i] = bandTotal > 0 && inBand[i] / bandTotal >= BG_BORDER_SHARE && Math.hypot(c[1], c[2]) <= BG_MAX_CHROMA; });
     if (isBg.some(Boolean)) {
-      const reached = borderConnected(img, (p) => { const j = binAt(h, p); return j < 0 ? -1 : assign[j]; }, isBg);
+      const labels = new Int32Array(img.width * img.height);
+      for (let p = 0; p < labels.length; p++) { const j = binAt(h, p); labels[p] = j < 0 ? -1 : assign[j]; }
+      const reached = borderConnected(img, (p) => labels[p], isBg);
       centres.forEach((_, i) => { if (isBg[i] && reached[i] < 0.5 * weight[i]) isBg[i] = false; });
+      // A ground that fills the frame, with the motifs inside it, is cloth, whatever its colour.
+      centres.forEach((_, i) => { if (isBg[i] && enclosedShare(labels, img.width, img.height, i) > BG_MAX_ENCLOSED) isBg[i] = false; });
     }
   }
 

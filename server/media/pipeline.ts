@@ -1,11 +1,12 @@
 import { createHash } from 'node:crypto';
 import { readFile, rm } from 'node:fs/promises';
 import sharp, { type Metadata } from 'sharp';
+import { MAX_PIXELS } from './decode.ts';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
 import { PaletteColour, Photo, type User } from '../models/index.ts';
 import type { PhotoView } from '../models/catalogue.ts';
-import { MAX_PIXELS, WORKING_SIZE } from './decode.ts';
+import { colourSource, decodeForIngest, type ColourSource } from './decode.ts';
 import { readExif } from './exif.ts';
 import { exists, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
@@ -37,35 +38,21 @@ async function probe(buffer: Buffer) {
   if (meta.width * meta.height > MAX_PIXELS) {
     throw new HttpError(422, 'pixel_limit', `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${MAX_PIXELS / 1e6} megapixels.`);
   }
+  // Decided here, before anything is written: CMYK is refused with its reason.
+  const colour: ColourSource = colourSource(meta);
   const swap = (meta.orientation ?? 1) >= 5;
   const ext = format === 'heif' && meta.compression === 'av1' ? 'avif' : FORMATS[format];
-  return { format: ext === 'avif' ? 'avif' : format, ext, width: swap ? meta.height : meta.width, height: swap ? meta.width : meta.height };
+  return { format: ext === 'avif' ? 'avif' : format, ext, width: swap ? meta.height : meta.width, height: swap ? meta.width : meta.height, colour };
 }
 
 /**
- * Long side of the display derivative: about 1600 px, chosen between 1400 and 1600 so that
- * JPEG shrink-on-load can decode at 1/2, 1/4 or 1/8 scale (a 6000 px photo decodes at 1500 px,
- * several times faster than at the 3000 px that an exact 1600 would need).
+ * One decode serves every output: upright, read through the embedded ICC profile (or as sRGB),
+ * reduced to the display size; the whole-photo working image is reduced from it exactly as
+ * repalette() reduces it, so both give the same palette.
  */
-export function displaySize(longSide: number) {
-  const factor = [8, 4, 2, 1].find((f) => longSide / f >= 1400) ?? 1;
-  return Math.min(DERIVATIVES.display, Math.floor(longSide / factor));
-}
-
-/**
- * One decode serves every output: upright, sRGB (from an embedded ICC profile), reduced
- * to the display size. A linear kernel avoids edge overshoot that would invent colours.
- */
-async function decodeDisplay(buffer: Buffer, longSide: number) {
-  const size = displaySize(longSide);
+async function decodeDisplay(buffer: Buffer, colour: ColourSource) {
   try {
-    return await sharp(buffer, { limitInputPixels: MAX_PIXELS, failOn: 'error' })
-      .rotate()
-      .resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' })
-      .removeAlpha()
-      .toColourspace('srgb')
-      .raw()
-      .toBuffer({ resolveWithObject: true });
+    return await decodeForIngest(buffer, colour);
   } catch {
     throw new HttpError(422, 'corrupt_image', 'The image is truncated or damaged and cannot be decoded.');
   }
@@ -85,7 +72,7 @@ export async function ingestPhoto({ actor, transaction, input }: { actor: User |
   const files = new WrittenFiles();
   let photoId: number | null = null;
   // libvips decodes on its own threads while this thread hashes, stores and reads EXIF.
-  const decoding = decodeDisplay(buffer, Math.max(info.width, info.height));
+  const decoding = decodeDisplay(buffer, info.colour);
   decoding.catch(() => undefined);
   try {
     // 1. Store the master byte for byte; an identical file already stored is shared.
@@ -95,13 +82,15 @@ export async function ingestPhoto({ actor, transaction, input }: { actor: User |
 
     // 2. EXIF (GPS kept apart, on the row only).
     const { exif, gps, capturedAt } = await readExif(buffer);
-    const { data, info: d } = await decoding;
+    const { display: shown, work, facts } = await decoding;
+    const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
+    const d = { width: shown.width, height: shown.height };
     const photo = await Photo.create(
       {
         pieceId: input.pieceId ?? null, trialId: input.trialId ?? null, sha256, format: info.format, bytes: buffer.length,
         width: info.width, height: info.height, view: input.view ?? 'recto', originalName: input.originalName?.slice(0, 255) ?? null,
         caption: null, capturedAt, exif, gps, derivatives: { master: { path: master, width: info.width, height: info.height } },
-        referencePatch: null, correction: null, createdById: actor?.id ?? null,
+        referencePatch: null, correction: null, colour: facts, createdById: actor?.id ?? null,
       },
       { transaction },
     );
@@ -117,11 +106,7 @@ export async function ingestPhoto({ actor, transaction, input }: { actor: User |
         .toBuffer({ resolveWithObject: true }),
     ]);
     encoding.catch(() => undefined);
-    const work = await fromRaw(data, d.width, d.height)
-      .resize({ width: WORKING_SIZE, height: WORKING_SIZE, fit: 'inside', withoutEnlargement: true, kernel: 'linear' })
-      .raw()
-      .toBuffer({ resolveWithObject: true });
-    const colours = extractPalette({ data: work.data, width: work.info.width, height: work.info.height });
+    const colours = extractPalette(work);
 
     const [display, thumb] = await encoding;
     const derivatives = { ...photo.derivatives };

@@ -1,3 +1,4 @@
+import type { PhotoColourFacts } from '../../shared/schemas/photo.ts';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 export type Evidence = 'attributed' | 'identified';
@@ -54,6 +55,8 @@ export class Photo extends Model<InferAttributes<Photo>, InferCreationAttributes
   declare derivatives: Record<string, { path: string; width: number; height: number }>;
   declare referencePatch: { x: number; y: number; w: number; h: number } | null;
   declare correction: Record<string, unknown> | null;
+  /** How the colours were read (profile, bit depth, colour space); null for photos uploaded before it was recorded. */
+  declare colour: CreationOptional<PhotoColourFacts | null>;
   declare tileStatus: CreationOptional<'none' | 'queued' | 'running' | 'done' | 'failed'>;
   declare createdById: number | null;
   declare createdAt: CreationOptional<Date>;
@@ -91,6 +94,8 @@ export class PaletteColour extends Model<InferAttributes<PaletteColour>, InferCr
   declare name: string;
   declare tradeName: string | null;
   declare background: boolean;
+  /** The background flag was set by hand: a recompute of this palette keeps it. */
+  declare backgroundManual: CreationOptional<boolean>;
   declare source: CreationOptional<string>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -176,6 +181,7 @@ export function initCatalogueModels(sequelize: Sequelize) {
       derivatives: json({}),
       referencePatch: DataTypes.JSON,
       correction: DataTypes.JSON,
+      colour: DataTypes.JSON,
       tileStatus: { type: DataTypes.ENUM('none', 'queued', 'running', 'done', 'failed'), allowNull: false, defaultValue: 'none' },
       createdById: fk(),
       ...stamps(),
@@ -213,6 +219,7 @@ export function initCatalogueModels(sequelize: Sequelize) {
       name: { type: DataTypes.STRING(80), allowNull: false },
       tradeName: DataTypes.STRING(80),
       background: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      backgroundManual: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       source: { type: DataTypes.STRING(20), allowNull: false, defaultValue: 'image-estimate' },
       ...stamps(),
     },

@@ -62,6 +62,7 @@ export function presentPhoto(p: Photo, actor: Actor, extra: { palette: PaletteCo
     exif: presentExif(p.exif, seeGps),
     ...(seeGps ? { gps: p.gps } : {}),
     referencePatch: p.referencePatch,
+    colour: p.colour ?? null,
     palette: wholeRaw.map(presentColour),
     palettes: presentPalettes(extra.palette),
     regions: (extra.regions ?? []).map(presentRegion),

@@ -36,6 +36,39 @@ export const regionUpdateSchema = regionCreateSchema.partial().strict();
 export type RegionCreateInput = z.infer<typeof regionCreateSchema>;
 export type RegionUpdateInput = z.infer<typeof regionUpdateSchema>;
 
+/**
+ * How a photo's colours were read, recorded at upload: the embedded ICC profile's description (or
+ * none, and then taken as sRGB), bits per channel and colour space as stored, and how the pixels
+ * were converted to CIELAB ('icc-matrix': the profile's matrix and curves, unclipped;
+ * 'lcms-perceptual': other profiles, through lcms to 8-bit sRGB; 'libvips': floating-point or Lab
+ * files; 'none': sRGB as stored). CMYK photos are refused, so cmykConverted is always false.
+ */
+export type PhotoColourFacts = {
+  profile: string | null;
+  assumedSrgb: boolean;
+  bitDepth: number;
+  colourSpace: string;
+  cmykConverted: boolean;
+  conversion: 'icc-matrix' | 'lcms-perceptual' | 'libvips' | 'none';
+};
+
+const CONVERSIONS: Record<PhotoColourFacts['conversion'], string> = {
+  'icc-matrix': "read through the profile's matrix and curves, colours outside sRGB kept",
+  'lcms-perceptual': 'converted to sRGB by lcms (perceptual intent)',
+  libvips: 'converted to sRGB by libvips',
+  none: 'read as sRGB',
+};
+
+/** The colour facts in plain words, one line each, for the photo's facts. */
+export function colourFactsLines(facts: PhotoColourFacts | null): string[] {
+  if (!facts) return ['Colour facts not recorded (uploaded before they were kept).'];
+  return [
+    facts.profile ? `Profile: ${facts.profile} (embedded)` : 'Profile: none: taken as sRGB',
+    `${facts.bitDepth} bits per channel, ${facts.colourSpace}${facts.cmykConverted ? ', converted from CMYK' : ''}`,
+    `Colours ${CONVERSIONS[facts.conversion]}`,
+  ];
+}
+
 export const paletteColourUpdateSchema = z.object({ background: z.boolean({ error: 'Say true or false' }) }).strict();
 
 export const photoParams = z.object({ id: z.coerce.number().int().positive() });

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
+import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
 import { AuditEvent, PaletteColour, Photo, Region, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
@@ -78,6 +79,52 @@ describe('regions and the palette', () => {
     const back = await curator.patch(`/api/photos/${photo.id}/palette/${target.id}`).set('Origin', ORIGIN).send({ background: false }).expect(200);
     const restored = (back.body.palettes as Palette[]).find((p) => p.regionId === null && p.variant === 'raw')!;
     for (const c of whole.colours) expect(restored.colours.find((x) => x.id === c.id)!.share).toBeCloseTo(c.share, 6);
+  });
+
+  it('saving, editing and deleting a colour area changes only its own palette: whole-photo rows keep their ids and values', async () => {
+    const wholeRows = async () => (await PaletteColour.findAll({ where: { photoId: photo.id, regionId: null }, order: [['id', 'ASC']] }))
+      .map((c) => ({ id: c.id, variant: c.variant, rank: c.rank, L: c.L, a: c.a, b: c.b, share: c.share, background: c.background }));
+    const start = await wholeRows();
+    expect(start.length).toBeGreaterThan(0);
+    const made = (await curator.post(`/api/photos/${photo.id}/regions`).set('Origin', ORIGIN).send({ x: 300, y: 100, w: 80, h: 120, purpose: 'colour-area', label: 'blue' }).expect(201)).body;
+    expect(await wholeRows()).toEqual(start);
+    const ownIds = async () => (await PaletteColour.findAll({ where: { regionId: made.region.id } })).map((c) => c.id).sort();
+    const before = await ownIds();
+    expect(before.length).toBeGreaterThan(0);
+    // Moving the rectangle within the same blue recomputes its palette over the same rows.
+    await curator.patch(`/api/photos/${photo.id}/regions/${made.region.id}`).set('Origin', ORIGIN).send({ x: 310, y: 110 }).expect(200);
+    expect(await ownIds()).toEqual(before);
+    expect(await wholeRows()).toEqual(start);
+    await curator.delete(`/api/photos/${photo.id}/regions/${made.region.id}`).set('Origin', ORIGIN).expect(200);
+    expect(await ownIds()).toEqual([]);
+    expect(await wholeRows()).toEqual(start);
+  });
+
+  it('an exclusion recomputes the whole photo over the same rows and keeps a background flag set by hand', async () => {
+    const whole = async () => PaletteColour.findAll({ where: { photoId: photo.id, regionId: null, variant: 'raw' }, order: [['rank', 'ASC']] });
+    const start = await whole();
+    const target = start.filter((c) => !c.background).at(-1)!;
+    await curator.patch(`/api/photos/${photo.id}/palette/${target.id}`).set('Origin', ORIGIN).send({ background: true }).expect(200);
+    // A small exclusion in the cream ground: the same colours, so the same rows, with shares changed a little.
+    const res = await curator.post(`/api/photos/${photo.id}/regions`).set('Origin', ORIGIN).send({ x: 420, y: 10, w: 40, h: 40, purpose: 'exclusion' }).expect(201);
+    const after = await whole();
+    expect(after.map((c) => c.id).sort()).toEqual(start.map((c) => c.id).sort());
+    const again = after.find((c) => c.id === target.id)!;
+    expect([again.background, again.backgroundManual]).toEqual([true, true]);
+    expect(after.filter((c) => !c.background).reduce((s, c) => s + c.share, 0)).toBeCloseTo(1, 6);
+    await curator.delete(`/api/photos/${photo.id}/regions/${res.body.region.id}`).set('Origin', ORIGIN).expect(200);
+    await curator.patch(`/api/photos/${photo.id}/palette/${target.id}`).set('Origin', ORIGIN).send({ background: false }).expect(200);
+  });
+
+  it('shows how the colours were read, and refuses a CMYK upload in plain words with nothing stored', async () => {
+    const detail = (await curator.get(`/api/photos/${photo.id}`).expect(200)).body.photo;
+    expect(detail.colour).toEqual({ profile: null, assumedSrgb: true, bitDepth: 8, colourSpace: 'RGB', cmykConverted: false, conversion: 'none' });
+    const filesBefore = await uploadedFiles();
+    const cmyk = await sharp(await clothJpeg({ seed: 13 })).toColourspace('cmyk').withIccProfile('cmyk').jpeg().toBuffer();
+    const res = await curator.post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', cmyk, 'print.jpg').expect(415);
+    expect(res.body.error.code).toBe('cmyk_not_supported');
+    expect(res.body.error.message).toMatch(/print\.jpg: .*CMYK.*Export it as RGB/);
+    expect(await uploadedFiles()).toEqual(filesBefore);
   });
 
   it('keeps regions and palette changes to curators and admins', async () => {

@@ -10,7 +10,8 @@ import { masterPath, resolveInsideUploads } from '../../server/media/paths.ts';
 import { PaletteColour, Photo, Region, sequelize, type Piece } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { paintCloth } from '../../server/seed/cloth-image.ts';
-import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
+import { deltaE00, hexToLab, srgbToLab } from '../../shared/colour/index.ts';
+import { inProfile } from '../support/icc-images.ts';
 
 let piece: Piece;
 beforeAll(async () => { piece = await makePiece({ title: 'Media pipeline test piece' }); });
@@ -59,6 +60,28 @@ describe('ingestPhoto', () => {
     const indigo = palette.find((p) => deltaE00(p, hexToLab('#2e3f66')) < 1.5);
     expect(indigo?.share).toBeCloseTo(cloth.truth[1].share, 1);
     expect(await PaletteColour.count({ where: { photoId: photo.id } })).toBe(palette.length);
+  });
+
+  it('reads a 16-bit TIFF in an Adobe RGB (1998)-compatible profile: palette, display image and colour facts', async () => {
+    // Truth: the painted sRGB colours (CIELAB through colorjs.io); the file is the same cloth re-encoded
+    // in Adobe RGB at 16 bits by colorjs.io with Debian's 'Compatible with Adobe RGB (1998)' profile.
+    const truth = ['#e6d9bf', '#9e2a2b', '#2e3f66'];
+    const cloth = paintCloth({ width: 900, height: 600, ground: truth[0], shapes: [
+      { kind: 'rect', x: 100, y: 100, w: 300, h: 400, colour: truth[1] },
+      { kind: 'rect', x: 500, y: 100, w: 300, h: 400, colour: truth[2] },
+    ], noise: 3, seed: 8 });
+    const { photo, palette } = await ingest(await inProfile(cloth, 'a98rgb', 16, 'tiff'), { originalName: 'adobe16.tif' });
+    for (const hex of truth) expect(Math.min(...palette.map((p) => deltaE00(p, hexToLab(hex)))), hex).toBeLessThanOrEqual(1.5);
+    expect(photo.colour).toEqual({ profile: 'Compatible with Adobe RGB (1998)', assumedSrgb: false, bitDepth: 16, colourSpace: 'RGB', cmykConverted: false, conversion: 'icc-matrix' });
+    // The display derivative is 8-bit sRGB: the red area's centre pixel is the painted red (noise σ 3 → own tolerance 2).
+    const { data, info } = await sharp(photoFile(photo, 'display')).raw().toBuffer({ resolveWithObject: true });
+    const i = (300 * info.width + 250) * info.channels;
+    expect(deltaE00(srgbToLab({ r: data[i], g: data[i + 1], b: data[i + 2] }), hexToLab(truth[1]))).toBeLessThan(2);
+  });
+
+  it('records a photo without a profile as taken as sRGB', async () => {
+    const { photo } = await ingest(await paintJpeg());
+    expect(photo.colour).toMatchObject({ profile: null, assumedSrgb: true, bitDepth: 8, colourSpace: 'RGB', conversion: 'none' });
   });
 
   it('reads EXIF (dates as written, no time zone) and keeps GPS only in photo.gps', async () => {
@@ -124,6 +147,8 @@ describe('ingestPhoto', () => {
       ['a pixel bomb', bomb, 422, 'pixel_limit'],
       ['zero bytes', async () => Buffer.alloc(0), 422, 'empty_file'],
       ['an SVG (not accepted)', async () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"/>'), 415, 'unsupported_type'],
+      ['a CMYK JPEG with its profile', async () => sharp(await paintJpeg()).toColourspace('cmyk').withIccProfile('cmyk').jpeg().toBuffer(), 415, 'cmyk_not_supported'],
+      ['a CMYK TIFF without a profile', async () => sharp(await paintJpeg()).toColourspace('cmyk').tiff().toBuffer(), 415, 'cmyk_not_supported'],
     ];
     it.each(cases)('%s', async (_, make, status, code) => {
       const before = filesUnder(env.UPLOADS_DIR).sort();
@@ -183,6 +208,17 @@ describe('repalette', () => {
     expect(await PaletteColour.count({ where: { photoId: photo.id } })).toBe(rows.length);
     await photo.reload();
     expect(photo.correction).toMatchObject({ method: 'bradford', to: 'D65' });
+  });
+});
+
+describe('the whole-photo palette at ingest and after a full recompute', () => {
+  it('is the same: same rows, same ids, same values (both reduce the photo the same way)', async () => {
+    const cloth = paintCloth({ width: 2400, height: 1600, ground: '#e6d9bf', shapes: [{ kind: 'ellipse', cx: 800, cy: 800, rx: 400, ry: 300, colour: '#9e2a2b' }, { kind: 'rect', x: 1500, y: 300, w: 600, h: 900, colour: '#2e3f66' }], noise: 4, weave: 0.05, seed: 17 });
+    const jpeg = await sharp(cloth.data, { raw: { width: 2400, height: 1600, channels: 3 } }).jpeg({ quality: 90 }).toBuffer();
+    const { photo, palette } = await ingest(jpeg);
+    const values = (rows: PaletteColour[]) => rows.map((c) => [c.id, c.rank, c.L, c.a, c.b, c.share, c.background]).sort((x, y) => Number(x[0]) - Number(y[0]));
+    const after = await sequelize.transaction((transaction) => repalette({ transaction, photo, scope: 'all' }));
+    expect(values(after)).toEqual(values(palette));
   });
 });
 

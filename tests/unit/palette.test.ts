@@ -100,6 +100,47 @@ describe('palette extraction accuracy', () => {
     expect(Math.abs(bg[0].areaShare - (1 - cloth3 / (W * H)))).toBeLessThan(0.03);
   });
 
+  describe('a ground that fills the frame is cloth (close-ups)', () => {
+    // Close-ups of printed cloth: small red and blue motifs scattered over a drab, a grey and an
+    // iron-black ground that reaches every edge. Nothing is background; every share within
+    // 3 percentage points of the painted area (the palette's accuracy target).
+    const closeUp = (ground: string, seed: number): ClothSpec => {
+      const shapes: Shape[] = [];
+      for (let ty = 0; ty < 5; ty++) for (let tx = 0; tx < 8; tx++) {
+        const cx = ((tx + 0.5) * W) / 8 + (ty % 2 ? 60 : -60), cy = ((ty + 0.5) * H) / 5;
+        shapes.push({ kind: 'ellipse', cx, cy, rx: 70, ry: 55, colour: (tx + ty) % 2 ? RED : INDIGO });
+      }
+      return { width: W, height: H, ground, shapes, noise: 4, weave: 0.05, weavePeriod: 6, gradient: 0.03, seed };
+    };
+    it.each([['drab', '#8f8a80', 31], ['grey', '#808080', 32], ['iron black', '#2b2927', 33]])('%s ground (%s)', async (_, ground, seed) => {
+      const cloth = paintCloth(closeUp(ground, seed));
+      const palette = extractPalette(await workingImage(await asJpeg(cloth)));
+      expect(palette.filter((c) => c.background)).toEqual([]);
+      for (const r of match(cloth.truth, palette)) {
+        expect(r.deltaE, `ΔE00 of ${r.hex}`).toBeLessThanOrEqual(1.5);
+        expect(r.shareError, `share of ${r.hex} (true ${cloth.truth.find((t) => t.hex === r.hex)!.share.toFixed(3)})`).toBeLessThanOrEqual(0.03);
+      }
+    });
+
+    it('a drab cloth with the same motifs on a grey mount: the mount is background, the drab ground is not', async () => {
+      const spec = closeUp('#7f7f7f', 34);
+      const inner = { x: 450, y: 300, w: 2100, h: 1400 };
+      spec.shapes = [
+        { kind: 'rect', ...inner, colour: '#8f8a80' },
+        ...spec.shapes.filter((m) => m.kind === 'ellipse' && m.cx > inner.x + 80 && m.cx < inner.x + inner.w - 80 && m.cy > inner.y + 70 && m.cy < inner.y + inner.h - 70),
+      ];
+      const cloth = paintCloth({ ...spec, ground: '#7f7f7f' });
+      const palette = extractPalette(await workingImage(await asJpeg(cloth)));
+      const bg = palette.filter((c) => c.background);
+      expect(bg).toHaveLength(1);
+      expect(deltaE00(bg[0].lab, hexToLab('#7f7f7f'))).toBeLessThan(1.5);
+      const clothArea = inner.w * inner.h;
+      const drab = palette.find((c) => !c.background && deltaE00(c.lab, hexToLab('#8f8a80')) < 1.5)!;
+      const drabTruth = cloth.truth.find((t) => t.hex === '#8f8a80')!.share * W * H / clothArea;
+      expect(Math.abs(drab.share - drabTruth)).toBeLessThanOrEqual(0.03);
+    });
+  });
+
   it('leaves excluded rectangles out', async () => {
     const shapes: Shape[] = [{ kind: 'rect', x: 0, y: 0, w: 1000, h: 2000, colour: RED }];
     const cloth = paintCloth({ width: W, height: H, ground: GROUND, shapes, noise: 3, seed: 5 });

@@ -5,6 +5,7 @@ import * as m0002auth from './0002-auth-tokens.ts';
 import * as m0008iiif from './0008-iiif-jobs.ts';
 import * as m0009trials from './0009-trials-settings.ts';
 import * as m0010baths from './0010-baths-series-liquor-ratio.ts';
+import * as m0011photoColour from './0011-photo-colour.ts';
 import * as m0013names from './0013-palette-names.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
@@ -16,5 +17,6 @@ export const migrations: Migration[] = [
   { name: '0008-iiif-jobs', ...m0008iiif },
   { name: '0009-trials-settings', ...m0009trials },
   { name: '0010-baths-series-liquor-ratio', ...m0010baths },
+  { name: '0011-photo-colour', ...m0011photoColour },
   { name: '0013-palette-names', ...m0013names },
 ];

@@ -15,6 +15,7 @@ import { actorOf, requireUser } from '../../http/auth.ts';
 import { badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams } from '../../http/validate.ts';
 import { removePhotoFiles, repalette } from '../../media/pipeline.ts';
+import { EXCLUDING_PURPOSES, type RepaletteScope } from '../../media/repalette.ts';
 import { Job, PaletteColour, Region, sequelize, type Photo } from '../../models/index.ts';
 import { TILE_JOB } from '../../jobs/handlers/tile-photo.ts';
 import { can, type Actor } from '../../policies/index.ts';
@@ -79,14 +80,21 @@ photosRouter.delete('/:id', async (req, res) => {
   res.status(204).end();
 });
 
-/** Run a change and the palette re-extraction in one transaction; answer the new palettes. */
-async function withRepalette<T>(photo: Photo, change: (t: Transaction) => Promise<T>) {
+/**
+ * Run a change and the palette re-extraction it calls for in one transaction; answer the palettes.
+ * A colour area or motif changes only its own palettes; an exclusion or a reference patch every
+ * palette (see DEVELOPERS.md, Media and colour). `scope` is decided after the change.
+ */
+async function withRepalette<T>(photo: Photo, change: (t: Transaction) => Promise<T>, scope: (result: T) => RepaletteScope | null) {
   return sequelize.transaction(async (transaction) => {
     const result = await change(transaction);
-    const palette = await repalette({ transaction, photo });
+    const chosen = scope(result);
+    const palette = chosen ? await repalette({ transaction, photo, scope: chosen }) : await PaletteColour.findAll({ where: { photoId: photo.id }, transaction });
     return { result, palettes: presentPalettes(palette) };
   });
 }
+
+const scopeOf = (purposes: string[], regionId: number): RepaletteScope => (purposes.some((p) => EXCLUDING_PURPOSES.has(p)) ? 'all' : { regionId });
 
 photosRouter.get('/:id/regions', async (req, res) => {
   const actor = actorOf(req);
@@ -104,7 +112,7 @@ photosRouter.post('/:id/regions', async (req, res) => {
     const r = await Region.create({ ...input, label: input.label ?? null, photoId: photo.id, createdById: actor?.id ?? null }, { transaction });
     await auditPhoto({ actor, transaction }, photo, 'region-added', { region: { from: null, to: { ...input, id: r.id } } });
     return r;
-  });
+  }, (r) => scopeOf([r.purpose], r.id));
   res.status(201).json({ region: presentRegion(region), palettes });
 });
 
@@ -125,7 +133,7 @@ photosRouter.patch('/:id/regions/:regionId', async (req, res) => {
   const { palettes } = await withRepalette(photo, async (transaction) => {
     await region.update(input, { transaction });
     await auditPhoto({ actor, transaction }, photo, 'region-changed', { region: { from: before, to: presentRegion(region) } });
-  });
+  }, () => scopeOf([before.purpose, region.purpose], region.id));
   res.json({ region: presentRegion(region), palettes });
 });
 
@@ -138,7 +146,7 @@ photosRouter.delete('/:id/regions/:regionId', async (req, res) => {
     await PaletteColour.destroy({ where: { regionId: region.id }, transaction });
     await region.destroy({ transaction });
     await auditPhoto({ actor, transaction }, photo, 'region-removed', { region: { from: presentRegion(region), to: null } });
-  });
+  }, () => (EXCLUDING_PURPOSES.has(region.purpose) ? 'all' : null));
   res.json({ palettes });
 });
 
@@ -151,7 +159,7 @@ photosRouter.put('/:id/reference-patch', async (req, res) => {
   const { palettes } = await withRepalette(photo, async (transaction) => {
     await photo.update({ referencePatch: rect }, { transaction });
     await auditPhoto({ actor, transaction }, photo, 'reference-patch-set', { referencePatch: { from: before, to: rect } });
-  });
+  }, () => 'all');
   res.json({ referencePatch: photo.referencePatch, palettes });
 });
 
@@ -162,7 +170,7 @@ photosRouter.delete('/:id/reference-patch', async (req, res) => {
   const { palettes } = await withRepalette(photo, async (transaction) => {
     await photo.update({ referencePatch: null, correction: null }, { transaction });
     await auditPhoto({ actor, transaction }, photo, 'reference-patch-cleared', { referencePatch: { from: before, to: null } });
-  });
+  }, () => 'all');
   res.json({ referencePatch: null, palettes });
 });
 
@@ -176,7 +184,9 @@ photosRouter.patch('/:id/palette/:colourId', async (req, res) => {
   const palettes = await sequelize.transaction(async (transaction) => {
     const siblings = await PaletteColour.findAll({ where: { photoId: photo.id, regionId: colour.regionId, variant: colour.variant }, transaction });
     for (const next of reshare(siblings, colour.id, background)) {
-      await PaletteColour.update({ share: next.share, background: next.background }, { where: { id: next.id }, transaction });
+      // The toggled colour's flag is now the user's: a later recompute of this palette keeps it.
+      const manual = next.id === colour.id ? { backgroundManual: true } : {};
+      await PaletteColour.update({ share: next.share, background: next.background, ...manual }, { where: { id: next.id }, transaction });
     }
     await auditPhoto({ actor, transaction }, photo, 'palette-background', { [`colour ${colour.hex}`]: { from: colour.background, to: background } });
     return presentPalettes(await PaletteColour.findAll({ where: { photoId: photo.id }, transaction }));

@@ -1,3 +1,4 @@
+import { colourFactsLines } from '../../../../shared/schemas/photo';
 import type { Photo } from '../../pieces/api';
 import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
 import { PhotoTiles } from '../../iiif/components/PhotoTiles';
@@ -92,6 +93,11 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
         <p className="num">
           {photo.format} · {(photo.bytes / 1024 / 1024).toFixed(1)} MB{photo.capturedAt ? ` · taken ${photo.capturedAt}` : ''}
         </p>
+        <ul data-testid="colour-facts">
+          {colourFactsLines(photo.colour).map((l) => (
+            <li key={l}>{l}</li>
+          ))}
+        </ul>
         <ul>
           {formatExif(photo.exif).map((l) => (
             <li key={l}>{l}</li>
