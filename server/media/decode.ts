@@ -135,14 +135,6 @@ async function toDecoded(img: Sharp): Promise<Decoded> {
   return { data: typed, width: info.width, height: info.height, channels: info.channels };
 }
 
-/** Resizes decoded pixels (long side ≤ size) with the same linear kernel, keeping depth and channels. */
-async function shrink(d: Decoded, size: number): Promise<Decoded> {
-  if (Math.max(d.width, d.height) <= size) return d;
-  const img = sharp(d.data, { raw: { width: d.width, height: d.height, channels: d.channels as 1 | 3 } })
-    .resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' });
-  return toDecoded(finishRaw(img, d));
-}
-
 /**
  * Device pixels to what the palette reads: sRGB values on 0–255, unclipped and fractional
  * (Float32Array), or the 8-bit pixels themselves for an sRGB photo without a profile.
@@ -190,29 +182,36 @@ async function decodeAtDisplaySize(input: Buffer, source: ColourSource) {
 }
 
 /**
- * Everything ingest needs from one decode: the display image (8-bit sRGB) and the whole-photo
- * working image, made exactly as workingImage(input) makes it, so a later recompute of the
- * whole-photo palette gives the same colours.
+ * Everything ingest needs: the display image (8-bit sRGB) and the whole-photo working image,
+ * made by workingImage() itself, so a later recompute of the whole-photo palette gives the same
+ * colours. The two decodes run side by side on libvips' threads; each uses JPEG shrink-on-load,
+ * which is cheaper than decoding once at display size and reducing that again.
  */
 export async function decodeForIngest(input: Buffer, source?: ColourSource) {
   const src = source ?? (await readSource(input));
-  const shown = await decodeAtDisplaySize(input, src);
+  const [shown, work] = await Promise.all([decodeAtDisplaySize(input, src), wholeWorkingImage(input, src, WORKING_SIZE)]);
   const display = toWorking(shown, src.mode);
-  const work = toWorking(await shrink(shown, WORKING_SIZE), src.mode);
   return { display: { data: toDisplay(display), width: display.width, height: display.height }, work, facts: src.facts };
+}
+
+/** The whole upright photo reduced to the working size in one pipeline. */
+async function wholeWorkingImage(input: Buffer, src: ColourSource, size: number) {
+  const img = open(input, src.mode.kind === 'device').rotate()
+    .resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' });
+  return toWorking(await toDecoded(finish(img, src.mode)), src.mode);
 }
 
 /**
  * The upright image (or a rectangle of it, in upright full-size pixels) reduced to the working
- * size, in sRGB values as the palette reads them. The whole photo is reduced through the display
- * size, as at ingest; a rectangle is cut from the full-size image. The linear kernel avoids the
- * overshoot (ringing) at edges that would invent colours.
+ * size, in sRGB values as the palette reads them (ingest makes the whole-photo one the same way);
+ * a rectangle is cut from the full-size image. The linear kernel avoids the overshoot (ringing)
+ * at edges that would invent colours.
  */
 export async function workingImage(input: Buffer, region?: Rect, size = WORKING_SIZE): Promise<RawImage & { scale: number }> {
   const src = await readSource(input);
   const full = await uprightSize(input);
   if (!region) {
-    const work = toWorking(await shrink(await decodeAtDisplaySize(input, src), size), src.mode);
+    const work = await wholeWorkingImage(input, src, size);
     return { ...work, scale: work.width / full.width };
   }
   const device = src.mode.kind === 'device';
