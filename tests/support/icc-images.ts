@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { deflateSync } from 'node:zlib';
+import { crc32, deflateSync } from 'node:zlib';
 import Color from 'colorjs.io';
 import sharp from 'sharp';
 
@@ -118,15 +118,6 @@ export function pngWithIcc(png: Buffer, icc: Buffer): Buffer {
   const type = Buffer.from('iCCP', 'latin1');
   const chunk = Buffer.concat([u32(data.length), type, data, u32(crc32(Buffer.concat([type, data])))]);
   return Buffer.concat([png.subarray(0, ihdrEnd), chunk, png.subarray(ihdrEnd)]);
-}
-
-function crc32(buf: Buffer) {
-  let c = ~0;
-  for (const byte of buf) {
-    c ^= byte;
-    for (let k = 0; k < 8; k++) c = c & 1 ? (c >>> 1) ^ 0xedb88320 : c >>> 1;
-  }
-  return ~c >>> 0;
 }
 
 export type Format = 'jpeg' | 'png' | 'tiff';

@@ -1,5 +1,6 @@
 import { readdir } from 'node:fs/promises';
 import path from 'node:path';
+import { crc32 } from 'node:zlib';
 import sharp from 'sharp';
 import { paintCloth } from '../../server/seed/cloth-image.ts';
 import { uploadsDir } from '../../server/media/paths.ts';
@@ -33,15 +34,6 @@ export async function pngClaiming(width: number, height: number) {
   png.writeUInt32BE(height, 20);
   png.writeUInt32BE(crc32(png.subarray(12, 29)), 29);
   return png;
-}
-
-function crc32(buf: Buffer) {
-  let c = ~0;
-  for (const byte of buf) {
-    c ^= byte;
-    for (let k = 0; k < 8; k++) c = c & 1 ? (c >>> 1) ^ 0xedb88320 : c >>> 1;
-  }
-  return ~c >>> 0;
 }
 
 /** Every file under uploads/ (masters, derivatives, tiles), to check that a refusal leaves nothing behind. */
