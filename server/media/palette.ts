@@ -1,4 +1,5 @@
 import { deltaE00, labToHex, shadeName, tradeShade, type Lab } from '../../shared/colour/index.ts';
+import { backgroundColours } from './background.ts';
 import { decode, linearToLab } from './fast-lab.ts';
 
 /**
@@ -46,11 +47,6 @@ const BINS = PER_CHANNEL ** 3;
 const U8_BIN = Int32Array.from({ length: 256 }, (_, v) => EXTRA + (v >> 2));
 const binOfValue = (v: number) =>
   v < 0 ? EXTRA - 1 - Math.min(EXTRA - 1, (-v / 16) | 0) : v < 256 ? EXTRA + (v >> 2) : EXTRA + 64 + Math.min(EXTRA - 1, ((v - 256) / 16) | 0);
-const BORDER_FRACTION = 0.03; // width of the border band, of the shorter side
-const BG_BORDER_SHARE = 0.3; // a background colour covers at least this much of the band
-const BG_MAX_CHROMA = 10; // …and is near-neutral (C*ab)
-const BG_MAX_ENCLOSED = 0.5; // …and at most this share of it lies between cloth pixels (else it is the cloth's own ground)
-const CLOTH_MIN_AREA = 0.0002; // cloth components smaller than this share of the frame (noise, stray pixels) are ignored
 
 /** A small deterministic PRNG (mulberry32) so the same photo always gives the same palette. */
 function rng(seed: number) {
@@ -257,81 +253,6 @@ function assignAll(h: Hist, centres: number[][]) {
   return { assign, weight };
 }
 
-/** Pixels of `isBg` clusters reachable from the image border through such pixels. */
-function borderConnected(img: RawImage, pixelLabel: (p: number) => number, isBg: boolean[]) {
-  const { width, height } = img;
-  const seen = new Uint8Array(width * height);
-  const stack: number[] = [];
-  const push = (p: number) => {
-    if (seen[p]) return;
-    const l = pixelLabel(p);
-    if (l < 0 || !isBg[l]) return;
-    seen[p] = 1;
-    stack.push(p);
-  };
-  for (let x = 0; x < width; x++) { push(x); push((height - 1) * width + x); }
-  for (let y = 0; y < height; y++) { push(y * width); push(y * width + width - 1); }
-  const counts = isBg.map(() => 0);
-  while (stack.length) {
-    const p = stack.pop()!;
-    counts[pixelLabel(p)]++;
-    const x = p % width, y = (p - x) / width;
-    if (x > 0) push(p - 1);
-    if (x < width - 1) push(p + 1);
-    if (y > 0) push(p - width);
-    if (y < height - 1) push(p + width);
-  }
-  return counts;
-}
-
-/**
- * Share of colour c's pixels that lie between pixels of the cloth (every other colour, in
- * components big enough not to be noise) on their row or on their column. A mount or backdrop
- * lies outside the cloth's outline, so almost none of it does; the ground of a close-up that
- * fills the frame lies between its motifs, so most of it does.
- */
-function enclosedShare(labels: Int32Array, width: number, height: number, c: number) {
-  const n = width * height;
-  const seen = new Uint8Array(n), keep = new Uint8Array(n);
-  const order = new Int32Array(n);
-  const minArea = Math.max(16, Math.round(CLOTH_MIN_AREA * n));
-  const isCloth = (p: number) => labels[p] >= 0 && labels[p] !== c;
-  for (let start = 0; start < n; start++) {
-    if (seen[start] || !isCloth(start)) continue;
-    // Flood one 4-connected component; `order` doubles as its pixel list and the stack.
-    let head = 0, tail = 0;
-    order[tail++] = start;
-    seen[start] = 1;
-    while (head < tail) {
-      const p = order[head++];
-      const x = p % width;
-      if (x > 0 && !seen[p - 1] && isCloth(p - 1)) { seen[p - 1] = 1; order[tail++] = p - 1; }
-      if (x < width - 1 && !seen[p + 1] && isCloth(p + 1)) { seen[p + 1] = 1; order[tail++] = p + 1; }
-      if (p >= width && !seen[p - width] && isCloth(p - width)) { seen[p - width] = 1; order[tail++] = p - width; }
-      if (p < n - width && !seen[p + width] && isCloth(p + width)) { seen[p + width] = 1; order[tail++] = p + width; }
-    }
-    if (tail >= minArea) for (let k = 0; k < tail; k++) keep[order[k]] = 1;
-  }
-  const rowMin = new Int32Array(height).fill(width), rowMax = new Int32Array(height).fill(-1);
-  const colMin = new Int32Array(width).fill(height), colMax = new Int32Array(width).fill(-1);
-  for (let p = 0; p < n; p++) {
-    if (!keep[p]) continue;
-    const x = p % width, y = (p - x) / width;
-    if (x < rowMin[y]) rowMin[y] = x;
-    if (x > rowMax[y]) rowMax[y] = x;
-    if (y < colMin[x]) colMin[x] = y;
-    if (y > colMax[x]) colMax[x] = y;
-  }
-  let inside = 0, all = 0;
-  for (let p = 0; p < n; p++) {
-    if (labels[p] !== c) continue;
-    all++;
-    const x = p % width, y = (p - x) / width;
-    if ((x > rowMin[y] && x < rowMax[y]) || (y > colMin[x] && y < colMax[x])) inside++;
-  }
-  return all ? inside / all : 0;
-}
-
 function maskOf(img: RawImage, exclude: Rect[]): Uint8Array | null {
   if (!exclude.length) return null;
   const mask = new Uint8Array(img.width * img.height);
@@ -360,29 +281,12 @@ export function extractPalette(img: RawImage, options: PaletteOptions = {}): Ext
     else break;
   }
 
-  const isBg = centres.map(() => false);
+  let isBg = centres.map(() => false);
   if (detectBackground) {
-    const band = Math.max(1, Math.round(BORDER_FRACTION * Math.min(img.width, img.height)));
-    const inBand = centres.map(() => 0);
-    let bandTotal = 0;
-    for (let y = 0; y < img.height; y++) {
-      for (let x = 0; x < img.width; x++) {
-        if (x >= band && x < img.width - band && y >= band && y < img.height - band) continue;
-        const j = binAt(h, y * img.width + x);
-        if (j < 0) continue;
-        inBand[assign[j]]++;
-        bandTotal++;
-      }
-    }
-    centres.forEach((c, i) => { isBg[i] = bandTotal > 0 && inBand[i] / bandTotal >= BG_BORDER_SHARE && Math.hypot(c[1], c[2]) <= BG_MAX_CHROMA; });
-    if (isBg.some(Boolean)) {
-      const labels = new Int32Array(img.width * img.height);
-      for (let p = 0; p < labels.length; p++) { const j = binAt(h, p); labels[p] = j < 0 ? -1 : assign[j]; }
-      const reached = borderConnected(img, (p) => labels[p], isBg);
-      centres.forEach((_, i) => { if (isBg[i] && reached[i] < 0.5 * weight[i]) isBg[i] = false; });
-      // A ground that fills the frame, with the motifs inside it, is cloth, whatever its colour.
-      centres.forEach((_, i) => { if (isBg[i] && enclosedShare(labels, img.width, img.height, i) > BG_MAX_ENCLOSED) isBg[i] = false; });
-    }
+    // Each pixel's colour (-1 where excluded), for the spatial tests of background.ts.
+    const labels = new Int32Array(img.width * img.height);
+    for (let p = 0; p < labels.length; p++) { const j = binAt(h, p); labels[p] = j < 0 ? -1 : assign[j]; }
+    isBg = backgroundColours({ width: img.width, height: img.height, labels, centres, weight });
   }
 
   const spreadAcc = centres.map(() => 0);
