@@ -1,3 +1,4 @@
+import { IMAGE_ESTIMATE_CONDITIONS } from '../../shared/colour/conditions.ts';
 import { xywhSelector } from '../../shared/schemas/photo.ts';
 import type { PaletteColour, Photo, Region } from '../models/index.ts';
 import { abilities, can, type Actor } from '../policies/index.ts';
@@ -15,7 +16,9 @@ export function presentColour(c: PaletteColour) {
     name: c.name,
     tradeName: c.tradeName,
     background: c.background,
-    source: 'image estimate' as const,
+    // Computed from the photo's RGB colour space: CIELAB D65, 2° observer.
+    source: 'image-estimate' as const,
+    ...IMAGE_ESTIMATE_CONDITIONS,
   };
 }
 

@@ -1,6 +1,7 @@
 import type { Actor } from '../policies/index.ts';
 import { can } from '../policies/index.ts';
 import type { FacetCounts, FacetName, SearchFilters, SearchItem, SearchQuery, SearchResponse, ShadeItem, ShadeQuery, ShadeResponse } from '../../shared/schemas/search.ts';
+import { IMAGE_ESTIMATE_CONDITIONS } from '../../shared/colour/conditions.ts';
 import { hexToLab, labToHex } from '../../shared/search/lab.ts';
 import { searchEngine } from './engine.ts';
 import { countMatched, FACETS, type FacetTable, facetTableFor, norm } from './facet-table.ts';
@@ -202,7 +203,7 @@ export async function runShade({ actor, input }: { actor: Actor; input: ShadeQue
       accessionNumber: doc.accessionNumber,
       title: doc.title,
       photoId: m.photoId,
-      colour: { hex: m.hex, lab: { L: round(m.L, 2), a: round(m.a, 2), b: round(m.b, 2) }, share: round(m.share, 4) },
+      colour: { hex: m.hex, lab: { L: round(m.L, 2), a: round(m.a, 2), b: round(m.b, 2) }, share: round(m.share, 4), source: 'image-estimate' as const, ...IMAGE_ESTIMATE_CONDITIONS },
       deltaE00: round(m.deltaE00, 3),
     };
   });

@@ -12,7 +12,7 @@ export type ViewingConditions = { illuminant: Illuminant; observer: Observer };
  * Photo palettes are computed from the photo's RGB colour space (sRGB, whose white is D65 and
  * whose primaries are defined on the CIE 1931 2° observer), so every image estimate is D65/2°.
  */
-export const IMAGE_ESTIMATE_CONDITIONS: ViewingConditions = { illuminant: 'D65', observer: '2' };
+export const IMAGE_ESTIMATE_CONDITIONS = { illuminant: 'D65', observer: '2' } as const satisfies ViewingConditions;
 
 export const SOURCE_WORDS: Record<ColourSource, string> = { instrument: 'instrument reading', 'image-estimate': 'image estimate' };
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { HEX_RE } from '../search/lab.ts';
+import type { IMAGE_ESTIMATE_CONDITIONS } from '../colour/conditions.ts';
 
 // A facet parameter may be repeated (?dyestuff=madder&dyestuff=weld).
 const many = z
@@ -85,7 +86,8 @@ export type ShadeItem = {
   accessionNumber: string;
   title: string;
   photoId: number;
-  colour: { hex: string; lab: { L: number; a: number; b: number }; share: number };
+  /** A palette colour: an image estimate, CIELAB D65/2°. */
+  colour: { hex: string; lab: { L: number; a: number; b: number }; share: number; source: 'image-estimate' } & typeof IMAGE_ESTIMATE_CONDITIONS;
   deltaE00: number;
 };
 export type ShadeResponse = { items: ShadeItem[]; total: number; page: number; pageSize: number; query: { L: number; a: number; b: number; hex: string; maxDeltaE: number } };

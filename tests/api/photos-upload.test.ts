@@ -30,7 +30,7 @@ describe('photo upload', () => {
     expect(photo.gps).toEqual({ latitude: 54.5, longitude: -2.25 });
     expect(photo.palette.length).toBeGreaterThan(0);
     expect(shareSum(photo.palette)).toBeCloseTo(1, 6);
-    expect(photo.palette[0]).toMatchObject({ hex: expect.stringMatching(/^#[0-9a-f]{6}$/), lab: { L: expect.any(Number), a: expect.any(Number), b: expect.any(Number) }, source: 'image estimate' });
+    expect(photo.palette[0]).toMatchObject({ hex: expect.stringMatching(/^#[0-9a-f]{6}$/), lab: { L: expect.any(Number), a: expect.any(Number), b: expect.any(Number) }, source: 'image-estimate', illuminant: 'D65', observer: '2' });
 
     const researcher = await signedInAgent(app, 'researcher');
     const seen = await researcher.get(`/api/pieces/${pieceId}`).expect(200);

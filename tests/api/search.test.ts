@@ -150,7 +150,7 @@ describe('GET /api/search/shade', () => {
     const q = hexToLab('#9b2f2f');
     // madderA holds #9b2f2f itself; madderB's #a0342e is ΔE00 ≈ 1.4 away (computed here by the same formula checked against Sharma 2005).
     expect(res.body.items.map((i: { pieceId: number }) => i.pieceId)).toEqual([madderA.id, madderB.id]);
-    expect(res.body.items[0]).toMatchObject({ accessionNumber: madderA.accessionNumber, colour: { hex: '#9b2f2f', share: 0.6 }, deltaE00: 0 });
+    expect(res.body.items[0]).toMatchObject({ accessionNumber: madderA.accessionNumber, colour: { hex: '#9b2f2f', share: 0.6, source: 'image-estimate', illuminant: 'D65', observer: '2' }, deltaE00: 0 });
     expect(res.body.items[1].deltaE00).toBeCloseTo(deltaE00(q, hexToLab('#a0342e')), 3);
     expect(res.body.items[1].photoId).toEqual(expect.any(Number));
     const labQuery = await request(app).get('/api/search/shade').query({ ...q, maxDeltaE: 5, q: word('pomegranate') });
