@@ -63,7 +63,7 @@ const CONVERSIONS: Record<PhotoColourFacts['conversion'], string> = {
 export function colourFactsLines(facts: PhotoColourFacts | null): string[] {
   if (!facts) return ['Colour facts not recorded (uploaded before they were kept).'];
   return [
-    facts.profile ? `Profile: ${facts.profile} (embedded)` : 'Profile: none: taken as sRGB',
+    facts.profile ? `Profile: ${facts.profile} (embedded)` : 'No embedded colour profile: taken as sRGB',
     `${facts.bitDepth} bits per channel, ${facts.colourSpace}${facts.cmykConverted ? ', converted from CMYK' : ''}`,
     `Colours ${CONVERSIONS[facts.conversion]}`,
   ];

@@ -64,6 +64,9 @@ describe('cataloguing a piece in Chromium', () => {
     await expect(colours.first().textContent()).resolves.toMatch(/#[0-9a-f]{6}.*L\*.*a\*.*b\*.*share/s);
     // The palette carries the shared viewing-conditions label: photo estimates are D65/2° (was "source: image estimate").
     await page.getByText('image estimate · D65/2°').first().waitFor();
+    // The test JPEG carries no ICC profile: its file facts say it was taken as sRGB.
+    await page.getByText('File facts').first().click();
+    await expect(page.getByTestId('colour-facts').first().textContent()).resolves.toMatch(/No embedded colour profile: taken as sRGB.*8 bits/s);
 
     await page.getByRole('button', { name: 'Publish' }).click();
     await page.getByRole('button', { name: 'Unpublish' }).waitFor();
