@@ -1,4 +1,5 @@
 import { useEffect, useState } from 'react';
+import { conditionsText, IMAGE_ESTIMATE_CONDITIONS } from '../../../../shared/colour/conditions';
 import { HEX_RE, hexToLab, labToHex } from '../../../../shared/search/lab';
 import { Field } from '../../../components/form/Field';
 import { Button } from '../../../components/Button';
@@ -60,6 +61,9 @@ export function ColourChooser({
         </label>
         <Field label="Hex" value={hex} onChange={(e) => setHex(e.target.value)} placeholder="9b2f2f" className="flex-1 font-mono" error={err('hex')} />
       </div>
+      <p className="text-xs text-ink-soft">
+        CIELAB under {conditionsText(IMAGE_ESTIMATE_CONDITIONS)}, the conditions of the palettes searched (image estimates); a hex is read as sRGB.
+      </p>
       <div className="grid grid-cols-3 gap-2">
         <Field label="L*" inputMode="decimal" className="num" value={lab.L} onChange={(e) => setLab({ ...lab, L: e.target.value })} error={err('L')} />
         <Field label="a*" inputMode="decimal" className="num" value={lab.a} onChange={(e) => setLab({ ...lab, a: e.target.value })} error={err('a')} />
