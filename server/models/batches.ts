@@ -32,6 +32,8 @@ export class BatchEvent extends Model<InferAttributes<BatchEvent>, InferCreation
   declare volumeMl: number | null;
   declare fibreMassG: number | null;
   declare trialId: number | null;
+  /** The recipe step this use belongs to: the step owns the draw (edited and removed with it). */
+  declare stepId: CreationOptional<number | null>;
   declare additions: BatchIngredient[] | null;
   declare ph: number | null;
   declare result: string | null;
@@ -78,6 +80,7 @@ export function initBatchModels(sequelize: Sequelize) {
       volumeMl: DataTypes.DOUBLE,
       fibreMassG: DataTypes.DOUBLE,
       trialId: fk(),
+      stepId: fk(),
       additions: DataTypes.JSON,
       ph: { type: DataTypes.DECIMAL(4, 2), allowNull: true },
       result: DataTypes.STRING(255),

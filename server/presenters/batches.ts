@@ -4,7 +4,7 @@ import type { BatchEvent, MordantBatch } from '../models/index.ts';
 import type { Figures } from '../services/batches/ledger-figures.ts';
 
 export const presentBatchEvent = (e: BatchEvent, trialCodes: ReadonlyMap<number, string> = new Map()) => ({
-  id: e.id, type: e.type, volumeMl: e.volumeMl, fibreMassG: e.fibreMassG, trialId: e.trialId, trialCode: e.trialId ? (trialCodes.get(e.trialId) ?? null) : null, additions: e.additions, ph: e.ph,
+  id: e.id, type: e.type, volumeMl: e.volumeMl, fibreMassG: e.fibreMassG, trialId: e.trialId, stepId: e.stepId ?? null, trialCode: e.trialId ? (trialCodes.get(e.trialId) ?? null) : null, additions: e.additions, ph: e.ph,
   result: e.result, route: e.route, ruleFollowed: e.ruleFollowed, notes: e.notes, occurredAt: e.occurredAt.toISOString(), createdById: e.createdById,
 });
 

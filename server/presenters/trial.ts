@@ -49,7 +49,7 @@ type DetailParts = {
   photos: Photo[];
   chemicals: Map<number, Chemical>;
   dyestuffs: Map<number, Dyestuff>;
-  batches: Map<number, { id: number; code: string; name: string }>;
+  batches: Map<number, { id: number; code: string; name: string; status: string; remainingMl: number }>;
   colour: Colour;
 };
 

@@ -85,6 +85,8 @@ export async function seedDemo(t: Transaction) {
   // Trials
   let seq = 0;
   const trials: Trial[] = [];
+  // The step that owns each bath's draw (one recipe step per demo bath), for its ledger event.
+  const drawStep: Record<string, number> = {};
   const makeTrial = async (attrs: Partial<Trial['_creationAttributes']>, steps: StepSpec[], subs: Array<Partial<Substitution['_creationAttributes']>> = []) => {
     seq += 1;
     const trial = await Trial.create(
@@ -106,6 +108,7 @@ export async function seedDemo(t: Transaction) {
         },
         { transaction: t },
       );
+      if (s.batchCode) drawStep[s.batchCode] = step.id;
       for (const sub of subs.filter((x) => x.stepId === i + 1)) {
         await Substitution.create({ trialId: trial.id, historicalChemicalId: null, historicalPractice: null, historicalAmountG: null, modernChemicalId: null, modernPractice: null, modernAmountG: null, reason: 'toxicity', notes: null, ...sub, stepId: step.id }, { transaction: t });
       }
@@ -183,7 +186,7 @@ export async function seedDemo(t: Transaction) {
   await reading({ trialId: trials[0].id, L: 46.2, a: 44.9, b: 35.8, label: `${trials[0].code} swatch`, illuminant: 'A' });
 
   // Events on the batches, in order; MB-07 topped up twice, then exhausted.
-  await ev(mb07.id, 'use', '2024-03-12', { volumeMl: 160, fibreMassG: 250, trialId: t1.id });
+  await ev(mb07.id, 'use', '2024-03-12', { volumeMl: 160, fibreMassG: 250, trialId: t1.id, stepId: drawStep['MB-07'] });
   await ev(mb07.id, 'use', '2024-03-14', { volumeMl: 400, fibreMassG: 250 });
   await ev(mb07.id, 'top-up', '2024-03-15', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 35 }, { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 17 }], volumeMl: 400 });
   await ev(mb07.id, 'use', '2024-03-20', { volumeMl: 600, fibreMassG: 300 });
@@ -192,8 +195,8 @@ export async function seedDemo(t: Transaction) {
   await ev(mb07.id, 'use', '2024-04-02', { volumeMl: 900, fibreMassG: 400 });
   await ev(mb07.id, 'use', '2024-04-10', { volumeMl: 640, fibreMassG: 350 });
   await ev(mb07.id, 'test-strip', '2024-04-11', { result: 'strip pale pink only: bath exhausted' });
-  await ev(mb08.id, 'use', '2024-03-12', { volumeMl: 120, fibreMassG: 250, trialId: trials[1].id });
-  await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, fibreMassG: 250, trialId: trials[2].id });
+  await ev(mb08.id, 'use', '2024-03-12', { volumeMl: 120, fibreMassG: 250, trialId: trials[1].id, stepId: drawStep['MB-08'] });
+  await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, fibreMassG: 250, trialId: trials[2].id, stepId: drawStep['MB-09'] });
 
   // The workshop: six shades per participant from shared baths.
   // Factors say what they change in the recipe, so the series can scale it and list the materials.

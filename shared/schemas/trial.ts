@@ -103,6 +103,8 @@ export const pasteSchema = z.object({
 });
 
 export const stepSchema = z.object({
+  /** The stored step this one continues (sent back by the editor), so its bath draw is edited rather than drawn again. */
+  id: optionalId,
   operation: z.enum(OPERATIONS),
   ingredients: z.array(ingredientSchema).max(20).default([]),
   liquorRatio: positive('Liquor ratio').max(500).nullable().optional(),
@@ -113,6 +115,10 @@ export const stepSchema = z.object({
   batchId: optionalId,
   batchVolumeMl: positive('Volume drawn').nullable().optional(),
   notes: text(2000),
+}).superRefine((s, ctx) => {
+  // A draw is a bath and a volume together: one without the other would be saved as half a record.
+  if (s.batchId != null && s.batchVolumeMl == null) ctx.addIssue({ code: 'custom', path: ['batchVolumeMl'], message: 'Enter the volume drawn from the bath, in mL' });
+  if (s.batchId == null && s.batchVolumeMl != null) ctx.addIssue({ code: 'custom', path: ['batchId'], message: 'Choose the bath this volume is drawn from' });
 });
 export type StepInput = z.input<typeof stepSchema>;
 

@@ -5,6 +5,7 @@ import { forbidden, notFound } from '../../http/errors.ts';
 import { Chemical, ColourMeasurement, Dyestuff, MordantBatch, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import { presentTrial, presentTrialSummary, trialPolicyRecord } from '../../presenters/trial.ts';
+import { figuresFor, loadEvents, thickenerIds } from '../../services/batches/index.ts';
 import { trialColour } from '../../services/trials/colour.ts';
 
 const withPeople = [
@@ -43,13 +44,16 @@ export async function presentTrialDetail(actor: Actor, trial: Trial & { piece?: 
   const [chemicals, dyestuffs, batches] = await Promise.all([
     Chemical.findAll({ where: { id: [...chemIds] } }),
     Dyestuff.findAll({ where: { id: [...dyeIds] } }),
-    MordantBatch.findAll({ where: { id: batchIds }, attributes: ['id', 'code', 'name'] }),
+    MordantBatch.findAll({ where: { id: batchIds } }),
   ]);
+  // What each bath holds now, from its replayed ledger: the recipe's scaling warns against it.
+  const thick = batches.length ? await thickenerIds() : new Set<number>();
+  const held = new Map(await Promise.all(batches.map(async (b) => [b.id, figuresFor(b, await loadEvents(b.id), thick).remainingMl] as const)));
   return presentTrial(trial, actor, {
     steps, substitutions, measurements, photos, colour,
     chemicals: new Map(chemicals.map((c) => [c.id, c])),
     dyestuffs: new Map(dyestuffs.map((d) => [d.id, d])),
-    batches: new Map(batches.map((b) => [b.id, { id: b.id, code: b.code, name: b.name }])),
+    batches: new Map(batches.map((b) => [b.id, { id: b.id, code: b.code, name: b.name, status: b.status, remainingMl: held.get(b.id) ?? 0 }])),
   });
 }
 

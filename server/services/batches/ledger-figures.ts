@@ -72,3 +72,16 @@ export function checkEvent(b: MordantBatch, events: BatchEvent[], input: BatchEv
   if (!res.ok) throw asHttp(res.error);
   return res.ledger;
 }
+
+/**
+ * Replay a whole changed history (events edited, removed or added in place): the ledger after it, or the
+ * refusal as an HTTP error. Stored disposals count as accepted when they were recorded.
+ */
+export function checkHistory(b: MordantBatch, events: EventLike[], thickenerIds: ReadonlySet<number>) {
+  try {
+    return computeLedger(ledgerBatch(b, thickenerIds), events.map((e) => ledgerEvent(e.type === 'disposal' ? { ...e, reason: 'accepted when recorded' } : e, thickenerIds)));
+  } catch (err) {
+    if (err instanceof LedgerError) throw asHttp(err);
+    throw err;
+  }
+}

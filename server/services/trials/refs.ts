@@ -46,7 +46,7 @@ export async function loadIngredientRefs(steps: Array<{ ingredients: Array<{ kin
       const known = ing.kind === 'chemical' ? chemicals.has(ing.refId) : dyestuffs.has(ing.refId);
       if (!known) fields[`steps.${i}.ingredients.${j}.refId`] = [`No such ${ing.kind} in the reference.`];
     });
-    if (s.batchId != null && !batches.has(s.batchId)) fields[`steps.${i}.batchId`] = ['No such batch.'];
+    if (s.batchId != null && !batches.has(s.batchId)) fields[`steps.${i}.batchId`] = ['Choose a bath from the list.'];
   });
   if (Object.keys(fields).length) throw badRequest('Some fields are not valid.', { fields });
   return { chemicals, dyestuffs };

@@ -6,6 +6,7 @@ import { ColourMeasurement, RecipeStep, Substitution, Trial } from '../../models
 import type { Actor } from '../../policies/index.ts';
 import { checkChemical, checkPiece, checkTarget, loadIngredientRefs } from './refs.ts';
 import { nextTrialCode } from './code.ts';
+import { oldDraws, syncStepDraws } from '../batches/step-draws.ts';
 
 type Ctx<I> = { actor: Actor; transaction: Transaction; input: I };
 
@@ -42,8 +43,11 @@ export async function updateTrial({ transaction, input }: Ctx<TrialUpdateInput &
   return trial;
 }
 
-export async function deleteTrial({ transaction, input }: Ctx<{ trial: Trial }>) {
+export async function deleteTrial({ actor, transaction, input }: Ctx<{ trial: Trial }>) {
   const trialId = input.trial.id;
+  const old = await RecipeStep.findAll({ where: { trialId }, transaction, lock: transaction.LOCK.UPDATE });
+  // Its steps' draws go with it (a disposed bath keeps its closed ledger as it is).
+  await syncStepDraws({ transaction, trialId, actorId: actor?.id ?? null, fibreMassG: input.trial.dryMassG, old: oldDraws(old), steps: [], closing: true });
   await Substitution.destroy({ where: { trialId }, transaction });
   await RecipeStep.destroy({ where: { trialId }, transaction });
   await ColourMeasurement.destroy({ where: { trialId }, transaction });
@@ -54,10 +58,12 @@ export async function deleteTrial({ transaction, input }: Ctx<{ trial: Trial }>)
  * Replace the ordered recipe in one go. Substitutions keep pointing at the step in
  * the same position; those whose position disappears lose their step link.
  */
-export async function replaceSteps({ transaction, input }: Ctx<StepsInput & { trial: Trial }>) {
+export async function replaceSteps({ actor, transaction, input }: Ctx<StepsInput & { trial: Trial }>) {
   const { steps } = stepsSchema.parse({ steps: input.steps });
   const { chemicals, dyestuffs } = await loadIngredientRefs(steps, transaction);
   const trialId = input.trial.id;
+  // The trial row first: two saves of one recipe queue here even when it has no steps yet to lock.
+  await Trial.findByPk(trialId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
   const old = await RecipeStep.findAll({ where: { trialId }, order: [['position', 'ASC']], transaction, lock: transaction.LOCK.UPDATE });
   const positionOf = new Map(old.map((s) => [s.id, s.position]));
   const subs = await Substitution.findAll({ where: { trialId }, transaction });
@@ -72,6 +78,16 @@ export async function replaceSteps({ transaction, input }: Ctx<StepsInput & { tr
     })),
     { transaction },
   );
+  // Each step continues the stored step whose id it carries; a request without ids continues by position.
+  const oldIds = new Set(old.map((s) => s.id));
+  const byIds = steps.some((s) => s.id != null);
+  await syncStepDraws({
+    transaction, trialId, actorId: actor?.id ?? null, fibreMassG: input.trial.dryMassG, old: oldDraws(old),
+    steps: steps.map((s, i) => ({
+      index: i, stepId: created[i].id, batchId: s.batchId ?? null, volumeMl: s.batchVolumeMl ?? null,
+      continues: byIds ? (s.id != null && oldIds.has(s.id) ? s.id : null) : (old[i]?.id ?? null),
+    })),
+  });
   const byPosition = new Map(created.map((s) => [s.position, s.id]));
   for (const sub of subs) {
     const pos = sub.stepId != null ? positionOf.get(sub.stepId) : undefined;
