@@ -1,4 +1,5 @@
 import express, { Router } from 'express';
+import { Transaction } from 'sequelize';
 import { childParams, idParams, measurementSchema, stepsSchema, substitutionSchema, trialCreateSchema, trialListQuerySchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { badRequest, forbidden, notFound } from '../../http/errors.ts';
@@ -15,6 +16,11 @@ import { trialPhotosRouter } from './photos.ts';
 import { pieceTrialsRouter } from './pieces.ts';
 
 export { pieceTrialsRouter };
+
+// Saving a recipe changes bath ledgers. Read committed: the ledger read after a bath row's lock sees every draw
+// committed before it (a repeatable-read snapshot taken at the first read would not), and no gap locks make
+// saves of different trials deadlock on their step inserts.
+const drawing = { isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED };
 export const trialsRouter = Router();
 
 // Every trial route is for signed-in people only: visitors get 401 before anything is looked up.
@@ -57,7 +63,7 @@ trialsRouter.delete('/:id', async (req, res) => {
   const { id } = parseParams(idParams, req);
   const trial = await loadReadableTrial(actor, id);
   if (!can(actor, 'trial:delete', { ownerId: trial.dyerId })) throw forbidden('Only the dyer who keeps this trial may delete it.');
-  await sequelize.transaction((transaction) => deleteTrial({ actor, transaction, input: { trial } }));
+  await sequelize.transaction(drawing, (transaction) => deleteTrial({ actor, transaction, input: { trial } }));
   res.status(204).end();
 });
 
@@ -67,7 +73,7 @@ trialsRouter.put('/:id/steps', async (req, res) => {
   const { id } = parseParams(idParams, req);
   const input = parseBody(stepsSchema, req);
   const trial = await loadWritableTrial(actor, id);
-  await sequelize.transaction((transaction) => replaceSteps({ actor, transaction, input: { ...input, trial } }));
+  await sequelize.transaction(drawing, (transaction) => replaceSteps({ actor, transaction, input: { ...input, trial } }));
   const detail = await presentTrialDetail(actor, trial);
   res.json({ trial: detail, warnings: detail.warnings, warning: detail.warnings.length > 0 });
 });

@@ -110,4 +110,14 @@ export async function syncStepDraws({ transaction, trialId, actorId, fibreMassG,
   for (const r of repoint) if (!removed.has(r.event.id) && r.event.stepId !== r.stepId) await r.event.update({ stepId: r.stepId }, { transaction });
 }
 
+/**
+ * Lock the baths a recipe save may touch, in id order, before its steps are written: inserting a step
+ * that names a bath takes a shared lock on the bath row (its foreign key), and two saves holding that
+ * shared lock would deadlock asking for the row's update lock afterwards.
+ */
+export async function lockBaths(ids: Array<number | null | undefined>, transaction: Transaction) {
+  const wanted = [...new Set(ids.filter((x): x is number => x != null))].sort((a, b) => a - b);
+  if (wanted.length) await MordantBatch.findAll({ where: { id: { [Op.in]: wanted } }, order: [['id', 'ASC']], transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
+}
+
 export const oldDraws = (steps: RecipeStep[]): OldDraw[] => steps.map((s) => ({ id: s.id, batchId: s.batchId, volumeMl: s.batchVolumeMl }));

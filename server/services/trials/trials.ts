@@ -6,7 +6,7 @@ import { ColourMeasurement, RecipeStep, Substitution, Trial } from '../../models
 import type { Actor } from '../../policies/index.ts';
 import { checkChemical, checkPiece, checkTarget, loadIngredientRefs } from './refs.ts';
 import { nextTrialCode } from './code.ts';
-import { oldDraws, syncStepDraws } from '../batches/step-draws.ts';
+import { lockBaths, oldDraws, syncStepDraws } from '../batches/step-draws.ts';
 
 type Ctx<I> = { actor: Actor; transaction: Transaction; input: I };
 
@@ -45,7 +45,8 @@ export async function updateTrial({ transaction, input }: Ctx<TrialUpdateInput &
 
 export async function deleteTrial({ actor, transaction, input }: Ctx<{ trial: Trial }>) {
   const trialId = input.trial.id;
-  const old = await RecipeStep.findAll({ where: { trialId }, transaction, lock: transaction.LOCK.UPDATE });
+  await Trial.findByPk(trialId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
+  const old = await RecipeStep.findAll({ where: { trialId }, transaction });
   // Its steps' draws go with it (a disposed bath keeps its closed ledger as it is).
   await syncStepDraws({ transaction, trialId, actorId: actor?.id ?? null, fibreMassG: input.trial.dryMassG, old: oldDraws(old), steps: [], closing: true });
   await Substitution.destroy({ where: { trialId }, transaction });
@@ -62,9 +63,11 @@ export async function replaceSteps({ actor, transaction, input }: Ctx<StepsInput
   const { steps } = stepsSchema.parse({ steps: input.steps });
   const { chemicals, dyestuffs } = await loadIngredientRefs(steps, transaction);
   const trialId = input.trial.id;
-  // The trial row first: two saves of one recipe queue here even when it has no steps yet to lock.
+  // The trial row, not its steps, is locked: two saves of one recipe queue here, and no gap locks on
+  // recipe_steps make saves of different trials deadlock on their inserts.
   await Trial.findByPk(trialId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
-  const old = await RecipeStep.findAll({ where: { trialId }, order: [['position', 'ASC']], transaction, lock: transaction.LOCK.UPDATE });
+  const old = await RecipeStep.findAll({ where: { trialId }, order: [['position', 'ASC']], transaction });
+  await lockBaths([...old.map((s) => s.batchId), ...steps.map((s) => s.batchId)], transaction);
   const positionOf = new Map(old.map((s) => [s.id, s.position]));
   const subs = await Substitution.findAll({ where: { trialId }, transaction });
   await Substitution.update({ stepId: null }, { where: { trialId }, transaction });
