@@ -4,24 +4,25 @@ import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { ApiError } from '../../../lib/http';
 import { useChemicals, useDyestuffs } from '../../reference/api';
+import { useBatches } from '../../batches/api';
 import { useReplaceSteps, type TrialView } from '../api';
 
 type Ing = { kind: 'dyestuff' | 'chemical'; refId: string; amount: string; basis: string };
-type Draft = { operation: string; liquorRatio: string; temperatureC: string; minutes: string; ph: string; pasteVolumeMl: string; stockGPerL: string; batchId: string; batchVolumeMl: string; notes: string; ingredients: Ing[] };
+type Draft = { id: number | null; operation: string; liquorRatio: string; temperatureC: string; minutes: string; ph: string; pasteVolumeMl: string; stockGPerL: string; batchId: string; batchVolumeMl: string; notes: string; ingredients: Ing[] };
 
 const s = (x: number | null | undefined) => (x == null ? '' : String(x));
 const n = (x: string) => (x.trim() === '' ? null : Number(x));
 const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-1.5 text-sm';
 
 const fromStep = (st: TrialView['steps'][number]): Draft => ({
-  operation: st.operation, liquorRatio: s(st.liquorRatio), temperatureC: s(st.temperatureC), minutes: s(st.minutes), ph: s(st.ph),
+  id: st.id, operation: st.operation, liquorRatio: s(st.liquorRatio), temperatureC: s(st.temperatureC), minutes: s(st.minutes), ph: s(st.ph),
   pasteVolumeMl: s(st.paste?.volumeMl), stockGPerL: s(st.paste?.stockGPerL), batchId: s(st.batchId), batchVolumeMl: s(st.batchVolumeMl), notes: st.notes ?? '',
   ingredients: st.ingredients.map((i) => ({ kind: i.kind as Ing['kind'], refId: String(i.refId), amount: String(i.amount), basis: i.basis })),
 });
-const blank = (): Draft => ({ operation: 'dye-bath', liquorRatio: '30', temperatureC: '', minutes: '', ph: '', pasteVolumeMl: '', stockGPerL: '', batchId: '', batchVolumeMl: '', notes: '', ingredients: [] });
+const blank = (): Draft => ({ id: null, operation: 'dye-bath', liquorRatio: '30', temperatureC: '', minutes: '', ph: '', pasteVolumeMl: '', stockGPerL: '', batchId: '', batchVolumeMl: '', notes: '', ingredients: [] });
 
 const toInput = (d: Draft): StepInput => ({
-  operation: d.operation as StepInput['operation'],
+  id: d.id, operation: d.operation as StepInput['operation'],
   liquorRatio: n(d.liquorRatio), temperatureC: n(d.temperatureC), minutes: n(d.minutes), ph: n(d.ph),
   paste: d.pasteVolumeMl.trim() ? { volumeMl: Number(d.pasteVolumeMl), stockGPerL: n(d.stockGPerL) } : null,
   batchId: n(d.batchId), batchVolumeMl: n(d.batchVolumeMl), notes: d.notes || null,
@@ -43,6 +44,12 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
   const [steps, setSteps] = useState<Draft[]>(trial.steps.length ? trial.steps.map(fromStep) : [blank()]);
   const chemicals = useChemicals();
   const dyestuffs = useDyestuffs();
+  const activeBaths = useBatches({ status: 'active' });
+  // Active baths by code, plus any bath a stored step already draws from (it may since be exhausted).
+  const baths = [
+    ...(activeBaths.data?.items ?? []).map((b) => ({ id: b.id, label: `${b.code} — ${b.name} (${Math.round(b.remainingMl)} mL left)` })),
+    ...trial.steps.flatMap((st) => (st.batch && !activeBaths.data?.items.some((b) => b.id === st.batch!.id) ? [{ id: st.batch.id, label: `${st.batch.code} — ${st.batch.name} (${st.batch.status}, ${Math.round(st.batch.remainingMl)} mL left)` }] : [])),
+  ].filter((b, i, all) => all.findIndex((x) => x.id === b.id) === i);
   const save = useReplaceSteps(trial.id);
   const fields = save.error instanceof ApiError ? save.error.details?.fields : undefined;
   const err = (i: number, k: string) => fields?.[`steps.${i}.${k}`];
@@ -67,7 +74,13 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
             <Num label="pH" value={d.ph} onChange={(v) => update(i, { ph: v })} error={err(i, 'ph')} />
             <Num label="Paste volume" unit="mL" value={d.pasteVolumeMl} onChange={(v) => update(i, { pasteVolumeMl: v })} error={err(i, 'paste.volumeMl')} />
             <Num label="Stock strength" unit="g/L" value={d.stockGPerL} onChange={(v) => update(i, { stockGPerL: v })} error={err(i, 'paste.stockGPerL')} />
-            <Num label="Batch id" value={d.batchId} onChange={(v) => update(i, { batchId: v })} error={err(i, 'batchId')} />
+            <label className="block text-xs font-medium">Drawn from bath
+              <select className={`${input} ${err(i, 'batchId') ? 'border-danger' : ''}`} value={d.batchId} onChange={(e) => update(i, { batchId: e.target.value })} aria-invalid={err(i, 'batchId') ? true : undefined}>
+                <option value="">No bath</option>
+                {baths.map((b) => <option key={b.id} value={b.id}>{b.label}</option>)}
+              </select>
+              {err(i, 'batchId') ? <span className="text-danger">{err(i, 'batchId')!.join(' ')}</span> : null}
+            </label>
             <Num label="Volume drawn" unit="mL" value={d.batchVolumeMl} onChange={(v) => update(i, { batchVolumeMl: v })} error={err(i, 'batchVolumeMl')} />
           </div>
           <table className="mt-3 w-full text-sm">

@@ -1,5 +1,6 @@
 import { useMemo, useState } from 'react';
 import { basisLabels, operationLabels } from '../../../../shared/schemas/trial';
+import { drawWarnings, scaleDraw } from '../../../../shared/trials/draws';
 import { computeStep, scaleSteps, type StepComputed } from '../../../../shared/trials/quantities';
 import { ChemicalCaution } from '../../reference/components/ChemicalCaution';
 import { useChemicals } from '../../reference/api';
@@ -90,8 +91,9 @@ export function RecipeSection({ trial }: { trial: TrialView }) {
   const roles = useMemo(() => new Map((chemicals.data?.items ?? []).map((c) => [c.id, c.role as string])), [chemicals.data]);
   const rows = useMemo(() => {
     if (!scaling) return trial.steps.map((s) => ({ step: s, computed: s.computed }));
-    return scaleSteps(trial.steps, trial.dryMassG, target).map((s) => ({ step: s, computed: computeStep(s, target, roles) }));
+    return scaleSteps(trial.steps, trial.dryMassG, target).map((s) => ({ step: { ...s, batchVolumeMl: scaleDraw(s.batchVolumeMl, trial.dryMassG, target) }, computed: computeStep(s, target, roles) }));
   }, [scaling, trial, target, roles]);
+  const drawsShort = scaling ? drawWarnings(trial.steps, trial.dryMassG, target) : [];
 
   return (
     <section aria-labelledby="recipe-h" className="space-y-3">
@@ -105,6 +107,7 @@ export function RecipeSection({ trial }: { trial: TrialView }) {
       <p id="scale-note" className="text-xs text-ink-faint">
         {scaling ? <>Showing the recipe for <span className="font-mono">{fmt(target, 1)} g</span> dry fibre (recorded for <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span>): % owf, g/L and the liquor ratio stay; fixed grams and paste volumes scale by mass.</> : <>For <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span> dry fibre. Grams = % owf ÷ 100 × dry mass; water = fibre kg × n for 1:n; g/L = 10 × % owf ÷ n (common practice).</>}
       </p>
+      {drawsShort.map((w) => <p key={w.batchId} role="alert" className="rounded-md border border-warn bg-paper px-3 py-2 text-sm text-warn">{w.message}</p>)}
       {trial.steps.length === 0 ? <p className="text-ink-soft">No steps yet.</p> : (
         <div className="overflow-x-auto rounded-lg border border-rule bg-sheet">
           <table className="w-full text-sm">
