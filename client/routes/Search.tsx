@@ -20,7 +20,8 @@ export function Search() {
   const params: SearchParams = {};
   for (const k of new Set(url.keys())) params[k] = url.getAll(k).length > 1 ? url.getAll(k) : (url.get(k) ?? '');
   const hasShade = Boolean(url.get('hex') || url.get('L'));
-  const text = useSearch(params);
+  // With a shade chosen the shade answer carries the list and the facet counts; the words-only search is not needed.
+  const text = useSearch(params, !hasShade);
   const shade = useShade(params, hasShade);
   const [q, setQ] = useState(url.get('q') ?? '');
 
@@ -86,7 +87,7 @@ export function Search() {
       <div className="grid gap-6 md:grid-cols-[16rem_1fr]">
         <aside className="space-y-6">
           <ColourChooser value={choice} errors={shadeError?.details?.fields} onSearch={setShade} onClear={clearShade} />
-          <FacetList facets={text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
+          <FacetList facets={hasShade ? shade.data?.facets : text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
         </aside>
         <section aria-live="polite" aria-busy={text.isFetching || shade.isFetching}>
           {shadeError ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}

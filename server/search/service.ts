@@ -196,6 +196,7 @@ export async function runShade({ actor, input }: { actor: Actor; input: ShadeQue
   const lab = input.hex ? hexToLab(input.hex) : { L: input.L!, a: input.a!, b: input.b! };
   const offset = (input.page - 1) * input.limit;
   const res = searchEngine.shade.query({ ...lab, maxDeltaE: input.maxDeltaE, limit: input.limit, offset, allow: allowList(actor, input) });
+  const facets = shadeFacets(actor, input, lab, res.matched);
   const items: ShadeItem[] = res.items.map((m) => {
     const doc = searchEngine.text.pieces.get(m.pieceId)!;
     return {
@@ -208,7 +209,24 @@ export async function runShade({ actor, input }: { actor: Actor; input: ShadeQue
     };
   });
   const hex = input.hex ? `#${input.hex.replace('#', '').toLowerCase()}` : labToHex(lab);
-  return { items, total: res.total, page: input.page, pageSize: input.limit, query: { ...lab, hex, maxDeltaE: input.maxDeltaE } };
+  return { items, facets, total: res.total, page: input.page, pageSize: input.limit, query: { ...lab, hex, maxDeltaE: input.maxDeltaE } };
+}
+
+/**
+ * With a shade chosen, the facets count the shade's matches: pieces with a colour within the radius that
+ * also pass the words and filters. A widening facet's own counts ignore its own choice, so when one is
+ * chosen the shade is asked again with only the words applied, for the pieces those counts start from.
+ */
+function shadeFacets(actor: Actor, input: ShadeQuery, lab: { L: number; a: number; b: number }, matchedView: Int32Array): FacetCounts {
+  const t = facetTable();
+  const c = compile(selected(input), t);
+  const matched = Int32Array.from(matchedView);
+  let textMatched = matched;
+  if (c.facets.some((x) => !x.narrowing)) {
+    const words = searchEngine.shade.query({ ...lab, maxDeltaE: input.maxDeltaE, limit: 1, offset: 0, allow: allowList(actor, { q: input.q }) });
+    textMatched = Int32Array.from(words.matched);
+  }
+  return facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts'));
 }
 
 const round = (x: number, d: number) => Number(x.toFixed(d));

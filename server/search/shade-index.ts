@@ -265,7 +265,8 @@ export class ShadeIndex {
   }
 
   /** Pieces with a colour within maxDeltaE of the query, best colour each, ranked by ΔE00 then share; `total` counts all of them. */
-  query(q: ShadeQuery): { total: number; items: ShadeMatch[]; candidates: number } {
+  // `matched` lists every matching piece id (for facet counts); it is a view of a buffer reused by the next query.
+  query(q: ShadeQuery): { total: number; items: ShadeMatch[]; candidates: number; matched: Int32Array } {
     const { L: qL, a: qa, b: qb, maxDeltaE: r } = q;
     const k = this.kernel;
     k[K_L] = qL;
@@ -458,7 +459,7 @@ export class ShadeIndex {
     const onPage: number[] = [];
     for (let i = 0; i < total; i++) if (bestDe(matchedIds[i]) <= kthSlot[0]) onPage.push(matchedIds[i]);
     const top = selectTop(onPage, need, better);
-    return { total, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))), candidates };
+    return { total, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))), candidates, matched: matchedIds.subarray(0, total) };
   }
 
   private shareOf(slot: number) {

@@ -90,4 +90,4 @@ export type ShadeItem = {
   colour: { hex: string; lab: { L: number; a: number; b: number }; share: number; source: 'image-estimate' } & typeof IMAGE_ESTIMATE_CONDITIONS;
   deltaE00: number;
 };
-export type ShadeResponse = { items: ShadeItem[]; total: number; page: number; pageSize: number; query: { L: number; a: number; b: number; hex: string; maxDeltaE: number } };
+export type ShadeResponse = { items: ShadeItem[]; facets: FacetCounts; total: number; page: number; pageSize: number; query: { L: number; a: number; b: number; hex: string; maxDeltaE: number } };

@@ -180,6 +180,50 @@ describe('GET /api/search/shade', () => {
     expect((await find()).body.total).toBe(0);
   });
 
+  it('counts the facets over the shade’s matches, with and without words, as a plain count does', async () => {
+    type Row = { value: string; count: number };
+    const ours = (rows: Row[]) => rows.filter((r) => r.value.endsWith(u.toLowerCase()) || r.value.endsWith(u));
+    // A plain count over the pieces the shade returns, from what each was catalogued with in this file.
+    const facts = new Map<number, { dyestuff: string[]; place: string[]; century: string[] }>([
+      [madderA.id, { dyestuff: [word('madder')], place: [word('Calderwick')], century: ['18'] }],
+      [madderB.id, { dyestuff: [word('madder'), word('weld')], place: [word('Calderwick')], century: ['19'] }],
+      [weldC.id, { dyestuff: [word('weld')], place: [word('Harbour')], century: ['18'] }],
+    ]);
+    const plain = (ids: number[], facet: 'dyestuff' | 'place' | 'century') => {
+      const n = new Map<string, number>();
+      for (const id of ids) for (const v of facts.get(id)?.[facet] ?? []) n.set(v.toLowerCase(), (n.get(v.toLowerCase()) ?? 0) + 1);
+      return [...n].map(([value, count]) => ({ value, count })).sort((x, y) => x.value.localeCompare(y.value));
+    };
+    const tidy = (rows: Row[]) => rows.map(({ value, count }) => ({ value: value.toLowerCase(), count })).sort((x, y) => x.value.localeCompare(y.value));
+
+    // Words and shade: madderA and madderB match the red; weldC (yellow) matches the words only.
+    const words = (await request(app).get('/api/search').query({ q: word('pomegranate') })).body;
+    const shade = (await request(app).get('/api/search/shade').query({ hex: '9b2f2f', maxDeltaE: 5, q: word('pomegranate'), limit: 200 })).body;
+    const ids = shade.items.map((i: { pieceId: number }) => i.pieceId);
+    expect(ids.sort()).toEqual([madderA.id, madderB.id].sort());
+    for (const f of ['dyestuff', 'place', 'century'] as const) expect(tidy(f === 'century' ? shade.facets[f] : ours(shade.facets[f])), f).toEqual(plain(ids, f));
+    // The words alone count weld twice and Harbour once; with the shade, weld once and Harbour not at all.
+    expect(words.facets.dyestuff.find((r: Row) => r.value === word('weld'))?.count).toBe(2);
+    expect(shade.facets.dyestuff.find((r: Row) => r.value === word('weld'))?.count).toBe(1);
+    expect(shade.facets.place.find((r: Row) => r.value === word('Harbour'))).toBeUndefined();
+
+    // A widening facet chosen (place): its own counts ignore the choice but still follow the shade.
+    const placed = (await request(app).get('/api/search/shade').query({ hex: '9b2f2f', maxDeltaE: 5, q: word('pomegranate'), place: word('Calderwick') })).body;
+    expect(tidy(ours(placed.facets.place))).toEqual(plain(ids, 'place'));
+    // A yellow shade with the place chosen: weldC is in Harbour, so the result is empty, yet the place counts show Harbour 1.
+    const yellow = (await request(app).get('/api/search/shade').query({ hex: 'c9a83a', maxDeltaE: 3, q: word('pomegranate'), place: word('Calderwick') })).body;
+    expect(yellow.total).toBe(0);
+    expect(tidy(ours(yellow.facets.place))).toEqual([{ value: word('Harbour').toLowerCase(), count: 1 }]);
+
+    // Shade without words: each of our facet counts equals the shade's total with that value chosen.
+    const bare = (await request(app).get('/api/search/shade').query({ hex: '9b2f2f', maxDeltaE: 5 })).body;
+    for (const row of ours(bare.facets.dyestuff)) {
+      const chosen = (await request(app).get('/api/search/shade').query({ hex: '9b2f2f', maxDeltaE: 5, dyestuff: row.value })).body;
+      expect([row.value, chosen.total]).toEqual([row.value, row.count]);
+    }
+    expect(ours(bare.facets.dyestuff).length).toBeGreaterThan(0);
+  });
+
   it('answers 400 with per-field details for bad parameters', async () => {
     const cases: Array<[Record<string, string>, string[]]> = [
       [{ hex: 'red' }, ['hex']],

@@ -29,5 +29,5 @@ export const fetchShade = (p: SearchParams) => http<ShadeResponse>(`/api/search/
 export const searchQuery = (p: SearchParams) => queryOptions({ queryKey: searchKeys.text(p), queryFn: () => fetchSearch(p), placeholderData: keepPreviousData });
 export const shadeQuery = (p: SearchParams) => queryOptions({ queryKey: searchKeys.shade(p), queryFn: () => fetchShade(p), placeholderData: keepPreviousData });
 
-export const useSearch = (p: SearchParams) => useQuery(searchQuery(p));
+export const useSearch = (p: SearchParams, enabled = true) => useQuery({ ...searchQuery(p), enabled });
 export const useShade = (p: SearchParams, enabled: boolean) => useQuery({ ...shadeQuery(p), enabled });
