@@ -1,3 +1,4 @@
+import { mkdirSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PaletteColour, Photo, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
@@ -45,10 +46,22 @@ describe('search page in Chromium', () => {
     await page.getByLabel('Words').fill(u);
     await page.getByRole('button', { name: 'Search', exact: true }).click();
     await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('4 pieces');
+    const facet = (name: string) => page.getByRole('region', { name: 'Facets' }).getByRole('checkbox', { name: new RegExp(`^${name}${u}`) });
+    // The words match three cochineal pieces …
+    await expect.poll(async () => (await facet('cochineal').locator('xpath=..').textContent())?.trim()).toBe(`cochineal${u}3`);
 
     await page.getByLabel('Hex').fill(target.slice(1));
     await page.getByRole('button', { name: 'Find this hex' }).click();
     await expect.poll(() => page.getByTestId('result-count').textContent()).toContain('3 pieces within ΔE00 5');
+    // … and with the shade chosen the facets count the shade's matches: two cochineal pieces lie within the radius.
+    await expect.poll(async () => (await facet('cochineal').locator('xpath=..').textContent())?.trim()).toBe(`cochineal${u}2`);
+    await expect.poll(async () => (await facet('logwood').locator('xpath=..').textContent())?.trim()).toBe(`logwood${u}1`);
+    const shots = `${process.env.DATA_DIR ?? '.data/test'}/screens`;
+    mkdirSync(shots, { recursive: true });
+    await page.screenshot({ path: `${shots}/search-shade-facets-1280.png`, fullPage: true });
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.screenshot({ path: `${shots}/search-shade-facets-390.png`, fullPage: true });
+    await page.setViewportSize({ width: 1280, height: 900 });
     const rows = page.getByRole('table', { name: 'Shade matches' }).locator('tbody tr');
     const texts = await rows.allTextContents();
     // Ranked by ΔE00 from the target (CIEDE2000, checked against Sharma et al. 2005 in tests/unit).

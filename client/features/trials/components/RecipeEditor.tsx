@@ -74,7 +74,7 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
             <Num label="pH" value={d.ph} onChange={(v) => update(i, { ph: v })} error={err(i, 'ph')} />
             <Num label="Paste volume" unit="mL" value={d.pasteVolumeMl} onChange={(v) => update(i, { pasteVolumeMl: v })} error={err(i, 'paste.volumeMl')} />
             <Num label="Stock strength" unit="g/L" value={d.stockGPerL} onChange={(v) => update(i, { stockGPerL: v })} error={err(i, 'paste.stockGPerL')} />
-            <label className="block text-xs font-medium">Drawn from bath
+            <label className="block text-xs font-medium sm:col-span-2">Drawn from bath
               <select className={`${input} ${err(i, 'batchId') ? 'border-danger' : ''}`} value={d.batchId} onChange={(e) => update(i, { batchId: e.target.value })} aria-invalid={err(i, 'batchId') ? true : undefined}>
                 <option value="">No bath</option>
                 {baths.map((b) => <option key={b.id} value={b.id}>{b.label}</option>)}

@@ -105,7 +105,7 @@ export function RecipeSection({ trial }: { trial: TrialView }) {
         </label>
       </div>
       <p id="scale-note" className="text-xs text-ink-faint">
-        {scaling ? <>Showing the recipe for <span className="font-mono">{fmt(target, 1)} g</span> dry fibre (recorded for <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span>): % owf, g/L and the liquor ratio stay; fixed grams and paste volumes scale by mass.</> : <>For <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span> dry fibre. Grams = % owf ÷ 100 × dry mass; water = fibre kg × n for 1:n; g/L = 10 × % owf ÷ n (common practice).</>}
+        {scaling ? <>Showing the recipe for <span className="font-mono">{fmt(target, 1)} g</span> dry fibre (recorded for <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span>): % owf, g/L and the liquor ratio stay; fixed grams, paste volumes and bath draws scale by mass.</> : <>For <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span> dry fibre. Grams = % owf ÷ 100 × dry mass; water = fibre kg × n for 1:n; g/L = 10 × % owf ÷ n (common practice).</>}
       </p>
       {drawsShort.map((w) => <p key={w.batchId} role="alert" className="rounded-md border border-warn bg-paper px-3 py-2 text-sm text-warn">{w.message}</p>)}
       {trial.steps.length === 0 ? <p className="text-ink-soft">No steps yet.</p> : (
