@@ -72,7 +72,7 @@ export function EventForms({ batch }: { batch: BatchDetail }) {
         {type === 'use' && (
           <>
             <Field label="Volume drawn" unit="mL" name="volumeMl" type="number" step="any" min="0" inputMode="decimal" error={errors.volumeMl} hint={`${batch.remainingMl} mL left`} />
-            <Field label="Trial code" name="trialCode" placeholder="T-2024-001" error={errors.trialCode ?? errors.trialId} />
+            <Field label="Trial code" name="trialCode" placeholder="T-2024-001" error={errors.trialCode ?? errors.trialId} hint="A recipe step’s draw is recorded when the recipe is saved; enter here only draws made outside a recipe." />
             <Field label="Fibre mass" unit="g" name="fibreMassG" type="number" step="any" min="0" error={errors.fibreMassG} />
           </>
         )}
