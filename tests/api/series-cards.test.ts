@@ -112,7 +112,8 @@ describe('sample cards and labels', () => {
     const label = await readPdf((await bin(`/api/batches/${mb09.id}/label.pdf`).expect(200)).body);
     // iron(II) sulfate carries Warning with H302/H315/H319 → exclamation mark (GHS Annex 1, from memory).
     expect(label.text).toContain('WARNING');
-    expect(label.text).toContain('exclamation mark');
+    expect(label.text).toContain('GHS07');
+    expect(label.text).not.toContain('exclamation mark');
     expect(label.text).toContain('safety data sheet');
     await request(app).get(`/api/series/${demo.id}/cards.pdf`).expect(401);
     await request(app).get(`/api/batches/${mb09.id}/label.pdf`).expect(401);
