@@ -1,6 +1,6 @@
 import { Op } from 'sequelize';
 import { Chemical, type MordantBatch } from '../models/index.ts';
-import { finish, newDoc } from './doc.ts';
+import { finish, fitText, newDoc } from './doc.ts';
 import { drawPictogram } from './ghs.ts';
 import { pictogramCodes, strongestSignal, type Hazard } from './hazard.ts';
 
@@ -13,18 +13,6 @@ const H = 94;
 
 const PAD = 6;
 const PICTO = 24;
-
-/**
- * The largest font size from `max` down to `min` at which `text` fits the box; at `min` whatever
- * still does not fit is cut with an ellipsis, so nothing ever prints outside its box.
- */
-function fitText(doc: PDFKit.PDFDocument, text: string, box: { x: number; y: number; w: number; h: number }, font: string, max: number, min: number) {
-  doc.font(font);
-  let size = max;
-  for (; size > min; size -= 0.25) if (doc.fontSize(size).heightOfString(text, { width: box.w }) <= box.h) break;
-  doc.fontSize(size).text(text, box.x, box.y, { width: box.w, height: box.h, ellipsis: true });
-  return size;
-}
 
 /** A sheet of small labels (3 × 8 on A4) for bath jars and swatches: each part of a label keeps to its own box. */
 export async function labelsPdf(title: string, labels: Label[]) {
