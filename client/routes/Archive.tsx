@@ -37,6 +37,9 @@ export function Archive() {
               Export pieces (CSV)
             </DownloadLink>
           ) : null}
+          <DownloadLink href={exportUrls.palettesCsv()} hint="Every palette colour of the pieces you may see: photo, region, variant, L*a*b* (image estimate, D65/2°), hex and share">
+            Export palettes (CSV)
+          </DownloadLink>
           {can('import:run') ? (
             <Link to={paths.importPieces()} className="rounded-md border border-rule-strong bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
               Import CSV

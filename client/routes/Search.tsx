@@ -4,7 +4,9 @@ import type { FacetName } from '../../shared/schemas/search';
 import { Button } from '../components/Button';
 import { Page } from '../components/Page';
 import { ApiError } from '../lib/http';
-import { useSearch, useShade, type SearchParams } from '../features/search/api';
+import { shadeExportQuery, useSearch, useShade, type SearchParams } from '../features/search/api';
+import { DownloadLink } from '../features/export/components/DownloadLink';
+import { exportUrls } from '../features/export/urls';
 import { AbPlot } from '../features/search/components/AbPlot';
 import { ColourChooser, type ShadeChoice } from '../features/search/components/ColourChooser';
 import { FacetList } from '../features/search/components/FacetList';
@@ -98,6 +100,11 @@ export function Search() {
           {hasShade && shade.data ? (
             <div className="space-y-4">
               {shade.data.items.length ? <AbPlot items={shade.data.items} query={shade.data.query} /> : null}
+              {shade.data.items.length ? (
+                <DownloadLink href={exportUrls.shadeCsv(shadeExportQuery(params))} hint="Every match of this shade search, ranked by ΔE00, with L*a*b* (image estimate, D65/2°), hex and share">
+                  Export matches (CSV)
+                </DownloadLink>
+              ) : null}
               <ShadeResults items={shade.data.items} />
             </div>
           ) : !hasShade && text.data ? (

@@ -1,6 +1,7 @@
 import type { Writable } from 'node:stream';
 import { stringify } from 'csv-stringify';
 import { Chemical, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
+import type { Fastness } from '../../shared/schemas/fastness.ts';
 import { trialColour, type ResolvedColour } from '../services/trials/colour.ts';
 
 // Colour columns: each colour with the illuminant and observer it is under, and the figures of
@@ -10,9 +11,12 @@ const COLOUR_COLUMNS = [
   'resultSource', 'resultIlluminant', 'resultObserver', 'resultReadings', 'resultL', 'resultA', 'resultB',
   'deltaE00', 'cmc21', 'cmc11', 'deltaEab', 'dL', 'dC', 'dH', 'verdict', 'colourNote',
 ] as const;
+// Fastness grades as recorded: blue wool 1–8 for light (ISO 105-B02), grey scale 1–5 for the rest
+// (change in colour ISO 105-A02, staining ISO 105-A03); which tests were informal is said beside them.
+const FASTNESS_COLUMNS = ['lightBlueWool', 'washChangeGrey', 'washStainingGrey', 'rubDryStainingGrey', 'rubWetStainingGrey', 'fastnessInformal', 'fastnessTestedOn'] as const;
 const COLUMNS = [
   'code', 'pieceAccessionNumber', 'series', 'status', 'kind', 'dyer', 'fibre', 'weave', 'gsm', 'dryMassG',
-  'startedOn', 'recipe', 'substitutions', 'fastness', ...COLOUR_COLUMNS, 'notes',
+  'startedOn', 'recipe', 'substitutions', ...COLOUR_COLUMNS, ...FASTNESS_COLUMNS, 'notes',
 ] as const;
 
 const n = (x: number | null | undefined, decimals: number) => (x == null ? '' : x.toFixed(decimals));
@@ -22,6 +26,21 @@ const colourCells = (prefix: 'target' | 'result', c: ResolvedColour | null) => (
   [`${prefix}Observer`]: c ? `${c.observer}°` : '',
   [`${prefix}L`]: n(c?.L, 2), [`${prefix}A`]: n(c?.a, 2), [`${prefix}B`]: n(c?.b, 2),
 });
+
+const FASTNESS_TESTS = [['light', 'light'], ['washing', 'washing'], ['rubbingDry', 'dry rubbing'], ['rubbingWet', 'wet rubbing']] as const;
+
+function fastnessRow(f: Fastness | null) {
+  const done = FASTNESS_TESTS.filter(([k]) => f?.[k]);
+  return {
+    lightBlueWool: f?.light?.blueWool ?? '',
+    washChangeGrey: f?.washing?.change ?? '',
+    washStainingGrey: f?.washing?.staining ?? '',
+    rubDryStainingGrey: f?.rubbingDry?.staining ?? '',
+    rubWetStainingGrey: f?.rubbingWet?.staining ?? '',
+    fastnessInformal: done.filter(([k]) => f?.[k]?.informal).map(([, word]) => word).join('; '),
+    fastnessTestedOn: done.map(([k, word]) => (f?.[k]?.testedOn ? `${word} ${f[k]!.testedOn}` : null)).filter(Boolean).join('; '),
+  };
+}
 
 async function colourRow(t: Trial) {
   const { target, result, difference: d, note, missing } = await trialColour(t);
@@ -96,8 +115,8 @@ export async function writeTrialsCsv(out: Writable) {
       startedOn: t.startedOn ?? '',
       recipe: (t.steps ?? []).map(stepText).join(' | '),
       substitutions: (t.substitutions ?? []).map(substitutionText).join(' | '),
-      fastness: t.fastness ? JSON.stringify(t.fastness) : '',
       ...(await colourRow(t)),
+      ...fastnessRow((t.fastness ?? null) as Fastness | null),
       notes: t.notes ?? '',
     });
   }

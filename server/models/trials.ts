@@ -69,6 +69,9 @@ export class TrialSeries extends Model<InferAttributes<TrialSeries>, InferCreati
   declare title: string;
   declare kind: CreationOptional<'series' | 'workshop'>;
   declare pieceId: number | null;
+  declare targetPaletteColourId: CreationOptional<number | null>;
+  declare targetRegionId: CreationOptional<number | null>;
+  declare targetMeasurementId: CreationOptional<number | null>;
   declare factors: Array<{ name: string; levels: string[] }>;
   declare cells: Array<Record<string, unknown>>;
   declare participants: string[];
@@ -159,6 +162,9 @@ export function initTrialModels(sequelize: Sequelize) {
       title: { type: DataTypes.STRING(200), allowNull: false },
       kind: { type: DataTypes.ENUM('series', 'workshop'), allowNull: false, defaultValue: 'series' },
       pieceId: fk(),
+      targetPaletteColourId: fk(),
+      targetRegionId: fk(),
+      targetMeasurementId: fk(),
       factors: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
       cells: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
       participants: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },

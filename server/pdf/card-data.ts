@@ -1,14 +1,18 @@
 import { Op } from 'sequelize';
 import { labToHex, type Lab } from '../../shared/colour/index.ts';
 import { viewingLabel } from '../../shared/colour/conditions.ts';
-import { RecipeStep, Trial } from '../models/index.ts';
+import { gramsFromOwf } from '../../shared/compute/recipe.ts';
+import { RecipeStep, Trial, TrialSeries } from '../models/index.ts';
+import { roleOf, type StoredFactor } from '../services/series/plan.ts';
 import { publicUrl } from '../env.ts';
 import { trialColour } from '../services/trials/colour.ts';
 
 /** `conditions` is the shared viewing-conditions label, e.g. "instrument reading · D65/10°". */
 export type CardColour = Lab & { hex: string; source: 'measured' | 'estimated'; conditions: string; readings: number | null };
 export type CardData = {
-  id: number; code: string; status: string; dryMassG: number; fibre: string | null; cell: Record<string, string> | null;
+  id: number; code: string; status: string; dryMassG: number; fibre: string | null;
+  /** The series cell in words, each level with its unit. */
+  cell: string | null;
   steps: string[]; colour: CardColour | null; target: (Lab & { hex: string; conditions: string }) | null;
   deltaE00: number | null; cmc21: number | null; dL: number | null; dC: number | null; dH: number | null;
   verdict: string | null; words: string[];
@@ -19,21 +23,52 @@ export type CardData = {
 
 export const trialUrl = (id: number) => `${publicUrl.replace(/\/$/, '')}/trials/${id}`;
 
-function stepLine(s: RecipeStep) {
-  const ing = s.ingredients.map((i) => `${i.name} ${i.amount} ${i.basis === 'owf' ? '% owf' : i.basis}`).join(', ');
-  const cond = [s.liquorRatio ? `1:${s.liquorRatio}` : null, s.temperatureC != null ? `${s.temperatureC} °C` : null, s.minutes != null ? `${s.minutes} min` : null].filter(Boolean).join(', ');
+const fmtNum = (x: number) => String(Number(x.toPrecision(3)));
+const BASIS: Record<string, string> = { owf: '% owf', 'g/L': 'g/L', g: 'g' };
+
+// Every quantity with its unit; % owf amounts also in grams for the card's dry mass, as weighed out.
+function stepLine(s: RecipeStep, dryMassG: number) {
+  const ing = s.ingredients
+    .map((i) => `${i.name} ${i.amount} ${BASIS[i.basis] ?? i.basis}${i.basis === 'owf' ? ` = ${fmtNum(gramsFromOwf(i.amount, dryMassG))} g` : ''}`)
+    .join(', ');
+  const cond = [
+    s.liquorRatio ? `liquor 1:${s.liquorRatio}` : null,
+    s.temperatureC != null ? `${s.temperatureC} °C` : null,
+    s.minutes != null ? `${s.minutes} min` : null,
+    s.ph != null ? `pH ${s.ph}` : null,
+    s.batchVolumeMl != null ? `${s.batchVolumeMl} mL from the bath` : null,
+  ].filter(Boolean).join(', ');
   return `${s.position}. ${s.operation}${ing ? `: ${ing}` : ''}${cond ? ` (${cond})` : ''}`;
+}
+
+/** A series cell in words with units: "tannin 10 % owf", "mordant strong Al (potash alum 15 % owf)". */
+function cellLine(cell: Record<string, string>, factors: StoredFactor[]) {
+  return Object.entries(cell)
+    .map(([k, v]) => {
+      const f = factors.find((x) => x.name === k);
+      if (!f) return `${k} ${v}`;
+      const role = roleOf(f);
+      if ((role === 'dyestuff' || role === 'tannin') && Number.isFinite(Number(v))) return `${k} ${v} % owf`;
+      const chems = f.mordants?.find((m) => m.level === v)?.chemicals;
+      return chems?.length ? `${k} ${v} (${chems.map((c) => `${c.name} ${c.owf} % owf`).join(' + ')})` : `${k} ${v}`;
+    })
+    .join(' · ');
 }
 
 /** What a sample card shows, with colours and ΔE00 resolved exactly as on the trial page (services/trials/colour.ts). */
 export async function loadCards(trialIds: number[]): Promise<CardData[]> {
-  const trials = await Trial.findAll({ where: { id: { [Op.in]: trialIds } }, include: [{ model: RecipeStep, as: 'steps' }], order: [['code', 'ASC']] });
+  const trials = await Trial.findAll({
+    where: { id: { [Op.in]: trialIds } },
+    include: [{ model: RecipeStep, as: 'steps' }, { model: TrialSeries, as: 'series', attributes: ['id', 'factors'] }],
+    order: [['code', 'ASC']],
+  });
   const out: CardData[] = [];
   for (const t of trials) {
     const { target, result, difference, note, missing } = await trialColour(t);
-    const steps = ((t as Trial & { steps?: RecipeStep[] }).steps ?? []).sort((a, b) => a.position - b.position).map(stepLine);
+    const steps = ((t as Trial & { steps?: RecipeStep[] }).steps ?? []).sort((a, b) => a.position - b.position).map((s) => stepLine(s, t.dryMassG));
+    const series = (t as Trial & { series?: TrialSeries | null }).series;
     out.push({
-      id: t.id, code: t.code, status: t.status, dryMassG: t.dryMassG, fibre: t.fibre, cell: t.cell, steps,
+      id: t.id, code: t.code, status: t.status, dryMassG: t.dryMassG, fibre: t.fibre, cell: t.cell ? cellLine(t.cell, series ? (series.factors as StoredFactor[]) : []) : null, steps,
       colour: result
         ? { L: result.L, a: result.a, b: result.b, hex: labToHex(result), source: result.source === 'instrument' ? 'measured' : 'estimated', conditions: viewingLabel(result), readings: result.readings }
         : null,

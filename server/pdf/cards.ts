@@ -1,6 +1,6 @@
 import type { CardData } from './card-data.ts';
 import { signed } from '../../shared/colour/conditions.ts';
-import { finish, newDoc, qrPng } from './doc.ts';
+import { finish, fitText, newDoc, qrPng } from './doc.ts';
 
 const CARD_W = 523;
 const CARD_H = 240;
@@ -24,16 +24,21 @@ export async function cardsPdf(title: string, cards: CardData[]) {
     }
     // Every figure printed with the illuminant and observer it is under.
     const labLine = (v: { L: number; a: number; b: number }) => `L* ${v.L.toFixed(1)}  a* ${v.a.toFixed(1)}  b* ${v.b.toFixed(1)}`;
-    doc.fillColor('#222').font('sans').fontSize(6.5);
-    doc.text(c.colour ? `swatch: ${c.colour.conditions}${c.colour.readings && c.colour.readings > 1 ? ` (mean of ${c.colour.readings})` : ''}\n${labLine(c.colour)}` : '', x + 12, y + 184, { width: 140 });
-    doc.text(c.target ? `target (lower strip): ${c.target.conditions}\n${labLine(c.target)}` : 'no target colour', x + 12, y + 207, { width: 140 });
+    // One flowing block under the swatches, so a long conditions line pushes the next down instead of overprinting it.
+    const colourText = [
+      c.colour ? `swatch: ${c.colour.conditions}${c.colour.readings && c.colour.readings > 1 ? ` (mean of ${c.colour.readings})` : ''}\n${labLine(c.colour)}` : 'swatch: no colour yet',
+      c.target ? `target (lower strip): ${c.target.conditions}\n${labLine(c.target)}` : 'no target colour',
+    ].join('\n');
+    doc.fillColor('#222');
+    fitText(doc, colourText, { x: x + 12, y: y + 183, w: 136, h: CARD_H - 188 }, 'sans', 6.5, 5);
 
     const tx = x + 156;
     doc.font('sans-bold').fontSize(14).fillColor('#111').text(c.code, tx, y + 14, { width: 260 });
     doc.font('sans').fontSize(8.5).fillColor('#333');
-    const cell = c.cell ? Object.entries(c.cell).map(([k, v]) => `${k}: ${v}`).join(' · ') : null;
-    doc.text([`${c.fibre ?? 'fibre not set'}, ${c.dryMassG} g dry`, cell, `status: ${c.status}`].filter(Boolean).join('\n'), tx, y + 36, { width: 260 });
-    doc.moveDown(0.4).fontSize(7.5).text(c.steps.length ? c.steps.join('\n') : 'No recipe steps yet.', { width: 260, height: 96, ellipsis: true });
+    fitText(doc, [`${c.fibre ?? 'fibre not set'}, ${c.dryMassG} g dry mass`, c.cell, `status: ${c.status}`].filter(Boolean).join('\n'), { x: tx, y: y + 36, w: 260, h: 46 }, 'sans', 8.5, 6.5);
+    // The recipe shrinks to fit above the ΔE00 block rather than losing its mordant and tannin steps.
+    const top = Math.max(doc.y + 4, y + 64);
+    fitText(doc, c.steps.length ? c.steps.join('\n') : 'No recipe steps yet.', { x: tx, y: top, w: 260, h: y + CARD_H - 62 - top }, 'sans', 7.5, 5.5);
     doc.font('sans-bold').fontSize(10).fillColor('#111').text(c.deltaE00 != null ? `ΔE00 to target: ${c.deltaE00.toFixed(2)} (${c.verdict})` : 'ΔE00 to target: —', tx, y + CARD_H - 58, { width: 260 });
     doc.font('sans').fontSize(7.5).fillColor('#333');
     if (c.dL != null && c.dC != null && c.dH != null && c.cmc21 != null) {

@@ -1,27 +1,33 @@
+import { GHS_PICTOGRAMS, type GhsCode } from './ghs.ts';
+
 /**
- * GHS pictogram words from H statements, following the GHS hazard-class to
- * pictogram assignments (UN GHS, Annex 1; written from memory, to be checked
- * against the current revision). Used only for the short words on jar labels;
- * the full caution is on the chemical's reference page and the supplier's SDS.
+ * GHS pictograms from H statements, following the GHS hazard-class to pictogram assignments
+ * (UN GHS, Annex 1; written from memory, to be checked against the current revision). Used only
+ * for the pictograms on jar labels; the full caution is on the chemical's reference page and the
+ * supplier's SDS.
  */
-const RULES: Array<[RegExp, string]> = [
-  [/^H2(0[0-5]|2[0-8]|4[0-2]|5[0-2]|6[01])/, 'flame'],
-  [/^H27[0-2]/, 'flame over circle'],
-  [/^H28[01]/, 'gas cylinder'],
-  [/^H(290|314|318)/, 'corrosion'],
-  [/^H(300|301|310|311|330|331)/, 'skull and crossbones'],
-  [/^H(302|312|315|317|319|332|335|336)/, 'exclamation mark'],
-  [/^H(334|340|341|350|351|360|361|362|370|371|372|373|304)/, 'health hazard'],
-  [/^H(400|410|411)/, 'environment'],
+const RULES: Array<[RegExp, GhsCode]> = [
+  [/^H(20[0-5]|240|241)/, 'GHS01'],
+  [/^H(22[0-8]|24[12]|25[0-2]|26[01])/, 'GHS02'],
+  [/^H27[0-2]/, 'GHS03'],
+  [/^H28[01]/, 'GHS04'],
+  [/^H(290|314|318)/, 'GHS05'],
+  [/^H(300|301|310|311|330|331)/, 'GHS06'],
+  [/^H(302|312|315|317|319|332|335|336)/, 'GHS07'],
+  [/^H(334|340|341|350|351|360|361|362|370|371|372|373|304)/, 'GHS08'],
+  [/^H(400|410|411)/, 'GHS09'],
 ];
 
-export function pictogramWords(hStatements: string[]): string[] {
-  const out = new Set<string>();
-  for (const h of hStatements) for (const code of h.match(/H\d{3}/g) ?? []) for (const [re, word] of RULES) if (re.test(code)) out.add(word);
+/** The pictograms the H statements call for, in GHS code order. */
+export function pictogramCodes(hStatements: string[]): GhsCode[] {
+  const out = new Set<GhsCode>();
+  for (const h of hStatements) for (const code of h.match(/H\d{3}/g) ?? []) for (const [re, ghs] of RULES) if (re.test(code)) out.add(ghs);
   // GHS precedence: no exclamation mark where skull and crossbones or corrosion already appears.
-  if (out.has('skull and crossbones') || out.has('corrosion')) out.delete('exclamation mark');
-  return [...out];
+  if (out.has('GHS06') || out.has('GHS05')) out.delete('GHS07');
+  return [...out].sort();
 }
+
+export const pictogramWords = (hStatements: string[]) => pictogramCodes(hStatements).map((c) => GHS_PICTOGRAMS[c]);
 
 export type Hazard = { name: string; signalWord: 'Danger' | 'Warning' | null; hStatements: string[] };
 

@@ -25,7 +25,9 @@ export function presentSeries(s: TrialSeries, trials: Trial[], abilities: Record
   const list = dry > 0 ? materialsList(cellRecipes(keptCells, factors, dry, s.liquorRatio), { deadVolumePct: s.deadVolumePct, participants }) : null;
   return {
     ...presentSeriesSummary(s),
-    pieceId: s.pieceId, factors, participants: s.participants, deadVolumePct: s.deadVolumePct, liquorRatio: s.liquorRatio, notes: s.notes, ownerId: s.ownerId,
+    pieceId: s.pieceId,
+    target: { paletteColourId: s.targetPaletteColourId ?? null, regionId: s.targetRegionId ?? null, measurementId: s.targetMeasurementId ?? null },
+    factors, participants: s.participants, deadVolumePct: s.deadVolumePct, liquorRatio: s.liquorRatio, notes: s.notes, ownerId: s.ownerId,
     cells, keptCount: keptCells.length,
     materials: list
       ? { deadVolumePct: list.deadVolumePct, unresolved: list.unresolved, whole: tidy(list.total), perParticipant: s.kind === 'workshop' ? s.participants.map((code) => ({ code, ...tidy(list.perParticipant) })) : [] }

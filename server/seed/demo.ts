@@ -222,8 +222,13 @@ export async function seedDemo(t: Transaction) {
     },
     { transaction: t },
   );
+  // Each planned cell carries its whole recipe: the tannin and mordant steps its levels call for, then the dye bath.
   for (const cell of cells.slice(0, 3)) {
+    const mordant = factors[1].mordants!.find((m) => m.level === cell.mordant)!.chemicals;
+    const tanninOwf = Number(cell.tannin);
     await makeTrial({ pieceId: p12.id, seriesId: series.id, cell, dyerId: tamsin.id, dryMassG: 10, status: 'planned', notes: `Workshop cell: ${cell.mordant}, tannin ${cell.tannin} % owf` }, [
+      ...(tanninOwf > 0 ? [{ operation: 'tannin' as const, ingredients: [['chemical', tannin.name, tanninOwf, 'owf'] as StepSpec['ingredients'][number]], liquorRatio: 30, minutes: 60 }] : []),
+      { operation: 'mordant-bath', ingredients: mordant.map((c) => ['chemical', c.name, c.owf, 'owf'] as StepSpec['ingredients'][number]), liquorRatio: 30, minutes: 60 },
       { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 50, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 60 },
     ]);
   }

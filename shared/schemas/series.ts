@@ -17,6 +17,13 @@ export const factorSchema = z.object({
 });
 export type FactorInput = z.infer<typeof factorSchema>;
 
+// The colour of the piece the series aims at, as a trial's target: one of a palette colour, a region or a measurement.
+const targetId = z.number().int().positive().nullable().optional();
+const seriesTarget = { targetPaletteColourId: targetId, targetRegionId: targetId, targetMeasurementId: targetId };
+const oneTarget = (v: { targetPaletteColourId?: number | null; targetRegionId?: number | null; targetMeasurementId?: number | null }) =>
+  [v.targetPaletteColourId, v.targetRegionId, v.targetMeasurementId].filter((x) => x != null).length <= 1;
+const oneTargetIssue = { message: 'Choose one target: a palette colour, a region or a measurement.', path: ['target'] };
+
 export const seriesCreateSchema = z.object({
   code: z.string().trim().min(2).max(20).regex(/^[A-Za-z0-9-]+$/, 'Letters, digits and dashes only'),
   title: z.string().trim().min(1, 'Give the series a title').max(200),
@@ -29,7 +36,8 @@ export const seriesCreateSchema = z.object({
   deadVolumePct: z.number().min(0).max(100).default(10),
   heldOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).nullable().default(null),
   notes: z.string().trim().max(4000).nullable().default(null),
-});
+  ...seriesTarget,
+}).refine(oneTarget, oneTargetIssue);
 export type SeriesCreateInput = z.infer<typeof seriesCreateSchema>;
 
 export const seriesUpdateSchema = z
@@ -41,8 +49,10 @@ export const seriesUpdateSchema = z
     // Cells kept, as their keys (see cellKey); the others are pruned.
     keep: z.array(z.string().min(1).max(400)).max(2000),
     notes: z.string().trim().max(4000).nullable(),
+    ...seriesTarget,
   })
-  .partial();
+  .partial()
+  .refine(oneTarget, oneTargetIssue);
 export type SeriesUpdateInput = z.infer<typeof seriesUpdateSchema>;
 
 export const seriesListQuery = z.object({

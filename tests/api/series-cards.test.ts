@@ -2,7 +2,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import { createApp } from '../../server/app.ts';
-import { Chemical, Dyestuff, Trial, sequelize } from '../../server/models/index.ts';
+import { Chemical, Dyestuff, PaletteColour, Photo, Trial, sequelize } from '../../server/models/index.ts';
+import { makePiece } from '../../server/seed/factories.ts';
+import { hexToLab } from '../../shared/search/lab.ts';
 import { trialUrl } from '../../server/pdf/card-data.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { readPdf } from '../support/pdf.ts';
@@ -77,6 +79,45 @@ describe('trial series through the API', () => {
     expect(made.body.created).toHaveLength(24);
     expect(made.body.created[0].cell.participant).toBe('P-01');
   });
+
+  it('aims a series at a colour of its piece: its planned trials take that target, and their cards compare with it', async () => {
+    const piece = await makePiece({ status: 'published' });
+    const other = await makePiece({ status: 'published' });
+    const colourOf = async (pieceId: number, hex: string) => {
+      const photo = await Photo.create({
+        pieceId, trialId: null, sha256: 'f'.repeat(64), format: 'jpeg', bytes: 1, width: 10, height: 10, originalName: null, caption: null,
+        capturedAt: null, exif: {}, gps: null, derivatives: {}, referencePatch: null, correction: null, createdById: null,
+      });
+      return PaletteColour.create({ photoId: photo.id, regionId: null, variant: 'raw', rank: 1, ...hexToLab(hex), hex, share: 1, spread: 1, name: 'red', tradeName: null, background: false });
+    };
+    const madderRed = await colourOf(piece.id, '#9b2f2f');
+    const elsewhere = await colourOf(other.id, '#2f4f7f');
+    const body = { code: `T${tag}`, title: 'Aimed at the ground', pieceId: piece.id, factors: factors().slice(2), dryMassG: 10 };
+    // A colour of another piece is refused on the field that named it.
+    const wrong = await dyer.post('/api/series').set('Origin', ORIGIN).send({ ...body, targetPaletteColourId: elsewhere.id }).expect(400);
+    expect(wrong.body.error.details.fields).toHaveProperty('targetPaletteColourId');
+    await dyer.post('/api/series').set('Origin', ORIGIN).send({ ...body, targetPaletteColourId: madderRed.id, targetRegionId: 1 }).expect(400);
+
+    const s = (await dyer.post('/api/series').set('Origin', ORIGIN).send({ ...body, targetPaletteColourId: madderRed.id }).expect(201)).body;
+    expect(s.target).toEqual({ paletteColourId: madderRed.id, regionId: null, measurementId: null });
+    const made = await dyer.post(`/api/series/${s.id}/trials`).set('Origin', ORIGIN).expect(201);
+    expect(made.body.created).toHaveLength(2);
+    for (const t of made.body.created) {
+      const trial = (await dyer.get(`/api/trials/${t.id}`).expect(200)).body.trial;
+      expect(trial.target.paletteColourId).toBe(madderRed.id);
+      expect(trial.colour.target).toMatchObject({ source: 'image-estimate', illuminant: 'D65', observer: '2' });
+    }
+    const bin = (url: string) => dyer.get(url).buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (x: Buffer) => c.push(x)); r.on('end', () => cb(null, Buffer.concat(c))); });
+    const cards = await readPdf((await bin(`/api/series/${s.id}/cards.pdf`).expect(200)).body);
+    expect(cards.text).toContain('target (lower strip): image estimate · D65/2°');
+    // Its planned recipes: the tannin step with its unit and grams for the 10 g cell, the cell in words with units.
+    expect(cards.text).toContain('tannic acid 10 % owf = 1 g');
+    expect(cards.text).toContain('tannin 10 % owf');
+
+    // Changing the target needs a colour of the same piece; clearing it is allowed.
+    await dyer.patch(`/api/series/${s.id}`).set('Origin', ORIGIN).send({ targetPaletteColourId: elsewhere.id }).expect(400);
+    expect((await dyer.patch(`/api/series/${s.id}`).set('Origin', ORIGIN).send({ targetPaletteColourId: null }).expect(200)).body.target.paletteColourId).toBeNull();
+  });
 });
 
 describe('sample cards and labels', () => {
@@ -94,6 +135,11 @@ describe('sample cards and labels', () => {
     expect(pdf.text).toContain('ΔE00');
     expect(pdf.qr).toEqual([trialUrl(trial.id)]);
     expect(pdf.qr[0]).toMatch(new RegExp(`/trials/${trial.id}$`));
+    // Every quantity with its unit, % owf also in grams for the card's 250 g: the tannin step as well as the dye bath.
+    expect(pdf.text).toContain('tannic acid 8 % owf = 20 g');
+    expect(pdf.text).toContain('madder 60 % owf = 150 g');
+    expect(pdf.text).toContain('liquor 1:30');
+    expect(pdf.text).toContain('250 g dry mass');
   });
 
   it('series cards, series labels and batch labels download for staff and not for visitors', async () => {
@@ -105,6 +151,10 @@ describe('sample cards and labels', () => {
     const bin = (url: string) => dyer.get(url).buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (x: Buffer) => c.push(x)); r.on('end', () => cb(null, Buffer.concat(c))); });
     const cards = await readPdf((await bin(`/api/series/${demo.id}/cards.pdf`).expect(200)).body);
     expect(cards.qr.length).toBeGreaterThanOrEqual(3);
+    // The demo workshop's cells carry their tannin and mordant steps, each amount with its unit and grams for 10 g.
+    expect(cards.text).toContain('mordant strong Al (potash alum 15 % owf)');
+    expect(cards.text).toContain('mordant-bath: potash alum 15 % owf = 1.5 g');
+    expect(cards.text).toContain('tannin: tannic acid 10 % owf = 1 g');
     const labels = await readPdf((await bin(`/api/series/${demo.id}/labels.pdf`).expect(200)).body);
     expect(labels.text).toContain('WS-2024-01');
     const batches = (await dyer.get('/api/batches?pageSize=100').expect(200)).body.items;
@@ -112,7 +162,8 @@ describe('sample cards and labels', () => {
     const label = await readPdf((await bin(`/api/batches/${mb09.id}/label.pdf`).expect(200)).body);
     // iron(II) sulfate carries Warning with H302/H315/H319 → exclamation mark (GHS Annex 1, from memory).
     expect(label.text).toContain('WARNING');
-    expect(label.text).toContain('exclamation mark');
+    expect(label.text).toContain('GHS07');
+    expect(label.text).not.toContain('exclamation mark');
     expect(label.text).toContain('safety data sheet');
     await request(app).get(`/api/series/${demo.id}/cards.pdf`).expect(401);
     await request(app).get(`/api/batches/${mb09.id}/label.pdf`).expect(401);

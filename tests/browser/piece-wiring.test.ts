@@ -74,7 +74,7 @@ describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offer
     await page.close();
   });
 
-  it('dyer: the manifest but no exports, no retry and no Import', async () => {
+  it('dyer: the manifest and the palettes and trials CSVs but no catalogue exports, no retry and no Import; a trial page links its sample card', async () => {
     const page = await asRole('dyer@demo.test');
     await page.goto(`${server.url}/archive/${pieceId}`);
     await page.getByTestId('iiif-manifest-link').waitFor();
@@ -83,7 +83,19 @@ describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offer
     expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Import' }).count()).toBe(0);
     await page.goto(`${server.url}/trials`);
     await page.getByRole('heading', { name: 'Trials' }).waitFor();
-    expect(await page.getByRole('link', { name: 'Export trials (CSV)' }).count()).toBe(0);
+    // Whoever reads trials may export them.
+    const trialsCsv = await page.getByRole('link', { name: 'Export trials (CSV)' }).getAttribute('href');
+    expect(trialsCsv).toBe('/api/export/trials.csv');
+    expect((await page.request.get(`${server.url}${trialsCsv}`)).status()).toBe(200);
+    await page.goto(`${server.url}/archive/${pieceId}`);
+    const palettes = await page.getByRole('link', { name: 'Palettes (CSV)' }).getAttribute('href');
+    expect(palettes).toBe(`/api/pieces/${pieceId}/palettes.csv`);
+    expect((await page.request.get(`${server.url}${palettes}`)).headers()['content-type']).toMatch(/text\/csv/);
+    const first = (await (await page.request.get(`${server.url}/api/trials?pageSize=1`)).json()).items[0];
+    await page.goto(`${server.url}/trials/${first.id}`);
+    const card = await page.getByRole('link', { name: 'Sample card (PDF)' }).getAttribute('href');
+    expect(card).toBe(`/api/trials/${first.id}/card.pdf`);
+    expect((await page.request.get(`${server.url}${card}`)).headers()['content-type']).toBe('application/pdf');
     await page.close();
   });
 

@@ -48,5 +48,11 @@ describe('from a palette swatch to the pieces with that shade', () => {
       expect(f.dE).toBeLessThanOrEqual(5);
       expect(Math.abs(deltaE00(hexToLab(MADDER_RED), f.lab) - f.dE)).toBeLessThan(0.15);
     }
+    // The same matches as CSV, in the same order, from the link beside the table.
+    const csvHref = await page.getByRole('link', { name: 'Export matches (CSV)' }).getAttribute('href');
+    expect(csvHref).toMatch(/^\/api\/export\/shade\.csv\?/);
+    const csv = await (await page.request.get(`${server.url}${csvHref}`)).text();
+    const accessions = csv.trim().split('\n').slice(1).map((line) => line.split(',')[1]);
+    expect(accessions.slice(0, found.length)).toEqual(found.map((f) => f.piece.split(' ')[0]));
   });
 });

@@ -17,6 +17,9 @@ function toQuery(params: SearchParams, keys: readonly string[]): string {
   return u.toString();
 }
 
+/** The shade search's own parameters without paging: the CSV export then holds every match. */
+export const shadeExportQuery = (p: SearchParams) => toQuery(p, [...FILTER_KEYS, ...SHADE_KEYS.filter((k) => k !== 'limit')]);
+
 export const searchKeys = {
   all: ['search'] as const,
   text: (p: SearchParams) => [...searchKeys.all, 'text', toQuery(p, [...FILTER_KEYS, 'page'])] as const,

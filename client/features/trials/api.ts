@@ -27,6 +27,8 @@ const qs = (q: Record<string, unknown>) => {
 export const fetchTrials = (q: TrialListQuery) => http<TrialList>(`/api/trials${qs(q)}`);
 export const fetchTrial = (id: number) => http<{ trial: TrialView }>(`/api/trials/${id}`).then((r) => r.trial);
 export const fetchPieceTrials = (pieceId: number) => http<PieceTrials>(`/api/pieces/${pieceId}/trials`);
+/** The printable sample card of one trial (a plain link: the browser opens the PDF). */
+export const trialCardUrl = (id: number) => `/api/trials/${id}/card.pdf`;
 
 export const trialsQuery = (q: TrialListQuery) => queryOptions({ queryKey: trialKeys.list(q), queryFn: () => fetchTrials(q), placeholderData: keepPreviousData });
 export const trialQuery = (id: number) => queryOptions({ queryKey: trialKeys.detail(id), queryFn: () => fetchTrial(id) });

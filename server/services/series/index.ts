@@ -5,6 +5,7 @@ import { conflict, unprocessable } from '../../http/errors.ts';
 import { Chemical, Dyestuff, RecipeStep, Trial, TrialSeries } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
 import { nextTrialCode } from '../trials/code.ts';
+import { checkPiece, checkTarget } from '../trials/refs.ts';
 import { cellKey, cellRecipe, expand, type StoredFactor } from './plan.ts';
 
 type Ctx<I> = { actor: NonNullable<Actor>; transaction: Transaction; input: I };
@@ -16,6 +17,8 @@ export async function createSeries({ actor, transaction, input }: Ctx<SeriesCrea
   const names = input.factors.map((f) => f.name);
   if (new Set(names).size !== names.length) throw unprocessable('Each factor needs its own name.', { fields: { factors: ['Two factors share a name'] } });
   if (input.kind === 'workshop' && !input.participants.length) throw unprocessable('A workshop needs participant codes.', { fields: { participants: ['Add pseudonymous codes such as P-01'] } });
+  await checkPiece(input.pieceId, transaction);
+  await checkTarget(input.pieceId, input, transaction);
   const factors = await resolveRefs(input.factors, transaction);
   const cells = expand(factors);
   if (cells.length > 500) throw unprocessable(`That makes ${cells.length} cells; keep a series to 500 or fewer.`);
@@ -23,8 +26,14 @@ export async function createSeries({ actor, transaction, input }: Ctx<SeriesCrea
 }
 
 export async function updateSeries({ transaction, input, series }: Ctx<SeriesUpdateInput> & { series: TrialSeries }) {
-  const { keep, ...rest } = input;
+  const { keep, targetPaletteColourId, targetRegionId, targetMeasurementId, ...rest } = input;
   const patch: Partial<TrialSeries['_creationAttributes']> = { ...rest };
+  // A new target replaces the old one whichever kind it is; trials already planned keep theirs.
+  if (targetPaletteColourId !== undefined || targetRegionId !== undefined || targetMeasurementId !== undefined) {
+    const target = { targetPaletteColourId: targetPaletteColourId ?? null, targetRegionId: targetRegionId ?? null, targetMeasurementId: targetMeasurementId ?? null };
+    await checkTarget(series.pieceId, target, transaction);
+    Object.assign(patch, target);
+  }
   if (keep) {
     const all = expand(factorsOf(series));
     const wanted = new Set(keep);
@@ -55,7 +64,8 @@ export async function createSeriesTrials({ actor, transaction, series }: Omit<Ct
     const trial = await Trial.create(
       {
         // Each call sees the codes this transaction has already used.
-        code: await nextTrialCode(new Date().getUTCFullYear(), transaction), pieceId: locked.pieceId, seriesId: locked.id, cell, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null,
+        code: await nextTrialCode(new Date().getUTCFullYear(), transaction), pieceId: locked.pieceId, seriesId: locked.id, cell,
+        targetPaletteColourId: locked.targetPaletteColourId, targetRegionId: locked.targetRegionId, targetMeasurementId: locked.targetMeasurementId,
         dyerId: actor.id, status: 'planned', fibre: null, weave: null, gsm: null, dryMassG: locked.dryMassG, fastness: null,
         notes: `Planned by series ${locked.code}: ${Object.entries(cell).map(([k, v]) => `${k} ${v}`).join(', ')}`, startedOn: null,
       },

@@ -3,11 +3,10 @@ import { manifestUrl } from '../../iiif/api';
 import { exportUrls } from '../urls';
 import { DownloadLink } from './DownloadLink';
 
-/** Getting a piece out: its IIIF manifest once published, and (for those allowed to export) Dublin Core and the masters. */
+/** Getting a piece out: its IIIF manifest once published, its palettes to anyone who reads it, and (for those allowed to export) Dublin Core and the masters. */
 export function PieceShareLinks({ pieceId, published, hasPhotos }: { pieceId: number; published: boolean; hasPhotos: boolean }) {
   const can = useCan();
   const mayExport = can('export:run');
-  if (!published && !mayExport) return null;
   return (
     <section aria-labelledby="share-heading" className="rounded-lg border border-rule bg-sheet p-4">
       <h2 id="share-heading" className="font-serif text-lg">
@@ -18,6 +17,11 @@ export function PieceShareLinks({ pieceId, published, hasPhotos }: { pieceId: nu
           <a href={manifestUrl(pieceId)} className="rounded-md border border-rule-strong bg-sheet px-3 py-1.5 text-sm hover:bg-paper" data-testid="iiif-manifest-link">
             IIIF manifest
           </a>
+        ) : null}
+        {hasPhotos ? (
+          <DownloadLink href={exportUrls.piecePalettesCsv(pieceId)} hint="Each photo's palettes: region, variant, L*a*b* (image estimate, D65/2°), hex and share">
+            Palettes (CSV)
+          </DownloadLink>
         ) : null}
         {mayExport ? (
           <>

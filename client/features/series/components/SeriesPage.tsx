@@ -4,8 +4,33 @@ import { Button } from '../../../components/Button';
 import { Page } from '../../../components/Page';
 import { ApiError } from '../../../lib/http';
 import { paths } from '../../../paths';
-import { useCreateSeriesTrials, useSeries, useUpdateSeries } from '../api';
+import { useCreateSeriesTrials, useSeries, useUpdateSeries, type SeriesDetail } from '../api';
 import { MaterialsTable } from './MaterialsTable';
+import { TargetSelect, targetIds, targetValue } from '../../trials/components/TrialFields';
+
+/** The colour of the piece the series aims at; trials planned from now on take it as their target. */
+function SeriesTarget({ s, canEdit }: { s: SeriesDetail; canEdit: boolean }) {
+  const update = useUpdateSeries(s.id);
+  const saved = targetValue(s.target);
+  const [value, setValue] = useState(saved);
+  useEffect(() => setValue(saved), [saved]);
+  if (s.pieceId == null) return null;
+  const fields = update.error instanceof ApiError ? update.error.details?.fields : undefined;
+  return (
+    <section aria-labelledby="target" className="mb-8 max-w-2xl">
+      <h2 id="target" className="text-xl font-semibold mb-2">Target colour</h2>
+      <p className="text-sm text-ink-soft mb-2">Trials planned from this series compare their swatch with this colour of the piece (ΔE00 on each card).</p>
+      {canEdit ? (
+        <div className="flex flex-wrap items-end gap-2">
+          <div className="grow">
+            <TargetSelect pieceId={s.pieceId} value={value} onChange={setValue} error={fields?.target ?? fields?.targetPaletteColourId ?? fields?.targetRegionId ?? fields?.targetMeasurementId} />
+          </div>
+          <Button variant="secondary" disabled={value === saved || update.isPending} onClick={() => update.mutate(targetIds(value))}>Save target</Button>
+        </div>
+      ) : <p className="text-sm">{saved ? 'Set: see the planned trials for the colour.' : 'No target colour.'}</p>}
+    </section>
+  );
+}
 
 export function SeriesPage() {
   const id = Number(useParams().id);
@@ -29,6 +54,7 @@ export function SeriesPage() {
         <a className="rounded-md border border-rule-strong bg-sheet px-4 py-2 text-sm" href={`/api/series/${s.id}/cards.pdf`}>Sample cards (PDF)</a>
         <a className="rounded-md border border-rule-strong bg-sheet px-4 py-2 text-sm" href={`/api/series/${s.id}/labels.pdf`}>Labels (PDF)</a>
       </>}>
+      <SeriesTarget s={s} canEdit={canEdit} />
       <section aria-labelledby="cells" className="mb-8">
         <h2 id="cells" className="text-xl font-semibold mb-2">Cells</h2>
         <p className="text-sm text-ink-soft mb-2">Untick a cell to prune it; recipes are scaled to {s.dryMassG ?? '—'} g of dry fibre.</p>

@@ -19,8 +19,19 @@ export type TrialFormValues = {
 };
 export type FieldErrors = Record<string, string[]> | undefined;
 
+/** "palette:12" → the three target ids a trial or a series stores (one set at most). */
+export const targetIds = (target: string) => {
+  const [kind, id] = target.split(':');
+  return {
+    targetPaletteColourId: kind === 'palette' ? Number(id) : null,
+    targetRegionId: kind === 'region' ? Number(id) : null,
+    targetMeasurementId: kind === 'measurement' ? Number(id) : null,
+  };
+};
+export const targetValue = (t: { paletteColourId: number | null; regionId: number | null; measurementId: number | null }) =>
+  t.paletteColourId ? `palette:${t.paletteColourId}` : t.regionId ? `region:${t.regionId}` : t.measurementId ? `measurement:${t.measurementId}` : '';
+
 export const toTrialInput = (v: TrialFormValues) => {
-  const [kind, id] = v.target.split(':');
   const num = (s: string) => (s.trim() === '' ? null : Number(s));
   return {
     status: v.status as (typeof TRIAL_STATUSES)[number],
@@ -30,14 +41,12 @@ export const toTrialInput = (v: TrialFormValues) => {
     dryMassG: Number(v.dryMassG),
     startedOn: v.startedOn || null,
     notes: v.notes || null,
-    targetPaletteColourId: kind === 'palette' ? Number(id) : null,
-    targetRegionId: kind === 'region' ? Number(id) : null,
-    targetMeasurementId: kind === 'measurement' ? Number(id) : null,
+    ...targetIds(v.target),
   };
 };
 
 /** The target choices of a piece: its colour regions and the leading palette colours of each photo. */
-function TargetSelect({ pieceId, value, onChange, error }: { pieceId: number; value: string; onChange: (v: string) => void; error?: string[] }) {
+export function TargetSelect({ pieceId, value, onChange, error }: { pieceId: number; value: string; onChange: (v: string) => void; error?: string[] }) {
   const piece = usePiece(pieceId);
   const readings = usePieceTrials(pieceId).data?.targets.measurements ?? [];
   const photos = piece.data?.photos ?? [];

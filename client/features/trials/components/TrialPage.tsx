@@ -6,7 +6,7 @@ import { Page } from '../../../components/Page';
 import { ApiError } from '../../../lib/http';
 import { paths } from '../../../paths';
 import { NotFound } from '../../../routes/NotFound';
-import { useDeleteTrial, useTrial, useUpdateTrial, type TrialView } from '../api';
+import { trialCardUrl, useDeleteTrial, useTrial, useUpdateTrial, type TrialView } from '../api';
 import { fmt, STATUS_WORDS } from '../format';
 import { FastnessSection } from './FastnessSection';
 import { RecipeEditor } from './RecipeEditor';
@@ -68,6 +68,7 @@ export function TrialPage() {
       actions={
         <>
           {trial.piece ? <Link className="rounded-md border border-rule-strong bg-sheet px-4 py-2 text-sm hover:bg-paper" to={paths.sideBySide(trial.piece.id)}>Side by side</Link> : null}
+          <a className="rounded-md border border-rule-strong bg-sheet px-4 py-2 text-sm hover:bg-paper" href={trialCardUrl(trial.id)} title="This trial's printable sample card: swatch, recipe with units, ΔE00 to the target and a QR code back to this page">Sample card (PDF)</a>
           {canEdit && !editing ? <Button variant="secondary" onClick={() => setEditing('details')}>Edit details</Button> : null}
           {canEdit && !editing ? <Button variant="secondary" onClick={() => setEditing('recipe')}>Edit recipe</Button> : null}
           {trial.abilities['trial:delete'] ? <Button variant="danger" onClick={() => confirm(`Delete trial ${trial.code} with its recipe and readings?`) && remove.mutate(undefined, { onSuccess: () => navigate(paths.trials()) })}>Delete</Button> : null}

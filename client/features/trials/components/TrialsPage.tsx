@@ -44,7 +44,7 @@ export function TrialsPage() {
       lead="Reproduction trials: recipes, the safer chemistry that replaced historical mordants, and how close each result came to its original."
       actions={
         <>
-          {can('export:run') ? <DownloadLink href={exportUrls.trialsCsv()} hint="Every trial as a CSV spreadsheet">Export trials (CSV)</DownloadLink> : null}
+          {can('trial:read') ? <DownloadLink href={exportUrls.trialsCsv()} hint="Every trial as a CSV spreadsheet: recipe, target and result L*a*b* with their viewing conditions, ΔE00, CMC(2:1), verdict and fastness grades">Export trials (CSV)</DownloadLink> : null}
           {can('trial:create') ? <Link className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong" to={paths.trialNew()}>New trial</Link> : null}
         </>
       }
