@@ -31,11 +31,21 @@ describe('cataloguing a piece in Chromium', () => {
 
     // The vocabularies fill the checklists and move the form's button; wait for them first.
     await page.getByLabel('cotton').waitFor();
-    const accession = `2098.${Date.now() % 100000}.1`;
+    const accession = `EX 2098/${Date.now() % 100000}`;
     // A wrong accession number is explained beside the field before anything is sent.
-    await page.getByLabel('Accession number').fill('1931/4/12');
+    await page.getByLabel('Accession number').fill('1931.4.12#');
     await page.getByRole('button', { name: 'Save draft' }).click();
-    await page.getByText('Use a number such as 1931.4.12').first().waitFor();
+    await page.getByText('Use letters and digits', { exact: false }).first().waitFor();
+    // Empty required fields say what to enter, not a type error.
+    await page.getByText('Enter the object name, e.g. panel').waitFor();
+    // A number already in the archive, written in other case and spacing, is refused beside the field by the server.
+    await page.getByLabel('Accession number').fill(' 1931.4.12 ');
+    await page.getByLabel('Object name').fill('panel');
+    await page.getByLabel('Title', { exact: true }).fill('Clash');
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await page.getByText('That accession number is already used.').first().waitFor();
+    // Beside the field as well as above the button.
+    expect(await page.getByText('That accession number is already used.').count()).toBe(2);
 
     await page.getByLabel('Accession number').fill(accession);
     await page.getByLabel('Object name').fill('furnishing fabric');

@@ -7,6 +7,7 @@ import * as m0009trials from './0009-trials-settings.ts';
 import * as m0010baths from './0010-baths-series-liquor-ratio.ts';
 import * as m0011photoColour from './0011-photo-colour.ts';
 import * as m0013names from './0013-palette-names.ts';
+import * as m0015accession from './0015-accession-keys.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -19,4 +20,5 @@ export const migrations: Migration[] = [
   { name: '0010-baths-series-liquor-ratio', ...m0010baths },
   { name: '0011-photo-colour', ...m0011photoColour },
   { name: '0013-palette-names', ...m0013names },
+  { name: '0015-accession-keys', ...m0015accession },
 ];

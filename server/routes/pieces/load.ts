@@ -30,9 +30,9 @@ export async function listPieces(actor: Actor, q: PieceListQuery) {
   }
   const { rows, count } = await Piece.findAndCountAll({
     where: { [Op.and]: and },
-    // Accession numbers sort naturally (1931.4.9 before 1931.4.12), with MariaDB's NATURAL_SORT_KEY.
+    // Accession numbers sort naturally (1931.4.9 before 1931.4.12) by their stored sort key, the search's order too.
     order: [
-      q.sort === 'accessionNumber' ? [Sequelize.fn('NATURAL_SORT_KEY', Sequelize.col('accessionNumber')), q.dir.toUpperCase()] : [q.sort, q.dir.toUpperCase()],
+      q.sort === 'accessionNumber' ? ['accessionSort', q.dir.toUpperCase()] : [q.sort, q.dir.toUpperCase()],
       ['id', 'ASC'],
     ],
     limit: q.pageSize,
