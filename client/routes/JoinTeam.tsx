@@ -1,3 +1,5 @@
+import { useDocumentTitle } from '../lib/title';
+import { formatDateTime } from '../../shared/format';
 import { useState, type FormEvent } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
 import { acceptInvitationSchema } from '../../shared/schemas/team';
@@ -12,6 +14,7 @@ import { paths } from '../paths';
 import { NotFound } from './NotFound';
 
 export function JoinTeam() {
+  useDocumentTitle('Join the team');
   const { token = '' } = useParams();
   const invitation = useInvitation(token);
   const accept = useAcceptInvitation(token);
@@ -42,7 +45,7 @@ export function JoinTeam() {
       <h1 className="text-3xl font-semibold">Join the team</h1>
       <p className="mt-1 text-sm text-ink-soft">
         You are invited as <strong>{roleLabel[role]}</strong> with the address <span className="font-mono">{email}</span>. Choose the name others will see and a
-        password. The link expires on <time dateTime={expiresAt}>{new Date(expiresAt).toLocaleString()}</time>.
+        password. The link expires on <time dateTime={expiresAt}>{formatDateTime(expiresAt)}</time>.
       </p>
       <form className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
         <Field label="Your name" name="name" autoComplete="name" required error={errors.name} />

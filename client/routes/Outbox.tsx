@@ -1,3 +1,4 @@
+import { formatDateTime } from '../../shared/format';
 import { useState } from 'react';
 import { Page } from '../components/Page';
 import { Button } from '../components/Button';
@@ -25,7 +26,7 @@ export function Outbox() {
               <summary className="cursor-pointer px-4 py-3">
                 <span className="font-medium">{m.subject}</span>
                 <span className="ml-2 text-sm text-ink-soft">to {m.to.join(', ')}</span>
-                {m.date ? <time className="ml-2 text-xs text-ink-faint num" dateTime={m.date}>{new Date(m.date).toLocaleString()}</time> : null}
+                {m.date ? <time className="ml-2 text-xs text-ink-faint num" dateTime={m.date}>{formatDateTime(m.date)}</time> : null}
               </summary>
               <pre className="whitespace-pre-wrap border-t border-rule px-4 py-3 font-mono text-xs">{m.text}</pre>
             </details>

@@ -1,3 +1,4 @@
+import { useDocumentTitle } from '../lib/title';
 import { useState, type FormEvent } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { resetPasswordSchema } from '../../shared/schemas/team';
@@ -9,6 +10,7 @@ import { formMessage, parseForm, serverFieldErrors, type FieldErrors } from '../
 import { paths } from '../paths';
 
 export function ResetPassword() {
+  useDocumentTitle('Choose a new password');
   const { token = '' } = useParams();
   const reset = useResetPassword(token);
   const [errors, setErrors] = useState<FieldErrors>({});
