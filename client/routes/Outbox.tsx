@@ -6,6 +6,21 @@ import { useOutbox } from '../features/outbox/api';
 import { ApiError } from '../lib/http';
 import { NotFound } from './NotFound';
 
+const URL_IN_TEXT = /(https?:\/\/[^\s<>"]+[^\s<>".,;:!?)])/g;
+
+/** The message text with its links clickable, as a mail program shows them. */
+function Linked({ text }: { text: string }) {
+  return text.split(URL_IN_TEXT).map((part, i) =>
+    i % 2 ? (
+      <a key={i} href={part} className="text-action underline break-all">
+        {part}
+      </a>
+    ) : (
+      part
+    ),
+  );
+}
+
 /** Mail caught by the local SMTP catcher; the server offers it only outside production. */
 export function Outbox() {
   const [page, setPage] = useState(1);
@@ -28,7 +43,9 @@ export function Outbox() {
                 <span className="ml-2 text-sm text-ink-soft">to {m.to.join(', ')}</span>
                 {m.date ? <time className="ml-2 text-xs text-ink-faint num" dateTime={m.date}>{formatDateTime(m.date)}</time> : null}
               </summary>
-              <pre className="whitespace-pre-wrap border-t border-rule px-4 py-3 font-mono text-xs">{m.text}</pre>
+              <pre className="whitespace-pre-wrap border-t border-rule px-4 py-3 font-mono text-xs">
+                <Linked text={m.text} />
+              </pre>
             </details>
           </li>
         ))}
