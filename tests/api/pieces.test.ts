@@ -84,6 +84,9 @@ describe('pieces: create, read, validate', () => {
     const other = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece()).expect(201);
     const renum = await curator.patch(`/api/pieces/${other.body.piece.id}`).set('Origin', ORIGIN).send({ accessionNumber: `l${run}.3` }).expect(409);
     expect(renum.body.error.details.fields.accessionNumber[0]).toMatch(/already used \(as L/);
+    // The archive's search finds a number however it is typed.
+    const typed = await curator.get('/api/pieces').query({ q: `ex${run} /1` }).expect(200);
+    expect(typed.body.items.map((p: { accessionNumber: string }) => p.accessionNumber)).toEqual([`EX ${run}/1`]);
     const first = await curator.get('/api/pieces').query({ q: `L${run}.3` }).expect(200);
     await curator.patch(`/api/pieces/${first.body.items[0].id}`).set('Origin', ORIGIN).send({ accessionNumber: `l${run}.3` }).expect(200);
     // Even a write that skips the service cannot add a second spelling: the key column is unique.
