@@ -30,6 +30,13 @@ export function formatNumber(x: number, decimals = 1): string {
   return s.startsWith('-') ? `−${s.slice(1)}` : s;
 }
 
+/** A file size as people say it: 23 kB, 4.2 MB (decimal units, as file managers show them). */
+export function formatBytes(bytes: number): string {
+  if (bytes < 1000) return `${bytes} bytes`;
+  if (bytes < 1_000_000) return `${Math.round(bytes / 1000)} kB`;
+  return `${(bytes / 1_000_000).toFixed(1)} MB`;
+}
+
 /** EXIF exposure time in seconds → 1/60 s, 1/4000 s, 0.5 s, 2 s. */
 export function formatExposure(seconds: number): string {
   if (seconds <= 0) return `${seconds} s`;

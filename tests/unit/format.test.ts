@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { exifLines, formatDate, formatDateTime, formatExposure, formatLocalDateTime, formatNumber } from '../../shared/format.ts';
+import { exifLines, formatBytes, formatDate, formatDateTime, formatExposure, formatLocalDateTime, formatNumber } from '../../shared/format.ts';
 import { describeHistory } from '../../shared/history-words.ts';
 
 describe('one format for dates and numbers', () => {
@@ -20,6 +20,12 @@ describe('one format for dates and numbers', () => {
     expect(formatNumber(-1.26)).toBe('−1.3');
     expect(formatNumber(12.35, 1)).toBe('12.3'); // toFixed's own binary rounding, as everywhere else
     expect(formatNumber(7, 0)).toBe('7');
+  });
+
+  it('writes file sizes as people say them', () => {
+    expect(formatBytes(512)).toBe('512 bytes');
+    expect(formatBytes(23_456)).toBe('23 kB');
+    expect(formatBytes(4_234_567)).toBe('4.2 MB');
   });
 
   it('gives EXIF as labelled values with units', () => {

@@ -1,4 +1,4 @@
-import { exifLines, formatLocalDateTime, type ExifFacts } from '../../../../shared/format';
+import { exifLines, formatBytes, formatLocalDateTime, type ExifFacts } from '../../../../shared/format';
 import { colourFactsLines } from '../../../../shared/schemas/photo';
 import type { Photo } from '../../pieces/api';
 import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
@@ -88,7 +88,7 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
         <summary className="cursor-pointer">File facts</summary>
         <p className="mt-1 font-mono break-all">SHA-256 (fixity) {photo.sha256}</p>
         <p className="num">
-          {photo.format} · {(photo.bytes / 1024 / 1024).toFixed(1)} MB{photo.capturedAt ? ` · taken ${formatLocalDateTime(photo.capturedAt)}` : ''}
+          {photo.format} · {formatBytes(photo.bytes)}{photo.capturedAt ? ` · taken ${formatLocalDateTime(photo.capturedAt)}` : ''}
         </p>
         <ul data-testid="colour-facts">
           {colourFactsLines(photo.colour).map((l) => (
