@@ -1,6 +1,21 @@
+import { useDocumentTitle } from '../lib/title';
 import type { ReactNode } from 'react';
 
-export function Page({ title, lead, actions, children }: { title: string; lead?: ReactNode; actions?: ReactNode; children?: ReactNode }) {
+export function Page({
+  title,
+  documentTitle,
+  lead,
+  actions,
+  children,
+}: {
+  title: string;
+  /** The tab's title when it should differ from the heading (a piece is named by its accession number). */
+  documentTitle?: string;
+  lead?: ReactNode;
+  actions?: ReactNode;
+  children?: ReactNode;
+}) {
+  useDocumentTitle(documentTitle ?? title);
   return (
     <section>
       <div className="flex flex-wrap items-end justify-between gap-4 mb-6">

@@ -1,3 +1,4 @@
+import { useDocumentTitle } from '../lib/title';
 import { useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { resetRequestSchema } from '../../shared/schemas/team';
@@ -9,6 +10,7 @@ import { formMessage, parseForm, serverFieldErrors, type FieldErrors } from '../
 import { paths } from '../paths';
 
 export function ForgotPassword() {
+  useDocumentTitle('Reset your password');
   const request = useRequestPasswordReset();
   const [errors, setErrors] = useState<FieldErrors>({});
 

@@ -1,3 +1,4 @@
+import { useDocumentTitle } from '../lib/title';
 import { Link } from 'react-router-dom';
 import { Wordmark } from '../components/Wordmark';
 import { useHealth } from '../features/health/api';
@@ -11,6 +12,7 @@ const tasks = [
 ];
 
 export function Home() {
+  useDocumentTitle(null);
   const health = useHealth();
   return (
     <div>

@@ -1,8 +1,10 @@
+import { useDocumentTitle } from '../lib/title';
 import { Link, isRouteErrorResponse, useRouteError } from 'react-router-dom';
 import { ApiError } from '../lib/http';
 import { paths } from '../paths';
 
 export function NotFound({ title = 'Not found', text = 'There is nothing at this address, or you may not see it.' }: { title?: string; text?: string }) {
+  useDocumentTitle(title);
   return (
     <div className="py-16 max-w-xl">
       <p className="font-mono text-sm text-ink-faint">404</p>
@@ -17,6 +19,7 @@ export function NotFound({ title = 'Not found', text = 'There is nothing at this
 
 /** A signed-in user whose role does not allow this page. */
 export function Forbidden({ text = 'Your role does not include this part of Tinctoria. An admin can change your role on the team page.' }: { text?: string }) {
+  useDocumentTitle('Not allowed');
   return (
     <div className="py-16 max-w-xl">
       <p className="font-mono text-sm text-ink-faint">403</p>

@@ -1,9 +1,25 @@
+import { formatDateTime } from '../../shared/format';
 import { useState } from 'react';
 import { Page } from '../components/Page';
 import { Button } from '../components/Button';
 import { useOutbox } from '../features/outbox/api';
 import { ApiError } from '../lib/http';
 import { NotFound } from './NotFound';
+
+const URL_IN_TEXT = /(https?:\/\/[^\s<>"]+[^\s<>".,;:!?)])/g;
+
+/** The message text with its links clickable, as a mail program shows them. */
+function Linked({ text }: { text: string }) {
+  return text.split(URL_IN_TEXT).map((part, i) =>
+    i % 2 ? (
+      <a key={i} href={part} className="text-action underline break-all">
+        {part}
+      </a>
+    ) : (
+      part
+    ),
+  );
+}
 
 /** Mail caught by the local SMTP catcher; the server offers it only outside production. */
 export function Outbox() {
@@ -25,9 +41,11 @@ export function Outbox() {
               <summary className="cursor-pointer px-4 py-3">
                 <span className="font-medium">{m.subject}</span>
                 <span className="ml-2 text-sm text-ink-soft">to {m.to.join(', ')}</span>
-                {m.date ? <time className="ml-2 text-xs text-ink-faint num" dateTime={m.date}>{new Date(m.date).toLocaleString()}</time> : null}
+                {m.date ? <time className="ml-2 text-xs text-ink-faint num" dateTime={m.date}>{formatDateTime(m.date)}</time> : null}
               </summary>
-              <pre className="whitespace-pre-wrap border-t border-rule px-4 py-3 font-mono text-xs">{m.text}</pre>
+              <pre className="whitespace-pre-wrap border-t border-rule px-4 py-3 font-mono text-xs">
+                <Linked text={m.text} />
+              </pre>
             </details>
           </li>
         ))}

@@ -30,6 +30,7 @@ export function PieceDetailPage() {
   return (
     <Page
       title={piece.title}
+      documentTitle={piece.accessionNumber}
       lead={
         <span className="flex flex-wrap items-center gap-2">
           <span className="font-mono">{piece.accessionNumber}</span> · {piece.objectName} <StatusBadge status={piece.status} deleted={deleted} />

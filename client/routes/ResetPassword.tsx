@@ -1,16 +1,19 @@
+import { useDocumentTitle } from '../lib/title';
 import { useState, type FormEvent } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { resetPasswordSchema } from '../../shared/schemas/team';
 import { Button } from '../components/Button';
 import { Field } from '../components/form/Field';
 import { FormAlert } from '../components/form/FormAlert';
-import { useResetPassword } from '../features/auth/api';
+import { useResetLink, useResetPassword } from '../features/auth/api';
 import { formMessage, parseForm, serverFieldErrors, type FieldErrors } from '../lib/form';
 import { paths } from '../paths';
 
 export function ResetPassword() {
+  useDocumentTitle('Choose a new password');
   const { token = '' } = useParams();
   const reset = useResetPassword(token);
+  const link = useResetLink(token);
   const [errors, setErrors] = useState<FieldErrors>({});
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
@@ -21,6 +24,22 @@ export function ResetPassword() {
     await reset.mutateAsync(parsed.data).catch((err) => setErrors(serverFieldErrors(err)));
   }
 
+  if (link.isPending) return <p className="py-10 text-ink-soft">Checking the link…</p>;
+  if (link.error && !reset.isSuccess)
+    return (
+      <div className="mx-auto max-w-md py-10 space-y-4" data-testid="spent-reset-link">
+        <h1 className="text-3xl font-semibold">This link no longer works</h1>
+        <p className="text-ink-soft">{link.error.message}</p>
+        <p className="flex flex-wrap gap-4 text-sm">
+          <Link to={paths.forgotPassword()} className="text-action underline">
+            Ask for a new link
+          </Link>
+          <Link to={paths.signIn()} className="text-action underline">
+            Sign in
+          </Link>
+        </p>
+      </div>
+    );
   return (
     <div className="mx-auto max-w-sm py-10">
       <h1 className="text-3xl font-semibold">Choose a new password</h1>

@@ -1,3 +1,4 @@
+import { useDocumentTitle } from '../lib/title';
 import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { loginSchema } from '../../shared/schemas/auth';
@@ -11,6 +12,7 @@ import { paths } from '../paths';
 const safeNext = (next: string | null) => (next && next.startsWith('/') && !next.startsWith('//') ? next : paths.home());
 
 export function SignIn() {
+  useDocumentTitle('Sign in');
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const login = useLogin();

@@ -2,6 +2,7 @@ import { Op, type Transaction } from 'sequelize';
 import { Chemical, Dyestuff, Piece, VocabularyTerm, sequelize } from '../models/index.ts';
 import type { Actor } from '../policies/index.ts';
 import { HttpError } from '../http/errors.ts';
+import { accessionKey } from '../../shared/accession.ts';
 import { pieceImportRow, type ColumnMapping, type ImportError, type ImportPreview, type ImportResult, type PieceImportRow } from '../../shared/schemas/piece-import.ts';
 import { decodeUtf8, readPieceCsv } from './csv-file.ts';
 
@@ -24,12 +25,12 @@ async function vocabularies(transaction?: Transaction) {
   };
 }
 
-/** Accession numbers already in the archive, soft-deleted ones included (they keep their number). */
+/** Accession keys (no case, no spaces) already in the archive, soft-deleted ones included (they keep their number). */
 async function existingAccessions(numbers: string[], transaction?: Transaction) {
   const found = new Set<string>();
   for (let i = 0; i < numbers.length; i += CHUNK) {
-    const rows = await Piece.findAll({ attributes: ['accessionNumber'], where: { accessionNumber: { [Op.in]: numbers.slice(i, i + CHUNK) } }, paranoid: false, transaction });
-    for (const r of rows) found.add(r.accessionNumber.toLowerCase());
+    const rows = await Piece.findAll({ attributes: ['accessionKey'], where: { accessionKey: { [Op.in]: numbers.slice(i, i + CHUNK) } }, paranoid: false, transaction });
+    for (const r of rows) found.add(r.accessionKey);
   }
   return found;
 }
@@ -61,7 +62,7 @@ export async function checkCsv(buffer: Buffer, mapping: ColumnMapping, transacti
       value.dyestuffs = value.dyestuffs.map((d, i) => ({ ...d, name: names[i] }));
       const mordants = known(value.historicalMordants.map((d) => d.name), vocab.mordant, 'historicalMordants', 'mordant (chemical)');
       value.historicalMordants = value.historicalMordants.map((d, i) => ({ ...d, name: mordants[i] }));
-      const key = value.accessionNumber.toLowerCase();
+      const key = accessionKey(value.accessionNumber);
       const first = firstLine.get(key);
       if (first !== undefined) errors.push({ line: row.line, field: 'accessionNumber', message: `Accession number ${value.accessionNumber} is also on line ${first} of this file.` });
       else firstLine.set(key, row.line);
@@ -70,7 +71,7 @@ export async function checkCsv(buffer: Buffer, mapping: ColumnMapping, transacti
   });
   const inArchive = await existingAccessions([...firstLine.keys()], transaction);
   for (const c of checked) {
-    if (c.value && inArchive.has(c.value.accessionNumber.toLowerCase()))
+    if (c.value && inArchive.has(accessionKey(c.value.accessionNumber)))
       c.errors.push({ line: c.line, field: 'accessionNumber', message: `Accession number ${c.value.accessionNumber} is already in the archive.` });
   }
   if (!checked.length) fileErrors.push({ line: 2, field: null, message: 'The file has a header but no pieces.' });

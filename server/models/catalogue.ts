@@ -1,3 +1,4 @@
+import { accessionKey, accessionSortKey } from '../../shared/accession.ts';
 import type { PhotoColourFacts } from '../../shared/schemas/photo.ts';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
@@ -8,6 +9,9 @@ export type PieceStatus = 'draft' | 'published';
 export class Piece extends Model<InferAttributes<Piece>, InferCreationAttributes<Piece>> {
   declare id: CreationOptional<number>;
   declare accessionNumber: string;
+  /** Derived from accessionNumber by its setter: the unique key (no case, no spaces) and the natural sort key. */
+  declare accessionKey: CreationOptional<string>;
+  declare accessionSort: CreationOptional<string>;
   declare objectName: string;
   declare title: string;
   declare dateText: string | null;
@@ -134,7 +138,19 @@ export function initCatalogueModels(sequelize: Sequelize) {
   Piece.init(
     {
       id: pk(),
-      accessionNumber: { type: DataTypes.STRING(40), allowNull: false, unique: true },
+      accessionNumber: {
+        type: DataTypes.STRING(40),
+        allowNull: false,
+        unique: true,
+        // Every write of the number (create, bulkCreate, update) keeps the derived keys in step.
+        set(this: Piece, value: string) {
+          this.setDataValue('accessionNumber', value);
+          this.setDataValue('accessionKey', accessionKey(value));
+          this.setDataValue('accessionSort', accessionSortKey(value));
+        },
+      },
+      accessionKey: { type: DataTypes.STRING(40), allowNull: false, unique: true },
+      accessionSort: { type: DataTypes.STRING(120, true), allowNull: false },
       objectName: { type: DataTypes.STRING(120), allowNull: false },
       title: { type: DataTypes.STRING(255), allowNull: false },
       dateText: DataTypes.STRING(120),

@@ -1,10 +1,10 @@
+import { accessionSortKey } from '../../shared/accession.ts';
 import type { FacetName } from '../../shared/schemas/search.ts';
 import type { PieceDoc } from './docs.ts';
 import type { TextIndex } from './text-index.ts';
 
 export const FACETS: FacetName[] = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'];
 
-const collator = new Intl.Collator('en', { numeric: true });
 const ordinal = (n: number) => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
 const centuryLabel = (c: number) => `${ordinal(c)} century (${(c - 1) * 100}–${(c - 1) * 100 + 99})`;
 export const norm = (s: string) => s.trim().toLowerCase();
@@ -30,8 +30,19 @@ export type FacetTable = {
 };
 let table: FacetTable | null = null;
 
-const byAccession = (x: PieceDoc, y: PieceDoc) => collator.compare(x.accessionNumber, y.accessionNumber) || x.id - y.id;
-// The previous build's order. Sorting 170,000 accession numbers with the collator takes most of a second, so
+// The archive list's natural order (shared/accession.ts), so search and archive agree.
+const sortKeys = new Map<string, string>(); // filled while ordering, emptied after
+const sortKey = (n: string) => {
+  let k = sortKeys.get(n);
+  if (k === undefined) sortKeys.set(n, (k = accessionSortKey(n)));
+  return k;
+};
+const byAccession = (x: PieceDoc, y: PieceDoc) => {
+  const a = sortKey(x.accessionNumber);
+  const b = sortKey(y.accessionNumber);
+  return a < b ? -1 : a > b ? 1 : x.id - y.id;
+};
+// The previous build's order. Sorting 170,000 accession numbers takes most of a second, so
 // after an edit the unchanged pieces keep their order and only the added or renumbered ones are sorted in.
 let lastOrder: { ids: number[]; acc: Array<string | undefined> } | null = null;
 
@@ -56,6 +67,7 @@ function accessionOrder(byId: ReadonlyArray<PieceDoc | undefined>, present: Piec
   const acc: Array<string | undefined> = Array.from({ length: byId.length });
   for (const d of present) acc[d.id] = d.accessionNumber;
   lastOrder = { ids: order.map((d) => d.id), acc };
+  sortKeys.clear();
   return order;
 }
 /** The table for this index version: built once per version (the engine builds it right after a load). */

@@ -1,9 +1,9 @@
 import { Op, type Transaction } from 'sequelize';
 import type { ResetPasswordInput } from '../../shared/schemas/team.ts';
 import { hashPassword } from '../auth/passwords.ts';
-import { issueToken, spendToken } from '../auth/tokens.ts';
+import { findLiveToken, issueToken } from '../auth/tokens.ts';
 import { publicUrl } from '../env.ts';
-import { notFound } from '../http/errors.ts';
+import { HttpError, notFound } from '../http/errors.ts';
 import { sendMail } from '../mail/index.ts';
 import { resetLetter } from '../mail/letters.ts';
 import { AuthToken, Session, User, sequelize } from '../models/index.ts';
@@ -24,9 +24,23 @@ export async function requestPasswordReset(email: string): Promise<void> {
   await sendMail(resetLetter({ to: user.email, name: user.name, url: resetUrl(token), expiresAt: record.expiresAt }));
 }
 
+/** A live reset link, or a 404/410 in words that point to signing in or asking for a new link. */
+export async function liveResetToken(plain: string, transaction?: Transaction, lock = false) {
+  try {
+    return await findLiveToken(plain, 'password-reset', transaction, lock);
+  } catch (err) {
+    if (!(err instanceof HttpError)) throw err;
+    if (err.code === 'token_used')
+      throw new HttpError(410, 'token_used', 'This link has already been used (or a newer one was sent). Sign in with your password, or ask for a new link.');
+    if (err.code === 'token_expired') throw new HttpError(410, 'token_expired', 'This link has expired: reset links work for 2 hours. Ask for a new one.');
+    throw new HttpError(404, 'token_unknown', 'This link is not valid; it may have been copied incompletely. Ask for a new one.');
+  }
+}
+
 /** Set a new password with a reset token; every session of that user ends. */
 export async function resetPassword({ transaction, input }: { transaction: Transaction; input: ResetPasswordInput & { token: string } }) {
-  const record = await spendToken(input.token, 'password-reset', transaction);
+  const record = await liveResetToken(input.token, transaction, true);
+  await record.update({ usedAt: new Date() }, { transaction });
   const user = record.userId ? await User.findByPk(record.userId, { transaction, lock: transaction.LOCK.UPDATE }) : null;
   if (!user || !user.active) throw notFound('Account');
   await user.update({ passwordHash: await hashPassword(input.password) }, { transaction });

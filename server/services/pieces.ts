@@ -1,5 +1,6 @@
 import type { Transaction } from 'sequelize';
 import { dateIssues, type PieceCreateInput, type PieceUpdateInput } from '../../shared/schemas/piece.ts';
+import { accessionKey } from '../../shared/accession.ts';
 import { edtfYears } from '../../shared/edtf.ts';
 import { HttpError, badRequest, conflict } from '../http/errors.ts';
 import { Piece, VocabularyTerm } from '../models/index.ts';
@@ -22,9 +23,13 @@ async function checkVocabulary(input: { fibres?: string[]; techniques?: string[]
 }
 
 async function checkAccessionFree(accessionNumber: string, exceptId: number | null, transaction: Transaction) {
-  const other = await Piece.findOne({ where: { accessionNumber }, paranoid: false, transaction });
+  // Case and spaces do not make a new number: "ex 2021/1" is taken when "EX 2021/1" exists.
+  const other = await Piece.findOne({ where: { accessionKey: accessionKey(accessionNumber) }, paranoid: false, transaction });
   if (other && other.id !== exceptId) {
-    const message = other.deletedAt ? 'That accession number belongs to a deleted piece; an admin can restore it.' : 'That accession number is already used.';
+    const as = other.accessionNumber === accessionNumber ? '' : ` (as ${other.accessionNumber})`;
+    const message = other.deletedAt
+      ? `That accession number belongs to a deleted piece${as}; an admin can restore it.`
+      : `That accession number is already used${as}.`;
     throw conflict(message, { fields: { accessionNumber: [message] } });
   }
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
 import { edtfYears } from './edtf.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).
@@ -66,7 +67,7 @@ const mm = z
 /** One CSV row (all cells strings) → a piece's fields; vocabulary and uniqueness checks need the archive and run on the server. */
 export const pieceImportRow = z
   .object({
-    accessionNumber: required(40, 'Accession number').regex(/^[\p{L}\p{N}][\p{L}\p{N}.\-/: ]*$/u, 'Letters, digits, dots, dashes and slashes only.'),
+    accessionNumber: required(ACCESSION_MAX, 'Accession number').transform(tidyAccession).pipe(z.string().regex(ACCESSION_PATTERN, `${ACCESSION_MESSAGE}.`)),
     objectName: required(120, 'Object name'),
     title: required(255, 'Title'),
     dateText: text(120),

@@ -1,9 +1,8 @@
 import { z } from 'zod';
+import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
 import { edtfYears } from '../edtf.ts';
 
-// Accession numbers: dot-separated groups (year.lot.item, optional letter prefix such
-// as "T.12"), then optional parts written "a" or "a-b" (e.g. 1931.4.12a-b).
-export const ACCESSION_PATTERN = /^[A-Z0-9]{1,12}(?:\.[A-Z0-9]{1,12}){0,5}(?:\.?[a-z](?:-[a-z])?)?$/;
+export { ACCESSION_PATTERN } from '../accession.ts';
 
 export const EVIDENCE = ['attributed', 'identified'] as const;
 export const PIECE_STATUSES = ['draft', 'published'] as const;
@@ -40,7 +39,10 @@ const evidencedList = z
   .refine((a) => new Set(a.map((t) => t.name)).size === a.length, 'Each name only once');
 
 const pieceFields = {
-  accessionNumber: text(40).regex(ACCESSION_PATTERN, 'Use a number such as 1931.4.12, with parts as 1931.4.12a-b'),
+  accessionNumber: z
+    .string()
+    .transform(tidyAccession)
+    .pipe(z.string().min(1, 'Enter the accession number').max(ACCESSION_MAX, `Use at most ${ACCESSION_MAX} characters`).regex(ACCESSION_PATTERN, ACCESSION_MESSAGE)),
   objectName: text(120).min(1, 'Enter the object name, e.g. panel'),
   title: text(255).min(1, 'Enter a title'),
   dateText: optionalText(120),

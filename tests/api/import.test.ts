@@ -113,12 +113,14 @@ describe('CSV import of pieces', () => {
 
   it('reports duplicate accession numbers in the file and in the archive, each with its line', async () => {
     const p = prefix();
-    const csv = `${HEADER}\n${p}.1,panel,One,,,\n1931.4.12,panel,Already catalogued,,,\n${p}.1,panel,Again,,,\n`;
+    // Case and spaces do not make another number (line 5 repeats line 2 as "imp. …").
+    const csv = `${HEADER}\n${p}.1,panel,One,,,\n1931.4.12,panel,Already catalogued,,,\n${p}.1,panel,Again,,,\n${p.toLowerCase().replace('.', '. ')}.1,panel,Once more,,,\n`;
     const res = await upload(csv).expect(422);
     expect(res.body.error.code).toBe('import_invalid');
     expect(res.body.error.details.errors).toEqual([
       { line: 3, field: 'accessionNumber', message: 'Accession number 1931.4.12 is already in the archive.' },
       { line: 4, field: 'accessionNumber', message: `Accession number ${p}.1 is also on line 2 of this file.` },
+      { line: 5, field: 'accessionNumber', message: `Accession number ${p.toLowerCase().replace('.', '. ')}.1 is also on line 2 of this file.` },
     ]);
     expect(await countWith(p)).toBe(0);
   });

@@ -69,6 +69,8 @@ describe('password reset by e-mail', () => {
     const token = tokenFrom(await waitForMail(email), 'reset-password');
 
     await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'short' }).expect(400);
+    // The page checks the link when it opens.
+    await request(app).get(`/api/auth/password-reset/${token}`).expect(200);
     await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'the-new-password' }).expect(204);
     await old.get('/api/auth/me').expect(401);
     await request(app).post('/api/auth/login').set('Origin', ORIGIN).send({ email, password: 'the-old-password' }).expect(401);
@@ -76,6 +78,10 @@ describe('password reset by e-mail', () => {
 
     const reused = await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'a-third-password' }).expect(410);
     expect(reused.body.error.code).toBe('token_used');
+    const opened = await request(app).get(`/api/auth/password-reset/${token}`).expect(410);
+    expect(opened.body.error.message).toBe('This link has already been used (or a newer one was sent). Sign in with your password, or ask for a new link.');
+    const unknown = await request(app).get(`/api/auth/password-reset/${'C'.repeat(43)}`).expect(404);
+    expect(unknown.body.error.message).toMatch(/^This link is not valid/);
   });
 
   it('refuses an expired link', async () => {
@@ -88,6 +94,7 @@ describe('password reset by e-mail', () => {
     await stored!.update({ expiresAt: new Date(Date.now() - 1000) });
     const res = await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'the-new-password' }).expect(410);
     expect(res.body.error.code).toBe('token_expired');
+    expect(res.body.error.message).toBe('This link has expired: reset links work for 2 hours. Ask for a new one.');
     await signedInAgent(app, { email, password: 'the-old-password' });
   });
 

@@ -43,7 +43,7 @@ describe('pieces: create, read, validate', () => {
     const res = await curator
       .post('/api/pieces')
       .set('Origin', ORIGIN)
-      .send({ accessionNumber: '1931/4/12', objectName: '', title: 'x', dateEdtf: '1785/1770', heightMm: -3, dyestuffs: [{ name: 'madder', evidence: 'guessed' }] })
+      .send({ accessionNumber: '1931..4', objectName: '', title: 'x', dateEdtf: '1785/1770', heightMm: -3, dyestuffs: [{ name: 'madder', evidence: 'guessed' }] })
       .expect(400);
     const fields = res.body.error.details.fields;
     expect(Object.keys(fields)).toEqual(expect.arrayContaining(['accessionNumber', 'objectName', 'heightMm', 'dyestuffs.0.evidence']));
@@ -65,7 +65,32 @@ describe('pieces: create, read, validate', () => {
     const body = newPiece();
     await curator.post('/api/pieces').set('Origin', ORIGIN).send(body).expect(201);
     const res = await curator.post('/api/pieces').set('Origin', ORIGIN).send({ ...body, title: 'another' }).expect(409);
-    expect(res.body.error.details.fields.accessionNumber).toBeDefined();
+    expect(res.body.error.details.fields.accessionNumber).toEqual(['That accession number is already used.']);
+  });
+
+  it('accepts accession numbers in many institutions\' schemes, unique whatever their case and spacing', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const schemes = [`${run}.4.12a-b`, `T.${run}-1950`, `${run}-94-1`, `L${run}.3`, `EX ${run}/1`, `${run}.245a,b`];
+    for (const accessionNumber of schemes) {
+      const res = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber })).expect(201);
+      expect(res.body.piece.accessionNumber).toBe(accessionNumber);
+    }
+    // Case and spaces do not make a new number; the message names the number as it is written.
+    const clash = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber: `ex${run}/1` })).expect(409);
+    expect(clash.body.error.details.fields.accessionNumber).toEqual([`That accession number is already used (as EX ${run}/1).`]);
+    const spaced = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber: ` t.${run}  -1950 ` })).expect(400);
+    expect(spaced.body.error.details.fields.accessionNumber[0]).toMatch(/^Use letters and digits/);
+    // Renumbering onto another piece's number is refused the same way; renumbering itself in other case is allowed.
+    const other = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece()).expect(201);
+    const renum = await curator.patch(`/api/pieces/${other.body.piece.id}`).set('Origin', ORIGIN).send({ accessionNumber: `l${run}.3` }).expect(409);
+    expect(renum.body.error.details.fields.accessionNumber[0]).toMatch(/already used \(as L/);
+    // The archive's search finds a number however it is typed.
+    const typed = await curator.get('/api/pieces').query({ q: `ex${run} /1` }).expect(200);
+    expect(typed.body.items.map((p: { accessionNumber: string }) => p.accessionNumber)).toEqual([`EX ${run}/1`]);
+    const first = await curator.get('/api/pieces').query({ q: `L${run}.3` }).expect(200);
+    await curator.patch(`/api/pieces/${first.body.items[0].id}`).set('Origin', ORIGIN).send({ accessionNumber: `l${run}.3` }).expect(200);
+    // Even a write that skips the service cannot add a second spelling: the key column is unique.
+    await expect(Piece.create({ accessionNumber: `${run}.245A, B`, objectName: 'panel', title: 'raw', fibres: [], techniques: [], dyestuffs: [], historicalMordants: [], status: 'draft' } as never)).rejects.toThrow();
   });
 
   it('lets only curators and admins create: visitor 401, researcher and dyer 403', async () => {
@@ -141,11 +166,15 @@ describe('pieces: visibility, updates, history', () => {
     expect(linen.body.total).toBe(2);
     const resistIndigo = await curator.get('/api/pieces').query({ q: tag, technique: 'resist', dyestuff: 'indigo' }).expect(200);
     expect(resistIndigo.body.items.map((p: { id: number }) => p.id)).toEqual([made[0].id]);
-    // Natural order of accession numbers: .9 before .10.
+    // Natural order of accession numbers: .2 before .12, a number before its parts, either direction.
     const base = `2097.${run}`;
-    for (const item of ['10', '9']) await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber: `${base}.${item}` })).expect(201);
+    for (const item of ['12a-b', '10', '2', '12', '9'])
+      await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ accessionNumber: `${base}.${item}` })).expect(201);
     const natural = await curator.get('/api/pieces').query({ q: `${base}.`, sort: 'accessionNumber' }).expect(200);
-    expect(natural.body.items.map((p: { accessionNumber: string }) => p.accessionNumber)).toEqual([`${base}.9`, `${base}.10`]);
+    const order = ['2', '9', '10', '12', '12a-b'].map((i) => `${base}.${i}`);
+    expect(natural.body.items.map((p: { accessionNumber: string }) => p.accessionNumber)).toEqual(order);
+    const reversed = await curator.get('/api/pieces').query({ q: `${base}.`, sort: 'accessionNumber', dir: 'desc' }).expect(200);
+    expect(reversed.body.items.map((p: { accessionNumber: string }) => p.accessionNumber)).toEqual([...order].reverse());
     const bad = await curator.get('/api/pieces').query({ sort: 'colour' }).expect(400);
     expect(bad.body.error.details.fields.sort).toBeDefined();
   });

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import { sequelize } from '../../server/models/index.ts';
+import { accessionKey, accessionSortKey } from '../../shared/accession.ts';
 import { labToHex } from '../../shared/search/lab.ts';
 
 /** Synthetic archive for the search benchmark: deterministic, bulk-inserted with multi-row INSERTs. */
@@ -65,12 +66,12 @@ export async function insertPieces(n: number) {
   for (let i = 0; i < n; i++) {
     const y = 1650 + Math.floor(rnd() * 250);
     pieces.push([
-      `B.${i + 1}`, pick(['furnishing fabric', 'dress fabric', 'panel', 'fragment', 'sample book page']), `${words(3)} ${pick(TRADE)}`, words(25 + Math.floor(rnd() * 35)),
+      `B.${i + 1}`, accessionKey(`B.${i + 1}`), accessionSortKey(`B.${i + 1}`), pick(['furnishing fabric', 'dress fabric', 'panel', 'fragment', 'sample book page']), `${words(3)} ${pick(TRADE)}`, words(25 + Math.floor(rnd() * 35)),
       `Given ${words(4)}`, pick(PLACES), JSON.stringify([pick(['cotton', 'linen', 'silk', 'wool'])]), JSON.stringify([pick(TECH), pick(TECH)]),
       JSON.stringify([{ name: pick(DYES), evidence: 'attributed' }]), JSON.stringify([{ name: pick(MORDANTS), evidence: 'attributed' }]), y, y + Math.floor(rnd() * 30), 'published', now, now,
     ]);
   }
-  await insertRows('pieces', ['accessionNumber', 'objectName', 'title', 'description', 'provenance', 'place', 'fibres', 'techniques', 'dyestuffs', 'historicalMordants', 'earliestYear', 'latestYear', 'status', 'createdAt', 'updatedAt'], pieces, 2000);
+  await insertRows('pieces', ['accessionNumber', 'accessionKey', 'accessionSort', 'objectName', 'title', 'description', 'provenance', 'place', 'fibres', 'techniques', 'dyestuffs', 'historicalMordants', 'earliestYear', 'latestYear', 'status', 'createdAt', 'updatedAt'], pieces, 2000);
   const ids = (await sequelize.query('SELECT id FROM pieces ORDER BY id', { type: 'SELECT' })) as Array<{ id: number }>;
   const photos = ids.map((p) => [p.id, createHash('sha256').update(`bench-${p.id}`).digest('hex'), 'jpeg', 1, 1, 1, '{}', '{}', now, now]);
   await insertRows('photos', ['pieceId', 'sha256', 'format', 'bytes', 'width', 'height', 'exif', 'derivatives', 'createdAt', 'updatedAt'], photos);

@@ -31,11 +31,21 @@ describe('cataloguing a piece in Chromium', () => {
 
     // The vocabularies fill the checklists and move the form's button; wait for them first.
     await page.getByLabel('cotton').waitFor();
-    const accession = `2098.${Date.now() % 100000}.1`;
+    const accession = `EX 2098/${Date.now() % 100000}`;
     // A wrong accession number is explained beside the field before anything is sent.
-    await page.getByLabel('Accession number').fill('1931/4/12');
+    await page.getByLabel('Accession number').fill('1931.4.12#');
     await page.getByRole('button', { name: 'Save draft' }).click();
-    await page.getByText('Use a number such as 1931.4.12').first().waitFor();
+    await page.getByText('Use letters and digits', { exact: false }).first().waitFor();
+    // Empty required fields say what to enter, not a type error.
+    await page.getByText('Enter the object name, e.g. panel').waitFor();
+    // A number already in the archive, written in other case and spacing, is refused beside the field by the server.
+    await page.getByLabel('Accession number').fill(' 1931.4.12 ');
+    await page.getByLabel('Object name').fill('panel');
+    await page.getByLabel('Title', { exact: true }).fill('Clash');
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await page.getByText('That accession number is already used.').first().waitFor();
+    // Beside the field as well as above the button.
+    expect(await page.getByText('That accession number is already used.').count()).toBe(2);
 
     await page.getByLabel('Accession number').fill(accession);
     await page.getByLabel('Object name').fill('furnishing fabric');
@@ -50,7 +60,7 @@ describe('cataloguing a piece in Chromium', () => {
     await page.getByText('420 mm').waitFor();
 
     const file = path.join(dir, 'recto.jpg');
-    await writeFile(file, await clothJpeg({ seed: 21 }));
+    await writeFile(file, await clothJpeg({ seed: 21, exposure: true }));
     await page.getByLabel('Photos to upload').setInputFiles(file);
     const item = page.getByTestId('upload-item');
     await item.locator('progress').waitFor();
@@ -67,6 +77,13 @@ describe('cataloguing a piece in Chromium', () => {
     // The test JPEG carries no ICC profile: its file facts say it was taken as sRGB.
     await page.getByText('File facts').first().click();
     await expect(page.getByTestId('colour-facts').first().textContent()).resolves.toMatch(/No embedded colour profile: taken as sRGB.*8 bits/s);
+    // EXIF as labelled values with units, the camera's clock as written.
+    const exif = await page.getByTestId('exif').first().innerText();
+    expect(exif.split('\n').map((l) => l.trim()).filter(Boolean).join(' | ')).toBe(
+      "Camera | Weldfold Copy Stand 2 | Exposure | 1/60 s | Aperture | f/8 | Sensitivity | ISO 200 | Focal length | 50 mm | Taken | 2025-03-14 10:22 (camera's clock)",
+    );
+    await expect(page.getByTestId('photo-panel').first().textContent()).resolves.toMatch(/jpeg · \d+ kB · taken 2025-03-14 10:22/);
+    await page.getByTestId('photo-panel').first().screenshot({ path: '.data/test/file-facts.png' });
 
     await page.getByRole('button', { name: 'Publish' }).click();
     await page.getByRole('button', { name: 'Unpublish' }).waitFor();

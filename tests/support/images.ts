@@ -5,8 +5,8 @@ import sharp from 'sharp';
 import { paintCloth } from '../../server/seed/cloth-image.ts';
 import { uploadsDir } from '../../server/media/paths.ts';
 
-/** A small printed-cloth JPEG with known colour areas and, optionally, GPS tags. */
-export async function clothJpeg(opts: { gps?: boolean; seed?: number } = {}) {
+/** A small printed-cloth JPEG with known colour areas and, optionally, GPS and exposure tags. */
+export async function clothJpeg(opts: { gps?: boolean; seed?: number; exposure?: boolean } = {}) {
   const cloth = paintCloth({
     width: 480,
     height: 320,
@@ -21,6 +21,8 @@ export async function clothJpeg(opts: { gps?: boolean; seed?: number } = {}) {
   let img = sharp(Buffer.from(cloth.data), { raw: { width: cloth.width, height: cloth.height, channels: 3 } }).jpeg({ quality: 92 });
   img = img.withExif({
     IFD0: { Make: 'Weldfold', Model: 'Copy Stand 2' },
+    // sharp's withExif takes strings only; rationals as "n/d".
+    ...(opts.exposure ? { IFD2: { DateTimeOriginal: '2025:03:14 10:22:05', ExposureTime: '1/60', FNumber: '8/1', ISOSpeedRatings: '200', FocalLength: '50/1' } } : {}),
     ...(opts.gps ? { IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '54/1 30/1 0/1', GPSLongitudeRef: 'W', GPSLongitude: '2/1 15/1 0/1' } } : {}),
   });
   return img.toBuffer();

@@ -58,6 +58,7 @@ export async function makeUser(role: Role = 'researcher') {
   return User.create({ email: uniqueEmail(role), name: `Matrix ${role}`, role, passwordHash: await hashPassword('matrix-password-1') });
 }
 const invitationToken = async () => (await issueToken({ purpose: 'invitation', email: uniqueEmail('invitee'), role: 'dyer' })).token;
+const pendingInvitationId = async () => (await issueToken({ purpose: 'invitation', email: uniqueEmail('pending'), role: 'dyer' })).record.id;
 async function resetToken() {
   const u = await makeUser();
   return (await issueToken({ purpose: 'password-reset', email: u.email, userId: u.id })).token;
@@ -160,6 +161,7 @@ export const routeMatrix: MatrixRow[] = [
   row('POST /api/auth/logout', everyone('2xx')),
   row('GET /api/auth/me', signedIn),
   row('POST /api/auth/password-reset', everyone('2xx'), { setup: async () => ({ body: { email: uniqueEmail('forgot') } }) }),
+  row('GET /api/auth/password-reset/:token', everyone('2xx'), { setup: async () => ({ params: { token: await resetToken() } }) }),
   row('POST /api/auth/password-reset/:token', everyone('2xx'), { setup: async () => ({ params: { token: await resetToken() }, body: { password: 'a-new-matrix-password' } }) }),
 
   row('POST /api/invitations', adminOnly, { setup: async () => ({ body: { email: uniqueEmail('invite'), role: 'researcher' } }) }),
@@ -167,6 +169,9 @@ export const routeMatrix: MatrixRow[] = [
   row('POST /api/invitations/:token/accept', everyone('2xx'), { setup: async () => ({ params: { token: await invitationToken() }, body: { name: 'Matrix Newcomer', password: 'a-new-matrix-password' } }) }),
 
   row('GET /api/team', adminOnly),
+  row('GET /api/team/invitations', adminOnly),
+  row('POST /api/team/invitations/:id/resend', adminOnly, { setup: async () => ({ params: { id: await pendingInvitationId() } }) }),
+  row('DELETE /api/team/invitations/:id', adminOnly, { setup: async () => ({ params: { id: await pendingInvitationId() } }) }),
   row('PATCH /api/team/:id', adminOnly, { setup: async () => ({ params: { id: (await makeUser('dyer')).id }, body: { role: 'researcher' } }) }),
 
   row('GET /api/outbox', adminOnly),

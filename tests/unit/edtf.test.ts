@@ -25,8 +25,11 @@ describe('EDTF year bounds', () => {
 });
 
 describe('accession numbers', () => {
-  it.each(['1931.4.12', '1931.4.12a-b', '1931.4.12.a', 'T.12', '2001.15'])('accepts %s', (v) => expect(ACCESSION_PATTERN.test(v)).toBe(true));
-  it.each(['1931/4/12', '1931..4', ' 1931.4', '1931.4.12ab-c', ''])('refuses %j', (v) => expect(ACCESSION_PATTERN.test(v)).toBe(false));
+  it.each(['1931.4.12', '1931.4.12a-b', '1931.4.12.a', 'T.12', '2001.15', 'T.14-1950', '1957-94-1', 'L2020.3', 'EX 2021/1', '2008.245a,b', '2008.245a, b', '1931/4/12'])(
+    'accepts %s',
+    (v) => expect(ACCESSION_PATTERN.test(v)).toBe(true),
+  );
+  it.each(['1931..4', ' 1931.4', '1931.4.', '#12', '1931.4.12;a', '12 - 3', ''])('refuses %j', (v) => expect(ACCESSION_PATTERN.test(v)).toBe(false));
 });
 
 describe('piece schema', () => {

@@ -6,9 +6,12 @@ import { http } from '../../lib/http';
 export type TeamPage = { items: TeamMember[]; total: number; page: number; pageSize: number };
 export type Invitation = { email: string; role: Role; expiresAt: string };
 
+export type PendingInvitation = { id: number; email: string; role: Role; sentAt: string; expiresAt: string; expired: boolean; invitedBy: string | null };
+
 export const teamKeys = {
   all: ['team'] as const,
   list: (page: number) => ['team', 'list', page] as const,
+  invitations: ['team', 'invitations'] as const,
 };
 
 export const fetchTeam = (page = 1) => http<TeamPage>(`/api/team?page=${page}&pageSize=100`);
@@ -29,4 +32,21 @@ export function useUpdateMember() {
     mutationFn: ({ id, ...input }: TeamPatchInput & { id: number }) => updateMember(id, input),
     onSuccess: () => qc.invalidateQueries({ queryKey: teamKeys.all }),
   });
+}
+
+export const fetchPendingInvitations = () => http<{ items: PendingInvitation[] }>('/api/team/invitations');
+export const pendingInvitationsQuery = () => queryOptions({ queryKey: teamKeys.invitations, queryFn: fetchPendingInvitations });
+export const usePendingInvitations = () => useQuery(pendingInvitationsQuery());
+
+export const resendInvitation = (id: number) => http<{ invitation: PendingInvitation }>(`/api/team/invitations/${id}/resend`, { method: 'POST' });
+export const revokeInvitation = (id: number) => http<void>(`/api/team/invitations/${id}`, { method: 'DELETE' });
+
+export function useResendInvitation() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: resendInvitation, onSuccess: () => qc.invalidateQueries({ queryKey: teamKeys.invitations }) });
+}
+
+export function useRevokeInvitation() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: revokeInvitation, onSuccess: () => qc.invalidateQueries({ queryKey: teamKeys.invitations }) });
 }

@@ -8,6 +8,7 @@ import * as m0010baths from './0010-baths-series-liquor-ratio.ts';
 import * as m0011photoColour from './0011-photo-colour.ts';
 import * as m0013names from './0013-palette-names.ts';
 import * as m0014draws from './0014-step-draws.ts';
+import * as m0015accession from './0015-accession-keys.ts';
 import * as m0016seriesTarget from './0016-series-target.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
@@ -22,5 +23,6 @@ export const migrations: Migration[] = [
   { name: '0011-photo-colour', ...m0011photoColour },
   { name: '0013-palette-names', ...m0013names },
   { name: '0014-step-draws', ...m0014draws },
+  { name: '0015-accession-keys', ...m0015accession },
   { name: '0016-series-target', ...m0016seriesTarget },
 ];

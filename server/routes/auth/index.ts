@@ -11,7 +11,7 @@ import { HttpError, unauthorized } from '../../http/errors.ts';
 import { parseBody, parseParams } from '../../http/validate.ts';
 import { sequelize, type User } from '../../models/index.ts';
 import { presentUser } from '../../presenters/user.ts';
-import { requestPasswordReset, resetPassword } from '../../services/password-reset.ts';
+import { liveResetToken, requestPasswordReset, resetPassword } from '../../services/password-reset.ts';
 
 // The local outbox route does not exist in production, so nobody is offered it there.
 const sessionAbilities = (actor: Actor) => ({ ...abilities(actor, ACTIONS), ...(isProduction ? { 'outbox:read': false } : {}) });
@@ -53,6 +53,13 @@ export function authRouter() {
     const { email } = parseBody(resetRequestSchema, req);
     res.status(202).json({ message: 'If that address belongs to an account, a link to set a new password is on its way.' });
     requestPasswordReset(email).catch((err) => console.error('[mail] password reset not sent:', err));
+  });
+
+  // Checked when the page opens, so a used or expired link says so before anyone types a password.
+  router.get('/password-reset/:token', async (req, res) => {
+    const { token } = parseParams(tokenParams, req);
+    const record = await liveResetToken(token);
+    res.json({ expiresAt: record.expiresAt.toISOString() });
   });
 
   router.post('/password-reset/:token', async (req, res) => {

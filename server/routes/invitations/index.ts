@@ -1,6 +1,5 @@
 import { Router } from 'express';
 import { acceptInvitationSchema, inviteSchema, tokenParams } from '../../../shared/schemas/team.ts';
-import { findLiveToken } from '../../auth/tokens.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden } from '../../http/errors.ts';
 import { parseBody, parseParams } from '../../http/validate.ts';
@@ -8,7 +7,7 @@ import { sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { presentInvitation } from '../../presenters/invitation.ts';
 import { presentUser } from '../../presenters/user.ts';
-import { acceptInvitation, inviteMember } from '../../services/invitations.ts';
+import { acceptInvitation, inviteMember, liveInvitation } from '../../services/invitations.ts';
 
 export const invitationsRouter = Router();
 
@@ -23,7 +22,7 @@ invitationsRouter.post('/', requireUser, async (req, res) => {
 // Public: the acceptance page shows the address and role before asking for a name and password.
 invitationsRouter.get('/:token', async (req, res) => {
   const { token } = parseParams(tokenParams, req);
-  res.json({ invitation: presentInvitation(await findLiveToken(token, 'invitation')) });
+  res.json({ invitation: presentInvitation(await liveInvitation(token)) });
 });
 
 invitationsRouter.post('/:token/accept', async (req, res, next) => {

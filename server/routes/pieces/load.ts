@@ -1,4 +1,5 @@
 import { Op, Sequelize, type WhereOptions } from 'sequelize';
+import { accessionKey } from '../../../shared/accession.ts';
 import type { PieceListQuery } from '../../../shared/schemas/piece.ts';
 import { notFound } from '../../http/errors.ts';
 import { PaletteColour, Photo, Piece, Region, sequelize } from '../../models/index.ts';
@@ -25,14 +26,17 @@ export async function listPieces(actor: Actor, q: PieceListQuery) {
   if (q.technique) and.push(jsonHas('techniques', q.technique));
   if (q.dyestuff) and.push(jsonNameHas('dyestuffs', q.dyestuff));
   if (q.q) {
-    const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-    and.push({ [Op.or]: [{ accessionNumber: { [Op.like]: like } }, { title: { [Op.like]: like } }] });
+    const escape = (t: string) => t.replace(/[\\%_]/g, (c) => `\\${c}`);
+    const like = `%${escape(q.q)}%`;
+    // "ex2021/1" finds EX 2021/1: accession numbers are also matched without case and spaces.
+    const key = `%${escape(accessionKey(q.q))}%`;
+    and.push({ [Op.or]: [{ accessionNumber: { [Op.like]: like } }, { accessionKey: { [Op.like]: key } }, { title: { [Op.like]: like } }] });
   }
   const { rows, count } = await Piece.findAndCountAll({
     where: { [Op.and]: and },
-    // Accession numbers sort naturally (1931.4.9 before 1931.4.12), with MariaDB's NATURAL_SORT_KEY.
+    // Accession numbers sort naturally (1931.4.9 before 1931.4.12) by their stored sort key, the search's order too.
     order: [
-      q.sort === 'accessionNumber' ? [Sequelize.fn('NATURAL_SORT_KEY', Sequelize.col('accessionNumber')), q.dir.toUpperCase()] : [q.sort, q.dir.toUpperCase()],
+      q.sort === 'accessionNumber' ? ['accessionSort', q.dir.toUpperCase()] : [q.sort, q.dir.toUpperCase()],
       ['id', 'ASC'],
     ],
     limit: q.pageSize,

@@ -1,3 +1,4 @@
+import { formatDateTime } from '../../../../shared/format';
 import { Button } from '../../../components/Button';
 import { JobStatus } from '../../iiif/components/JobStatus';
 import { useFixityLatest, useStartFixity, type FixityProblem } from '../api';
@@ -44,7 +45,7 @@ export function FixityPanel() {
       {report ? (
         <div className="space-y-2 text-sm" data-testid="fixity-report">
           <p>
-            Last check {new Date(report.checkedAt).toLocaleString()}: <span className="num">{report.masters}</span> masters,{' '}
+            Last check {formatDateTime(report.checkedAt)}: <span className="num">{report.masters}</span> masters,{' '}
             <span className="num text-ok">{report.ok}</span> intact, <span className="num">{report.mismatches.length}</span> changed,{' '}
             <span className="num">{report.missing.length}</span> missing.
           </p>

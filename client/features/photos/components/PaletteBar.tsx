@@ -1,10 +1,11 @@
+import { formatNumber } from '../../../../shared/format';
 import { IMAGE_ESTIMATE, ViewingConditions } from '../../../components/ViewingConditions';
 import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
 import type { Palettes } from '../api';
 
 type Colour = Palettes[number]['colours'][number];
 const pct = (x: number) => `${(x * 100).toFixed(1)} %`;
-const fix = (x: number) => x.toFixed(1);
+const fix = (x: number) => formatNumber(x);
 
 /**
  * One palette: a bar whose segments are proportional to share, then swatches large

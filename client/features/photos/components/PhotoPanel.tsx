@@ -1,3 +1,4 @@
+import { exifLines, formatBytes, formatLocalDateTime, type ExifFacts } from '../../../../shared/format';
 import { colourFactsLines } from '../../../../shared/schemas/photo';
 import type { Photo } from '../../pieces/api';
 import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
@@ -5,10 +6,6 @@ import { PhotoTiles } from '../../iiif/components/PhotoTiles';
 import { PaletteBar } from './PaletteBar';
 import { PURPOSE_LABELS, RegionEditor } from './RegionEditor';
 
-const formatExif = (exif: Record<string, unknown>) =>
-  Object.entries(exif)
-    .filter(([, v]) => v != null && typeof v !== 'object')
-    .map(([k, v]) => `${k}: ${String(v)}`);
 
 /** One photo: the image with its regions, its palettes (raw and corrected, labelled), and its facts. */
 export function PhotoPanel({ photo }: { photo: Photo }) {
@@ -91,18 +88,21 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
         <summary className="cursor-pointer">File facts</summary>
         <p className="mt-1 font-mono break-all">SHA-256 (fixity) {photo.sha256}</p>
         <p className="num">
-          {photo.format} · {(photo.bytes / 1024 / 1024).toFixed(1)} MB{photo.capturedAt ? ` · taken ${photo.capturedAt}` : ''}
+          {photo.format} · {formatBytes(photo.bytes)}{photo.capturedAt ? ` · taken ${formatLocalDateTime(photo.capturedAt)}` : ''}
         </p>
         <ul data-testid="colour-facts">
           {colourFactsLines(photo.colour).map((l) => (
             <li key={l}>{l}</li>
           ))}
         </ul>
-        <ul>
-          {formatExif(photo.exif).map((l) => (
-            <li key={l}>{l}</li>
+        <dl className="grid grid-cols-[auto_1fr] gap-x-3" data-testid="exif">
+          {exifLines(photo.exif as ExifFacts).map((l) => (
+            <div key={l.label} className="contents">
+              <dt className="text-ink-soft">{l.label}</dt>
+              <dd className="num">{l.value}</dd>
+            </div>
           ))}
-        </ul>
+        </dl>
         {'gps' in photo && photo.gps ? (
           <p className="num">
             GPS {photo.gps.latitude.toFixed(5)}, {photo.gps.longitude.toFixed(5)} (shown to curators and admins only)

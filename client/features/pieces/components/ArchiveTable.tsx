@@ -1,3 +1,4 @@
+import { formatDate } from '../../../../shared/format';
 import { Link } from 'react-router-dom';
 import { PIECE_SORTS } from '../../../../shared/schemas/piece';
 import { paths } from '../../../paths';
@@ -68,7 +69,7 @@ export function ArchiveTable({ rows, params, onSort }: { rows: PieceRow[]; param
               <td className="px-3 py-2">
                 <StatusBadge status={p.status} deleted={p.deletedAt != null} />
               </td>
-              <td className="hidden px-3 py-2 num whitespace-nowrap lg:table-cell">{new Date(p.updatedAt).toLocaleDateString()}</td>
+              <td className="hidden px-3 py-2 num whitespace-nowrap lg:table-cell">{formatDate(p.updatedAt)}</td>
             </tr>
           ))}
         </tbody>

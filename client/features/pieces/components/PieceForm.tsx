@@ -23,13 +23,16 @@ function initial(p?: Piece): State {
   return { ...text, fibres: p?.fibres ?? [], techniques: p?.techniques ?? [], dyestuffs: p?.dyestuffs ?? [], historicalMordants: p?.historicalMordants ?? [] };
 }
 
-/** Form text → the shared schema's input: empty text is null, numbers are numbers. */
+// Required fields stay text when empty, so the schema answers "Enter a title" rather than a type error.
+const REQUIRED = new Set(['accessionNumber', 'objectName', 'title']);
+
+/** Form text → the shared schema's input: empty optional text is null, numbers are numbers. */
 function toInput(s: State): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const [k, v] of Object.entries(s)) {
     if (Array.isArray(v)) out[k] = v;
     else if (NUMERIC.has(k)) out[k] = v.trim() === '' ? null : Number(v);
-    else out[k] = v.trim() === '' ? null : v.trim();
+    else out[k] = v.trim() === '' && !REQUIRED.has(k) ? null : v.trim();
   }
   return out;
 }
@@ -78,7 +81,7 @@ export function PieceForm({ piece, submitLabel, onSubmit }: { piece?: Piece; sub
     <form onSubmit={submit} noValidate className="space-y-8 max-w-4xl">
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-lg font-semibold font-serif">Identification</legend>
-        <Field label="Accession number" hint="e.g. 1931.4.12; parts as 1931.4.12a-b" className="font-mono" {...text('accessionNumber')} />
+        <Field label="Accession number" hint="As your institution writes it, e.g. 1931.4.12, 1931.4.12a-b, T.14-1950 or EX 2021/1" className="font-mono" {...text('accessionNumber')} />
         <Field label="Object name" hint="e.g. furnishing fabric, panel, dress fabric" {...text('objectName')} />
         <Field label="Title" className="sm:col-span-2" {...text('title')} />
       </fieldset>

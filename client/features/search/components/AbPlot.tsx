@@ -1,3 +1,4 @@
+import { formatNumber } from '../../../../shared/format';
 import type { ShadeItem } from '../../../../shared/schemas/search';
 import { IMAGE_ESTIMATE, ViewingConditions } from '../../../components/ViewingConditions';
 
@@ -36,7 +37,7 @@ export function AbPlot({ items, query }: Props) {
         <text x={4} y={PAD - 8} fontSize="10" fill="#4b4e52">b* (blue − / yellow +)</text>
         {items.map((i) => (
           <circle key={`${i.pieceId}-${i.photoId}`} cx={x(i.colour.lab.a)} cy={y(i.colour.lab.b)} r={3 + 5 * Math.sqrt(i.colour.share)} fill={i.colour.hex} stroke="#ffffff" strokeWidth="0.75">
-            <title>{`${i.accessionNumber}: L* ${i.colour.lab.L.toFixed(1)}, a* ${i.colour.lab.a.toFixed(1)}, b* ${i.colour.lab.b.toFixed(1)}, ΔE00 ${i.deltaE00.toFixed(2)}`}</title>
+            <title>{`${i.accessionNumber}: L* ${formatNumber(i.colour.lab.L)}, a* ${formatNumber(i.colour.lab.a)}, b* ${formatNumber(i.colour.lab.b)}, ΔE00 ${i.deltaE00.toFixed(2)}`}</title>
           </circle>
         ))}
         <circle cx={x(query.a)} cy={y(query.b)} r={7} fill="none" stroke="#1d1f21" strokeWidth="2" />

@@ -6,7 +6,8 @@ import { Button } from '../../../components/Button';
 
 export type ShadeChoice = { hex?: string; L?: number; a?: number; b?: number; maxDeltaE: number };
 
-const fmt = (x: number) => x.toFixed(1);
+// Input values stay plain ASCII numbers; a value that rounds to zero is 0.0, never -0.0.
+const fmt = (x: number) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1);
 
 /** Choose a shade by picker, by hex or by L*a*b* numbers, and a ΔE00 radius. Errors come from the server's per-field details. */
 export function ColourChooser({

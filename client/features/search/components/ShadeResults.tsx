@@ -1,3 +1,4 @@
+import { formatNumber } from '../../../../shared/format';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { ShadeItem } from '../../../../shared/schemas/search';
@@ -50,9 +51,9 @@ export function ShadeResults({ items }: { items: ShadeItem[] }) {
                     <span className="font-mono">{i.accessionNumber}</span> {i.title}
                   </Link>
                 </td>
-                <td className="py-1.5 pr-2 text-right num">{i.colour.lab.L.toFixed(1)}</td>
-                <td className="py-1.5 pr-2 text-right num">{i.colour.lab.a.toFixed(1)}</td>
-                <td className="py-1.5 pr-2 text-right num">{i.colour.lab.b.toFixed(1)}</td>
+                <td className="py-1.5 pr-2 text-right num">{formatNumber(i.colour.lab.L)}</td>
+                <td className="py-1.5 pr-2 text-right num">{formatNumber(i.colour.lab.a)}</td>
+                <td className="py-1.5 pr-2 text-right num">{formatNumber(i.colour.lab.b)}</td>
                 <td className="py-1.5 pr-2 text-right num">{pct(i.colour.share)}</td>
                 <td className="py-1.5 text-right num">{i.deltaE00.toFixed(2)}</td>
               </tr>

@@ -1,3 +1,4 @@
+import { formatDate } from '../../../../shared/format';
 import { useState, type FormEvent } from 'react';
 import { inviteSchema } from '../../../../shared/schemas/team';
 import { Button } from '../../../components/Button';
@@ -41,7 +42,7 @@ export function InviteForm() {
       </div>
       <FormAlert message={formMessage(invite.error)} />
       {sent && !invite.error ? (
-        <FormAlert tone="ok" message={`Invitation sent to ${sent.email} as ${roleLabel[sent.role]}; the link works once until ${new Date(sent.expiresAt).toLocaleDateString()}.`} />
+        <FormAlert tone="ok" message={`Invitation sent to ${sent.email} as ${roleLabel[sent.role]}; the link works once until ${formatDate(sent.expiresAt)}.`} />
       ) : null}
     </form>
   );

@@ -1,3 +1,4 @@
+import { formatDate } from '../../../../shared/format';
 import type { TeamMember } from '../../../../shared/schemas/team';
 import type { Role } from '../../../../shared/roles';
 import { FormAlert } from '../../../components/form/FormAlert';
@@ -51,7 +52,7 @@ export function TeamTable({ members, meId }: { members: TeamMember[]; meId: numb
                 </td>
                 <td className="px-3 py-2">{m.active ? 'Active' : 'Deactivated'}</td>
                 <td className="px-3 py-2 num whitespace-nowrap">
-                  <time dateTime={m.createdAt}>{m.createdAt.slice(0, 10)}</time>
+                  <time dateTime={m.createdAt}>{formatDate(m.createdAt)}</time>
                 </td>
                 <td className="px-3 py-2 text-right">
                   {m.id === meId ? null : (

@@ -1,3 +1,4 @@
+import { formatNumber } from '../../../../shared/format';
 import { conditionsText, viewingLabel } from '../../../../shared/colour/conditions';
 import { IMAGE_ESTIMATE } from '../../../components/ViewingConditions';
 import { TRIAL_STATUSES } from '../../../../shared/schemas/trial';
@@ -52,7 +53,7 @@ export function TargetSelect({ pieceId, value, onChange, error }: { pieceId: num
   const photos = piece.data?.photos ?? [];
   const options = [
     { value: '', label: 'No target yet' },
-    ...readings.map((m) => ({ value: `measurement:${m.id}`, label: `Instrument measurement: ${m.label ?? `#${m.id}`}, ${conditionsText(m)} (L* ${m.L.toFixed(1)} a* ${m.a.toFixed(1)} b* ${m.b.toFixed(1)})` })),
+    ...readings.map((m) => ({ value: `measurement:${m.id}`, label: `Instrument measurement: ${m.label ?? `#${m.id}`}, ${conditionsText(m)} (L* ${formatNumber(m.L)} a* ${formatNumber(m.a)} b* ${formatNumber(m.b)})` })),
     ...photos.flatMap((p) => p.regions.filter((r) => r.purpose === 'colour-area' || r.purpose === 'motif').map((r) => ({ value: `region:${r.id}`, label: `Region: ${r.label ?? `#${r.id}`} (photo ${p.id})` }))),
     ...photos.flatMap((p) => p.palette.filter((c) => !c.background).map((c) => ({ value: `palette:${c.id}`, label: `Palette colour: ${c.name}${c.tradeName ? ` (${c.tradeName})` : ''}, ${Math.round(c.share * 100)} % of photo ${p.id}, ${viewingLabel(IMAGE_ESTIMATE)}` }))),
   ];
