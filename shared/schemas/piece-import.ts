@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { edtfYears } from './edtf.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).

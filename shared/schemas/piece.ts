@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { edtfYears } from '../edtf.ts';
 
 // Accession numbers: dot-separated groups (year.lot.item, optional letter prefix such

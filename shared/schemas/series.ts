@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 
 /** A mordant level: which chemical, and how much of it in % owf. */
 export const mordantLevelSchema = z.object({
