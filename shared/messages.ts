@@ -126,7 +126,7 @@ export function messageFor(issue: z.core.$ZodRawIssue): string {
     }
     case 'too_small': {
       const min = issue.minimum;
-      if (issue.origin === 'string') return Number(min) <= 1 ? enter(f) : `Use at least ${fmt(min)} characters for ${f.label}`;
+      if (issue.origin === 'string') return Number(min) <= 1 || isEmpty(issue.input) ? enter(f) : `Use at least ${fmt(min)} characters for ${f.label}`;
       if (issue.origin === 'array' || issue.origin === 'set') return Number(min) <= 1 ? `Add at least one entry to ${f.label}` : `Add at least ${fmt(min)} entries to ${f.label}`;
       if (issue.origin === 'date') return `${L} must not be before ${String(min)}`;
       if (isChoice(f.label)) return `Choose ${f.label}`; // an id of 0: nothing chosen

@@ -5,10 +5,10 @@ import { ApiError } from './http';
 /** Messages keyed by the field's path joined with dots ("steps.0.ph"), exactly as the server's 400 details.fields. */
 export type FieldErrors = Record<string, string[]>;
 
-/** A zod error as per-field messages, keyed the way the server keys them. */
+/** A zod error as per-field messages, keyed the way the server keys them: the first problem of each field ("Enter the code", not also "Letters only"). */
 export function fieldErrorsOf(error: z.ZodError): FieldErrors {
   const errors: FieldErrors = {};
-  for (const i of error.issues) (errors[i.path.map(String).join('.') || '_'] ??= []).push(i.message);
+  for (const i of error.issues) errors[i.path.map(String).join('.') || '_'] ??= [i.message];
   return errors;
 }
 
