@@ -25,7 +25,7 @@ const toInput = (d: Draft): StepInput => ({
   liquorRatio: n(d.liquorRatio), temperatureC: n(d.temperatureC), minutes: n(d.minutes), ph: n(d.ph),
   paste: d.pasteVolumeMl.trim() ? { volumeMl: Number(d.pasteVolumeMl), stockGPerL: n(d.stockGPerL) } : null,
   batchId: n(d.batchId), batchVolumeMl: n(d.batchVolumeMl), notes: d.notes || null,
-  ingredients: d.ingredients.map((i) => ({ kind: i.kind, refId: Number(i.refId), amount: Number(i.amount), basis: i.basis as 'owf' | 'g/L' | 'g' })),
+  ingredients: d.ingredients.map((i) => ({ kind: i.kind, refId: Number(i.refId), amount: n(i.amount) as number, basis: i.basis as 'owf' | 'g/L' | 'g' })),
 });
 
 function Num({ label, value, onChange, error, unit }: { label: string; value: string; onChange: (v: string) => void; error?: string[]; unit?: string }) {
