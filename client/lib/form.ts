@@ -12,12 +12,6 @@ export function fieldErrorsOf(error: z.ZodError): FieldErrors {
   return errors;
 }
 
-/** Parse a form with the shared schema; errors come back keyed by field for <Field error>. */
-export function parseForm<S extends z.ZodType>(schema: S, form: HTMLFormElement): { data: z.infer<S>; errors: null } | { data: null; errors: FieldErrors } {
-  const parsed = schema.safeParse(Object.fromEntries(new FormData(form)));
-  return parsed.success ? { data: parsed.data, errors: null } : { data: null, errors: fieldErrorsOf(parsed.error) };
-}
-
 /** Per-field errors the server sent back, if any. */
 export const serverFieldErrors = (err: unknown): FieldErrors => (err instanceof ApiError && err.details?.fields ? err.details.fields : {});
 
