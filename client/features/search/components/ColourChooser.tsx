@@ -47,9 +47,8 @@ export function ColourChooser({
     }
   };
   // A wrong choice still goes to the URL as typed: the page checks it there, says what is wrong and drops the old results.
-  const submit = (c: ShadeChoice) => onSearch(c);
-  const submitHex = () => submit({ hex: hex.replace('#', '').trim(), maxDeltaE: radius.trim() });
-  const submitLab = () => submit({ L: lab.L.trim(), a: lab.a.trim(), b: lab.b.trim(), maxDeltaE: radius.trim() });
+  const submitHex = () => onSearch({ hex: hex.replace('#', '').trim(), maxDeltaE: radius.trim() });
+  const submitLab = () => onSearch({ L: lab.L.trim(), a: lab.a.trim(), b: lab.b.trim(), maxDeltaE: radius.trim() });
   const err = (k: string) => local.errors[k];
 
   return (
