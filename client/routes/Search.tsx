@@ -101,7 +101,8 @@ export function Search() {
           <FacetList facets={text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
         </aside>
         <section aria-live="polite" aria-busy={text.isFetching || shade.isFetching}>
-          {shadeError ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
+          {/* Field errors sit under the shade's fields; only a refusal about no field is said here. */}
+          {shadeError && !shadeError.details?.fields ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
           {text.error && !hasShade ? <p className="text-danger text-sm mb-2">{text.error.message}</p> : null}
           <p className="text-sm text-ink-soft mb-3" data-testid="result-count">
             {hasShade && shadeError ? 'No search: correct the shade.' : list ? `${total} ${total === 1 ? 'piece' : 'pieces'}${hasShade ? ` within ΔE00 ${shadeData?.query.maxDeltaE} of ${shadeData?.query.hex}` : ''}` : 'Searching…'}
