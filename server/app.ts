@@ -2,6 +2,7 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express from 'express';
 import helmet from 'helmet';
+import '../shared/messages.ts'; // zod speaks in people's words (details.fields of every 400)
 import { ROOT_DIR, env, publicUrl } from './env.ts';
 import { apiNotFound, errorHandler } from './http/errors.ts';
 import { originCheck } from './http/origin-check.ts';

@@ -1,25 +1,24 @@
 import { useDocumentTitle } from '../lib/title';
-import { useState, type FormEvent } from 'react';
+import { type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { resetRequestSchema } from '../../shared/schemas/team';
 import { Button } from '../components/Button';
 import { Field } from '../components/form/Field';
 import { FormAlert } from '../components/form/FormAlert';
 import { useRequestPasswordReset } from '../features/auth/api';
-import { formMessage, parseForm, serverFieldErrors, type FieldErrors } from '../lib/form';
+import { formMessage, useFormErrors } from '../lib/form';
 import { paths } from '../paths';
 
 export function ForgotPassword() {
   useDocumentTitle('Reset your password');
   const request = useRequestPasswordReset();
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const { formRef, errors, check, fromServer } = useFormErrors();
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
-    const parsed = parseForm(resetRequestSchema, e.currentTarget);
-    setErrors(parsed.errors ?? {});
-    if (!parsed.data) return;
-    await request.mutateAsync(parsed.data).catch((err) => setErrors(serverFieldErrors(err)));
+    const data = check(resetRequestSchema, Object.fromEntries(new FormData(e.currentTarget)));
+    if (!data) return;
+    await request.mutateAsync(data).catch((err) => fromServer(err));
   }
 
   return (
@@ -34,7 +33,7 @@ export function ForgotPassword() {
           </Link>
         </div>
       ) : (
-        <form className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
+        <form ref={formRef} className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
           <Field label="E-mail" name="email" type="email" autoComplete="username" required error={errors.email} />
           <FormAlert message={formMessage(request.error)} />
           <Button type="submit" disabled={request.isPending} className="w-full">

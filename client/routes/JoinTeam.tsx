@@ -1,6 +1,6 @@
 import { useDocumentTitle } from '../lib/title';
 import { formatDateTime } from '../../shared/format';
-import { useState, type FormEvent } from 'react';
+import { type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { acceptInvitationSchema } from '../../shared/schemas/team';
 import { Button } from '../components/Button';
@@ -9,7 +9,7 @@ import { FormAlert } from '../components/form/FormAlert';
 import { useAcceptInvitation, useInvitation } from '../features/invitations/api';
 import { roleLabel } from '../features/team/roles';
 import { ApiError } from '../lib/http';
-import { formMessage, parseForm, serverFieldErrors, type FieldErrors } from '../lib/form';
+import { formMessage, useFormErrors } from '../lib/form';
 import { paths } from '../paths';
 
 export function JoinTeam() {
@@ -18,18 +18,17 @@ export function JoinTeam() {
   const invitation = useInvitation(token);
   const accept = useAcceptInvitation(token);
   const navigate = useNavigate();
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const { formRef, errors, check, fromServer } = useFormErrors();
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
-    const parsed = parseForm(acceptInvitationSchema, e.currentTarget);
-    setErrors(parsed.errors ?? {});
-    if (!parsed.data) return;
+    const data = check(acceptInvitationSchema, Object.fromEntries(new FormData(e.currentTarget)));
+    if (!data) return;
     try {
-      await accept.mutateAsync(parsed.data);
+      await accept.mutateAsync(data);
       navigate(paths.home(), { replace: true });
     } catch (err) {
-      setErrors(serverFieldErrors(err));
+      fromServer(err);
     }
   }
 
@@ -43,7 +42,7 @@ export function JoinTeam() {
         You are invited as <strong>{roleLabel[role]}</strong> with the address <span className="font-mono">{email}</span>. Choose the name others will see and a
         password. The link expires on <time dateTime={expiresAt}>{formatDateTime(expiresAt)}</time>.
       </p>
-      <form className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
+      <form ref={formRef} className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
         <Field label="Your name" name="name" autoComplete="name" required error={errors.name} />
         <Field label="Password" name="password" type="password" autoComplete="new-password" required hint="At least 10 characters." error={errors.password} />
         <FormAlert message={formMessage(accept.error)} />

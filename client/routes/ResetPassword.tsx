@@ -1,12 +1,12 @@
 import { useDocumentTitle } from '../lib/title';
-import { useState, type FormEvent } from 'react';
+import { type FormEvent } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { resetPasswordSchema } from '../../shared/schemas/team';
 import { Button } from '../components/Button';
 import { Field } from '../components/form/Field';
 import { FormAlert } from '../components/form/FormAlert';
 import { useResetLink, useResetPassword } from '../features/auth/api';
-import { formMessage, parseForm, serverFieldErrors, type FieldErrors } from '../lib/form';
+import { formMessage, useFormErrors } from '../lib/form';
 import { paths } from '../paths';
 
 export function ResetPassword() {
@@ -14,14 +14,13 @@ export function ResetPassword() {
   const { token = '' } = useParams();
   const reset = useResetPassword(token);
   const link = useResetLink(token);
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const { formRef, errors, check, fromServer } = useFormErrors();
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
-    const parsed = parseForm(resetPasswordSchema, e.currentTarget);
-    setErrors(parsed.errors ?? {});
-    if (!parsed.data) return;
-    await reset.mutateAsync(parsed.data).catch((err) => setErrors(serverFieldErrors(err)));
+    const data = check(resetPasswordSchema, Object.fromEntries(new FormData(e.currentTarget)));
+    if (!data) return;
+    await reset.mutateAsync(data).catch((err) => fromServer(err));
   }
 
   if (link.isPending) return <p className="py-10 text-ink-soft">Checking the link…</p>;
@@ -51,7 +50,7 @@ export function ResetPassword() {
           </Link>
         </div>
       ) : (
-        <form className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
+        <form ref={formRef} className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
           <Field label="New password" name="password" type="password" autoComplete="new-password" required hint="At least 10 characters." error={errors.password} />
           <FormAlert message={formMessage(reset.error)} />
           {reset.error && !errors.password ? (

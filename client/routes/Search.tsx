@@ -1,6 +1,7 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import type { FacetName } from '../../shared/schemas/search';
+import { shadeQuerySchema, type FacetName } from '../../shared/schemas/search';
+import { fieldErrorsOf } from '../lib/form';
 import { Button } from '../components/Button';
 import { Page } from '../components/Page';
 import { ApiError } from '../lib/http';
@@ -21,10 +22,19 @@ export function Search() {
   const [url, setUrl] = useSearchParams();
   const params: SearchParams = {};
   for (const k of new Set(url.keys())) params[k] = url.getAll(k).length > 1 ? url.getAll(k) : (url.get(k) ?? '');
-  const hasShade = Boolean(url.get('hex') || url.get('L'));
+  // Any shade field, even only a radius, is a shade query: an incomplete one is answered with what is missing.
+  const hasShade = SHADE.some((k) => url.get(k));
   // With a shade chosen the shade answer carries the list and the facet counts; the words-only search is not needed.
   const text = useSearch(params, !hasShade);
-  const shade = useShade(params, hasShade);
+  // The shade in the URL is checked with the shared schema first: a wrong one is not sent, and its messages sit under its fields.
+  const urlKey = url.toString();
+  const shadeInvalid = useMemo(() => {
+    if (!hasShade) return null;
+    const parsed = shadeQuerySchema.safeParse(params);
+    return parsed.success ? null : fieldErrorsOf(parsed.error);
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- params is rebuilt from the URL on every render
+  }, [urlKey, hasShade]);
+  const shade = useShade(params, hasShade && !shadeInvalid);
   const [q, setQ] = useState(url.get('q') ?? '');
 
   const update = (fn: (u: URLSearchParams) => void) => {
@@ -44,7 +54,7 @@ export function Search() {
   const setShade = (c: ShadeChoice) =>
     update((u) => {
       SHADE.forEach((k) => u.delete(k));
-      for (const [k, v] of Object.entries(c)) if (v !== undefined && v !== '' && !Number.isNaN(v)) u.set(k, String(v));
+      for (const [k, v] of Object.entries(c)) if (v !== undefined && v !== '') u.set(k, v);
     });
   const clearShade = () => update((u) => SHADE.forEach((k) => u.delete(k)));
   const page = Number(url.get('page') ?? 1);
@@ -54,11 +64,13 @@ export function Search() {
     setUrl(next);
   };
 
-  const shadeError = shade.error instanceof ApiError ? shade.error : null;
+  const shadeError = shadeInvalid ? new ApiError(400, 'invalid_input', 'Some fields are not valid.', { fields: shadeInvalid }) : shade.error instanceof ApiError ? shade.error : null;
   const choice: ShadeChoice | null = hasShade
-    ? { hex: url.get('hex') ?? undefined, L: num(url.get('L')), a: num(url.get('a')), b: num(url.get('b')), maxDeltaE: num(url.get('maxDeltaE')) ?? 5 }
+    ? { hex: url.get('hex') ?? undefined, L: url.get('L') ?? undefined, a: url.get('a') ?? undefined, b: url.get('b') ?? undefined, maxDeltaE: url.get('maxDeltaE') ?? '5' }
     : null;
-  const list = hasShade ? shade.data : text.data;
+  // A refused shade shows its errors and no results: the previous query's results would answer a different question.
+  const shadeData = shadeError ? undefined : shade.data;
+  const list = hasShade ? shadeData : text.data;
   const total = list?.total ?? 0;
   const pageSize = list?.pageSize ?? 20;
   const pages = Math.max(1, Math.ceil(total / pageSize));
@@ -89,23 +101,24 @@ export function Search() {
       <div className="grid gap-6 md:grid-cols-[16rem_1fr]">
         <aside className="space-y-6">
           <ColourChooser value={choice} errors={shadeError?.details?.fields} onSearch={setShade} onClear={clearShade} />
-          <FacetList facets={hasShade ? shade.data?.facets : text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
+          <FacetList facets={hasShade ? shadeData?.facets : text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
         </aside>
         <section aria-live="polite" aria-busy={text.isFetching || shade.isFetching}>
-          {shadeError ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
+          {/* Field errors sit under the shade's fields; only a refusal about no field is said here. */}
+          {shadeError && !shadeError.details?.fields ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
           {text.error && !hasShade ? <p className="text-danger text-sm mb-2">{text.error.message}</p> : null}
           <p className="text-sm text-ink-soft mb-3" data-testid="result-count">
-            {list ? `${total} ${total === 1 ? 'piece' : 'pieces'}${hasShade ? ` within ΔE00 ${shade.data?.query.maxDeltaE} of ${shade.data?.query.hex}` : ''}` : 'Searching…'}
+            {hasShade && shadeError ? 'No search: correct the shade.' : list ? `${total} ${total === 1 ? 'piece' : 'pieces'}${hasShade ? ` within ΔE00 ${shadeData?.query.maxDeltaE} of ${shadeData?.query.hex}` : ''}` : 'Searching…'}
           </p>
-          {hasShade && shade.data ? (
+          {hasShade && shadeData ? (
             <div className="space-y-4">
-              {shade.data.items.length ? <AbPlot items={shade.data.items} query={shade.data.query} /> : null}
-              {shade.data.items.length ? (
+              {shadeData.items.length ? <AbPlot items={shadeData.items} query={shadeData.query} /> : null}
+              {shadeData.items.length ? (
                 <DownloadLink href={exportUrls.shadeCsv(shadeExportQuery(params))} hint="Every match of this shade search, ranked by ΔE00, with L*a*b* (image estimate, D65/2°), hex and share">
                   Export matches (CSV)
                 </DownloadLink>
               ) : null}
-              <ShadeResults items={shade.data.items} />
+              <ShadeResults items={shadeData.items} />
             </div>
           ) : !hasShade && text.data ? (
             <TextResults items={text.data.items} />
@@ -128,5 +141,3 @@ export function Search() {
     </Page>
   );
 }
-
-const num = (v: string | null) => (v === null || v === '' ? undefined : Number(v));

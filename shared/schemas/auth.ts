@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { ROLES } from '../roles.ts';
 
 export const email = z.string().trim().toLowerCase().email('Enter an e-mail address such as name@example.org').max(254);

@@ -1,11 +1,17 @@
 import { z } from 'zod';
+import '../messages.ts';
 
 export const BATCH_KINDS = ['mordant-bath', 'print-paste', 'dye-bath', 'vat'] as const;
 export const BATCH_STATUSES = ['active', 'exhausted', 'disposed'] as const;
 export const BATCH_EVENT_TYPES = ['use', 'top-up', 'water', 'test-strip', 'ph', 'disposal'] as const;
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date such as 2024-03-04');
-const ml = (label: string) => z.number({ error: `Enter ${label} in mL` }).positive(`${label} must be more than 0 mL`).max(1_000_000, `${label} must be at most 1,000,000 mL`);
+// `label` as it reads mid-sentence ("the volume"); a missing or non-numeric value is worded by shared/messages.ts.
+const ml = (label: string) => z.number().positive(`${cap(label)} must be more than 0 mL`).max(1_000_000, `${cap(label)} must be at most 1,000,000 mL`);
+const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+
+// The API stores the uptake as a fraction; forms show it as a percentage (batchCreateFormSchema).
+const fraction = z.number().min(0, 'Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)').max(1, 'Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)');
 
 export const batchIngredientSchema = z.object({
   kind: z.enum(['dyestuff', 'chemical']),
@@ -20,17 +26,26 @@ export const batchCreateSchema = z.object({
   kind: z.enum(BATCH_KINDS),
   name: z.string().trim().min(1, 'Name the batch').max(160),
   ingredients: z.array(batchIngredientSchema).max(30).default([]),
-  volumeMl: ml('The volume'),
+  volumeMl: ml('the volume'),
   thickenerGPerL: z.number().min(0).max(500).nullable().default(null),
   ph: z.number().min(0).max(14).nullable().default(null),
   madeOn: isoDate,
   checkBy: isoDate.nullable().default(null),
   parentId: z.number().int().positive().nullable().default(null),
   // Share of the strength taken by one use: a dyer's estimate, not a measurement.
-  uptakePerUse: z.number().min(0).max(1).default(0.1),
+  uptakePerUse: fraction.default(0.1),
   notes: z.string().trim().max(4000).nullable().default(null),
 });
 export type BatchCreateInput = z.infer<typeof batchCreateSchema>;
+
+/** The new-bath form: the same fields, but the uptake typed as a percentage (0–100), stored as a fraction. */
+export const batchCreateFormSchema = batchCreateSchema.extend({
+  uptakePerUse: z
+    .number()
+    .min(0, 'Give the uptake per use as a percentage from 0 to 100')
+    .max(100, 'Give the uptake per use as a percentage from 0 to 100')
+    .transform((pct) => pct / 100),
+});
 
 export const batchUpdateSchema = z
   .object({
@@ -38,7 +53,7 @@ export const batchUpdateSchema = z
     checkBy: isoDate.nullable(),
     thickenerGPerL: z.number().min(0).max(500).nullable(),
     ph: z.number().min(0).max(14).nullable(),
-    uptakePerUse: z.number().min(0).max(1),
+    uptakePerUse: fraction,
     notes: z.string().trim().max(4000).nullable(),
   })
   .partial();
@@ -56,7 +71,7 @@ export const batchListQuery = z.object({
 export const batchEventSchema = z
   .object({
     type: z.enum(BATCH_EVENT_TYPES),
-    volumeMl: ml('The volume').optional(),
+    volumeMl: ml('the volume').optional(),
     trialId: z.number().int().positive().optional(),
     // A trial may also be named by its code (T-YYYY-NNN), as dyers write it on the jar.
     trialCode: z.string().trim().regex(/^T-\d{4}-\d{3,}$/, 'Use a trial code such as T-2024-001').optional(),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { BLUE_WOOL_GRADES, GREY_GRADES } from '../compute/fastness.ts';
 
 export const greyGrade = z.enum(GREY_GRADES, { error: 'Choose a grey-scale grade from 1 to 5 (half grades as 4-5)' });

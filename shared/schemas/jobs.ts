@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 
 export const JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
 export type JobState = (typeof JOB_STATES)[number];

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 
 export const PHOTO_VIEWS = ['recto', 'verso', 'detail', 'raking', 'transmitted', 'uv', 'swatch'] as const;
 // W3C Web Annotation motivations narrowed to what a region is for on a textile photo.

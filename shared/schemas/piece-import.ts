@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
+import '../messages.ts';
 import { edtfYears } from './edtf.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).

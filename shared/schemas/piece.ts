@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
+import '../messages.ts';
 import { edtfYears } from '../edtf.ts';
 
 export { ACCESSION_PATTERN } from '../accession.ts';

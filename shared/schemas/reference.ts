@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { parseFormula } from '../compute/chemistry.ts';
 
 const formulaParses = (f: string) => {

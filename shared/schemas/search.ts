@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { HEX_RE } from '../search/lab.ts';
 import type { IMAGE_ESTIMATE_CONDITIONS } from '../colour/conditions.ts';
 

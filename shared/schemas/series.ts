@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 
 /** A mordant level: which chemical, and how much of it in % owf. */
 export const mordantLevelSchema = z.object({
@@ -31,7 +32,8 @@ export const seriesCreateSchema = z.object({
   pieceId: z.number().int().positive().nullable().default(null),
   factors: z.array(factorSchema).min(1, 'Add at least one factor').max(6),
   participants: z.array(z.string().trim().min(1).max(20)).max(60).default([]),
-  dryMassG: z.number().positive('Enter the dry mass per cell in g').max(10_000),
+  // Per cell, not the trial's dry fibre mass the shared label names.
+  dryMassG: z.number({ error: 'Enter the dry mass per cell in g' }).positive('The dry mass per cell must be more than 0 g').max(10_000, 'The dry mass per cell must be 10,000 g or less'),
   liquorRatio: z.number().positive().max(200).default(30),
   deadVolumePct: z.number().min(0).max(100).default(10),
   heldOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).nullable().default(null),

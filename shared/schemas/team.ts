@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { ROLES } from '../roles.ts';
 import { email, newPassword } from './auth.ts';
 

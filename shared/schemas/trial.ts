@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../messages.ts';
 import { fastnessSchema } from './fastness.ts';
 
 // Shared by the server's validation and the client's forms; types come from z.infer.
@@ -28,12 +29,13 @@ export const basisLabels: Record<(typeof BASES)[number], string> = { owf: '% owf
 const id = z.coerce.number().int().positive();
 const optionalId = id.nullable().optional();
 const text = (max: number) => z.string().trim().max(max).nullable().optional();
-const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive(`${what} must be more than 0`);
+// A number the field's label names when it is missing or not a number (shared/messages.ts); `what` starts the sentence.
+const positive = (what: string) => z.number().positive(`${what} must be more than 0`);
 
 export const labSchema = z.object({
-  L: z.number({ error: 'L* must be a number' }).min(0, 'L* is 0–100').max(100, 'L* is 0–100'),
-  a: z.number({ error: 'a* must be a number' }).min(-200, 'a* is −200 to 200').max(200, 'a* is −200 to 200'),
-  b: z.number({ error: 'b* must be a number' }).min(-200, 'b* is −200 to 200').max(200, 'b* is −200 to 200'),
+  L: z.number({ error: 'Enter L* as a number from 0 to 100' }).min(0, 'L* is 0–100').max(100, 'L* is 0–100'),
+  a: z.number({ error: 'Enter a* as a number from −200 to 200' }).min(-200, 'a* is −200 to 200').max(200, 'a* is −200 to 200'),
+  b: z.number({ error: 'Enter b* as a number from −200 to 200' }).min(-200, 'b* is −200 to 200').max(200, 'b* is −200 to 200'),
 });
 export type LabInput = z.infer<typeof labSchema>;
 
@@ -56,10 +58,10 @@ const trialFields = {
   status: z.enum(TRIAL_STATUSES).default('planned'),
   fibre: text(80),
   weave: text(80),
-  gsm: positive('g/m²').max(2000).nullable().optional(),
-  dryMassG: positive('Dry mass').max(100_000, 'Dry mass above 100 kg is not a trial'),
+  gsm: positive('The fabric weight').max(2000, 'The fabric weight must be 2,000 g/m² or less').nullable().optional(),
+  dryMassG: positive('The dry fibre mass').max(100_000, 'A dry fibre mass above 100 kg (100,000 g) is not a trial'),
   notes: text(5000),
-  startedOn: z.iso.date({ error: 'A date like 2024-03-12' }).nullable().optional(),
+  startedOn: z.iso.date({ error: 'Enter a date such as 2024-03-12' }).nullable().optional(),
   fastness: fastnessSchema.nullable().optional(),
   ...targetFields,
 };
@@ -91,15 +93,15 @@ export type TrialListQuery = z.input<typeof trialListQuerySchema>;
 export const ingredientSchema = z.object({
   kind: z.enum(['dyestuff', 'chemical']),
   refId: id,
-  amount: positive('Amount'),
+  amount: positive('The amount'),
   basis: z.enum(BASES),
 });
 export type IngredientInput = z.infer<typeof ingredientSchema>;
 
 /** Print paste make-up: final volume, and the stock solution the mordant is drawn from. */
 export const pasteSchema = z.object({
-  volumeMl: positive('Paste volume'),
-  stockGPerL: positive('Stock strength').nullable().optional(),
+  volumeMl: positive('The paste volume'),
+  stockGPerL: positive('The stock strength').nullable().optional(),
 });
 
 export const stepSchema = z.object({
@@ -107,13 +109,13 @@ export const stepSchema = z.object({
   id: optionalId,
   operation: z.enum(OPERATIONS),
   ingredients: z.array(ingredientSchema).max(20).default([]),
-  liquorRatio: positive('Liquor ratio').max(500).nullable().optional(),
+  liquorRatio: positive('The liquor ratio').max(500).nullable().optional(),
   temperatureC: z.number().min(0).max(130, '°C above 130 is not a dye bath').nullable().optional(),
   minutes: z.number().min(0).max(100_000).nullable().optional(),
   ph: z.number().min(0, 'pH is 0–14').max(14, 'pH is 0–14').nullable().optional(),
   paste: pasteSchema.nullable().optional(),
   batchId: optionalId,
-  batchVolumeMl: positive('Volume drawn').nullable().optional(),
+  batchVolumeMl: positive('The volume drawn').nullable().optional(),
   notes: text(2000),
 }).superRefine((s, ctx) => {
   // A draw is a bath and a volume together: one without the other would be saved as half a record.
@@ -129,7 +131,7 @@ const substitutionFields = z.object({
   stepId: optionalId,
   historicalChemicalId: optionalId,
   historicalPractice: text(255),
-  historicalAmountG: positive('Historical amount').nullable().optional(),
+  historicalAmountG: positive('The historical amount').nullable().optional(),
   modernChemicalId: optionalId,
   modernPractice: text(255),
   modernAmountG: z.number().min(0, 'Amount cannot be negative').nullable().optional(),
@@ -148,7 +150,7 @@ export const measurementSchema = labSchema.extend({
   specular: z.enum(['SCI', 'SCE']).nullable().optional(),
   instrument: text(120),
   label: text(160),
-  takenOn: z.iso.date({ error: 'A date like 2024-03-12' }).nullable().optional(),
+  takenOn: z.iso.date({ error: 'Enter a date such as 2024-03-12' }).nullable().optional(),
 });
 export type MeasurementInput = z.input<typeof measurementSchema>;
 

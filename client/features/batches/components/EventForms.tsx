@@ -1,8 +1,9 @@
 import { useState, type FormEvent } from 'react';
-import { DISPOSAL_NOTICE, type BatchEventInput } from '../../../../shared/schemas/batches';
+import { DISPOSAL_NOTICE, batchEventSchema, type BatchEventInput } from '../../../../shared/schemas/batches';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
-import { ApiError } from '../../../lib/http';
+import { FormAlert } from '../../../components/form/FormAlert';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import { useAddBatchEvent, type BatchDetail } from '../api';
 
 const TYPES = [
@@ -29,7 +30,7 @@ export function EventForms({ batch }: { batch: BatchDetail }) {
   const types = offered(batch.status);
   const [type, setType] = useState<T>(types[0]?.type ?? 'use');
   const add = useAddBatchEvent(batch.id);
-  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const { formRef, errors, check, fromServer, clear } = useFormErrors();
   const [done, setDone] = useState<string | null>(null);
   const chemicals = batch.ingredients.filter((i) => i.kind === 'chemical');
 
@@ -45,30 +46,30 @@ export function EventForms({ batch }: { batch: BatchDetail }) {
       result: str(f.get('result')), route: str(f.get('route')), ruleFollowed: str(f.get('ruleFollowed')), reason: str(f.get('reason')), notes: str(f.get('notes')),
       additions: type === 'top-up' && additions.length ? additions : undefined,
     };
-    setErrors({});
     setDone(null);
+    const data = check(batchEventSchema, input);
+    if (!data) return;
     try {
-      await add.mutateAsync(input);
+      await add.mutateAsync(data);
       setDone(`${TYPES.find((t) => t.type === type)!.label}: recorded.`);
       form.reset();
     } catch (err) {
-      if (err instanceof ApiError && err.details?.fields) setErrors(err.details.fields);
+      fromServer(err);
     }
   }
 
   if (batch.status === 'disposed') return <p className="text-sm text-ink-soft">This batch has been disposed of; the ledger is closed.</p>;
-  const formError = add.error instanceof ApiError && !add.error.details?.fields ? add.error.message : null;
   return (
     <div>
       <div role="tablist" aria-label="Event type" className="flex flex-wrap gap-1 mb-4">
         {types.map((t) => (
-          <button key={t.type} role="tab" type="button" aria-selected={type === t.type} onClick={() => { setType(t.type); setErrors({}); setDone(null); add.reset(); }}
+          <button key={t.type} role="tab" type="button" aria-selected={type === t.type} onClick={() => { setType(t.type); clear(); setDone(null); add.reset(); }}
             className={`px-3 py-1.5 rounded-md text-sm border ${type === t.type ? 'bg-action text-white border-action' : 'border-rule-strong bg-sheet hover:bg-paper'}`}>
             {t.label}
           </button>
         ))}
       </div>
-      <form key={type} onSubmit={onSubmit} noValidate className="grid gap-3 sm:grid-cols-2 max-w-2xl" aria-label={TYPES.find((t) => t.type === type)!.label}>
+      <form ref={formRef} key={type} onSubmit={onSubmit} noValidate className="grid gap-3 sm:grid-cols-2 max-w-2xl" aria-label={TYPES.find((t) => t.type === type)!.label}>
         {type === 'use' && (
           <>
             <Field label="Volume drawn" unit="mL" name="volumeMl" type="number" step="any" min="0" inputMode="decimal" error={errors.volumeMl} hint={`${batch.remainingMl} mL left`} />
@@ -96,7 +97,7 @@ export function EventForms({ batch }: { batch: BatchDetail }) {
           </>
         )}
         <Field label="Notes" name="notes" className="sm:col-span-2" error={errors.notes} />
-        {formError ? <p role="alert" className="sm:col-span-2 rounded-md bg-danger-tint px-3 py-2 text-sm text-danger">{formError}</p> : null}
+        <div className="sm:col-span-2"><FormAlert message={formMessage(add.error)} /></div>
         {done ? <p role="status" className="sm:col-span-2 rounded-md bg-ok-tint px-3 py-2 text-sm text-ok">{done}</p> : null}
         <div className="sm:col-span-2">
           <Button type="submit" variant={type === 'disposal' ? 'danger' : 'primary'} disabled={add.isPending}>

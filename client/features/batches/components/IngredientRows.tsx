@@ -4,10 +4,14 @@ import { useChemicals, useDyestuffs } from '../../reference/api';
 type Row = { key: string; grams: string };
 
 /** The chemicals and dyestuffs a bath is made from, each with its amount in g. */
-export function IngredientRows({ rows, onChange, error }: { rows: Row[]; onChange: (rows: Row[]) => void; error?: string[] }) {
+export function IngredientRows({ rows, onChange, errors = {}, field = 'ingredients' }: { rows: Row[]; onChange: (rows: Row[]) => void; errors?: Record<string, string[]>; field?: string }) {
   const chemicals = useChemicals().data?.items ?? [];
   const dyestuffs = useDyestuffs().data?.items ?? [];
   const set = (i: number, patch: Partial<Row>) => onChange(rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
+  // ingredientsFrom() leaves out rows without a choice, so the server's index counts chosen rows only.
+  const sent = rows.map((_, i) => rows.slice(0, i).filter((r) => r.key).length);
+  const rowErrors = (i: number, key: string) => (rows[i].key ? errors[`${field}.${sent[i]}.${key}`] : undefined);
+  const listError = Object.entries(errors).filter(([k]) => k === field || (k.startsWith(`${field}.`) && !/\.\d+\.grams$/.test(k))).flatMap(([, v]) => v);
   return (
     <fieldset className="sm:col-span-3">
       <legend className="text-sm font-medium">Ingredients</legend>
@@ -44,13 +48,15 @@ export function IngredientRows({ rows, onChange, error }: { rows: Row[]; onChang
               Amount (g)
               <input
                 aria-label={`Amount of ingredient ${i + 1} (g)`}
+                aria-invalid={rowErrors(i, 'grams') ? true : undefined}
                 type="number"
                 step="any"
                 min="0"
                 value={r.grams}
                 onChange={(e) => set(i, { grams: e.target.value })}
-                className="mt-1 block w-28 rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm text-ink num"
+                className={`mt-1 block w-28 rounded-md border bg-sheet px-3 py-2 text-sm text-ink num ${rowErrors(i, 'grams') ? 'border-danger' : 'border-rule-strong'}`}
               />
+              {rowErrors(i, 'grams') ? <span className="mt-1 block text-sm text-danger">{rowErrors(i, 'grams')!.join(' ')}</span> : null}
             </label>
             <button type="button" className="pb-2 text-sm text-action hover:underline" onClick={() => onChange(rows.filter((_, j) => j !== i))}>
               Remove
@@ -61,7 +67,7 @@ export function IngredientRows({ rows, onChange, error }: { rows: Row[]; onChang
       <button type="button" className="mt-2 text-sm text-action hover:underline" onClick={() => onChange([...rows, { key: '', grams: '' }])}>
         Add an ingredient
       </button>
-      {error?.length ? <p className="mt-1 text-sm text-danger">{error.join(' ')}</p> : null}
+      {listError.length ? <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>{[...new Set(listError)].join(' ')}</p> : null}
     </fieldset>
   );
 }

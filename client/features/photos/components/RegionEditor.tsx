@@ -3,6 +3,7 @@ import { REGION_PURPOSES, rectIssues, rectSchema, type Rect, type RegionPurpose 
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { ApiError } from '../../../lib/http';
+import { useFormErrors } from '../../../lib/form';
 import type { Photo } from '../../pieces/api';
 import { useAddRegion, useReferencePatch } from '../api';
 
@@ -34,7 +35,7 @@ export function RegionEditor({ photo, canEdit }: { photo: Photo; canEdit: boolea
   const [draft, setDraft] = useState<Draft>({ x: '', y: '', w: '', h: '' });
   const [purpose, setPurpose] = useState<RegionPurpose>('colour-area');
   const [label, setLabel] = useState('');
-  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const { formRef, errors, show: setErrors } = useFormErrors();
   const addRegion = useAddRegion(photo);
   const setPatch = useReferencePatch(photo);
 
@@ -97,6 +98,7 @@ export function RegionEditor({ photo, canEdit }: { photo: Photo; canEdit: boolea
       </div>
       {canEdit ? (
         <form
+          ref={formRef}
           className="space-y-3"
           onSubmit={(e) => {
             e.preventDefault();

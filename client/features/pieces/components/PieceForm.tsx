@@ -3,7 +3,7 @@ import { edtfYears } from '../../../../shared/edtf';
 import { pieceCreateSchema, type PieceCreateInput } from '../../../../shared/schemas/piece';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
-import { ApiError } from '../../../lib/http';
+import { useFormErrors } from '../../../lib/form';
 import { useVocabularies } from '../../vocabularies/api';
 import type { Piece } from '../api';
 import { EvidencedList, TermChecklist, TextAreaField, type Evidenced } from './FormBits';
@@ -31,7 +31,8 @@ function toInput(s: State): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const [k, v] of Object.entries(s)) {
     if (Array.isArray(v)) out[k] = v;
-    else if (NUMERIC.has(k)) out[k] = v.trim() === '' ? null : Number(v);
+    // Text that is not a number goes as typed, so the message says a number is wanted.
+    else if (NUMERIC.has(k)) out[k] = v.trim() === '' ? null : Number.isFinite(Number(v)) ? Number(v) : v;
     else out[k] = v.trim() === '' && !REQUIRED.has(k) ? null : v.trim();
   }
   return out;
@@ -40,7 +41,7 @@ function toInput(s: State): Record<string, unknown> {
 export function PieceForm({ piece, submitLabel, onSubmit }: { piece?: Piece; submitLabel: string; onSubmit: (input: PieceCreateInput) => Promise<unknown> }) {
   const vocab = useVocabularies().data;
   const [state, setState] = useState<State>(() => initial(piece));
-  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const { formRef, errors, check, fromServer } = useFormErrors();
   const [formError, setFormError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
   const set = <K extends keyof State>(k: K, v: State[K]) => setState((s) => ({ ...s, [k]: v }));
@@ -57,20 +58,16 @@ export function PieceForm({ piece, submitLabel, onSubmit }: { piece?: Piece; sub
   async function submit(e: FormEvent) {
     e.preventDefault();
     setFormError(null);
-    const parsed = pieceCreateSchema.safeParse(toInput(state));
-    if (!parsed.success) {
-      const fields: Record<string, string[]> = {};
-      for (const i of parsed.error.issues) (fields[i.path.join('.') || '_'] ??= []).push(i.message);
-      setErrors(fields);
+    const data = check(pieceCreateSchema, toInput(state));
+    if (!data) {
       setFormError('Some fields need attention; see the messages beside them.');
       return;
     }
-    setErrors({});
     setBusy(true);
     try {
-      await onSubmit(parsed.data);
+      await onSubmit(data);
     } catch (err) {
-      if (err instanceof ApiError && err.details?.fields) setErrors(err.details.fields);
+      fromServer(err);
       setFormError(err instanceof Error ? err.message : 'Saving failed.');
     } finally {
       setBusy(false);
@@ -78,7 +75,7 @@ export function PieceForm({ piece, submitLabel, onSubmit }: { piece?: Piece; sub
   }
 
   return (
-    <form onSubmit={submit} noValidate className="space-y-8 max-w-4xl">
+    <form ref={formRef} onSubmit={submit} noValidate className="space-y-8 max-w-4xl">
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-lg font-semibold font-serif">Identification</legend>
         <Field label="Accession number" hint="As your institution writes it, e.g. 1931.4.12, 1931.4.12a-b, T.14-1950 or EX 2021/1" className="font-mono" {...text('accessionNumber')} />

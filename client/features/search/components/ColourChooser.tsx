@@ -3,13 +3,15 @@ import { conditionsText, IMAGE_ESTIMATE_CONDITIONS } from '../../../../shared/co
 import { HEX_RE, hexToLab, labToHex } from '../../../../shared/search/lab';
 import { Field } from '../../../components/form/Field';
 import { Button } from '../../../components/Button';
+import { useFormErrors } from '../../../lib/form';
 
-export type ShadeChoice = { hex?: string; L?: number; a?: number; b?: number; maxDeltaE: number };
+/** As typed (strings): a wrong value reaches the URL and the server as it is, so its message names it. */
+export type ShadeChoice = { hex?: string; L?: string; a?: string; b?: string; maxDeltaE: string };
 
 // Input values stay plain ASCII numbers; a value that rounds to zero is 0.0, never -0.0.
 const fmt = (x: number) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1);
 
-/** Choose a shade by picker, by hex or by L*a*b* numbers, and a ΔE00 radius. Errors come from the server's per-field details. */
+/** Choose a shade by picker, by hex or by L*a*b* numbers, and a ΔE00 radius. Checked with the shared schema here, and the server's per-field details shown on the same fields. */
 export function ColourChooser({
   value,
   errors,
@@ -24,6 +26,10 @@ export function ColourChooser({
   const [hex, setHex] = useState(value?.hex ?? '');
   const [lab, setLab] = useState({ L: value?.L?.toString() ?? '', a: value?.a?.toString() ?? '', b: value?.b?.toString() ?? '' });
   const [radius, setRadius] = useState(String(value?.maxDeltaE ?? 5));
+  const local = useFormErrors();
+  // What is wrong with the shade in the URL (checked with the shared schema, or the server's 400), focused like any form's errors.
+  const { show } = local;
+  useEffect(() => show(errors ?? {}), [errors, show]);
   useEffect(() => {
     setHex(value?.hex ?? '');
     if (value?.hex && HEX_RE.test(value.hex)) {
@@ -41,12 +47,15 @@ export function ColourChooser({
       setLab({ L: fmt(l.L), a: fmt(l.a), b: fmt(l.b) });
     }
   };
-  const submitHex = () => onSearch({ hex: hex.replace('#', '').trim(), maxDeltaE: Number(radius) });
-  const submitLab = () => onSearch({ L: Number(lab.L), a: Number(lab.a), b: Number(lab.b), maxDeltaE: Number(radius) });
-  const err = (k: string) => errors?.[k];
+  // A wrong choice still goes to the URL as typed: the page checks it there, says what is wrong and drops the old results.
+  const submitHex = () => onSearch({ hex: hex.replace('#', '').trim(), maxDeltaE: radius.trim() });
+  const submitLab = () => onSearch({ L: lab.L.trim(), a: lab.a.trim(), b: lab.b.trim(), maxDeltaE: radius.trim() });
+  const err = (k: string) => local.errors[k];
 
   return (
     <form
+      ref={local.formRef}
+      noValidate
       aria-label="Shade"
       className="rounded-lg border border-rule bg-sheet p-4 space-y-3"
       onSubmit={(e) => {

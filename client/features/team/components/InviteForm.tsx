@@ -1,35 +1,34 @@
 import { formatDate } from '../../../../shared/format';
-import { useState, type FormEvent } from 'react';
+import { type FormEvent } from 'react';
 import { inviteSchema } from '../../../../shared/schemas/team';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { Select } from '../../../components/form/Select';
-import { formMessage, parseForm, serverFieldErrors, type FieldErrors } from '../../../lib/form';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import { useInvite } from '../api';
 import { roleLabel, roleOptions } from '../roles';
 
 export function InviteForm() {
   const invite = useInvite();
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const { formRef, errors, check, fromServer } = useFormErrors();
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const form = e.currentTarget;
-    const parsed = parseForm(inviteSchema, form);
-    setErrors(parsed.errors ?? {});
-    if (!parsed.data) return;
+    const data = check(inviteSchema, Object.fromEntries(new FormData(form)));
+    if (!data) return;
     try {
-      await invite.mutateAsync(parsed.data);
+      await invite.mutateAsync(data);
       form.reset();
     } catch (err) {
-      setErrors(serverFieldErrors(err));
+      fromServer(err);
     }
   }
 
   const sent = invite.data?.invitation;
   return (
-    <form onSubmit={onSubmit} noValidate className="rounded-lg border border-rule bg-sheet p-4 space-y-3" aria-labelledby="invite-heading">
+    <form ref={formRef} onSubmit={onSubmit} noValidate className="rounded-lg border border-rule bg-sheet p-4 space-y-3" aria-labelledby="invite-heading">
       <h2 id="invite-heading" className="text-lg font-semibold">
         Invite someone
       </h2>

@@ -64,7 +64,7 @@ export function FastnessSection({ trial }: { trial: TrialView }) {
           <div><Grade label="Washing: change in colour" value={d.washChange} grades={GREY_GRADES} onChange={(washChange) => setD({ ...d, washChange })} /><Grade label="Washing: staining" value={d.washStaining} grades={GREY_GRADES} onChange={(washStaining) => setD({ ...d, washStaining })} /><Informal checked={d.washInformal} onChange={(washInformal) => setD({ ...d, washInformal })} /></div>
           <div><Grade label="Rubbing dry (grey scale)" value={d.dry} grades={GREY_GRADES} onChange={(dry) => setD({ ...d, dry })} /><Informal checked={d.dryInformal} onChange={(dryInformal) => setD({ ...d, dryInformal })} /></div>
           <div><Grade label="Rubbing wet (grey scale)" value={d.wet} grades={GREY_GRADES} onChange={(wet) => setD({ ...d, wet })} /><Informal checked={d.wetInformal} onChange={(wetInformal) => setD({ ...d, wetInformal })} /></div>
-          <div className="sm:col-span-4"><FormAlert message={update.error ? (fields ? Object.entries(fields).map(([k, v]) => `${k}: ${v.join(' ')}`).join('; ') : update.error.message) : null} /></div>
+          <div className="sm:col-span-4"><FormAlert message={update.error ? (fields ? [...new Set(Object.values(fields).flat())].join(' ') : update.error.message) : null} /></div>
           <div className="flex gap-3 sm:col-span-4"><Button type="submit" disabled={update.isPending}>Save grades</Button><Button type="button" variant="quiet" onClick={() => setEditing(false)}>Cancel</Button></div>
         </form>
       ) : <Shown f={current} />}

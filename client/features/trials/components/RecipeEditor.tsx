@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import { BASES, OPERATIONS, basisLabels, operationLabels, type StepInput } from '../../../../shared/schemas/trial';
+import { BASES, OPERATIONS, basisLabels, operationLabels, stepsSchema, type StepInput } from '../../../../shared/schemas/trial';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
-import { ApiError } from '../../../lib/http';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import { useChemicals, useDyestuffs } from '../../reference/api';
 import { useBatches } from '../../batches/api';
 import { useReplaceSteps, type TrialView } from '../api';
@@ -26,7 +26,7 @@ const toInput = (d: Draft): StepInput => ({
   liquorRatio: n(d.liquorRatio), temperatureC: n(d.temperatureC), minutes: n(d.minutes), ph: n(d.ph),
   paste: d.pasteVolumeMl.trim() ? { volumeMl: Number(d.pasteVolumeMl), stockGPerL: n(d.stockGPerL) } : null,
   batchId: n(d.batchId), batchVolumeMl: n(d.batchVolumeMl), notes: d.notes || null,
-  ingredients: d.ingredients.map((i) => ({ kind: i.kind, refId: Number(i.refId), amount: Number(i.amount), basis: i.basis as 'owf' | 'g/L' | 'g' })),
+  ingredients: d.ingredients.map((i) => ({ kind: i.kind, refId: Number(i.refId), amount: n(i.amount) as number, basis: i.basis as 'owf' | 'g/L' | 'g' })),
 });
 
 function Num({ label, value, onChange, error, unit }: { label: string; value: string; onChange: (v: string) => void; error?: string[]; unit?: string }) {
@@ -51,14 +51,15 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
     ...trial.steps.flatMap((st) => (st.batch && !activeBaths.data?.items.some((b) => b.id === st.batch!.id) ? [{ id: st.batch.id, label: `${st.batch.code} — ${st.batch.name} (${st.batch.status}, ${Math.round(st.batch.remainingMl)} mL left)` }] : [])),
   ].filter((b, i, all) => all.findIndex((x) => x.id === b.id) === i);
   const save = useReplaceSteps(trial.id);
-  const fields = save.error instanceof ApiError ? save.error.details?.fields : undefined;
-  const err = (i: number, k: string) => fields?.[`steps.${i}.${k}`];
+  const { formRef, errors, check, fromServer } = useFormErrors();
+  const err = (i: number, k: string) => errors[`steps.${i}.${k}`];
+  const fields = Object.keys(errors).length ? errors : undefined;
   const update = (i: number, patch: Partial<Draft>) => setSteps((all) => all.map((d, j) => (j === i ? { ...d, ...patch } : d)));
   const move = (i: number, by: number) => setSteps((all) => { const next = [...all]; const [x] = next.splice(i, 1); next.splice(i + by, 0, x); return next; });
   const setIng = (i: number, k: number, patch: Partial<Ing>) => update(i, { ingredients: steps[i].ingredients.map((x, j) => (j === k ? { ...x, ...patch } : x)) });
 
   return (
-    <form className="space-y-4" onSubmit={(e) => { e.preventDefault(); save.mutate({ steps: steps.map(toInput) }, { onSuccess: onDone }); }}>
+    <form ref={formRef} noValidate className="space-y-4" onSubmit={(e) => { e.preventDefault(); const input = { steps: steps.map(toInput) }; if (check(stepsSchema, input)) save.mutate(input, { onSuccess: onDone, onError: fromServer }); }}>
       {steps.map((d, i) => (
         <fieldset key={i} className="rounded-lg border border-rule bg-sheet p-4">
           <legend className="px-1 text-sm font-semibold">Step {i + 1}</legend>
@@ -92,13 +93,13 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
                   <tr key={k}>
                     <td className="pr-2"><select aria-label={`Step ${i + 1} ingredient ${k + 1} kind`} className={input} value={ing.kind} onChange={(e) => setIng(i, k, { kind: e.target.value as Ing['kind'], refId: '' })}><option value="chemical">chemical</option><option value="dyestuff">dyestuff</option></select></td>
                     <td className="pr-2">
-                      <select aria-label={`Step ${i + 1} ingredient ${k + 1}`} className={input} value={ing.refId} onChange={(e) => setIng(i, k, { refId: e.target.value })}>
+                      <select aria-label={`Step ${i + 1} ingredient ${k + 1}`} aria-invalid={err(i, `ingredients.${k}.refId`) ? true : undefined} className={input} value={ing.refId} onChange={(e) => setIng(i, k, { refId: e.target.value })}>
                         <option value="">Choose…</option>
                         {options.map((o) => <option key={o.id} value={o.id}>{o.label}</option>)}
                       </select>
                       {err(i, `ingredients.${k}.refId`) ? <span className="text-xs text-danger">{err(i, `ingredients.${k}.refId`)!.join(' ')}</span> : null}
                     </td>
-                    <td className="pr-2"><input aria-label={`Step ${i + 1} ingredient ${k + 1} amount`} className={`${input} w-24 font-mono`} inputMode="decimal" value={ing.amount} onChange={(e) => setIng(i, k, { amount: e.target.value })} />{err(i, `ingredients.${k}.amount`) ? <span className="text-xs text-danger">{err(i, `ingredients.${k}.amount`)!.join(' ')}</span> : null}</td>
+                    <td className="pr-2"><input aria-label={`Step ${i + 1} ingredient ${k + 1} amount`} aria-invalid={err(i, `ingredients.${k}.amount`) ? true : undefined} className={`${input} w-24 font-mono`} inputMode="decimal" value={ing.amount} onChange={(e) => setIng(i, k, { amount: e.target.value })} />{err(i, `ingredients.${k}.amount`) ? <span className="text-xs text-danger">{err(i, `ingredients.${k}.amount`)!.join(' ')}</span> : null}</td>
                     <td className="pr-2"><select aria-label={`Step ${i + 1} ingredient ${k + 1} basis`} className={input} value={ing.basis} onChange={(e) => setIng(i, k, { basis: e.target.value })}>{BASES.map((b) => <option key={b} value={b}>{basisLabels[b]}</option>)}</select></td>
                     <td><button type="button" className="text-xs text-danger underline" onClick={() => update(i, { ingredients: d.ingredients.filter((_, j) => j !== k) })}>Remove</button></td>
                   </tr>
@@ -115,7 +116,7 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
           </div>
         </fieldset>
       ))}
-      <FormAlert message={save.error && !fields ? save.error.message : fields ? 'Some fields need attention; see the steps above.' : null} />
+      <FormAlert message={fields ? 'Some fields need attention; see the steps above.' : formMessage(save.error)} />
       <div className="flex gap-3">
         <Button type="button" variant="secondary" onClick={() => setSteps((all) => [...all, blank()])}>Add step</Button>
         <Button type="submit" disabled={save.isPending}>{save.isPending ? 'Saving…' : 'Save recipe'}</Button>

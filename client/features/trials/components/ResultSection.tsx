@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import { GEOMETRIES, ILLUMINANTS, OBSERVERS, type MeasurementInput } from '../../../../shared/schemas/trial';
+import { GEOMETRIES, ILLUMINANTS, OBSERVERS, measurementSchema, type MeasurementInput } from '../../../../shared/schemas/trial';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { ApiError } from '../../../lib/http';
@@ -13,24 +14,26 @@ const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet p
 function MeasurementForm({ trialId }: { trialId: number }) {
   const [d, setD] = useState({ L: '', a: '', b: '', illuminant: 'D65', observer: '10', geometry: 'd:8°', specular: 'SCI', instrument: '' });
   const add = useAddMeasurement(trialId);
-  const fields = add.error instanceof ApiError ? add.error.details?.fields : undefined;
+  const { formRef, errors, check, fromServer } = useFormErrors();
   const set = (k: keyof typeof d) => (e: { target: { value: string } }) => setD({ ...d, [k]: e.target.value });
   const num = (x: string) => (x.trim() === '' ? (undefined as unknown as number) : Number(x));
-  const err = (k: string) => (fields?.[k] ? <span className="text-xs text-danger">{fields[k].join(' ')}</span> : null);
+  const err = (k: string) => (errors[k] ? <span className="block text-xs text-danger">{errors[k].join(' ')}</span> : null);
+  const bad = (k: string) => (errors[k] ? { 'aria-invalid': true as const } : {});
   return (
-    <form aria-label="Add a reading" className="grid gap-3 sm:grid-cols-4" onSubmit={(e) => {
+    <form ref={formRef} noValidate aria-label="Add a reading" className="grid gap-3 sm:grid-cols-4" onSubmit={(e) => {
       e.preventDefault();
       const body: MeasurementInput = { L: num(d.L), a: num(d.a), b: num(d.b), illuminant: d.illuminant as MeasurementInput['illuminant'], observer: d.observer as MeasurementInput['observer'], geometry: d.geometry as MeasurementInput['geometry'], specular: d.specular as 'SCI' | 'SCE', instrument: d.instrument || null };
-      add.mutate(body, { onSuccess: () => setD({ ...d, L: '', a: '', b: '' }) });
+      if (check(measurementSchema, body)) add.mutate(body, { onSuccess: () => setD({ ...d, L: '', a: '', b: '' }), onError: fromServer });
     }}>
-      <label className="text-xs font-medium">L*<input className={`${input} font-mono`} inputMode="decimal" value={d.L} onChange={set('L')} />{err('L')}</label>
-      <label className="text-xs font-medium">a*<input className={`${input} font-mono`} inputMode="decimal" value={d.a} onChange={set('a')} />{err('a')}</label>
-      <label className="text-xs font-medium">b*<input className={`${input} font-mono`} inputMode="decimal" value={d.b} onChange={set('b')} />{err('b')}</label>
+      <label className="text-xs font-medium">L*<input className={`${input} font-mono`} inputMode="decimal" value={d.L} onChange={set('L')} {...bad('L')} />{err('L')}</label>
+      <label className="text-xs font-medium">a*<input className={`${input} font-mono`} inputMode="decimal" value={d.a} onChange={set('a')} {...bad('a')} />{err('a')}</label>
+      <label className="text-xs font-medium">b*<input className={`${input} font-mono`} inputMode="decimal" value={d.b} onChange={set('b')} {...bad('b')} />{err('b')}</label>
       <label className="text-xs font-medium">Instrument<input className={input} value={d.instrument} onChange={set('instrument')} /></label>
       <label className="text-xs font-medium">Illuminant<select className={input} value={d.illuminant} onChange={set('illuminant')}>{ILLUMINANTS.map((x) => <option key={x}>{x}</option>)}</select></label>
       <label className="text-xs font-medium">Observer<select className={input} value={d.observer} onChange={set('observer')}>{OBSERVERS.map((x) => <option key={x} value={x}>{x}°</option>)}</select></label>
       <label className="text-xs font-medium">Geometry<select className={input} value={d.geometry} onChange={set('geometry')}>{GEOMETRIES.map((x) => <option key={x}>{x}</option>)}</select></label>
       <label className="text-xs font-medium">Specular<select className={input} value={d.specular} onChange={set('specular')}><option>SCI</option><option>SCE</option></select></label>
+      <div className="sm:col-span-4"><FormAlert message={formMessage(add.error)} /></div>
       <div className="sm:col-span-4"><Button type="submit" variant="secondary" disabled={add.isPending}>Add reading</Button></div>
     </form>
   );

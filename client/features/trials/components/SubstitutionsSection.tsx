@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import { REASONS, type SubstitutionInput } from '../../../../shared/schemas/trial';
+import { REASONS, substitutionSchema, type SubstitutionInput } from '../../../../shared/schemas/trial';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
-import { ApiError } from '../../../lib/http';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import { ChemicalCaution } from '../../reference/components/ChemicalCaution';
 import { useChemicals } from '../../reference/api';
 import { useDeleteSubstitution, useSaveSubstitution, type TrialView } from '../api';
@@ -18,29 +18,30 @@ function SubstitutionForm({ trial, onDone }: { trial: TrialView; onDone: () => v
   const [d, setD] = useState<Draft>(empty);
   const chemicals = useChemicals();
   const save = useSaveSubstitution(trial.id);
-  const fields = save.error instanceof ApiError ? save.error.details?.fields : undefined;
+  const { formRef, errors, check, fromServer } = useFormErrors();
   const set = (k: keyof Draft) => (e: { target: { value: string } }) => setD({ ...d, [k]: e.target.value });
   const chemOptions = (chemicals.data?.items ?? []).map((c) => <option key={c.id} value={c.id}>{c.name}</option>);
-  const error = (k: string) => (fields?.[k] ? <span className="text-xs text-danger">{fields[k].join(' ')}</span> : null);
+  const error = (k: string) => (errors[k] ? <span className="block text-xs text-danger">{errors[k].join(' ')}</span> : null);
+  const bad = (k: string) => (errors[k] ? { 'aria-invalid': true as const } : {});
   const submit = () => {
     const body: SubstitutionInput = {
       stepId: n(d.stepId), historicalChemicalId: n(d.historicalChemicalId), historicalPractice: d.historicalPractice || null, historicalAmountG: n(d.historicalAmountG),
       modernChemicalId: n(d.modernChemicalId), modernPractice: d.modernPractice || null, modernAmountG: n(d.modernAmountG), reason: d.reason as SubstitutionInput['reason'], notes: d.notes || null,
     };
-    save.mutate(body, { onSuccess: () => { setD(empty); onDone(); } });
+    if (check(substitutionSchema, body)) save.mutate(body, { onSuccess: () => { setD(empty); onDone(); }, onError: fromServer });
   };
   return (
-    <form className="grid gap-3 rounded-lg border border-rule bg-sheet p-4 sm:grid-cols-3" onSubmit={(e) => { e.preventDefault(); submit(); }} aria-label="Record a substitution">
-      <label className="text-xs font-medium">Historical chemical<select className={input} value={d.historicalChemicalId} onChange={set('historicalChemicalId')}><option value="">—</option>{chemOptions}</select>{error('historicalChemicalId')}</label>
-      <label className="text-xs font-medium">or historical practice<input className={input} value={d.historicalPractice} onChange={set('historicalPractice')} />{error('historicalPractice')}</label>
-      <label className="text-xs font-medium">Historical amount <span className="font-normal text-ink-faint">(g, this batch)</span><input className={`${input} font-mono`} inputMode="decimal" value={d.historicalAmountG} onChange={set('historicalAmountG')} />{error('historicalAmountG')}</label>
-      <label className="text-xs font-medium">Modern chemical<select className={input} value={d.modernChemicalId} onChange={set('modernChemicalId')}><option value="">—</option>{chemOptions}</select>{error('modernChemicalId')}</label>
-      <label className="text-xs font-medium">or modern practice<input className={input} value={d.modernPractice} onChange={set('modernPractice')} placeholder="e.g. overdye with weld" />{error('modernPractice')}</label>
-      <label className="text-xs font-medium">Modern amount <span className="font-normal text-ink-faint">(g; empty = from the recipe step)</span><input className={`${input} font-mono`} inputMode="decimal" value={d.modernAmountG} onChange={set('modernAmountG')} />{error('modernAmountG')}</label>
-      <label className="text-xs font-medium">Step<select className={input} value={d.stepId} onChange={set('stepId')}><option value="">—</option>{trial.steps.map((s) => <option key={s.id} value={s.id}>{s.position}. {s.operation}</option>)}</select>{error('stepId')}</label>
-      <label className="text-xs font-medium">Reason<select className={input} value={d.reason} onChange={set('reason')}>{REASONS.map((r) => <option key={r} value={r}>{REASON_WORDS[r]}</option>)}</select></label>
+    <form ref={formRef} noValidate className="grid gap-3 rounded-lg border border-rule bg-sheet p-4 sm:grid-cols-3" onSubmit={(e) => { e.preventDefault(); submit(); }} aria-label="Record a substitution">
+      <label className="text-xs font-medium">Historical chemical<select className={input} value={d.historicalChemicalId} onChange={set('historicalChemicalId')} {...bad('historicalChemicalId')}><option value="">—</option>{chemOptions}</select>{error('historicalChemicalId')}</label>
+      <label className="text-xs font-medium">or historical practice<input className={input} value={d.historicalPractice} onChange={set('historicalPractice')} {...bad('historicalPractice')} />{error('historicalPractice')}</label>
+      <label className="text-xs font-medium">Historical amount <span className="font-normal text-ink-faint">(g, this batch)</span><input className={`${input} font-mono`} inputMode="decimal" value={d.historicalAmountG} onChange={set('historicalAmountG')} {...bad('historicalAmountG')} />{error('historicalAmountG')}</label>
+      <label className="text-xs font-medium">Modern chemical<select className={input} value={d.modernChemicalId} onChange={set('modernChemicalId')} {...bad('modernChemicalId')}><option value="">—</option>{chemOptions}</select>{error('modernChemicalId')}</label>
+      <label className="text-xs font-medium">or modern practice<input className={input} value={d.modernPractice} onChange={set('modernPractice')} placeholder="e.g. overdye with weld" {...bad('modernPractice')} />{error('modernPractice')}</label>
+      <label className="text-xs font-medium">Modern amount <span className="font-normal text-ink-faint">(g; empty = from the recipe step)</span><input className={`${input} font-mono`} inputMode="decimal" value={d.modernAmountG} onChange={set('modernAmountG')} {...bad('modernAmountG')} />{error('modernAmountG')}</label>
+      <label className="text-xs font-medium">Step<select className={input} value={d.stepId} onChange={set('stepId')} {...bad('stepId')}><option value="">—</option>{trial.steps.map((s) => <option key={s.id} value={s.id}>{s.position}. {s.operation}</option>)}</select>{error('stepId')}</label>
+      <label className="text-xs font-medium">Reason<select className={input} value={d.reason} onChange={set('reason')} {...bad('reason')}>{REASONS.map((r) => <option key={r} value={r}>{REASON_WORDS[r]}</option>)}</select></label>
       <label className="text-xs font-medium">Notes<input className={input} value={d.notes} onChange={set('notes')} /></label>
-      <div className="sm:col-span-3"><FormAlert message={save.error && !fields ? save.error.message : null} /></div>
+      <div className="sm:col-span-3"><FormAlert message={formMessage(save.error)} /></div>
       <div className="flex gap-3 sm:col-span-3">
         <Button type="submit" disabled={save.isPending}>Save substitution</Button>
         <Button type="button" variant="quiet" onClick={onDone}>Cancel</Button>

@@ -4,6 +4,7 @@ import { IMAGE_ESTIMATE } from '../../../components/ViewingConditions';
 import { TRIAL_STATUSES } from '../../../../shared/schemas/trial';
 import { Field } from '../../../components/form/Field';
 import { Select } from '../../../components/form/Select';
+import { TextAreaField } from '../../pieces/components/FormBits';
 import { usePiece } from '../../pieces/api';
 import { usePieceTrials } from '../api';
 import { STATUS_WORDS } from '../format';
@@ -33,13 +34,14 @@ export const targetValue = (t: { paletteColourId: number | null; regionId: numbe
   t.paletteColourId ? `palette:${t.paletteColourId}` : t.regionId ? `region:${t.regionId}` : t.measurementId ? `measurement:${t.measurementId}` : '';
 
 export const toTrialInput = (v: TrialFormValues) => {
-  const num = (s: string) => (s.trim() === '' ? null : Number(s));
+  // Text that is not a number goes to the schema as typed, so its message says "as a number".
+  const num = (s: string) => (s.trim() === '' ? null : Number.isFinite(Number(s)) ? Number(s) : s);
   return {
     status: v.status as (typeof TRIAL_STATUSES)[number],
     fibre: v.fibre || null,
     weave: v.weave || null,
-    gsm: num(v.gsm),
-    dryMassG: Number(v.dryMassG),
+    gsm: num(v.gsm) as number | null,
+    dryMassG: (num(v.dryMassG) ?? undefined) as number,
     startedOn: v.startedOn || null,
     notes: v.notes || null,
     ...targetIds(v.target),
@@ -76,11 +78,9 @@ export function TrialFields({ values, onChange, errors, pieceId }: { values: Tri
           <TargetSelect pieceId={pieceId} value={values.target} onChange={(target) => onChange({ ...values, target })} error={errors?.target ?? errors?.targetRegionId ?? errors?.targetPaletteColourId ?? errors?.targetMeasurementId} />
         </div>
       ) : null}
-      <label className="block text-sm font-medium sm:col-span-2">
-        Notes
-        <textarea className="mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm" rows={3} value={values.notes} onChange={set('notes')} />
-        {errors?.notes ? <span className="mt-1 block text-sm text-danger">{errors.notes.join(' ')}</span> : null}
-      </label>
+      <div className="sm:col-span-2">
+        <TextAreaField label="Notes" value={values.notes} onChange={set('notes')} error={errors?.notes} />
+      </div>
     </div>
   );
 }

@@ -3,7 +3,8 @@ import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { Page } from '../../../components/Page';
-import { ApiError } from '../../../lib/http';
+import { trialCreateSchema } from '../../../../shared/schemas/trial';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import { paths } from '../../../paths';
 import { useQuery } from '@tanstack/react-query';
 import { pieceQuery } from '../../pieces/api';
@@ -19,7 +20,7 @@ export function TrialNewPage() {
   const create = useCreateTrial();
   const [kind, setKind] = useState<'modern' | 'historical'>('modern');
   const [values, setValues] = useState<TrialFormValues>({ status: 'planned', fibre: 'cotton', weave: '', gsm: '', dryMassG: '', startedOn: '', notes: '', target: '' });
-  const err = create.error instanceof ApiError ? create.error : null;
+  const { formRef, errors, check, fromServer } = useFormErrors();
 
   return (
     <Page
@@ -35,10 +36,13 @@ export function TrialNewPage() {
       }
     >
       <form
+        ref={formRef}
+        noValidate
         className="max-w-3xl space-y-5 rounded-lg border border-rule bg-sheet p-5"
         onSubmit={(e) => {
           e.preventDefault();
-          create.mutate({ ...toTrialInput(values), kind, pieceId }, { onSuccess: ({ trial }) => navigate(paths.trial(trial.id)) });
+          const data = check(trialCreateSchema, { ...toTrialInput(values), kind, pieceId });
+          if (data) create.mutate(data, { onSuccess: ({ trial }) => navigate(paths.trial(trial.id)), onError: fromServer });
         }}
       >
         <fieldset>
@@ -48,8 +52,8 @@ export function TrialNewPage() {
             <label className="flex items-center gap-2"><input type="radio" name="kind" checked={kind === 'historical'} onChange={() => setKind('historical')} /> Historical recipe, recorded for scholarship only</label>
           </div>
         </fieldset>
-        <TrialFields values={values} onChange={setValues} errors={err?.details?.fields} pieceId={pieceId} />
-        <FormAlert message={err && !err.details?.fields ? err.message : null} />
+        <TrialFields values={values} onChange={setValues} errors={errors} pieceId={pieceId} />
+        <FormAlert message={formMessage(create.error) ?? errors._?.join(' ') ?? null} />
         <div className="flex gap-3">
           <Button type="submit" disabled={create.isPending}>{create.isPending ? 'Saving…' : 'Create trial'}</Button>
           <Link className="px-4 py-2 text-sm underline" to={pieceId ? paths.piece(pieceId) : paths.trials()}>Cancel</Link>

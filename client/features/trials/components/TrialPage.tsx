@@ -1,8 +1,10 @@
-import { useState } from 'react';
+import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { Page } from '../../../components/Page';
+import { trialUpdateSchema } from '../../../../shared/schemas/trial';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import { ApiError } from '../../../lib/http';
 import { paths } from '../../../paths';
 import { NotFound } from '../../../routes/NotFound';
@@ -23,11 +25,16 @@ const toValues = (t: TrialView): TrialFormValues => ({
 function DetailsEditor({ trial, onDone }: { trial: TrialView; onDone: () => void }) {
   const [values, setValues] = useState(toValues(trial));
   const update = useUpdateTrial(trial.id);
-  const err = update.error instanceof ApiError ? update.error : null;
+  const { formRef, errors, check, fromServer } = useFormErrors();
+  const onSubmit = (e: FormEvent) => {
+    e.preventDefault();
+    const data = check(trialUpdateSchema, toTrialInput(values));
+    if (data) update.mutate(data, { onSuccess: onDone, onError: fromServer });
+  };
   return (
-    <form className="space-y-4 rounded-lg border border-rule bg-sheet p-4" onSubmit={(e) => { e.preventDefault(); update.mutate(toTrialInput(values), { onSuccess: onDone }); }}>
-      <TrialFields values={values} onChange={setValues} errors={err?.details?.fields} pieceId={trial.piece?.id ?? null} />
-      <FormAlert message={err && !err.details?.fields ? err.message : null} />
+    <form ref={formRef} noValidate className="space-y-4 rounded-lg border border-rule bg-sheet p-4" onSubmit={onSubmit}>
+      <TrialFields values={values} onChange={setValues} errors={errors} pieceId={trial.piece?.id ?? null} />
+      <FormAlert message={formMessage(update.error) ?? errors._?.join(' ') ?? null} />
       <div className="flex gap-3"><Button type="submit" disabled={update.isPending}>Save</Button><Button type="button" variant="quiet" onClick={onDone}>Cancel</Button></div>
     </form>
   );

@@ -1,0 +1,122 @@
+import { describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { fieldLabel, messageFor } from '../../shared/messages.ts';
+import { batchCreateFormSchema, batchCreateSchema, batchEventSchema } from '../../shared/schemas/batches.ts';
+import { seriesCreateSchema } from '../../shared/schemas/series.ts';
+import { inviteSchema } from '../../shared/schemas/team.ts';
+import { shadeQuerySchema } from '../../shared/schemas/search.ts';
+import { stepsSchema, trialCreateSchema } from '../../shared/schemas/trial.ts';
+
+// zod's own English, which must never reach a person.
+const RAW = /Invalid input|Invalid option|expected|received|Too big|Too small|Unrecognized key|Invalid string|Enter The/;
+
+const messages = (schema: z.ZodType, value: unknown) => {
+  const r = schema.safeParse(value);
+  if (r.success) throw new Error('expected a failure');
+  // The first message of each field, as the forms show it.
+  return Object.fromEntries(r.error.issues.toReversed().map((i) => [i.path.join('.'), i.message]));
+};
+
+describe('the error map: every issue kind in people words, with the field label', () => {
+  // One schema with no messages of its own, so every message comes from the map.
+  const bare = z
+    .object({
+      volumeMl: z.number().positive().max(1000),
+      dryMassG: z.number(),
+      code: z.string().min(2).max(5).regex(/^[A-Z]+$/),
+      name: z.string().min(1),
+      kind: z.enum(['mordant-bath', 'dye-bath']),
+      factors: z.array(z.string()).min(1).max(2),
+      minutes: z.number().int().multipleOf(5),
+      email: z.email(),
+      startedOn: z.iso.date(),
+      hex: z.union([z.string().length(6), z.number()]),
+      active: z.boolean(),
+      refId: z.number().int().positive(),
+      modernPractice: z.string().refine((v) => v !== 'x'),
+    })
+    .strict();
+
+  const cases: Array<[string, unknown, RegExp]> = [
+    ['volumeMl', undefined, /^Enter the volume in mL$/],
+    ['volumeMl', null, /^Enter the volume in mL$/],
+    ['volumeMl', Number.NaN, /^Enter the volume in mL$/],
+    ['volumeMl', 'lots', /^Enter the volume as a number in mL$/],
+    ['volumeMl', 0, /^The volume must be more than 0 mL$/],
+    ['volumeMl', 5000, /^The volume must be 1,000 mL or less$/],
+    ['dryMassG', '', /^Enter the dry fibre mass in g$/],
+    ['code', 'A', /^Use at least 2 characters for the code$/],
+    ['code', 'ABCDEFG', /^Use at most 5 characters for the code$/],
+    ['code', 'ab', /^Check the code: it is not written the way it should be$/],
+    ['name', '', /^Enter the name$/],
+    ['code', '', /^Enter the code$/],
+    ['kind', 'vat', /^Choose a kind: mordant-bath, dye-bath$/],
+    ['kind', undefined, /^Choose a kind/],
+    ['factors', [], /^Add at least one entry to the factors$/],
+    ['factors', ['a', 'b', 'c'], /^The factors can have at most 2 entries$/],
+    ['minutes', 2.5, /^The time must be a whole number$/],
+    ['minutes', 7, /^The time must be a multiple of 5$/],
+    ['email', 'nobody', /^Enter an e-mail address such as name@example\.org$/],
+    ['startedOn', '12/03/2024', /^Enter a date such as 2024-03-12$/],
+    ['hex', true, /^Check the hex colour/],
+    ['active', 'yes', /^Choose active or not$/],
+    ['refId', 0, /^Choose an ingredient$/],
+    ['modernPractice', 'x', /^Check the modern practice$/],
+  ];
+  const valid = { volumeMl: 10, dryMassG: 1, code: 'AB', name: 'n', kind: 'dye-bath', factors: ['a'], minutes: 5, email: 'a@b.org', startedOn: '2024-03-12', hex: 'aaaaaa', active: true, refId: 1, modernPractice: 'y' };
+  it.each(cases)('%s = %j', (field, value, want) => {
+    const got = messages(bare, { ...valid, [field]: value })[field];
+    expect(got).toMatch(want);
+    expect(got).not.toMatch(RAW);
+  });
+
+  it('names an unknown field in words', () => {
+    const got = messages(bare, { ...valid, colour: 'red' })[''];
+    expect(got).toBe('Leave out the field this form does not have: colour');
+  });
+
+  it('uses a list row’s own key, and words an unlisted camelCase key', () => {
+    expect(fieldLabel(['steps', 0, 'ingredients', 2, 'amount']).label).toBe('the amount');
+    expect(fieldLabel(['steps', 1]).label).toBe('the steps');
+    expect(fieldLabel(['historicalPractice']).label).toBe('the historical practice');
+    expect(messageFor({ code: 'custom', path: [], input: 1 } as never)).toBe('Check this value');
+  });
+});
+
+describe('the forms’ schemas, empty and wrong', () => {
+  const sweep: Array<[string, z.ZodType, unknown]> = [
+    ['new bath, empty', batchCreateFormSchema, {}],
+    ['new bath, wrong', batchCreateFormSchema, { code: '?', kind: 'soup', name: '', volumeMl: -3, madeOn: 'soon', ph: 15, uptakePerUse: 150, ingredients: [{ kind: 'chemical', refId: 1, name: 'alum', grams: Number.NaN }] }],
+    ['bath event, empty draw', batchEventSchema, { type: 'use' }],
+    ['new trial, empty', trialCreateSchema, { dryMassG: undefined }],
+    ['new trial, wrong', trialCreateSchema, { dryMassG: 'heavy', gsm: -1, startedOn: 'March', status: 'done', targetRegionId: 1, targetPaletteColourId: 2 }],
+    ['recipe, wrong', stepsSchema, { steps: [{ operation: 'boil', temperatureC: 200, minutes: -1, ph: 15, ingredients: [{ kind: 'chemical', refId: 0, amount: Number.NaN, basis: 'owf' }] }] }],
+    ['series, empty', seriesCreateSchema, {}],
+    ['series, wrong', seriesCreateSchema, { code: 'x', title: '', factors: [{ name: '', levels: [] }], dryMassG: 0, deadVolumePct: 140, liquorRatio: 'high' }],
+    ['invitation, empty', inviteSchema, {}],
+    ['invitation, wrong', inviteSchema, { email: 'someone', role: 'boss' }],
+    ['shade, wrong', shadeQuerySchema, { hex: 'red', maxDeltaE: '99' }],
+  ];
+  it.each(sweep)('%s: no raw validator text', (_, schema, value) => {
+    const got = messages(schema, value);
+    expect(Object.keys(got).length).toBeGreaterThan(0);
+    for (const m of Object.values(got)) expect(m).not.toMatch(RAW);
+  });
+
+  it('says what is missing on a new bath, and takes the uptake as a percentage', () => {
+    const empty = messages(batchCreateFormSchema, {});
+    expect(empty).toMatchObject({ code: 'Enter the code', name: 'Enter the name', volumeMl: 'Enter the volume in mL', madeOn: 'Enter the date it was made' });
+    expect(messages(batchCreateFormSchema, { uptakePerUse: 150 }).uptakePerUse).toBe('Give the uptake per use as a percentage from 0 to 100');
+    const ok = batchCreateFormSchema.parse({ code: 'MB-1', kind: 'mordant-bath', name: 'alum', volumeMl: 100, madeOn: '2024-01-01', uptakePerUse: 12 });
+    expect(ok.uptakePerUse).toBeCloseTo(0.12);
+    // The API itself keeps the fraction, and says so in words.
+    expect(messages(batchCreateSchema, { uptakePerUse: 12 }).uptakePerUse).toBe('Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)');
+  });
+
+  it('names each field of a new trial and a recipe step', () => {
+    expect(messages(trialCreateSchema, {}).dryMassG).toBe('Enter the dry fibre mass in g');
+    expect(messages(trialCreateSchema, { dryMassG: 'heavy' }).dryMassG).toBe('Enter the dry fibre mass as a number in g');
+    const steps = messages(stepsSchema, { steps: [{ operation: 'dye-bath', minutes: -1, ingredients: [{ kind: 'chemical', refId: 0, amount: Number.NaN, basis: 'owf' }] }] });
+    expect(steps).toMatchObject({ 'steps.0.minutes': 'The time must be 0 min or more', 'steps.0.ingredients.0.refId': 'Choose an ingredient', 'steps.0.ingredients.0.amount': 'Enter the amount' });
+  });
+});
