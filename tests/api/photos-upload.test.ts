@@ -59,7 +59,7 @@ describe('photo upload', () => {
     await request(app).get(photo.urls.display).expect(200);
     // Masters are for signed-in users (and, carrying GPS, for curators and admins): nobody is given a link they cannot follow.
     await request(app).get(photo.urls.master).expect(401);
-    expect((await request(app).get(`/api/photos/${photo.id}`).expect(200)).body.photo.urls).not.toHaveProperty('master');
+    expect((await request(app).get(`/api/pieces/${piece.id}`).expect(200)).body.photos[0].urls).not.toHaveProperty('master');
     const researcher = await signedInAgent(app, 'researcher');
     await researcher.get(photo.urls.master).expect(404);
     expect((await researcher.get(`/api/photos/${photo.id}`).expect(200)).body.photo.urls).not.toHaveProperty('master');
