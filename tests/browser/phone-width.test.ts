@@ -33,6 +33,10 @@ async function signInOnPhone(page: Page, email: string) {
   await page.setViewportSize(PHONE);
 }
 
+async function pictureAsIs(page: Page, name: string) {
+  if (process.env.SCREENSHOT_DIR) await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/${name}.png` });
+}
+
 const scrollWidth = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth);
 
 describe('every main page at 390 × 844', () => {
@@ -75,6 +79,7 @@ describe('every main page at 390 × 844', () => {
     await menu.click();
     await nav.waitFor();
     // The admin's pages come into the same menu, so the header row stays within the phone's width.
+    await pictureAsIs(page, 'menu-open-390');
     const items = await nav.getByRole('link').allTextContents();
     expect(items).toEqual(['Archive', 'Find', 'Trials', 'Baths', 'Series', 'Reference', 'Import', 'Team', 'Fixity', 'Outbox']);
     expect(await scrollWidth(page)).toBeLessThanOrEqual(PHONE.width);
@@ -100,6 +105,8 @@ describe('every main page at 390 × 844', () => {
     await toggle.click();
     await facets.waitFor();
     await expect(toggle.getAttribute('aria-expanded')).resolves.toBe('true');
+    await facets.scrollIntoViewIfNeeded();
+    await pictureAsIs(page, 'search-facets-open-390');
     const results = await page.getByRole('table', { name: 'Shade matches' }).boundingBox();
     const facetBox = await facets.boundingBox();
     expect(facetBox!.y).toBeGreaterThan(results!.y + results!.height);

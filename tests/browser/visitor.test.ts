@@ -40,6 +40,7 @@ describe('a signed-out visitor meets no dead ends', () => {
     await page.goto(`${suite.server.url}/archive/${piece.id}`, { waitUntil: 'networkidle' });
     await page.getByTestId('photo-panel').first().waitFor();
     await expect(page.getByRole('link', { name: 'Master file' }).count()).resolves.toBe(0);
+    await expect(page.getByRole('link', { name: 'Trials side by side' }).count()).resolves.toBe(0);
     // The header's sign-in link comes back to this piece.
     await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).click();
     await page.waitForURL((u) => u.pathname === '/sign-in' && u.searchParams.get('next') === `/archive/${piece.id}`);

@@ -23,7 +23,7 @@ export function ShadeResults({ items }: { items: ShadeItem[] }) {
       <p className="mb-2 text-xs text-ink-soft">Colours of the matches: CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} /></p>
       {view === 'table' ? (
         // Eight columns of figures do not fit a phone: the table scrolls inside its own box, never the page.
-        <div className="overflow-x-auto">
+        <div className="relative overflow-x-auto">
           <table className="w-full text-sm" aria-label="Shade matches">
             <thead className="text-left text-ink-soft border-b border-rule">
               <tr>
