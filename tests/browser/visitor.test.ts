@@ -23,6 +23,11 @@ describe('a signed-out visitor meets no dead ends', () => {
       await page.getByRole('heading', { name: 'Sign in to open this page' }).waitFor();
       expect(new URL(page.url()).pathname).toBe(path);
     }
+    if (process.env.SCREENSHOT_DIR) {
+      await page.setViewportSize({ width: 390, height: 844 });
+      await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/visitor-sign-in-needed-390.png` });
+      await page.setViewportSize({ width: 1280, height: 900 });
+    }
     await page.getByRole('link', { name: 'Sign in and come back here' }).click();
     await page.waitForURL(/\/sign-in\?next=%2Ftrials$/);
     await page.getByLabel('E-mail').fill('dyer@demo.test');
