@@ -33,15 +33,25 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: <Home /> },
       { path: 'sign-in', element: <SignIn /> },
-      { path: 'baths', element: <BathsPage /> },
-      { path: 'baths/:id', element: <BathPage /> },
-      { path: 'series', element: <SeriesListPage /> },
-      { path: 'series/:id', element: <SeriesPage /> },
+      {
+        element: <RequireAbility action="batch:read" />,
+        children: [
+          { path: 'baths', element: <BathsPage /> },
+          { path: 'baths/:id', element: <BathPage /> },
+        ],
+      },
+      {
+        element: <RequireAbility action="series:read" />,
+        children: [
+          { path: 'series', element: <SeriesListPage /> },
+          { path: 'series/:id', element: <SeriesPage /> },
+        ],
+      },
       { path: 'reference', element: <ReferencePage /> },
       { path: 'archive', element: <Archive /> },
       { element: <RequireAbility action="piece:create" />, children: [{ path: 'archive/new', element: <PieceNewPage /> }] },
       { path: 'archive/:id', element: <PieceDetailPage /> },
-      { path: 'archive/:id/edit', element: <PieceEditPage /> },
+      { element: <RequireAbility action="piece:update" />, children: [{ path: 'archive/:id/edit', element: <PieceEditPage /> }] },
       { path: 'forgot-password', element: <ForgotPassword /> },
       { path: 'reset-password/:token', element: <ResetPassword /> },
       { path: 'join/:token', element: <JoinTeam /> },

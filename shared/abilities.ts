@@ -1,7 +1,7 @@
 // The names of every action the policies decide; the client reads abilities, never rules.
 export const ACTIONS = [
   'piece:read', 'piece:list-drafts', 'piece:create', 'piece:update', 'piece:publish', 'piece:delete', 'piece:restore', 'piece:history',
-  'photo:create', 'photo:update', 'photo:delete', 'photo:see-gps',
+  'photo:create', 'photo:update', 'photo:delete', 'photo:see-gps', 'photo:master',
   'region:create', 'region:update', 'region:delete',
   'measurement:create', 'analysis:create', 'note:create',
   'trial:read', 'trial:create', 'trial:update', 'trial:delete',

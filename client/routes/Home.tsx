@@ -1,19 +1,21 @@
 import { useDocumentTitle } from '../lib/title';
 import { Link } from 'react-router-dom';
 import { Wordmark } from '../components/Wordmark';
+import { useCan } from '../features/auth/api';
 import { useHealth } from '../features/health/api';
 import { paths } from '../paths';
 
 const tasks = [
   { to: paths.archive(), title: 'Archive', text: 'Catalogue pieces to museum standards, with photos, regions and their measured palettes.' },
   { to: paths.search(), title: 'Find', text: 'Search by words, dyestuff and mordant, and by shade within a CIEDE2000 radius.' },
-  { to: paths.trials(), title: 'Trials', text: 'Record reproduction recipes, the safer mordants that replaced historical ones, and how close the result came.' },
-  { to: paths.baths(), title: 'Baths', text: 'Keep mordant baths and print pastes in use, topped up, until they are exhausted.' },
-];
+  { to: paths.trials(), title: 'Trials', action: 'trial:read', text: 'Record reproduction recipes, the safer mordants that replaced historical ones, and how close the result came.' },
+  { to: paths.baths(), title: 'Baths', action: 'batch:read', text: 'Keep mordant baths and print pastes in use, topped up, until they are exhausted.' },
+] as const;
 
 export function Home() {
   useDocumentTitle(null);
   const health = useHealth();
+  const can = useCan();
   return (
     <div>
       <div className="py-8 md:py-12 border-b border-rule mb-8">
@@ -25,7 +27,7 @@ export function Home() {
         </p>
       </div>
       <ul className="grid gap-4 sm:grid-cols-2">
-        {tasks.map((t) => (
+        {tasks.filter((t) => !('action' in t) || can(t.action)).map((t) => (
           <li key={t.to}>
             <Link to={t.to} className="block h-full rounded-lg border border-rule bg-sheet p-5 hover:border-rule-strong">
               <h2 className="text-xl font-semibold">{t.title}</h2>

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { shadeQuerySchema, type FacetName } from '../../shared/schemas/search';
 import { fieldErrorsOf } from '../lib/form';
@@ -36,6 +36,10 @@ export function Search() {
   }, [urlKey, hasShade]);
   const shade = useShade(params, hasShade && !shadeInvalid);
   const [q, setQ] = useState(url.get('q') ?? '');
+  // On a phone the shade and facet choices fold into a panel after the results; from md up they are a sidebar.
+  const [narrowOpen, setNarrowOpen] = useState(false);
+  const narrowRef = useRef<HTMLElement>(null);
+  const chosenCount = FACETS.reduce((n, f) => n + url.getAll(f).length, 0) + (hasShade ? 1 : 0);
 
   const update = (fn: (u: URLSearchParams) => void) => {
     const next = new URLSearchParams(url);
@@ -94,16 +98,37 @@ export function Search() {
           value={q}
           onChange={(e) => setQ(e.target.value)}
           placeholder="Accession number, title, dyestuff, mordant, place, trial code…"
-          className="flex-1 rounded-md border border-rule-strong bg-sheet px-3 py-2"
+          className="min-w-0 flex-1 rounded-md border border-rule-strong bg-sheet px-3 py-2"
         />
         <Button type="submit">Search</Button>
       </form>
       <div className="grid gap-6 md:grid-cols-[16rem_1fr]">
-        <aside className="space-y-6">
-          <ColourChooser value={choice} errors={shadeError?.details?.fields} onSearch={setShade} onClear={clearShade} />
-          <FacetList facets={hasShade ? shadeData?.facets : text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
+        <aside ref={narrowRef} aria-label="Shade and facets" className="order-last md:order-none min-w-0" data-testid="narrow-panel">
+          <button
+            type="button"
+            className="md:hidden w-full rounded-md border border-rule-strong bg-sheet px-3 py-2 text-left text-sm font-medium"
+            aria-expanded={narrowOpen}
+            aria-controls="narrow-choices"
+            onClick={() => setNarrowOpen((o) => !o)}
+          >
+            {narrowOpen ? '▾' : '▸'} Narrow by shade and facets{chosenCount ? ` (${chosenCount} chosen)` : ''}
+          </button>
+          <div id="narrow-choices" className={`${narrowOpen ? 'block' : 'hidden'} md:block mt-4 md:mt-0 space-y-6`}>
+            <ColourChooser value={choice} errors={shadeError?.details?.fields} onSearch={setShade} onClear={clearShade} />
+            <FacetList facets={hasShade ? shadeData?.facets : text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
+          </div>
         </aside>
-        <section aria-live="polite" aria-busy={text.isFetching || shade.isFetching}>
+        <section aria-live="polite" aria-busy={text.isFetching || shade.isFetching} className="min-w-0" data-testid="search-results">
+          <button
+            type="button"
+            className="md:hidden mb-3 text-sm text-action underline"
+            onClick={() => {
+              setNarrowOpen(true);
+              narrowRef.current?.scrollIntoView({ block: 'start' });
+            }}
+          >
+            Narrow by shade and facets{chosenCount ? ` (${chosenCount} chosen)` : ''} ↓
+          </button>
           {/* Field errors sit under the shade's fields; only a refusal about no field is said here. */}
           {shadeError && !shadeError.details?.fields ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
           {text.error && !hasShade ? <p className="text-danger text-sm mb-2">{text.error.message}</p> : null}

@@ -9,6 +9,8 @@ export type PolicyRecord = {
   status?: 'draft' | 'published';
   ownerId?: number | null;
   deleted?: boolean;
+  /** A photo whose master still carries GPS tags. */
+  hasGps?: boolean;
 };
 
 const everyoneSignedIn = (a: Actor) => a !== null;
@@ -34,6 +36,8 @@ const rules: Record<Action, Rule> = {
   'photo:update': roleIn('curator'),
   'photo:delete': roleIn('curator'),
   'photo:see-gps': roleIn('curator'),
+  // The master is the archive's untouched file (EXIF and GPS included); visitors get the display image and tiles.
+  'photo:master': (a, r) => everyoneSignedIn(a) && (!r?.hasGps || roleIn('curator')(a)),
   'region:create': roleIn('curator'),
   'region:update': roleIn('curator'),
   'region:delete': roleIn('curator'),

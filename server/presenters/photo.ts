@@ -69,7 +69,8 @@ export function presentPhoto(p: Photo, actor: Actor, extra: { palette: PaletteCo
     palette: wholeRaw.map(presentColour),
     palettes: presentPalettes(extra.palette),
     regions: (extra.regions ?? []).map(presentRegion),
-    urls: { thumb: mediaUrl(p.id, 'thumb'), display: mediaUrl(p.id, 'display'), master: mediaUrl(p.id, 'master') },
+    // The master's link only for those the media route serves it to, so nobody follows a link into a refusal.
+    urls: { thumb: mediaUrl(p.id, 'thumb'), display: mediaUrl(p.id, 'display'), ...(can(actor, 'photo:master', { hasGps: p.gps != null }) ? { master: mediaUrl(p.id, 'master') } : {}) },
     abilities: abilities(actor, ['photo:update', 'photo:delete', 'region:create', 'region:update', 'region:delete'] as const),
   };
 }

@@ -40,7 +40,8 @@ const facetTable = (): FacetTable => facetTableFor(searchEngine.text, searchEngi
 
 /** The chosen facet values as interned codes: per facet, the codes wanted (-1 for a value no piece has). */
 type Compiled = { facets: Array<{ fi: number; narrowing: boolean; want: number[] }>; mordant: Array<[number, number]> };
-function compile(sel: Selected, t: FacetTable): Compiled {
+// Modern mordants come from trials, so for a role that may not read trials they neither count nor match.
+function compile(sel: Selected, t: FacetTable, trials: boolean): Compiled {
   const code = (fi: number, v: string) => {
     const i = t.intern[fi].get(v);
     return i === undefined ? -1 : (fi << 24) | i;
@@ -48,11 +49,11 @@ function compile(sel: Selected, t: FacetTable): Compiled {
   const facets: Compiled['facets'] = [];
   FACETS.forEach((f, fi) => {
     const want = sel[f];
-    if (want) facets.push({ fi, narrowing: NARROWING.has(f), want: [...want].map((v) => code(fi, v)) });
+    if (want) facets.push({ fi, narrowing: NARROWING.has(f), want: [...want].map((v) => (f === 'modernMordant' && !trials ? -1 : code(fi, v))) });
   });
   const h = FACETS.indexOf('historicalMordant');
   const m = FACETS.indexOf('modernMordant');
-  const mordant = [...(sel.mordant ?? [])].map((v): [number, number] => [code(h, v), code(m, v)]);
+  const mordant = [...(sel.mordant ?? [])].map((v): [number, number] => [code(h, v), trials ? code(m, v) : -1]);
   return { facets, mordant };
 }
 
@@ -89,10 +90,11 @@ let matchedBuf = new Int32Array(0);
 /** Piece ids passing visibility and text (`textMatched`, for facet counts) and also every filter (`matched`). */
 function candidates(actor: Actor, f: SearchFilters) {
   const t = facetTable();
-  const hits = f.q ? searchEngine.text.search(f.q, can(actor, 'trial:read')) : null;
+  const trials = can(actor, 'trial:read');
+  const hits = f.q ? searchEngine.text.search(f.q, trials) : null;
   const drafts = can(actor, 'piece:list-drafts');
   const source = hits ? hits.ids : t.all;
-  const c = compile(selected(f), t);
+  const c = compile(selected(f), t, trials);
   const filtered = c.facets.length > 0 || c.mordant.length > 0;
   if (visibleBuf.length < source.length) {
     visibleBuf = new Int32Array(source.length + 1024);
@@ -108,10 +110,10 @@ function candidates(actor: Actor, f: SearchFilters) {
     if (filtered && passes(id, c, t)) matchedBuf[nm++] = id;
   }
   const textMatched = visibleBuf.subarray(0, nv);
-  return { textMatched, matched: filtered ? matchedBuf.subarray(0, nm) : textMatched, hits, c, filtered };
+  return { textMatched, matched: filtered ? matchedBuf.subarray(0, nm) : textMatched, hits, c, filtered, trials };
 }
 
-function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, drafts: boolean): FacetCounts {
+function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, drafts: boolean, trials: boolean): FacetCounts {
   const t = facetTable();
   // A widening (OR) facet's own counts ignore its own choice.
   const ownRule = FACETS.map((f, fi) => !NARROWING.has(f) && c.facets.some((x) => x.fi === fi));
@@ -132,6 +134,10 @@ function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, 
   }
   const out = {} as FacetCounts;
   FACETS.forEach((f, fi) => {
+    if (f === 'modernMordant' && !trials) {
+      out[f] = [];
+      return;
+    }
     const rows: Array<{ value: string; label: string; count: number }> = [];
     t.keys[fi].forEach((key, i) => {
       const n = counts[t.base[fi] + i];
@@ -144,7 +150,7 @@ function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, 
 
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
-  const { textMatched, matched, hits, c } = candidates(actor, input);
+  const { textMatched, matched, hits, c, trials } = candidates(actor, input);
   const rank = facetTable().accessionRank;
   const s = hits?.scores;
   // Rank only as far as the page asked for (bounded heap), not the whole match list.
@@ -171,7 +177,7 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
       viaTrials: hit?.viaTrials.filter(Boolean) ?? [],
     };
   });
-  return { items, facets: facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts')), total: matched.length, page: input.page, pageSize: input.pageSize };
+  return { items, facets: facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts'), trials), total: matched.length, page: input.page, pageSize: input.pageSize };
 }
 
 // Unfiltered shade queries reuse one allow-list per audience until a piece changes.
@@ -219,14 +225,15 @@ export async function runShade({ actor, input }: { actor: Actor; input: ShadeQue
  */
 function shadeFacets(actor: Actor, input: ShadeQuery, lab: { L: number; a: number; b: number }, matchedView: Int32Array): FacetCounts {
   const t = facetTable();
-  const c = compile(selected(input), t);
+  const trials = can(actor, 'trial:read');
+  const c = compile(selected(input), t, trials);
   const matched = Int32Array.from(matchedView);
   let textMatched = matched;
   if (c.facets.some((x) => !x.narrowing)) {
     const words = searchEngine.shade.query({ ...lab, maxDeltaE: input.maxDeltaE, limit: 1, offset: 0, allow: allowList(actor, { q: input.q }) });
     textMatched = Int32Array.from(words.matched);
   }
-  return facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts'));
+  return facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts'), trials);
 }
 
 const round = (x: number, d: number) => Number(x.toFixed(d));

@@ -57,8 +57,13 @@ describe('photo upload', () => {
     await curator.patch(`/api/pieces/${piece.id}`).set('Origin', ORIGIN).send({ status: 'published' }).expect(200);
     await request(app).get(photo.urls.thumb).expect(200);
     await request(app).get(photo.urls.display).expect(200);
-    await request(app).get(photo.urls.master).expect(404);
-    await (await signedInAgent(app, 'researcher')).get(photo.urls.master).expect(404);
+    // Masters are for signed-in users (and, carrying GPS, for curators and admins): nobody is given a link they cannot follow.
+    await request(app).get(photo.urls.master).expect(401);
+    expect((await request(app).get(`/api/pieces/${piece.id}`).expect(200)).body.photos[0].urls).not.toHaveProperty('master');
+    const researcher = await signedInAgent(app, 'researcher');
+    await researcher.get(photo.urls.master).expect(404);
+    expect((await researcher.get(`/api/photos/${photo.id}`).expect(200)).body.photo.urls).not.toHaveProperty('master');
+    expect((await curator.get(`/api/photos/${photo.id}`).expect(200)).body.photo.urls.master).toBe(photo.urls.master);
     await request(app).get(`/media/photos/${photo.id}/original`).expect(400);
   });
 

@@ -110,9 +110,10 @@ describe('the team and invitations in Chromium', () => {
     await admin.getByRole('link', { name: 'Sign in' }).waitFor();
   }, 180_000);
 
-  it('sends a visitor who opens the team page to sign-in, and back after signing in', async () => {
+  it('tells a visitor who opens the team page to sign in, and comes back after signing in', async () => {
     const page = await suite.browser.context.newPage();
     await page.goto(`${suite.server.url}/team`);
+    await page.getByRole('link', { name: 'Sign in and come back here' }).click();
     await page.waitForURL(/\/sign-in\?next=%2Fteam$/);
     await page.getByLabel('E-mail').fill('admin@demo.test');
     await page.getByLabel('Password').fill('tinctoria-demo');

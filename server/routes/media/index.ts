@@ -2,7 +2,7 @@ import path from 'node:path';
 import { Router } from 'express';
 import { mediaParams } from '../../../shared/schemas/photo.ts';
 import { actorOf } from '../../http/auth.ts';
-import { notFound } from '../../http/errors.ts';
+import { notFound, unauthorized } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
 import { uploadsDir } from '../../media/paths.ts';
 import { photoFile } from '../../media/pipeline.ts';
@@ -16,8 +16,11 @@ mediaRouter.get('/photos/:id/:kind', async (req, res) => {
   const actor = actorOf(req);
   const { id, kind } = parseParams(mediaParams, req);
   const { photo } = await loadReadablePhoto(actor, id);
-  // The master keeps its GPS tags untouched, so it goes only to roles that may see them.
-  if (kind === 'master' && photo.gps && !can(actor, 'photo:see-gps')) throw notFound('Photo');
+  // The master keeps its EXIF and GPS tags untouched: signed-in users only, and with GPS only roles that may see it.
+  if (kind === 'master' && !can(actor, 'photo:master', { hasGps: photo.gps != null })) {
+    if (!actor) throw unauthorized('Sign in to download the master file.');
+    throw notFound('Photo');
+  }
   const file = photoFile(photo, kind);
   res.set('Cache-Control', 'private, max-age=3600');
   if (kind === 'master') res.attachment(photo.originalName ?? `${photo.sha256}.${photo.format}`);

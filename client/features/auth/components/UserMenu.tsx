@@ -1,4 +1,4 @@
-import { Link, useNavigate } from 'react-router-dom';
+import { Link, useLocation, useNavigate } from 'react-router-dom';
 import { useLogout, useMe } from '../api';
 import { paths } from '../../../paths';
 import { roleLabel } from '../../team/roles';
@@ -14,10 +14,13 @@ export function UserMenu() {
   const me = useMe();
   const logout = useLogout();
   const navigate = useNavigate();
+  const location = useLocation();
   if (me.isPending) return null;
+  // Signing in from a page comes back to it (the start page and sign-in itself need no return).
+  const here = location.pathname + location.search;
   if (!me.data)
     return (
-      <Link to={paths.signIn()} className="rounded-md border border-rule-strong px-3 py-1.5 text-sm hover:bg-paper">
+      <Link to={location.pathname === paths.signIn() ? here : location.pathname === paths.home() ? paths.signIn() : paths.signIn(here)} className="rounded-md border border-rule-strong px-3 py-1.5 text-sm hover:bg-paper">
         Sign in
       </Link>
     );
@@ -25,7 +28,7 @@ export function UserMenu() {
   return (
     <div className="flex items-center gap-3 text-sm">
       {adminLinks.some((l) => abilities[l.action]) ? (
-        <nav aria-label="Administration" className="flex gap-3">
+        <nav aria-label="Administration" className="hidden md:flex gap-3">
           {adminLinks
             .filter((l) => abilities[l.action])
             .map((l) => (

@@ -27,9 +27,11 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
           {photo.view} · <span className="num">{photo.width} × {photo.height} px</span>
         </h3>
         <div className="flex gap-3 text-sm">
-          <a className="text-action hover:underline" href={photo.urls.master}>
-            Master file
-          </a>
+          {photo.urls.master ? (
+            <a className="text-action hover:underline" href={photo.urls.master}>
+              Master file
+            </a>
+          ) : null}
           {photo.abilities['photo:delete'] ? (
             <button type="button" className="text-danger hover:underline" onClick={() => confirm('Remove this photo and its palettes?') && removePhoto.mutate()}>
               Remove photo

@@ -12,7 +12,8 @@ export function TeamTable({ members, meId }: { members: TeamMember[]; meId: numb
   return (
     <div className="space-y-3">
       <FormAlert message={formMessage(update.error)} />
-      <div className="overflow-x-auto rounded-lg border border-rule bg-sheet">
+      {/* relative: the sr-only role labels are absolutely placed, and would otherwise escape the scroll box and widen the page on a phone. */}
+      <div className="relative overflow-x-auto rounded-lg border border-rule bg-sheet">
         <table className="w-full text-sm">
           <thead className="bg-paper text-left text-ink-soft">
             <tr>

@@ -38,12 +38,16 @@ function PasteMakeUp({ c }: { c: StepComputed }) {
   );
 }
 
+// Below md the table reflows into one stacked card per step (same markup, so the cautions stay in one place):
+// rows and cells become blocks, the header hides and each quantity carries its own label.
+const QTY_CELL = 'px-3 py-1.5 text-right max-md:p-0 max-md:text-left max-md:before:mr-1 max-md:before:text-xs max-md:before:text-ink-faint max-md:before:content-[attr(data-label)]';
+
 function StepRow({ step, computed, modern }: { step: Step; computed: StepComputed; modern: boolean }) {
   return (
-    <tbody className="border-t border-rule align-top">
-      <tr>
-        <td className="px-3 py-2 font-mono" rowSpan={Math.max(1, step.ingredients.length) + 1}>{step.position}</td>
-        <td className="px-3 py-2 font-medium" rowSpan={Math.max(1, step.ingredients.length) + 1}>
+    <tbody className="border-t border-rule align-top max-md:block max-md:py-2" data-testid="recipe-step">
+      <tr className="max-md:flex max-md:items-baseline max-md:gap-2 max-md:px-3">
+        <td className="px-3 py-2 font-mono max-md:p-0" rowSpan={Math.max(1, step.ingredients.length) + 1}>{step.position}</td>
+        <td className="px-3 py-2 font-medium max-md:p-0 max-md:flex-1" rowSpan={Math.max(1, step.ingredients.length) + 1}>
           {operationLabels[step.operation as keyof typeof operationLabels]}
           <div className="mt-1 text-xs font-normal text-ink-soft space-y-0.5">
             {step.liquorRatio != null ? <div>liquor 1:{step.liquorRatio}</div> : null}
@@ -56,18 +60,18 @@ function StepRow({ step, computed, modern }: { step: Step; computed: StepCompute
         </td>
       </tr>
       {step.ingredients.map((ing, i) => (
-        <tr key={`${ing.kind}-${ing.refId}-${i}`}>
-          <td className="px-3 py-1.5">{ing.name}<span className="ml-1 text-xs text-ink-faint">{ing.kind}</span></td>
-          <td className="px-3 py-1.5 text-right"><Qty value={ing.amount} unit={basisLabels[ing.basis as keyof typeof basisLabels]} decimals={ing.basis === 'g' ? 2 : 1} /></td>
-          <td className="px-3 py-1.5 text-right"><Qty value={computed.ingredients[i]?.grams} unit="g" decimals={2} /></td>
-          <td className="px-3 py-1.5 text-right"><Qty value={computed.ingredients[i]?.gPerL} unit="g/L" decimals={2} /></td>
-          <td className="px-3 py-1.5 text-right"><Qty value={computed.ingredients[i]?.percentOwf} unit="% owf" /></td>
+        <tr key={`${ing.kind}-${ing.refId}-${i}`} className="max-md:mt-2 max-md:grid max-md:grid-cols-2 max-md:gap-x-3 max-md:gap-y-0.5 max-md:px-3">
+          <td className="px-3 py-1.5 max-md:col-span-2 max-md:p-0">{ing.name}<span className="ml-1 text-xs text-ink-faint">{ing.kind}</span></td>
+          <td className={QTY_CELL} data-label="Amount"><Qty value={ing.amount} unit={basisLabels[ing.basis as keyof typeof basisLabels]} decimals={ing.basis === 'g' ? 2 : 1} /></td>
+          <td className={QTY_CELL} data-label="Grams"><Qty value={computed.ingredients[i]?.grams} unit="g" decimals={2} /></td>
+          <td className={QTY_CELL} data-label="Bath"><Qty value={computed.ingredients[i]?.gPerL} unit="g/L" decimals={2} /></td>
+          <td className={QTY_CELL} data-label="On fibre"><Qty value={computed.ingredients[i]?.percentOwf} unit="% owf" /></td>
         </tr>
       ))}
       {step.notes || step.cautions.length || computed.paste || computed.pasteProblem || computed.missing.some(Boolean) ? (
-        <tr>
-          <td />
-          <td colSpan={6} className="px-3 pb-3 space-y-2">
+        <tr className="max-md:mt-2 max-md:block max-md:px-3">
+          <td className="max-md:hidden" />
+          <td colSpan={6} className="px-3 pb-3 space-y-2 max-md:block max-md:p-0">
             {step.warnings.map((w) => (
               <p key={w.chemicalId} role="alert" className="rounded-md border-2 border-danger bg-danger-tint px-3 py-2 text-sm font-semibold text-danger">⚠ {w.message}</p>
             ))}
@@ -110,8 +114,8 @@ export function RecipeSection({ trial }: { trial: TrialView }) {
       {drawsShort.map((w) => <p key={w.batchId} role="alert" className="rounded-md border border-warn bg-paper px-3 py-2 text-sm text-warn">{w.message}</p>)}
       {trial.steps.length === 0 ? <p className="text-ink-soft">No steps yet.</p> : (
         <div className="overflow-x-auto rounded-lg border border-rule bg-sheet">
-          <table className="w-full text-sm">
-            <thead className="bg-paper text-left text-ink-soft">
+          <table className="w-full text-sm max-md:block">
+            <thead className="bg-paper text-left text-ink-soft max-md:hidden">
               <tr>
                 <th className="px-3 py-2">#</th><th className="px-3 py-2">Step</th><th className="px-3 py-2">Ingredient</th>
                 <th className="px-3 py-2 text-right">Amount</th><th className="px-3 py-2 text-right">Grams</th><th className="px-3 py-2 text-right">Bath</th><th className="px-3 py-2 text-right">On fibre</th>
