@@ -9,5 +9,8 @@ export default defineConfig({
     fileParallelism: false,
     testTimeout: 60_000,
     hookTimeout: 120_000,
+    // A poll waits for the page, not for a speed target: a busy 2-core machine can take seconds
+    // to answer the first search after an index load.
+    expect: { poll: { timeout: 15_000 } },
   },
 });
