@@ -16,6 +16,6 @@ describe('signing in and out in Chromium', () => {
     await signInAs(page, suite.server.url, 'curator@demo.test');
     await expect(page.getByTestId('signed-in-as').textContent()).resolves.toContain('Ysolde Marrin');
     await page.getByRole('button', { name: 'Sign out' }).click();
-    await page.getByRole('link', { name: 'Sign in' }).waitFor();
+    await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
   });
 });

@@ -20,7 +20,7 @@ describe('the team and invitations in Chromium', () => {
     await admin.getByRole('button', { name: 'Send invitation' }).click();
     await expect(admin.getByRole('status').textContent()).resolves.toMatch(`Invitation sent to ${email}`);
     await admin.getByRole('button', { name: 'Sign out' }).click();
-    await admin.getByRole('link', { name: 'Sign in' }).waitFor();
+    await admin.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
 
     // The link in the mail names the public origin; follow its path on the test server.
     const token = tokenFrom(await waitForMail(email), 'join');
@@ -39,7 +39,7 @@ describe('the team and invitations in Chromium', () => {
     await page.goto(`${suite.server.url}/team`);
     await page.getByRole('heading', { name: 'Not allowed' }).waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
-    await page.getByRole('link', { name: 'Sign in' }).waitFor();
+    await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
 
     // The link works once, and then says why and offers sign-in.
     await page.goto(`${suite.server.url}/join/${token}`);
@@ -107,7 +107,7 @@ describe('the team and invitations in Chromium', () => {
     await page.close();
     await admin.goto(`${suite.server.url}/team`);
     await admin.getByRole('button', { name: 'Sign out' }).click();
-    await admin.getByRole('link', { name: 'Sign in' }).waitFor();
+    await admin.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
   }, 180_000);
 
   it('tells a visitor who opens the team page to sign in, and comes back after signing in', async () => {

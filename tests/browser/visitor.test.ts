@@ -36,7 +36,8 @@ describe('a signed-out visitor meets no dead ends', () => {
     await page.waitForURL((u) => u.pathname === '/trials');
     await page.getByRole('link', { name: 'T-2024-001' }).first().waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
-    await page.getByRole('link', { name: 'Sign in' }).waitFor();
+    // Signed out on a page that needs an account: the header offers sign-in and the page says why.
+    await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
   }, 60_000);
 
   it('sees a published piece with its photos but no link to the master files; a curator has them', async () => {

@@ -29,12 +29,21 @@ export function useCan() {
 export const login = (input: LoginInput) => http<NonNullable<Me>>('/api/auth/login', { method: 'POST', json: input });
 export const logout = () => http<void>('/api/auth/logout', { method: 'POST' });
 
+/**
+ * A new session sees other records: drop every cached answer but the session's own. The session
+ * query itself is kept, not cleared, so the components already showing it (the header and its
+ * menu, which stay mounted across pages) are told of the change instead of holding the old one.
+ */
+export function forgetOtherQueries(qc: ReturnType<typeof useQueryClient>) {
+  qc.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.me[0] });
+}
+
 export function useLogin() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: login,
     onSuccess: (me) => {
-      qc.clear();
+      forgetOtherQueries(qc);
       qc.setQueryData(authKeys.me, me);
     },
   });
@@ -45,7 +54,7 @@ export function useLogout() {
   return useMutation({
     mutationFn: logout,
     onSuccess: () => {
-      qc.clear();
+      forgetOtherQueries(qc);
       qc.setQueryData(authKeys.me, null);
     },
   });

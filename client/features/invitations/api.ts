@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { SessionUser } from '../../../shared/schemas/auth';
 import type { AcceptInvitationInput } from '../../../shared/schemas/team';
 import { http } from '../../lib/http';
-import { authKeys, fetchMe } from '../auth/api';
+import { authKeys, fetchMe, forgetOtherQueries } from '../auth/api';
 import type { Invitation } from '../team/api';
 
 export const invitationKeys = { one: (token: string) => ['invitations', token] as const };
@@ -20,7 +20,7 @@ export function useAcceptInvitation(token: string) {
   return useMutation({
     mutationFn: (input: AcceptInvitationInput) => acceptInvitation(token, input),
     onSuccess: async () => {
-      qc.clear();
+      forgetOtherQueries(qc);
       qc.setQueryData(authKeys.me, await fetchMe());
     },
   });
