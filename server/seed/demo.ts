@@ -4,6 +4,7 @@ import type { Transaction } from 'sequelize';
 import { ROOT_DIR } from '../env.ts';
 import { BatchEvent, Chemical, ColourMeasurement, Dyestuff, MordantBatch, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
 import type { Ingredient, Operation } from '../models/trials.ts';
+import { bathProduct, matchingReactant, REACTIONS } from '../../shared/compute/stoichiometry.ts';
 import { makePiece, makeUser, type PieceInput } from './factories.ts';
 import { seedDemoPhotos } from './demo-photos.ts';
 
@@ -41,40 +42,56 @@ export async function seedDemo(t: Transaction) {
   const guar = await chem('guar gum', t);
   const tannin = await chem('tannic acid', t);
   const soda = await chem('sodium carbonate (soda ash)', t);
+  const lime = await chem('calcium hydroxide (slaked lime)', t);
+  const fructose = await chem('fructose', t);
   const madder = await dye('madder', t);
   const weld = await dye('weld', t);
   const indigo = await dye('indigo', t);
-  const byName = new Map([alum, alAcetate, caAcetate, leadAcetate, dichromate, ferrous, feAcetate, chalk, guar, tannin, soda].map((c) => [c.name, c]));
+  const byName = new Map([alum, alAcetate, caAcetate, leadAcetate, dichromate, ferrous, feAcetate, chalk, guar, tannin, soda, lime, fructose].map((c) => [c.name, c]));
   const dyes = new Map([madder, weld, indigo].map((d) => [d.name, d]));
 
-  // Batches: MB-07 is the reused aluminium acetate stock, topped up twice, then exhausted.
+  // Batches. MB-07 is aluminium acetate made in the pot from alum and calcium acetate: its strength is
+  // what that charge can make (calcium acetate limits), computed, not the 150 g weighed in.
+  const mb07Charge = [
+    { kind: 'chemical' as const, refId: alum.id, name: alum.name, grams: 100 },
+    { kind: 'chemical' as const, refId: caAcetate.id, name: caAcetate.name, grams: 50 },
+  ];
+  const made = bathProduct(mb07Charge, 2000)!;
+  const r1 = (x: number) => Math.round(x * 10) / 10;
+  const r2 = (x: number) => Math.round(x * 100) / 100;
   const mb07 = await MordantBatch.create(
     {
-      code: 'MB-07', kind: 'mordant-bath', name: 'Aluminium acetate stock (alum + calcium acetate)',
-      ingredients: [
-        { kind: 'chemical', refId: alum.id, name: alum.name, grams: 100 },
-        { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 50 },
-      ],
+      code: 'MB-07', kind: 'mordant-bath', name: 'Aluminium acetate liquor (alum + calcium acetate)',
+      ingredients: mb07Charge,
       volumeMl: 2000, thickenerGPerL: null, ph: 4.2, madeOn: '2024-03-04', madeById: users.dyer.id, checkBy: '2024-06-04',
-      status: 'exhausted', parentId: null, uptakePerUse: 0.12, notes: 'Strong red liquor replacement; settled overnight, clear liquor decanted.',
+      status: 'exhausted', parentId: null, uptakePerUse: 0.12,
+      notes: `Red liquor without lead. Makes about ${r1(made.active.grams)} g basic aluminium acetate (${r1(made.activeGPerL)} g/L; ${made.limiting} limits); the gypsum settled overnight and the clear liquor was decanted.`,
     },
     { transaction: t },
   );
+  // MB-08: one part MB-07 to three parts water, thickened with guar; its aluminium acetate is what the 125 mL drawn carried.
+  const mb08FromMb07Ml = 125;
+  const mb08AlAcetateG = r2((made.activeGPerL * mb08FromMb07Ml) / 1000);
   const mb08 = await MordantBatch.create(
     {
-      code: 'MB-08', kind: 'print-paste', name: 'Weak aluminium acetate print paste for pinks (1:3 of MB-07)',
-      ingredients: [{ kind: 'chemical', refId: guar.id, name: guar.name, grams: 10 }],
+      code: 'MB-08', kind: 'print-paste', name: 'Weak aluminium acetate print paste for pinks (1 part MB-07 to 3 parts water)',
+      ingredients: [
+        { kind: 'chemical', refId: alAcetate.id, name: alAcetate.name, grams: mb08AlAcetateG },
+        { kind: 'chemical', refId: guar.id, name: guar.name, grams: 10 },
+      ],
       volumeMl: 500, thickenerGPerL: 20, ph: 4.4, madeOn: '2024-03-11', madeById: users.dyer.id, checkBy: '2024-03-18',
-      status: 'active', parentId: mb07.id, uptakePerUse: 0.08, notes: 'Child dilution of MB-07, thickened with guar.',
+      status: 'active', parentId: mb07.id, uptakePerUse: 0,
+      notes: `Child of MB-07: ${mb08FromMb07Ml} mL of MB-07 made up to 500 mL (${mb08AlAcetateG} g aluminium acetate, ${r2(mb08AlAcetateG * 2)} g/L), thickened with 10 g guar.`,
     },
     { transaction: t },
   );
   const mb09 = await MordantBatch.create(
     {
-      code: 'MB-09', kind: 'mordant-bath', name: 'Iron acetate (vinegar and iron) for purples',
-      ingredients: [{ kind: 'chemical', refId: ferrous.id, name: ferrous.name, grams: 20 }],
+      code: 'MB-09', kind: 'mordant-bath', name: 'Iron(II) acetate liquor for purples',
+      ingredients: [{ kind: 'chemical', refId: feAcetate.id, name: feAcetate.name, grams: 15 }],
       volumeMl: 1000, thickenerGPerL: null, ph: 4.8, madeOn: '2024-03-11', madeById: users.dyer.id, checkBy: '2024-05-11',
-      status: 'active', parentId: null, uptakePerUse: 0.1, notes: null,
+      status: 'active', parentId: null, uptakePerUse: 0,
+      notes: 'Stock drawn from for purple pastes: 15 g iron(II) acetate in 1 L. Keep it closed: it oxidises and browns in air.',
     },
     { transaction: t },
   );
@@ -118,53 +135,71 @@ export async function seedDemo(t: Transaction) {
   };
 
   const p12 = pieces['1931.4.12'];
+  // The red paste is MB-07's liquor thickened as drawn; the pink uses MB-08 as it is; the purple thins MB-09 with guar.
+  const redDrawMl = 300;
+  const redGPerL = r1(made.activeGPerL);
+  const pinkDrawMl = 120;
+  const pinkGPerL = r2(mb08AlAcetateG * 2);
+  // Like with like: historically the same alum made red liquor with sugar of lead instead of calcium acetate.
+  const leadRecipe = REACTIONS.find((r) => r.id === 'alum-lead-acetate')!;
+  const alumIn = (mlOfMb07: number) => (100 * mlOfMb07) / 2000;
+  const leadFor = (mlOfMb07: number) => r1(matchingReactant(leadRecipe, alum.name, alumIn(mlOfMb07))[0].grams);
+  const caFor = (mlOfMb07: number) => r2((50 * mlOfMb07) / 2000);
+  const sludgeNote = 'Most of the lead left the red liquor as insoluble lead sulfate sludge rather than going onto the cloth; the sludge was hazardous waste.';
+  const pinkMb07Ml = (pinkDrawMl * mb08FromMb07Ml) / 500;
   const t1 = await makeTrial(
-    { pieceId: p12.id, status: 'finished', notes: 'Strong red from the aluminium acetate stock in place of the lead-based red liquor.', fastness: { light: { blueWool: '5', informal: false }, washing: { change: '4-5', staining: '4', informal: false }, rubbingDry: { staining: '4', informal: false }, rubbingWet: { staining: '3-4', informal: false } } },
+    { pieceId: p12.id, status: 'finished', notes: 'Strong red from the aluminium acetate liquor MB-07 in place of the lead-based red liquor.', fastness: { light: { blueWool: '5', informal: false }, washing: { change: '4-5', staining: '4', informal: false }, rubbingDry: { staining: '4', informal: false }, rubbingWet: { staining: '3-4', informal: false } } },
     [
       { operation: 'scour', ingredients: [['chemical', 'sodium carbonate (soda ash)', 5, 'owf']], liquorRatio: 40, temperatureC: 95, minutes: 60 },
       { operation: 'tannin', ingredients: [['chemical', 'tannic acid', 8, 'owf']], liquorRatio: 30, temperatureC: 50, minutes: 60 },
-      { operation: 'print-paste', ingredients: [['chemical', 'aluminium acetate (basic)', 40, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: 300, stockGPerL: 75 }, batchCode: 'MB-07', batchVolumeMl: 160, notes: 'Print with the pheasant block; dry 48 h.' },
+      { operation: 'print-paste', ingredients: [['chemical', 'aluminium acetate (basic)', redGPerL, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: redDrawMl, stockGPerL: redGPerL }, batchCode: 'MB-07', batchVolumeMl: redDrawMl, notes: 'MB-07 liquor thickened as drawn. Print with the pheasant block; dry 48 h.' },
       { operation: 'after-treatment', ingredients: [['chemical', 'calcium carbonate (chalk)', 2, 'g/L']], liquorRatio: 30, temperatureC: 40, minutes: 15, notes: 'Fix and clear the thickener.' },
       { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 60, 'owf'], ['chemical', 'calcium carbonate (chalk)', 1, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 90 },
     ],
-    [{ stepId: 3, historicalChemicalId: leadAcetate.id, historicalAmountG: 18, modernChemicalId: alAcetate.id, modernAmountG: 12, modernPractice: 'aluminium acetate made from alum and calcium acetate', reason: 'toxicity', notes: 'Historical red liquor was alum with sugar of lead.' }],
+    [{ stepId: 3, historicalChemicalId: leadAcetate.id, historicalAmountG: leadFor(redDrawMl), historicalPractice: `red liquor: ${alumIn(redDrawMl)} g alum with sugar of lead`, modernChemicalId: caAcetate.id, modernAmountG: caFor(redDrawMl), modernPractice: `aluminium acetate from the same ${alumIn(redDrawMl)} g alum with calcium acetate`, reason: 'toxicity', notes: sludgeNote }],
   );
   await makeTrial(
-    { pieceId: p12.id, status: 'finished', notes: 'Pink from the weak dilution MB-08.' },
+    { pieceId: p12.id, status: 'finished', notes: 'Pink from the weak paste MB-08, used as it is.' },
     [
-      { operation: 'print-paste', ingredients: [['chemical', 'aluminium acetate (basic)', 13, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: 200, stockGPerL: 75 }, batchCode: 'MB-08', batchVolumeMl: 120 },
+      { operation: 'print-paste', ingredients: [['chemical', 'aluminium acetate (basic)', pinkGPerL, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: pinkDrawMl, stockGPerL: pinkGPerL }, batchCode: 'MB-08', batchVolumeMl: pinkDrawMl, notes: 'Ready-made paste MB-08, already thickened.' },
       { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 60, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 90 },
     ],
-    [{ stepId: 1, historicalChemicalId: leadAcetate.id, historicalAmountG: 6, modernChemicalId: alAcetate.id, modernAmountG: 3.5, reason: 'toxicity' }],
+    [{ stepId: 1, historicalChemicalId: leadAcetate.id, historicalAmountG: leadFor(pinkMb07Ml), historicalPractice: `weak red liquor: ${alumIn(pinkMb07Ml)} g alum with sugar of lead`, modernChemicalId: caAcetate.id, modernAmountG: caFor(pinkMb07Ml), modernPractice: 'aluminium acetate from alum and calcium acetate, diluted', reason: 'toxicity', notes: sludgeNote }],
   );
   await makeTrial(
-    { pieceId: p12.id, status: 'finished', notes: 'Purple from the iron mordant.' },
+    { pieceId: p12.id, status: 'finished', notes: 'Purple from the iron acetate liquor MB-09.' },
     [
-      { operation: 'print-paste', ingredients: [['chemical', 'iron(II) sulfate (copperas)', 10, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: 150 }, batchCode: 'MB-09', batchVolumeMl: 100 },
+      { operation: 'print-paste', ingredients: [['chemical', 'iron(II) acetate', 10, 'g/L'], ['chemical', 'guar gum', 20, 'g/L']], paste: { volumeMl: 150, stockGPerL: 15 }, batchCode: 'MB-09', batchVolumeMl: 100, notes: '100 mL of MB-09 made up to 150 mL with guar.' },
       { operation: 'dye-bath', ingredients: [['dyestuff', 'madder', 60, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 90 },
     ],
   );
   await makeTrial(
     { pieceId: p12.id, status: 'in-progress', notes: 'Green: weld over pencilled indigo.' },
     [
+      { operation: 'tannin', ingredients: [['chemical', 'tannic acid', 8, 'owf']], liquorRatio: 30, temperatureC: 50, minutes: 60 },
       { operation: 'mordant-bath', ingredients: [['chemical', 'potash alum', 15, 'owf']], liquorRatio: 30, temperatureC: 45, minutes: 60 },
       { operation: 'overdye', ingredients: [['dyestuff', 'weld', 50, 'owf'], ['chemical', 'calcium carbonate (chalk)', 2, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 60 },
     ],
   );
+  // Fructose-lime vats at 1 part indigo, 2 parts lime, 3 parts fructose by mass (common practice, recalled from memory).
+  const vat = (indigoOwf: number, notes: string): StepSpec => ({
+    operation: 'vat',
+    ingredients: [['dyestuff', 'indigo', indigoOwf, 'owf'], ['chemical', lime.name, indigoOwf * 2, 'owf'], ['chemical', fructose.name, indigoOwf * 3, 'owf']],
+    liquorRatio: 50, temperatureC: 50, minutes: 20, notes,
+  });
   const p96 = pieces['1996.9.6'];
   await makeTrial(
     { pieceId: p96.id, status: 'finished', dryMassG: 120, notes: 'Yellow over indigo without chromium: alum and a weld overdye.' },
     [
-      { operation: 'vat', ingredients: [['dyestuff', 'indigo', 2, 'owf']], liquorRatio: 50, temperatureC: 50, minutes: 20, notes: 'Fructose-lime vat; two dips.' },
+      vat(2, 'Fructose-lime vat; two dips.'),
+      { operation: 'tannin', ingredients: [['chemical', 'tannic acid', 8, 'owf']], liquorRatio: 30, temperatureC: 50, minutes: 60 },
       { operation: 'mordant-bath', ingredients: [['chemical', 'potash alum', 15, 'owf']], liquorRatio: 30, temperatureC: 45, minutes: 60 },
       { operation: 'overdye', ingredients: [['dyestuff', 'weld', 60, 'owf']], liquorRatio: 30, temperatureC: 70, minutes: 60 },
     ],
-    [{ stepId: 2, historicalChemicalId: dichromate.id, historicalAmountG: 3.6, modernChemicalId: alum.id, modernAmountG: 18, modernPractice: 'alum mordant with a weld overdye', reason: 'toxicity' }],
+    [{ stepId: 3, historicalChemicalId: dichromate.id, historicalAmountG: 3.6, modernChemicalId: alum.id, modernAmountG: 18, modernPractice: 'alum mordant with a weld overdye', reason: 'toxicity' }],
   );
   for (const [i, note] of ['Indigo depth test, 4 dips.', 'Resist paste trial (clay and gum).'].entries()) {
-    await makeTrial({ pieceId: pieces['1958.22.4'].id, status: i ? 'planned' : 'finished', dryMassG: 100, notes: note }, [
-      { operation: 'vat', ingredients: [['dyestuff', 'indigo', 3, 'owf']], liquorRatio: 50, temperatureC: 50, minutes: 20 },
-    ]);
+    await makeTrial({ pieceId: pieces['1958.22.4'].id, status: i ? 'planned' : 'finished', dryMassG: 100, notes: note }, [vat(3, 'Fructose-lime vat.')]);
   }
 
   // Invented instrument readings: the original's red, pink and purple grounds as targets, and each result's swatch.
@@ -185,18 +220,20 @@ export async function seedDemo(t: Transaction) {
   await reading({ pieceId: p12.id, L: 44.6, a: 48.3, b: 33.4, label: 'madder red ground', illuminant: 'A' });
   await reading({ trialId: trials[0].id, L: 46.2, a: 44.9, b: 35.8, label: `${trials[0].code} swatch`, illuminant: 'A' });
 
-  // Events on the batches, in order; MB-07 topped up twice, then exhausted.
-  await ev(mb07.id, 'use', '2024-03-12', { volumeMl: 160, fibreMassG: 250, trialId: t1.id, stepId: drawStep['MB-07'] });
-  await ev(mb07.id, 'use', '2024-03-14', { volumeMl: 400, fibreMassG: 250 });
-  await ev(mb07.id, 'top-up', '2024-03-15', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 35 }, { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 17 }], volumeMl: 400 });
+  // Events on the batches, in order. Liquor drawn off for a paste or a child batch is a use without fibre: it
+  // takes volume, not strength. MB-07 is drawn from, used to mordant cloth, topped up twice, then used up.
+  await ev(mb07.id, 'use', '2024-03-11', { volumeMl: mb08FromMb07Ml, notes: 'Drawn to make MB-08.' });
+  await ev(mb07.id, 'use', '2024-03-12', { volumeMl: redDrawMl, trialId: t1.id, stepId: drawStep['MB-07'], notes: 'Drawn for the red paste of T-2024-001.' });
+  await ev(mb07.id, 'use', '2024-03-14', { volumeMl: 400, fibreMassG: 250, notes: 'Cotton padded through the liquor.' });
+  await ev(mb07.id, 'top-up', '2024-03-15', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 35 }, { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 17.5 }], volumeMl: 825 });
   await ev(mb07.id, 'use', '2024-03-20', { volumeMl: 600, fibreMassG: 300 });
   await ev(mb07.id, 'test-strip', '2024-03-21', { result: 'strip dyed a full red: bath still strong' });
-  await ev(mb07.id, 'top-up', '2024-03-22', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 30 }], volumeMl: 300 });
+  await ev(mb07.id, 'top-up', '2024-03-22', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 20 }, { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 10 }], volumeMl: 600 });
   await ev(mb07.id, 'use', '2024-04-02', { volumeMl: 900, fibreMassG: 400 });
-  await ev(mb07.id, 'use', '2024-04-10', { volumeMl: 640, fibreMassG: 350 });
+  await ev(mb07.id, 'use', '2024-04-10', { volumeMl: 1100, fibreMassG: 350, notes: 'The last of the liquor.' });
   await ev(mb07.id, 'test-strip', '2024-04-11', { result: 'strip pale pink only: bath exhausted' });
-  await ev(mb08.id, 'use', '2024-03-12', { volumeMl: 120, fibreMassG: 250, trialId: trials[1].id, stepId: drawStep['MB-08'] });
-  await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, fibreMassG: 250, trialId: trials[2].id, stepId: drawStep['MB-09'] });
+  await ev(mb08.id, 'use', '2024-03-12', { volumeMl: pinkDrawMl, trialId: trials[1].id, stepId: drawStep['MB-08'], notes: 'Drawn for the pink of T-2024-002.' });
+  await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, trialId: trials[2].id, stepId: drawStep['MB-09'], notes: 'Drawn for the purple paste of T-2024-003.' });
 
   // The workshop: six shades per participant from shared baths.
   // Factors say what they change in the recipe, so the series can scale it and list the materials.
@@ -218,7 +255,7 @@ export async function seedDemo(t: Transaction) {
     {
       code: 'WS-2024-01', title: 'Madder on four mordants: a six-shade card', kind: 'workshop', pieceId: p12.id,
       factors, cells, participants: ['P-01', 'P-02', 'P-03', 'P-04'],
-      dryMassG: 10, deadVolumePct: 15, ownerId: tamsin.id, heldOn: '2024-04-20', notes: 'Each participant dyes six 10 g swatches from the shared baths MB-08 and MB-09.',
+      dryMassG: 10, deadVolumePct: 15, ownerId: tamsin.id, heldOn: '2024-04-20', notes: 'Each participant mordants and dyes six 10 g swatches: tannin, alum and iron baths made up per cell from its recipe, then one shared madder bath.',
     },
     { transaction: t },
   );

@@ -94,7 +94,7 @@ describe('bath ledger through the API', () => {
     expect(due.items.some((x: { id: number }) => x.id === b.id)).toBe(true);
     expect(due.items.every((x: { dueForCheck: boolean }) => x.dueForCheck)).toBe(true);
     const exhausted = (await dyer.get('/api/batches?status=exhausted&pageSize=100').expect(200)).body;
-    expect(exhausted.items.find((x: { code: string }) => x.code === 'MB-07')).toMatchObject({ remainingMl: 0, uses: 5, status: 'exhausted' });
+    expect(exhausted.items.find((x: { code: string }) => x.code === 'MB-07')).toMatchObject({ remainingMl: 0, uses: 6, status: 'exhausted' });
   });
 
   it('keeps the role rules: visitors 401, curators may read but not draw, a dyer may not edit another dyer’s batch', async () => {

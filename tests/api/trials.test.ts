@@ -244,7 +244,14 @@ describe('the demo scenario', () => {
     const lead = trial.metalLoad.rows.find((r: { metal: string }) => r.metal === 'Pb');
     expect(lead.avoidedG).toBeCloseTo(18 * compound('Pb(CH3COO)2·3H2O').metal_mass_fraction.Pb, 4);
     expect(trial.fastness.washing).toMatchObject({ change: '4-5' });
-    expect(trial.steps.find((s: { operation: string }) => s.operation === 'print-paste')).toMatchObject({ batch: { code: 'MB-07' }, batchVolumeMl: 160 });
+    expect(trial.steps.find((s: { operation: string }) => s.operation === 'print-paste')).toMatchObject({ batch: { code: 'MB-07' }, batchVolumeMl: 300 });
+  });
+
+  it('shows the lime caution on the fructose-lime indigo vat of T-2024-005', async () => {
+    const list = await dyer.get('/api/trials?q=T-2024-005').expect(200);
+    const { trial } = (await dyer.get(`/api/trials/${list.body.items.find((t: { code: string }) => t.code === 'T-2024-005').id}`).expect(200)).body;
+    const vat = trial.steps.find((s: { operation: string }) => s.operation === 'vat');
+    expect(vat.cautions.map((c: { name: string }) => c.name)).toContain('calcium hydroxide (slaked lime)');
   });
 });
 
