@@ -8,7 +8,7 @@ import { createApp } from '../../server/app.ts';
 import { Piece, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
-import { edtfYears } from '../../shared/schemas/edtf.ts';
+import { edtfYears } from '../../shared/edtf.ts';
 
 const app = createApp();
 afterAll(() => sequelize.close());
