@@ -198,9 +198,15 @@ function readSet(text: string): EdtfValue {
     if (!lo && !hi) refuse(NOT_EDTF);
     if (lo && hi && lo.lo > hi.hi) refuse(`${item} ends before it starts`);
     if (!lo) earliest = null;
-    else if (earliest !== null && lo.earliest < earliest) (earliest = lo.earliest), (startQualified = lo.yearQualified);
+    else if (earliest !== null && lo.earliest < earliest) {
+      earliest = lo.earliest;
+      startQualified = lo.yearQualified;
+    }
     if (!hi) latest = null;
-    else if (latest !== null && hi.latest > latest) (latest = hi.latest), (endQualified = hi.yearQualified);
+    else if (latest !== null && hi.latest > latest) {
+      latest = hi.latest;
+      endQualified = hi.yearQualified;
+    }
   });
   return { kind, earliest, latest, startQualified, endQualified };
 }
