@@ -59,6 +59,7 @@ function readYear(text: string): { lo: number; hi: number; pre: string; post: st
     const [, pre, sign, digits, exp, sig, post] = y;
     if (!exp && digits.length < 5) refuse(`A year written with Y has more than four digits (Y${sign}${digits} is ${sign}${digits.padStart(4, '0')})`);
     const value = Number(digits) * 10 ** Number(exp ?? 0) * (sign ? -1 : 1);
+    if (!Number.isSafeInteger(value)) refuse(`Y${sign}${digits}${exp ? `E${exp}` : ''} is too large a year to read`);
     return { ...significant(value, sig), pre, post };
   }
   const m = /^([?~%]?)(-?)([\dX]{4})(?:S(\d+))?([?~%]?)$/.exec(text);

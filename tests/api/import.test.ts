@@ -116,6 +116,7 @@ describe('CSV import of pieces', () => {
       expect(dc.body['dcterms:created']).toEqual({ '@value': o.dateEdtf, '@type': 'edtf:EDTF' });
       expect(parseEdtf(dc.body['dcterms:created']['@value']).ok).toBe(true);
       expect(dc.body['dcterms:temporal']).toBe(`${o.earliestYear ?? '..'}/${o.latestYear ?? '..'}`);
+      expect(edtfYears(dc.body['dcterms:temporal'])).toEqual({ earliest: o.earliestYear, latest: o.latestYear });
     }
   });
 

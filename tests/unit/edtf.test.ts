@@ -33,7 +33,7 @@ describe('EDTF year bounds', () => {
     expect(edtfYears(v)).toEqual({ earliest, latest });
   });
 
-  it.each(['1785/1770', '1770-13', 'about 1770', '17', '1770/1780/1790', '', '1850-02-3X', '1850-4X'])('refuses %j', (v) => {
+  it.each(['1785/1770', '1770-13', 'about 1770', '17', '1770/1780/1790', '', '1850-02-3X', '1850-4X', 'Y17E400'])('refuses %j', (v) => {
     expect(edtfYears(v)).toBeNull();
   });
 });
