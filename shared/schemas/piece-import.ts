@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
 import '../messages.ts';
-import { edtfYears } from './edtf.ts';
+import { dateIssues, edtfYears, YEAR_MAX, YEAR_MIN } from '../edtf.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).
 export const PIECE_CSV_FIELDS = [
@@ -48,6 +48,10 @@ const year = z
     if (s === '') return null;
     if (!/^-?\d{1,4}$/.test(s)) {
       ctx.addIssue({ code: 'custom', message: `"${s}" is not a year.` });
+      return z.NEVER;
+    }
+    if (Number(s) < YEAR_MIN || Number(s) > YEAR_MAX) {
+      ctx.addIssue({ code: 'custom', message: `Use a year from ${YEAR_MIN} to ${YEAR_MAX}.` });
       return z.NEVER;
     }
     return Number(s);
@@ -97,20 +101,13 @@ export const pieceImportRow = z
       .pipe(z.enum(['draft', 'published'], { error: 'Status is draft or published.' })),
   })
   .transform((row, ctx) => {
-    // Years come from the EDTF date when not given; when both are given they must agree.
-    if (row.dateEdtf) {
-      const range = edtfYears(row.dateEdtf);
-      if (!range) {
-        ctx.addIssue({ code: 'custom', path: ['dateEdtf'], message: `"${row.dateEdtf}" is not an EDTF date (e.g. 1770/1785, 18XX, 1850~).` });
-        return z.NEVER;
-      }
-      if (row.earliestYear !== null && range.earliest !== null && row.earliestYear !== range.earliest)
-        ctx.addIssue({ code: 'custom', path: ['earliestYear'], message: `Earliest year ${row.earliestYear} does not match the EDTF date (${range.earliest}).` });
-      if (row.latestYear !== null && range.latest !== null && row.latestYear !== range.latest)
-        ctx.addIssue({ code: 'custom', path: ['latestYear'], message: `Latest year ${row.latestYear} does not match the EDTF date (${range.latest}).` });
-      row.earliestYear ??= range.earliest;
-      row.latestYear ??= range.latest;
-    }
+    // The same date rules as the form and the API (shared/edtf.ts); years come from the EDTF date when not given.
+    const issues = dateIssues(row);
+    for (const i of issues) ctx.addIssue({ code: 'custom', path: [i.path], message: `${i.message}.` });
+    if (issues.length) return z.NEVER;
+    const range = row.dateEdtf ? edtfYears(row.dateEdtf) : null;
+    row.earliestYear ??= range?.earliest ?? null;
+    row.latestYear ??= range?.latest ?? null;
     if (row.earliestYear !== null && row.latestYear !== null && row.earliestYear > row.latestYear)
       ctx.addIssue({ code: 'custom', path: ['latestYear'], message: 'The latest year comes before the earliest year.' });
     return row;

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
 import '../messages.ts';
-import { edtfYears } from '../edtf.ts';
+import { dateIssues, YEAR_MAX, YEAR_MIN, type DateFields } from '../edtf.ts';
 
 export { ACCESSION_PATTERN } from '../accession.ts';
 
@@ -21,7 +21,7 @@ const mm = z
   .multipleOf(0.1, 'Use at most one decimal place')
   .nullable()
   .optional();
-const year = z.number({ error: 'Enter a year' }).int('Enter a whole year').min(-5000).max(2200).nullable().optional();
+const year = z.number({ error: 'Enter a year' }).int('Enter a whole year').min(YEAR_MIN, `Use a year from ${YEAR_MIN}`).max(YEAR_MAX, `Use a year up to ${YEAR_MAX}`).nullable().optional();
 
 export const evidencedTerm = z.object({
   name: text(120).min(1, 'Enter a name'),
@@ -67,24 +67,7 @@ const pieceFields = {
   status: z.enum(PIECE_STATUSES).optional(),
 };
 
-type DateFields = { dateEdtf?: string | null; earliestYear?: number | null; latestYear?: number | null };
-
-/** Date rules shared by create, update (on the merged record) and the form. */
-export function dateIssues(p: DateFields): { path: keyof DateFields; message: string }[] {
-  const issues: { path: keyof DateFields; message: string }[] = [];
-  const { earliestYear: from, latestYear: to } = p;
-  if (from != null && to != null && from > to) issues.push({ path: 'latestYear', message: 'Latest year must not be before the earliest year' });
-  if (p.dateEdtf) {
-    const range = edtfYears(p.dateEdtf);
-    if (!range) issues.push({ path: 'dateEdtf', message: 'Use EDTF such as 1770/1785, 1820~, 17XX or 1850-06' });
-    else {
-      if (from != null && range.earliest != null && from !== range.earliest)
-        issues.push({ path: 'earliestYear', message: `The EDTF date starts in ${range.earliest}` });
-      if (to != null && range.latest != null && to !== range.latest) issues.push({ path: 'latestYear', message: `The EDTF date ends in ${range.latest}` });
-    }
-  }
-  return issues;
-}
+export { dateIssues };
 
 const withDateRules = <T extends z.ZodType<DateFields>>(schema: T) =>
   schema.superRefine((p, ctx) => {

@@ -8,7 +8,8 @@ import { createApp } from '../../server/app.ts';
 import { Piece, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
-import { edtfYears } from '../../shared/schemas/edtf.ts';
+import { readFileSync } from 'node:fs';
+import { edtfYears, parseEdtf } from '../../shared/edtf.ts';
 
 const app = createApp();
 afterAll(() => sequelize.close());
@@ -83,6 +84,56 @@ describe('CSV import of pieces', () => {
     for (const [i, piece] of after.entries()) {
       for (const f of fields) expect([f, piece.get(f)]).toEqual([f, before[i][f]]);
     }
+  });
+
+  it('round-trips the demo pieces: their CSV export re-imports without errors and with identical dates', async () => {
+    // Every export re-imports (issue 14): the demo catalogue holds exact, approximate (1760~ searched as 1755–1765),
+    // unspecified (183X) and interval dates. The copies get a prefix so they do not clash with the originals.
+    const demo = JSON.parse(readFileSync(new URL('../../server/seed/data/demo-pieces.json', import.meta.url), 'utf8')) as Array<{ accessionNumber: string }>;
+    const originals = await Piece.findAll({ where: { accessionNumber: demo.map((d) => d.accessionNumber) } });
+    expect(originals.map((o) => o.dateEdtf)).toContain('1760~');
+    const researcher = await signedInAgent(app, 'researcher');
+    const exported = await researcher.get('/api/export/pieces.csv').buffer(true).expect(200);
+    const rows: Record<string, string>[] = parse(exported.text, { columns: true });
+    const byNumber = new Map(originals.map((o) => [o.accessionNumber, o]));
+    const mine = rows.filter((r) => byNumber.has(r.accessionNumber));
+    expect(mine).toHaveLength(originals.length);
+    const p = prefix();
+    const copies = mine.map((r) => ({ ...r, accessionNumber: `${p}.${r.accessionNumber}` }));
+    const csv = stringify(copies, { header: true, columns: Object.keys(rows[0]) });
+    const dry = await upload(csv, { dryRun: true }).expect(200);
+    expect(dry.body.errors).toEqual([]);
+    expect(dry.body).toMatchObject({ rows: originals.length, invalid: 0 });
+    const res = await upload(csv).expect(201);
+    expect(res.body.imported).toBe(originals.length);
+    const after = await Piece.findAll({ where: { id: res.body.ids } });
+    const dates = (x: Piece) => ({ dateText: x.dateText, dateEdtf: x.dateEdtf, earliestYear: x.earliestYear, latestYear: x.latestYear });
+    for (const copy of after) expect([copy.accessionNumber, dates(copy)]).toEqual([copy.accessionNumber, dates(byNumber.get(copy.accessionNumber.slice(p.length + 1))!)]);
+
+    // The Dublin Core record carries the same EDTF date (typed as EDTF) and the search years.
+    for (const o of originals.filter((x) => x.dateEdtf)) {
+      const dc = await researcher.get(`/api/pieces/${o.id}/dublin-core.jsonld`).expect(200);
+      expect(dc.body['dcterms:created']).toEqual({ '@value': o.dateEdtf, '@type': 'edtf:EDTF' });
+      expect(parseEdtf(dc.body['dcterms:created']['@value']).ok).toBe(true);
+      expect(dc.body['dcterms:temporal']).toBe(`${o.earliestYear ?? '..'}/${o.latestYear ?? '..'}`);
+      expect(edtfYears(dc.body['dcterms:temporal'])).toEqual({ earliest: o.earliestYear, latest: o.latestYear });
+    }
+  });
+
+  it('imports an approximate date with a wider year range, and refuses an invalid calendar date beside the field', async () => {
+    const p = prefix();
+    const head = 'accessionNumber,objectName,title,dateEdtf,earliestYear,latestYear';
+    const ok = await upload(`${head}\n${p}.1,panel,About 1760,1760~,1755,1765\n${p}.2,panel,Perhaps 1785,1785?/1795,1780,\n`).expect(201);
+    const made = await Piece.findAll({ where: { id: ok.body.ids }, order: [['accessionNumber', 'ASC']] });
+    expect(made.map((m) => [m.earliestYear, m.latestYear])).toEqual([[1755, 1765], [1780, 1795]]);
+    const bad = await upload(`${head}\n${p}.3,panel,Bad,1850-02-30,,\n${p}.4,panel,Bad,1851-02-29,,\n${p}.5,panel,Bad,1850-13,,\n${p}.6,panel,Exact,1760,1755,1765\n`).expect(422);
+    expect(bad.body.error.details.errors).toEqual([
+      { line: 2, field: 'dateEdtf', message: 'February 1850 has 28 days; there is no day 30.' },
+      { line: 3, field: 'dateEdtf', message: '1851 is not a leap year: February 1851 has 28 days.' },
+      { line: 4, field: 'dateEdtf', message: expect.stringMatching(/^There is no month 13/) },
+      { line: 5, field: 'earliestYear', message: expect.stringMatching(/starts in 1760/) },
+      { line: 5, field: 'latestYear', message: expect.stringMatching(/ends in 1760/) },
+    ]);
   });
 
   it('maps the file\'s own column names to fields, and fills the years from the EDTF date', async () => {

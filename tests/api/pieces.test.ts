@@ -49,7 +49,7 @@ describe('pieces: create, read, validate', () => {
     expect(Object.keys(fields)).toEqual(expect.arrayContaining(['accessionNumber', 'objectName', 'heightMm', 'dyestuffs.0.evidence']));
     // Date rules run once the fields themselves are well-formed.
     const dates = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ dateEdtf: '1785/1770' })).expect(400);
-    expect(dates.body.error.details.fields.dateEdtf[0]).toMatch(/EDTF/);
+    expect(dates.body.error.details.fields.dateEdtf[0]).toMatch(/ends \(1770\) before it starts \(1785\)/);
   });
 
   it('refuses year bounds that contradict the EDTF date, and terms outside the vocabularies', async () => {
@@ -58,6 +58,43 @@ describe('pieces: create, read, validate', () => {
     expect(years.body.error.details.fields.earliestYear[0]).toMatch(/1770/);
     const vocab = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ fibres: ['unobtainium'] })).expect(400);
     expect(vocab.body.error.details.fields.fibres[0]).toMatch(/unobtainium/);
+  });
+
+  it('lets an approximate or uncertain date carry a wider search range; an exact one must agree with its years', async () => {
+    // EDTF qualifiers ~ (approximate) and ? (uncertain): Library of Congress EDTF specification (2019), level 1.
+    const curator = await signedInAgent(app, 'curator');
+    const about = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ dateText: 'about 1760', dateEdtf: '1760~', earliestYear: 1755, latestYear: 1765 })).expect(201);
+    expect(about.body.piece).toMatchObject({ dateEdtf: '1760~', earliestYear: 1755, latestYear: 1765 });
+    const perhaps = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ dateEdtf: '1785?/1795', earliestYear: 1780, latestYear: 1795 })).expect(201);
+    expect(perhaps.body.piece).toMatchObject({ earliestYear: 1780, latestYear: 1795 });
+    // The exact end (1795) may not be widened, nor an approximate start narrowed.
+    const wide = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ dateEdtf: '1785?/1795', earliestYear: 1780, latestYear: 1800 })).expect(400);
+    expect(Object.keys(wide.body.error.details.fields)).toEqual(['latestYear']);
+    expect(wide.body.error.details.fields.latestYear[0]).toMatch(/ends in 1795/);
+    const exact = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ dateEdtf: '1760', earliestYear: 1755, latestYear: 1765 })).expect(400);
+    expect(Object.keys(exact.body.error.details.fields).sort()).toEqual(['earliestYear', 'latestYear']);
+    // An edit to the years alone is checked against the stored date too.
+    await curator.patch(`/api/pieces/${about.body.piece.id}`).set('Origin', ORIGIN).send({ earliestYear: 1750 }).expect(200);
+    const narrow = await curator.patch(`/api/pieces/${about.body.piece.id}`).set('Origin', ORIGIN).send({ latestYear: 1759 }).expect(400);
+    expect(narrow.body.error.details.fields.latestYear[0]).toMatch(/1760/);
+  });
+
+  it('refuses dates that are not in the calendar, with the reason beside the date', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const cases: Array<[string, RegExp]> = [
+      ['1850-02-30', /^February 1850 has 28 days; there is no day 30$/],
+      ['1851-02-29', /^1851 is not a leap year/],
+      ['1850-13', /^There is no month 13/],
+      ['1850-04-31', /^April has 30 days/],
+    ];
+    for (const [dateEdtf, message] of cases) {
+      const res = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ dateEdtf })).expect(400);
+      expect(res.body.error.details.fields).toEqual({ dateEdtf: [expect.stringMatching(message)] });
+    }
+    await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece({ dateEdtf: '1852-02-29' })).expect(201);
+    const piece = await curator.post('/api/pieces').set('Origin', ORIGIN).send(newPiece()).expect(201);
+    const patched = await curator.patch(`/api/pieces/${piece.body.piece.id}`).set('Origin', ORIGIN).send({ dateEdtf: '1900-02-29' }).expect(400);
+    expect(patched.body.error.details.fields.dateEdtf[0]).toMatch(/^1900 is not a leap year/);
   });
 
   it('answers a duplicate accession number with 409 naming the field', async () => {

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { edtfYears } from '../../../../shared/edtf';
+import { EDTF_HINT, edtfYears, parseEdtf } from '../../../../shared/edtf';
 import { pieceCreateSchema, type PieceCreateInput } from '../../../../shared/schemas/piece';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
@@ -46,7 +46,14 @@ export function PieceForm({ piece, submitLabel, onSubmit }: { piece?: Piece; sub
   const [busy, setBusy] = useState(false);
   const set = <K extends keyof State>(k: K, v: State[K]) => setState((s) => ({ ...s, [k]: v }));
   const text = (k: keyof Text) => ({ value: state[k], onChange: (e: { target: { value: string } }) => set(k, e.target.value), error: errors[k] });
-  const years = state.dateEdtf ? edtfYears(state.dateEdtf) : null;
+  // The EDTF date is read as it is typed (shared/edtf.ts, the same reader as the server); what is wrong shows once the
+  // field is left, and the year fields say how far an approximate or uncertain date may reach.
+  const [edtfLeft, setEdtfLeft] = useState(false);
+  const edtf = state.dateEdtf.trim() ? parseEdtf(state.dateEdtf) : null;
+  const edtfProblem = edtfLeft && edtf && !edtf.ok ? edtf.message : undefined;
+  const years = edtf?.ok ? edtf.value : null;
+  const yearHint = (qualified: boolean | undefined, way: 'earlier' | 'later') =>
+    qualified ? `Approximate or uncertain: may reach ${way} than the date, e.g. 1755–1765 for 1760~` : 'Filled from the EDTF date when left empty';
   // Years that merely echoed the old EDTF date follow a new one instead of contradicting it.
   const setEdtf = (value: string) =>
     setState((s) => {
@@ -86,9 +93,17 @@ export function PieceForm({ piece, submitLabel, onSubmit }: { piece?: Piece; sub
       <fieldset className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
         <legend className="mb-2 text-lg font-semibold font-serif">Date and place</legend>
         <Field label="Date as written" hint="e.g. about 1770–1785" className="lg:col-span-2" {...text('dateText')} />
-        <Field label="Date (EDTF)" hint="e.g. 1770/1785, 1820~, 17XX" className="lg:col-span-2 font-mono" {...text('dateEdtf')} onChange={(e) => setEdtf(e.target.value)} />
-        <Field label="Earliest year" inputMode="numeric" placeholder={years?.earliest != null ? String(years.earliest) : ''} hint="Filled from the EDTF date when left empty" {...text('earliestYear')} />
-        <Field label="Latest year" inputMode="numeric" placeholder={years?.latest != null ? String(years.latest) : ''} {...text('latestYear')} />
+        <Field
+          label="Date (EDTF)"
+          hint={EDTF_HINT}
+          className="lg:col-span-2 font-mono"
+          {...text('dateEdtf')}
+          error={errors.dateEdtf ?? edtfProblem}
+          onChange={(e) => setEdtf(e.target.value)}
+          onBlur={() => setEdtfLeft(true)}
+        />
+        <Field label="Earliest year" inputMode="numeric" placeholder={years?.earliest != null ? String(years.earliest) : ''} hint={yearHint(years?.startQualified, 'earlier')} {...text('earliestYear')} />
+        <Field label="Latest year" inputMode="numeric" placeholder={years?.latest != null ? String(years.latest) : ''} hint={years?.endQualified ? yearHint(true, 'later') : undefined} {...text('latestYear')} />
         <Field label="Place" className="lg:col-span-2" {...text('place')} />
       </fieldset>
 
