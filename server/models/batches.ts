@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-export type BatchKind = 'mordant-bath' | 'print-paste' | 'dye-bath' | 'vat';
+export type BatchKind = 'mordant-bath' | 'print-paste' | 'dye-bath' | 'vat' | 'stock';
 export type BatchStatus = 'active' | 'exhausted' | 'disposed';
 export type BatchEventType = 'use' | 'top-up' | 'water' | 'test-strip' | 'ph' | 'disposal';
 export type BatchIngredient = { kind: 'dyestuff' | 'chemical'; refId: number; name: string; grams: number };
@@ -55,7 +55,7 @@ export function initBatchModels(sequelize: Sequelize) {
     {
       id: pk(),
       code: { type: DataTypes.STRING(20), allowNull: false, unique: true },
-      kind: { type: DataTypes.ENUM('mordant-bath', 'print-paste', 'dye-bath', 'vat'), allowNull: false },
+      kind: { type: DataTypes.ENUM('mordant-bath', 'print-paste', 'dye-bath', 'vat', 'stock'), allowNull: false },
       name: { type: DataTypes.STRING(160), allowNull: false },
       ingredients: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
       volumeMl: { type: DataTypes.DOUBLE, allowNull: false },

@@ -26,11 +26,18 @@ export const trialUrl = (id: number) => `${publicUrl.replace(/\/$/, '')}/trials/
 const fmtNum = (x: number) => String(Number(x.toPrecision(3)));
 const BASIS: Record<string, string> = { owf: '% owf', 'g/L': 'g/L', g: 'g' };
 
-// Every quantity with its unit; % owf amounts also in grams for the card's dry mass, as weighed out.
+// Every quantity with its unit; % owf amounts also in grams for the card's dry mass, as weighed out;
+// a print paste's g/L as g/L of paste and in grams for the paste volume (never % owf).
 function stepLine(s: RecipeStep, dryMassG: number) {
-  const ing = s.ingredients
-    .map((i) => `${i.name} ${i.amount} ${BASIS[i.basis] ?? i.basis}${i.basis === 'owf' ? ` = ${fmtNum(gramsFromOwf(i.amount, dryMassG))} g` : ''}`)
-    .join(', ');
+  const v = Number(s.paste?.volumeMl);
+  const pasteMl = s.operation === 'print-paste' && v > 0 ? v : null;
+  const grams = (i: RecipeStep['ingredients'][number]) => {
+    if (i.basis === 'owf') return ` = ${fmtNum(gramsFromOwf(i.amount, dryMassG))} g`;
+    if (i.basis === 'g/L' && pasteMl) return ` of paste = ${fmtNum((i.amount * pasteMl) / 1000)} g in ${fmtNum(pasteMl)} mL`;
+    if (i.basis === 'g/L' && s.operation === 'print-paste') return ' of paste';
+    return '';
+  };
+  const ing = s.ingredients.map((i) => `${i.name} ${i.amount} ${BASIS[i.basis] ?? i.basis}${grams(i)}`).join(', ');
   const cond = [
     s.liquorRatio ? `liquor 1:${s.liquorRatio}` : null,
     s.temperatureC != null ? `${s.temperatureC} °C` : null,

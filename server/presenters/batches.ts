@@ -1,4 +1,4 @@
-import { DISPOSAL_NOTICE } from '../../shared/schemas/batches.ts';
+import { DISPOSAL_NOTICE, DRAW_ONLY_KINDS } from '../../shared/schemas/batches.ts';
 import type { ChemicalView } from '../../shared/schemas/reference.ts';
 import type { BatchEvent, MordantBatch } from '../models/index.ts';
 import type { Figures } from '../services/batches/ledger-figures.ts';
@@ -25,8 +25,17 @@ export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], 
   return {
     ...presentBatchSummary(b, f),
     ingredients: b.ingredients, thickenerGPerL: b.thickenerGPerL, ph: b.ph, uptakePerUse: b.uptakePerUse, notes: b.notes,
+    uptake: DRAW_ONLY_KINDS.includes(b.kind)
+      ? { value: 0, referenceLoadG: null, estimate: true, drawOnly: true, basis: 'only drawn from: a use takes volume, not strength' }
+      : {
+          value: b.uptakePerUse, referenceLoadG: f.referenceLoadG, estimate: true, drawOnly: false,
+          basis: `share of the bath's mordant one load of ${f.referenceLoadG} g fibre takes up (the made volume at 1:20), scaled by the fibre mass of each use; a use without a fibre mass counts as one load; an estimate, not a measurement`,
+        },
     topUpSuggestion: f.topUp
-      ? { items: f.topUp.ingredients, waterMl: f.topUp.waterMl, usesSinceTopUp: f.topUp.usesSinceTopUp, rule: `Add ${f.topUp.rule.minFraction * 100}–${f.topUp.rule.maxFraction * 100} % of the original charge for each use since the last top-up, and water back to the made volume (${f.topUp.rule.source}); confirm with a test strip.` }
+      ? {
+          items: f.topUp.ingredients, waterMl: f.topUp.waterMl, volumeAfterMl: f.topUp.volumeAfterMl, usesSinceTopUp: f.topUp.usesSinceTopUp,
+          rule: `Brings the estimated strength back to the strength as made: each ingredient to its made g/L in ${f.topUp.volumeAfterMl} mL, and water back to the made volume, never more. From the ledger's estimate (${f.topUp.rule.source}); confirm with a test strip.`,
+        }
       : null,
     testStripPrompt: f.testStrip.due ? `Dye a test strip before the next use: ${f.testStrip.reasons.map((r) => STRIP_REASONS[r]).join('; ')}.` : null,
     timeline: f.timeline,

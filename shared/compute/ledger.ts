@@ -1,7 +1,7 @@
 /**
- * The bath ledger (BRIEF §4.3): a mordant bath or print paste kept in use, topped up,
+ * The bath ledger (BRIEF §4.3): a mordant bath, stock or print paste kept in use, topped up,
  * until it is exhausted. Everything here is derived from the batch and its ordered
- * events; strength is an ESTIMATE from the dyer's uptake-per-use figure, not a measurement.
+ * events; strength is an ESTIMATE from the dyer's uptake figure, not a measurement.
  * Volumes in millilitres, masses in grams.
  */
 
@@ -9,8 +9,13 @@ export type LedgerIngredient = { name: string; grams: number; refId?: number | n
 export type LedgerBatch = {
   volumeMl: number;
   ingredients: LedgerIngredient[];
-  /** Estimated fraction (0–1) of the bath's mordant that one use takes up; 0 for a stock that is only drawn from. */
+  /**
+   * Estimated fraction (0–1) of the bath's mordant that one reference load of fibre takes up
+   * (see `referenceLoadG`); a use without a fibre mass counts as one reference load.
+   */
   uptakePerUse: number;
+  /** A stock or print paste that is only drawn from: a use takes volume, never strength (the uptake is ignored). */
+  drawOnly?: boolean;
   status?: 'active' | 'exhausted' | 'disposed';
 };
 
@@ -35,11 +40,27 @@ export class LedgerError extends Error {
 }
 
 /**
- * Top-up rule: add 25–50 % of the original charge for each reuse since the last
- * top-up, and water back to the original volume. Common practice, from memory;
- * confirm with a test strip rather than relying on it.
+ * The fibre mass one use of `uptakePerUse` refers to: the mass the made volume serves at a
+ * liquor ratio of 1:20 (1 mL of water ≈ 1 g), so a 2000 mL bath has a 100 g reference load.
+ * Immersion mordant baths are commonly run at about 1:20 to 1:40; common practice, recalled from memory.
  */
-export const TOP_UP_RULE = { minFraction: 0.25, maxFraction: 0.5, source: 'common practice, from memory' } as const;
+export const REFERENCE_LIQUOR_RATIO = { ratio: 20, source: 'common practice, recalled from memory' } as const;
+
+/** The reference load of a batch in grams of dry fibre (made volume / 20). */
+export const referenceLoadG = (batch: Pick<LedgerBatch, 'volumeMl'>) => batch.volumeMl / REFERENCE_LIQUOR_RATIO.ratio;
+
+/**
+ * Fraction of the mordant that stays in the bath after one use. The uptake compounds with the fibre
+ * mass: kept = (1 − u)^(m / m_ref), so two half loads take up what one full load does. A use without a
+ * fibre mass counts as one reference load; a draw-only stock or paste keeps everything (1).
+ */
+export function keptFraction(batch: LedgerBatch, fibreMassG?: number | null): number {
+  if (batch.drawOnly) return 1;
+  const u = Math.min(Math.max(batch.uptakePerUse, 0), 1);
+  if (u === 0) return 1;
+  const loads = fibreMassG != null && fibreMassG > 0 ? fibreMassG / referenceLoadG(batch) : 1;
+  return u === 1 ? 0 : (1 - u) ** loads;
+}
 
 /**
  * When to prompt a test strip (common practice, from memory): the estimated strength
@@ -55,8 +76,10 @@ export type LedgerState = {
   remainingMl: number;
   uses: number;
   fibreMassG: number;
-  /** Estimated grams of active ingredients (thickeners excluded) now in the bath. */
+  /** Estimated grams of active ingredients (thickeners excluded) now in the bath (see `madeCharge` for a batch listing none). */
   chargeG: number;
+  /** Estimated grams of each ingredient now in the bath (thickeners included), by `ingredientKey`. */
+  grams: Record<string, number>;
   /** Estimated concentration relative to the original bath (1 = as made). */
   strength: number;
   /** Estimated fraction of the original charge still in the bath. */
@@ -73,14 +96,32 @@ export type TimelinePoint = { index: number; type: LedgerEvent['type'] | 'made';
 
 const activeGrams = (list: readonly LedgerIngredient[] | null | undefined) => (list ?? []).filter((i) => !i.thickener).reduce((s, i) => s + i.grams, 0);
 
+/**
+ * The charge the strength is measured against: the active grams as made. A batch that lists no active
+ * ingredient (a child made from its parent's liquor, say) is followed as its made liquor, 1 unit per mL,
+ * so uses and water still move its strength.
+ */
+const madeCharge = (batch: LedgerBatch) => activeGrams(batch.ingredients) || batch.volumeMl;
+
+/** One ingredient's key in `LedgerState.grams`: its reference id when it has one, else its name. */
+export const ingredientKey = (i: Pick<LedgerIngredient, 'name' | 'refId'>) => (i.refId != null ? `#${i.refId}` : i.name);
+
+const addGrams = (into: Record<string, number>, list: readonly LedgerIngredient[] | null | undefined) => {
+  const out = { ...into };
+  for (const i of list ?? []) out[ingredientKey(i)] = (out[ingredientKey(i)] ?? 0) + i.grams;
+  return out;
+};
+const scaleGrams = (g: Record<string, number>, k: (key: string) => number) => Object.fromEntries(Object.entries(g).map(([key, v]) => [key, v * k(key)]));
+
 /** The bath as made; a disposal is known only from a disposal event in the history. */
 export function initialState(batch: LedgerBatch): LedgerState {
-  const chargeG = activeGrams(batch.ingredients);
+  const chargeG = madeCharge(batch);
   return {
     remainingMl: batch.volumeMl,
     uses: 0,
     fibreMassG: 0,
     chargeG,
+    grams: addGrams({}, batch.ingredients),
     strength: 1,
     chargeFraction: 1,
     usesSinceTopUp: 0,
@@ -92,12 +133,14 @@ export function initialState(batch: LedgerBatch): LedgerState {
   };
 }
 
+const thickenerKeys = (batch: LedgerBatch) => new Set(batch.ingredients.filter((i) => i.thickener).map(ingredientKey));
+
 const positive = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x) && x > 0;
 
 /** Apply one event; throws a LedgerError and leaves the state untouched when it is refused. */
 export function applyEvent(batch: LedgerBatch, s: LedgerState, e: LedgerEvent, opts: { exhausted?: boolean } = {}): LedgerState {
   if (s.disposed) throw new LedgerError('disposed', 409, 'This batch has been disposed of; no further events can be recorded.');
-  const charge0 = activeGrams(batch.ingredients);
+  const charge0 = madeCharge(batch);
   const withCharge = (next: LedgerState): LedgerState => {
     const chargeFraction = charge0 > 0 ? next.chargeG / charge0 : 0;
     const strength = next.remainingMl > 0 && charge0 > 0 ? next.chargeG / next.remainingMl / (charge0 / batch.volumeMl) : 0;
@@ -112,14 +155,18 @@ export function applyEvent(batch: LedgerBatch, s: LedgerState, e: LedgerEvent, o
           requestedMl: e.volumeMl,
         });
       }
-      // The liquid drawn carries its share of the mordant; the fibre takes up the estimated fraction of what stays.
+      // The liquid drawn carries its share of every ingredient; the fibre takes up the estimated
+      // fraction of the active ones that stay (thickeners are not taken up; a draw-only batch keeps its strength).
       const remainingMl = s.remainingMl - e.volumeMl;
-      const kept = s.remainingMl > 0 ? s.chargeG * (remainingMl / s.remainingMl) : 0;
-      const uptake = Math.min(Math.max(batch.uptakePerUse, 0), 1);
+      const share = s.remainingMl > 0 ? remainingMl / s.remainingMl : 0;
+      const kept = keptFraction(batch, e.fibreMassG);
+      const thick = thickenerKeys(batch);
+      const grams = scaleGrams(s.grams, (key) => share * (thick.has(key) ? 1 : kept));
       return withCharge({
         ...s,
         remainingMl,
-        chargeG: kept * (1 - uptake),
+        grams,
+        chargeG: s.chargeG * share * kept,
         uses: s.uses + 1,
         fibreMassG: s.fibreMassG + (e.fibreMassG ?? 0),
         usesSinceTopUp: s.usesSinceTopUp + 1,
@@ -130,7 +177,7 @@ export function applyEvent(batch: LedgerBatch, s: LedgerState, e: LedgerEvent, o
       const addedG = activeGrams(e.additions);
       const addedMl = e.volumeMl ?? 0;
       if (addedMl < 0 || !(addedG > 0 || addedMl > 0)) throw new LedgerError('invalid-event', 422, 'A top-up needs chemicals added, water added, or both.');
-      return withCharge({ ...s, chargeG: s.chargeG + addedG, remainingMl: s.remainingMl + addedMl, usesSinceTopUp: 0 });
+      return withCharge({ ...s, chargeG: s.chargeG + addedG, grams: addGrams(s.grams, e.additions), remainingMl: s.remainingMl + addedMl, usesSinceTopUp: 0 });
     }
     case 'water':
       if (!positive(e.volumeMl)) throw new LedgerError('invalid-event', 422, 'Water added needs a volume in mL greater than zero.');
@@ -154,23 +201,56 @@ export function applyEvent(batch: LedgerBatch, s: LedgerState, e: LedgerEvent, o
 
 const round1 = (x: number) => Math.round(x * 10) / 10;
 
+/**
+ * What the top-up restores: every ingredient of the bath as made back to its made concentration
+ * (g/L), in the volume after topping up, from the ledger's own estimate of the grams now in it.
+ */
+export const TOP_UP_RULE = {
+  rule: 'restore the made strength: for each ingredient, made g/L × volume after topping up − the estimated grams now, and water back to the made volume; never above the made strength, never a dilution',
+  source: 'mass balance on the ledger estimate (c·V); the uptake behind it is the dyer’s estimate',
+} as const;
+
 export type TopUpSuggestion = {
   usesSinceTopUp: number;
-  ingredients: Array<{ name: string; refId: number | null; minG: number; maxG: number }>;
+  /** Grams to add per ingredient (0 when that one is at its made concentration). */
+  ingredients: Array<{ name: string; refId: number | null; grams: number; thickener: boolean }>;
   waterMl: number;
+  /** The volume after the top-up: the made volume, or what is there now if that is more (no dilution). */
+  volumeAfterMl: number;
   rule: typeof TOP_UP_RULE;
 };
 
-/** The documented top-up rule applied to the uses since the last top-up; null when nothing is due. */
+/** Relative shortfall below which an ingredient counts as at its made strength. */
+const AT_STRENGTH = 1e-6;
+
+/**
+ * The top-up that brings the estimate back to the made strength; null when nothing is due (disposed,
+ * empty, or every ingredient at its made concentration, as in a stock or paste that is only drawn from).
+ */
 export function suggestTopUp(batch: LedgerBatch, s: LedgerState): TopUpSuggestion | null {
-  if (s.disposed || s.usesSinceTopUp === 0) return null;
-  const n = s.usesSinceTopUp;
+  if (s.disposed || s.remainingMl <= 0 || !(batch.volumeMl > 0)) return null;
+  // Each ingredient of the bath as made, by key, with its made concentration in g/mL.
+  const made = new Map<string, { name: string; refId: number | null; thickener: boolean; perMl: number }>();
+  for (const i of batch.ingredients) {
+    const key = ingredientKey(i);
+    const prev = made.get(key);
+    made.set(key, { name: i.name, refId: i.refId ?? null, thickener: !!i.thickener, perMl: (prev?.perMl ?? 0) + i.grams / batch.volumeMl });
+  }
+  const due = [...made.entries()].some(([key, m]) => !m.thickener && m.perMl > 0 && (s.grams[key] ?? 0) / s.remainingMl < m.perMl * (1 - AT_STRENGTH));
+  if (!due) return null;
+  // Water back to the made volume, never more: a bath above it keeps its volume (no dilution).
+  const volumeAfterMl = Math.max(batch.volumeMl, s.remainingMl);
   return {
-    usesSinceTopUp: n,
-    ingredients: batch.ingredients
-      .filter((i) => !i.thickener)
-      .map((i) => ({ name: i.name, refId: i.refId ?? null, minG: i.grams * TOP_UP_RULE.minFraction * n, maxG: i.grams * TOP_UP_RULE.maxFraction * n })),
-    waterMl: Math.max(0, batch.volumeMl - s.remainingMl),
+    usesSinceTopUp: s.usesSinceTopUp,
+    ingredients: [...made.entries()].map(([key, m]) => ({
+      name: m.name,
+      refId: m.refId,
+      thickener: m.thickener,
+      // Never more than the made strength: an ingredient already at or above it gets nothing.
+      grams: Math.max(0, m.perMl * volumeAfterMl - (s.grams[key] ?? 0)),
+    })),
+    waterMl: volumeAfterMl - s.remainingMl,
+    volumeAfterMl,
     rule: TOP_UP_RULE,
   };
 }

@@ -3,12 +3,9 @@
  * gum so it holds a line under a block or brush. Volumes in millilitres, masses in grams.
  */
 
-/**
- * Guar gum in a print paste: roughly 10–30 g/L depending on the grade and the tool
- * (thinner for brush pencilling, thicker for blocks). Common practice, from memory:
- * check against the supplier's data for the grade in hand.
- */
-export const GUAR_RANGE_G_PER_L = { min: 10, max: 30, source: 'common practice, from memory' } as const;
+import { thickenerRange, type ThickenerRange } from './thickeners.ts';
+
+// The thickener's usual g/L depends on its kind (guar, gum arabic, starch…): shared/compute/thickeners.ts.
 
 /** Volume of stock solution to take: V_stock = c · V / c_stock (c1·V1 = c2·V2). */
 export function stockVolumeMl(targetGPerL: number, finalVolumeMl: number, stockGPerL: number): number {
@@ -23,7 +20,8 @@ export type PasteInput = { finalVolumeMl: number; mordants: PasteMordant[]; thic
 export type PasteMakeUp = {
   finalVolumeMl: number;
   mordants: Array<{ name: string; gPerL: number; grams: number; stockMl: number | null }>;
-  thickener: { name: string; gPerL: number; grams: number; outsideUsualRange: boolean } | null;
+  /** `usualRange` is the range for this kind of thickener (null when the app has none); `outsideUsualRange` false then. */
+  thickener: { name: string; gPerL: number; grams: number; usualRange: ThickenerRange | null; outsideUsualRange: boolean } | null;
   /** Water to add after the stock solutions; solids are weighed in and the paste made up to the final volume. */
   waterMl: number;
 };
@@ -40,12 +38,14 @@ export function pasteMakeUp(input: PasteInput): PasteMakeUp {
   });
   const stockTotal = mordants.reduce((s, m) => s + (m.stockMl ?? 0), 0);
   if (stockTotal > finalVolumeMl) throw new RangeError('The stock solutions alone exceed the paste volume');
+  const range = input.thickener ? thickenerRange(input.thickener.name) : null;
   const thickener = input.thickener
     ? {
         name: input.thickener.name,
         gPerL: input.thickener.gPerL,
         grams: input.thickener.gPerL * litres,
-        outsideUsualRange: input.thickener.gPerL < GUAR_RANGE_G_PER_L.min || input.thickener.gPerL > GUAR_RANGE_G_PER_L.max,
+        usualRange: range,
+        outsideUsualRange: range != null && (input.thickener.gPerL < range.min || input.thickener.gPerL > range.max),
       }
     : null;
   return { finalVolumeMl, mordants, thickener, waterMl: finalVolumeMl - stockTotal };

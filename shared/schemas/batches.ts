@@ -1,7 +1,18 @@
 import { z } from 'zod';
 import '../messages.ts';
 
-export const BATCH_KINDS = ['mordant-bath', 'print-paste', 'dye-bath', 'vat'] as const;
+export const BATCH_KINDS = ['mordant-bath', 'print-paste', 'dye-bath', 'vat', 'stock'] as const;
+export type BatchKindName = (typeof BATCH_KINDS)[number];
+
+/** Kinds that are only drawn from (a use takes volume, not strength): a stock solution and a print paste. */
+export const DRAW_ONLY_KINDS: readonly BatchKindName[] = ['print-paste', 'stock'];
+
+/**
+ * The uptake per reference load applied when the new-batch form leaves it empty: 0 for what is only
+ * drawn from; 10 % for a bath the fibre is worked in (the app's starting estimate, common practice,
+ * recalled from memory; a test strip tells more than the figure).
+ */
+export const UPTAKE_DEFAULTS: Record<BatchKindName, number> = { 'mordant-bath': 0.1, 'dye-bath': 0.1, vat: 0.1, 'print-paste': 0, stock: 0 };
 export const BATCH_STATUSES = ['active', 'exhausted', 'disposed'] as const;
 export const BATCH_EVENT_TYPES = ['use', 'top-up', 'water', 'test-strip', 'ph', 'disposal'] as const;
 
@@ -32,8 +43,9 @@ export const batchCreateSchema = z.object({
   madeOn: isoDate,
   checkBy: isoDate.nullable().default(null),
   parentId: z.number().int().positive().nullable().default(null),
-  // Share of the strength taken by one use: a dyer's estimate, not a measurement.
-  uptakePerUse: fraction.default(0.1),
+  // Share of the strength one reference load of fibre takes (shared/compute/ledger.ts): a dyer's estimate,
+  // not a measurement. Left empty, the batch kind's default applies (UPTAKE_DEFAULTS).
+  uptakePerUse: fraction.nullable().default(null),
   notes: z.string().trim().max(4000).nullable().default(null),
 });
 export type BatchCreateInput = z.infer<typeof batchCreateSchema>;
@@ -44,7 +56,9 @@ export const batchCreateFormSchema = batchCreateSchema.extend({
     .number()
     .min(0, 'Give the uptake per use as a percentage from 0 to 100')
     .max(100, 'Give the uptake per use as a percentage from 0 to 100')
-    .transform((pct) => pct / 100),
+    .nullable()
+    .default(null)
+    .transform((pct) => (pct == null ? null : pct / 100)),
 });
 
 export const batchUpdateSchema = z

@@ -43,7 +43,12 @@ export function computeStep(step: QStep, dryMassG: number, roles: ChemicalRoles)
       pasteProblem = (e as Error).message;
     }
   }
-  return { volumeL: q.volumeL, ingredients: q.ingredients, missing: q.missing, paste, pasteProblem };
+  // A print paste is weighed per litre of paste and printed, not worked on the fibre: its g/L
+  // ingredients are given as g/L of paste and grams for the paste volume, never as % owf.
+  const ingredients = step.operation === 'print-paste'
+    ? q.ingredients.map((x, i) => (step.ingredients[i]?.basis === 'g/L' ? { ...x, percentOwf: null } : x))
+    : q.ingredients;
+  return { volumeL: q.volumeL, ingredients, missing: q.missing, paste, pasteProblem };
 }
 
 /** Grams of one chemical in a step, from the recipe; null when the step does not say enough. */

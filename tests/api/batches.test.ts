@@ -42,16 +42,41 @@ describe('bath ledger through the API', () => {
     const got = (await dyer.get(`/api/batches/${b.id}`).expect(200)).body;
     expect(got).toMatchObject({ remainingMl: 640, uses: 4, fibreMassG: 1200, status: 'active' });
     expect(got.estimatedStrength.estimate).toBe(true);
-    // Top-up rule [CP, FM]: 25–50 % of the original 100 g charge per use since the last top-up (two uses) = 50–100 g,
-    // and water back to the 2000 mL made: 2000 − 640 = 1360 mL.
-    expect(got.topUpSuggestion.items[0]).toMatchObject({ name: 'potash alum', minG: 50, maxG: 100 });
+    // Top-up restores the made strength (mass balance on the ledger estimate): uptake 12 % per load of 100 g
+    // fibre (2000 mL at 1:20 [common practice, recalled from memory]), kept = 0.88^(fibre g / 100) per use:
+    // alum now = 100 × 1840/2000 × 0.88^2.5 × 1440/1840 × 0.88^2.5, + 35, × 1240/1840 × 0.88^3, × 640/1540 × 0.88^4
+    //          = 8.35 g; made 50 g/L × 2000 mL − 8.35 g = 91.65 g, and water back to the 2000 mL made: 1360 mL.
+    expect(got.topUpSuggestion.items).toEqual([{ name: 'potash alum', refId: alumId, thickener: false, grams: 91.65 }]);
     expect(got.topUpSuggestion.waterMl).toBe(1360);
+    expect(got.uptake).toMatchObject({ value: 0.12, referenceLoadG: 100, estimate: true, drawOnly: false });
     expect(got.timeline).toHaveLength(7);
     expect(got.timeline.map((p: { remainingMl: number }) => p.remainingMl)).toEqual([2000, 1840, 1440, 1840, 1240, 1540, 640]);
 
-    const last = await post(b.id, { type: 'use', volumeMl: 640, fibreMassG: 300 });
+    // Following the suggestion brings the estimate back to the bath as made.
+    const topped = await post(b.id, { type: 'top-up', volumeMl: 1360, additions: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 91.65 }] });
+    expect(topped.status).toBe(201);
+    expect(topped.body.batch).toMatchObject({ remainingMl: 2000, estimatedStrength: { value: 1 } });
+    expect((await dyer.get(`/api/batches/${b.id}`).expect(200)).body.topUpSuggestion).toBeNull();
+
+    const last = await post(b.id, { type: 'use', volumeMl: 2000, fibreMassG: 300 });
     expect(last.status).toBe(201);
     expect(last.body.batch).toMatchObject({ remainingMl: 0, uses: 5, status: 'exhausted' });
+  });
+
+  it('gives a stock or print paste left without an uptake 0 (only drawn from: volume falls, strength stays), a bath 10 %', async () => {
+    const mk = (kind: string, suffix: string) => dyer.post('/api/batches').set('Origin', ORIGIN).send({
+      code: `T${tag}-${suffix}`, kind, name: `${kind} ${suffix}`, volumeMl: 1000, madeOn: '2024-05-01',
+      ingredients: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 60 }],
+    });
+    const stock = await mk('stock', 'stk');
+    expect(stock.status).toBe(201);
+    const bath = await mk('mordant-bath', 'dflt');
+    expect((await dyer.get(`/api/batches/${bath.body.id}`)).body.uptakePerUse).toBe(0.1);
+    const got = (await dyer.get(`/api/batches/${stock.body.id}`)).body;
+    expect(got).toMatchObject({ kind: 'stock', uptakePerUse: 0, uptake: { drawOnly: true } });
+    const used = await post(stock.body.id, { type: 'use', volumeMl: 400, fibreMassG: 500 });
+    expect(used.body.batch).toMatchObject({ remainingMl: 600, estimatedStrength: { value: 1 } });
+    expect((await dyer.get(`/api/batches/${stock.body.id}`)).body.topUpSuggestion).toBeNull();
   });
 
   it('refuses a draw larger than what is left and leaves the batch unchanged', async () => {

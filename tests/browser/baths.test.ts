@@ -68,6 +68,21 @@ describe('the bath ledger in Chromium', () => {
     expect(ingredients).toContain('potash alum: 45 g');
     expect(ingredients).toContain('calcium carbonate (chalk): 6 g');
     expect(ingredients).toContain('Water: 3000 mL');
+    // The uptake was left empty: a mordant bath takes 10 % per load, the load being 3000 mL at 1:20 = 150 g fibre.
+    await page.getByText('uptake 10 % per use of 150 g fibre', { exact: false }).waitFor();
+
+    // One load drawn with 1000 mL: 2000 mL left holding 45 × 2/3 × 0.9 = 27 g alum and 6 × 2/3 × 0.9 = 3.6 g chalk.
+    // The top-up brings each back to its made g/L in the made 3000 mL: 45 − 27 = 18 g, 6 − 3.6 = 2.4 g, 1000 mL water.
+    await page.getByRole('tab', { name: 'Draw for a trial' }).click();
+    await page.getByLabel('Volume drawn').fill('1000');
+    await page.getByLabel('Fibre mass').fill('150');
+    await page.getByRole('button', { name: 'Record' }).click();
+    await page.getByRole('status').filter({ hasText: 'recorded' }).waitFor();
+    await page.getByRole('heading', { name: 'Suggested top-up (estimate)' }).waitFor();
+    const topUp = await page.getByRole('region', { name: 'Ingredients' }).textContent();
+    expect(topUp).toContain('potash alum: 18 g');
+    expect(topUp).toContain('calcium carbonate (chalk): 2.4 g');
+    expect(topUp).toContain('Water back to the made volume: 1000 mL');
     await page.close();
   });
 });

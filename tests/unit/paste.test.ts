@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { dilute, GUAR_RANGE_G_PER_L, pasteMakeUp, stockVolumeMl } from '../../shared/compute/paste.ts';
+import { dilute, pasteMakeUp, stockVolumeMl } from '../../shared/compute/paste.ts';
 
 describe('print paste make-up', () => {
   it('takes V_stock = c·V/c_stock from a stock solution (c1V1 = c2V2)', () => {
@@ -19,10 +19,17 @@ describe('print paste make-up', () => {
     expect(p.waterMl).toBeCloseTo(140, 10);
   });
 
-  it('flags a guar loading outside 10–30 g/L (common practice, from memory)', () => {
-    expect(GUAR_RANGE_G_PER_L).toMatchObject({ min: 10, max: 30 });
+  it('flags a loading outside the usual range of the thickener actually in the paste (guar 20–50 g/L, gum arabic 200–500 g/L: dye-facts.json, common practice)', () => {
     const thin = pasteMakeUp({ finalVolumeMl: 500, mordants: [{ name: 'alum', gPerL: 60 }], thickener: { name: 'guar gum', gPerL: 5 } });
     expect(thin.thickener?.outsideUsualRange).toBe(true);
+    expect(thin.thickener?.usualRange).toMatchObject({ kind: 'guar', min: 20, max: 50 });
+    // 300 g/L is right for gum arabic, far too thick for guar.
+    const arabic = (gPerL: number) => pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'gum arabic', gPerL } }).thickener;
+    expect(arabic(300)).toMatchObject({ outsideUsualRange: false, usualRange: { kind: 'gum-arabic' } });
+    expect(arabic(30)?.outsideUsualRange).toBe(true);
+    expect(pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'guar gum', gPerL: 300 } }).thickener?.outsideUsualRange).toBe(true);
+    // A thickener the app has no range for is not flagged.
+    expect(pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'locust bean gum', gPerL: 5 } }).thickener).toMatchObject({ usualRange: null, outsideUsualRange: false });
     expect(thin.mordants[0]).toMatchObject({ grams: 30, stockMl: null });
     expect(thin.waterMl).toBe(500);
   });

@@ -26,6 +26,9 @@ describe('quantities of a stored step', () => {
     expect(c.paste?.mordants[0]).toMatchObject({ grams: 12, stockMl: 160 });
     expect(c.paste?.thickener?.grams).toBeCloseTo(6, 12);
     expect(c.paste?.waterMl).toBeCloseTo(140, 12);
+    // A paste ingredient is g/L of paste and grams for the paste volume, never % owf (it is printed, not worked on the fibre).
+    expect(c.ingredients[0]).toMatchObject({ gPerL: 40, grams: 12, percentOwf: null });
+    expect(c.paste?.thickener).toMatchObject({ usualRange: { kind: 'guar', min: 20, max: 50 }, outsideUsualRange: false });
     const tooStrong = computeStep({ ...paste, paste: { volumeMl: 300, stockGPerL: 20 } }, 250, roles);
     expect(tooStrong.paste).toBeNull();
     expect(tooStrong.pasteProblem).toMatch(/stronger than the stock/);

@@ -1,5 +1,5 @@
 import { Op, type Transaction } from 'sequelize';
-import type { BatchCreateInput, BatchEventInput, BatchUpdateInput } from '../../../shared/schemas/batches.ts';
+import { UPTAKE_DEFAULTS, type BatchCreateInput, type BatchEventInput, type BatchUpdateInput } from '../../../shared/schemas/batches.ts';
 import { conflict, unprocessable } from '../../http/errors.ts';
 import { BatchEvent, Chemical, MordantBatch, Trial, sequelize } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
@@ -27,7 +27,9 @@ export async function createBatch({ actor, transaction, input }: Ctx<BatchCreate
     if (!parent) throw unprocessable('The parent batch does not exist.', { fields: { parentId: ['No such batch'] } });
     if (parent.status === 'disposed') throw conflict(`${parent.code} has been disposed of; a dilution cannot be made from it.`);
   }
-  return MordantBatch.create({ ...input, madeById: actor.id, status: 'active' }, { transaction });
+  // An uptake left empty takes the kind's default (0 for a stock or paste that is only drawn from).
+  const uptakePerUse = input.uptakePerUse ?? UPTAKE_DEFAULTS[input.kind];
+  return MordantBatch.create({ ...input, uptakePerUse, madeById: actor.id, status: 'active' }, { transaction });
 }
 
 export async function updateBatch({ transaction, input, batch }: Ctx<BatchUpdateInput> & { batch: MordantBatch }) {

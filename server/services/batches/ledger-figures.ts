@@ -1,7 +1,7 @@
-import { computeLedger, LedgerError, tryEvent, type LedgerBatch, type LedgerEvent } from '../../../shared/compute/ledger.ts';
+import { computeLedger, LedgerError, referenceLoadG, tryEvent, type LedgerBatch, type LedgerEvent } from '../../../shared/compute/ledger.ts';
 import { HttpError } from '../../http/errors.ts';
 import type { BatchEvent, MordantBatch } from '../../models/index.ts';
-import type { BatchEventInput } from '../../../shared/schemas/batches.ts';
+import { DRAW_ONLY_KINDS, type BatchEventInput } from '../../../shared/schemas/batches.ts';
 
 /** Maps stored batches and events onto the shared ledger (shared/compute/ledger.ts), which does all the arithmetic. */
 export function ledgerBatch(b: MordantBatch, thickenerIds: ReadonlySet<number>): LedgerBatch {
@@ -9,6 +9,7 @@ export function ledgerBatch(b: MordantBatch, thickenerIds: ReadonlySet<number>):
     volumeMl: b.volumeMl,
     ingredients: b.ingredients.map((i) => ({ name: i.name, grams: i.grams, refId: i.refId, thickener: i.kind === 'chemical' && thickenerIds.has(i.refId) })),
     uptakePerUse: b.uptakePerUse,
+    drawOnly: DRAW_ONLY_KINDS.includes(b.kind),
     status: b.status,
   };
 }
@@ -54,7 +55,8 @@ export function figures(b: MordantBatch, events: BatchEvent[], thickenerIds: Rea
     fibreMassG: r(s.fibreMassG),
     estimatedStrength: r(s.strength, 3),
     exhaustedEstimate: ledger.exhaustedEstimate,
-    topUp: ledger.topUp ? { ...ledger.topUp, ingredients: ledger.topUp.ingredients.map((i) => ({ ...i, minG: r(i.minG), maxG: r(i.maxG) })), waterMl: r(ledger.topUp.waterMl) } : null,
+    topUp: ledger.topUp ? { ...ledger.topUp, ingredients: ledger.topUp.ingredients.map((i) => ({ ...i, grams: r(i.grams, 2) })), waterMl: r(ledger.topUp.waterMl), volumeAfterMl: r(ledger.topUp.volumeAfterMl) } : null,
+    referenceLoadG: r(referenceLoadG(ledgerBatch(b, thickenerIds))),
     testStrip: ledger.testStrip,
     timeline: ledger.timeline.map((p, i) => ({
       eventId: i === 0 ? null : events[i - 1].id,

@@ -31,7 +31,7 @@ export function BathPage() {
         <Figure label="Remaining" value={`${b.remainingMl} mL`} note={`of ${b.volumeMl} mL made`} />
         <Figure label="Uses" value={String(b.uses)} />
         <Figure label="Fibre treated" value={`${b.fibreMassG} g`} />
-        <Figure label="Strength (estimate)" value={`${Math.round(b.estimatedStrength.value * 100)} %`} note={`uptake ${Math.round(b.uptakePerUse * 100)} % per use, an estimate`} />
+        <Figure label="Strength (estimate)" value={`${Math.round(b.estimatedStrength.value * 100)} %`} note={b.uptake.drawOnly ? 'only drawn from: uses take volume, not strength' : `uptake ${Math.round(b.uptake.value * 100)} % per use of ${b.uptake.referenceLoadG} g fibre (scaled by the fibre mass), an estimate`} />
       </dl>
       {b.dueForCheck ? <p role="status" className="mb-4 rounded-md bg-warn-tint px-3 py-2 text-sm text-warn">Due for a check since {b.checkBy}.</p> : null}
       {b.testStripPrompt && b.status === 'active' ? <p role="status" className="mb-4 rounded-md bg-warn-tint px-3 py-2 text-sm text-warn">{b.testStripPrompt}</p> : null}
@@ -50,10 +50,10 @@ export function BathPage() {
           ) : null}
           {b.topUpSuggestion && b.status === 'active' ? (
             <div className="mt-4">
-              <h3 className="font-semibold">Suggested top-up</h3>
+              <h3 className="font-semibold">Suggested top-up (estimate)</h3>
               <ul className="text-sm num">
-                {b.topUpSuggestion.items.map((t) => <li key={t.name}>{t.name}: {t.minG}–{t.maxG} g</li>)}
-                <li>Water back to the made volume: {b.topUpSuggestion.waterMl} mL</li>
+                {b.topUpSuggestion.items.map((t) => <li key={`${t.refId}${t.name}`}>{t.name}: {t.grams} g</li>)}
+                <li>{b.topUpSuggestion.waterMl > 0 ? `Water back to the made volume: ${b.topUpSuggestion.waterMl} mL` : `No water: the bath holds ${b.topUpSuggestion.volumeAfterMl} mL, at or above the made volume`}</li>
               </ul>
               <p className="text-xs text-ink-faint">{b.topUpSuggestion.rule}</p>
             </div>

@@ -56,7 +56,7 @@ export function BathsPage() {
           </label>
           <label className="text-sm">Kind{' '}
             <select className="ml-1 rounded-md border border-rule-strong bg-sheet px-2 py-1" value={kind} onChange={(e) => setKind(e.target.value)}>
-              <option value="">any</option><option value="mordant-bath">mordant bath</option><option value="print-paste">print paste</option><option value="dye-bath">dye bath</option><option value="vat">vat</option>
+              <option value="">any</option><option value="mordant-bath">mordant bath</option><option value="print-paste">print paste</option><option value="dye-bath">dye bath</option><option value="vat">vat</option><option value="stock">stock</option>
             </select>
           </label>
         </div>

@@ -26,7 +26,7 @@ export function NewBathForm({ onDone }: { onDone: () => void }) {
     const raw = {
       code: f.get('code'), kind: f.get('kind'), name: f.get('name'), volumeMl: num(f.get('volumeMl')), madeOn: f.get('madeOn'),
       checkBy: f.get('checkBy') || null, thickenerGPerL: num(f.get('thickenerGPerL')) ?? null, ph: num(f.get('ph')) ?? null,
-      ingredients: ingredientsFrom(rows), uptakePerUse: num(f.get('uptakePerUse')) ?? 10, parentId: num(f.get('parentId')) ?? null, notes: f.get('notes') || null,
+      ingredients: ingredientsFrom(rows), uptakePerUse: num(f.get('uptakePerUse')) ?? null, parentId: num(f.get('parentId')) ?? null, notes: f.get('notes') || null,
     };
     const data = check(batchCreateFormSchema, raw);
     if (!data) return;
@@ -48,7 +48,7 @@ export function NewBathForm({ onDone }: { onDone: () => void }) {
       <Field label="Check by" name="checkBy" type="date" error={errors.checkBy} hint="Print pastes spoil within days [common practice]" />
       <Field label="Thickener" unit="g/L" name="thickenerGPerL" type="number" step="any" min="0" error={errors.thickenerGPerL} />
       <Field label="pH" name="ph" type="number" step="0.1" min="0" max="14" error={errors.ph} />
-      <Field label="Uptake per use (estimate)" unit="%" name="uptakePerUse" type="number" step="any" min="0" max="100" defaultValue={10} error={errors.uptakePerUse} hint="A percentage from 0 to 100: the share of strength one use takes." />
+      <Field label="Uptake per use (estimate)" unit="%" name="uptakePerUse" type="number" step="any" min="0" max="100" placeholder="by kind" error={errors.uptakePerUse} hint="A percentage: the share of strength one use of a standard load takes (the made volume at 1:20, e.g. 100 g fibre for 2 L), scaled by the fibre mass of each use. Empty: 10 % for a bath, 0 for a stock or print paste, which are only drawn from." />
       <Select label="Dilution of" name="parentId" options={[{ value: '', label: '— none —' }, ...(parents.data?.items ?? []).map((p) => ({ value: String(p.id), label: `${p.code} · ${p.name}` }))]} error={errors.parentId} />
       <IngredientRows rows={rows} onChange={setRows} errors={errors} />
       <Field label="Notes" name="notes" className="sm:col-span-2" error={errors.notes} />

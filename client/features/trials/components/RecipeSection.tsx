@@ -29,7 +29,9 @@ function PasteMakeUp({ c }: { c: StepComputed }) {
         {p.thickener ? (
           <li>
             {p.thickener.name}: <Qty value={p.thickener.gPerL} unit="g/L" /> → <Qty value={p.thickener.grams} unit="g" decimals={2} />
-            {p.thickener.outsideUsualRange ? <span className="ml-2 text-warn">outside the usual 10–30 g/L (common practice)</span> : null}
+            {p.thickener.outsideUsualRange && p.thickener.usualRange ? (
+              <span className="ml-2 text-warn">outside the usual {p.thickener.usualRange.min}–{p.thickener.usualRange.max} g/L for {p.thickener.usualRange.label} ({p.thickener.usualRange.source})</span>
+            ) : null}
           </li>
         ) : null}
         <li>Water to make up: <Qty value={p.waterMl} unit="mL" decimals={0} /></li>
@@ -64,7 +66,7 @@ function StepRow({ step, computed, modern }: { step: Step; computed: StepCompute
           <td className="px-3 py-1.5 max-md:col-span-2 max-md:p-0">{ing.name}<span className="ml-1 text-xs text-ink-faint">{ing.kind}</span></td>
           <td className={QTY_CELL} data-label="Amount"><Qty value={ing.amount} unit={basisLabels[ing.basis as keyof typeof basisLabels]} decimals={ing.basis === 'g' ? 2 : 1} /></td>
           <td className={QTY_CELL} data-label="Grams"><Qty value={computed.ingredients[i]?.grams} unit="g" decimals={2} /></td>
-          <td className={QTY_CELL} data-label="Bath"><Qty value={computed.ingredients[i]?.gPerL} unit="g/L" decimals={2} /></td>
+          <td className={QTY_CELL} data-label={step.operation === 'print-paste' ? 'Paste' : 'Bath'}><Qty value={computed.ingredients[i]?.gPerL} unit={step.operation === 'print-paste' ? 'g/L of paste' : 'g/L'} decimals={2} /></td>
           <td className={QTY_CELL} data-label="On fibre"><Qty value={computed.ingredients[i]?.percentOwf} unit="% owf" /></td>
         </tr>
       ))}
