@@ -1,4 +1,5 @@
 import { DISPOSAL_NOTICE, DRAW_ONLY_KINDS } from '../../shared/schemas/batches.ts';
+import { madeByReaction } from '../../shared/compute/stoichiometry.ts';
 import type { ChemicalView } from '../../shared/schemas/reference.ts';
 import type { BatchEvent, MordantBatch } from '../models/index.ts';
 import type { Figures } from '../services/batches/ledger-figures.ts';
@@ -25,11 +26,12 @@ export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], 
   return {
     ...presentBatchSummary(b, f),
     ingredients: b.ingredients, thickenerGPerL: b.thickenerGPerL, ph: b.ph, uptakePerUse: b.uptakePerUse, notes: b.notes,
+    made: made(b, f.estimatedStrength),
     uptake: DRAW_ONLY_KINDS.includes(b.kind)
       ? { value: 0, referenceLoadG: null, estimate: true, drawOnly: true, basis: 'only drawn from: a use takes volume, not strength' }
       : {
           value: b.uptakePerUse, referenceLoadG: f.referenceLoadG, estimate: true, drawOnly: false,
-          basis: `share of the bath's mordant one load of ${f.referenceLoadG} g fibre takes up (the made volume at 1:20), scaled by the fibre mass of each use; a use without a fibre mass counts as one load; an estimate, not a measurement`,
+          basis: `share of the bath's mordant one load of ${f.referenceLoadG} g fibre takes up (the made volume at 1:20), scaled by the fibre mass of each use; a use without a fibre mass is liquor drawn off and takes none; an estimate, not a measurement`,
         },
     topUpSuggestion: f.topUp
       ? {
@@ -43,6 +45,24 @@ export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], 
     cautions: extra.cautions, parent: extra.parent, children: extra.children,
     disposalNotice: DISPOSAL_NOTICE,
     abilities: extra.abilities,
+  };
+}
+
+const r2 = (x: number) => Math.round(x * 100) / 100;
+
+/** A bath made by reaction in the pot: what its charge makes (computed, not the total weighed in), and now by the ledger's estimate. */
+function made(b: MordantBatch, strength: number) {
+  const m = madeByReaction(b.ingredients, b.volumeMl);
+  if (!m) return null;
+  return {
+    reaction: m.reaction,
+    active: { name: m.active.name, formula: m.active.formula, grams: r2(m.active.grams), gPerL: r2(m.active.gPerL), nowGPerL: { value: r2(m.active.gPerL * strength), estimate: true } },
+    metal: m.metal ? { symbol: m.metal.symbol, gPerL: r2(m.metal.gPerL) } : null,
+    limiting: m.limiting,
+    excess: m.excess.map((x) => ({ name: x.name, grams: r2(x.grams) })),
+    byProducts: m.byProducts.map((x) => ({ name: x.name, grams: r2(x.grams), fate: x.fate })),
+    note: m.note,
+    source: m.source,
   };
 }
 

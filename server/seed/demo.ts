@@ -5,6 +5,7 @@ import { ROOT_DIR } from '../env.ts';
 import { BatchEvent, Chemical, ColourMeasurement, Dyestuff, MordantBatch, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
 import type { Ingredient, Operation } from '../models/trials.ts';
 import { bathProduct, matchingReactant, REACTIONS } from '../../shared/compute/stoichiometry.ts';
+import { computeLedger, type LedgerEvent } from '../../shared/compute/ledger.ts';
 import { makePiece, makeUser, type PieceInput } from './factories.ts';
 import { seedDemoPhotos } from './demo-photos.ts';
 
@@ -222,16 +223,28 @@ export async function seedDemo(t: Transaction) {
 
   // Events on the batches, in order. Liquor drawn off for a paste or a child batch is a use without fibre: it
   // takes volume, not strength. MB-07 is drawn from, used to mordant cloth, topped up twice, then used up.
-  await ev(mb07.id, 'use', '2024-03-11', { volumeMl: mb08FromMb07Ml, notes: 'Drawn to make MB-08.' });
-  await ev(mb07.id, 'use', '2024-03-12', { volumeMl: redDrawMl, trialId: t1.id, stepId: drawStep['MB-07'], notes: 'Drawn for the red paste of T-2024-001.' });
-  await ev(mb07.id, 'use', '2024-03-14', { volumeMl: 400, fibreMassG: 250, notes: 'Cotton padded through the liquor.' });
-  await ev(mb07.id, 'top-up', '2024-03-15', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 35 }, { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 17.5 }], volumeMl: 825 });
-  await ev(mb07.id, 'use', '2024-03-20', { volumeMl: 600, fibreMassG: 300 });
-  await ev(mb07.id, 'test-strip', '2024-03-21', { result: 'strip dyed a full red: bath still strong' });
-  await ev(mb07.id, 'top-up', '2024-03-22', { additions: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 20 }, { kind: 'chemical', refId: caAcetate.id, name: caAcetate.name, grams: 10 }], volumeMl: 600 });
-  await ev(mb07.id, 'use', '2024-04-02', { volumeMl: 900, fibreMassG: 400 });
-  await ev(mb07.id, 'use', '2024-04-10', { volumeMl: 1100, fibreMassG: 350, notes: 'The last of the liquor.' });
-  await ev(mb07.id, 'test-strip', '2024-04-11', { result: 'strip pale pink only: bath exhausted' });
+  // The dyer topped up as the ledger suggested (weighed to the half gram): replay MB-07's history so far.
+  const mb07History: LedgerEvent[] = [];
+  const mb07Ev = async (type: BatchEvent['type'], d: string, extra: Partial<BatchEvent['_creationAttributes']>) => {
+    mb07History.push({ type, volumeMl: extra.volumeMl ?? 0, fibreMassG: extra.fibreMassG ?? null, additions: extra.additions ?? null, result: extra.result ?? null } as LedgerEvent);
+    return ev(mb07.id, type, d, extra);
+  };
+  const asSuggested = (d: string) => {
+    const ledger = computeLedger({ volumeMl: mb07.volumeMl, ingredients: mb07.ingredients, uptakePerUse: mb07.uptakePerUse }, mb07History);
+    const t = ledger.topUp!;
+    const additions = t.ingredients.filter((i) => i.grams > 0).map((i) => ({ kind: 'chemical' as const, refId: i.refId!, name: i.name, grams: Math.round(i.grams * 2) / 2 }));
+    return mb07Ev('top-up', d, { additions, volumeMl: Math.round(t.waterMl), notes: 'As the ledger suggested: back to the strength and volume as made.' });
+  };
+  await mb07Ev('use', '2024-03-11', { volumeMl: mb08FromMb07Ml, notes: 'Drawn to make MB-08.' });
+  await mb07Ev('use', '2024-03-12', { volumeMl: redDrawMl, trialId: t1.id, stepId: drawStep['MB-07'], notes: 'Drawn for the red paste of T-2024-001.' });
+  await mb07Ev('use', '2024-03-14', { volumeMl: 400, fibreMassG: 250, notes: 'Cotton padded through the liquor.' });
+  await asSuggested('2024-03-15');
+  await mb07Ev('use', '2024-03-20', { volumeMl: 600, fibreMassG: 300 });
+  await mb07Ev('test-strip', '2024-03-21', { result: 'strip dyed a full red: bath still strong' });
+  await asSuggested('2024-03-22');
+  await mb07Ev('use', '2024-04-02', { volumeMl: 900, fibreMassG: 400 });
+  await mb07Ev('use', '2024-04-10', { volumeMl: 1100, fibreMassG: 350, notes: 'The last of the liquor.' });
+  await mb07Ev('test-strip', '2024-04-11', { result: 'strip pale pink only: bath exhausted' });
   await ev(mb08.id, 'use', '2024-03-12', { volumeMl: pinkDrawMl, trialId: trials[1].id, stepId: drawStep['MB-08'], notes: 'Drawn for the pink of T-2024-002.' });
   await ev(mb09.id, 'use', '2024-03-13', { volumeMl: 100, trialId: trials[2].id, stepId: drawStep['MB-09'], notes: 'Drawn for the purple paste of T-2024-003.' });
 

@@ -11,7 +11,7 @@ export type LedgerBatch = {
   ingredients: LedgerIngredient[];
   /**
    * Estimated fraction (0–1) of the bath's mordant that one reference load of fibre takes up
-   * (see `referenceLoadG`); a use without a fibre mass counts as one reference load.
+   * (see `referenceLoadG`); a use without a fibre mass is liquor drawn off (for a paste or a child batch) and takes none.
    */
   uptakePerUse: number;
   /** A stock or print paste that is only drawn from: a use takes volume, never strength (the uptake is ignored). */
@@ -52,13 +52,14 @@ export const referenceLoadG = (batch: Pick<LedgerBatch, 'volumeMl'>) => batch.vo
 /**
  * Fraction of the mordant that stays in the bath after one use. The uptake compounds with the fibre
  * mass: kept = (1 − u)^(m / m_ref), so two half loads take up what one full load does. A use without a
- * fibre mass counts as one reference load; a draw-only stock or paste keeps everything (1).
+ * fibre mass is liquor drawn off for a paste or a child batch: no fibre went in, so nothing is taken up (1);
+ * a draw-only stock or paste keeps everything (1) whatever the fibre.
  */
 export function keptFraction(batch: LedgerBatch, fibreMassG?: number | null): number {
   if (batch.drawOnly) return 1;
   const u = Math.min(Math.max(batch.uptakePerUse, 0), 1);
   if (u === 0) return 1;
-  const loads = fibreMassG != null && fibreMassG > 0 ? fibreMassG / referenceLoadG(batch) : 1;
+  const loads = fibreMassG != null && fibreMassG > 0 ? fibreMassG / referenceLoadG(batch) : 0;
   return u === 1 ? 0 : (1 - u) ** loads;
 }
 

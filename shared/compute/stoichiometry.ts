@@ -1,3 +1,4 @@
+import { ATOMIC_WEIGHTS as ATOMIC_MASS } from '../data/atomic-weights.ts';
 import { molarMass, parseFormula, type Composition } from './chemistry.ts';
 
 /**
@@ -144,4 +145,37 @@ export function matchingReactant(r: Reaction, from: string, grams: number): Arra
   if (!base) throw new RangeError(`${from} is not a reactant of ${r.name}`);
   const extent = grams / molarMass(base.formula) / base.coefficient;
   return r.reactants.filter((s) => s !== base).map((s) => ({ name: s.name, grams: extent * s.coefficient * molarMass(s.formula) }));
+}
+
+export type MadeByReaction = {
+  reaction: string;
+  active: { name: string; formula: string; grams: number; gPerL: number };
+  /** The mordant metal the active product carries, per litre of liquor as made. */
+  metal: { symbol: string; gPerL: number } | null;
+  limiting: string;
+  excess: Array<{ name: string; grams: number }>;
+  byProducts: Array<{ name: string; grams: number; fate: ProductSpecies['fate'] }>;
+  note: string;
+  source: string;
+};
+
+const MORDANT_METALS = ['Al', 'Fe', 'Cu', 'Sn', 'Cr', 'Pb'];
+
+/** What a reacting bath makes, for display: the active product's grams and g/L, its metal, the by-products. */
+export function madeByReaction(ingredients: ReadonlyArray<{ name: string; grams: number }>, volumeMl: number): MadeByReaction | null {
+  const p = bathProduct(ingredients, volumeMl);
+  if (!p) return null;
+  const comp = parseFormula(p.active.formula);
+  const metal = MORDANT_METALS.find((m) => comp[m]);
+  const metalGPerL = metal ? (p.activeGPerL * comp[metal] * (ATOMIC_MASS[metal] ?? 0)) / molarMass(p.active.formula) : 0;
+  return {
+    reaction: p.reaction.name,
+    active: { name: p.active.name, formula: p.active.formula, grams: p.active.grams, gPerL: p.activeGPerL },
+    metal: metal ? { symbol: metal, gPerL: metalGPerL } : null,
+    limiting: p.limiting,
+    excess: p.excess,
+    byProducts: p.products.filter((x) => !x.active).map((x) => ({ name: x.name, grams: x.grams, fate: x.fate })),
+    note: p.reaction.note,
+    source: p.reaction.source,
+  };
 }

@@ -120,6 +120,10 @@ describe('bath ledger through the API', () => {
     expect(due.items.every((x: { dueForCheck: boolean }) => x.dueForCheck)).toBe(true);
     const exhausted = (await dyer.get('/api/batches?status=exhausted&pageSize=100').expect(200)).body;
     expect(exhausted.items.find((x: { code: string }) => x.code === 'MB-07')).toMatchObject({ remainingMl: 0, uses: 6, status: 'exhausted' });
+    // MB-07's strength is what 100 g alum and 50 g calcium acetate make (tests/unit/stoichiometry.test.ts), not 75 g/L.
+    const mb07 = (await dyer.get(`/api/batches/${exhausted.items.find((x: { code: string }) => x.code === 'MB-07').id}`).expect(200)).body;
+    expect(mb07.made).toMatchObject({ limiting: 'calcium acetate', active: { name: 'aluminium acetate (basic)', gPerL: 17.08 }, metal: { symbol: 'Al', gPerL: 2.84 } });
+    expect(mb07.made.byProducts).toContainEqual(expect.objectContaining({ name: 'calcium sulfate (gypsum)', fate: 'precipitate' }));
   });
 
   it('keeps the role rules: visitors 401, curators may read but not draw, a dyer may not edit another dyer’s batch', async () => {

@@ -140,8 +140,8 @@ describe('sample cards and labels', () => {
     expect(pdf.text).toContain('madder 60 % owf = 150 g');
     expect(pdf.text).toContain('liquor 1:30');
     expect(pdf.text).toContain('250 g dry mass');
-    // Its print paste in g/L of paste and grams for the paste volume (40 g/L × 0.3 L = 12 g), never % owf.
-    expect(pdf.text.replace(/\s+/g, ' ')).toMatch(/aluminium acetate \(basic\) 40 g\/L of paste = 12 g in 300 mL/);
+    // Its print paste in g/L of paste and grams for the paste volume (17.1 g/L × 0.3 L = 5.13 g), never % owf.
+    expect(pdf.text.replace(/\s+/g, ' ')).toMatch(/aluminium acetate \(basic\) 17.1 g\/L of paste = 5.13 g in 300 mL/);
   });
 
   it('series cards, series labels and batch labels download for staff and not for visitors', async () => {

@@ -67,7 +67,7 @@ describe('the bath ledger in Chromium', () => {
     const ingredients = await page.getByRole('region', { name: 'Ingredients' }).textContent();
     expect(ingredients).toContain('potash alum: 45 g');
     expect(ingredients).toContain('calcium carbonate (chalk): 6 g');
-    expect(ingredients).toContain('Water: 3000 mL');
+    expect(ingredients).toContain('Made up to 3000 mL with water');
     // The uptake was left empty: a mordant bath takes 10 % per load, the load being 3000 mL at 1:20 = 150 g fibre.
     await page.getByText('uptake 10 % per use of 150 g fibre', { exact: false }).waitFor();
 

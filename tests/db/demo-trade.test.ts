@@ -51,6 +51,21 @@ describe('demo batches', () => {
   });
 });
 
+describe('demo top-ups', () => {
+  it("MB-07 was topped up as its own ledger suggested: each ingredient's deficit to the made g/L (to the half gram), water back to 2000 mL", async () => {
+    const b = await batch('MB-07');
+    const events = (await seededEvents(b.id)).map((e) => e.get({ plain: true }));
+    const topUps = events.flatMap((e, i) => (e.type === 'top-up' ? [i] : []));
+    expect(topUps).toHaveLength(2);
+    for (const i of topUps) {
+      const before = computeLedger({ volumeMl: b.volumeMl, ingredients: b.ingredients, uptakePerUse: b.uptakePerUse }, events.slice(0, i) as never[]);
+      const t = before.topUp!;
+      for (const a of events[i].additions!) expect(Math.abs(a.grams - t.ingredients.find((x) => x.name === a.name)!.grams), a.name).toBeLessThanOrEqual(0.25);
+      expect(events[i].volumeMl! + before.state.remainingMl).toBeCloseTo(2000, 0);
+    }
+  });
+});
+
 describe('demo trials', () => {
   it('each paste drawn from a bath draws exactly the stock its g/L needs (c1·V1 = c2·V2)', async () => {
     for (const code of ['T-2024-001', 'T-2024-002', 'T-2024-003']) {

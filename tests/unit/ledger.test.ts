@@ -36,22 +36,22 @@ const asEvent = (t: TopUpSuggestion): LedgerEvent => ({
 describe('bath ledger arithmetic (worked reuse history, common practice)', () => {
   it('tracks remaining volume, uses, fibre treated and estimated strength event by event', () => {
     const l = computeLedger(batch, history);
-    // Hand arithmetic: charge 150 g in 2000 mL = 75 g/L; one reference load (100 g fibre, or a use
-    // without a fibre mass) keeps 0.8 of what stays after the draw.
+    // Hand arithmetic: charge 150 g in 2000 mL = 75 g/L; one reference load (100 g fibre) keeps 0.8
+    // of what stays after the draw; a use without a fibre mass is liquor drawn off and keeps it all.
     // use 500 (100 g): 1500 mL, 150 × 1500/2000 × 0.8 = 90 g (60 g/L, strength 0.8)
     // use 500 (100 g): 1000 mL, 90 × 1000/1500 × 0.8 = 48 g (48 g/L, strength 0.64)
     // top-up +75 g +1000 mL: 2000 mL, 123 g (61.5 g/L, strength 0.82)
-    // use 1000 (no fibre mass): 1000 mL, 123 × 0.5 × 0.8 = 49.2 g (49.2 g/L, strength 0.656)
-    // top-up +25 g +500 mL: 1500 mL, 74.2 g (49.4667 g/L, strength 0.659556)
+    // use 1000 (no fibre mass, drawn off): 1000 mL, 123 × 0.5 = 61.5 g (61.5 g/L, strength 0.82)
+    // top-up +25 g +500 mL: 1500 mL, 86.5 g (57.6667 g/L, strength 0.768889)
     // use 1500: 0 mL, exhausted
     const expected = [
       [2000, 1],
       [1500, 0.8],
       [1000, 0.64],
       [2000, 0.82],
-      [1000, 0.656],
-      [1000, 0.656],
-      [1500, 74.2 / 1500 / 0.075],
+      [1000, 0.82],
+      [1000, 0.82],
+      [1500, 86.5 / 1500 / 0.075],
       [0, 0],
     ];
     expect(l.timeline).toHaveLength(expected.length);
@@ -129,11 +129,11 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
   it('scales the uptake with the fibre mass treated, against the reference load the made volume serves at 1:20 (common practice, recalled from memory)', () => {
     expect(REFERENCE_LIQUOR_RATIO.ratio).toBe(20);
     expect(referenceLoadG(batch)).toBe(100);
-    // kept = (1 − u)^(m / m_ref): one load 0.8, two loads 0.64, half a load √0.8, no fibre mass one load.
+    // kept = (1 − u)^(m / m_ref): one load 0.8, two loads 0.64, half a load √0.8; no fibre mass: drawn off, all kept.
     expect(keptFraction(batch, 100)).toBeCloseTo(0.8, 12);
     expect(keptFraction(batch, 200)).toBeCloseTo(0.64, 12);
     expect(keptFraction(batch, 50)).toBeCloseTo(Math.sqrt(0.8), 12);
-    expect(keptFraction(batch, null)).toBeCloseTo(0.8, 12);
+    expect(keptFraction(batch, null)).toBe(1);
     // One use of 200 g takes up what two uses of 100 g do (the draws themselves do not change strength).
     const one = computeLedger(batch, [{ type: 'use', volumeMl: 100, fibreMassG: 200 }]).state.strength;
     const two = computeLedger(batch, [{ type: 'use', volumeMl: 50, fibreMassG: 100 }, { type: 'use', volumeMl: 50, fibreMassG: 100 }]).state.strength;

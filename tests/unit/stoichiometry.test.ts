@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import atomicWeights from '../reference/atomic-weights.json' with { type: 'json' };
-import { bathProduct, imbalance, matchingReactant, REACTIONS, reactionYield } from '../../shared/compute/stoichiometry.ts';
+import { bathProduct, imbalance, madeByReaction, matchingReactant, REACTIONS, reactionYield } from '../../shared/compute/stoichiometry.ts';
 
 // Molar masses worked by hand here from the IUPAC 2021 abridged atomic weights
 // (Prohaska et al. 2022, tests/reference/atomic-weights.json), independently of the formula parser.
@@ -52,5 +52,13 @@ describe('reactions in the pot', () => {
 
   it('a bath whose chemicals only dissolve makes nothing', () => {
     expect(bathProduct([{ name: 'potash alum', grams: 100 }], 2000)).toBeNull();
+    expect(madeByReaction([{ name: 'potash alum', grams: 100 }], 2000)).toBeNull();
+  });
+
+  it('reports the aluminium the liquor carries: 2.84 g Al/L for MB-07 (by hand from IUPAC 2021 masses)', () => {
+    const m = madeByReaction([{ name: 'potash alum', grams: 100 }, { name: 'calcium acetate', grams: 50 }], 2000)!;
+    const alMol = ((50 / M.caAcetate) * 2) / 3;
+    expect(m.metal).toEqual({ symbol: 'Al', gPerL: expect.closeTo((alMol * w.Al * 1000) / 2000, 9) });
+    expect(m.byProducts.map((x) => x.name)).toContain('calcium sulfate (gypsum)');
   });
 });

@@ -40,10 +40,24 @@ export function BathPage() {
           <h2 id="ingr" className="text-xl font-semibold mb-2">Ingredients</h2>
           <ul className="text-sm num">
             {b.ingredients.map((i) => <li key={`${i.kind}${i.refId}`}>{i.name}: {i.grams} g</li>)}
-            <li>Water: {b.volumeMl} mL</li>
+            <li>Made up to {b.volumeMl} mL with water</li>
             {b.thickenerGPerL != null ? <li>Thickener: {b.thickenerGPerL} g/L</li> : null}
             {b.ph != null ? <li>pH: {b.ph}</li> : null}
           </ul>
+          {b.made ? (
+            <div className="mt-3 text-sm" data-testid="bath-made">
+              <h3 className="font-semibold">What this charge makes</h3>
+              <p className="num">
+                {b.made.active.grams} g {b.made.active.name} ({b.made.active.formula}): {b.made.active.gPerL} g/L as made
+                {b.made.metal ? `, ${b.made.metal.gPerL} g ${b.made.metal.symbol}/L` : ''}; now about {b.made.active.nowGPerL.value} g/L (estimate).
+              </p>
+              <p className="num">
+                {b.made.limiting} runs out first{b.made.excess.length ? `; left over: ${b.made.excess.map((x) => `${x.grams} g ${x.name}`).join(', ')}` : ''}.
+                {' '}Settles out: {b.made.byProducts.filter((x) => x.fate === 'precipitate').map((x) => `${x.grams} g ${x.name}`).join(', ') || 'nothing'}.
+              </p>
+              <p className="text-xs text-ink-faint">{b.made.reaction}. {b.made.note} Source: {b.made.source}.</p>
+            </div>
+          ) : null}
           {b.parent ? <p className="mt-2 text-sm">Dilution of <Link className="text-action underline" to={paths.bath(b.parent.id)}>{b.parent.code}</Link></p> : null}
           {b.children.length ? (
             <p className="mt-2 text-sm">Dilutions: {b.children.map((c) => <Link key={c.id} className="text-action underline mr-2" to={paths.bath(c.id)}>{c.code}</Link>)}</p>
