@@ -49,7 +49,8 @@ export function BathPage() {
               <h3 className="font-semibold">What this charge makes</h3>
               <p className="num">
                 {b.made.active.grams} g {b.made.active.name} ({b.made.active.formula}): {b.made.active.gPerL} g/L as made
-                {b.made.metal ? `, ${b.made.metal.gPerL} g ${b.made.metal.symbol}/L` : ''}; now about {b.made.active.nowGPerL.value} g/L (estimate).
+                {b.made.metal ? `, ${b.made.metal.gPerL} g ${b.made.metal.symbol}/L` : ''}
+                {b.remainingMl > 0 ? `; now about ${b.made.active.nowGPerL.value} g/L (estimate).` : '; none left now.'}
               </p>
               <p className="num">
                 {b.made.limiting} runs out first{b.made.excess.length ? `; left over: ${b.made.excess.map((x) => `${x.grams} g ${x.name}`).join(', ')}` : ''}.
