@@ -30,7 +30,7 @@ export const SIGNAL_WORDS = ['Danger', 'Warning'] as const;
 export const HAZARD_BASES = ['harmonised', 'supplier', 'memory'] as const;
 export type HazardBasis = (typeof HAZARD_BASES)[number];
 export const HAZARD_BASIS_LABELS: Record<HazardBasis, string> = {
-  harmonised: 'Harmonised classification (EU CLP Annex VI)',
+  harmonised: 'Harmonised EU classification (CLP)',
   supplier: "Supplier's classification",
   memory: "Recalled from memory — check the supplier's safety data sheet",
 };

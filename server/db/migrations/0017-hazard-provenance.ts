@@ -55,7 +55,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 026-003-00-7, iron(II) sulphate: Acute Tox. 4, Eye Irrit. 2, Skin Irrit. 2 (as recalled; check the current Annex VI)"
+      "to": "Annex VI index 026-003-00-7, iron(II) sulphate: Acute Tox. 4, Eye Irrit. 2, Skin Irrit. 2 (as recalled; check the current Annex VI)"
     }
   },
   {
@@ -71,7 +71,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 082-005-00-8, lead di(acetate): Repr. 1A, Lact., STOT RE 2, Aquatic Acute 1 and Chronic 1 (as recalled; check the current Annex VI)"
+      "to": "Annex VI index 082-005-00-8, lead di(acetate): Repr. 1A, Lact., STOT RE 2, Aquatic Acute 1 and Chronic 1 (as recalled; check the current Annex VI)"
     },
     "hStatements": {
       "from": [
@@ -98,7 +98,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 024-002-00-6, potassium dichromate (as recalled; check the current Annex VI)"
+      "to": "Annex VI index 024-002-00-6, potassium dichromate (as recalled; check the current Annex VI)"
     }
   },
   {
@@ -106,7 +106,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 029-004-00-0, copper sulphate: Acute Tox. 4, Eye Irrit. 2, Skin Irrit. 2, Aquatic Acute 1 and Chronic 1 (as recalled; a later revision may differ)"
+      "to": "Annex VI index 029-004-00-0, copper sulphate: Acute Tox. 4, Eye Irrit. 2, Skin Irrit. 2, Aquatic Acute 1 and Chronic 1 (as recalled; a later revision may differ)"
     }
   },
   {
@@ -138,7 +138,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 011-005-00-2, sodium carbonate: Eye Irrit. 2 (as recalled; check the current Annex VI)"
+      "to": "Annex VI index 011-005-00-2, sodium carbonate: Eye Irrit. 2 (as recalled; check the current Annex VI)"
     }
   },
   {
@@ -146,7 +146,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 607-006-00-8, oxalic acid: Acute Tox. 4 oral and dermal (as recalled); many suppliers add Eye Dam. 1 H318"
+      "to": "Annex VI index 607-006-00-8, oxalic acid: Acute Tox. 4 oral and dermal (as recalled); many suppliers add Eye Dam. 1 H318"
     }
   },
   {
@@ -178,7 +178,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "recalled from memory (typical supplier SDS), verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 011-002-00-6, sodium hydroxide: Skin Corr. 1A (as recalled); suppliers add Met. Corr. 1 H290"
+      "to": "Annex VI index 011-002-00-6, sodium hydroxide: Skin Corr. 1A (as recalled); suppliers add Met. Corr. 1 H290"
     }
   },
   {
@@ -194,7 +194,7 @@ const ROWS: Row[] = [
     "hazardBasis": "harmonised",
     "hazardSource": {
       "from": "recalled from memory (typical supplier SDS), verify against the supplier SDS and the ECHA C&L Inventory",
-      "to": "EU CLP Annex VI index 016-028-00-1, sodium dithionite: Self-heat. 1, Acute Tox. 4, EUH031 (as recalled; check the current Annex VI)"
+      "to": "Annex VI index 016-028-00-1, sodium dithionite: Self-heat. 1, Acute Tox. 4, EUH031 (as recalled; check the current Annex VI)"
     }
   },
   {

@@ -8,7 +8,7 @@ const DEFER = "Defer to the supplier's safety data sheet, local rules and licens
 export function hazardSourceLine(ghs: ChemicalView['ghs']): string | null {
   const basis = ghs.basis ? HAZARD_BASIS_LABELS[ghs.basis] : null;
   if (!basis && !ghs.source) return null;
-  return [basis, ghs.source].filter(Boolean).join(': ');
+  return [basis, ghs.source].filter(Boolean).join(' — ');
 }
 
 /**
