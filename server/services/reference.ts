@@ -1,6 +1,7 @@
 import type { Transaction } from 'sequelize';
 import type { ChemicalCreate, ChemicalPatch, DyestuffCreate } from '../../shared/schemas/reference.ts';
-import { conflict } from '../http/errors.ts';
+import { parseFormula } from '../../shared/compute/chemistry.ts';
+import { badRequest, conflict } from '../http/errors.ts';
 import { AuditEvent, Chemical, Dyestuff } from '../models/index.ts';
 import type { Actor } from '../policies/index.ts';
 import { audit } from './audit.ts';
@@ -33,6 +34,16 @@ export async function createDyestuff({ actor, transaction, input }: { actor: Act
 export async function updateChemical({ actor, transaction, input }: { actor: Actor; transaction: Transaction; input: { chemical: Chemical; patch: ChemicalPatch } }) {
   const { chemical, patch } = input;
   const normalised = { ...patch, ...(patch.formula === '' ? { formula: null } : {}) };
+  // The row as it will be: a metal must occur in its formula (the schema checks this on create, where both come together).
+  const formula = normalised.formula !== undefined ? normalised.formula : chemical.formula;
+  const metal = normalised.metal !== undefined ? normalised.metal : chemical.metal;
+  if (metal && formula && !parseFormula(formula)[metal]) {
+    const message = `The formula has no ${metal}`;
+    throw badRequest(message, { fields: { [normalised.metal !== undefined ? 'metal' : 'formula']: [message] } });
+  }
+  if (normalised.name !== undefined && normalised.name !== chemical.name && (await Chemical.findOne({ where: { name: normalised.name }, transaction }))) {
+    throw conflict(`A chemical named "${normalised.name}" is already in the reference.`, { fields: { name: ['A chemical with this name already exists'] } });
+  }
   const changes: Record<string, { from: unknown; to: unknown }> = {};
   for (const [key, to] of Object.entries(normalised)) {
     const from = chemical.get(key as keyof ChemicalPatch);

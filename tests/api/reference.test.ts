@@ -139,6 +139,13 @@ describe('PATCH /api/chemicals/:id (admin keeps the reference)', () => {
     const res = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ formula: 'KAl(SO4' }).expect(400);
     expect(res.body.error.details.fields).toHaveProperty('formula');
     await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({}).expect(400);
+    const at = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ formula: 'CaSO4.0.5H2O!' }).expect(400);
+    expect(at.body.error.details.fields.formula[0]).toMatch(/^Unexpected "!" at position 13\./);
+    // The row's metal (Pb after the edit above) must occur in a new formula.
+    const metal = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ formula: 'K2Cr2O7' }).expect(400);
+    expect(metal.body.error.details.fields.formula).toEqual(['The formula has no Pb']);
+    const taken = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ name: 'potash alum' }).expect(409);
+    expect(taken.body.error.details.fields.name).toEqual(['A chemical with this name already exists']);
   });
 
   it('answers 401 signed out, 403 for other roles, 403 without the Origin header, 404 for a missing row', async () => {
