@@ -1,3 +1,4 @@
+import type { HazardBasis } from '../../shared/schemas/reference.ts';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 export type Vocabulary = 'fibre' | 'weave' | 'technique';
@@ -40,6 +41,8 @@ export class Chemical extends Model<InferAttributes<Chemical>, InferCreationAttr
   declare caution: string | null;
   declare source: string;
   declare hazardSource: string | null;
+  /** 'harmonised' (EU CLP Annex VI) | 'supplier' | 'memory'; see HAZARD_BASES in shared/schemas/reference.ts. */
+  declare hazardBasis: CreationOptional<HazardBasis | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -86,6 +89,7 @@ export function initReferenceModels(sequelize: Sequelize) {
       caution: DataTypes.TEXT,
       source: { type: DataTypes.STRING(255), allowNull: false },
       hazardSource: DataTypes.STRING(255),
+      hazardBasis: { type: DataTypes.ENUM('harmonised', 'supplier', 'memory'), allowNull: true, defaultValue: null },
       ...stamps(),
     },
     { sequelize, tableName: 'chemicals' },

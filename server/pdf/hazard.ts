@@ -14,11 +14,13 @@ const RULES: Array<[RegExp, GhsCode]> = [
   [/^H(290|314|318)/, 'GHS05'],
   [/^H(300|301|310|311|330|331)/, 'GHS06'],
   [/^H(302|312|315|317|319|332|335|336)/, 'GHS07'],
-  [/^H(334|340|341|350|351|360|361|362|370|371|372|373|304)/, 'GHS08'],
+  // H362 (effects on or via lactation) has no pictogram of its own (UN GHS, Annex 1, reproductive toxicity,
+  // additional category; recalled from memory): a label shows GHS08 only for the other statements.
+  [/^H(334|340|341|350|351|360|361|370|371|372|373|304)/, 'GHS08'],
   [/^H(400|410|411)/, 'GHS09'],
 ];
 
-/** The pictograms the H statements call for, in GHS code order. */
+/** The pictograms the H statements call for, in GHS code order (H400 and H410 both call for GHS09, so the label rule of shared/compute/hazard-label.ts changes none). */
 export function pictogramCodes(hStatements: string[]): GhsCode[] {
   const out = new Set<GhsCode>();
   for (const h of hStatements) for (const code of h.match(/H\d{3}/g) ?? []) for (const [re, ghs] of RULES) if (re.test(code)) out.add(ghs);

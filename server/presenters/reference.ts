@@ -1,4 +1,5 @@
 import { describeChemical } from '../../shared/compute/chemistry.ts';
+import { labelStatements } from '../../shared/compute/hazard-label.ts';
 import { ATOMIC_WEIGHTS_SOURCE } from '../../shared/data/atomic-weights.ts';
 import type { ChemicalView, DyestuffView } from '../../shared/schemas/reference.ts';
 import type { Chemical, Dyestuff } from '../models/index.ts';
@@ -15,7 +16,15 @@ export function presentChemical(c: Chemical): ChemicalView {
     metal: c.metal,
     metalMassFraction,
     status: c.status,
-    ghs: { signalWord: c.signalWord, hStatements: c.hStatements ?? [], ppe: c.ppe, caution: c.caution, source: c.hazardSource },
+    ghs: {
+      signalWord: c.signalWord,
+      hStatements: c.hStatements ?? [],
+      ppe: c.ppe,
+      caution: c.caution,
+      source: c.hazardSource,
+      basis: c.hazardBasis ?? null,
+      labelStatements: labelStatements(c.hStatements ?? []),
+    },
     source: c.source,
     atomicWeightsSource: c.formula ? ATOMIC_WEIGHTS_SOURCE : null,
   };

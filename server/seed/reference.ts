@@ -19,6 +19,8 @@ type ChemicalRow = {
   caution: string;
   source: string;
   hazardSource: string;
+  /** Absent on a row means nobody stated a basis: it is treated as recalled from memory. */
+  hazardBasis?: 'harmonised' | 'supplier' | 'memory';
 };
 
 /** Reference vocabularies from the data files in server/seed/data; idempotent (upsert by name). */
@@ -37,10 +39,10 @@ export async function seedReference(transaction?: Transaction) {
     await Dyestuff.findOrCreate({ where: { name: d.name }, defaults: d, transaction });
   }
   for (const c of dataFile('chemicals.json') as ChemicalRow[]) {
-    const { name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource } = c;
+    const { name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource, hazardBasis } = c;
     await Chemical.findOrCreate({
       where: { name },
-      defaults: { name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource },
+      defaults: { name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource, hazardBasis: hazardBasis ?? 'memory' },
       transaction,
     });
   }

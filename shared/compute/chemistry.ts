@@ -4,73 +4,146 @@ import { ATOMIC_WEIGHTS, HEAVY_METALS } from '../data/atomic-weights.ts';
 export type Composition = Record<string, number>;
 
 export class FormulaError extends Error {
+  /** 1-based position of the fault in the formula as written (what a person counts); null when the whole formula is at fault. */
+  public position: number | null;
+  /** The fault in people's words, with its position, e.g. `Unexpected "x" at position 7`. */
+  public reason: string;
   constructor(
     public formula: string,
     message: string,
+    index: number | null = null,
   ) {
-    super(`${message} in formula "${formula}"`);
+    const reason = index === null ? message : `${message} at position ${index + 1}`;
+    super(`${reason} in formula "${formula}"`);
+    this.position = index === null ? null : index + 1;
+    this.reason = reason;
   }
 }
 
-// The dot of a hydrate may be written ·, •, ∙, * or a plain full stop.
-const HYDRATE_DOT = /[·•∙*.]/;
+// The dot of a hydrate may be written ·, •, ∙, ⋅, * or a plain full stop. A full stop is read as a hydrate
+// dot only where a part ends (after an element, a count or a closing bracket); inside a leading coefficient
+// it is a decimal point, so "CaSO4.0.5H2O" reads as CaSO4 · 0.5 H2O and "Pb(CH3COO)2.3H2O" as Pb(CH3COO)2 · 3 H2O.
+const HYDRATE_DOTS = '·•∙⋅*.';
+
+/** Unicode vulgar fractions allowed as (part of) a hydrate coefficient, e.g. CaSO4·½H2O, 2CaSO4·1½H2O... */
+const VULGAR: Record<string, number> = {
+  '½': 1 / 2, '⅓': 1 / 3, '⅔': 2 / 3, '¼': 1 / 4, '¾': 3 / 4, '⅕': 1 / 5, '⅖': 2 / 5, '⅗': 3 / 5, '⅘': 4 / 5,
+  '⅙': 1 / 6, '⅚': 5 / 6, '⅐': 1 / 7, '⅛': 1 / 8, '⅜': 3 / 8, '⅝': 5 / 8, '⅞': 7 / 8, '⅑': 1 / 9, '⅒': 1 / 10,
+};
 
 function add(into: Composition, from: Composition, times: number) {
   for (const [el, n] of Object.entries(from)) into[el] = (into[el] ?? 0) + n * times;
 }
 
+const show = (ch: string) => (/\s/.test(ch) ? 'space' : `"${ch}"`);
+
 /**
  * Parse a formula with nested ( ) or [ ] groups and hydrate parts:
- * "KAl(SO4)2·12H2O", "Pb(CH3COO)2.3H2O", "K2Cr2O7". Unknown elements are refused
- * so that a typo never yields a plausible-looking molar mass.
+ * "KAl(SO4)2·12H2O", "Pb(CH3COO)2.3H2O", "CaSO4·0.5H2O", "CaSO4·½H2O", "Al2(SO4)3·14.3H2O", "K2Cr2O7".
+ * A hydrate part may lead with a whole, decimal (0.5, 14.3), vulgar-fraction (½, 1½) or a/b (1/2) coefficient;
+ * counts after elements and brackets are whole numbers. Unknown elements and anything that does not fit are
+ * refused with the position of the fault, so that a typo never yields a plausible-looking molar mass.
  */
 export function parseFormula(formula: string): Composition {
-  const src = formula.replace(/\s+/g, '');
-  if (!src) throw new FormulaError(formula, 'Empty formula');
+  const src = formula;
+  let i = 0;
   const total: Composition = {};
-  for (const part of src.split(HYDRATE_DOT)) {
-    if (!part) throw new FormulaError(formula, 'Empty part around a hydrate dot');
-    const lead = /^(\d+)/.exec(part);
-    const coefficient = lead ? Number(lead[1]) : 1;
-    const body = lead ? part.slice(lead[1].length) : part;
-    add(total, parseGroup(formula, body), coefficient);
+  const skipSpace = () => {
+    while (i < src.length && /\s/.test(src[i])) i++;
+  };
+  const fail = (message: string, at: number | null = i): never => {
+    throw new FormulaError(formula, message, at);
+  };
+  const digits = () => {
+    const start = i;
+    while (i < src.length && src[i] >= '0' && src[i] <= '9') i++;
+    return src.slice(start, i);
+  };
+
+  // A leading coefficient: 3, 0.5, 14.3, ½, 1½, 1/2.
+  const readCoefficient = (): number => {
+    const start = i;
+    const whole = digits();
+    let value = whole ? Number(whole) : 1;
+    if (whole && src[i] === '.' && /[0-9]/.test(src[i + 1] ?? '')) {
+      i++;
+      value = Number(`${whole}.${digits()}`);
+    } else if (whole && src[i] === '/' && /[0-9]/.test(src[i + 1] ?? '')) {
+      i++;
+      const den = Number(digits());
+      if (den === 0) fail('A fraction over zero', start);
+      value = Number(whole) / den;
+    } else if (VULGAR[src[i]] !== undefined) {
+      value = (whole ? Number(whole) : 0) + VULGAR[src[i]];
+      i++;
+    }
+    if (i > start && !(value > 0)) fail('A coefficient of zero', start);
+    return value;
+  };
+
+  // A whole-number count after an element or a closing bracket; 1 when absent.
+  const readCount = (): number => {
+    const start = i;
+    const d = digits();
+    if (!d) return 1;
+    if (Number(d) === 0) fail('A count of zero', start);
+    // "Fe1.5O" would otherwise read as Fe · 5 O: counts inside a part are whole numbers.
+    if (d === '1' && src[i] === '.' && /[0-9]/.test(src[i + 1] ?? '')) fail('Unexpected "." (counts inside a formula are whole numbers)', i);
+    return Number(d);
+  };
+
+  const readPart = (): Composition => {
+    const partStart = i;
+    const coefficient = readCoefficient();
+    const stack: Composition[] = [{}];
+    const openers: Array<{ closer: string; at: number }> = [];
+    const bodyStart = i;
+    while (i < src.length && !HYDRATE_DOTS.includes(src[i]) && !/\s/.test(src[i])) {
+      const ch = src[i];
+      if (ch === '(' || ch === '[') {
+        stack.push({});
+        openers.push({ closer: ch === '(' ? ')' : ']', at: i });
+        i++;
+      } else if (ch === ')' || ch === ']') {
+        const open = openers.pop();
+        if (!open || open.closer !== ch) fail(`Unmatched "${ch}"`);
+        i++;
+        if (Object.keys(stack[stack.length - 1]).length === 0) fail('Empty brackets', open!.at);
+        const group = stack.pop()!;
+        add(stack[stack.length - 1], group, readCount());
+      } else if (ch >= 'A' && ch <= 'Z') {
+        const symbol = /^[A-Z][a-z]?/.exec(src.slice(i))![0];
+        if (ATOMIC_WEIGHTS[symbol] === undefined) fail(`Unknown element "${symbol}"`);
+        i += symbol.length;
+        add(stack[stack.length - 1], { [symbol]: 1 }, readCount());
+      } else {
+        fail(`Unexpected ${show(ch)}`);
+      }
+    }
+    if (openers.length) fail(`Unclosed "${src[openers[openers.length - 1].at]}"`, openers[openers.length - 1].at);
+    if (i === bodyStart) {
+      if (i < src.length) fail(`Unexpected ${show(src[i])}`);
+      fail(i > partStart ? 'An element is missing after the coefficient at the end' : 'An element is missing at the end', null);
+    }
+    const part: Composition = {};
+    add(part, stack[0], coefficient);
+    return part;
+  };
+
+  skipSpace();
+  if (i >= src.length) throw new FormulaError(formula, 'Empty formula');
+  for (;;) {
+    add(total, readPart(), 1);
+    const spaceAt = i;
+    skipSpace();
+    if (i >= src.length) break;
+    if (!HYDRATE_DOTS.includes(src[i])) fail(`Unexpected ${show(src[spaceAt])}`, spaceAt);
+    const dotAt = i;
+    i++;
+    skipSpace();
+    if (i >= src.length) fail('Nothing after the hydrate dot', dotAt);
   }
   return total;
-}
-
-function parseGroup(formula: string, body: string): Composition {
-  const stack: Composition[] = [{}];
-  const closers: string[] = [];
-  let i = 0;
-  const readCount = () => {
-    const m = /^\d+/.exec(body.slice(i));
-    if (!m) return 1;
-    i += m[0].length;
-    const n = Number(m[0]);
-    if (n === 0) throw new FormulaError(formula, 'A count of zero');
-    return n;
-  };
-  while (i < body.length) {
-    const ch = body[i];
-    if (ch === '(' || ch === '[') {
-      stack.push({});
-      closers.push(ch === '(' ? ')' : ']');
-      i++;
-    } else if (ch === ')' || ch === ']') {
-      if (closers.pop() !== ch) throw new FormulaError(formula, `Unmatched "${ch}"`);
-      i++;
-      const group = stack.pop()!;
-      add(stack[stack.length - 1], group, readCount());
-    } else {
-      const m = /^[A-Z][a-z]?/.exec(body.slice(i));
-      if (!m) throw new FormulaError(formula, `Unexpected "${ch}"`);
-      if (ATOMIC_WEIGHTS[m[0]] === undefined) throw new FormulaError(formula, `Unknown element "${m[0]}"`);
-      i += m[0].length;
-      add(stack[stack.length - 1], { [m[0]]: 1 }, readCount());
-    }
-  }
-  if (closers.length) throw new FormulaError(formula, 'Unclosed bracket');
-  return stack[0];
 }
 
 /** Molar mass in g/mol from IUPAC 2021 abridged atomic weights. */

@@ -30,6 +30,9 @@ describe('GHS pictograms from H statements', () => {
     expect(pictogramCodes(['H301', 'H315'])).toEqual(['GHS06']);
     expect(pictogramCodes(['H350'])).toEqual(['GHS08']);
     expect(pictogramCodes(['H302', 'H411'])).toEqual(['GHS07', 'GHS09']);
+    // Lactation (H362) has no pictogram (UN GHS Annex 1, additional category; recalled from memory).
+    expect(pictogramCodes(['H362'])).toEqual([]);
+    expect(pictogramCodes(['H360Df', 'H362', 'H373', 'H410'])).toEqual(['GHS08', 'GHS09']);
   });
 });
 

@@ -179,7 +179,9 @@ export const routeMatrix: MatrixRow[] = [
   row('GET /api/chemicals', everyone('2xx')),
   row('GET /api/chemicals/:id', everyone('2xx'), { setup: async () => ({ params: { id: await anyId(Chemical) } }) }),
   row('PATCH /api/chemicals/:id', adminOnly, { setup: async () => ({ params: { id: (await makeChemical()).id }, body: { ppe: 'goggles and gloves' } }) }),
+  row('POST /api/chemicals', adminOnly, { setup: async () => ({ body: { name: `matrix chemical ${uniqueEmail('n')}`, role: 'assistant', status: 'permitted', formula: 'CaSO4·½H2O', source: 'matrix test' } }) }),
   row('GET /api/dyestuffs', everyone('2xx')),
+  row('POST /api/dyestuffs', adminOnly, { setup: async () => ({ body: { name: `matrix dyestuff ${uniqueEmail('d')}`, source: 'matrix test' } }) }),
   row('GET /api/dyestuffs/:id', everyone('2xx'), { setup: async () => ({ params: { id: await anyId(Dyestuff) } }) }),
 
   row('GET /api/jobs', adminOnly),

@@ -26,6 +26,49 @@ describe('formula parser', () => {
   it('refuses unknown elements, stray characters and unbalanced brackets', () => {
     for (const bad of ['Xx2O', 'KAl(SO4', 'KAlSO4)2', 'K2Cr2O7·', 'NaCl!', '', 'H0']) expect(() => parseFormula(bad), bad).toThrow(FormulaError);
   });
+
+  it('reads decimal, vulgar-fraction and a/b hydrate coefficients, with any hydrate dot', () => {
+    // Element counts by hand: CaSO4·½H2O = Ca 1, S 1, O 4.5, H 1.
+    const hemihydrate = { Ca: 1, S: 1, O: 4.5, H: 1 };
+    for (const f of ['CaSO4·0.5H2O', 'CaSO4.0.5H2O', 'CaSO4·½H2O', 'CaSO4.½H2O', 'CaSO4·1/2H2O', 'CaSO4 · 0.5H2O', 'CaSO4*0.5H2O']) {
+      expect(parseFormula(f), f).toEqual(hemihydrate);
+    }
+    expect(parseFormula('Al2(SO4)3·14.3H2O')).toEqual({ Al: 2, S: 3, O: 12 + 14.3, H: 28.6 });
+    expect(parseFormula('Al2(SO4)3.14.3H2O')).toEqual({ Al: 2, S: 3, O: 12 + 14.3, H: 28.6 });
+    expect(parseFormula('CaSO4·1½H2O')).toEqual({ Ca: 1, S: 1, O: 5.5, H: 3 });
+    for (const [ch, v] of [['¼', 0.25], ['¾', 0.75], ['⅓', 1 / 3], ['⅔', 2 / 3], ['⅛', 0.125]] as const) {
+      expect(parseFormula(`CaSO4·${ch}H2O`).H, ch).toBeCloseTo(2 * v, 12);
+    }
+    // A full stop as hydrate dot still works after a count or a bracket.
+    expect(parseFormula('Pb(CH3COO)2.3H2O')).toEqual({ Pb: 1, C: 4, H: 12, O: 7 });
+    expect(parseFormula('CuSO4.5H2O')).toEqual({ Cu: 1, S: 1, O: 9, H: 10 });
+  });
+
+  it('gives the position of the fault (1-based, as a person counts)', () => {
+    const fault = (f: string) => {
+      try {
+        parseFormula(f);
+      } catch (e) {
+        if (e instanceof FormulaError) return { position: e.position, reason: e.reason };
+      }
+      return null;
+    };
+    expect(fault('CaSO4·x')).toEqual({ position: 7, reason: 'Unexpected "x" at position 7' });
+    expect(fault('NaCl!')).toEqual({ position: 5, reason: 'Unexpected "!" at position 5' });
+    expect(fault('Xx2O')).toEqual({ position: 1, reason: 'Unknown element "Xx" at position 1' });
+    expect(fault('KAl(SO4')).toEqual({ position: 4, reason: 'Unclosed "(" at position 4' });
+    expect(fault('KAlSO4)2')).toEqual({ position: 7, reason: 'Unmatched ")" at position 7' });
+    expect(fault('H0')).toEqual({ position: 2, reason: 'A count of zero at position 2' });
+    expect(fault('K2Cr2O7·')).toEqual({ position: 8, reason: 'Nothing after the hydrate dot at position 8' });
+    expect(fault('H2 O')).toEqual({ position: 3, reason: 'Unexpected space at position 3' });
+    expect(fault('CaSO4·.5H2O')?.position).toBe(7);
+    expect(fault('CaSO4·0H2O')?.position).toBe(7);
+    expect(fault('CaSO4·5.H2O')?.position).toBe(8);
+    // Counts inside a part are whole numbers: never read "Fe1.5O" as Fe·5O.
+    expect(fault('Fe1.5O')?.position).toBe(4);
+    expect(fault('CaSO4·0.5')?.reason).toBe('An element is missing after the coefficient at the end');
+    expect(fault('CaSO4·H½')?.position).toBe(8);
+  });
 });
 
 describe('molar mass and metal mass fraction', () => {
@@ -36,6 +79,19 @@ describe('molar mass and metal mass fraction', () => {
     for (const [metal, f] of Object.entries(c.metal_mass_fraction)) {
       expect(Math.abs(metalMassFraction(formula, metal) - f), `${metal} in ${formula}`).toBeLessThanOrEqual(0.5e-6);
     }
+  });
+
+  it('weighs decimal and fractional hydrates', () => {
+    // Source: IUPAC 2021 abridged atomic weights (tests/reference/atomic-weights.json: Ca 40.078, S 32.06, O 15.999,
+    // H 1.008, Al 26.982), summed by hand: CaSO4·0.5H2O = 136.134 + 9.0075 = 145.1415 g/mol (145.14);
+    // Al2(SO4)3·14.3H2O = 342.132 + 257.6145 = 599.7465 g/mol (599.7).
+    const w = Object.fromEntries(atomicWeights.map((e) => [e.symbol, e.abridged_atomic_weight]));
+    expect(w.Ca + w.S + 4 * w.O + 0.5 * (2 * w.H + w.O)).toBeCloseTo(145.1415, 9);
+    expect(molarMass('CaSO4·0.5H2O')).toBeCloseTo(145.14, 2);
+    expect(molarMass('CaSO4·½H2O')).toBeCloseTo(145.1415, 9);
+    expect(molarMass('CaSO4.0.5H2O')).toBeCloseTo(145.1415, 9);
+    expect(molarMass('Al2(SO4)3·14.3H2O')).toBeCloseTo(599.7465, 9);
+    expect(molarMass('Al2(SO4)3·14.3H2O').toFixed(1)).toBe('599.7');
   });
 
   it('reports 0 for a metal the formula lacks', () => {

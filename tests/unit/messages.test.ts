@@ -4,11 +4,13 @@ import { fieldLabel, messageFor } from '../../shared/messages.ts';
 import { batchCreateFormSchema, batchCreateSchema, batchEventSchema } from '../../shared/schemas/batches.ts';
 import { seriesCreateSchema } from '../../shared/schemas/series.ts';
 import { inviteSchema } from '../../shared/schemas/team.ts';
+import { chemicalCreateSchema, dyestuffCreateSchema } from '../../shared/schemas/reference.ts';
 import { shadeQuerySchema } from '../../shared/schemas/search.ts';
 import { stepsSchema, trialCreateSchema } from '../../shared/schemas/trial.ts';
 
 // zod's own English, which must never reach a person.
-const RAW = /Invalid input|Invalid option|expected|received|Too big|Too small|Unrecognized key|Invalid string|Enter The/;
+// "expected" as a word: zod says "expected string"; our formula messages say "Unexpected "x" at position 7".
+const RAW = /Invalid input|Invalid option|\bexpected|received|Too big|Too small|Unrecognized key|Invalid string|Enter The/;
 
 const messages = (schema: z.ZodType, value: unknown) => {
   const r = schema.safeParse(value);
@@ -96,11 +98,19 @@ describe('the forms’ schemas, empty and wrong', () => {
     ['invitation, empty', inviteSchema, {}],
     ['invitation, wrong', inviteSchema, { email: 'someone', role: 'boss' }],
     ['shade, wrong', shadeQuerySchema, { hex: 'red', maxDeltaE: '99' }],
+    ['new chemical, empty', chemicalCreateSchema, {}],
+    ['new chemical, wrong', chemicalCreateSchema, { name: '', role: 'salt', status: 'banned', formula: 'CaSO4·x', metal: 'al', signalWord: 'Maybe', hazardBasis: 'rumour', hStatements: ['', 3] }],
+    ['new dyestuff, empty', dyestuffCreateSchema, {}],
   ];
   it.each(sweep)('%s: no raw validator text', (_, schema, value) => {
     const got = messages(schema, value);
     expect(Object.keys(got).length).toBeGreaterThan(0);
     for (const m of Object.values(got)) expect(m).not.toMatch(RAW);
+  });
+
+  it('says what is missing on a new chemical, and where a formula goes wrong', () => {
+    expect(messages(chemicalCreateSchema, {})).toMatchObject({ name: 'Enter the name', role: expect.stringMatching(/^Choose a role/), status: expect.stringMatching(/^Choose a status/), source: 'Enter where the data come from' });
+    expect(messages(chemicalCreateSchema, { formula: 'CaSO4·x' }).formula).toBe('Unexpected "x" at position 7. Write a formula such as KAl(SO4)2·12H2O or CaSO4·½H2O');
   });
 
   it('says what is missing on a new bath, and takes the uptake as a percentage', () => {

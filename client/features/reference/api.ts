@@ -1,5 +1,5 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ChemicalView, DyestuffView, Paged } from '../../../shared/schemas/reference';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ChemicalCreate, ChemicalView, DyestuffCreate, DyestuffView, Paged } from '../../../shared/schemas/reference';
 import { http } from '../../lib/http';
 
 // The reference changes rarely (admins edit it), so it is cached for a while.
@@ -23,3 +23,16 @@ export const dyestuffsQuery = () => queryOptions({ queryKey: referenceKeys.dyest
 export const useChemicals = () => useQuery(chemicalsQuery());
 export const useChemical = (id: number) => useQuery(chemicalQuery(id));
 export const useDyestuffs = () => useQuery(dyestuffsQuery());
+
+// Admins add to the reference; the lists are fetched again afterwards.
+export const createChemical = (input: ChemicalCreate) => http<ChemicalView>('/api/chemicals', { method: 'POST', json: input });
+export const createDyestuff = (input: DyestuffCreate) => http<DyestuffView>('/api/dyestuffs', { method: 'POST', json: input });
+
+export function useCreateChemical() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: createChemical, onSuccess: () => qc.invalidateQueries({ queryKey: referenceKeys.all }) });
+}
+export function useCreateDyestuff() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: createDyestuff, onSuccess: () => qc.invalidateQueries({ queryKey: referenceKeys.all }) });
+}

@@ -10,7 +10,7 @@ const KINDS = ['mordant-bath', 'print-paste', 'dye-bath', 'vat'] as const;
 const common = {
   role: 'thickener', formula: null, metal: null, status: 'permitted', signalWord: null, hStatements: '[]',
   source: 'formula: IUPAC nomenclature; role and status: common practice',
-  hazardSource: 'recalled from memory (typical supplier SDS), verify against the supplier SDS and the ECHA C&L Inventory',
+  hazardSource: 'typical supplier classification: not classified',
   ppe: 'eye protection when handling powders',
 };
 const THICKENERS_0018 = [

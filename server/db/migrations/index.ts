@@ -10,6 +10,7 @@ import * as m0013names from './0013-palette-names.ts';
 import * as m0014draws from './0014-step-draws.ts';
 import * as m0015accession from './0015-accession-keys.ts';
 import * as m0016seriesTarget from './0016-series-target.ts';
+import * as m0017hazards from './0017-hazard-provenance.ts';
 import * as m0018thickeners from './0018-thickeners-stock-kind.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
@@ -26,5 +27,6 @@ export const migrations: Migration[] = [
   { name: '0014-step-draws', ...m0014draws },
   { name: '0015-accession-keys', ...m0015accession },
   { name: '0016-series-target', ...m0016seriesTarget },
+  { name: '0017-hazard-provenance', ...m0017hazards },
   { name: '0018-thickeners-stock-kind', ...m0018thickeners },
 ];

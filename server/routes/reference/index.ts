@@ -1,13 +1,13 @@
 import { Router } from 'express';
 import { Op, type WhereOptions } from 'sequelize';
-import { chemicalListQuery, chemicalPatchSchema, dyestuffListQuery, idParams } from '../../../shared/schemas/reference.ts';
+import { chemicalCreateSchema, chemicalListQuery, chemicalPatchSchema, dyestuffCreateSchema, dyestuffListQuery, idParams } from '../../../shared/schemas/reference.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
 import { Chemical, Dyestuff, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { presentChemical, presentDyestuff } from '../../presenters/reference.ts';
-import { updateChemical } from '../../services/reference.ts';
+import { createChemical, createDyestuff, updateChemical } from '../../services/reference.ts';
 
 // The chemical and dyestuff reference is readable by everyone, signed in or not (`reference:read`).
 export const chemicalsRouter = Router();
@@ -40,6 +40,14 @@ chemicalsRouter.get('/:id', async (req, res) => {
 });
 
 // Admins keep the reference (hazard data, status, formula); every change is audited.
+chemicalsRouter.post('/', requireUser, async (req, res) => {
+  const actor = actorOf(req);
+  if (!can(actor, 'reference:manage')) throw forbidden();
+  const input = parseBody(chemicalCreateSchema, req);
+  const chemical = await sequelize.transaction((transaction) => createChemical({ actor, transaction, input }));
+  res.status(201).json(presentChemical(chemical));
+});
+
 chemicalsRouter.patch('/:id', requireUser, async (req, res) => {
   const { id } = parseParams(idParams, req);
   const patch = parseBody(chemicalPatchSchema, req);
@@ -62,6 +70,14 @@ dyestuffsRouter.get('/', async (req, res) => {
     offset: (query.page - 1) * query.pageSize,
   });
   res.json({ items: rows.map(presentDyestuff), total: count, page: query.page, pageSize: query.pageSize });
+});
+
+dyestuffsRouter.post('/', requireUser, async (req, res) => {
+  const actor = actorOf(req);
+  if (!can(actor, 'reference:manage')) throw forbidden();
+  const input = parseBody(dyestuffCreateSchema, req);
+  const dyestuff = await sequelize.transaction((transaction) => createDyestuff({ actor, transaction, input }));
+  res.status(201).json(presentDyestuff(dyestuff));
 });
 
 dyestuffsRouter.get('/:id', async (req, res) => {

@@ -1,11 +1,15 @@
 import { Page } from '../../../components/Page';
+import { useCan } from '../../auth/api';
 import { useChemicals, useDyestuffs } from '../api';
+import { AddChemicalForm } from './AddChemicalForm';
+import { AddDyestuffForm } from './AddDyestuffForm';
 import { ChemicalsTable } from './ChemicalsTable';
 import { DyestuffsTable } from './DyestuffsTable';
 
 export function ReferencePage() {
   const chemicals = useChemicals();
   const dyestuffs = useDyestuffs();
+  const manage = useCan()('reference:manage');
   return (
     <Page
       title="Reference"
@@ -24,6 +28,11 @@ export function ReferencePage() {
         ) : (
           <p className="text-ink-faint">Loading chemicals…</p>
         )}
+        {manage ? (
+          <div className="mt-4">
+            <AddChemicalForm />
+          </div>
+        ) : null}
       </section>
       <section aria-labelledby="dyestuffs-heading">
         <h2 id="dyestuffs-heading" className="text-xl font-semibold mb-3">
@@ -38,6 +47,11 @@ export function ReferencePage() {
         ) : (
           <p className="text-ink-faint">Loading dyestuffs…</p>
         )}
+        {manage ? (
+          <div className="mt-4">
+            <AddDyestuffForm />
+          </div>
+        ) : null}
       </section>
     </Page>
   );
