@@ -10,6 +10,7 @@ import * as m0013names from './0013-palette-names.ts';
 import * as m0014draws from './0014-step-draws.ts';
 import * as m0015accession from './0015-accession-keys.ts';
 import * as m0016seriesTarget from './0016-series-target.ts';
+import * as m0019trialChecks from './0019-trial-checks.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -25,4 +26,5 @@ export const migrations: Migration[] = [
   { name: '0014-step-draws', ...m0014draws },
   { name: '0015-accession-keys', ...m0015accession },
   { name: '0016-series-target', ...m0016seriesTarget },
+  { name: '0019-trial-checks', ...m0019trialChecks },
 ];
