@@ -12,7 +12,7 @@ import { trialColour } from '../services/trials/colour.ts';
 export type CardColour = Lab & { hex: string; source: 'measured' | 'estimated'; conditions: string; readings: number | null };
 export type CardData = {
   id: number; code: string; status: string; dryMassG: number; fibre: string | null;
-  /** The dry mass in words with its basis, e.g. "100 g oven-dry = 113.6 g air-dry (wool, 13.6 % regain)". */
+  /** The dry mass in words with its basis, e.g. "100 g dry mass (oven-dry) = 114 g air-dry (wool, 13.6 % regain, ASTM D1909)". */
   massLine: string;
   /** The series cell in words, each level with its unit. */
   cell: string | null;
@@ -72,8 +72,8 @@ export async function loadCards(trialIds: number[]): Promise<CardData[]> {
     const mass = trialRecipeMass(t);
     const steps = ((t as Trial & { steps?: RecipeStep[] }).steps ?? []).sort((a, b) => a.position - b.position).map((s) => stepLine(s, mass.recipeMassG));
     const massLine = mass.basis === 'oven-dry' && mass.regainPct != null
-      ? `${fmtNum(mass.enteredG)} g oven-dry = ${fmtNum(mass.recipeMassG)} g air-dry (${mass.fibre}, ${mass.regainPct} % regain, ASTM D1909)`
-      : `${fmtNum(mass.enteredG)} g ${mass.basis}`;
+      ? `${fmtNum(mass.enteredG)} g dry mass (oven-dry) = ${fmtNum(mass.recipeMassG)} g air-dry (${mass.fibre}, ${mass.regainPct} % regain, ASTM D1909)`
+      : `${fmtNum(mass.enteredG)} g dry mass (${mass.basis})`;
     const series = (t as Trial & { series?: TrialSeries | null }).series;
     out.push({
       id: t.id, code: t.code, status: t.status, dryMassG: t.dryMassG, massLine, fibre: t.fibre, cell: t.cell ? cellLine(t.cell, series ? (series.factors as StoredFactor[]) : []) : null, steps,

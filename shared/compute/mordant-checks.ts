@@ -36,7 +36,7 @@ export function mordantKind(c: CheckChemical): MordantKind | null {
   if (c.role === 'tannin') return 'tannin';
   const f = compact(c.formula);
   if (!/Al(?![a-z])/.test(f)) return null;
-  if (/^KAl\(SO4\)2/.test(f)) return 'potash-alum';
+  if (f.startsWith('KAl(SO4)2')) return 'potash-alum';
   if (/SO4/.test(f)) return 'aluminium-sulfate';
   if (/CH3COO/.test(f)) return 'aluminium-acetate';
   return null;
