@@ -133,7 +133,7 @@ export function RecipeSection({ trial }: { trial: TrialView }) {
       <div className="flex flex-wrap items-end justify-between gap-3">
         <h2 id="recipe-h" className="text-xl font-semibold">Recipe</h2>
         <label className="text-sm">
-          Scale to air-dry mass <span className="text-ink-faint">(g)</span>
+          Scale to dry mass <span className="text-ink-faint">(g, air-dry)</span>
           <input className="ml-2 w-28 rounded-md border border-rule-strong bg-sheet px-2 py-1 font-mono" inputMode="decimal" value={scaleTo} placeholder={fmt(base, 1)} onChange={(e) => setScaleTo(e.target.value)} aria-describedby="scale-note" />
         </label>
       </div>
