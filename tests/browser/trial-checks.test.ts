@@ -41,6 +41,25 @@ describe('the trial page shows its checks', () => {
     const range = page.getByTestId('mordant-range');
     await range.waitFor();
     expect(await range.textContent()).toMatch(/usual 8–15 % owf .*within the usual range.*g Al\/kg fibre.*common practice, recalled from memory/);
+
+    // A reducer with an acid in one step: warned in the editor as soon as both are chosen, and beside the saved step.
+    // Saving again carries step 1's confirmation back, so it is not asked for twice.
+    await page.getByRole('button', { name: 'Edit recipe' }).click();
+    await page.getByRole('button', { name: 'Add step' }).click();
+    const two = page.getByRole('group', { name: 'Step 2' });
+    await two.getByRole('button', { name: 'Add ingredient' }).click();
+    await two.getByLabel('Step 2 ingredient 1', { exact: true }).selectOption({ label: 'sodium dithionite (hydrosulfite)' });
+    await two.getByLabel('Step 2 ingredient 1 amount').fill('2');
+    await two.getByRole('button', { name: 'Add ingredient' }).click();
+    await two.getByLabel('Step 2 ingredient 2', { exact: true }).selectOption({ label: 'acetic acid (vinegar, 5 %)' });
+    await two.getByLabel('Step 2 ingredient 2 amount').fill('5');
+    await two.getByTestId('mix-warnings').waitFor();
+    expect(await two.getByTestId('mix-warnings').textContent()).toMatch(/sulfur dioxide.*EUH031/);
+    await page.getByRole('button', { name: 'Save recipe' }).click();
+    await page.getByRole('button', { name: 'Edit recipe' }).waitFor();
+    const saved = page.getByTestId('recipe-step').nth(1);
+    expect(await saved.innerText()).toMatch(/sulfur dioxide/);
+    expect(await confirmed.textContent()).toMatch(/Reconstruction for the study/);
     await page.close();
   });
 });

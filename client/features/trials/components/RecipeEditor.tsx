@@ -6,6 +6,7 @@ import { formMessage, useFormErrors } from '../../../lib/form';
 import { useChemicals, useDyestuffs } from '../../reference/api';
 import { useBatches } from '../../batches/api';
 import { useReplaceSteps, type TrialView } from '../api';
+import { incompatibleInStep } from '../../../../shared/compute/incompatible';
 
 type Ing = { kind: 'dyestuff' | 'chemical'; refId: string; amount: string; basis: string };
 type Draft = {
@@ -42,6 +43,22 @@ function Num({ label, value, onChange, error, unit }: { label: string; value: st
       <input className={`${input} font-mono ${error ? 'border-danger' : ''}`} inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)} aria-invalid={error ? true : undefined} />
       {error ? <span className="text-danger">{error.join(' ')}</span> : null}
     </label>
+  );
+}
+
+/** Dangerous pairs among the chemicals chosen for this step, as soon as they are chosen (the same rules as the server's). */
+function MixWarnings({ draft, step, chemicals }: { draft: Draft; step: number; chemicals: Array<{ id: number; name: string; formula: string | null; role: string }> }) {
+  const chosen = [...new Map(draft.ingredients.filter((g) => g.kind === 'chemical').map((g) => chemicals.find((c) => String(c.id) === g.refId)).filter((c): c is (typeof chemicals)[number] => Boolean(c)).map((c) => [c.id, c])).values()];
+  const warnings = incompatibleInStep(step, chosen);
+  if (!warnings.length) return null;
+  return (
+    <div className="mt-3 space-y-1" data-testid="mix-warnings">
+      {warnings.map((w) => (
+        <p key={w.code} className="rounded-md border-2 border-danger bg-danger-tint px-3 py-2 text-sm text-danger">
+          <span className="font-semibold">⚠ {w.message}</span> <span className="text-xs">Source: {w.source}.</span>
+        </p>
+      ))}
+    </div>
   );
 }
 
@@ -140,6 +157,7 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
               })}
             </tbody>
           </table>
+          <MixWarnings draft={d} step={i + 1} chemicals={chemicals.data?.items ?? []} />
           <HistoricalUse trial={trial} draft={d} chemicals={chemicals.data?.items ?? []} onChange={(patch) => update(i, patch)} errors={{ confirmed: err(i, 'historicalUseConfirmed'), reason: err(i, 'historicalUseReason') }} step={i + 1} />
           <label className="mt-3 block text-xs font-medium">Notes<textarea className={input} rows={2} value={d.notes} onChange={(e) => update(i, { notes: e.target.value })} /></label>
           <div className="mt-3 flex flex-wrap gap-3 text-sm">
