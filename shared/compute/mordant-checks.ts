@@ -78,20 +78,26 @@ export function mordantChecks(input: {
   const f = matchFibre(input.fibre);
   const fibreClass = f?.class ?? null;
   const mordant: MordantCheck[] = [];
-  let fixed = false;
+  // A tannin step anywhere counts (tannin before alum, or tannin–alum–tannin); soda ash or chalk counts
+  // only in the alum step or after it, and never in a scour (soda ash there cleans, it does not fix).
+  let tannin = false;
+  let alkali = false;
+  let alumSeen = false;
   for (const step of input.steps) {
-    if (step.operation === 'tannin') fixed = true;
+    if (step.operation === 'tannin') tannin = true;
+    const stepChems = step.ingredients.filter((i) => i.kind === 'chemical').map((i) => input.chemicals.get(i.refId)).filter((c): c is CheckChemical => Boolean(c));
+    if (stepChems.some((c) => { const k = mordantKind(c); return k === 'potash-alum' || k === 'aluminium-sulfate'; })) alumSeen = true;
+    if (alumSeen && step.operation !== 'scour' && stepChems.some((c) => ALKALI_FIXERS.has(compact(c.formula)))) alkali = true;
     for (const ing of step.ingredients) {
       if (ing.kind === 'dyestuff') {
-        if (input.dyestuffClasses?.get(ing.refId) === 'tannin') fixed = true;
+        if (input.dyestuffClasses?.get(ing.refId) === 'tannin') tannin = true;
         continue;
       }
       const c = input.chemicals.get(ing.refId);
       if (!c) continue;
-      if (ALKALI_FIXERS.has(compact(c.formula))) fixed = true;
       const kind = mordantKind(c);
       if (!kind) continue;
-      if (kind === 'tannin') fixed = true;
+      if (kind === 'tannin') tannin = true;
       if (step.operation === 'print-paste') continue;
       const r = fibreClass ? MORDANT_RANGES.find((x) => x.kind === kind && x.fibreClass === fibreClass) ?? null : null;
       const p = ing.percentOwf;
@@ -107,7 +113,7 @@ export function mordantChecks(input: {
     }
   }
   const warnings: MordantWarning[] = [];
-  if (fibreClass === 'cellulose' && !fixed) {
+  if (fibreClass === 'cellulose' && !tannin && !alkali) {
     const alum = mordant.find((m) => m.mordant === 'potash-alum' || m.mordant === 'aluminium-sulfate');
     if (alum) {
       warnings.push({

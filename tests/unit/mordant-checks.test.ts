@@ -61,6 +61,9 @@ describe('mordant ranges by fibre (common practice, recalled from memory)', () =
     expect(tannin.mordant.find((m) => m.mordant === 'tannin')).toMatchObject({ verdict: 'within', gAlPerKg: null });
     const soda = mordantChecks({ fibre: 'linen', steps: [alumBath(15), { position: 2, operation: 'after-treatment', ingredients: [ing(4, 6)] }], chemicals });
     expect(soda.warnings).toEqual([]);
+    // Soda ash in a scour before the alum cleans the cloth; it does not fix the alum.
+    const scour = mordantChecks({ fibre: 'linen', steps: [{ position: 1, operation: 'scour', ingredients: [ing(4, 5)] }, alumBath(15, 2)], chemicals });
+    expect(scour.warnings).toHaveLength(1);
     const gall = mordantChecks({ fibre: 'hemp', steps: [{ position: 1, operation: 'dye-bath', ingredients: [{ kind: 'dyestuff', refId: 9, name: 'oak gall', percentOwf: 10 }] }, alumBath(15, 2)], chemicals, dyestuffClasses: new Map([[9, 'tannin']]) });
     expect(gall.warnings).toEqual([]);
   });
