@@ -3,6 +3,7 @@ import { stringify } from 'csv-stringify';
 import { Chemical, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
 import type { Fastness } from '../../shared/schemas/fastness.ts';
 import { trialColour, type ResolvedColour } from '../services/trials/colour.ts';
+import { trialRecipeMass } from '../../shared/trials/quantities.ts';
 
 // Colour columns: each colour with the illuminant and observer it is under, and the figures of
 // the one comparison the trial page shows (target and result under the same illuminant).
@@ -16,6 +17,9 @@ const COLOUR_COLUMNS = [
 const FASTNESS_COLUMNS = ['lightBlueWool', 'washChangeGrey', 'washStainingGrey', 'rubDryStainingGrey', 'rubWetStainingGrey', 'fastnessInformal', 'fastnessTestedOn'] as const;
 const COLUMNS = [
   'code', 'pieceAccessionNumber', 'series', 'status', 'kind', 'dyer', 'fibre', 'weave', 'gsm', 'dryMassG',
+  // How the dry mass was weighed, and the air-dry (commercial) mass every % owf is of: oven-dry × (1 + regain),
+  // ASTM D1909 regains recalled from memory (shared/data/moisture-regain.ts).
+  'dryMassBasis', 'airDryMassG', 'moistureRegainPct',
   'startedOn', 'recipe', 'substitutions', ...COLOUR_COLUMNS, ...FASTNESS_COLUMNS, 'notes',
 ] as const;
 
@@ -80,6 +84,11 @@ function substitutionText(s: NonNullable<Loaded['substitutions']>[number]) {
   return `${from} → ${to} (${s.reason})`;
 }
 
+function massCells(t: Trial) {
+  const m = trialRecipeMass(t);
+  return { dryMassBasis: m.basis, airDryMassG: n(m.recipeMassG, 2), moistureRegainPct: m.regainPct ?? '' };
+}
+
 export async function writeTrialsCsv(out: Writable) {
   const csv = stringify({ header: true, columns: [...COLUMNS] });
   csv.pipe(out);
@@ -112,6 +121,7 @@ export async function writeTrialsCsv(out: Writable) {
       weave: t.weave ?? '',
       gsm: t.gsm ?? '',
       dryMassG: t.dryMassG,
+      ...massCells(t),
       startedOn: t.startedOn ?? '',
       recipe: (t.steps ?? []).map(stepText).join(' | '),
       substitutions: (t.substitutions ?? []).map(substitutionText).join(' | '),

@@ -20,6 +20,7 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
   declare weave: string | null;
   declare gsm: number | null;
   declare dryMassG: number;
+  declare dryMassBasis: CreationOptional<'air-dry' | 'oven-dry'>;
   declare fastness: Record<string, unknown> | null;
   declare notes: string | null;
   declare startedOn: string | null;
@@ -41,6 +42,10 @@ export class RecipeStep extends Model<InferAttributes<RecipeStep>, InferCreation
   declare batchId: number | null;
   declare batchVolumeMl: number | null;
   declare notes: string | null;
+  /** A historical-only chemical in a modern trial: why, who confirmed it and when. */
+  declare historicalUseReason: CreationOptional<string | null>;
+  declare historicalUseConfirmedById: CreationOptional<number | null>;
+  declare historicalUseConfirmedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -109,6 +114,7 @@ export function initTrialModels(sequelize: Sequelize) {
       weave: DataTypes.STRING(80),
       gsm: DataTypes.DOUBLE,
       dryMassG: { type: DataTypes.DOUBLE, allowNull: false },
+      dryMassBasis: { type: DataTypes.ENUM('air-dry', 'oven-dry'), allowNull: false, defaultValue: 'air-dry' },
       fastness: DataTypes.JSON,
       notes: DataTypes.TEXT,
       startedOn: DataTypes.DATEONLY,
@@ -134,6 +140,9 @@ export function initTrialModels(sequelize: Sequelize) {
       batchId: fk(),
       batchVolumeMl: DataTypes.DOUBLE,
       notes: DataTypes.TEXT,
+      historicalUseReason: DataTypes.TEXT,
+      historicalUseConfirmedById: fk(),
+      historicalUseConfirmedAt: DataTypes.DATE(3),
       ...stamps(),
     },
     { sequelize, tableName: 'recipe_steps' },

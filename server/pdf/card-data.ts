@@ -2,6 +2,7 @@ import { Op } from 'sequelize';
 import { labToHex, type Lab } from '../../shared/colour/index.ts';
 import { viewingLabel } from '../../shared/colour/conditions.ts';
 import { gramsFromOwf } from '../../shared/compute/recipe.ts';
+import { trialRecipeMass } from '../../shared/trials/quantities.ts';
 import { RecipeStep, Trial, TrialSeries } from '../models/index.ts';
 import { roleOf, type StoredFactor } from '../services/series/plan.ts';
 import { publicUrl } from '../env.ts';
@@ -11,6 +12,8 @@ import { trialColour } from '../services/trials/colour.ts';
 export type CardColour = Lab & { hex: string; source: 'measured' | 'estimated'; conditions: string; readings: number | null };
 export type CardData = {
   id: number; code: string; status: string; dryMassG: number; fibre: string | null;
+  /** The dry mass in words with its basis, e.g. "100 g dry mass (oven-dry) = 114 g air-dry (wool, 13.6 % regain, ASTM D1909)". */
+  massLine: string;
   /** The series cell in words, each level with its unit. */
   cell: string | null;
   steps: string[]; colour: CardColour | null; target: (Lab & { hex: string; conditions: string }) | null;
@@ -72,10 +75,15 @@ export async function loadCards(trialIds: number[]): Promise<CardData[]> {
   const out: CardData[] = [];
   for (const t of trials) {
     const { target, result, difference, note, missing } = await trialColour(t);
-    const steps = ((t as Trial & { steps?: RecipeStep[] }).steps ?? []).sort((a, b) => a.position - b.position).map((s) => stepLine(s, t.dryMassG));
+    // Grams are weighed out on the air-dry mass: an oven-dry mass is brought to it with the fibre's regain.
+    const mass = trialRecipeMass(t);
+    const steps = ((t as Trial & { steps?: RecipeStep[] }).steps ?? []).sort((a, b) => a.position - b.position).map((s) => stepLine(s, mass.recipeMassG));
+    const massLine = mass.basis === 'oven-dry' && mass.regainPct != null
+      ? `${fmtNum(mass.enteredG)} g dry mass (oven-dry) = ${fmtNum(mass.recipeMassG)} g air-dry (${mass.fibre}, ${mass.regainPct} % regain, ASTM D1909)`
+      : `${fmtNum(mass.enteredG)} g dry mass (${mass.basis})`;
     const series = (t as Trial & { series?: TrialSeries | null }).series;
     out.push({
-      id: t.id, code: t.code, status: t.status, dryMassG: t.dryMassG, fibre: t.fibre, cell: t.cell ? cellLine(t.cell, series ? (series.factors as StoredFactor[]) : []) : null, steps,
+      id: t.id, code: t.code, status: t.status, dryMassG: t.dryMassG, massLine, fibre: t.fibre, cell: t.cell ? cellLine(t.cell, series ? (series.factors as StoredFactor[]) : []) : null, steps,
       colour: result
         ? { L: result.L, a: result.a, b: result.b, hex: labToHex(result), source: result.source === 'instrument' ? 'measured' : 'estimated', conditions: viewingLabel(result), readings: result.readings }
         : null,

@@ -35,7 +35,7 @@ export async function cardsPdf(title: string, cards: CardData[]) {
     const tx = x + 156;
     doc.font('sans-bold').fontSize(14).fillColor('#111').text(c.code, tx, y + 14, { width: 260 });
     doc.font('sans').fontSize(8.5).fillColor('#333');
-    fitText(doc, [`${c.fibre ?? 'fibre not set'}, ${c.dryMassG} g dry mass`, c.cell, `status: ${c.status}`].filter(Boolean).join('\n'), { x: tx, y: y + 36, w: 260, h: 46 }, 'sans', 8.5, 6.5);
+    fitText(doc, [`${c.fibre ?? 'fibre not set'}, ${c.massLine}`, c.cell, `status: ${c.status}`].filter(Boolean).join('\n'), { x: tx, y: y + 36, w: 260, h: 46 }, 'sans', 8.5, 6.5);
     // The recipe shrinks to fit above the ΔE00 block rather than losing its mordant and tannin steps.
     const top = Math.max(doc.y + 4, y + 64);
     fitText(doc, c.steps.length ? c.steps.join('\n') : 'No recipe steps yet.', { x: tx, y: top, w: 260, h: y + CARD_H - 62 - top }, 'sans', 7.5, 5.5);

@@ -1,7 +1,9 @@
 import type { TrialStatus } from '../models/trials.ts';
 import type { Chemical, ColourMeasurement, Dyestuff, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../models/index.ts';
 import { abilities, type Actor } from '../policies/index.ts';
-import { computeStep, gramsInStep, type QStep } from '../../shared/trials/quantities.ts';
+import { computeStep, gramsInStep, trialRecipeMass, type QStep } from '../../shared/trials/quantities.ts';
+import { mordantChecks } from '../../shared/compute/mordant-checks.ts';
+import { incompatibleInStep } from '../../shared/compute/incompatible.ts';
 import { trialMetalLoad } from '../../shared/trials/metal-load.ts';
 import { isHazardous } from './chemical-caution.ts';
 import { presentChemical } from './reference.ts';
@@ -15,7 +17,9 @@ export const trialPolicyRecord = (t: Trial) => ({ ownerId: t.dyerId });
 const pieceRef = (p: Piece | null | undefined) => (p ? { id: p.id, accessionNumber: p.accessionNumber, title: p.title, createdById: p.createdById } : null);
 const userRef = (u: User | null | undefined) => (u ? { id: u.id, name: u.name } : null);
 
-export type StepWarning = { code: 'historical-only-in-modern'; chemicalId: number; name: string; message: string };
+export type StepWarning =
+  | { code: 'historical-only-in-modern'; chemicalId: number; name: string; message: string }
+  | { code: 'incompatible-mix'; pair: string; chemicals: Array<{ id: number; name: string }>; message: string; hazard: string; source: string };
 
 export function presentTrialSummary(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, colour: Colour | null) {
   return {
@@ -27,6 +31,7 @@ export function presentTrialSummary(t: Trial & { piece?: Piece | null; dyer?: Us
     dyer: userRef(t.dyer),
     fibre: t.fibre,
     dryMassG: t.dryMassG,
+    dryMassBasis: t.dryMassBasis,
     startedOn: t.startedOn,
     notes: t.notes,
     updatedAt: t.updatedAt.toISOString(),
@@ -50,22 +55,32 @@ type DetailParts = {
   chemicals: Map<number, Chemical>;
   dyestuffs: Map<number, Dyestuff>;
   batches: Map<number, { id: number; code: string; name: string; status: string; remainingMl: number }>;
+  /** Who confirmed a historical-only chemical on a step, by user id. */
+  people?: Map<number, { id: number; name: string }>;
   colour: Colour;
 };
 
 export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, parts: DetailParts) {
   const roles = new Map([...parts.chemicals].map(([id, c]) => [id, c.role as string]));
+  // Every % owf is of the air-dry (commercial) mass: an oven-dry mass is brought to it with the fibre's regain.
+  const mass = trialRecipeMass(t);
+  const massG = mass.recipeMassG;
   const stepById = new Map(parts.steps.map((s) => [s.id, s]));
   const steps = parts.steps.map((s) => {
     const q = toQStep(s);
     const chems = s.ingredients.filter((i) => i.kind === 'chemical').map((i) => parts.chemicals.get(i.refId)).filter((c): c is Chemical => Boolean(c));
-    const warnings: StepWarning[] =
+    const historical: StepWarning[] =
       t.kind === 'modern'
         ? chems.filter((c) => c.status === 'historical-only').map((c) => ({
             code: 'historical-only-in-modern' as const, chemicalId: c.id, name: c.name,
             message: `${c.name} is recorded for historical recipes only. Do not use it in a modern trial; see the substitutions and the supplier's safety data sheet.`,
           }))
         : [];
+    const unique = [...new Map(chems.map((c) => [c.id, c])).values()];
+    const mixes: StepWarning[] = incompatibleInStep(s.position, unique.map((c) => ({ id: c.id, name: c.name, formula: c.formula, role: c.role }))).map((w) => ({
+      code: 'incompatible-mix' as const, pair: w.code, chemicals: w.chemicals, message: w.message, hazard: w.hazard, source: w.source,
+    }));
+    const warnings = [...historical, ...mixes];
     return {
       id: s.id,
       position: s.position,
@@ -83,9 +98,16 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
       batch: s.batchId != null ? parts.batches.get(s.batchId) ?? null : null,
       batchVolumeMl: s.batchVolumeMl,
       notes: s.notes,
-      computed: computeStep(q, t.dryMassG, roles),
+      computed: computeStep(q, massG, roles),
       cautions: [...new Map(chems.filter(isHazardous).map((c) => [c.id, presentChemical(c)])).values()],
       warnings,
+      historicalUse: s.historicalUseConfirmedAt
+        ? {
+            reason: s.historicalUseReason,
+            confirmedBy: s.historicalUseConfirmedById != null ? parts.people?.get(s.historicalUseConfirmedById) ?? { id: s.historicalUseConfirmedById, name: null } : null,
+            confirmedAt: s.historicalUseConfirmedAt.toISOString(),
+          }
+        : null,
     };
   });
 
@@ -94,7 +116,7 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
     const h = chemOf(s.historicalChemicalId);
     const m = chemOf(s.modernChemicalId);
     const step = s.stepId != null ? stepById.get(s.stepId) : undefined;
-    const modernFromRecipe = s.modernAmountG == null && m && step ? gramsInStep(toQStep(step), m.id, t.dryMassG, roles) : null;
+    const modernFromRecipe = s.modernAmountG == null && m && step ? gramsInStep(toQStep(step), m.id, massG, roles) : null;
     return {
       id: s.id,
       stepId: s.stepId,
@@ -117,8 +139,17 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
       historical: s.historicalChemical ? { formula: s.historicalChemical.formula, grams: s.historicalAmountG } : null,
       modern: s.modernChemical ? { formula: s.modernChemical.formula, grams: s.modernAmountUsedG } : null,
     })),
-    t.dryMassG,
+    massG,
   );
+  const mordant = mordantChecks({
+    fibre: t.fibre,
+    steps: steps.map((s) => ({
+      position: s.position, operation: s.operation,
+      ingredients: s.ingredients.map((i, j) => ({ kind: i.kind, refId: i.refId, name: i.name, percentOwf: s.computed.ingredients[j]?.percentOwf ?? null })),
+    })),
+    chemicals: new Map([...parts.chemicals].map(([id, c]) => [id, { id, name: c.name, formula: c.formula, role: c.role }])),
+    dyestuffClasses: new Map([...parts.dyestuffs].map(([id, d]) => [id, d.dyeClass ?? null])),
+  });
 
   return {
     ...presentTrialSummary(t, actor, parts.colour),
@@ -129,6 +160,21 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
     steps,
     substitutions,
     metalLoad,
+    /** The dry mass as weighed and the air-dry mass the recipe is worked on. */
+    mass,
+    /**
+     * Fibre-aware mordant ranges (common practice, recalled from memory) and the recipe's warnings:
+     * alum on a plant fibre without tannin or alkali, and dangerous pairs within a step.
+     */
+    checks: {
+      fibre: mordant.fibre,
+      fibreClass: mordant.fibreClass,
+      mordant: mordant.mordant,
+      warnings: [
+        ...mordant.warnings,
+        ...steps.flatMap((s) => s.warnings.filter((w) => w.code === 'incompatible-mix').map((w) => ({ ...w, stepPosition: s.position }))),
+      ],
+    },
     measurements: parts.measurements.map(presentMeasurement),
     photos: parts.photos.map((p) => ({ id: p.id, width: p.width, height: p.height, view: p.view, caption: p.caption, originalName: p.originalName })),
     warnings: steps.flatMap((s) => s.warnings.map((w) => ({ ...w, stepPosition: s.position }))),

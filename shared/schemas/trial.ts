@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import '../messages.ts';
 import { fastnessSchema } from './fastness.ts';
+import { DRY_MASS_BASES } from '../compute/moisture.ts';
 
 // Shared by the server's validation and the client's forms; types come from z.infer.
 
@@ -24,6 +25,8 @@ export const operationLabels: Record<(typeof OPERATIONS)[number], string> = {
   'after-treatment': 'After-treatment',
   rinse: 'Rinse',
 };
+export { DRY_MASS_BASES };
+export const dryMassBasisLabels: Record<(typeof DRY_MASS_BASES)[number], string> = { 'air-dry': 'air-dry (conditioned)', 'oven-dry': 'oven-dry' };
 export const basisLabels: Record<(typeof BASES)[number], string> = { owf: '% owf', 'g/L': 'g/L', g: 'g' };
 
 const id = z.coerce.number().int().positive();
@@ -60,6 +63,8 @@ const trialFields = {
   weave: text(80),
   gsm: positive('The fabric weight').max(2000, 'The fabric weight must be 2,000 g/m² or less').nullable().optional(),
   dryMassG: positive('The dry fibre mass').max(100_000, 'A dry fibre mass above 100 kg (100,000 g) is not a trial'),
+  /** How the dry mass was weighed: air-dry (commercial) or oven-dry; the recipe works on the air-dry mass. */
+  dryMassBasis: z.enum(DRY_MASS_BASES, { error: 'Choose air-dry or oven-dry' }).default('air-dry'),
   notes: text(5000),
   startedOn: z.iso.date({ error: 'Enter a date such as 2024-03-12' }).nullable().optional(),
   fastness: fastnessSchema.nullable().optional(),
@@ -73,7 +78,7 @@ export type TrialCreateInput = z.input<typeof trialCreateSchema>;
 
 /** The kind is fixed at creation: a historical record never turns into a modern recipe. */
 export const trialUpdateSchema = z
-  .object({ pieceId: optionalId, ...trialFields, status: z.enum(TRIAL_STATUSES).optional(), dryMassG: trialFields.dryMassG.optional() })
+  .object({ pieceId: optionalId, ...trialFields, status: z.enum(TRIAL_STATUSES).optional(), dryMassG: trialFields.dryMassG.optional(), dryMassBasis: z.enum(DRY_MASS_BASES, { error: 'Choose air-dry or oven-dry' }).optional() })
   .partial()
   .refine(oneTarget, oneTargetIssue);
 export type TrialUpdateInput = z.input<typeof trialUpdateSchema>;
@@ -117,6 +122,9 @@ export const stepSchema = z.object({
   batchId: optionalId,
   batchVolumeMl: positive('The volume drawn').nullable().optional(),
   notes: text(2000),
+  /** A historical-only chemical in a modern trial is used only when confirmed, with the reason (the server checks). */
+  historicalUseConfirmed: z.boolean({ error: 'Tick the box or leave it empty' }).optional(),
+  historicalUseReason: text(2000),
 }).superRefine((s, ctx) => {
   // A draw is a bath and a volume together: one without the other would be saved as half a record.
   if (s.batchId != null && s.batchVolumeMl == null) ctx.addIssue({ code: 'custom', path: ['batchVolumeMl'], message: 'Enter the volume drawn from the bath, in mL' });

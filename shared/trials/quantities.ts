@@ -1,6 +1,7 @@
 import { pasteMakeUp, type PasteMakeUp } from '../compute/paste.ts';
 import { scaleRecipe, stepQuantities, type IngredientQuantity } from '../compute/recipe.ts';
 import type { Basis } from '../compute/recipe.ts';
+import { recipeMass, type DryMassBasis } from '../compute/moisture.ts';
 
 // Joins a stored recipe step to the shared recipe and paste arithmetic; the maths lives in shared/compute.
 
@@ -68,3 +69,9 @@ export function scaleSteps<S extends QStep>(steps: readonly S[], fromDryMassG: n
   const like = steps.map((s) => ({ ...s, volumeL: s.paste ? s.paste.volumeMl / 1000 : null }));
   return scaleRecipe(like, fromDryMassG, toDryMassG).map(({ volumeL, ...s }) => ({ ...s, paste: s.paste && volumeL != null ? { ...s.paste, volumeMl: volumeL * 1000 } : s.paste }) as unknown as S);
 }
+
+/**
+ * The mass a trial's recipe is worked on: its dry mass as entered, brought to air-dry (commercial)
+ * when it was weighed oven-dry (shared/compute/moisture.ts, ASTM D1909 regains recalled from memory).
+ */
+export const trialRecipeMass = (t: { dryMassG: number; dryMassBasis?: DryMassBasis | null; fibre?: string | null }) => recipeMass(t.dryMassG, t.dryMassBasis, t.fibre);

@@ -92,6 +92,8 @@ describe('exports', () => {
     const first = rows.find((r) => r.code === 'T-2024-001');
     expect(first).toBeDefined();
     expect(first!.dryMassG).toBe('250');
+    // The demo weighs air-dry: the recipe's mass is the mass entered; cotton's regain is ASTM D1909's 8.5 % (recalled from memory).
+    expect(first).toMatchObject({ dryMassBasis: 'air-dry', airDryMassG: '250.00', moistureRegainPct: '8.5' });
     expect(first!.recipe).toMatch(/madder 60 % owf/);
     expect(first!.substitutions).toMatch(/→/);
     expect(new Set(rows.map((r) => r.code)).size).toBe(rows.length);

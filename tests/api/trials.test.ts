@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
-import { Chemical, ColourMeasurement, Dyestuff, Trial, User } from '../../server/models/index.ts';
+import { AuditEvent, Chemical, ColourMeasurement, Dyestuff, Trial, User } from '../../server/models/index.ts';
 import { makePiece, makeUser } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { useTestMail, waitForMail } from '../support/mail.ts';
@@ -25,7 +25,7 @@ beforeAll(async () => {
   dyer = await signedInAgent(app, 'dyer');
   const other = await makeUser({ role: 'dyer', password: 'another-dyer-password', email: `dyer-${Date.now().toString(36)}@trials.test` });
   otherDyer = await signedInAgent(app, { email: other.email, password: 'another-dyer-password' });
-  for (const name of ['potash alum', 'lead(II) acetate (sugar of lead)', 'aluminium acetate (basic)', 'guar gum', 'calcium carbonate (chalk)']) {
+  for (const name of ['potash alum', 'lead(II) acetate (sugar of lead)', 'aluminium acetate (basic)', 'guar gum', 'calcium carbonate (chalk)', 'sodium dithionite (hydrosulfite)', 'acetic acid (vinegar, 5 %)', 'tannic acid', 'sodium carbonate (soda ash)']) {
     chem[name] = (await Chemical.findOne({ where: { name }, rejectOnEmpty: true }))!;
   }
   madder = (await Dyestuff.findOne({ where: { name: 'madder' }, rejectOnEmpty: true }))!;
@@ -140,20 +140,100 @@ describe('recipe steps', () => {
     expect(res.body.error.details.fields['steps.0.ingredients.0.refId']).toBeDefined();
   });
 
-  it('warns when a modern trial uses a historical-only chemical, and shows its caution; a historical record is not warned', async () => {
+  it('refuses a historical-only chemical in a modern trial without a confirmation and a reason (422), stores them with who and when, and still warns', async () => {
     const lead = chem['lead(II) acetate (sugar of lead)'];
-    const steps = { steps: [{ operation: 'mordant-bath', ingredients: [{ kind: 'chemical', refId: lead.id, amount: 5, basis: 'owf' }], liquorRatio: 30 }] };
+    const step = { operation: 'mordant-bath', ingredients: [{ kind: 'chemical', refId: lead.id, amount: 5, basis: 'owf' }], liquorRatio: 30 };
     const modern = (await post(dyer, '/api/trials', { dryMassG: 100, kind: 'modern' }).expect(201)).body.trial;
-    const m = await dyer.put(`/api/trials/${modern.id}/steps`).set('Origin', ORIGIN).send(steps).expect(200);
+    const put = (body: unknown) => dyer.put(`/api/trials/${modern.id}/steps`).set('Origin', ORIGIN).send(body as object);
+    const bare = await put({ steps: [step] }).expect(422);
+    expect(bare.body.error.details.fields['steps.0.historicalUseConfirmed'][0]).toMatch(/historical recipes only/);
+    expect(bare.body.error.details.fields['steps.0.historicalUseReason'][0]).toMatch(/Say why/);
+    const noReason = await put({ steps: [{ ...step, historicalUseConfirmed: true, historicalUseReason: '   ' }] }).expect(422);
+    expect(Object.keys(noReason.body.error.details.fields)).toEqual(['steps.0.historicalUseReason']);
+    // Nothing was saved by the refused requests.
+    expect((await dyer.get(`/api/trials/${modern.id}`)).body.trial.steps).toHaveLength(0);
+    const bad = await put({ steps: [{ ...step, historicalUseConfirmed: 'yes' }] }).expect(400);
+    expect(bad.body.error.details.fields['steps.0.historicalUseConfirmed']).toBeDefined();
+
+    const reason = 'Documented reconstruction for the conservation study, under fume extraction';
+    const m = await put({ steps: [{ ...step, historicalUseConfirmed: true, historicalUseReason: reason }] }).expect(200);
     expect(m.body.warning).toBe(true);
     expect(m.body.warnings[0]).toMatchObject({ code: 'historical-only-in-modern', chemicalId: lead.id, stepPosition: 1 });
+    const use = m.body.trial.steps[0].historicalUse;
+    expect(use).toMatchObject({ reason, confirmedBy: { name: 'Bryony Kettlewick' } });
+    expect(Date.now() - Date.parse(use.confirmedAt)).toBeLessThan(60_000);
     expect(m.body.trial.steps[0].cautions[0].ghs.signalWord).toBe('Danger');
     expect(m.body.trial.steps[0].cautions[0].ghs.hStatements.length).toBeGreaterThan(0);
+    const events = await AuditEvent.findAll({ where: { entity: 'trial', entityId: modern.id, action: 'historical-use-confirmed' } });
+    expect(events).toHaveLength(1);
+    expect(events[0].changes).toMatchObject({ historicalUseReason: { to: reason }, chemicals: { to: [lead.name] } });
+    // Saved again unchanged (the editor sends the step's id back): the first confirmation stands, not audited twice.
+    const again = await put({ steps: [{ ...step, id: m.body.trial.steps[0].id, historicalUseConfirmed: true, historicalUseReason: reason }] }).expect(200);
+    expect(again.body.trial.steps[0].historicalUse.confirmedAt).toBe(use.confirmedAt);
+    expect(await AuditEvent.count({ where: { entity: 'trial', entityId: modern.id, action: 'historical-use-confirmed' } })).toBe(1);
+
     const historical = (await post(dyer, '/api/trials', { dryMassG: 100, kind: 'historical' }).expect(201)).body.trial;
-    const h = await dyer.put(`/api/trials/${historical.id}/steps`).set('Origin', ORIGIN).send(steps).expect(200);
+    const h = await dyer.put(`/api/trials/${historical.id}/steps`).set('Origin', ORIGIN).send({ steps: [step] }).expect(200);
     expect(h.body.warning).toBe(false);
     expect(h.body.trial.historicalRecord).toBe(true);
+    expect(h.body.trial.steps[0].historicalUse).toBeNull();
     expect(h.body.trial.steps[0].cautions).toHaveLength(1);
+  });
+
+  it('warns beside a step that mixes a reducer with an acid (sulfur dioxide), naming the source', async () => {
+    const t = (await post(dyer, '/api/trials', { dryMassG: 100, fibre: 'cotton' }).expect(201)).body.trial;
+    const res = await dyer.put(`/api/trials/${t.id}/steps`).set('Origin', ORIGIN).send({
+      steps: [{ operation: 'vat', liquorRatio: 30, ingredients: [{ kind: 'chemical', refId: chem['sodium dithionite (hydrosulfite)'].id, amount: 2, basis: 'g/L' }, { kind: 'chemical', refId: chem['acetic acid (vinegar, 5 %)'].id, amount: 5, basis: 'owf' }] }],
+    }).expect(200);
+    const w = res.body.trial.steps[0].warnings.find((x: { code: string }) => x.code === 'incompatible-mix');
+    expect(w).toMatchObject({ pair: 'reducer-acid' });
+    expect(w.message).toMatch(/sulfur dioxide/);
+    expect(w.source).toMatch(/EUH031/);
+    expect(res.body.warning).toBe(true);
+    expect(res.body.trial.checks.warnings).toEqual([expect.objectContaining({ code: 'incompatible-mix', stepPosition: 1 })]);
+  });
+});
+
+describe('fibre-aware mordant checks (common practice, recalled from memory: tests/reference/dye-facts.json)', () => {
+  it('shows alum on cotton beside 12–20 % owf with g Al per kg fibre, and warns when there is no tannin or alkali step', async () => {
+    const t = (await post(dyer, '/api/trials', { dryMassG: 200, fibre: 'cotton poplin' }).expect(201)).body.trial;
+    const alum = { operation: 'mordant-bath', liquorRatio: 30, ingredients: [{ kind: 'chemical', refId: chem['potash alum'].id, amount: 15, basis: 'owf' }] };
+    const res = await dyer.put(`/api/trials/${t.id}/steps`).set('Origin', ORIGIN).send({ steps: [alum] }).expect(200);
+    const { checks } = res.body.trial;
+    expect(checks.fibreClass).toBe('cellulose');
+    expect(checks.mordant[0]).toMatchObject({ stepPosition: 1, mordant: 'potash-alum', verdict: 'within', range: { low: 12, high: 20 } });
+    expect(checks.mordant[0].marking).toMatch(/common practice, recalled from memory/);
+    // 15 % owf = 150 g alum per kg × Al 0.056879 (tests/reference/mordant-compounds.json) = 8.53 g Al/kg.
+    expect(checks.mordant[0].gAlPerKg).toBeCloseTo(150 * compound('KAl(SO4)2·12H2O').metal_mass_fraction.Al, 3);
+    expect(checks.warnings).toEqual([expect.objectContaining({ code: 'cellulose-alum-without-fixing', stepPosition: 1 })]);
+    // The mordant-practice warning is a guide beside the recipe, not a safety warning of the save.
+    expect(res.body.warning).toBe(false);
+    const tannin = { operation: 'tannin', liquorRatio: 30, ingredients: [{ kind: 'chemical', refId: chem['tannic acid'].id, amount: 8, basis: 'owf' }] };
+    const fixed = await dyer.put(`/api/trials/${t.id}/steps`).set('Origin', ORIGIN).send({ steps: [tannin, alum] }).expect(200);
+    expect(fixed.body.trial.checks.warnings).toEqual([]);
+    expect(fixed.body.trial.checks.mordant.map((c: { mordant: string }) => c.mordant)).toEqual(['tannin', 'potash-alum']);
+  });
+});
+
+describe('dry mass, air-dry or oven-dry (ASTM D1909 regains, recalled from memory)', () => {
+  it('stores the basis, works the recipe on the air-dry mass and refuses an unknown basis', async () => {
+    const t = (await post(dyer, '/api/trials', { dryMassG: 100, fibre: 'wool', dryMassBasis: 'oven-dry' }).expect(201)).body.trial;
+    expect(t.dryMassBasis).toBe('oven-dry');
+    // 100 g oven-dry wool × (1 + 13.6 %) = 113.6 g air-dry; alum 10 % owf of it = 11.36 g.
+    expect(t.mass).toMatchObject({ enteredG: 100, basis: 'oven-dry', regainPct: 13.6 });
+    expect(t.mass.recipeMassG).toBeCloseTo(113.6, 10);
+    expect(t.mass.source).toMatch(/ASTM D1909/);
+    const res = await dyer.put(`/api/trials/${t.id}/steps`).set('Origin', ORIGIN).send({ steps: [{ operation: 'mordant-bath', liquorRatio: 30, ingredients: [{ kind: 'chemical', refId: chem['potash alum'].id, amount: 10, basis: 'owf' }] }] }).expect(200);
+    expect(res.body.trial.steps[0].computed.ingredients[0].grams).toBeCloseTo(11.36, 10);
+    expect(res.body.trial.steps[0].computed.volumeL).toBeCloseTo(3.408, 10);
+    const back = await dyer.patch(`/api/trials/${t.id}`).set('Origin', ORIGIN).send({ dryMassBasis: 'air-dry' }).expect(200);
+    expect(back.body.trial.dryMassBasis).toBe('air-dry');
+    expect(back.body.trial.steps[0].computed.ingredients[0].grams).toBeCloseTo(10, 10);
+    expect((await post(dyer, '/api/trials', { dryMassG: 100 }).expect(201)).body.trial.dryMassBasis).toBe('air-dry');
+    const bad = await post(dyer, '/api/trials', { dryMassG: 100, dryMassBasis: 'damp' }).expect(400);
+    expect(bad.body.error.details.fields.dryMassBasis[0]).toMatch(/air-dry or oven-dry/);
+    const badPatch = await dyer.patch(`/api/trials/${t.id}`).set('Origin', ORIGIN).send({ dryMassBasis: 'wet' }).expect(400);
+    expect(badPatch.body.error.details.fields.dryMassBasis).toBeDefined();
   });
 });
 

@@ -92,6 +92,8 @@ describe('the forms’ schemas, empty and wrong', () => {
     ['bath event, empty draw', batchEventSchema, { type: 'use' }],
     ['new trial, empty', trialCreateSchema, { dryMassG: undefined }],
     ['new trial, wrong', trialCreateSchema, { dryMassG: 'heavy', gsm: -1, startedOn: 'March', status: 'done', targetRegionId: 1, targetPaletteColourId: 2 }],
+    ['new trial, wrong mass basis', trialCreateSchema, { dryMassG: 5, dryMassBasis: 'damp' }],
+    ['recipe, wrong historical-use confirmation', stepsSchema, { steps: [{ operation: 'dye-bath', historicalUseConfirmed: 'yes', historicalUseReason: 5 }] }],
     ['recipe, wrong', stepsSchema, { steps: [{ operation: 'boil', temperatureC: 200, minutes: -1, ph: 15, ingredients: [{ kind: 'chemical', refId: 0, amount: Number.NaN, basis: 'owf' }] }] }],
     ['series, empty', seriesCreateSchema, {}],
     ['series, wrong', seriesCreateSchema, { code: 'x', title: '', factors: [{ name: '', levels: [] }], dryMassG: 0, deadVolumePct: 140, liquorRatio: 'high' }],

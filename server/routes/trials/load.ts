@@ -41,10 +41,12 @@ export async function presentTrialDetail(actor: Actor, trial: Trial & { piece?: 
   for (const s of steps) for (const i of s.ingredients) (i.kind === 'chemical' ? chemIds : dyeIds).add(i.refId);
   for (const s of substitutions) for (const id of [s.historicalChemicalId, s.modernChemicalId]) if (id != null) chemIds.add(id);
   const batchIds = [...new Set(steps.map((s) => s.batchId).filter((x): x is number => x != null))];
-  const [chemicals, dyestuffs, batches] = await Promise.all([
+  const confirmerIds = [...new Set(steps.map((s) => s.historicalUseConfirmedById).filter((x): x is number => x != null))];
+  const [chemicals, dyestuffs, batches, confirmers] = await Promise.all([
     Chemical.findAll({ where: { id: [...chemIds] } }),
     Dyestuff.findAll({ where: { id: [...dyeIds] } }),
     MordantBatch.findAll({ where: { id: batchIds } }),
+    confirmerIds.length ? User.findAll({ where: { id: confirmerIds }, attributes: ['id', 'name'] }) : Promise.resolve([] as User[]),
   ]);
   // What each bath holds now, from its replayed ledger: the recipe's scaling warns against it.
   const thick = batches.length ? await thickenerIds() : new Set<number>();
@@ -54,6 +56,7 @@ export async function presentTrialDetail(actor: Actor, trial: Trial & { piece?: 
     chemicals: new Map(chemicals.map((c) => [c.id, c])),
     dyestuffs: new Map(dyestuffs.map((d) => [d.id, d])),
     batches: new Map(batches.map((b) => [b.id, { id: b.id, code: b.code, name: b.name, status: b.status, remainingMl: held.get(b.id) ?? 0 }])),
+    people: new Map(confirmers.map((u) => [u.id, { id: u.id, name: u.name }])),
   });
 }
 

@@ -1,7 +1,8 @@
 import type { Transaction } from 'sequelize';
 import type { StepsInput, SubstitutionInput, TrialCreateInput, TrialUpdateInput } from '../../../shared/schemas/trial.ts';
 import { stepsSchema, substitutionSchema, trialCreateSchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
-import { badRequest } from '../../http/errors.ts';
+import { badRequest, unprocessable } from '../../http/errors.ts';
+import { audit } from '../audit.ts';
 import { ColourMeasurement, RecipeStep, Substitution, Trial } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
 import { checkChemical, checkPiece, checkTarget, loadIngredientRefs } from './refs.ts';
@@ -21,7 +22,7 @@ export async function createTrial({ actor, transaction, input }: Ctx<TrialCreate
       code, pieceId: v.pieceId ?? null, seriesId: null, cell: null,
       targetPaletteColourId: v.targetPaletteColourId ?? null, targetRegionId: v.targetRegionId ?? null, targetMeasurementId: v.targetMeasurementId ?? null,
       dyerId: actor?.id ?? null, status: v.status, kind: v.kind, fibre: v.fibre ?? null, weave: v.weave ?? null, gsm: v.gsm ?? null,
-      dryMassG: v.dryMassG, fastness: v.fastness ?? null, notes: v.notes ?? null, startedOn: v.startedOn ?? null,
+      dryMassG: v.dryMassG, dryMassBasis: v.dryMassBasis, fastness: v.fastness ?? null, notes: v.notes ?? null, startedOn: v.startedOn ?? null,
     },
     { transaction },
   );
@@ -62,6 +63,7 @@ export async function deleteTrial({ actor, transaction, input }: Ctx<{ trial: Tr
 export async function replaceSteps({ actor, transaction, input }: Ctx<StepsInput & { trial: Trial }>) {
   const { steps } = stepsSchema.parse({ steps: input.steps });
   const { chemicals, dyestuffs } = await loadIngredientRefs(steps, transaction);
+  const historicalOnly = historicalOnlyIn(input.trial, steps, chemicals);
   const trialId = input.trial.id;
   // The trial row, not its steps, is locked: two saves of one recipe queue here, and no gap locks on
   // recipe_steps make saves of different trials deadlock on their inserts.
@@ -72,15 +74,28 @@ export async function replaceSteps({ actor, transaction, input }: Ctx<StepsInput
   const subs = await Substitution.findAll({ where: { trialId }, transaction });
   await Substitution.update({ stepId: null }, { where: { trialId }, transaction });
   await RecipeStep.destroy({ where: { trialId }, transaction });
+  const confirmations = confirmHistoricalUse(steps, historicalOnly, old, actor?.id ?? null);
   const created = await RecipeStep.bulkCreate(
     steps.map((s, i) => ({
       trialId, position: i + 1, operation: s.operation,
       ingredients: s.ingredients.map((ing) => ({ ...ing, name: (ing.kind === 'chemical' ? chemicals.get(ing.refId)?.name : dyestuffs.get(ing.refId)?.name) ?? '' })),
       liquorRatio: s.liquorRatio ?? null, temperatureC: s.temperatureC ?? null, minutes: s.minutes ?? null, ph: s.ph ?? null,
       paste: s.paste ?? null, batchId: s.batchId ?? null, batchVolumeMl: s.batchVolumeMl ?? null, notes: s.notes ?? null,
+      historicalUseReason: confirmations[i].historicalUseReason,
+      historicalUseConfirmedById: confirmations[i].historicalUseConfirmedById,
+      historicalUseConfirmedAt: confirmations[i].historicalUseConfirmedAt,
     })),
     { transaction },
   );
+  // Each new or changed confirmation is audited with the trial: who, which chemicals, why.
+  for (const [i, c] of confirmations.entries()) {
+    if (!c.fresh) continue;
+    await audit({ actor, transaction }, 'trial', trialId, 'historical-use-confirmed', {
+      step: { from: null, to: i + 1 },
+      chemicals: { from: null, to: historicalOnly[i].map((h) => h.name) },
+      historicalUseReason: { from: c.previousReason, to: c.historicalUseReason },
+    });
+  }
   // Each step continues the stored step whose id it carries; a request without ids continues by position.
   const oldIds = new Set(old.map((s) => s.id));
   const byIds = steps.some((s) => s.id != null);
@@ -98,6 +113,41 @@ export async function replaceSteps({ actor, transaction, input }: Ctx<StepsInput
     if (stepId != null) await sub.update({ stepId }, { transaction });
   }
   return created;
+}
+
+type StepRow = ReturnType<typeof stepsSchema.parse>['steps'][number];
+type ChemRow = { id: number; name: string; status: string };
+
+/** The historical-only chemicals of each step of a modern trial (a historical record uses them freely). */
+function historicalOnlyIn(trial: Trial, steps: StepRow[], chemicals: ReadonlyMap<number, ChemRow>): ChemRow[][] {
+  return steps.map((s) => (trial.kind === 'modern'
+    ? [...new Map(s.ingredients.filter((i) => i.kind === 'chemical').map((i) => chemicals.get(i.refId)).filter((c): c is ChemRow => c?.status === 'historical-only').map((c) => [c.id, c])).values()]
+    : []));
+}
+
+/**
+ * A step of a modern trial that uses a historical-only chemical is saved only with historicalUseConfirmed
+ * and a reason (422 otherwise, beside the step's fields). A confirmation carried over unchanged from the
+ * step it continues keeps who confirmed it and when; a new or changed reason is the saver's, now.
+ */
+function confirmHistoricalUse(steps: StepRow[], historicalOnly: ChemRow[][], old: RecipeStep[], actorId: number | null) {
+  const fields: Record<string, string[]> = {};
+  const byId = new Map(old.map((s) => [s.id, s]));
+  const out = steps.map((s, i) => {
+    const none = { historicalUseReason: null, historicalUseConfirmedById: null, historicalUseConfirmedAt: null, fresh: false, previousReason: null as string | null };
+    if (!historicalOnly[i].length) return none;
+    const names = historicalOnly[i].map((c) => c.name).join(', ');
+    const reason = s.historicalUseReason?.trim() ?? '';
+    if (s.historicalUseConfirmed !== true) fields[`steps.${i}.historicalUseConfirmed`] = [`${names} is for historical recipes only: confirm its use in this modern trial, or choose a modern substitute`];
+    if (!reason) fields[`steps.${i}.historicalUseReason`] = [`Say why ${names} is used in this modern trial (for example a documented reconstruction under fume extraction)`];
+    const before = (s.id != null ? byId.get(s.id) : undefined) ?? (steps.some((x) => x.id != null) ? undefined : old[i]);
+    if (before?.historicalUseConfirmedAt && before.historicalUseReason === reason) {
+      return { ...none, historicalUseReason: reason, historicalUseConfirmedById: before.historicalUseConfirmedById, historicalUseConfirmedAt: before.historicalUseConfirmedAt };
+    }
+    return { historicalUseReason: reason, historicalUseConfirmedById: actorId, historicalUseConfirmedAt: new Date(), fresh: true, previousReason: before?.historicalUseReason ?? null };
+  });
+  if (Object.keys(fields).length) throw unprocessable('A historical-only chemical needs your confirmation and a reason before it is used in a modern trial.', { fields });
+  return out;
 }
 
 async function checkSubstitution(trialId: number, v: ReturnType<typeof substitutionSchema.parse>, transaction: Transaction) {

@@ -6,9 +6,14 @@ import { formMessage, useFormErrors } from '../../../lib/form';
 import { useChemicals, useDyestuffs } from '../../reference/api';
 import { useBatches } from '../../batches/api';
 import { useReplaceSteps, type TrialView } from '../api';
+import { incompatibleInStep } from '../../../../shared/compute/incompatible';
 
 type Ing = { kind: 'dyestuff' | 'chemical'; refId: string; amount: string; basis: string };
-type Draft = { id: number | null; operation: string; liquorRatio: string; temperatureC: string; minutes: string; ph: string; pasteVolumeMl: string; stockGPerL: string; batchId: string; batchVolumeMl: string; notes: string; ingredients: Ing[] };
+type Draft = {
+  id: number | null; operation: string; liquorRatio: string; temperatureC: string; minutes: string; ph: string; pasteVolumeMl: string; stockGPerL: string; batchId: string; batchVolumeMl: string; notes: string; ingredients: Ing[];
+  /** A historical-only chemical in a modern trial: confirmed, and why. */
+  historicalUseConfirmed: boolean; historicalUseReason: string;
+};
 
 const s = (x: number | null | undefined) => (x == null ? '' : String(x));
 const n = (x: string) => (x.trim() === '' ? null : Number(x));
@@ -18,8 +23,9 @@ const fromStep = (st: TrialView['steps'][number]): Draft => ({
   id: st.id, operation: st.operation, liquorRatio: s(st.liquorRatio), temperatureC: s(st.temperatureC), minutes: s(st.minutes), ph: s(st.ph),
   pasteVolumeMl: s(st.paste?.volumeMl), stockGPerL: s(st.paste?.stockGPerL), batchId: s(st.batchId), batchVolumeMl: s(st.batchVolumeMl), notes: st.notes ?? '',
   ingredients: st.ingredients.map((i) => ({ kind: i.kind as Ing['kind'], refId: String(i.refId), amount: String(i.amount), basis: i.basis })),
+  historicalUseConfirmed: st.historicalUse != null, historicalUseReason: st.historicalUse?.reason ?? '',
 });
-const blank = (): Draft => ({ id: null, operation: 'dye-bath', liquorRatio: '30', temperatureC: '', minutes: '', ph: '', pasteVolumeMl: '', stockGPerL: '', batchId: '', batchVolumeMl: '', notes: '', ingredients: [] });
+const blank = (): Draft => ({ id: null, operation: 'dye-bath', liquorRatio: '30', temperatureC: '', minutes: '', ph: '', pasteVolumeMl: '', stockGPerL: '', batchId: '', batchVolumeMl: '', notes: '', ingredients: [], historicalUseConfirmed: false, historicalUseReason: '' });
 
 const toInput = (d: Draft): StepInput => ({
   id: d.id, operation: d.operation as StepInput['operation'],
@@ -27,6 +33,7 @@ const toInput = (d: Draft): StepInput => ({
   paste: d.pasteVolumeMl.trim() ? { volumeMl: Number(d.pasteVolumeMl), stockGPerL: n(d.stockGPerL) } : null,
   batchId: n(d.batchId), batchVolumeMl: n(d.batchVolumeMl), notes: d.notes || null,
   ingredients: d.ingredients.map((i) => ({ kind: i.kind, refId: Number(i.refId), amount: n(i.amount) as number, basis: i.basis as 'owf' | 'g/L' | 'g' })),
+  ...(d.historicalUseConfirmed || d.historicalUseReason.trim() ? { historicalUseConfirmed: d.historicalUseConfirmed, historicalUseReason: d.historicalUseReason.trim() || null } : {}),
 });
 
 function Num({ label, value, onChange, error, unit }: { label: string; value: string; onChange: (v: string) => void; error?: string[]; unit?: string }) {
@@ -36,6 +43,49 @@ function Num({ label, value, onChange, error, unit }: { label: string; value: st
       <input className={`${input} font-mono ${error ? 'border-danger' : ''}`} inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)} aria-invalid={error ? true : undefined} />
       {error ? <span className="text-danger">{error.join(' ')}</span> : null}
     </label>
+  );
+}
+
+/** Dangerous pairs among the chemicals chosen for this step, as soon as they are chosen (the same rules as the server's). */
+function MixWarnings({ draft, step, chemicals }: { draft: Draft; step: number; chemicals: Array<{ id: number; name: string; formula: string | null; role: string }> }) {
+  const chosen = [...new Map(draft.ingredients.filter((g) => g.kind === 'chemical').map((g) => chemicals.find((c) => String(c.id) === g.refId)).filter((c): c is (typeof chemicals)[number] => Boolean(c)).map((c) => [c.id, c])).values()];
+  const warnings = incompatibleInStep(step, chosen);
+  if (!warnings.length) return null;
+  return (
+    <div className="mt-3 space-y-1" data-testid="mix-warnings">
+      {warnings.map((w) => (
+        <p key={w.code} className="rounded-md border-2 border-danger bg-danger-tint px-3 py-2 text-sm text-danger">
+          <span className="font-semibold">⚠ {w.message}</span> <span className="text-xs">Source: {w.source}.</span>
+        </p>
+      ))}
+    </div>
+  );
+}
+
+/**
+ * Beside a step of a modern trial that names a historical-only chemical: a confirmation and its reason,
+ * which the server requires before it saves the step (422 otherwise) and records with who and when.
+ */
+function HistoricalUse({ trial, draft, chemicals, onChange, errors, step }: {
+  trial: TrialView; draft: Draft; chemicals: Array<{ id: number; name: string; status: string }>; step: number;
+  onChange: (patch: Partial<Draft>) => void; errors: { confirmed?: string[]; reason?: string[] };
+}) {
+  if (trial.kind !== 'modern') return null;
+  const names = [...new Set(draft.ingredients.filter((g) => g.kind === 'chemical').map((g) => chemicals.find((c) => String(c.id) === g.refId)).filter((c) => c?.status === 'historical-only').map((c) => c!.name))];
+  if (!names.length) return null;
+  return (
+    <div className="mt-3 space-y-2 rounded-md border-2 border-danger bg-danger-tint p-3 text-sm text-danger">
+      <p className="font-semibold">⚠ {names.join(', ')} {names.length === 1 ? 'is' : 'are'} kept for historical recipes only. Prefer a modern substitute; use {names.length === 1 ? 'it' : 'them'} only under the supplier's safety data sheet, local rules and licensed practice.</p>
+      <label className="flex items-start gap-2">
+        <input type="checkbox" name={`steps.${step - 1}.historicalUseConfirmed`} checked={draft.historicalUseConfirmed} onChange={(e) => onChange({ historicalUseConfirmed: e.target.checked })} aria-invalid={errors.confirmed ? true : undefined} />
+        <span>I confirm step {step} uses {names.join(', ')} in this modern trial.</span>
+      </label>
+      {errors.confirmed ? <p className="text-xs">{errors.confirmed.join(' ')}</p> : null}
+      <label className="block text-xs font-medium text-ink">Reason (recorded with your name and the date)
+        <textarea name={`steps.${step - 1}.historicalUseReason`} className={`${input} ${errors.reason ? 'border-danger' : ''}`} rows={2} value={draft.historicalUseReason} onChange={(e) => onChange({ historicalUseReason: e.target.value })} aria-invalid={errors.reason ? true : undefined} />
+      </label>
+      {errors.reason ? <p className="text-xs">{errors.reason.join(' ')}</p> : null}
+    </div>
   );
 }
 
@@ -107,6 +157,8 @@ export function RecipeEditor({ trial, onDone }: { trial: TrialView; onDone: () =
               })}
             </tbody>
           </table>
+          <MixWarnings draft={d} step={i + 1} chemicals={chemicals.data?.items ?? []} />
+          <HistoricalUse trial={trial} draft={d} chemicals={chemicals.data?.items ?? []} onChange={(patch) => update(i, patch)} errors={{ confirmed: err(i, 'historicalUseConfirmed'), reason: err(i, 'historicalUseReason') }} step={i + 1} />
           <label className="mt-3 block text-xs font-medium">Notes<textarea className={input} rows={2} value={d.notes} onChange={(e) => update(i, { notes: e.target.value })} /></label>
           <div className="mt-3 flex flex-wrap gap-3 text-sm">
             <button type="button" className="underline" onClick={() => update(i, { ingredients: [...d.ingredients, { kind: 'chemical', refId: '', amount: '', basis: 'owf' }] })}>Add ingredient</button>

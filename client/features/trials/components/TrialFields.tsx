@@ -1,7 +1,8 @@
 import { formatNumber } from '../../../../shared/format';
 import { conditionsText, viewingLabel } from '../../../../shared/colour/conditions';
 import { IMAGE_ESTIMATE } from '../../../components/ViewingConditions';
-import { TRIAL_STATUSES } from '../../../../shared/schemas/trial';
+import { DRY_MASS_BASES, TRIAL_STATUSES, dryMassBasisLabels } from '../../../../shared/schemas/trial';
+import { recipeMass } from '../../../../shared/compute/moisture';
 import { Field } from '../../../components/form/Field';
 import { Select } from '../../../components/form/Select';
 import { TextAreaField } from '../../pieces/components/FormBits';
@@ -15,6 +16,7 @@ export type TrialFormValues = {
   weave: string;
   gsm: string;
   dryMassG: string;
+  dryMassBasis: string;
   startedOn: string;
   notes: string;
   target: string; // "palette:12", "region:4" or ""
@@ -42,6 +44,7 @@ export const toTrialInput = (v: TrialFormValues) => {
     weave: v.weave || null,
     gsm: num(v.gsm) as number | null,
     dryMassG: (num(v.dryMassG) ?? undefined) as number,
+    dryMassBasis: (v.dryMassBasis || 'air-dry') as (typeof DRY_MASS_BASES)[number],
     startedOn: v.startedOn || null,
     notes: v.notes || null,
     ...targetIds(v.target),
@@ -63,12 +66,30 @@ export function TargetSelect({ pieceId, value, onChange, error }: { pieceId: num
   return <Select label="Target colour of the original" options={options} value={value} onChange={(e) => onChange(e.target.value)} error={error} />;
 }
 
+/** The other figure of the dry mass, from the fibre's commercial moisture regain (ASTM D1909, recalled from memory). */
+function MassFigure({ values }: { values: TrialFormValues }) {
+  const g = Number(values.dryMassG);
+  if (!values.dryMassG.trim() || !(g > 0)) return null;
+  const m = recipeMass(g, values.dryMassBasis === 'oven-dry' ? 'oven-dry' : 'air-dry', values.fibre);
+  if (m.problem) return <p className="mt-1 text-xs text-warn">{m.problem}</p>;
+  if (m.otherG == null) return <p className="mt-1 text-xs text-ink-faint">Name a fibre (cotton, linen, wool, silk…) to see the {m.basis === 'oven-dry' ? 'air-dry' : 'oven-dry'} figure.</p>;
+  return (
+    <p className="mt-1 text-xs text-ink-soft" data-testid="mass-figure">
+      = <span className="font-mono">{formatNumber(m.otherG, 1)} g</span> {m.basis === 'oven-dry' ? 'air-dry, the mass the recipe is worked on' : 'oven-dry'} ({formatNumber(m.regainPct!, 2)} % regain for {m.fibre}; {m.source})
+    </p>
+  );
+}
+
 export function TrialFields({ values, onChange, errors, pieceId }: { values: TrialFormValues; onChange: (v: TrialFormValues) => void; errors: FieldErrors; pieceId: number | null }) {
   const set = (k: keyof TrialFormValues) => (e: { target: { value: string } }) => onChange({ ...values, [k]: e.target.value });
   return (
     <div className="grid gap-4 sm:grid-cols-2">
       <Select label="Status" options={TRIAL_STATUSES.map((s) => ({ value: s, label: STATUS_WORDS[s] }))} value={values.status} onChange={set('status')} error={errors?.status} />
-      <Field label="Dry fibre mass" unit="g" inputMode="decimal" required value={values.dryMassG} onChange={set('dryMassG')} error={errors?.dryMassG} hint="Weighed dry; every % owf is of this mass." />
+      <Field label="Dry fibre mass" unit="g" inputMode="decimal" required value={values.dryMassG} onChange={set('dryMassG')} error={errors?.dryMassG} hint="Every % owf is of the air-dry (conditioned) mass." />
+      <div>
+        <Select label="Weighed" options={DRY_MASS_BASES.map((b) => ({ value: b, label: dryMassBasisLabels[b] }))} value={values.dryMassBasis} onChange={set('dryMassBasis')} error={errors?.dryMassBasis} />
+        <MassFigure values={values} />
+      </div>
       <Field label="Fibre" value={values.fibre} onChange={set('fibre')} error={errors?.fibre} placeholder="cotton" />
       <Field label="Weave" value={values.weave} onChange={set('weave')} error={errors?.weave} placeholder="plain (tabby)" />
       <Field label="Fabric weight" unit="g/m²" inputMode="decimal" value={values.gsm} onChange={set('gsm')} error={errors?.gsm} />

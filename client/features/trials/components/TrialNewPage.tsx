@@ -19,7 +19,7 @@ export function TrialNewPage() {
   const navigate = useNavigate();
   const create = useCreateTrial();
   const [kind, setKind] = useState<'modern' | 'historical'>('modern');
-  const [values, setValues] = useState<TrialFormValues>({ status: 'planned', fibre: 'cotton', weave: '', gsm: '', dryMassG: '', startedOn: '', notes: '', target: '' });
+  const [values, setValues] = useState<TrialFormValues>({ status: 'planned', fibre: 'cotton', weave: '', gsm: '', dryMassG: '', dryMassBasis: 'air-dry', startedOn: '', notes: '', target: '' });
   const { formRef, errors, check, fromServer } = useFormErrors();
 
   return (

@@ -18,7 +18,7 @@ import { SubstitutionsSection } from './SubstitutionsSection';
 import { TrialFields, toTrialInput, type TrialFormValues } from './TrialFields';
 
 const toValues = (t: TrialView): TrialFormValues => ({
-  status: t.status, fibre: t.fibre ?? '', weave: t.weave ?? '', gsm: t.gsm == null ? '' : String(t.gsm), dryMassG: String(t.dryMassG), startedOn: t.startedOn ?? '', notes: t.notes ?? '',
+  status: t.status, fibre: t.fibre ?? '', weave: t.weave ?? '', gsm: t.gsm == null ? '' : String(t.gsm), dryMassG: String(t.dryMassG), dryMassBasis: t.dryMassBasis, startedOn: t.startedOn ?? '', notes: t.notes ?? '',
   target: t.target.paletteColourId ? `palette:${t.target.paletteColourId}` : t.target.regionId ? `region:${t.target.regionId}` : t.target.measurementId ? `measurement:${t.target.measurementId}` : '',
 });
 
@@ -40,13 +40,25 @@ function DetailsEditor({ trial, onDone }: { trial: TrialView; onDone: () => void
   );
 }
 
+/** The dry mass as weighed, its basis, and the other figure from the fibre's commercial regain. */
+function DryMass({ trial }: { trial: TrialView }) {
+  const m = trial.mass;
+  return (
+    <span>
+      <span className="font-mono">{fmt(m.enteredG, 1)} g</span> {m.basis}
+      {m.otherG != null ? <span className="text-ink-soft"> = <span className="font-mono">{fmt(m.otherG, 1)} g</span> {m.basis === 'oven-dry' ? 'air-dry' : 'oven-dry'} at {fmt(m.regainPct!, 2)} % regain for {m.fibre} ({m.source}{m.regainNote ? `; ${m.regainNote}` : ''})</span> : null}
+      {m.problem ? <span className="block text-xs text-warn">{m.problem}</span> : null}
+    </span>
+  );
+}
+
 function Facts({ trial }: { trial: TrialView }) {
   const rows: Array<[string, React.ReactNode]> = [
     ['Piece', trial.piece ? <Link className="underline" to={paths.piece(trial.piece.id)}><span className="font-mono">{trial.piece.accessionNumber}</span> {trial.piece.title}</Link> : '—'],
     ['Dyer', trial.dyer?.name ?? '—'],
     ['Status', STATUS_WORDS[trial.status]],
     ['Substrate', [trial.fibre, trial.weave, trial.gsm != null ? `${fmt(trial.gsm, 0)} g/m²` : null].filter(Boolean).join(', ') || '—'],
-    ['Dry mass', <span className="font-mono">{fmt(trial.dryMassG, 1)} g</span>],
+    ['Dry mass', <DryMass trial={trial} />],
     ['Started', trial.startedOn ?? '—'],
   ];
   return (
@@ -68,6 +80,7 @@ export function TrialPage() {
   if (q.isError) return q.error instanceof ApiError && q.error.status === 404 ? <NotFound title="Trial not found" /> : <p role="alert" className="text-danger">{q.error.message}</p>;
   const trial = q.data;
   const canEdit = trial.abilities['trial:update'];
+  const historicalOnly = trial.warnings.flatMap((w) => (w.code === 'historical-only-in-modern' ? [w] : []));
   return (
     <Page
       title={`Trial ${trial.code}`}
@@ -88,10 +101,10 @@ export function TrialPage() {
             <strong>Historical recipe, recorded for scholarship.</strong> It documents past practice, including chemicals now kept for the historical record only; it is not a recipe to follow.
           </p>
         ) : null}
-        {trial.warnings.length ? (
+        {historicalOnly.length ? (
           <div role="alert" className="rounded-md border-2 border-danger bg-danger-tint px-4 py-3 text-danger">
             <p className="font-semibold">This modern trial uses chemicals kept for the historical record only:</p>
-            <ul className="mt-1 list-disc pl-5 text-sm">{trial.warnings.map((w) => <li key={`${w.stepPosition}-${w.chemicalId}`}>Step {w.stepPosition}: {w.name}</li>)}</ul>
+            <ul className="mt-1 list-disc pl-5 text-sm">{historicalOnly.map((w) => <li key={`${w.stepPosition}-${w.chemicalId}`}>Step {w.stepPosition}: {w.name}</li>)}</ul>
             <p className="mt-1 text-sm">Replace them with a permitted substitute; follow the supplier's safety data sheet, local rules and licensed practice.</p>
           </div>
         ) : null}
