@@ -101,4 +101,36 @@ describe('every main page passes axe (WCAG 2.1 AA, serious and critical)', () =>
     const found = await check(page, 'admin', ['/', '/team', '/outbox', '/admin/fixity', '/reference', '/archive']);
     expect(found).toEqual([]);
   }, 300_000);
+
+  it('with forms, messages and panels open', async () => {
+    const { piece, trial } = await demo();
+    const page = await suite.browser.context.newPage();
+    const found: string[] = [];
+    // Opens a page, presses a button that reveals something (the button then goes away), checks the page with it open.
+    const opened = async (who: string, path: string, button: string | RegExp, shown: () => Promise<unknown>) => {
+      await open(page, path);
+      await page.getByRole('button', { name: button }).first().click();
+      await shown();
+      found.push(...(await violations(page, `${who} ${path} after "${button}"`)));
+    };
+    const invalid = () => page.locator('main [aria-invalid="true"]').first().waitFor();
+
+    // Messages beside the fields.
+    await opened('visitor', '/sign-in', 'Sign in', invalid);
+    await signInAs(page, suite.server.url, 'curator@demo.test');
+    await opened('curator', '/archive/new', 'Save draft', invalid);
+    await opened('curator', `/archive/${piece}`, 'Show who changed what', () => page.getByRole('button', { name: 'Show who changed what' }).waitFor({ state: 'detached' }));
+
+    // The dyer's editors on a trial of their own.
+    await signInAs(page, suite.server.url, 'dyer@demo.test');
+    for (const button of ['Edit details', 'Edit recipe', 'Add a substitution', 'Record grades'])
+      await opened('dyer', `/trials/${trial}`, button, () => page.getByRole('button', { name: button }).waitFor({ state: 'detached' }));
+
+    // A phone: the folded menu and the search's facet panel, open.
+    await signInAs(page, suite.server.url, 'admin@demo.test');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await opened('admin at 390 px', '/archive', 'Menu', () => page.getByRole('navigation', { name: 'Main' }).waitFor());
+    await opened('admin at 390 px', '/search?hex=a53a2d', /Narrow by shade and facets/, () => page.getByRole('region', { name: 'Facets' }).waitFor());
+    expect(found).toEqual([]);
+  }, 300_000);
 });
