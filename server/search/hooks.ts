@@ -16,7 +16,8 @@ function later(options: Opts | undefined, fn: () => void) {
 }
 const send = (options: Opts | undefined, ...changes: Change[]) => later(options, () => changes.forEach((c) => searchEngine.enqueue(c)));
 
-// Ids named in a bulk call's where clause ({ photoId: 3 } or { photoId: [3, 4] }); null when it says something else.
+// Ids named in a bulk call's where clause ({ photoId: 3 } or { photoId: [3, 4] }); null when it says something else,
+// and then the whole index is reloaded: bulk writes must name ids (README.md, invariant 2).
 function idsFrom(where: unknown, key: string): number[] | null {
   const v = (where as Record<string, unknown> | undefined)?.[key];
   if (typeof v === 'number') return [v];

@@ -7,7 +7,10 @@
  */
 
 export type Postings = Map<number, Map<number, number>>;
-/** The parts of minisearch's index read here and by the scorer (pinned minisearch 7.2.0; checked against its own search in tests/unit/text-index.test.ts). */
+/**
+ * The parts of minisearch's index read here and by the scorer (pinned minisearch 7.2.0; checked against its own search in
+ * tests/unit/text-index.test.ts). Private fields, read on purpose: why, and what an upgrade must re-check, in README.md (invariant 3).
+ */
 export type MsInternals = {
   _index: Iterable<[string, Postings]> & {
     get(t: string): Postings | undefined;

@@ -88,6 +88,7 @@ let visibleBuf = new Int32Array(0);
 let matchedBuf = new Int32Array(0);
 
 /** Piece ids passing visibility and text (`textMatched`, for facet counts) and also every filter (`matched`). */
+// Fills the module's reused buffers and the text index's scratch: the caller reads the answer before any `await` (README.md, invariant 1).
 function candidates(actor: Actor, f: SearchFilters) {
   const t = facetTable();
   const trials = can(actor, 'trial:read');
@@ -150,6 +151,7 @@ function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, 
 
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
+  // From here to the answer: no `await`, the matches live in reused buffers (README.md, invariant 1).
   const { textMatched, matched, hits, c, trials } = candidates(actor, input);
   const rank = facetTable().accessionRank;
   const s = hits?.scores;
@@ -199,6 +201,7 @@ function allowList(actor: Actor, f: SearchFilters): Uint8Array {
 
 export async function runShade({ actor, input }: { actor: Actor; input: ShadeQuery }): Promise<ShadeResponse> {
   await searchEngine.settled();
+  // From here to the answer: no `await`, the matches live in reused buffers (README.md, invariant 1).
   const lab = input.hex ? hexToLab(input.hex) : { L: input.L!, a: input.a!, b: input.b! };
   const offset = (input.page - 1) * input.limit;
   const res = searchEngine.shade.query({ ...lab, maxDeltaE: input.maxDeltaE, limit: input.limit, offset, allow: allowList(actor, input) });
@@ -227,6 +230,7 @@ function shadeFacets(actor: Actor, input: ShadeQuery, lab: { L: number; a: numbe
   const t = facetTable();
   const trials = can(actor, 'trial:read');
   const c = compile(selected(input), t, trials);
+  // Copied: the second shade query below reuses the buffer `matchedView` points into (README.md, invariant 1).
   const matched = Int32Array.from(matchedView);
   let textMatched = matched;
   if (c.facets.some((x) => !x.narrowing)) {

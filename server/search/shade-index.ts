@@ -265,7 +265,8 @@ export class ShadeIndex {
   }
 
   /** Pieces with a colour within maxDeltaE of the query, best colour each, ranked by ΔE00 then share; `total` counts all of them. */
-  // `matched` lists every matching piece id (for facet counts); it is a view of a buffer reused by the next query.
+  // `matched` lists every matching piece id (for facet counts); it is a view of a buffer reused by the next query:
+  // read it before any `await` or copy it (README.md, invariant 1).
   query(q: ShadeQuery): { total: number; items: ShadeMatch[]; candidates: number; matched: Int32Array } {
     const { L: qL, a: qa, b: qb, maxDeltaE: r } = q;
     const k = this.kernel;

@@ -82,7 +82,10 @@ export class TextIndex {
   readonly byId: Array<PieceDoc | undefined> = [];
   readonly trials = new Map<number, TrialDoc>();
   private ms = this.fresh();
-  /** Flat postings and per-document tables for the scorer, kept in step with minisearch by load/setPiece/setTrial. */
+  /**
+   * Flat postings and per-document tables for the scorer, kept in step with minisearch by load/setPiece/setTrial.
+   * This class reads minisearch's private fields through `MsInternals` (README.md, invariant 3).
+   */
   private store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
   private scratch: Scratch | null = null;
 
@@ -188,7 +191,8 @@ export class TextIndex {
    * short document id, so a word found in most documents costs one pass over
    * its postings, not an object per document; words, fields and trial codes are
    * worked out only for the pieces a page shows. The result lives in scratch
-   * buffers reused by the next search: use it before searching again.
+   * buffers reused by the next search: use it before searching again, with no `await` in between
+   * (server/search/README.md, invariant 1).
    */
   search(q: string, withTrials: boolean): TextMatches {
     const ms = this.ms as unknown as MsInternals;
