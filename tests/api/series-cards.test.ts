@@ -63,6 +63,14 @@ describe('trial series through the API', () => {
     await dyer.post(`/api/series/${s.id}/trials`).set('Origin', ORIGIN).expect(409);
   });
 
+  it('refuses a series whose mordant levels name a historical-only chemical: its planned modern trials could not confirm the use', async () => {
+    const lead = await Chemical.findOne({ where: { name: 'lead(II) acetate (sugar of lead)' }, rejectOnEmpty: true });
+    const f = factors();
+    f[1].mordants![1] = { level: 'weak Al', chemicals: [{ refId: lead.id, name: lead.name, owf: 3 }] };
+    const res = await dyer.post('/api/series').set('Origin', ORIGIN).send({ code: `SH${tag}`, title: 'Lead series', factors: f, dryMassG: 20, deadVolumePct: 10, liquorRatio: 30 }).expect(422);
+    expect(res.body.error.details.fields.factors[0]).toMatch(/lead\(II\) acetate .* is for historical recipes only/);
+  });
+
   it('plans a workshop per participant, with a materials list for each pseudonymous code', async () => {
     const res = await dyer.post('/api/series').set('Origin', ORIGIN).send({
       code: `W${tag}`, title: 'Workshop card', kind: 'workshop', factors: factors().slice(1), participants: ['P-01', 'P-02', 'P-03'], dryMassG: 10, deadVolumePct: 15,

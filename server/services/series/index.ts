@@ -98,5 +98,15 @@ async function resolveRefs(factors: SeriesCreateInput['factors'], transaction: T
     out.push({ ...rest, refId, ...(mordants ? { mordants } : {}) });
   }
   if (missing.length) throw unprocessable(`Not in the reference list: ${missing.join(', ')}.`, { fields: { factors: [`Unknown: ${missing.join(', ')}`] } });
+  // A series plans modern trials, where a historical-only chemical needs a confirmed reason per step
+  // (services/trials): a plan of many cells cannot give one, so it is refused here.
+  const chemIds = out.flatMap((f) => [...(f.role === 'tannin' && f.refId ? [f.refId] : []), ...(f.mordants ?? []).flatMap((m) => m.chemicals.map((c) => c.refId!))]);
+  const historical = chemIds.length ? await Chemical.findAll({ where: { id: chemIds, status: 'historical-only' }, attributes: ['name'], transaction }) : [];
+  if (historical.length) {
+    const names = [...new Set(historical.map((c) => c.name))].join(', ');
+    throw unprocessable(`${names} is for historical recipes only.`, {
+      fields: { factors: [`${names} is for historical recipes only: a series plans modern trials, so choose a modern substitute, or record its use on one trial with the reason`] },
+    });
+  }
   return out;
 }
