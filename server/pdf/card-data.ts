@@ -3,7 +3,8 @@ import { labToHex, type Lab } from '../../shared/colour/index.ts';
 import { viewingLabel } from '../../shared/colour/conditions.ts';
 import { gramsFromOwf } from '../../shared/compute/recipe.ts';
 import { trialRecipeMass } from '../../shared/trials/quantities.ts';
-import { RecipeStep, Trial, TrialSeries } from '../models/index.ts';
+import { incompatibleInStep } from '../../shared/compute/incompatible.ts';
+import { Chemical, RecipeStep, Trial, TrialSeries } from '../models/index.ts';
 import { roleOf, type StoredFactor } from '../services/series/plan.ts';
 import { publicUrl } from '../env.ts';
 import { trialColour } from '../services/trials/colour.ts';
@@ -77,7 +78,15 @@ export async function loadCards(trialIds: number[]): Promise<CardData[]> {
     const { target, result, difference, note, missing } = await trialColour(t);
     // Grams are weighed out on the air-dry mass: an oven-dry mass is brought to it with the fibre's regain.
     const mass = trialRecipeMass(t);
-    const steps = ((t as Trial & { steps?: RecipeStep[] }).steps ?? []).sort((a, b) => a.position - b.position).map((s) => stepLine(s, mass.recipeMassG));
+    const stepRows = ((t as Trial & { steps?: RecipeStep[] }).steps ?? []).sort((a, b) => a.position - b.position);
+    // A dangerous mix goes on the card under its step: the card is what stands beside the pot.
+    const chemIds = [...new Set(stepRows.flatMap((s) => s.ingredients.filter((i) => i.kind === 'chemical').map((i) => i.refId)))];
+    const chems = new Map((chemIds.length ? await Chemical.findAll({ where: { id: chemIds }, attributes: ['id', 'name', 'formula', 'role'] }) : []).map((c) => [c.id, c]));
+    const steps = stepRows.flatMap((s) => {
+      const inStep = [...new Set(s.ingredients.filter((i) => i.kind === 'chemical').map((i) => i.refId))].map((id) => chems.get(id)).filter((c): c is Chemical => Boolean(c));
+      const mixes = incompatibleInStep(s.position, inStep.map((c) => ({ id: c.id, name: c.name, formula: c.formula, role: c.role })));
+      return [stepLine(s, mass.recipeMassG), ...mixes.map((w) => `   DANGER: ${w.message} Check the safety data sheets.`)];
+    });
     const massLine = mass.basis === 'oven-dry' && mass.regainPct != null
       ? `${fmtNum(mass.enteredG)} g dry mass (oven-dry) = ${fmtNum(mass.recipeMassG)} g air-dry (${mass.fibre}, ${mass.regainPct} % regain, ASTM D1909)`
       : `${fmtNum(mass.enteredG)} g dry mass (${mass.basis})`;

@@ -5,6 +5,7 @@ import { createApp } from '../../server/app.ts';
 import { AuditEvent, Chemical, ColourMeasurement, Dyestuff, Trial, User } from '../../server/models/index.ts';
 import { makePiece, makeUser } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
+import { readPdf } from '../support/pdf.ts';
 import { useTestMail, waitForMail } from '../support/mail.ts';
 
 const app = createApp();
@@ -191,6 +192,10 @@ describe('recipe steps', () => {
     expect(w.source).toMatch(/EUH031/);
     expect(res.body.warning).toBe(true);
     expect(res.body.trial.checks.warnings).toEqual([expect.objectContaining({ code: 'incompatible-mix', stepPosition: 1 })]);
+    // The sample card that stands beside the pot carries the same warning under its step.
+    const pdf = await dyer.get(`/api/trials/${t.id}/card.pdf`).buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (x: Buffer) => c.push(x)); r.on('end', () => cb(null, Buffer.concat(c))); }).expect(200);
+    const text = (await readPdf(pdf.body)).text.replace(/\s+/g, ' ');
+    expect(text).toMatch(/DANGER: Do not combine sodium dithionite \(hydrosulfite\) \(a reducer\) with acetic acid/);
   });
 });
 
