@@ -1,0 +1,4 @@
+import type { RouteGroup } from '../registry.ts';
+
+// One import per route group, in the order of server/routes/index.ts.
+export const groups: RouteGroup[] = [];
