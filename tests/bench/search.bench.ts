@@ -1,5 +1,6 @@
 import type { Bench, BenchResult } from './index.ts';
 import { CLUSTERS, VOCAB, clusteredColour, insertPalettes, insertPieces, rnd, uniformColour, zipfWord } from './search-data.ts';
+import { testEnv } from '../support/env.ts';
 
 /**
  * Search at archive scale, through the real API on a throwaway database:
@@ -9,8 +10,8 @@ import { CLUSTERS, VOCAB, clusteredColour, insertPalettes, insertPieces, rnd, un
  * over the same pieces with its index build time and memory.
  */
 // BENCH_SIZE scales the archive for quick runs (0.1 = a tenth); BENCH_PARTS picks uniform, clustered and/or text.
-const SIZE = Number(process.env.BENCH_SIZE ?? 1);
-const PARTS = (process.env.BENCH_PARTS ?? 'uniform,clustered,text').split(',');
+const SIZE = testEnv.benchSize;
+const PARTS = testEnv.benchParts;
 const PIECES = Math.round(166_667 * SIZE);
 const PER_PHOTO = 6;
 const QUERIES = 200;

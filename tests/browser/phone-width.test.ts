@@ -3,6 +3,7 @@ import type { Page } from 'playwright-core';
 import { MordantBatch, Piece, Trial, TrialSeries } from '../../server/models/index.ts';
 import { signInAs } from '../support/browser.ts';
 import { useBrowserSuite } from '../support/browser-suite.ts';
+import { testEnv } from '../support/env.ts';
 
 const suite = useBrowserSuite();
 const PHONE = { width: 390, height: 844 };
@@ -17,7 +18,7 @@ async function open(page: Page, path: string) {
 
 // Set SCREENSHOT_DIR to keep a picture of each page at phone, tablet and desktop width for looking at by eye.
 async function picture(page: Page, name: string) {
-  const dir = process.env.SCREENSHOT_DIR;
+  const dir = testEnv.screenshotDir;
   if (!dir) return;
   for (const width of [390, 768, 1280]) {
     await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
@@ -34,7 +35,7 @@ async function signInOnPhone(page: Page, email: string) {
 }
 
 async function pictureAsIs(page: Page, name: string) {
-  if (process.env.SCREENSHOT_DIR) await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/${name}.png` });
+  if (testEnv.screenshotDir) await page.screenshot({ path: `${testEnv.screenshotDir}/${name}.png` });
 }
 
 const scrollWidth = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth);

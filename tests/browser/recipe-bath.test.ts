@@ -5,10 +5,11 @@ import { withTrialCode } from '../../server/services/trials/code.ts';
 import { createTrial } from '../../server/services/trials/trials.ts';
 import { signInAs } from '../support/browser.ts';
 import { useBrowserSuite } from '../support/browser-suite.ts';
+import { testEnv } from '../support/env.ts';
 
 const suite = useBrowserSuite();
 // Screens for looking at, under the throwaway data directory.
-const shots = `${process.env.DATA_DIR ?? '.data/test'}/screens`;
+const shots = testEnv.screensDir;
 
 describe('a dyer draws from a bath in the recipe editor', () => {
   it('picks MB-xx by its code, saves the draw once, sees an overdraw refused beside the field and the scaling warning', async () => {

@@ -6,6 +6,7 @@ import { deltaE00 } from '../../server/search/ciede2000.ts';
 import { hexToLab, labToHex } from '../../shared/search/lab.ts';
 import { launchBrowser, signInAs } from '../support/browser.ts';
 import { startServer } from '../support/server.ts';
+import { testEnv } from '../support/env.ts';
 
 let server: Awaited<ReturnType<typeof startServer>>;
 let browser: Awaited<ReturnType<typeof launchBrowser>>;
@@ -56,7 +57,7 @@ describe('search page in Chromium', () => {
     // … and with the shade chosen the facets count the shade's matches: two cochineal pieces lie within the radius.
     await expect.poll(async () => (await facet('cochineal').locator('xpath=..').textContent())?.trim()).toBe(`cochineal${u}2`);
     await expect.poll(async () => (await facet('logwood').locator('xpath=..').textContent())?.trim()).toBe(`logwood${u}1`);
-    const shots = `${process.env.DATA_DIR ?? '.data/test'}/screens`;
+    const shots = testEnv.screensDir;
     mkdirSync(shots, { recursive: true });
     await page.screenshot({ path: `${shots}/search-shade-facets-1280.png`, fullPage: true });
     await page.setViewportSize({ width: 390, height: 844 });

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { Piece } from '../../server/models/index.ts';
 import { signInAs } from '../support/browser.ts';
 import { useBrowserSuite } from '../support/browser-suite.ts';
+import { testEnv } from '../support/env.ts';
 
 const suite = useBrowserSuite();
 
@@ -23,9 +24,9 @@ describe('a signed-out visitor meets no dead ends', () => {
       await page.getByRole('heading', { name: 'Sign in to open this page' }).waitFor();
       expect(new URL(page.url()).pathname).toBe(path);
     }
-    if (process.env.SCREENSHOT_DIR) {
+    if (testEnv.screenshotDir) {
       await page.setViewportSize({ width: 390, height: 844 });
-      await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/visitor-sign-in-needed-390.png` });
+      await page.screenshot({ path: `${testEnv.screenshotDir}/visitor-sign-in-needed-390.png` });
       await page.setViewportSize({ width: 1280, height: 900 });
     }
     await page.getByRole('link', { name: 'Sign in and come back here' }).click();

@@ -1,0 +1,10 @@
+import { env } from '../../server/env.ts';
+
+// The test tools' own knobs, read once here (the app reads its configuration only in server/env.ts; lint keeps
+// process.env out of everything else). SCREENSHOT_DIR: where browser tests save pictures for a human to look at.
+export const testEnv = {
+  screenshotDir: process.env.SCREENSHOT_DIR || null,
+  screensDir: `${env.DATA_DIR}/screens`,
+  benchSize: Number(process.env.BENCH_SIZE ?? 1),
+  benchParts: (process.env.BENCH_PARTS ?? 'uniform,clustered,text').split(','),
+};
