@@ -192,7 +192,7 @@ export const pieceTrialsResponse = paged(z.looseObject({ id: z.number(), code: z
 /** A trial attached to the piece (POST /api/pieces/:id/trials); the trial is the trials group's detail. */
 export const pieceTrialCreatedResponse = z.object({ trial: z.looseObject({ id: z.number(), code: z.string() }), notified: z.boolean() });
 
-/** The Dublin Core record of a piece (JSON-LD, dcterms); fields without a value are left out. */
+/** The Dublin Core record of a piece (JSON-LD, dcterms); fields without a value (and empty lists) are left out. */
 export const dublinCoreSchema = z.looseObject({
   '@context': z.record(z.string(), z.string()),
   '@id': z.string(),
@@ -200,7 +200,7 @@ export const dublinCoreSchema = z.looseObject({
   'dcterms:identifier': z.string(),
   'dcterms:title': z.string(),
   'dcterms:type': z.string(),
-  'dcterms:medium': z.array(z.string()),
-  'dcterms:subject': z.array(z.string()),
+  'dcterms:medium': z.array(z.string()).optional(),
+  'dcterms:subject': z.array(z.string()).optional(),
   'dcterms:modified': z.object({ '@value': z.string(), '@type': z.literal('xsd:dateTime') }),
 });
