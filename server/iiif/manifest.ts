@@ -1,5 +1,6 @@
 import { readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
+import type { AnnotationPage, Manifest } from '../../shared/schemas/iiif.ts';
 import type { Photo, Piece, Region } from '../models/index.ts';
 import { iiifDir } from './files.ts';
 
@@ -28,7 +29,7 @@ export async function tileInfo(photo: Photo): Promise<TileInfo> {
 }
 
 /** A photo's regions as W3C Web Annotations on a canvas fragment (Media Fragments xywh, in image pixels). */
-export function regionAnnotationPage(canvasId: string, regions: Region[], pageId = `${canvasId}/page/regions`) {
+export function regionAnnotationPage(canvasId: string, regions: Region[], pageId = `${canvasId}/page/regions`): AnnotationPage {
   return {
     id: pageId,
     type: 'AnnotationPage',
@@ -42,7 +43,7 @@ export function regionAnnotationPage(canvasId: string, regions: Region[], pageId
   };
 }
 
-export async function buildManifest(base: string, piece: Piece, photos: Array<Photo & { regions?: Region[] }>) {
+export async function buildManifest(base: string, piece: Piece, photos: Array<Photo & { regions?: Region[] }>): Promise<Manifest> {
   const id = `${base}/iiif/${piece.id}/manifest.json`;
   const metadata = [
     entry('Accession number', piece.accessionNumber),
@@ -54,14 +55,14 @@ export async function buildManifest(base: string, piece: Piece, photos: Array<Ph
     ...(piece.historicalMordants.length ? [entry('Mordants', terms(piece.historicalMordants))] : []),
     ...(piece.fibres.length ? [entry('Fibres', piece.fibres.join('; '))] : []),
   ];
-  const items = [];
+  const items: Manifest['items'] = [];
   for (const photo of photos) {
     const { width, height, full } = await tileInfo(photo);
     const canvasId = `${base}/iiif/${piece.id}/canvas/${photo.id}`;
     const service = `${base}/iiif/photos/${photo.id}`;
     const body = full
-      ? { id: `${service}/full/${full}/0/default.jpg`, type: 'Image', format: 'image/jpeg', service: [{ id: service, type: 'ImageService3', profile: 'level0' }] }
-      : { id: `${base}/media/photos/${photo.id}/display`, type: 'Image', format: 'image/webp' };
+      ? { id: `${service}/full/${full}/0/default.jpg`, type: 'Image' as const, format: 'image/jpeg', service: [{ id: service, type: 'ImageService3', profile: 'level0' }] }
+      : { id: `${base}/media/photos/${photo.id}/display`, type: 'Image' as const, format: 'image/webp' };
     const regions = photo.regions ?? [];
     items.push({
       id: canvasId,

@@ -1,11 +1,11 @@
 import { IMAGE_ESTIMATE_CONDITIONS } from '../../shared/colour/conditions.ts';
-import { xywhSelector } from '../../shared/schemas/photo.ts';
+import { xywhSelector, type PaletteColourOut, type Palettes, type PhotoOut, type RegionOut } from '../../shared/schemas/photo.ts';
 import type { PaletteColour, Photo, Region } from '../models/index.ts';
 import { abilities, can, type Actor } from '../policies/index.ts';
 
 export const mediaUrl = (id: number, kind: 'thumb' | 'display' | 'master') => `/media/photos/${id}/${kind}`;
 
-export function presentColour(c: PaletteColour) {
+export function presentColour(c: PaletteColour): PaletteColourOut {
   return {
     id: c.id,
     rank: c.rank,
@@ -22,13 +22,13 @@ export function presentColour(c: PaletteColour) {
   };
 }
 
-export function presentRegion(r: Region) {
+export function presentRegion(r: Region): RegionOut {
   return { id: r.id, x: r.x, y: r.y, w: r.w, h: r.h, purpose: r.purpose, label: r.label, selector: xywhSelector(r) };
 }
 
 /** Palettes of one photo grouped as { regionId, variant, colours }, whole photo first, raw before corrected. */
-export function presentPalettes(rows: PaletteColour[]) {
-  const groups = new Map<string, { regionId: number | null; variant: 'raw' | 'corrected'; colours: ReturnType<typeof presentColour>[] }>();
+export function presentPalettes(rows: PaletteColour[]): Palettes {
+  const groups = new Map<string, Palettes[number]>();
   const sorted = [...rows].sort(
     (x, y) => (x.regionId ?? 0) - (y.regionId ?? 0) || (x.variant === y.variant ? 0 : x.variant === 'raw' ? -1 : 1) || x.rank - y.rank,
   );
@@ -47,7 +47,7 @@ export function presentExif(exif: Record<string, unknown>, seeGps: boolean) {
   return seeGps ? exif : Object.fromEntries(Object.entries(exif ?? {}).filter(([k]) => !GPS_KEY.test(k)));
 }
 
-export function presentPhoto(p: Photo, actor: Actor, extra: { palette: PaletteColour[]; regions?: Region[] }) {
+export function presentPhoto(p: Photo, actor: Actor, extra: { palette: PaletteColour[]; regions?: Region[] }): PhotoOut {
   const seeGps = can(actor, 'photo:see-gps');
   const wholeRaw = extra.palette.filter((c) => c.regionId == null && c.variant === 'raw').sort((x, y) => x.rank - y.rank);
   return {

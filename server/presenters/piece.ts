@@ -1,3 +1,4 @@
+import type { AuditEventOut, PieceOut, PieceSummary } from '../../shared/schemas/piece.ts';
 import type { AuditEvent, Piece, User } from '../models/index.ts';
 import { abilities, type Actor } from '../policies/index.ts';
 
@@ -5,7 +6,7 @@ const PIECE_ACTIONS = ['piece:update', 'piece:publish', 'piece:delete', 'piece:r
 
 export const pieceRecord = (p: Piece) => ({ status: p.status, deleted: p.deletedAt != null });
 
-export function presentPiece(p: Piece, actor: Actor) {
+export function presentPiece(p: Piece, actor: Actor): PieceOut {
   return {
     id: p.id,
     accessionNumber: p.accessionNumber,
@@ -38,7 +39,7 @@ export function presentPiece(p: Piece, actor: Actor) {
 }
 
 /** The row in the archive table and grid: the fields worth sorting by, plus the first photo's thumbnail. */
-export function presentPieceRow(p: Piece, thumbPhotoId: number | null) {
+export function presentPieceRow(p: Piece, thumbPhotoId: number | null): PieceSummary {
   return {
     id: p.id,
     accessionNumber: p.accessionNumber,
@@ -56,7 +57,7 @@ export function presentPieceRow(p: Piece, thumbPhotoId: number | null) {
   };
 }
 
-export function presentAuditEvent(e: AuditEvent & { actor?: User | null }) {
+export function presentAuditEvent(e: AuditEvent & { actor?: User | null }): AuditEventOut {
   return {
     id: e.id,
     action: e.action,

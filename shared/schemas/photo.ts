@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import '../messages.ts';
+import { IMAGE_ESTIMATE_CONDITIONS } from '../colour/conditions.ts';
+import { id, idParams } from './common.ts';
 
 export const PHOTO_VIEWS = ['recto', 'verso', 'detail', 'raking', 'transmitted', 'uv', 'swatch'] as const;
 // W3C Web Annotation motivations narrowed to what a region is for on a textile photo.
@@ -44,14 +46,16 @@ export type RegionUpdateInput = z.infer<typeof regionUpdateSchema>;
  * 'lcms-perceptual': other profiles, through lcms to 8-bit sRGB; 'libvips': floating-point or Lab
  * files; 'none': sRGB as stored). CMYK photos are refused, so cmykConverted is always false.
  */
-export type PhotoColourFacts = {
-  profile: string | null;
-  assumedSrgb: boolean;
-  bitDepth: number;
-  colourSpace: string;
-  cmykConverted: boolean;
-  conversion: 'icc-matrix' | 'lcms-perceptual' | 'libvips' | 'none';
-};
+export const COLOUR_CONVERSIONS = ['icc-matrix', 'lcms-perceptual', 'libvips', 'none'] as const;
+export const photoColourFactsSchema = z.object({
+  profile: z.string().nullable(),
+  assumedSrgb: z.boolean(),
+  bitDepth: z.number(),
+  colourSpace: z.string(),
+  cmykConverted: z.boolean(),
+  conversion: z.enum(COLOUR_CONVERSIONS),
+});
+export type PhotoColourFacts = z.infer<typeof photoColourFactsSchema>;
 
 const CONVERSIONS: Record<PhotoColourFacts['conversion'], string> = {
   'icc-matrix': "read through the profile's matrix and curves, colours outside sRGB kept",
@@ -72,9 +76,9 @@ export function colourFactsLines(facts: PhotoColourFacts | null): string[] {
 
 export const paletteColourUpdateSchema = z.object({ background: z.boolean({ error: 'Say true or false' }) }).strict();
 
-export const photoParams = z.object({ id: z.coerce.number().int().positive() });
-export const regionParams = photoParams.extend({ regionId: z.coerce.number().int().positive() });
-export const colourParams = photoParams.extend({ colourId: z.coerce.number().int().positive() });
+export const photoParams = idParams;
+export const regionParams = photoParams.extend({ regionId: id });
+export const colourParams = photoParams.extend({ colourId: id });
 export const mediaParams = photoParams.extend({ kind: z.enum(PHOTO_KINDS) });
 
 /** Problems with a rectangle against the photo's size, per field. */
@@ -93,3 +97,91 @@ export const xywhSelector = (r: Rect) => ({
   conformsTo: 'http://www.w3.org/TR/media-frags/',
   value: `xywh=pixel:${r.x},${r.y},${r.w},${r.h}`,
 });
+
+// ---- Responses (server/presenters/photo.ts returns these types; tsc checks the presenter against them) ----
+
+/** A rectangle as stored (non-strict: the reference patch read back from the photo row). */
+export const rectOut = z.object({ x: z.number(), y: z.number(), w: z.number(), h: z.number() });
+
+/** One palette colour: an image estimate, CIELAB D65/2° (IMAGE_ESTIMATE_CONDITIONS). */
+export const paletteColourSchema = z.object({
+  id: z.number(),
+  rank: z.number(),
+  hex: z.string(),
+  lab: z.object({ L: z.number(), a: z.number(), b: z.number() }),
+  share: z.number(),
+  spread: z.number(),
+  name: z.string(),
+  tradeName: z.string().nullable(),
+  background: z.boolean(),
+  source: z.literal('image-estimate'),
+  illuminant: z.literal(IMAGE_ESTIMATE_CONDITIONS.illuminant),
+  observer: z.literal(IMAGE_ESTIMATE_CONDITIONS.observer),
+});
+export type PaletteColourOut = z.infer<typeof paletteColourSchema>;
+
+/** A photo's palettes grouped as { regionId, variant, colours }: whole photo first, raw before corrected. */
+export const paletteGroupSchema = z.object({ regionId: z.number().nullable(), variant: z.enum(['raw', 'corrected']), colours: z.array(paletteColourSchema) });
+export const palettesSchema = z.array(paletteGroupSchema);
+export type Palettes = z.infer<typeof palettesSchema>;
+
+export const regionSchema = z.object({
+  id: z.number(),
+  x: z.number(),
+  y: z.number(),
+  w: z.number(),
+  h: z.number(),
+  purpose: z.enum(REGION_PURPOSES),
+  label: z.string().nullable(),
+  selector: z.object({ type: z.literal('FragmentSelector'), conformsTo: z.string(), value: z.string() }),
+});
+export type RegionOut = z.infer<typeof regionSchema>;
+
+const photoAbilities = z.object({
+  'photo:update': z.boolean(),
+  'photo:delete': z.boolean(),
+  'region:create': z.boolean(),
+  'region:update': z.boolean(),
+  'region:delete': z.boolean(),
+});
+
+export const photoSchema = z.object({
+  id: z.number(),
+  pieceId: z.number().nullable(),
+  width: z.number(),
+  height: z.number(),
+  format: z.string(),
+  bytes: z.number(),
+  sha256: z.string(),
+  view: z.enum(PHOTO_VIEWS),
+  caption: z.string().nullable(),
+  originalName: z.string().nullable(),
+  /** The camera's clock as written (no time zone), e.g. "2024-05-02T10:22:01". */
+  capturedAt: z.string().nullable(),
+  /** EXIF tags; GPS tags only for roles that may see them. */
+  exif: z.record(z.string(), z.unknown()),
+  /** Only for roles that may see GPS (photo:see-gps). */
+  gps: z.object({ latitude: z.number(), longitude: z.number(), altitude: z.number().optional() }).nullable().optional(),
+  referencePatch: rectOut.nullable(),
+  colour: photoColourFactsSchema.nullable(),
+  /** The whole photo's raw palette, by rank. */
+  palette: z.array(paletteColourSchema),
+  palettes: palettesSchema,
+  regions: z.array(regionSchema),
+  /** `master` only for those the media route serves it to. */
+  urls: z.object({ thumb: z.string(), display: z.string(), master: z.string().optional() }),
+  abilities: photoAbilities,
+});
+export type PhotoOut = z.infer<typeof photoSchema>;
+
+export const photoResponse = z.object({ photo: photoSchema });
+export const photoUploadResponse = z.object({ photos: z.array(photoSchema) });
+export const regionListResponse = z.object({ items: z.array(regionSchema) });
+export const regionSavedResponse = z.object({ region: regionSchema, palettes: palettesSchema });
+export const palettesResponse = z.object({ palettes: palettesSchema });
+export const referencePatchResponse = z.object({ referencePatch: rectOut.nullable(), palettes: palettesSchema });
+export type PhotoResponse = z.infer<typeof photoResponse>;
+export type PhotoUploadResponse = z.infer<typeof photoUploadResponse>;
+export type RegionSavedResponse = z.infer<typeof regionSavedResponse>;
+export type PalettesResponse = z.infer<typeof palettesResponse>;
+export type ReferencePatchResponse = z.infer<typeof referencePatchResponse>;

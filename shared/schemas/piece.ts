@@ -2,6 +2,8 @@ import { z } from 'zod';
 import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
 import '../messages.ts';
 import { dateIssues, YEAR_MAX, YEAR_MIN, type DateFields } from '../edtf.ts';
+import { paged, pageQuery } from './common.ts';
+import { photoSchema } from './photo.ts';
 
 export { ACCESSION_PATTERN } from '../accession.ts';
 
@@ -80,9 +82,8 @@ export type PieceCreateInput = z.infer<typeof pieceCreateSchema>;
 export type PieceUpdateInput = z.infer<typeof pieceUpdateSchema>;
 
 export const PIECE_SORTS = ['accessionNumber', 'title', 'objectName', 'earliestYear', 'updatedAt', 'createdAt'] as const;
-export const pieceListQuery = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(25),
+// The archive's pages hold 25 pieces unless asked otherwise.
+export const pieceListQuery = pageQuery(25).extend({
   sort: z.enum(PIECE_SORTS).default('accessionNumber'),
   dir: z.enum(['asc', 'desc']).default('asc'),
   status: z.enum(PIECE_STATUSES).optional(),
@@ -94,4 +95,112 @@ export const pieceListQuery = z.object({
 });
 export type PieceListQuery = z.infer<typeof pieceListQuery>;
 
-export const idParams = z.object({ id: z.coerce.number().int().positive() });
+/** A piece's trials (GET /api/pieces/:id/trials): one page of 100 unless asked otherwise. */
+export const pieceTrialsQuery = pageQuery(100);
+
+// ---- Responses (server/presenters/piece.ts returns these types; tsc checks the presenter against them) ----
+
+const evidencedTermOut = z.object({ name: z.string(), evidence: z.enum(EVIDENCE) });
+
+const pieceAbilities = z.object({
+  'piece:update': z.boolean(),
+  'piece:publish': z.boolean(),
+  'piece:delete': z.boolean(),
+  'piece:restore': z.boolean(),
+  'piece:history': z.boolean(),
+  'photo:create': z.boolean(),
+});
+
+export const pieceSchema = z.object({
+  id: z.number(),
+  accessionNumber: z.string(),
+  objectName: z.string(),
+  title: z.string(),
+  dateText: z.string().nullable(),
+  dateEdtf: z.string().nullable(),
+  earliestYear: z.number().nullable(),
+  latestYear: z.number().nullable(),
+  place: z.string().nullable(),
+  fibres: z.array(z.string()),
+  weave: z.string().nullable(),
+  threadCount: z.string().nullable(),
+  heightMm: z.number().nullable(),
+  widthMm: z.number().nullable(),
+  repeatMm: z.number().nullable(),
+  techniques: z.array(z.string()),
+  dyestuffs: z.array(evidencedTermOut),
+  historicalMordants: z.array(evidencedTermOut),
+  description: z.string().nullable(),
+  provenance: z.string().nullable(),
+  condition: z.string().nullable(),
+  creditLine: z.string().nullable(),
+  status: z.enum(PIECE_STATUSES),
+  deletedAt: z.iso.datetime().nullable(),
+  createdAt: z.iso.datetime(),
+  updatedAt: z.iso.datetime(),
+  abilities: pieceAbilities,
+});
+export type PieceOut = z.infer<typeof pieceSchema>;
+
+/** The row in the archive table and grid: the fields worth sorting by, plus the first photo's thumbnail. */
+export const pieceSummarySchema = z.object({
+  id: z.number(),
+  accessionNumber: z.string(),
+  objectName: z.string(),
+  title: z.string(),
+  dateText: z.string().nullable(),
+  earliestYear: z.number().nullable(),
+  latestYear: z.number().nullable(),
+  fibres: z.array(z.string()),
+  techniques: z.array(z.string()),
+  status: z.enum(PIECE_STATUSES),
+  deletedAt: z.iso.datetime().nullable(),
+  updatedAt: z.iso.datetime(),
+  thumbUrl: z.string().nullable(),
+});
+export type PieceSummary = z.infer<typeof pieceSummarySchema>;
+
+/** One row of a piece's history (audit events); `changes` maps each field to { from, to }. */
+export const auditEventSchema = z.object({
+  id: z.number(),
+  action: z.string(),
+  at: z.iso.datetime(),
+  actor: z.object({ id: z.number(), name: z.string() }).nullable(),
+  fields: z.array(z.string()),
+  changes: z.record(z.string(), z.object({ from: z.unknown(), to: z.unknown() })),
+});
+export type AuditEventOut = z.infer<typeof auditEventSchema>;
+
+export const pieceListResponse = paged(pieceSummarySchema);
+export const pieceResponse = z.object({ piece: pieceSchema });
+export const pieceDetailResponse = z.object({ piece: pieceSchema, photos: z.array(photoSchema) });
+export const pieceHistoryResponse = z.object({ items: z.array(auditEventSchema) });
+export type PieceListResponse = z.infer<typeof pieceListResponse>;
+export type PieceResponse = z.infer<typeof pieceResponse>;
+export type PieceDetailResponse = z.infer<typeof pieceDetailResponse>;
+export type PieceHistoryResponse = z.infer<typeof pieceHistoryResponse>;
+
+/**
+ * A piece's trials page: the piece's trials (paged), the piece itself and its instrument readings as
+ * trial targets. The trial and measurement items are the trials group's (server/presenters/trial.ts);
+ * only the fields this page relies on are named here, the rest pass through.
+ */
+export const pieceTrialsResponse = paged(z.looseObject({ id: z.number(), code: z.string() })).extend({
+  piece: z.object({ id: z.number(), accessionNumber: z.string(), title: z.string() }),
+  targets: z.object({ measurements: z.array(z.looseObject({ id: z.number(), L: z.number(), a: z.number(), b: z.number(), illuminant: z.string(), observer: z.string() })) }),
+});
+/** A trial attached to the piece (POST /api/pieces/:id/trials); the trial is the trials group's detail. */
+export const pieceTrialCreatedResponse = z.object({ trial: z.looseObject({ id: z.number(), code: z.string() }), notified: z.boolean() });
+
+/** The Dublin Core record of a piece (JSON-LD, dcterms); fields without a value (and empty lists) are left out. */
+export const dublinCoreSchema = z.looseObject({
+  '@context': z.record(z.string(), z.string()),
+  '@id': z.string(),
+  '@type': z.literal('dcterms:PhysicalResource'),
+  'dcterms:identifier': z.string(),
+  'dcterms:title': z.string(),
+  'dcterms:type': z.string(),
+  'dcterms:medium': z.array(z.string()).optional(),
+  'dcterms:subject': z.array(z.string()).optional(),
+  'dcterms:modified': z.object({ '@value': z.string(), '@type': z.literal('xsd:dateTime') }),
+});

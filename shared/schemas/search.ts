@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import '../messages.ts';
 import { HEX_RE } from '../search/lab.ts';
-import type { IMAGE_ESTIMATE_CONDITIONS } from '../colour/conditions.ts';
+import { IMAGE_ESTIMATE_CONDITIONS } from '../colour/conditions.ts';
+import { paged } from './common.ts';
 
 // A facet parameter may be repeated (?dyestuff=madder&dyestuff=weld).
 const many = z
@@ -62,33 +63,57 @@ export const shadeQuerySchema = searchFiltersSchema
   });
 export type ShadeQuery = z.infer<typeof shadeQuerySchema>;
 
-export type FacetName = 'dyestuff' | 'historicalMordant' | 'modernMordant' | 'fibre' | 'technique' | 'century' | 'place' | 'status';
-export type FacetCounts = Record<FacetName, Array<{ value: string; label: string; count: number }>>;
+// ---- Responses (server/search/service.ts returns these types; tsc checks the service against them) ----
 
-export type SearchHighlight = { field: string; text: string; marks: Array<[number, number]> };
-export type SearchItem = {
-  id: number;
-  accessionNumber: string;
-  title: string;
-  objectName: string;
-  place: string;
-  dateText: string;
-  status: 'draft' | 'published';
-  dyestuffs: string[];
-  photoId: number | null;
-  score: number | null;
-  highlights: SearchHighlight[];
-  viaTrials: string[];
-};
-export type SearchResponse = { items: SearchItem[]; facets: FacetCounts; total: number; page: number; pageSize: number };
+export const FACET_NAMES = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'] as const;
+export type FacetName = (typeof FACET_NAMES)[number];
+const facetRows = z.array(z.object({ value: z.string(), label: z.string(), count: z.number() }));
+/** Every facet, each with its values (value as filtered by, label as shown) and how many pieces carry them. */
+export const facetCountsSchema = z.object(Object.fromEntries(FACET_NAMES.map((f) => [f, facetRows])) as Record<FacetName, typeof facetRows>);
+export type FacetCounts = z.infer<typeof facetCountsSchema>;
 
-export type ShadeItem = {
-  pieceId: number;
-  accessionNumber: string;
-  title: string;
-  photoId: number;
-  /** A palette colour: an image estimate, CIELAB D65/2°. */
-  colour: { hex: string; lab: { L: number; a: number; b: number }; share: number; source: 'image-estimate' } & typeof IMAGE_ESTIMATE_CONDITIONS;
-  deltaE00: number;
-};
-export type ShadeResponse = { items: ShadeItem[]; facets: FacetCounts; total: number; page: number; pageSize: number; query: { L: number; a: number; b: number; hex: string; maxDeltaE: number } };
+/** A matched stretch of a field: `marks` are [start, end) character offsets into `text`. */
+export const searchHighlightSchema = z.object({ field: z.string(), text: z.string(), marks: z.array(z.tuple([z.number(), z.number()])) });
+export type SearchHighlight = z.infer<typeof searchHighlightSchema>;
+
+export const searchItemSchema = z.object({
+  id: z.number(),
+  accessionNumber: z.string(),
+  title: z.string(),
+  objectName: z.string(),
+  place: z.string(),
+  dateText: z.string(),
+  status: z.enum(['draft', 'published']),
+  dyestuffs: z.array(z.string()),
+  photoId: z.number().nullable(),
+  /** Relevance of a text query; null when none was given. */
+  score: z.number().nullable(),
+  highlights: z.array(searchHighlightSchema),
+  /** Codes of the trials through which the piece matched. */
+  viaTrials: z.array(z.string()),
+});
+export type SearchItem = z.infer<typeof searchItemSchema>;
+export const searchResponse = paged(searchItemSchema).extend({ facets: facetCountsSchema });
+export type SearchResponse = z.infer<typeof searchResponse>;
+
+const lab = z.object({ L: z.number(), a: z.number(), b: z.number() });
+export const shadeItemSchema = z.object({
+  pieceId: z.number(),
+  accessionNumber: z.string(),
+  title: z.string(),
+  photoId: z.number(),
+  /** A palette colour: an image estimate, CIELAB D65/2° (IMAGE_ESTIMATE_CONDITIONS). */
+  colour: z.object({
+    hex: z.string(),
+    lab,
+    share: z.number(),
+    source: z.literal('image-estimate'),
+    illuminant: z.literal(IMAGE_ESTIMATE_CONDITIONS.illuminant),
+    observer: z.literal(IMAGE_ESTIMATE_CONDITIONS.observer),
+  }),
+  deltaE00: z.number(),
+});
+export type ShadeItem = z.infer<typeof shadeItemSchema>;
+/** `pageSize` is the shade query's `limit`; `query` echoes the colour searched for and the radius. */
+export const shadeResponse = paged(shadeItemSchema).extend({ facets: facetCountsSchema, query: lab.extend({ hex: z.string(), maxDeltaE: z.number() }) });
+export type ShadeResponse = z.infer<typeof shadeResponse>;

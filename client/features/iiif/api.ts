@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { AnnotationPage } from '../../../shared/schemas/iiif';
 import { http } from '../../lib/http';
 
 export type RegionBox = { id: string; label: string; x: number; y: number; w: number; h: number };
-type AnnotationPage = { items: Array<{ id: string; body?: { value?: string }; target: string }> };
 
 export const iiifKeys = {
   regions: (photoId: number) => ['iiif', 'photo', photoId, 'regions'] as const,
@@ -17,7 +17,7 @@ export async function fetchRegions(photoId: number): Promise<RegionBox[]> {
   const page = await http<AnnotationPage>(`/iiif/photos/${photoId}/annotations.json`);
   return page.items.flatMap((a) => {
     const m = /#xywh=(\d+),(\d+),(\d+),(\d+)$/.exec(a.target);
-    return m ? [{ id: a.id, label: a.body?.value ?? '', x: Number(m[1]), y: Number(m[2]), w: Number(m[3]), h: Number(m[4]) }] : [];
+    return m ? [{ id: a.id, label: a.body.value, x: Number(m[1]), y: Number(m[2]), w: Number(m[3]), h: Number(m[4]) }] : [];
   });
 }
 export const regionsQuery = (photoId: number) => queryOptions({ queryKey: iiifKeys.regions(photoId), queryFn: () => fetchRegions(photoId) });

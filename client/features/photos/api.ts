@@ -1,15 +1,25 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { PhotoUpdateInput, Rect, RegionCreateInput, RegionUpdateInput } from '../../../shared/schemas/photo';
+import type {
+  PalettesResponse,
+  PhotoResponse,
+  PhotoUpdateInput,
+  PhotoUploadResponse,
+  Rect,
+  ReferencePatchResponse,
+  RegionCreateInput,
+  RegionOut,
+  RegionSavedResponse,
+  RegionUpdateInput,
+} from '../../../shared/schemas/photo';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
-import type { presentPalettes, presentRegion } from '../../../server/presenters/photo';
 import { ApiError, http } from '../../lib/http';
 import { pieceKeys, type Photo } from '../pieces/api';
 
-export type Palettes = ReturnType<typeof presentPalettes>;
-export type Region = ReturnType<typeof presentRegion>;
+export type { Palettes } from '../../../shared/schemas/photo';
+export type Region = RegionOut;
 
 export const photoKeys = { one: (id: number) => ['photos', id] as const };
-export const fetchPhoto = (id: number) => http<{ photo: Photo }>(`/api/photos/${id}`);
+export const fetchPhoto = (id: number) => http<PhotoResponse>(`/api/photos/${id}`);
 export const photoQuery = (id: number) => queryOptions({ queryKey: photoKeys.one(id), queryFn: () => fetchPhoto(id) });
 /** One photo with its palettes and regions (the zoom page names it and links back to its piece). */
 export const usePhoto = (id: number, enabled = true) => useQuery({ ...photoQuery(id), enabled });
@@ -19,7 +29,7 @@ export const usePhoto = (id: number, enabled = true) => useQuery({ ...photoQuery
  * fetch() reports no upload progress; `onUploaded` marks the switch to processing.
  */
 export function uploadPhoto(pieceId: number, file: File, on: { progress: (fraction: number) => void; uploaded: () => void }) {
-  return new Promise<{ photos: Photo[] }>((resolve, reject) => {
+  return new Promise<PhotoUploadResponse>((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', `/api/pieces/${pieceId}/photos`);
     xhr.setRequestHeader('Accept', 'application/json');
@@ -56,7 +66,7 @@ export function useUploadDone(pieceId: number) {
 
 export function useUpdatePhoto(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
-  return useMutation({ mutationFn: (input: PhotoUpdateInput) => http(`/api/photos/${photo.id}`, { method: 'PATCH', json: input }), onSuccess: invalidate });
+  return useMutation({ mutationFn: (input: PhotoUpdateInput) => http<PhotoResponse>(`/api/photos/${photo.id}`, { method: 'PATCH', json: input }), onSuccess: invalidate });
 }
 
 export function useDeletePhoto(photo: Photo) {
@@ -67,7 +77,7 @@ export function useDeletePhoto(photo: Photo) {
 export function useAddRegion(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
   return useMutation({
-    mutationFn: (input: RegionCreateInput) => http<{ region: Region; palettes: Palettes }>(`/api/photos/${photo.id}/regions`, { method: 'POST', json: input }),
+    mutationFn: (input: RegionCreateInput) => http<RegionSavedResponse>(`/api/photos/${photo.id}/regions`, { method: 'POST', json: input }),
     onSuccess: invalidate,
   });
 }
@@ -76,7 +86,7 @@ export function useUpdateRegion(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
   return useMutation({
     mutationFn: ({ id, ...input }: RegionUpdateInput & { id: number }) =>
-      http<{ region: Region; palettes: Palettes }>(`/api/photos/${photo.id}/regions/${id}`, { method: 'PATCH', json: input }),
+      http<RegionSavedResponse>(`/api/photos/${photo.id}/regions/${id}`, { method: 'PATCH', json: input }),
     onSuccess: invalidate,
   });
 }
@@ -84,7 +94,7 @@ export function useUpdateRegion(photo: Photo) {
 export function useDeleteRegion(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
   return useMutation({
-    mutationFn: (id: number) => http<{ palettes: Palettes }>(`/api/photos/${photo.id}/regions/${id}`, { method: 'DELETE' }),
+    mutationFn: (id: number) => http<PalettesResponse>(`/api/photos/${photo.id}/regions/${id}`, { method: 'DELETE' }),
     onSuccess: invalidate,
   });
 }
@@ -93,7 +103,7 @@ export function useReferencePatch(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
   return useMutation({
     mutationFn: (rect: Rect | null) =>
-      http<{ palettes: Palettes }>(`/api/photos/${photo.id}/reference-patch`, rect ? { method: 'PUT', json: rect } : { method: 'DELETE' }),
+      http<ReferencePatchResponse>(`/api/photos/${photo.id}/reference-patch`, rect ? { method: 'PUT', json: rect } : { method: 'DELETE' }),
     onSuccess: invalidate,
   });
 }
@@ -102,7 +112,7 @@ export function useToggleBackground(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
   return useMutation({
     mutationFn: ({ colourId, background }: { colourId: number; background: boolean }) =>
-      http<{ palettes: Palettes }>(`/api/photos/${photo.id}/palette/${colourId}`, { method: 'PATCH', json: { background } }),
+      http<PalettesResponse>(`/api/photos/${photo.id}/palette/${colourId}`, { method: 'PATCH', json: { background } }),
     onSuccess: invalidate,
   });
 }

@@ -1,15 +1,25 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { PieceCreateInput, PieceListQuery, PieceUpdateInput } from '../../../shared/schemas/piece';
-import type { presentAuditEvent, presentPiece, presentPieceRow } from '../../../server/presenters/piece';
-import type { presentPhoto } from '../../../server/presenters/photo';
+import type {
+  AuditEventOut,
+  PieceCreateInput,
+  PieceDetailResponse,
+  PieceHistoryResponse,
+  PieceListQuery,
+  PieceListResponse,
+  PieceOut,
+  PieceResponse,
+  PieceSummary,
+  PieceUpdateInput,
+} from '../../../shared/schemas/piece';
+import type { PhotoOut } from '../../../shared/schemas/photo';
 import { http } from '../../lib/http';
 
-export type Piece = ReturnType<typeof presentPiece>;
-export type PieceRow = ReturnType<typeof presentPieceRow>;
-export type Photo = ReturnType<typeof presentPhoto>;
-export type HistoryEvent = ReturnType<typeof presentAuditEvent>;
-export type PieceDetail = { piece: Piece; photos: Photo[] };
-export type PieceList = { items: PieceRow[]; total: number; page: number; pageSize: number };
+export type Piece = PieceOut;
+export type PieceRow = PieceSummary;
+export type Photo = PhotoOut;
+export type HistoryEvent = AuditEventOut;
+export type PieceDetail = PieceDetailResponse;
+export type PieceList = PieceListResponse;
 export type ListParams = Partial<PieceListQuery>;
 
 export const pieceKeys = {
@@ -34,7 +44,7 @@ export const fetchPiece = (id: number) => http<PieceDetail>(`/api/pieces/${id}`)
 export const pieceQuery = (id: number) => queryOptions({ queryKey: pieceKeys.detail(id), queryFn: () => fetchPiece(id) });
 export const usePiece = (id: number, enabled = true) => useQuery({ ...pieceQuery(id), enabled });
 
-export const fetchHistory = (id: number) => http<{ items: HistoryEvent[] }>(`/api/pieces/${id}/history`);
+export const fetchHistory = (id: number) => http<PieceHistoryResponse>(`/api/pieces/${id}/history`);
 export const historyQuery = (id: number) => queryOptions({ queryKey: pieceKeys.history(id), queryFn: () => fetchHistory(id) });
 export const useHistory = (id: number, enabled: boolean) => useQuery({ ...historyQuery(id), enabled });
 
@@ -52,7 +62,7 @@ function useInvalidatePiece() {
 export function useCreatePiece() {
   const invalidate = useInvalidatePiece();
   return useMutation({
-    mutationFn: (input: PieceCreateInput) => http<{ piece: Piece }>('/api/pieces', { method: 'POST', json: input }),
+    mutationFn: (input: PieceCreateInput) => http<PieceResponse>('/api/pieces', { method: 'POST', json: input }),
     onSuccess: () => invalidate(),
   });
 }
@@ -60,7 +70,7 @@ export function useCreatePiece() {
 export function useUpdatePiece(id: number) {
   const invalidate = useInvalidatePiece();
   return useMutation({
-    mutationFn: (input: PieceUpdateInput) => http<{ piece: Piece }>(`/api/pieces/${id}`, { method: 'PATCH', json: input }),
+    mutationFn: (input: PieceUpdateInput) => http<PieceResponse>(`/api/pieces/${id}`, { method: 'PATCH', json: input }),
     onSuccess: () => invalidate(id),
   });
 }
@@ -72,5 +82,5 @@ export function useDeletePiece(id: number) {
 
 export function useRestorePiece(id: number) {
   const invalidate = useInvalidatePiece();
-  return useMutation({ mutationFn: () => http<{ piece: Piece }>(`/api/pieces/${id}/restore`, { method: 'POST' }), onSuccess: () => invalidate(id) });
+  return useMutation({ mutationFn: () => http<PieceResponse>(`/api/pieces/${id}/restore`, { method: 'POST' }), onSuccess: () => invalidate(id) });
 }

@@ -1,7 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { Router, type Request, type Response } from 'express';
-import { z } from 'zod';
 import { actorOf } from '../../http/auth.ts';
 import { notFound } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
@@ -9,12 +8,11 @@ import { Photo, Region } from '../../models/index.ts';
 import { iiifDir } from '../../iiif/files.ts';
 import { baseUrl, readablePhoto, readablePiece } from '../../iiif/access.ts';
 import { buildManifest, regionAnnotationPage } from '../../iiif/manifest.ts';
+import { iiifPhotoParams as photoParams, iiifPieceParams as pieceParams } from '../../../shared/schemas/iiif.ts';
 
 // Mounted at /iiif (outside /api): IIIF clients expect plain URLs ending in info.json / manifest.json.
 export const iiifRouter = Router();
 
-const photoParams = z.object({ photoId: z.coerce.number().int().positive() });
-const pieceParams = z.object({ pieceId: z.coerce.number().int().positive() });
 // Level-0 tile paths as sharp writes them: {region}/{size}/0/default.jpg, or full/{w},{h}/0/default.jpg.
 const TILE_PATH = /^(full|\d+,\d+,\d+,\d+)\/\d+,\d+\/0\/default\.jpg$/;
 

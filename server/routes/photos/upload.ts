@@ -1,6 +1,6 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
-import { idParams } from '../../../shared/schemas/piece.ts';
+import { idParams } from '../../../shared/schemas/common.ts';
 import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
 import { actorOf, currentUser, requireUser } from '../../http/auth.ts';
 import { HttpError, badRequest, forbidden, notFound } from '../../http/errors.ts';

@@ -1,5 +1,6 @@
 import { Router } from 'express';
-import { idParams, pieceCreateSchema, pieceListQuery, pieceUpdateSchema } from '../../../shared/schemas/piece.ts';
+import { idParams } from '../../../shared/schemas/common.ts';
+import { pieceCreateSchema, pieceListQuery, pieceUpdateSchema } from '../../../shared/schemas/piece.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound, unauthorized } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
