@@ -1,5 +1,5 @@
 import { Router, type RequestHandler } from 'express';
-import { z } from 'zod';
+import { idParams } from '../../../shared/schemas/common.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden } from '../../http/errors.ts';
 import { parseParams, parseQuery } from '../../http/validate.ts';
@@ -53,22 +53,21 @@ exportRouter.get('/shade.csv', async (req, res) => {
 
 /** /api/pieces/:id/…: one piece's exports. The piece is loaded (404 when unreadable) before the role check. */
 export const pieceExportRouter = Router();
-const params = z.object({ id: z.coerce.number().int().positive() });
 
 pieceExportRouter.get('/:id/dublin-core.jsonld', requireUser, async (req, res) => {
-  const piece = await readablePiece(actorOf(req), parseParams(params, req).id);
+  const piece = await readablePiece(actorOf(req), parseParams(idParams, req).id);
   if (!can(actorOf(req), 'export:run')) throw forbidden();
   res.type('application/ld+json').send(JSON.stringify(dublinCore(baseUrl(req), piece), null, 2));
 });
 
 pieceExportRouter.get('/:id/palettes.csv', async (req, res) => {
-  const piece = await readablePiece(actorOf(req), parseParams(params, req).id);
+  const piece = await readablePiece(actorOf(req), parseParams(idParams, req).id);
   res.type('text/csv; charset=utf-8').attachment(`${safeName(piece.accessionNumber)}-palettes.csv`);
   await writePalettesCsv(res, { id: piece.id });
 });
 
 pieceExportRouter.get('/:id/masters.zip', requireUser, async (req, res) => {
-  const piece = await readablePiece(actorOf(req), parseParams(params, req).id);
+  const piece = await readablePiece(actorOf(req), parseParams(idParams, req).id);
   if (!can(actorOf(req), 'export:run')) throw forbidden();
   const photos = await Photo.findAll({ where: { pieceId: piece.id }, order: [['id', 'ASC']] });
   res.type('application/zip').attachment(`${safeName(piece.accessionNumber)}-masters.zip`);
