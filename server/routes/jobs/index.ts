@@ -7,7 +7,7 @@ import { Job, sequelize } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import { readablePhoto } from '../../iiif/access.ts';
 import { retry } from '../../jobs/queue.ts';
-import { handlerFor } from '../../jobs/registry.ts';
+import { checkPayload, handlerFor } from '../../jobs/registry.ts';
 import { presentJob } from '../../presenters/job.ts';
 import { idParams, toPaged } from '../../../shared/schemas/common.ts';
 import { jobListQuery } from '../../../shared/schemas/jobs.ts';
@@ -58,6 +58,8 @@ jobsRouter.post('/:id/retry', requireUser, async (req, res) => {
     await retry(found, transaction);
     return found;
   });
-  await handlerFor(job.type)?.onRetry?.(job.payload);
+  // A payload its kind does not take is not handed on; the job will fail again with the reason.
+  const checked = checkPayload(job.type, job.payload);
+  if (checked.ok) await handlerFor(job.type)?.onRetry?.(checked.payload);
   res.json({ job: presentJob(job, mayRetry(actor, job)) });
 });
