@@ -1,25 +1,45 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sequelize as defaultDb, Job } from '../models/index.ts';
+import { isJobType, jobPayloads, type JobPayload, type JobType } from '../../shared/schemas/jobs.ts';
 
-export type ClaimedJob = { id: number; type: string; payload: Record<string, unknown>; attempts: number; maxAttempts: number };
+/** A claimed job. The worker hands it to its handler only once the payload has passed the kind's schema. */
+export type ClaimedJob<P = Record<string, unknown>> = { id: number; type: string; payload: P; attempts: number; maxAttempts: number };
 
 /** Thrown by a handler when retrying cannot help (a missing file, a deleted photo). */
 export class PermanentJobError extends Error {}
 
-export type EnqueueInput = {
-  type: string;
-  payload?: Record<string, unknown>;
+type EnqueueOptions = {
   subject?: { type: string; id: number };
   createdById?: number | null;
   maxAttempts?: number;
   runAfter?: Date;
 };
+/** The payload a kind takes (shared/schemas/jobs.ts `jobPayloads`); optional when it takes none. */
+type PayloadField<K extends JobType> = JobPayload<K> extends Record<string, never> ? { payload?: JobPayload<K> } : { payload: JobPayload<K> };
+/** A job of one kind, with the payload that kind takes: `{ type: 'tile-photo', payload: { photoId } }`. */
+export type EnqueueInput<K extends JobType = JobType> = { [T in K]: { type: T } & PayloadField<T> & EnqueueOptions }[K];
 
-export async function enqueue(input: EnqueueInput, transaction?: Transaction) {
+/** Queue a job of a known kind; its payload is typed by the kind and checked again before it is written. */
+export async function enqueue<K extends JobType>(input: EnqueueInput<K>, transaction?: Transaction) {
+  return insertJob(input, transaction);
+}
+
+/**
+ * Queue a job of a kind outside `jobPayloads` (the queue tests' throwaway kinds). A known kind's
+ * payload is still checked against its schema; prefer enqueue() everywhere else.
+ */
+export async function enqueueUntyped(input: { type: string; payload?: Record<string, unknown> } & EnqueueOptions, transaction?: Transaction) {
+  return insertJob(input, transaction);
+}
+
+async function insertJob(input: { type: string; payload?: object } & EnqueueOptions, transaction?: Transaction) {
+  const raw = input.payload ?? {};
+  // A programming error (a payload its kind does not take) stops here rather than failing later in the worker.
+  const payload = isJobType(input.type) ? jobPayloads[input.type].parse(raw) : raw;
   return Job.create(
     {
       type: input.type,
-      payload: input.payload ?? {},
+      payload: payload as Record<string, unknown>,
       subjectType: input.subject?.type ?? null,
       subjectId: input.subject?.id ?? null,
       maxAttempts: input.maxAttempts ?? 3,

@@ -3,7 +3,7 @@ import { randomBytes } from 'node:crypto';
 import type { Sequelize } from 'sequelize';
 import { sequelize as defaultDb } from '../models/index.ts';
 import { claim, complete, fail, PermanentJobError, reportProgress, requeueStale } from './queue.ts';
-import { handlerFor } from './registry.ts';
+import { checkPayload, handlerFor } from './registry.ts';
 import './handlers/index.ts';
 
 export type WorkerOptions = {
@@ -24,6 +24,13 @@ export async function runOnce(options: WorkerOptions = {}): Promise<number | nul
   const job = await claim(workerId, { db, types: options.types });
   if (!job) return null;
   const handler = handlerFor(job.type);
+  // A malformed payload fails the job at once with the reason; the handler never sees it (nor its onFailed).
+  const checked = checkPayload(job.type, job.payload);
+  if (!checked.ok) {
+    await fail(job, workerId, checked.reason, true, db);
+    return job.id;
+  }
+  job.payload = checked.payload;
   try {
     if (!handler) throw new PermanentJobError(`No handler for jobs of type "${job.type}".`);
     const result = await handler.run(job, {

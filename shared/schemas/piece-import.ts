@@ -116,7 +116,22 @@ export type PieceImportRow = z.output<typeof pieceImportRow>;
 
 export const importQuery = z.object({ dryRun: z.enum(['true', 'false', '1', '0']).optional().transform((v) => v === 'true' || v === '1') });
 
-export type ImportError = { line: number; field: string | null; message: string };
-export type ImportPreviewRow = { line: number; accessionNumber: string; title: string; errors: ImportError[] };
-export type ImportPreview = { dryRun: true; rows: number; valid: number; invalid: number; items: ImportPreviewRow[]; errors: ImportError[] };
-export type ImportResult = { dryRun: false; imported: number; ids: number[] };
+// Answers of POST /api/import/pieces (server/import/pieces.ts is typed by these).
+/** A problem on one line of the file (1 is the header); `field` is null when no one column is at fault. */
+export const importErrorSchema = z.object({ line: z.number().int(), field: z.string().nullable(), message: z.string() });
+export type ImportError = z.infer<typeof importErrorSchema>;
+export const importPreviewRowSchema = z.object({ line: z.number().int(), accessionNumber: z.string(), title: z.string(), errors: z.array(importErrorSchema) });
+export type ImportPreviewRow = z.infer<typeof importPreviewRowSchema>;
+/** `?dryRun=true` (200): every row checked, nothing written. */
+export const importPreviewSchema = z.object({
+  dryRun: z.literal(true),
+  rows: z.number().int().min(0),
+  valid: z.number().int().min(0),
+  invalid: z.number().int().min(0),
+  items: z.array(importPreviewRowSchema),
+  errors: z.array(importErrorSchema),
+});
+export type ImportPreview = z.infer<typeof importPreviewSchema>;
+/** The import itself (201): the new pieces' ids. */
+export const importResultSchema = z.object({ dryRun: z.literal(false), imported: z.number().int().min(0), ids: z.array(z.number()) });
+export type ImportResult = z.infer<typeof importResultSchema>;

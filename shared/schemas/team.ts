@@ -1,11 +1,11 @@
 import { z } from 'zod';
 import '../messages.ts';
 import { ROLES } from '../roles.ts';
-import { email, newPassword } from './auth.ts';
+import { email, newPassword, userSchema } from './auth.ts';
+import { pageQuery, paged } from './common.ts';
 
 // Tokens are 32 random bytes in base64url: 43 characters.
 export const tokenParams = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{43}$/, 'That link is not valid.') });
-export const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 export const inviteSchema = z.object({ email, role: z.enum(ROLES, 'Choose a role') });
 export type InviteInput = z.infer<typeof inviteSchema>;
@@ -26,20 +26,33 @@ export const teamPatchSchema = z
   .refine((v) => v.role !== undefined || v.active !== undefined, { message: 'Change the role or the active flag', path: ['role'] });
 export type TeamPatchInput = z.infer<typeof teamPatchSchema>;
 
-export const teamQuerySchema = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
-});
+/** The team list takes up to 200 a page (the team page asks for 100). */
+export const teamQuerySchema = pageQuery(50, 200);
 
-export const teamMemberSchema = z.object({
+// Answers of /api/team (presenters in server/presenters/user.ts and invitation.ts).
+export const teamMemberSchema = userSchema.extend({ active: z.boolean(), createdAt: z.iso.datetime() });
+export type TeamMember = z.infer<typeof teamMemberSchema>;
+/** GET /api/team. */
+export const teamPageSchema = paged(teamMemberSchema);
+export type TeamPage = z.infer<typeof teamPageSchema>;
+/** PATCH /api/team/:id. */
+export const memberResponse = z.object({ member: teamMemberSchema });
+
+/** For admins: a pending invitation with its id (to resend or withdraw), who sent it and whether its link has expired. */
+export const pendingInvitationSchema = z.object({
   id: z.number(),
   email: z.string(),
-  name: z.string(),
   role: z.enum(ROLES),
-  active: z.boolean(),
-  createdAt: z.string(),
+  sentAt: z.iso.datetime(),
+  expiresAt: z.iso.datetime(),
+  expired: z.boolean(),
+  invitedBy: z.string().nullable(),
 });
-export type TeamMember = z.infer<typeof teamMemberSchema>;
+export type PendingInvitation = z.infer<typeof pendingInvitationSchema>;
+/** GET /api/team/invitations (all pending, not paged). */
+export const pendingInvitationListSchema = z.object({ items: z.array(pendingInvitationSchema) });
+/** POST /api/team/invitations/:id/resend. */
+export const pendingInvitationResponse = z.object({ invitation: pendingInvitationSchema });
 
 /** How long a link stays valid. Invitations: 7 days; resets: 2 hours (a reset link grants an existing account). */
 export const TOKEN_TTL_MS = { invitation: 7 * 24 * 3600_000, 'password-reset': 2 * 3600_000 } as const;

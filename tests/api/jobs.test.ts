@@ -3,8 +3,9 @@ import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
 import { createSequelize } from '../../server/db/sequelize.ts';
 import { Job, sequelize } from '../../server/models/index.ts';
-import { claim, enqueue, requeueStale, PermanentJobError } from '../../server/jobs/queue.ts';
-import { registerHandler } from '../../server/jobs/registry.ts';
+// The queue's own tests use throwaway kinds outside the typed map, hence enqueueUntyped.
+import { claim, enqueue as enqueueTyped, enqueueUntyped as enqueue, requeueStale, PermanentJobError } from '../../server/jobs/queue.ts';
+import { checkPayload, registerHandler } from '../../server/jobs/registry.ts';
 import { drain, runOnce } from '../../server/jobs/worker.ts';
 
 // Two separate connection pools stand for two app servers sharing the jobs table.
@@ -117,5 +118,46 @@ describe('job queue', () => {
     expect(job.state).toBe('failed');
     expect(job.error).toBe('photo deleted');
     expect(job.attempts).toBe(1);
+  });
+});
+
+describe('typed job payloads (shared/schemas/jobs.ts jobPayloads)', () => {
+  it('checks a known kind\'s payload: a good one passes, a bad one is refused with each field named', () => {
+    expect(checkPayload('tile-photo', { photoId: 7 })).toEqual({ ok: true, payload: { photoId: 7 } });
+    expect(checkPayload('fixity-check', {})).toEqual({ ok: true, payload: {} });
+    const bad = checkPayload('tile-photo', { photoId: 'seven' });
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(bad.reason).toMatch(/^The job's payload is not valid for a tile-photo job \(photoId: .+\), so it was not run\.$/);
+    const missing = checkPayload('tile-photo', null);
+    expect(missing.ok).toBe(false);
+    // Kinds outside the map pass as they are.
+    expect(checkPayload('t-anything', { i: 1 })).toEqual({ ok: true, payload: { i: 1 } });
+  });
+
+  it('refuses to queue a known kind with a payload it does not take, and writes nothing', async () => {
+    const before = await Job.count({ where: { type: 'tile-photo' } });
+    await expect(enqueue({ type: 'tile-photo', payload: { photoId: 'abc' } })).rejects.toThrow();
+    expect(await Job.count({ where: { type: 'tile-photo' } })).toBe(before);
+    // The typed enqueue takes the kind's payload as is.
+    const ok = await enqueueTyped({ type: 'fixity-check', maxAttempts: 1, runAfter: new Date(Date.now() + 3600_000) });
+    expect(ok.payload).toEqual({});
+    await ok.destroy();
+  });
+
+  it('fails a claimed job whose stored payload is malformed, at once and with the reason, without running its handler', async () => {
+    // Written past enqueue() (as an old row or a hand edit might be); due long ago, so it is the first tile job claimed.
+    const job = await Job.create({
+      type: 'tile-photo', payload: { photoId: 'not-a-number' }, subjectType: null, subjectId: null, maxAttempts: 3, error: null, result: null,
+      lockedBy: null, lockedAt: null, runAfter: new Date('2000-01-01T00:00:00Z'), startedAt: null, finishedAt: null, createdById: null,
+    });
+    try {
+      expect(await runOnce({ types: ['tile-photo'] })).toBe(job.id);
+      await job.reload();
+      expect(job.state).toBe('failed');
+      expect(job.attempts).toBe(1);
+      expect(job.error).toMatch(/payload is not valid for a tile-photo job \(photoId: .+\)/);
+    } finally {
+      await job.destroy();
+    }
   });
 });

@@ -1,17 +1,17 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Abilities } from '../../../shared/abilities';
-import type { LoginInput, SessionUser } from '../../../shared/schemas/auth';
+import type { LoginInput, ResetLink, Session } from '../../../shared/schemas/auth';
 import type { ResetPasswordInput, ResetRequestInput } from '../../../shared/schemas/team';
 import { ApiError, http } from '../../lib/http';
 
-export type Me = { user: SessionUser; abilities: Abilities } | null;
+export type Me = Session | null;
 
 export const authKeys = { me: ['auth', 'me'] as const };
 
 /** The signed-in user with their abilities, or null for a visitor. */
 export async function fetchMe(): Promise<Me> {
   try {
-    return await http<NonNullable<Me>>('/api/auth/me');
+    return await http<Session>('/api/auth/me');
   } catch (e) {
     if (e instanceof ApiError && e.status === 401) return null;
     throw e;
@@ -26,7 +26,7 @@ export function useCan() {
   return (action: keyof Abilities) => Boolean(me?.abilities[action]);
 }
 
-export const login = (input: LoginInput) => http<NonNullable<Me>>('/api/auth/login', { method: 'POST', json: input });
+export const login = (input: LoginInput) => http<Session>('/api/auth/login', { method: 'POST', json: input });
 export const logout = () => http<void>('/api/auth/logout', { method: 'POST' });
 
 /**
@@ -64,7 +64,7 @@ export const requestPasswordReset = (input: ResetRequestInput) => http<{ message
 export const resetPassword = (token: string, input: ResetPasswordInput) => http<void>(`/api/auth/password-reset/${encodeURIComponent(token)}`, { method: 'POST', json: input });
 
 export const useRequestPasswordReset = () => useMutation({ mutationFn: requestPasswordReset });
-export const fetchResetLink = (token: string) => http<{ expiresAt: string }>(`/api/auth/password-reset/${encodeURIComponent(token)}`);
+export const fetchResetLink = (token: string) => http<ResetLink>(`/api/auth/password-reset/${encodeURIComponent(token)}`);
 /** The link is checked when the page opens, so a used or expired one says so before anyone types. */
 export const useResetLink = (token: string) => useQuery({ queryKey: ['password-reset', token], queryFn: () => fetchResetLink(token), retry: false, staleTime: Infinity });
 export const useResetPassword = (token: string) => useMutation({ mutationFn: (input: ResetPasswordInput) => resetPassword(token, input) });

@@ -1,10 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
 import type { JobView } from '../../../shared/schemas/jobs';
-
-export type FixityProblem = { sha256: string; photoIds: number[]; file: string | null; actual?: string };
-export type FixityReport = { checkedAt: string; masters: number; ok: number; mismatches: FixityProblem[]; missing: FixityProblem[] };
-export type FixityLatest = { job: JobView | null; report: FixityReport | null };
+import type { FixityLatest } from '../../../shared/schemas/fixity';
 
 export const fixityKeys = { latest: ['fixity', 'latest'] as const };
 

@@ -1,7 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { http } from '../../lib/http';
-
-export type Health = { ok: boolean; db: 'up' | 'down'; version: string };
+import type { Health } from '../../../shared/schemas/health';
 
 export const healthKeys = { all: ['health'] as const };
 export const fetchHealth = () => http<Health>('/api/health');

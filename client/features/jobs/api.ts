@@ -1,8 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
-import type { JobView } from '../../../shared/schemas/jobs';
-
-export type JobList = { items: JobView[]; total: number; page: number; pageSize: number };
+import type { JobList, JobView } from '../../../shared/schemas/jobs';
 
 export const jobKeys = {
   all: ['jobs'] as const,

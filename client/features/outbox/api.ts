@@ -1,8 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { http } from '../../lib/http';
-
-export type OutboxMessage = { id: string; subject: string; from: string; to: string[]; date: string | null; text: string };
-export type OutboxPage = { items: OutboxMessage[]; total: number; page: number; pageSize: number };
+import type { OutboxPage } from '../../../shared/schemas/outbox';
 
 export const outboxKeys = { all: ['outbox'] as const, page: (page: number) => ['outbox', page] as const };
 

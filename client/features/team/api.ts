@@ -1,12 +1,7 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { InviteInput, TeamMember, TeamPatchInput } from '../../../shared/schemas/team';
-import type { Role } from '../../../shared/roles';
+import type { InviteInput, PendingInvitation, TeamMember, TeamPage, TeamPatchInput } from '../../../shared/schemas/team';
+import type { InvitationResponse } from '../../../shared/schemas/invitations';
 import { http } from '../../lib/http';
-
-export type TeamPage = { items: TeamMember[]; total: number; page: number; pageSize: number };
-export type Invitation = { email: string; role: Role; expiresAt: string };
-
-export type PendingInvitation = { id: number; email: string; role: Role; sentAt: string; expiresAt: string; expired: boolean; invitedBy: string | null };
 
 export const teamKeys = {
   all: ['team'] as const,
@@ -18,7 +13,7 @@ export const fetchTeam = (page = 1) => http<TeamPage>(`/api/team?page=${page}&pa
 export const teamQuery = (page = 1) => queryOptions({ queryKey: teamKeys.list(page), queryFn: () => fetchTeam(page), placeholderData: keepPreviousData });
 export const useTeam = (page = 1) => useQuery(teamQuery(page));
 
-export const invite = (input: InviteInput) => http<{ invitation: Invitation }>('/api/invitations', { method: 'POST', json: input });
+export const invite = (input: InviteInput) => http<InvitationResponse>('/api/invitations', { method: 'POST', json: input });
 export const updateMember = (id: number, input: TeamPatchInput) => http<{ member: TeamMember }>(`/api/team/${id}`, { method: 'PATCH', json: input });
 
 export function useInvite() {

@@ -4,11 +4,10 @@ import { pipeline } from 'node:stream/promises';
 import { Photo } from '../../models/index.ts';
 import { findMaster } from '../../iiif/files.ts';
 import { registerHandler } from '../registry.ts';
+import type { FixityReport } from '../../../shared/schemas/fixity.ts';
 
 export const FIXITY_JOB = 'fixity-check';
 
-export type FixityProblem = { sha256: string; photoIds: number[]; file: string | null; actual?: string };
-export type FixityReport = { checkedAt: string; masters: number; ok: number; mismatches: FixityProblem[]; missing: FixityProblem[] };
 
 export async function sha256File(file: string) {
   const hash = createHash('sha256');

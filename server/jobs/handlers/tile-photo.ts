@@ -9,7 +9,7 @@ export const TILE_JOB = 'tile-photo';
 
 registerHandler(TILE_JOB, {
   async run(job, ctx) {
-    const photoId = Number(job.payload.photoId);
+    const { photoId } = job.payload;
     const photo = await Photo.findByPk(photoId);
     if (!photo) throw new PermanentJobError(`Photo ${photoId} no longer exists.`);
     await photo.update({ tileStatus: 'running' });
@@ -27,9 +27,9 @@ registerHandler(TILE_JOB, {
     return { photoId };
   },
   async onFailed(job) {
-    await Photo.update({ tileStatus: 'failed' }, { where: { id: Number(job.payload.photoId) } });
+    await Photo.update({ tileStatus: 'failed' }, { where: { id: job.payload.photoId } });
   },
   async onRetry(payload) {
-    await Photo.update({ tileStatus: 'queued' }, { where: { id: Number(payload.photoId) } });
+    await Photo.update({ tileStatus: 'queued' }, { where: { id: payload.photoId } });
   },
 });

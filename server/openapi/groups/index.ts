@@ -1,4 +1,13 @@
 import type { RouteGroup } from '../registry.ts';
+import health from './health.ts';
+import auth from './auth.ts';
+import invitations from './invitations.ts';
+import team from './team.ts';
+import outbox from './outbox.ts';
+import jobs from './jobs.ts';
+import adminFixity from './admin-fixity.ts';
+import importGroup from './import.ts';
+import exportGroup from './export.ts';
 import pieces from './pieces.ts';
 import photos from './photos.ts';
 import search from './search.ts';
@@ -7,6 +16,15 @@ import media from './media.ts';
 
 // One import per route group, in the order of server/routes/index.ts (then /iiif and /media, mounted in server/app.ts).
 export const groups: RouteGroup[] = [
+  health,
+  auth,
+  invitations,
+  team,
+  outbox,
+  jobs,
+  adminFixity,
+  importGroup,
+  exportGroup,
   pieces,
   photos,
   search,

@@ -7,6 +7,7 @@ import { can } from '../../policies/index.ts';
 import { enqueue } from '../../jobs/queue.ts';
 import { FIXITY_JOB } from '../../jobs/handlers/fixity-check.ts';
 import { presentJob } from '../../presenters/job.ts';
+import type { FixityLatest, FixityReport } from '../../../shared/schemas/fixity.ts';
 
 export const fixityRouter = Router();
 
@@ -28,5 +29,7 @@ fixityRouter.get('/latest', requireUser, mayRun, async (_req, res) => {
     Job.findOne({ where: { type: FIXITY_JOB }, order: [['id', 'DESC']] }),
     Job.findOne({ where: { type: FIXITY_JOB, state: 'done' }, order: [['id', 'DESC']] }),
   ]);
-  res.json({ job: latest ? presentJob(latest, true) : null, report: lastDone?.result ?? null });
+  // A done fixity job's result is the report its handler returned (server/jobs/handlers/fixity-check.ts).
+  const body: FixityLatest = { job: latest ? presentJob(latest, true) : null, report: (lastDone?.result as FixityReport | undefined) ?? null };
+  res.json(body);
 });

@@ -1,5 +1,5 @@
 import { Router, type NextFunction, type Request, type Response } from 'express';
-import { loginSchema } from '../../../shared/schemas/auth.ts';
+import { loginSchema, type ResetLink, type Session } from '../../../shared/schemas/auth.ts';
 import { resetPasswordSchema, resetRequestSchema, tokenParams } from '../../../shared/schemas/team.ts';
 import { ACTIONS } from '../../../shared/abilities.ts';
 import { passport } from '../../auth/passport.ts';
@@ -16,6 +16,9 @@ import { liveResetToken, requestPasswordReset, resetPassword } from '../../servi
 // The local outbox route does not exist in production, so nobody is offered it there.
 const sessionAbilities = (actor: Actor) => ({ ...abilities(actor, ACTIONS), ...(isProduction ? { 'outbox:read': false } : {}) });
 
+/** The answer of /me and /login: who is signed in and what they may do. */
+const session = (req: Request, user: User): Session => ({ user: presentUser(user), abilities: sessionAbilities(actorOf(req)) });
+
 const badCredentials = () => new HttpError(401, 'bad_credentials', 'That e-mail and password do not match an active account.');
 
 /** Sign-in, sign-out, the current user and password reset. A factory: each app gets its own rate-limit counters. */
@@ -28,7 +31,7 @@ export function authRouter() {
       if (err) return next(err);
       if (!user) return next(badCredentials());
       // passport 0.7 regenerates the session id on login (no fixation).
-      req.logIn(user, (e) => (e ? next(e) : res.json({ user: presentUser(user), abilities: sessionAbilities(actorOf(req)) })));
+      req.logIn(user, (e) => (e ? next(e) : res.json(session(req, user))));
     })(req, res, next);
   });
 
@@ -45,7 +48,7 @@ export function authRouter() {
 
   router.get('/me', (req, res, next) => {
     if (!req.user) return next(unauthorized());
-    res.json({ user: presentUser(req.user as User), abilities: sessionAbilities(actorOf(req)) });
+    res.json(session(req, req.user as User));
   });
 
   // 202 whatever the address; the lookup and the mail happen after the answer. Limited, as each may send a mail.
@@ -59,7 +62,7 @@ export function authRouter() {
   router.get('/password-reset/:token', async (req, res) => {
     const { token } = parseParams(tokenParams, req);
     const record = await liveResetToken(token);
-    res.json({ expiresAt: record.expiresAt.toISOString() });
+    res.json({ expiresAt: record.expiresAt.toISOString() } satisfies ResetLink);
   });
 
   router.post('/password-reset/:token', async (req, res) => {

@@ -1,4 +1,5 @@
 import { Router, type RequestHandler } from 'express';
+import { idParams } from '../../../shared/schemas/common.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden } from '../../http/errors.ts';
 import { parseParams, parseQuery } from '../../http/validate.ts';
@@ -12,7 +13,6 @@ import { writeShadeCsv } from '../../export/shade-csv.ts';
 import { shadeQuerySchema } from '../../../shared/schemas/search.ts';
 import { dublinCore } from '../../export/dublin-core.ts';
 import { writeMastersZip } from '../../export/masters-zip.ts';
-import { idParams } from '../../../shared/schemas/common.ts';
 
 const mayExport: RequestHandler = (req, _res, next) => (can(actorOf(req), 'export:run') ? next() : next(forbidden()));
 const stamp = () => new Date().toISOString().slice(0, 10);

@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import { sequelize } from '../../models/index.ts';
 import { APP_VERSION } from '../../version.ts';
+import type { Health } from '../../../shared/schemas/health.ts';
 
 export const healthRouter = Router();
 
@@ -11,5 +12,6 @@ healthRouter.get('/', async (_req, res) => {
   } catch {
     db = 'down';
   }
-  res.status(db === 'up' ? 200 : 503).json({ ok: db === 'up', db, version: APP_VERSION });
+  const body: Health = { ok: db === 'up', db, version: APP_VERSION };
+  res.status(db === 'up' ? 200 : 503).json(body);
 });

@@ -7,9 +7,10 @@ import { Job, sequelize } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import { readablePhoto } from '../../iiif/access.ts';
 import { retry } from '../../jobs/queue.ts';
-import { handlerFor } from '../../jobs/registry.ts';
+import { checkPayload, handlerFor } from '../../jobs/registry.ts';
 import { presentJob } from '../../presenters/job.ts';
-import { jobIdParams, jobListQuery } from '../../../shared/schemas/jobs.ts';
+import { idParams, toPaged } from '../../../shared/schemas/common.ts';
+import { jobListQuery } from '../../../shared/schemas/jobs.ts';
 import '../../jobs/handlers/index.ts';
 
 export const jobsRouter = Router();
@@ -35,11 +36,11 @@ jobsRouter.get('/', requireUser, async (req, res) => {
   }
   if (q.type) Object.assign(where, { type: q.type });
   const { rows, count } = await Job.findAndCountAll({ where, order: [['id', 'DESC']], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
-  res.json({ items: rows.map((j) => presentJob(j, mayRetry(actor, j))), total: count, page: q.page, pageSize: q.pageSize });
+  res.json(toPaged(rows.map((j) => presentJob(j, mayRetry(actor, j))), count, q.page, q.pageSize));
 });
 
 jobsRouter.get('/:id', requireUser, async (req, res) => {
-  const { id } = parseParams(jobIdParams, req);
+  const { id } = parseParams(idParams, req);
   const actor = actorOf(req);
   const job = await Job.findByPk(id);
   if (!job || !(await mayRead(actor, job))) throw notFound('Job');
@@ -47,7 +48,7 @@ jobsRouter.get('/:id', requireUser, async (req, res) => {
 });
 
 jobsRouter.post('/:id/retry', requireUser, async (req, res) => {
-  const { id } = parseParams(jobIdParams, req);
+  const { id } = parseParams(idParams, req);
   const actor = actorOf(req);
   const job = await sequelize.transaction(async (transaction) => {
     const found = await Job.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
@@ -57,6 +58,8 @@ jobsRouter.post('/:id/retry', requireUser, async (req, res) => {
     await retry(found, transaction);
     return found;
   });
-  await handlerFor(job.type)?.onRetry?.(job.payload);
+  // A payload its kind does not take is not handed on; the job will fail again with the reason.
+  const checked = checkPayload(job.type, job.payload);
+  if (checked.ok) await handlerFor(job.type)?.onRetry?.(checked.payload);
   res.json({ job: presentJob(job, mayRetry(actor, job)) });
 });

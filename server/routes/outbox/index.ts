@@ -1,13 +1,12 @@
 import { Router } from 'express';
-import { z } from 'zod';
+import { toPaged } from '../../../shared/schemas/common.ts';
+import { outboxQuery, type OutboxMessage } from '../../../shared/schemas/outbox.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden } from '../../http/errors.ts';
 import { parseQuery } from '../../http/validate.ts';
 import { mailDir } from '../../mail/index.ts';
-import { mailFiles, readMail } from '../../mail/outbox.ts';
+import { mailFiles, readMail, type CaughtMail } from '../../mail/outbox.ts';
 import { can } from '../../policies/index.ts';
-
-const outboxQuery = z.object({ page: z.coerce.number().int().min(1).default(1), pageSize: z.coerce.number().int().min(1).max(100).default(20) });
 
 /** The local catcher's mail, newest first; mounted only outside production. */
 export const outboxRouter = Router();
@@ -17,5 +16,7 @@ outboxRouter.get('/', requireUser, async (req, res) => {
   if (!can(actorOf(req), 'outbox:read')) throw forbidden();
   const files = await mailFiles(mailDir());
   const items = await Promise.all(files.slice((page - 1) * pageSize, page * pageSize).map((f) => readMail(mailDir(), f)));
-  res.json({ items: items.map(({ id, subject, from, to, date, text }) => ({ id, subject, from, to, date, text })), total: files.length, page, pageSize });
+  // The HTML part stays out of the list (the page shows the text).
+  const present = ({ id, subject, from, to, date, text }: CaughtMail): OutboxMessage => ({ id, subject, from, to, date, text });
+  res.json(toPaged(items.map(present), files.length, page, pageSize));
 });

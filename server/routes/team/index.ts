@@ -1,5 +1,6 @@
 import { Router } from 'express';
-import { idParams, teamPatchSchema, teamQuerySchema } from '../../../shared/schemas/team.ts';
+import { idParams, toPaged } from '../../../shared/schemas/common.ts';
+import { teamPatchSchema, teamQuerySchema } from '../../../shared/schemas/team.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
@@ -16,7 +17,7 @@ teamRouter.get('/', requireUser, async (req, res) => {
   const { page, pageSize } = parseQuery(teamQuerySchema, req);
   if (!can(actorOf(req), 'team:manage')) throw forbidden();
   const { rows, count } = await User.findAndCountAll({ order: [['active', 'DESC'], ['name', 'ASC']], limit: pageSize, offset: (page - 1) * pageSize });
-  res.json({ items: rows.map(presentTeamMember), total: count, page, pageSize });
+  res.json(toPaged(rows.map(presentTeamMember), count, page, pageSize));
 });
 
 teamRouter.patch('/:id', requireUser, async (req, res) => {

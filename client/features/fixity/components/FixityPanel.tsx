@@ -1,7 +1,8 @@
 import { formatDateTime } from '../../../../shared/format';
 import { Button } from '../../../components/Button';
 import { JobStatus } from '../../iiif/components/JobStatus';
-import { useFixityLatest, useStartFixity, type FixityProblem } from '../api';
+import { useFixityLatest, useStartFixity } from '../api';
+import type { FixityProblem } from '../../../../shared/schemas/fixity';
 
 function Problems({ title, list }: { title: string; list: FixityProblem[] }) {
   if (!list.length) return null;
