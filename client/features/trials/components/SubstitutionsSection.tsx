@@ -13,7 +13,8 @@ import { MetalLoad } from './MetalLoad';
 
 type Draft = { stepId: string; historicalChemicalId: string; historicalPractice: string; historicalAmountG: string; modernChemicalId: string; modernPractice: string; modernAmountG: string; reason: string; notes: string };
 const empty: Draft = { stepId: '', historicalChemicalId: '', historicalPractice: '', historicalAmountG: '', modernChemicalId: '', modernPractice: '', modernAmountG: '', reason: 'toxicity', notes: '' };
-const n = (x: string) => (x.trim() === '' ? null : Number(x));
+// Empty is none; text that is not a number goes to the schema as typed, so its message asks for a number.
+const n = (x: string) => (x.trim() === '' ? null : Number.isNaN(Number(x)) ? (x as unknown as number) : Number(x));
 
 function SubstitutionForm({ trial, onDone }: { trial: TrialView; onDone: () => void }) {
   const [d, setD] = useState<Draft>(empty);
