@@ -233,7 +233,7 @@ describe('every named form, empty and wrong, in people’s words under the field
     await signInAs(page, suite.server.url, 'curator@demo.test');
     await page.goto(`${suite.server.url}/archive/${piece.id}`);
     const form = page.getByRole('form', { name: 'New region' });
-    const x = form.getByLabel('x', { exact: true });
+    const x = form.getByLabel(/^x\b/);
     await form.getByRole('button', { name: 'Save region' }).click();
     await expect(messageOf(x)).resolves.toBe('Enter x in pixels');
     await expect(messageOf(form.getByLabel('Width'))).resolves.toBe('Enter width in pixels');
@@ -241,7 +241,7 @@ describe('every named form, empty and wrong, in people’s words under the field
     await noRawText(page);
 
     await x.fill('850');
-    await form.getByLabel('y', { exact: true }).fill('0');
+    await form.getByLabel(/^y\b/).fill('0');
     await form.getByLabel('Width').fill('100');
     await form.getByLabel('Height').fill('2.5');
     await form.getByRole('button', { name: 'Save region' }).click();
