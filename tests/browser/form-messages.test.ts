@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
+import { TrialSeries } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { signInAs } from '../support/browser.ts';
 import { useBrowserSuite } from '../support/browser-suite.ts';
@@ -282,5 +283,24 @@ describe('every named form, empty and wrong, in people’s words under the field
     await expect(messageOf(words)).resolves.toBe('Use at most 200 characters');
     expect(new URL(page.url()).searchParams.get('q')).toBeNull();
     await noRawText(page);
+  });
+
+  it('the series target form: chosen from its list, it saves through the shared schema as before', async () => {
+    const series = await TrialSeries.findOne({ where: { code: 'WS-2024-01' }, rejectOnEmpty: true });
+    const page = await suite.browser.context.newPage();
+    await signInAs(page, suite.server.url, 'tamsin.orrery@weldfold.test');
+    await page.goto(`${suite.server.url}/series/${series.id}`);
+    const form = page.getByRole('form', { name: 'Target colour' });
+    const target = form.getByLabel('Target colour of the original');
+    await target.locator('option').nth(1).waitFor({ state: 'attached' });
+    const chosen = await target.locator('option').nth(1).getAttribute('value');
+    await target.selectOption(chosen!);
+    const save = form.getByRole('button', { name: 'Save target' });
+    await save.click();
+    await expect.poll(() => save.isDisabled()).toBe(true);
+    await page.reload();
+    await expect.poll(() => page.getByRole('form', { name: 'Target colour' }).getByLabel('Target colour of the original').inputValue()).toBe(chosen);
+    await series.reload();
+    expect([series.targetPaletteColourId, series.targetRegionId, series.targetMeasurementId].filter((x) => x != null)).toHaveLength(1);
   });
 });
