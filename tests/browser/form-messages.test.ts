@@ -305,4 +305,24 @@ describe('every named form, empty and wrong, in people’s words under the field
     // The demo workshop goes back to no target, as the other suites know it.
     await series.update({ targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null });
   });
+
+  it('the sign-in and new-piece forms, empty', async () => {
+    const page = await suite.browser.context.newPage();
+    await page.goto(`${suite.server.url}/sign-in`);
+    const email = page.getByLabel('E-mail');
+    await page.locator('main').getByRole('button', { name: 'Sign in', exact: true }).click();
+    await expect(messageOf(email)).resolves.toBe('Enter an e-mail address such as name@example.org');
+    await expect(messageOf(page.getByLabel('Password'))).resolves.toBe('Enter your password');
+    await expect.poll(() => isFocused(email)).toBe(true);
+    await noRawText(page);
+
+    await signInAs(page, suite.server.url, 'curator@demo.test');
+    await page.goto(`${suite.server.url}/archive/new`);
+    const accession = page.getByLabel('Accession number');
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await expect(messageOf(accession)).resolves.toMatch(/accession number/i);
+    await expect.poll(() => isFocused(accession)).toBe(true);
+    await noRawText(page);
+    expect(page.url()).toMatch(/\/archive\/new$/);
+  });
 });
