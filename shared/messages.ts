@@ -57,6 +57,19 @@ export const FIELD_LABELS: Record<string, Label> = {
   illuminant: { label: 'an illuminant' },
   observer: { label: 'an observer' },
   takenOn: { label: 'the date measured' },
+  instrument: { label: 'the instrument' },
+  geometry: { label: 'a measuring geometry' },
+  specular: { label: 'a specular setting (SCI or SCE)' },
+  stepId: { label: 'a step' },
+  historicalChemicalId: { label: 'a historical chemical' },
+  modernChemicalId: { label: 'a modern chemical' },
+  historicalAmountG: { label: 'the historical amount', unit: 'g' },
+  modernAmountG: { label: 'the modern amount', unit: 'g' },
+  // fastness grades
+  blueWool: { label: 'a blue wool grade' },
+  change: { label: 'a grade for the change in colour' },
+  staining: { label: 'a grade for the staining' },
+  testedOn: { label: 'the date tested' },
   // baths
   code: { label: 'the code' },
   volumeMl: { label: 'the volume', unit: 'mL' },
@@ -86,6 +99,11 @@ export const FIELD_LABELS: Record<string, Label> = {
   colorants: { label: 'the colorants' },
   species: { label: 'the species' },
   dyeClass: { label: 'the dye class' },
+  // photos and regions
+  caption: { label: 'the caption' },
+  view: { label: 'a view' },
+  purpose: { label: 'a purpose for the region' },
+  label: { label: 'the label' },
   // series
   factors: { label: 'the factors' },
   levels: { label: 'the levels' },
@@ -104,6 +122,11 @@ export const FIELD_LABELS: Record<string, Label> = {
   page: { label: 'the page number' },
   pageSize: { label: 'the page size' },
   limit: { label: 'the number of results' },
+  // list filters
+  sort: { label: 'a sort order' },
+  dir: { label: 'a direction' },
+  deleted: { label: 'an option for deleted pieces' },
+  mine: { label: 'a filter for your own trials' },
 };
 
 /** The words for the field at `path`: its own label, or, for a row in a list, the list's. */

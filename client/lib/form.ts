@@ -12,6 +12,12 @@ export function fieldErrorsOf(error: z.ZodError): FieldErrors {
   return errors;
 }
 
+/** What is wrong with the values by the schema, as per-field messages, or null when they pass. For values that are not typed into a form (a query in the address bar); a form uses check(). */
+export function errorsFor(schema: z.ZodType, raw: unknown): FieldErrors | null {
+  const parsed = schema.safeParse(raw);
+  return parsed.success ? null : fieldErrorsOf(parsed.error);
+}
+
 /** Per-field errors the server sent back, if any. */
 export const serverFieldErrors = (err: unknown): FieldErrors => (err instanceof ApiError && err.details?.fields ? err.details.fields : {});
 

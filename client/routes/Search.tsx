@@ -1,7 +1,7 @@
 import { useMemo, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import { shadeQuerySchema, type FacetName } from '../../shared/schemas/search';
-import { fieldErrorsOf } from '../lib/form';
+import { searchFiltersSchema, shadeQuerySchema, type FacetName } from '../../shared/schemas/search';
+import { errorsFor, useFormErrors } from '../lib/form';
 import { Button } from '../components/Button';
 import { Page } from '../components/Page';
 import { ApiError } from '../lib/http';
@@ -30,12 +30,12 @@ export function Search() {
   const urlKey = url.toString();
   const shadeInvalid = useMemo(() => {
     if (!hasShade) return null;
-    const parsed = shadeQuerySchema.safeParse(params);
-    return parsed.success ? null : fieldErrorsOf(parsed.error);
+    return errorsFor(shadeQuerySchema, params);
     // eslint-disable-next-line react-hooks/exhaustive-deps -- params is rebuilt from the URL on every render
   }, [urlKey, hasShade]);
   const shade = useShade(params, hasShade && !shadeInvalid);
   const [q, setQ] = useState(url.get('q') ?? '');
+  const words = useFormErrors();
   // On a phone the shade and facet choices fold into a panel after the results; from md up they are a sidebar.
   const [narrowOpen, setNarrowOpen] = useState(false);
   const narrowRef = useRef<HTMLElement>(null);
@@ -82,25 +82,38 @@ export function Search() {
   return (
     <Page title="Find" lead="Search the archive by words, by dyestuff and mordant, and by shade within a CIEDE2000 radius.">
       <form
+        ref={words.formRef}
+        noValidate
         role="search"
-        className="flex gap-2 mb-6"
+        className="mb-6"
         onSubmit={(e) => {
           e.preventDefault();
+          // The words are checked with the search's shared schema (their length) before they reach the address bar.
+          if (!words.check(searchFiltersSchema.pick({ q: true }), { q: q.trim() || undefined })) return;
           update((u) => (q.trim() ? u.set('q', q.trim()) : u.delete('q')));
         }}
       >
-        <label className="sr-only" htmlFor="search-q">
-          Words
-        </label>
-        <input
-          id="search-q"
-          type="search"
-          value={q}
-          onChange={(e) => setQ(e.target.value)}
-          placeholder="Accession number, title, dyestuff, mordant, place, trial code…"
-          className="min-w-0 flex-1 rounded-md border border-rule-strong bg-sheet px-3 py-2"
-        />
-        <Button type="submit">Search</Button>
+        <div className="flex gap-2">
+          <label className="sr-only" htmlFor="search-q">
+            Words
+          </label>
+          <input
+            id="search-q"
+            type="search"
+            value={q}
+            onChange={(e) => setQ(e.target.value)}
+            placeholder="Accession number, title, dyestuff, mordant, place, trial code…"
+            aria-invalid={words.errors.q ? true : undefined}
+            aria-describedby={words.errors.q ? 'search-q-err' : undefined}
+            className={`min-w-0 flex-1 rounded-md border bg-sheet px-3 py-2 ${words.errors.q ? 'border-danger' : 'border-rule-strong'}`}
+          />
+          <Button type="submit">Search</Button>
+        </div>
+        {words.errors.q ? (
+          <p id="search-q-err" className="mt-1 text-sm text-danger">
+            {words.errors.q.join(' ')}
+          </p>
+        ) : null}
       </form>
       <div className="grid gap-6 md:grid-cols-[16rem_1fr]">
         <aside ref={narrowRef} aria-label="Shade and facets" className="order-last md:order-none min-w-0" data-testid="narrow-panel">

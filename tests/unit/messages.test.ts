@@ -6,7 +6,11 @@ import { seriesCreateSchema } from '../../shared/schemas/series.ts';
 import { inviteSchema } from '../../shared/schemas/team.ts';
 import { chemicalCreateSchema, dyestuffCreateSchema } from '../../shared/schemas/reference.ts';
 import { shadeQuerySchema } from '../../shared/schemas/search.ts';
-import { stepsSchema, trialCreateSchema } from '../../shared/schemas/trial.ts';
+import { measurementSchema, stepsSchema, substitutionSchema, trialCreateSchema, trialListQuerySchema, trialUpdateSchema } from '../../shared/schemas/trial.ts';
+import { pieceCreateSchema, pieceListQuery } from '../../shared/schemas/piece.ts';
+import { rectSchema, regionCreateSchema } from '../../shared/schemas/photo.ts';
+import { loginSchema } from '../../shared/schemas/auth.ts';
+import { acceptInvitationSchema, resetPasswordSchema, resetRequestSchema } from '../../shared/schemas/team.ts';
 
 // zod's own English, which must never reach a person.
 // "expected" as a word: zod says "expected string"; our formula messages say "Unexpected "x" at position 7".
@@ -103,6 +107,22 @@ describe('the forms’ schemas, empty and wrong', () => {
     ['new chemical, empty', chemicalCreateSchema, {}],
     ['new chemical, wrong', chemicalCreateSchema, { name: '', role: 'salt', status: 'banned', formula: 'CaSO4·x', metal: 'al', signalWord: 'Maybe', hazardBasis: 'rumour', hStatements: ['', 3] }],
     ['new dyestuff, empty', dyestuffCreateSchema, {}],
+    ['sign in, empty', loginSchema, {}],
+    ['join, wrong', acceptInvitationSchema, { token: '', name: '', password: 'x' }],
+    ['forgotten password, wrong', resetRequestSchema, { email: 'nobody' }],
+    ['new password, short', resetPasswordSchema, { password: 'x' }],
+    ['new piece, empty', pieceCreateSchema, {}],
+    ['trial details, wrong', trialUpdateSchema, { dryMassG: 'heavy', gsm: 0, dryMassBasis: 'damp' }],
+    ['fastness grades, wrong', trialUpdateSchema, { fastness: { light: { blueWool: '9' }, washing: { change: '6' }, rubbingDry: { staining: null }, rubbingWet: { staining: '2', testedOn: 'May' } } }],
+    ['reading, empty', measurementSchema, { L: undefined, a: undefined, b: undefined }],
+    ['reading, wrong', measurementSchema, { L: 'dark', a: 300, b: -300, illuminant: 'sun', geometry: 'flat', specular: 'both', instrument: 'x'.repeat(200) }],
+    ['substitution, empty', substitutionSchema, { reason: 'toxicity' }],
+    ['substitution, wrong', substitutionSchema, { stepId: 0, historicalAmountG: -1, modernAmountG: -2, reason: 'fashion' }],
+    ['region, empty', regionCreateSchema, {}],
+    ['region, wrong', regionCreateSchema, { x: -1, y: 'top', w: 0, h: 2.5, purpose: 'decoration', label: 'x'.repeat(200) }],
+    ['reference patch, empty', rectSchema, {}],
+    ['trial list words, too long', trialListQuerySchema, { q: 'x'.repeat(101), status: 'done', mine: 'yes' }],
+    ['archive filters, too long', pieceListQuery, { q: 'x'.repeat(121), status: 'lost', deleted: 'all', sort: 'colour', dir: 'up' }],
   ];
   it.each(sweep)('%s: no raw validator text', (_, schema, value) => {
     const got = messages(schema, value);
@@ -123,6 +143,17 @@ describe('the forms’ schemas, empty and wrong', () => {
     expect(ok.uptakePerUse).toBeCloseTo(0.12);
     // The API itself keeps the fraction, and says so in words.
     expect(messages(batchCreateSchema, { uptakePerUse: 12 }).uptakePerUse).toBe('Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)');
+  });
+
+  it('names the fields of the converted forms: grades, readings, substitutions, regions and the list words', () => {
+    expect(messages(trialUpdateSchema, { fastness: { light: { blueWool: '9' } } })['fastness.light.blueWool']).toBe('Choose a blue wool grade from 1 to 8');
+    expect(messages(measurementSchema, {}).L).toBe('Enter L* as a number from 0 to 100');
+    expect(messages(measurementSchema, { L: 50, a: 0, b: 0, geometry: 'flat' }).geometry).toMatch(/^Choose a measuring geometry/);
+    expect(messages(substitutionSchema, { reason: 'toxicity' }).historicalChemicalId).toBe('Name the historical chemical or practice.');
+    expect(messages(substitutionSchema, { historicalPractice: 'x', modernPractice: 'y', historicalAmountG: 'lots', reason: 'toxicity' }).historicalAmountG).toBe('Enter the historical amount as a number in g');
+    expect(messages(regionCreateSchema, { x: 0, y: 0, h: 5, purpose: 'motif' }).w).toBe('Enter width in pixels');
+    expect(messages(trialListQuerySchema, { q: 'x'.repeat(101) }).q).toBe('Use at most 100 characters for the words');
+    expect(messages(pieceListQuery, { q: 'x'.repeat(121) }).q).toBe('Use at most 120 characters for the words');
   });
 
   it('names each field of a new trial and a recipe step', () => {

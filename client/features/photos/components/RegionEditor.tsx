@@ -1,9 +1,8 @@
 import { useRef, useState, type PointerEvent } from 'react';
-import { REGION_PURPOSES, rectIssues, rectSchema, type Rect, type RegionPurpose } from '../../../../shared/schemas/photo';
+import { REGION_PURPOSES, rectIssues, rectSchema, regionCreateSchema, type Rect, type RegionPurpose } from '../../../../shared/schemas/photo';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
-import { ApiError } from '../../../lib/http';
-import { useFormErrors } from '../../../lib/form';
+import { formMessage, useFormErrors } from '../../../lib/form';
 import type { Photo } from '../../pieces/api';
 import { useAddRegion, useReferencePatch } from '../api';
 
@@ -35,7 +34,7 @@ export function RegionEditor({ photo, canEdit }: { photo: Photo; canEdit: boolea
   const [draft, setDraft] = useState<Draft>({ x: '', y: '', w: '', h: '' });
   const [purpose, setPurpose] = useState<RegionPurpose>('colour-area');
   const [label, setLabel] = useState('');
-  const { formRef, errors, show: setErrors } = useFormErrors();
+  const { formRef, errors, check, show, fromServer } = useFormErrors();
   const addRegion = useAddRegion(photo);
   const setPatch = useReferencePatch(photo);
 
@@ -63,20 +62,27 @@ export function RegionEditor({ photo, canEdit }: { photo: Photo; canEdit: boolea
   const pct = (v: number, of: number) => `${(v / of) * 100}%`;
   const box = (r: Rect) => ({ left: pct(r.x, photo.width), top: pct(r.y, photo.height), width: pct(r.w, photo.width), height: pct(r.h, photo.height) });
 
+  // An empty box is missing (its message says so); text that is not a number stays as typed, so its message asks for pixels.
+  const px = (v: string) => (v.trim() === '' ? undefined : Number.isNaN(Number(v)) ? v : Number(v));
+
   async function save() {
-    const parsed = rectSchema.safeParse({ x: Number(draft.x), y: Number(draft.y), w: Number(draft.w), h: Number(draft.h) });
-    const fields: Record<string, string[]> = {};
-    if (!parsed.success) for (const i of parsed.error.issues) (fields[i.path.join('.')] ??= []).push(i.message);
-    else Object.assign(fields, rectIssues(parsed.data, photo));
-    if (!parsed.success || Object.keys(fields).length) return setErrors(fields);
-    setErrors({});
+    const rectRaw = { x: px(draft.x), y: px(draft.y), w: px(draft.w), h: px(draft.h) };
+    // The route's own schema: a reference patch is a bare rectangle, a region also says what it is for.
+    const data = purpose === 'reference-patch' ? check(rectSchema, rectRaw) : check(regionCreateSchema, { ...rectRaw, purpose, label: label.trim() || null });
+    if (!data) return;
+    // What the schema cannot know: the size of this photo.
+    const outside = rectIssues(data, photo);
+    if (Object.keys(outside).length) return show(outside);
     try {
-      if (purpose === 'reference-patch') await setPatch.mutateAsync(parsed.data);
-      else await addRegion.mutateAsync({ ...parsed.data, purpose, label: label.trim() || null });
+      const rect = { x: data.x, y: data.y, w: data.w, h: data.h };
+      if (purpose === 'reference-patch') await setPatch.mutateAsync(rect);
+      else await addRegion.mutateAsync({ ...rect, purpose, label: label.trim() || null });
       setDraft({ x: '', y: '', w: '', h: '' });
       setLabel('');
     } catch (e) {
-      setErrors(e instanceof ApiError && e.details?.fields ? e.details.fields : { _: [e instanceof Error ? e.message : 'Saving failed.'] });
+      const message = formMessage(e);
+      if (message) show({ _: [message] });
+      else fromServer(e);
     }
   }
 

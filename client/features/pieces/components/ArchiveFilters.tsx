@@ -1,3 +1,5 @@
+import { pieceListQuery } from '../../../../shared/schemas/piece';
+import { useFormErrors } from '../../../lib/form';
 import type { ListParams } from '../api';
 import { useVocabularies } from '../../vocabularies/api';
 
@@ -5,16 +7,33 @@ type Props = { value: ListParams; onChange: (next: ListParams) => void; canSeeDr
 
 const select = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-2 text-sm';
 
-/** Filters of the archive list; every change goes back to page 1. */
+/** Filters of the archive list; every change goes back to page 1. Each change is checked with the list's shared query schema (the words' length), its message under the field. */
 export function ArchiveFilters({ value, onChange, canSeeDrafts, canSeeDeleted }: Props) {
   const vocab = useVocabularies().data;
-  const set = (k: keyof ListParams, v: string) => onChange({ ...value, [k]: v || undefined, page: 1 });
+  const { formRef, errors, check } = useFormErrors();
+  const set = (k: keyof ListParams, v: string) => {
+    const next = { ...value, [k]: v || undefined, page: 1 };
+    // The list follows as typed (the box stays in step with the address bar); a wrong value is said under its field.
+    check(pieceListQuery, next);
+    onChange(next);
+  };
   return (
-    <form role="search" className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6 items-end" onSubmit={(e) => e.preventDefault()}>
-      <label className="text-sm font-medium sm:col-span-3 lg:col-span-2">
-        Accession number or title
-        <input type="search" className={select} value={value.q ?? ''} onChange={(e) => set('q', e.target.value)} placeholder="e.g. 1931.4 or resist" />
-      </label>
+    <form ref={formRef} noValidate role="search" className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6 items-end" onSubmit={(e) => { e.preventDefault(); check(pieceListQuery, value); }}>
+      <div className="sm:col-span-3 lg:col-span-2">
+        <label className="text-sm font-medium">
+          Accession number or title
+          <input
+            type="search"
+            className={errors.q ? select.replace('border-rule-strong', 'border-danger') : select}
+            value={value.q ?? ''}
+            onChange={(e) => set('q', e.target.value)}
+            placeholder="e.g. 1931.4 or resist"
+            aria-invalid={errors.q ? true : undefined}
+            aria-describedby={errors.q ? 'archive-q-err' : undefined}
+          />
+        </label>
+        {errors.q ? <p id="archive-q-err" className="mt-1 text-sm text-danger">{errors.q.join(' ')}</p> : null}
+      </div>
       {canSeeDrafts ? (
         <label className="text-sm font-medium">
           Status

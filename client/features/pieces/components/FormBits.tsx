@@ -92,9 +92,10 @@ export function EvidencedList({
                 value={row.name}
                 onChange={(e) => set(i, { name: e.target.value })}
                 aria-invalid={errors[`${field}.${i}.name`] ? true : undefined}
+                aria-describedby={errors[`${field}.${i}.name`] ? `${listId}-${i}-err` : undefined}
                 className="block w-full rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm"
               />
-              {errors[`${field}.${i}.name`] ? <span className="text-danger">{errorText(errors[`${field}.${i}.name`])}</span> : null}
+              {errors[`${field}.${i}.name`] ? <span id={`${listId}-${i}-err`} className="text-danger">{errorText(errors[`${field}.${i}.name`])}</span> : null}
             </label>
             <label className="text-sm">
               <span className="sr-only">
@@ -118,7 +119,7 @@ export function EvidencedList({
       <button type="button" className="mt-2 text-sm text-action hover:underline" onClick={() => onChange([...value, { name: '', evidence: 'attributed' }])}>
         Add a line
       </button>
-      {errors[field] ? <p className="mt-1 text-sm text-danger">{errorText(errors[field])}</p> : null}
+      {errors[field] ? <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>{errorText(errors[field])}</p> : null}
     </fieldset>
   );
 }

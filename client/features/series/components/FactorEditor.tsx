@@ -1,4 +1,5 @@
 import type { FactorInput } from '../../../../shared/schemas/series';
+import { errorsUnder, type FieldErrors } from '../../../lib/form';
 
 export type FactorDraft = { name: string; role: FactorInput['role']; refName: string; levels: string; mordants: string };
 
@@ -28,10 +29,10 @@ export function toFactor(d: FactorDraft) {
 
 const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-1.5 text-sm font-normal';
 
-export function FactorEditor({ factors, onChange, errors = {} }: { factors: FactorDraft[]; onChange: (f: FactorDraft[]) => void; errors?: Record<string, string[]> }) {
+export function FactorEditor({ factors, onChange, errors = {} }: { factors: FactorDraft[]; onChange: (f: FactorDraft[]) => void; errors?: FieldErrors }) {
   const set = (i: number, patch: Partial<FactorDraft>) => onChange(factors.map((f, j) => (j === i ? { ...f, ...patch } : f)));
   // Messages of one factor's name, and of its levels (a mordant's chemicals count as its levels).
-  const gather = (prefix: string) => [...new Set(Object.entries(errors).filter(([k]) => k === prefix || k.startsWith(`${prefix}.`)).flatMap(([, v]) => v))];
+  const gather = (prefix: string) => errorsUnder(errors, prefix) ?? [];
   const nameErr = (i: number) => gather(`factors.${i}.name`);
   const levelErr = (i: number) => [...gather(`factors.${i}.levels`), ...gather(`factors.${i}.mordants`)];
   const rowErr = (i: number) => [...gather(`factors.${i}.role`), ...gather(`factors.${i}.refName`)];

@@ -3,9 +3,12 @@ import { Link, useParams } from 'react-router-dom';
 import { Button } from '../../../components/Button';
 import { Page } from '../../../components/Page';
 import { ApiError } from '../../../lib/http';
+import { formMessage, useFormErrors } from '../../../lib/form';
+import { FormAlert } from '../../../components/form/FormAlert';
 import { paths } from '../../../paths';
 import { useCreateSeriesTrials, useSeries, useUpdateSeries, type SeriesDetail } from '../api';
 import { MaterialsTable } from './MaterialsTable';
+import { seriesUpdateSchema } from '../../../../shared/schemas/series';
 import { TargetSelect, targetIds, targetValue } from '../../trials/components/TrialFields';
 
 /** The colour of the piece the series aims at; trials planned from now on take it as their target. */
@@ -14,19 +17,26 @@ function SeriesTarget({ s, canEdit }: { s: SeriesDetail; canEdit: boolean }) {
   const saved = targetValue(s.target);
   const [value, setValue] = useState(saved);
   useEffect(() => setValue(saved), [saved]);
+  const { formRef, errors, check, fromServer } = useFormErrors();
   if (s.pieceId == null) return null;
-  const fields = update.error instanceof ApiError ? update.error.details?.fields : undefined;
+  const save = () => {
+    const body = targetIds(value);
+    if (check(seriesUpdateSchema, body)) update.mutate(body, { onError: fromServer });
+  };
   return (
     <section aria-labelledby="target" className="mb-8 max-w-2xl">
       <h2 id="target" className="text-xl font-semibold mb-2">Target colour</h2>
       <p className="text-sm text-ink-soft mb-2">Trials planned from this series compare their swatch with this colour of the piece (ΔE00 on each card).</p>
       {canEdit ? (
-        <div className="flex flex-wrap items-end gap-2">
-          <div className="grow">
-            <TargetSelect pieceId={s.pieceId} value={value} onChange={setValue} error={fields?.target ?? fields?.targetPaletteColourId ?? fields?.targetRegionId ?? fields?.targetMeasurementId} />
+        <form ref={formRef} noValidate aria-label="Target colour" className="space-y-2" onSubmit={(e) => { e.preventDefault(); save(); }}>
+          <div className="flex flex-wrap items-end gap-2">
+            <div className="grow">
+              <TargetSelect pieceId={s.pieceId} value={value} onChange={setValue} error={errors.target ?? errors.targetPaletteColourId ?? errors.targetRegionId ?? errors.targetMeasurementId} />
+            </div>
+            <Button type="submit" variant="secondary" disabled={value === saved || update.isPending}>Save target</Button>
           </div>
-          <Button variant="secondary" disabled={value === saved || update.isPending} onClick={() => update.mutate(targetIds(value))}>Save target</Button>
-        </div>
+          <FormAlert message={formMessage(update.error)} />
+        </form>
       ) : <p className="text-sm">{saved ? 'Set: see the planned trials for the colour.' : 'No target colour.'}</p>}
     </section>
   );

@@ -1,13 +1,14 @@
 import { useState } from 'react';
 import { BLUE_WOOL_GRADES, FASTNESS_TESTS, GREY_GRADES } from '../../../../shared/compute/fastness';
 import type { Fastness } from '../../../../shared/schemas/fastness';
+import { trialUpdateSchema, type TrialUpdateInput } from '../../../../shared/schemas/trial';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
-import { ApiError } from '../../../lib/http';
+import { Select } from '../../../components/form/Select';
+import { formMessage, useFormErrors, type FieldErrors } from '../../../lib/form';
 import { useUpdateTrial, type TrialView } from '../api';
 
 type Draft = { light: string; lightInformal: boolean; washChange: string; washStaining: string; washInformal: boolean; dry: string; dryInformal: boolean; wet: string; wetInformal: boolean };
-const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-1.5 text-sm font-mono';
 
 const fromFastness = (f: Fastness | null): Draft => ({
   light: f?.light?.blueWool ?? '', lightInformal: f?.light?.informal ?? false,
@@ -22,11 +23,18 @@ const toFastness = (d: Draft) => ({
   rubbingWet: d.wet ? { staining: d.wet, informal: d.wetInformal } : null,
 });
 
-const Grade = ({ label, value, grades, onChange }: { label: string; value: string; grades: readonly string[]; onChange: (v: string) => void }) => (
-  <label className="block text-xs font-medium">{label}
-    <select className={input} value={value} onChange={(e) => onChange(e.target.value)}><option value="">not tested</option>{grades.map((g) => <option key={g} value={g}>{g}</option>)}</select>
-  </label>
+// The grade fields and the dotted path of each in PATCH /api/trials/:id, where the shared schema and the server put their messages.
+const GRADE_FIELDS = { light: 'fastness.light.blueWool', washChange: 'fastness.washing.change', washStaining: 'fastness.washing.staining', dry: 'fastness.rubbingDry.staining', wet: 'fastness.rubbingWet.staining' } as const;
+const gradeOptions = (grades: readonly string[]) => [{ value: '', label: 'not tested' }, ...grades.map((g) => ({ value: g, label: g }))];
+const Grade = ({ label, value, grades, error, onChange }: { label: string; value: string; grades: readonly string[]; error?: string[]; onChange: (v: string) => void }) => (
+  <Select label={label} className="font-mono" value={value} options={gradeOptions(grades)} error={error} onChange={(e) => onChange(e.target.value)} />
 );
+/** Messages about a part of the grades that has no field of its own here (a date or a note sent by another client). */
+const otherMessages = (errors: FieldErrors) => {
+  const shown = new Set<string>(Object.values(GRADE_FIELDS));
+  const rest = Object.entries(errors).filter(([k]) => !shown.has(k)).flatMap(([, v]) => v);
+  return rest.length ? [...new Set(rest)].join(' ') : null;
+};
 const Informal = ({ checked, onChange }: { checked: boolean; onChange: (v: boolean) => void }) => (
   <label className="mt-1 flex items-center gap-1 text-xs"><input type="checkbox" checked={checked} onChange={(e) => onChange(e.target.checked)} /> informal</label>
 );
@@ -52,19 +60,25 @@ export function FastnessSection({ trial }: { trial: TrialView }) {
   const [editing, setEditing] = useState(false);
   const [d, setD] = useState<Draft>(fromFastness(current));
   const update = useUpdateTrial(trial.id);
-  const fields = update.error instanceof ApiError ? update.error.details?.fields : undefined;
+  const { formRef, errors, check, fromServer, clear } = useFormErrors();
+  const err = (k: keyof typeof GRADE_FIELDS) => errors[GRADE_FIELDS[k]];
+  const save = () => {
+    // Checked with the route's own schema, so the messages carry the same paths as the server's 400.
+    const body = { fastness: toFastness(d) } as TrialUpdateInput;
+    if (check(trialUpdateSchema, body)) update.mutate(body, { onSuccess: () => setEditing(false), onError: fromServer });
+  };
   return (
     <section aria-labelledby="fast-h" className="space-y-3">
       <div className="flex items-end justify-between"><h2 id="fast-h" className="text-xl font-semibold">Fastness</h2>
-        {trial.abilities['trial:update'] && !editing ? <Button variant="secondary" onClick={() => { setD(fromFastness(current)); setEditing(true); }}>Record grades</Button> : null}
+        {trial.abilities['trial:update'] && !editing ? <Button variant="secondary" onClick={() => { setD(fromFastness(current)); clear(); update.reset(); setEditing(true); }}>Record grades</Button> : null}
       </div>
       {editing ? (
-        <form className="grid gap-4 rounded-lg border border-rule bg-sheet p-4 sm:grid-cols-4" onSubmit={(e) => { e.preventDefault(); update.mutate({ fastness: toFastness(d) as Fastness }, { onSuccess: () => setEditing(false) }); }}>
-          <div><Grade label="Light (blue wool 1–8)" value={d.light} grades={BLUE_WOOL_GRADES} onChange={(light) => setD({ ...d, light })} /><Informal checked={d.lightInformal} onChange={(lightInformal) => setD({ ...d, lightInformal })} /></div>
-          <div><Grade label="Washing: change in colour" value={d.washChange} grades={GREY_GRADES} onChange={(washChange) => setD({ ...d, washChange })} /><Grade label="Washing: staining" value={d.washStaining} grades={GREY_GRADES} onChange={(washStaining) => setD({ ...d, washStaining })} /><Informal checked={d.washInformal} onChange={(washInformal) => setD({ ...d, washInformal })} /></div>
-          <div><Grade label="Rubbing dry (grey scale)" value={d.dry} grades={GREY_GRADES} onChange={(dry) => setD({ ...d, dry })} /><Informal checked={d.dryInformal} onChange={(dryInformal) => setD({ ...d, dryInformal })} /></div>
-          <div><Grade label="Rubbing wet (grey scale)" value={d.wet} grades={GREY_GRADES} onChange={(wet) => setD({ ...d, wet })} /><Informal checked={d.wetInformal} onChange={(wetInformal) => setD({ ...d, wetInformal })} /></div>
-          <div className="sm:col-span-4"><FormAlert message={update.error ? (fields ? [...new Set(Object.values(fields).flat())].join(' ') : update.error.message) : null} /></div>
+        <form ref={formRef} noValidate aria-label="Fastness grades" className="grid gap-4 rounded-lg border border-rule bg-sheet p-4 sm:grid-cols-4" onSubmit={(e) => { e.preventDefault(); save(); }}>
+          <div><Grade label="Light (blue wool 1–8)" value={d.light} error={err('light')} grades={BLUE_WOOL_GRADES} onChange={(light) => setD({ ...d, light })} /><Informal checked={d.lightInformal} onChange={(lightInformal) => setD({ ...d, lightInformal })} /></div>
+          <div><Grade label="Washing: change in colour" value={d.washChange} error={err('washChange')} grades={GREY_GRADES} onChange={(washChange) => setD({ ...d, washChange })} /><Grade label="Washing: staining" value={d.washStaining} error={err('washStaining')} grades={GREY_GRADES} onChange={(washStaining) => setD({ ...d, washStaining })} /><Informal checked={d.washInformal} onChange={(washInformal) => setD({ ...d, washInformal })} /></div>
+          <div><Grade label="Rubbing dry (grey scale)" value={d.dry} error={err('dry')} grades={GREY_GRADES} onChange={(dry) => setD({ ...d, dry })} /><Informal checked={d.dryInformal} onChange={(dryInformal) => setD({ ...d, dryInformal })} /></div>
+          <div><Grade label="Rubbing wet (grey scale)" value={d.wet} error={err('wet')} grades={GREY_GRADES} onChange={(wet) => setD({ ...d, wet })} /><Informal checked={d.wetInformal} onChange={(wetInformal) => setD({ ...d, wetInformal })} /></div>
+          <div className="sm:col-span-4"><FormAlert message={formMessage(update.error) ?? otherMessages(errors)} /></div>
           <div className="flex gap-3 sm:col-span-4"><Button type="submit" disabled={update.isPending}>Save grades</Button><Button type="button" variant="quiet" onClick={() => setEditing(false)}>Cancel</Button></div>
         </form>
       ) : <Shown f={current} />}

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useId, useState } from 'react';
 import { BASES, OPERATIONS, basisLabels, operationLabels, stepsSchema, type StepInput } from '../../../../shared/schemas/trial';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
@@ -70,6 +70,7 @@ function HistoricalUse({ trial, draft, chemicals, onChange, errors, step }: {
   trial: TrialView; draft: Draft; chemicals: Array<{ id: number; name: string; status: string }>; step: number;
   onChange: (patch: Partial<Draft>) => void; errors: { confirmed?: string[]; reason?: string[] };
 }) {
+  const id = useId();
   if (trial.kind !== 'modern') return null;
   const names = [...new Set(draft.ingredients.filter((g) => g.kind === 'chemical').map((g) => chemicals.find((c) => String(c.id) === g.refId)).filter((c) => c?.status === 'historical-only').map((c) => c!.name))];
   if (!names.length) return null;
@@ -77,14 +78,14 @@ function HistoricalUse({ trial, draft, chemicals, onChange, errors, step }: {
     <div className="mt-3 space-y-2 rounded-md border-2 border-danger bg-danger-tint p-3 text-sm text-danger">
       <p className="font-semibold">⚠ {names.join(', ')} {names.length === 1 ? 'is' : 'are'} kept for historical recipes only. Prefer a modern substitute; use {names.length === 1 ? 'it' : 'them'} only under the supplier's safety data sheet, local rules and licensed practice.</p>
       <label className="flex items-start gap-2">
-        <input type="checkbox" name={`steps.${step - 1}.historicalUseConfirmed`} checked={draft.historicalUseConfirmed} onChange={(e) => onChange({ historicalUseConfirmed: e.target.checked })} aria-invalid={errors.confirmed ? true : undefined} />
+        <input type="checkbox" name={`steps.${step - 1}.historicalUseConfirmed`} checked={draft.historicalUseConfirmed} onChange={(e) => onChange({ historicalUseConfirmed: e.target.checked })} aria-invalid={errors.confirmed ? true : undefined} aria-describedby={errors.confirmed ? `${id}-confirmed` : undefined} />
         <span>I confirm step {step} uses {names.join(', ')} in this modern trial.</span>
       </label>
-      {errors.confirmed ? <p className="text-xs">{errors.confirmed.join(' ')}</p> : null}
+      {errors.confirmed ? <p id={`${id}-confirmed`} className="text-xs">{errors.confirmed.join(' ')}</p> : null}
       <label className="block text-xs font-medium text-ink">Reason (recorded with your name and the date)
-        <textarea name={`steps.${step - 1}.historicalUseReason`} className={`${input} ${errors.reason ? 'border-danger' : ''}`} rows={2} value={draft.historicalUseReason} onChange={(e) => onChange({ historicalUseReason: e.target.value })} aria-invalid={errors.reason ? true : undefined} />
+        <textarea name={`steps.${step - 1}.historicalUseReason`} className={`${input} ${errors.reason ? 'border-danger' : ''}`} rows={2} value={draft.historicalUseReason} onChange={(e) => onChange({ historicalUseReason: e.target.value })} aria-invalid={errors.reason ? true : undefined} aria-describedby={errors.reason ? `${id}-reason` : undefined} />
       </label>
-      {errors.reason ? <p className="text-xs">{errors.reason.join(' ')}</p> : null}
+      {errors.reason ? <p id={`${id}-reason`} className="text-xs">{errors.reason.join(' ')}</p> : null}
     </div>
   );
 }

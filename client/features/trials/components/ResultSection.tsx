@@ -2,14 +2,15 @@ import { useState } from 'react';
 import { GEOMETRIES, ILLUMINANTS, OBSERVERS, measurementSchema, type MeasurementInput } from '../../../../shared/schemas/trial';
 import { formMessage, useFormErrors } from '../../../lib/form';
 import { Button } from '../../../components/Button';
+import { Field } from '../../../components/form/Field';
 import { FormAlert } from '../../../components/form/FormAlert';
+import { Select } from '../../../components/form/Select';
 import { ApiError } from '../../../lib/http';
 import { useAddMeasurement, useDeleteMeasurement, useImportMeasurements, useUploadSwatch, type TrialView } from '../api';
 import { conditionsText } from '../../../../shared/colour/conditions';
 import { fmt } from '../format';
 import { ColourComparison } from './ColourComparison';
 
-const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-1.5 text-sm';
 
 function MeasurementForm({ trialId }: { trialId: number }) {
   const [d, setD] = useState({ L: '', a: '', b: '', illuminant: 'D65', observer: '10', geometry: 'd:8°', specular: 'SCI', instrument: '' });
@@ -17,22 +18,21 @@ function MeasurementForm({ trialId }: { trialId: number }) {
   const { formRef, errors, check, fromServer } = useFormErrors();
   const set = (k: keyof typeof d) => (e: { target: { value: string } }) => setD({ ...d, [k]: e.target.value });
   const num = (x: string) => (x.trim() === '' ? (undefined as unknown as number) : Number(x));
-  const err = (k: string) => (errors[k] ? <span className="block text-xs text-danger">{errors[k].join(' ')}</span> : null);
-  const bad = (k: string) => (errors[k] ? { 'aria-invalid': true as const } : {});
+  const opts = (xs: readonly string[], label = (x: string) => x) => xs.map((x) => ({ value: x, label: label(x) }));
   return (
     <form ref={formRef} noValidate aria-label="Add a reading" className="grid gap-3 sm:grid-cols-4" onSubmit={(e) => {
       e.preventDefault();
       const body: MeasurementInput = { L: num(d.L), a: num(d.a), b: num(d.b), illuminant: d.illuminant as MeasurementInput['illuminant'], observer: d.observer as MeasurementInput['observer'], geometry: d.geometry as MeasurementInput['geometry'], specular: d.specular as 'SCI' | 'SCE', instrument: d.instrument || null };
       if (check(measurementSchema, body)) add.mutate(body, { onSuccess: () => setD({ ...d, L: '', a: '', b: '' }), onError: fromServer });
     }}>
-      <label className="text-xs font-medium">L*<input className={`${input} font-mono`} inputMode="decimal" value={d.L} onChange={set('L')} {...bad('L')} />{err('L')}</label>
-      <label className="text-xs font-medium">a*<input className={`${input} font-mono`} inputMode="decimal" value={d.a} onChange={set('a')} {...bad('a')} />{err('a')}</label>
-      <label className="text-xs font-medium">b*<input className={`${input} font-mono`} inputMode="decimal" value={d.b} onChange={set('b')} {...bad('b')} />{err('b')}</label>
-      <label className="text-xs font-medium">Instrument<input className={input} value={d.instrument} onChange={set('instrument')} /></label>
-      <label className="text-xs font-medium">Illuminant<select className={input} value={d.illuminant} onChange={set('illuminant')}>{ILLUMINANTS.map((x) => <option key={x}>{x}</option>)}</select></label>
-      <label className="text-xs font-medium">Observer<select className={input} value={d.observer} onChange={set('observer')}>{OBSERVERS.map((x) => <option key={x} value={x}>{x}°</option>)}</select></label>
-      <label className="text-xs font-medium">Geometry<select className={input} value={d.geometry} onChange={set('geometry')}>{GEOMETRIES.map((x) => <option key={x}>{x}</option>)}</select></label>
-      <label className="text-xs font-medium">Specular<select className={input} value={d.specular} onChange={set('specular')}><option>SCI</option><option>SCE</option></select></label>
+      <Field label="L*" className="font-mono" inputMode="decimal" value={d.L} onChange={set('L')} error={errors.L} />
+      <Field label="a*" className="font-mono" inputMode="decimal" value={d.a} onChange={set('a')} error={errors.a} />
+      <Field label="b*" className="font-mono" inputMode="decimal" value={d.b} onChange={set('b')} error={errors.b} />
+      <Field label="Instrument" value={d.instrument} onChange={set('instrument')} error={errors.instrument} />
+      <Select label="Illuminant" value={d.illuminant} onChange={set('illuminant')} options={opts(ILLUMINANTS)} error={errors.illuminant} />
+      <Select label="Observer" value={d.observer} onChange={set('observer')} options={opts(OBSERVERS, (x) => `${x}°`)} error={errors.observer} />
+      <Select label="Geometry" value={d.geometry} onChange={set('geometry')} options={opts(GEOMETRIES)} error={errors.geometry} />
+      <Select label="Specular" value={d.specular} onChange={set('specular')} options={opts(['SCI', 'SCE'])} error={errors.specular} />
       <div className="sm:col-span-4"><FormAlert message={formMessage(add.error)} /></div>
       <div className="sm:col-span-4"><Button type="submit" variant="secondary" disabled={add.isPending}>Add reading</Button></div>
     </form>

@@ -1,7 +1,9 @@
 import { useState } from 'react';
 import { REASONS, substitutionSchema, type SubstitutionInput } from '../../../../shared/schemas/trial';
 import { Button } from '../../../components/Button';
+import { Field } from '../../../components/form/Field';
 import { FormAlert } from '../../../components/form/FormAlert';
+import { Select } from '../../../components/form/Select';
 import { formMessage, useFormErrors } from '../../../lib/form';
 import { ChemicalCaution } from '../../reference/components/ChemicalCaution';
 import { useChemicals } from '../../reference/api';
@@ -9,10 +11,10 @@ import { useDeleteSubstitution, useSaveSubstitution, type TrialView } from '../a
 import { grams, REASON_WORDS } from '../format';
 import { MetalLoad } from './MetalLoad';
 
-const input = 'mt-1 block w-full rounded-md border border-rule-strong bg-sheet px-2 py-1.5 text-sm';
 type Draft = { stepId: string; historicalChemicalId: string; historicalPractice: string; historicalAmountG: string; modernChemicalId: string; modernPractice: string; modernAmountG: string; reason: string; notes: string };
 const empty: Draft = { stepId: '', historicalChemicalId: '', historicalPractice: '', historicalAmountG: '', modernChemicalId: '', modernPractice: '', modernAmountG: '', reason: 'toxicity', notes: '' };
-const n = (x: string) => (x.trim() === '' ? null : Number(x));
+// Empty is none; text that is not a number goes to the schema as typed, so its message asks for a number.
+const n = (x: string) => (x.trim() === '' ? null : Number.isNaN(Number(x)) ? (x as unknown as number) : Number(x));
 
 function SubstitutionForm({ trial, onDone }: { trial: TrialView; onDone: () => void }) {
   const [d, setD] = useState<Draft>(empty);
@@ -20,9 +22,8 @@ function SubstitutionForm({ trial, onDone }: { trial: TrialView; onDone: () => v
   const save = useSaveSubstitution(trial.id);
   const { formRef, errors, check, fromServer } = useFormErrors();
   const set = (k: keyof Draft) => (e: { target: { value: string } }) => setD({ ...d, [k]: e.target.value });
-  const chemOptions = (chemicals.data?.items ?? []).map((c) => <option key={c.id} value={c.id}>{c.name}</option>);
-  const error = (k: string) => (errors[k] ? <span className="block text-xs text-danger">{errors[k].join(' ')}</span> : null);
-  const bad = (k: string) => (errors[k] ? { 'aria-invalid': true as const } : {});
+  const chemOptions = [{ value: '', label: '—' }, ...(chemicals.data?.items ?? []).map((c) => ({ value: String(c.id), label: c.name }))];
+  const stepOptions = [{ value: '', label: '—' }, ...trial.steps.map((s) => ({ value: String(s.id), label: `${s.position}. ${s.operation}` }))];
   const submit = () => {
     const body: SubstitutionInput = {
       stepId: n(d.stepId), historicalChemicalId: n(d.historicalChemicalId), historicalPractice: d.historicalPractice || null, historicalAmountG: n(d.historicalAmountG),
@@ -32,15 +33,15 @@ function SubstitutionForm({ trial, onDone }: { trial: TrialView; onDone: () => v
   };
   return (
     <form ref={formRef} noValidate className="grid gap-3 rounded-lg border border-rule bg-sheet p-4 sm:grid-cols-3" onSubmit={(e) => { e.preventDefault(); submit(); }} aria-label="Record a substitution">
-      <label className="text-xs font-medium">Historical chemical<select className={input} value={d.historicalChemicalId} onChange={set('historicalChemicalId')} {...bad('historicalChemicalId')}><option value="">—</option>{chemOptions}</select>{error('historicalChemicalId')}</label>
-      <label className="text-xs font-medium">or historical practice<input className={input} value={d.historicalPractice} onChange={set('historicalPractice')} {...bad('historicalPractice')} />{error('historicalPractice')}</label>
-      <label className="text-xs font-medium">Historical amount <span className="font-normal text-ink-faint">(g, this batch)</span><input className={`${input} font-mono`} inputMode="decimal" value={d.historicalAmountG} onChange={set('historicalAmountG')} {...bad('historicalAmountG')} />{error('historicalAmountG')}</label>
-      <label className="text-xs font-medium">Modern chemical<select className={input} value={d.modernChemicalId} onChange={set('modernChemicalId')} {...bad('modernChemicalId')}><option value="">—</option>{chemOptions}</select>{error('modernChemicalId')}</label>
-      <label className="text-xs font-medium">or modern practice<input className={input} value={d.modernPractice} onChange={set('modernPractice')} placeholder="e.g. overdye with weld" {...bad('modernPractice')} />{error('modernPractice')}</label>
-      <label className="text-xs font-medium">Modern amount <span className="font-normal text-ink-faint">(g; empty = from the recipe step)</span><input className={`${input} font-mono`} inputMode="decimal" value={d.modernAmountG} onChange={set('modernAmountG')} {...bad('modernAmountG')} />{error('modernAmountG')}</label>
-      <label className="text-xs font-medium">Step<select className={input} value={d.stepId} onChange={set('stepId')} {...bad('stepId')}><option value="">—</option>{trial.steps.map((s) => <option key={s.id} value={s.id}>{s.position}. {s.operation}</option>)}</select>{error('stepId')}</label>
-      <label className="text-xs font-medium">Reason<select className={input} value={d.reason} onChange={set('reason')} {...bad('reason')}>{REASONS.map((r) => <option key={r} value={r}>{REASON_WORDS[r]}</option>)}</select></label>
-      <label className="text-xs font-medium">Notes<input className={input} value={d.notes} onChange={set('notes')} /></label>
+      <Select label="Historical chemical" value={d.historicalChemicalId} onChange={set('historicalChemicalId')} options={chemOptions} error={errors.historicalChemicalId} />
+      <Field label="or historical practice" value={d.historicalPractice} onChange={set('historicalPractice')} error={errors.historicalPractice} />
+      <Field label="Historical amount" unit="g, this batch" className="font-mono" inputMode="decimal" value={d.historicalAmountG} onChange={set('historicalAmountG')} error={errors.historicalAmountG} />
+      <Select label="Modern chemical" value={d.modernChemicalId} onChange={set('modernChemicalId')} options={chemOptions} error={errors.modernChemicalId} />
+      <Field label="or modern practice" value={d.modernPractice} onChange={set('modernPractice')} placeholder="e.g. overdye with weld" error={errors.modernPractice} />
+      <Field label="Modern amount" unit="g; empty = from the recipe step" className="font-mono" inputMode="decimal" value={d.modernAmountG} onChange={set('modernAmountG')} error={errors.modernAmountG} />
+      <Select label="Step" value={d.stepId} onChange={set('stepId')} options={stepOptions} error={errors.stepId} />
+      <Select label="Reason" value={d.reason} onChange={set('reason')} options={REASONS.map((r) => ({ value: r, label: REASON_WORDS[r] }))} error={errors.reason} />
+      <Field label="Notes" value={d.notes} onChange={set('notes')} error={errors.notes} />
       <div className="sm:col-span-3"><FormAlert message={formMessage(save.error)} /></div>
       <div className="flex gap-3 sm:col-span-3">
         <Button type="submit" disabled={save.isPending}>Save substitution</Button>

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
-import { TRIAL_KINDS, TRIAL_STATUSES, type TrialListQuery } from '../../../../shared/schemas/trial';
+import { TRIAL_KINDS, TRIAL_STATUSES, trialListQuerySchema, type TrialListQuery } from '../../../../shared/schemas/trial';
+import { useFormErrors } from '../../../lib/form';
 import { Page } from '../../../components/Page';
 import { useCan } from '../../auth/api';
 import { paths } from '../../../paths';
@@ -28,6 +29,7 @@ export function TrialsPage() {
   };
   const page = Number(q.page);
   const [text, setText] = useState(q.q ?? '');
+  const words = useFormErrors();
   const list = useTrials(q);
   const set = (k: string, v: string) => {
     const next = new URLSearchParams(params);
@@ -49,11 +51,25 @@ export function TrialsPage() {
         </>
       }
     >
-      <form className="mb-4 flex flex-wrap items-end gap-3" role="search" onSubmit={(e) => { e.preventDefault(); set('q', text.trim()); }}>
-        <label className="text-sm font-medium">
-          Words
-          <input className={`${select} w-56`} value={text} onChange={(e) => setText(e.target.value)} placeholder="code, notes, accession number" />
-        </label>
+      <form ref={words.formRef} noValidate className="mb-4 flex flex-wrap items-end gap-3" role="search" onSubmit={(e) => {
+        e.preventDefault();
+        // The list's shared query schema checks the words (their length) before they reach the address bar.
+        if (words.check(trialListQuerySchema, { ...q, q: text.trim() || undefined })) set('q', text.trim());
+      }}>
+        <div>
+          <label className="text-sm font-medium">
+            Words
+            <input
+              className={`${words.errors.q ? select.replace('border-rule-strong', 'border-danger') : select} w-56`}
+              value={text}
+              onChange={(e) => setText(e.target.value)}
+              placeholder="code, notes, accession number"
+              aria-invalid={words.errors.q ? true : undefined}
+              aria-describedby={words.errors.q ? 'trials-q-err' : undefined}
+            />
+          </label>
+          {words.errors.q ? <p id="trials-q-err" className="mt-1 w-56 text-sm text-danger">{words.errors.q.join(' ')}</p> : null}
+        </div>
         <label className="text-sm font-medium">
           Status
           <select className={select} value={q.status ?? ''} onChange={(e) => set('status', e.target.value)}>
