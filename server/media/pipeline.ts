@@ -12,6 +12,7 @@ import { exists, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
 import { paletteRows } from './rows.ts';
 import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
+import type { ServiceCtx } from '../services/context.ts';
 export { repalette } from './repalette.ts';
 
 export const MAX_BYTES = 60 * 1024 * 1024;
@@ -66,7 +67,7 @@ const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { r
  * thread). All rows go into the caller's transaction; on any failure every
  * file written here is removed again and an HttpError is thrown.
  */
-export async function ingestPhoto({ actor, transaction, input }: { actor: User | null; transaction: Transaction; input: IngestInput }) {
+export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<IngestInput, User | null>) {
   const { buffer } = input;
   const info = await probe(buffer);
   const files = new WrittenFiles();
