@@ -68,6 +68,7 @@ describe('who may see and change trials', () => {
     await dyer.get(`/api/trials/99999999`).expect(404);
     await dyer.delete(`/api/trials/${id}`).set('Origin', ORIGIN).expect(204);
     await dyer.get(`/api/trials/${id}`).expect(404);
+    expect(await AuditEvent.count({ where: { entity: 'trial', entityId: id, action: 'trial-removed' } })).toBe(1);
   });
 
   it('validates input with per-field details', async () => {
@@ -270,6 +271,9 @@ describe('substitutions and the metal load', () => {
     expect(bad.body.error.details.fields).toHaveProperty('historicalChemicalId');
     await dyer.delete(`/api/trials/${t.id}/substitutions/${subId}`).set('Origin', ORIGIN).expect(204);
     expect((await dyer.get(`/api/trials/${t.id}`)).body.trial.substitutions).toHaveLength(0);
+    // The removal is in the trial's history, with what was removed.
+    const removed = await AuditEvent.findOne({ where: { entity: 'trial', entityId: t.id, action: 'substitution-removed' } });
+    expect(removed?.changes).toMatchObject({ substitution: { from: { reason: 'regulation', historicalAmountG: 9 }, to: null } });
   });
 });
 

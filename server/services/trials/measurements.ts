@@ -4,6 +4,7 @@ import { unprocessable } from '../../http/errors.ts';
 import { ColourMeasurement, type Trial } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
 import type { ServiceCtx } from '../context.ts';
+import { audit } from '../audit.ts';
 
 
 const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
@@ -15,6 +16,13 @@ const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.
 export async function addMeasurement({ actor, transaction, input }: ServiceCtx<MeasurementInput & { trial: Trial }>) {
   const { trial, ...rest } = input;
   return ColourMeasurement.create(row(trial, actor, measurementSchema.parse(rest)), { transaction });
+}
+
+export async function removeMeasurement({ actor, transaction, input }: ServiceCtx<{ measurement: ColourMeasurement }>) {
+  const m = input.measurement;
+  await m.destroy({ transaction });
+  const reading = { id: m.id, label: m.label, L: m.L, a: m.a, b: m.b, illuminant: m.illuminant, observer: m.observer };
+  await audit({ actor, transaction }, 'trial', m.trialId!, 'measurement-removed', { measurement: { from: reading, to: null } });
 }
 
 export type CsvLineError = { line: number; errors: string[] };

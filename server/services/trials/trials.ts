@@ -3,7 +3,8 @@ import type { StepsInput, SubstitutionInput, TrialCreateInput, TrialUpdateInput 
 import { stepsSchema, substitutionSchema, trialCreateSchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
 import { badRequest, unprocessable } from '../../http/errors.ts';
 import { audit } from '../audit.ts';
-import { ColourMeasurement, RecipeStep, Substitution, Trial } from '../../models/index.ts';
+import { ColourMeasurement, Photo, RecipeStep, Substitution, Trial } from '../../models/index.ts';
+import { removePhotoRows } from '../photos.ts';
 import { checkChemical, checkPiece, checkTarget, loadIngredientRefs } from './refs.ts';
 import { nextTrialCode } from './code.ts';
 import { lockBaths, oldDraws, syncStepDraws } from '../batches/step-draws.ts';
@@ -52,7 +53,10 @@ export async function deleteTrial({ actor, transaction, input }: ServiceCtx<{ tr
   await Substitution.destroy({ where: { trialId }, transaction });
   await RecipeStep.destroy({ where: { trialId }, transaction });
   await ColourMeasurement.destroy({ where: { trialId }, transaction });
+  // Its swatch photos go too: rows now, files and tiles once the transaction commits.
+  await removePhotoRows(await Photo.findAll({ where: { trialId }, transaction }), transaction);
   await input.trial.destroy({ transaction });
+  await audit({ actor, transaction }, 'trial', trialId, 'trial-removed', { code: { from: input.trial.code, to: null } });
 }
 
 /**
@@ -175,4 +179,10 @@ export async function updateSubstitution({ transaction, input }: ServiceCtx<Subs
   const v = substitutionSchema.parse(rest);
   await checkSubstitution(substitution.trialId, v, transaction);
   return substitution.update(substitutionRow(v), { transaction });
+}
+
+export async function removeSubstitution({ actor, transaction, input }: ServiceCtx<{ substitution: Substitution }>) {
+  const { substitution } = input;
+  await substitution.destroy({ transaction });
+  await audit({ actor, transaction }, 'trial', substitution.trialId, 'substitution-removed', { substitution: { from: substitutionRow(substitution), to: null } });
 }
