@@ -1,5 +1,6 @@
 import { useRef, useState, type PointerEvent } from 'react';
 import { REGION_PURPOSES, rectIssues, rectSchema, type Rect, type RegionPurpose } from '../../../../shared/schemas/photo';
+import { fieldErrorsOf } from '../../../../shared/field-errors';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { ApiError } from '../../../lib/http';
@@ -65,9 +66,7 @@ export function RegionEditor({ photo, canEdit }: { photo: Photo; canEdit: boolea
 
   async function save() {
     const parsed = rectSchema.safeParse({ x: Number(draft.x), y: Number(draft.y), w: Number(draft.w), h: Number(draft.h) });
-    const fields: Record<string, string[]> = {};
-    if (!parsed.success) for (const i of parsed.error.issues) (fields[i.path.join('.')] ??= []).push(i.message);
-    else Object.assign(fields, rectIssues(parsed.data, photo));
+    const fields: Record<string, string[]> = parsed.success ? rectIssues(parsed.data, photo) : fieldErrorsOf(parsed.error.issues);
     if (!parsed.success || Object.keys(fields).length) return setErrors(fields);
     setErrors({});
     try {
