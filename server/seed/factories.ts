@@ -161,7 +161,7 @@ export function makeSeries(attrs: Attrs<TrialSeries> = {}, transaction?: Transac
 export async function makePhoto(input: Partial<IngestInput> & { hex?: string; width?: number; height?: number } = {}, transaction?: Transaction) {
   const { hex = '#8a3b2f', width = 240, height = 160, ...rest } = input;
   const buffer = rest.buffer ?? (await sharp({ create: { width, height, channels: 3, background: hex } }).png().toBuffer());
-  const run = (t: Transaction) => ingestPhoto({ actor: null, transaction: t, input: { originalName: `factory-${next()}.png`, ...rest, buffer } });
+  const run = (t: Transaction) => ingestPhoto({ actor: null, transaction: t, input: { ...rest, buffer } });
   return transaction ? run(transaction) : sequelize.transaction(run);
 }
 

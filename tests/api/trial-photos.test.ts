@@ -3,10 +3,10 @@ import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
 import { mkdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { AuditEvent, ColourMeasurement, Job, PaletteColour, Photo, Trial, User, sequelize } from '../../server/models/index.ts';
+import { AuditEvent, Job, PaletteColour, Photo, Trial, User, sequelize } from '../../server/models/index.ts';
 import { uploadsDir, tilesDir } from '../../server/media/paths.ts';
 import { deleteTrial } from '../../server/services/trials/trials.ts';
-import { makePiece } from '../../server/seed/factories.ts';
+import { makeMeasurement, makePiece } from '../../server/seed/factories.ts';
 import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg, uploadedFiles } from '../support/images.ts';
@@ -49,7 +49,7 @@ describe('result swatches and which colour is used', () => {
 
     await dyer.post(`/api/trials/${trial.id}/measurements`).set('Origin', ORIGIN).send({ L: 40, a: 40, b: 25 }).expect(201);
     await dyer.post(`/api/trials/${trial.id}/measurements`).set('Origin', ORIGIN).send({ L: 42, a: 42, b: 27 }).expect(201);
-    await ColourMeasurement.create({ pieceId: null, regionId: region.id, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', L: 38, a: 41, b: 24, label: 'madder red, measured', takenOn: null, createdById: null });
+    await makeMeasurement({ pieceId: null, regionId: region.id, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', L: 38, a: 41, b: 24, label: 'madder red, measured', takenOn: null, createdById: null });
     const measured = (await dyer.get(`/api/trials/${trial.id}`).expect(200)).body.trial;
     expect(measured.colour.result).toMatchObject({ source: 'instrument', L: 41, a: 41, b: 26, setAside: { source: 'image-estimate' } });
     expect(measured.colour.result.label).toMatch(/mean of 2/);
