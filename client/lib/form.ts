@@ -1,16 +1,13 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { z } from 'zod';
 import { ApiError } from './http';
+import { fieldErrorsOf as sharedFieldErrorsOf, type FieldErrors } from '../../shared/field-errors';
 
 /** Messages keyed by the field's path joined with dots ("steps.0.ph"), exactly as the server's 400 details.fields. */
-export type FieldErrors = Record<string, string[]>;
+export type { FieldErrors };
 
-/** A zod error as per-field messages, keyed the way the server keys them: the first problem of each field ("Enter the code", not also "Letters only"). */
-export function fieldErrorsOf(error: z.ZodError): FieldErrors {
-  const errors: FieldErrors = {};
-  for (const i of error.issues) errors[i.path.map(String).join('.') || '_'] ??= [i.message];
-  return errors;
-}
+/** A zod error as per-field messages, keyed the way the server keys them (shared/field-errors.ts): the first problem of each field ("Enter the code", not also "Letters only"). */
+export const fieldErrorsOf = (error: z.ZodError): FieldErrors => sharedFieldErrorsOf(error.issues, { first: true });
 
 /** What is wrong with the values by the schema, as per-field messages, or null when they pass. For values that are not typed into a form (a query in the address bar); a form uses check(). */
 export function errorsFor(schema: z.ZodType, raw: unknown): FieldErrors | null {

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { fieldErrorsOf } from '../../shared/field-errors.ts';
 
 /** An error with an HTTP status and a stable code, rendered as { error: { code, message, details? } }. */
 export class HttpError extends Error {
@@ -21,14 +22,7 @@ export const conflict = (message: string, details?: unknown) => new HttpError(40
 export const unprocessable = (message: string, details?: unknown) => new HttpError(422, 'unprocessable', message, details);
 
 /** Per-field details from a zod error: { "field.path": ["message", …] }. */
-export function zodDetails(err: ZodError) {
-  const fields: Record<string, string[]> = {};
-  for (const issue of err.issues) {
-    const key = issue.path.join('.') || '_';
-    (fields[key] ??= []).push(issue.message);
-  }
-  return { fields };
-}
+export const zodDetails = (err: ZodError) => ({ fields: fieldErrorsOf(err.issues) });
 
 export const apiNotFound: RequestHandler = (req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`));
 

@@ -3,8 +3,8 @@ import Color from 'colorjs.io';
 
 // Palette extraction converts tens of thousands of colours per photo, too many for
 // colorjs.io's object API. These tables and matrices are taken from colorjs.io once
-// (so its definitions of sRGB and D65 hold), and tests/unit/fast-lab.test.ts checks
-// the fast path against the library.
+// (so its definitions of sRGB and D65 hold), and tests/unit/palette.test.ts checks
+// the fast path against the reference conversion (shared/colour/convert.ts, colorjs.io).
 
 const STEPS = 4096;
 let tables: { decode8: Float64Array; decode: Float64Array; encode: Float64Array; toXyz: number[][]; fromXyz: number[][] } | null = null;

@@ -4,7 +4,7 @@ import sharp, { type Metadata } from 'sharp';
 import { MAX_PIXELS } from './decode.ts';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
-import { PaletteColour, Photo, type User } from '../models/index.ts';
+import { PaletteColour, Photo } from '../models/index.ts';
 import type { PhotoView } from '../models/catalogue.ts';
 import { colourSource, decodeForIngest, type ColourSource } from './decode.ts';
 import { readExif } from './exif.ts';
@@ -12,6 +12,7 @@ import { exists, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
 import { paletteRows } from './rows.ts';
 import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
+import type { ServiceCtx } from '../services/context.ts';
 export { repalette } from './repalette.ts';
 
 export const MAX_BYTES = 60 * 1024 * 1024;
@@ -66,7 +67,7 @@ const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { r
  * thread). All rows go into the caller's transaction; on any failure every
  * file written here is removed again and an HttpError is thrown.
  */
-export async function ingestPhoto({ actor, transaction, input }: { actor: User | null; transaction: Transaction; input: IngestInput }) {
+export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<IngestInput>) {
   const { buffer } = input;
   const info = await probe(buffer);
   const files = new WrittenFiles();

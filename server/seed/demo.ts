@@ -2,11 +2,11 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Transaction } from 'sequelize';
 import { ROOT_DIR } from '../env.ts';
-import { BatchEvent, Chemical, ColourMeasurement, Dyestuff, MordantBatch, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
+import { Chemical, Dyestuff, type BatchEvent, type Piece, type Substitution, type Trial, type User } from '../models/index.ts';
 import type { Ingredient, Operation } from '../models/trials.ts';
 import { bathProduct, matchingReactant, REACTIONS } from '../../shared/compute/stoichiometry.ts';
 import { computeLedger, type LedgerEvent } from '../../shared/compute/ledger.ts';
-import { makePiece, makeUser, type PieceInput } from './factories.ts';
+import { makeBatch, makeBatchEvent, makeMeasurement, makePiece, makeRecipeStep, makeSeries, makeSubstitution, makeTrial as makeTrialRow, makeUser, type PieceInput } from './factories.ts';
 import { seedDemoPhotos } from './demo-photos.ts';
 
 /** The invented demo scenario: the Calderwick museum and the Weldfold dye studio. */
@@ -60,7 +60,7 @@ export async function seedDemo(t: Transaction) {
   const made = bathProduct(mb07Charge, 2000)!;
   const r1 = (x: number) => Math.round(x * 10) / 10;
   const r2 = (x: number) => Math.round(x * 100) / 100;
-  const mb07 = await MordantBatch.create(
+  const mb07 = await makeBatch(
     {
       code: 'MB-07', kind: 'mordant-bath', name: 'Aluminium acetate liquor (alum + calcium acetate)',
       ingredients: mb07Charge,
@@ -68,12 +68,12 @@ export async function seedDemo(t: Transaction) {
       status: 'exhausted', parentId: null, uptakePerUse: 0.12,
       notes: `Red liquor without lead. Makes about ${r1(made.active.grams)} g basic aluminium acetate (${r1(made.activeGPerL)} g/L; ${made.limiting} limits); the gypsum settled overnight and the clear liquor was decanted.`,
     },
-    { transaction: t },
+    t,
   );
   // MB-08: one part MB-07 to three parts water, thickened with guar; its aluminium acetate is what the 125 mL drawn carried.
   const mb08FromMb07Ml = 125;
   const mb08AlAcetateG = r2((made.activeGPerL * mb08FromMb07Ml) / 1000);
-  const mb08 = await MordantBatch.create(
+  const mb08 = await makeBatch(
     {
       code: 'MB-08', kind: 'print-paste', name: 'Weak aluminium acetate print paste for pinks (1 part MB-07 to 3 parts water)',
       ingredients: [
@@ -84,9 +84,9 @@ export async function seedDemo(t: Transaction) {
       status: 'active', parentId: mb07.id, uptakePerUse: 0,
       notes: `Child of MB-07: ${mb08FromMb07Ml} mL of MB-07 made up to 500 mL (${mb08AlAcetateG} g aluminium acetate, ${r2(mb08AlAcetateG * 2)} g/L), thickened with 10 g guar.`,
     },
-    { transaction: t },
+    t,
   );
-  const mb09 = await MordantBatch.create(
+  const mb09 = await makeBatch(
     {
       code: 'MB-09', kind: 'mordant-bath', name: 'Iron(II) acetate liquor for purples',
       ingredients: [{ kind: 'chemical', refId: feAcetate.id, name: feAcetate.name, grams: 15 }],
@@ -94,11 +94,11 @@ export async function seedDemo(t: Transaction) {
       status: 'active', parentId: null, uptakePerUse: 0,
       notes: 'Stock drawn from for purple pastes: 15 g iron(II) acetate in 1 L. Keep it closed: it oxidises and browns in air.',
     },
-    { transaction: t },
+    t,
   );
   const at = (d: string) => new Date(`${d}T10:00:00Z`);
   const ev = (batchId: number, type: BatchEvent['type'], d: string, extra: Partial<BatchEvent['_creationAttributes']> = {}) =>
-    BatchEvent.create({ batchId, type, occurredAt: at(d), createdById: users.dyer.id, volumeMl: null, fibreMassG: null, trialId: null, additions: null, ph: null, result: null, route: null, ruleFollowed: null, notes: null, ...extra }, { transaction: t });
+    makeBatchEvent({ batchId, type, occurredAt: at(d), createdById: users.dyer.id, ...extra }, t);
 
   // Trials
   let seq = 0;
@@ -107,14 +107,13 @@ export async function seedDemo(t: Transaction) {
   const drawStep: Record<string, number> = {};
   const makeTrial = async (attrs: Partial<Trial['_creationAttributes']>, steps: StepSpec[], subs: Array<Partial<Substitution['_creationAttributes']>> = []) => {
     seq += 1;
-    const trial = await Trial.create(
-      { code: `T-2024-${String(seq).padStart(3, '0')}`, pieceId: null, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null,
-        dyerId: users.dyer.id, fibre: 'cotton', weave: 'plain (tabby)', gsm: 140, dryMassG: 250, fastness: null, notes: null, startedOn: '2024-03-12', ...attrs },
-      { transaction: t },
+    const trial = await makeTrialRow(
+      { code: `T-2024-${String(seq).padStart(3, '0')}`, dyerId: users.dyer.id, fibre: 'cotton', weave: 'plain (tabby)', gsm: 140, dryMassG: 250, startedOn: '2024-03-12', ...attrs },
+      t,
     );
     const batchIds: Record<string, number> = { 'MB-07': mb07.id, 'MB-08': mb08.id, 'MB-09': mb09.id };
     for (const [i, s] of steps.entries()) {
-      const step = await RecipeStep.create(
+      const step = await makeRecipeStep(
         {
           trialId: trial.id, position: i + 1, operation: s.operation,
           ingredients: s.ingredients.map(([kind, name, amount, basis]) => {
@@ -124,11 +123,11 @@ export async function seedDemo(t: Transaction) {
           liquorRatio: s.liquorRatio ?? null, temperatureC: s.temperatureC ?? null, minutes: s.minutes ?? null, ph: s.ph ?? null,
           paste: s.paste ?? null, batchId: s.batchCode ? batchIds[s.batchCode] : null, batchVolumeMl: s.batchVolumeMl ?? null, notes: s.notes ?? null,
         },
-        { transaction: t },
+        t,
       );
       if (s.batchCode) drawStep[s.batchCode] = step.id;
       for (const sub of subs.filter((x) => x.stepId === i + 1)) {
-        await Substitution.create({ trialId: trial.id, historicalChemicalId: null, historicalPractice: null, historicalAmountG: null, modernChemicalId: null, modernPractice: null, modernAmountG: null, reason: 'toxicity', notes: null, ...sub, stepId: step.id }, { transaction: t });
+        await makeSubstitution({ trialId: trial.id, ...sub, stepId: step.id }, t);
       }
     }
     trials.push(trial);
@@ -205,7 +204,7 @@ export async function seedDemo(t: Transaction) {
 
   // Invented instrument readings: the original's red, pink and purple grounds as targets, and each result's swatch.
   const reading = (attrs: { pieceId?: number; trialId?: number; L: number; a: number; b: number; label: string; illuminant?: string }) =>
-    ColourMeasurement.create({ pieceId: null, regionId: null, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', takenOn: '2024-04-02', createdById: users.researcher.id, ...attrs }, { transaction: t });
+    makeMeasurement({ takenOn: '2024-04-02', createdById: users.researcher.id, ...attrs }, t);
   const grounds = [
     { label: 'madder red ground', L: 42.5, a: 45.1, b: 26.3, result: [{ L: 43.9, a: 42.8, b: 27.5 }, { L: 44.2, a: 42.4, b: 27.9 }] },
     { label: 'madder pink ground', L: 68.2, a: 24.5, b: 10.1, result: [{ L: 66.9, a: 26.0, b: 11.2 }] },
@@ -264,13 +263,13 @@ export async function seedDemo(t: Transaction) {
     { mordant: 'strong Al', tannin: '10' }, { mordant: 'weak Al', tannin: '10' }, { mordant: 'Fe', tannin: '10' },
     { mordant: 'Al+Fe', tannin: '10' }, { mordant: 'strong Al', tannin: '0' }, { mordant: 'weak Al', tannin: '0' },
   ].map((c) => ({ madder: '50', ...c }));
-  const series = await TrialSeries.create(
+  const series = await makeSeries(
     {
       code: 'WS-2024-01', title: 'Madder on four mordants: a six-shade card', kind: 'workshop', pieceId: p12.id,
       factors, cells, participants: ['P-01', 'P-02', 'P-03', 'P-04'],
       dryMassG: 10, deadVolumePct: 15, ownerId: tamsin.id, heldOn: '2024-04-20', notes: 'Each participant mordants and dyes six 10 g swatches: tannin, alum and iron baths made up per cell from its recipe, then one shared madder bath.',
     },
-    { transaction: t },
+    t,
   );
   // Each planned cell carries its whole recipe: the tannin and mordant steps its levels call for, then the dye bath.
   for (const cell of cells.slice(0, 3)) {

@@ -1,6 +1,5 @@
-import type { Transaction } from 'sequelize';
 import { AuditEvent } from '../models/index.ts';
-import type { Actor } from '../policies/index.ts';
+import type { TxCtx } from './context.ts';
 
 export type Changes = Record<string, { from: unknown; to: unknown }>;
 
@@ -17,7 +16,7 @@ export function diff(before: Record<string, unknown>, input: Record<string, unkn
 
 /** One audit row, written in the caller's transaction so it commits or rolls back with the change. */
 export function audit(
-  { actor, transaction }: { actor: Actor; transaction: Transaction },
+  { actor, transaction }: TxCtx,
   entity: string,
   entityId: number,
   action: string,

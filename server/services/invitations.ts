@@ -7,9 +7,8 @@ import { conflict, HttpError, notFound } from '../http/errors.ts';
 import { sendMail } from '../mail/index.ts';
 import { invitationLetter } from '../mail/letters.ts';
 import { AuthToken, User } from '../models/index.ts';
-import type { Actor } from '../policies/index.ts';
+import type { ServiceCtx } from './context.ts';
 
-type Ctx<I> = { actor: Actor; transaction: Transaction; input: I };
 
 /** Link the e-mail points to; the client page at /join/:token sets name and password. */
 export const invitationUrl = (token: string) => `${publicUrl}/join/${token}`;
@@ -18,7 +17,7 @@ export const invitationUrl = (token: string) => `${publicUrl}/join/${token}`;
  * Invite someone: one live link per address (earlier open invitations are spent),
  * mailed inside the transaction so a failed send leaves no usable token behind.
  */
-export async function inviteMember({ actor, transaction, input }: Ctx<InviteInput>) {
+export async function inviteMember({ actor, transaction, input }: ServiceCtx<InviteInput>) {
   if (await User.findOne({ where: { email: input.email }, transaction })) throw conflict('Someone on the team already uses that e-mail address.', { fields: { email: ['Already on the team'] } });
   await AuthToken.update({ usedAt: new Date() }, { where: { purpose: 'invitation', email: input.email, usedAt: { [Op.is]: null } }, transaction });
   const inviter = actor ? await User.findByPk(actor.id, { transaction }) : null;
@@ -74,20 +73,20 @@ async function pending(id: number, transaction: Transaction) {
 }
 
 /** Send a pending invitation again: a new link (7 days from now) by mail; the old link stops working. */
-export async function resendInvitation({ actor, transaction, input }: Ctx<{ id: number }>) {
+export async function resendInvitation({ actor, transaction, input }: ServiceCtx<{ id: number }>) {
   const record = await pending(input.id, transaction);
   return inviteMember({ actor, transaction, input: { email: record.email, role: record.role ?? 'researcher' } });
 }
 
 /** Withdraw a pending invitation: its link stops working and says so. */
-export async function revokeInvitation({ transaction, input }: Ctx<{ id: number }>) {
+export async function revokeInvitation({ transaction, input }: ServiceCtx<{ id: number }>) {
   const record = await pending(input.id, transaction);
   await record.update({ usedAt: new Date() }, { transaction });
   return record;
 }
 
 /** Accept an invitation: spend the token and create the account in one transaction. */
-export async function acceptInvitation({ transaction, input }: Ctx<AcceptInvitationInput & { token: string }>) {
+export async function acceptInvitation({ transaction, input }: ServiceCtx<AcceptInvitationInput & { token: string }>) {
   const record = await liveInvitation(input.token, transaction, true);
   await record.update({ usedAt: new Date() }, { transaction });
   if (await User.findOne({ where: { email: record.email }, transaction })) throw conflict('An account with this e-mail address already exists; sign in instead.');

@@ -7,6 +7,7 @@ import { HttpError, notFound } from '../http/errors.ts';
 import { sendMail } from '../mail/index.ts';
 import { resetLetter } from '../mail/letters.ts';
 import { AuthToken, Session, User, sequelize } from '../models/index.ts';
+import type { ServiceCtx } from './context.ts';
 
 export const resetUrl = (token: string) => `${publicUrl}/reset-password/${token}`;
 
@@ -38,7 +39,7 @@ export async function liveResetToken(plain: string, transaction?: Transaction, l
 }
 
 /** Set a new password with a reset token; every session of that user ends. */
-export async function resetPassword({ transaction, input }: { transaction: Transaction; input: ResetPasswordInput & { token: string } }) {
+export async function resetPassword({ transaction, input }: Omit<ServiceCtx<ResetPasswordInput & { token: string }>, 'actor'>) {
   const record = await liveResetToken(input.token, transaction, true);
   await record.update({ usedAt: new Date() }, { transaction });
   const user = record.userId ? await User.findByPk(record.userId, { transaction, lock: transaction.LOCK.UPDATE }) : null;

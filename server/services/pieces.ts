@@ -4,10 +4,9 @@ import { accessionKey } from '../../shared/accession.ts';
 import { edtfYears } from '../../shared/edtf.ts';
 import { HttpError, badRequest, conflict } from '../http/errors.ts';
 import { Piece, VocabularyTerm } from '../models/index.ts';
-import type { Actor } from '../policies/index.ts';
 import { audit, diff } from './audit.ts';
+import type { ServiceCtx } from './context.ts';
 
-type Ctx<I> = { actor: Actor; transaction: Transaction; input: I };
 
 /** Fibres and techniques must come from the vocabularies an admin keeps. */
 async function checkVocabulary(input: { fibres?: string[]; techniques?: string[] }, transaction: Transaction) {
@@ -41,7 +40,7 @@ function withYears<T extends { dateEdtf?: string | null; earliestYear?: number |
   return { ...p, earliestYear: p.earliestYear ?? r?.earliest ?? null, latestYear: p.latestYear ?? r?.latest ?? null };
 }
 
-export async function createPiece({ actor, transaction, input }: Ctx<PieceCreateInput>) {
+export async function createPiece({ actor, transaction, input }: ServiceCtx<PieceCreateInput>) {
   await checkVocabulary(input, transaction);
   await checkAccessionFree(input.accessionNumber, null, transaction);
   const values = withYears(input);
@@ -77,7 +76,7 @@ export async function createPiece({ actor, transaction, input }: Ctx<PieceCreate
   return piece;
 }
 
-export async function updatePiece({ actor, transaction, input }: Ctx<{ piece: Piece; changes: PieceUpdateInput }>) {
+export async function updatePiece({ actor, transaction, input }: ServiceCtx<{ piece: Piece; changes: PieceUpdateInput }>) {
   const { piece, changes } = input;
   await checkVocabulary(changes, transaction);
   if (changes.accessionNumber) await checkAccessionFree(changes.accessionNumber, piece.id, transaction);
@@ -98,12 +97,12 @@ export async function updatePiece({ actor, transaction, input }: Ctx<{ piece: Pi
   return piece;
 }
 
-export async function deletePiece({ actor, transaction, input }: Ctx<{ piece: Piece }>) {
+export async function deletePiece({ actor, transaction, input }: ServiceCtx<{ piece: Piece }>) {
   await input.piece.destroy({ transaction });
   await audit({ actor, transaction }, 'piece', input.piece.id, 'delete');
 }
 
-export async function restorePiece({ actor, transaction, input }: Ctx<{ piece: Piece }>) {
+export async function restorePiece({ actor, transaction, input }: ServiceCtx<{ piece: Piece }>) {
   if (!input.piece.deletedAt) throw new HttpError(409, 'conflict', 'That piece is not deleted.');
   await input.piece.restore({ transaction });
   await audit({ actor, transaction }, 'piece', input.piece.id, 'restore');

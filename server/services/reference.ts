@@ -1,15 +1,14 @@
-import type { Transaction } from 'sequelize';
 import type { ChemicalCreate, ChemicalPatch, DyestuffCreate } from '../../shared/schemas/reference.ts';
 import { parseFormula } from '../../shared/compute/chemistry.ts';
 import { badRequest, conflict } from '../http/errors.ts';
 import { AuditEvent, Chemical, Dyestuff } from '../models/index.ts';
-import type { Actor } from '../policies/index.ts';
 import { audit } from './audit.ts';
+import type { ServiceCtx } from './context.ts';
 
 const created = (input: Record<string, unknown>) => Object.fromEntries(Object.entries(input).map(([k, to]) => [k, { from: null, to }]));
 
 /** An admin adds a chemical to the reference; a name already in use answers 409, and the addition is audited. */
-export async function createChemical({ actor, transaction, input }: { actor: Actor; transaction: Transaction; input: ChemicalCreate }) {
+export async function createChemical({ actor, transaction, input }: ServiceCtx<ChemicalCreate>) {
   if (await Chemical.findOne({ where: { name: input.name }, transaction })) {
     const message = `A chemical named "${input.name}" is already in the reference; edit that one instead.`;
     throw conflict(message, { fields: { name: ['A chemical with this name already exists'] } });
@@ -20,7 +19,7 @@ export async function createChemical({ actor, transaction, input }: { actor: Act
 }
 
 /** An admin adds a dyestuff to the reference; a name already in use answers 409, and the addition is audited. */
-export async function createDyestuff({ actor, transaction, input }: { actor: Actor; transaction: Transaction; input: DyestuffCreate }) {
+export async function createDyestuff({ actor, transaction, input }: ServiceCtx<DyestuffCreate>) {
   if (await Dyestuff.findOne({ where: { name: input.name }, transaction })) {
     const message = `A dyestuff named "${input.name}" is already in the reference.`;
     throw conflict(message, { fields: { name: ['A dyestuff with this name already exists'] } });
@@ -31,7 +30,7 @@ export async function createDyestuff({ actor, transaction, input }: { actor: Act
 }
 
 /** Edit a chemical's reference row and record what changed, in one transaction. */
-export async function updateChemical({ actor, transaction, input }: { actor: Actor; transaction: Transaction; input: { chemical: Chemical; patch: ChemicalPatch } }) {
+export async function updateChemical({ actor, transaction, input }: ServiceCtx<{ chemical: Chemical; patch: ChemicalPatch }>) {
   const { chemical, patch } = input;
   const normalised = { ...patch, ...(patch.formula === '' ? { formula: null } : {}) };
   // The row as it will be: a metal must occur in its formula (the schema checks this on create, where both come together).

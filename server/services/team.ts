@@ -1,14 +1,13 @@
-import type { Transaction } from 'sequelize';
 import type { TeamPatchInput } from '../../shared/schemas/team.ts';
 import { conflict, notFound } from '../http/errors.ts';
 import { Session, User } from '../models/index.ts';
-import type { Actor } from '../policies/index.ts';
+import type { ServiceCtx } from './context.ts';
 
 /**
  * Change a member's role or active flag. The active admins are locked first so two
  * admins demoting each other at once cannot leave the team without one.
  */
-export async function updateMember({ actor, transaction, input }: { actor: Actor; transaction: Transaction; input: TeamPatchInput & { id: number } }) {
+export async function updateMember({ actor, transaction, input }: ServiceCtx<TeamPatchInput & { id: number }>) {
   const admins = await User.findAll({ where: { role: 'admin', active: true }, transaction, lock: transaction.LOCK.UPDATE });
   const member = await User.findByPk(input.id, { transaction, lock: transaction.LOCK.UPDATE });
   if (!member) throw notFound('Team member');

@@ -2,8 +2,8 @@ import request from 'supertest';
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { PaletteColour, Photo, Piece, Region, Trial, sequelize } from '../../server/models/index.ts';
-import { makePiece } from '../../server/seed/factories.ts';
+import { PaletteColour, Photo, Piece, sequelize } from '../../server/models/index.ts';
+import { makePiece, makeRegion, makeTrial } from '../../server/seed/factories.ts';
 import { hexToLab } from '../../shared/search/lab.ts';
 import { signedInAgent } from '../support/agents.ts';
 
@@ -23,7 +23,7 @@ async function photoWith(piece: Piece, colours: Array<{ hex: string; share: numb
     pieceId: piece.id, trialId: null, sha256: sha(), format: 'jpeg', bytes: 1, width: 100, height: 100, originalName: `${u}.jpg`, caption: null, capturedAt: null,
     exif: {}, gps: null, derivatives: {}, referencePatch: null, correction: null, createdById: null,
   });
-  const region = regionLabel ? await Region.create({ photoId: photo.id, x: 0, y: 0, w: 10, h: 10, purpose: 'colour-area', label: regionLabel, createdById: null }) : null;
+  const region = regionLabel ? await makeRegion({ photoId: photo.id, x: 0, y: 0, w: 10, h: 10, purpose: 'colour-area', label: regionLabel, createdById: null }) : null;
   await PaletteColour.bulkCreate(
     colours.map((c, i) => ({ photoId: photo.id, regionId: region?.id ?? null, variant: 'raw' as const, rank: i + 1, ...hexToLab(c.hex), hex: c.hex, share: c.share, spread: 1, name: 'test', tradeName: null, background: c.background ?? false })),
   );
@@ -43,7 +43,7 @@ describe('trials CSV', () => {
   it('carries the fastness grades beside the colour columns; every role that reads trials may export it', async () => {
     const dyer = await signedInAgent(app, 'dyer');
     const me = (await dyer.get('/api/auth/me').expect(200)).body.user;
-    const trial = await Trial.create({
+    const trial = await makeTrial({
       code: `T-1901-${rand(5, '0123456789')}`, pieceId: published.id, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null,
       dyerId: me.id, fibre: 'wool', weave: null, gsm: null, dryMassG: 20, notes: null, startedOn: null,
       fastness: {

@@ -4,6 +4,7 @@ import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
 import { AuditEvent, PaletteColour, Photo, Region, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
+import { deletePhoto, setPaletteBackground } from '../../server/services/photos.ts';
 import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg, uploadedFiles } from '../support/images.ts';
@@ -24,6 +25,24 @@ type Palette = { regionId: number | null; variant: string; colours: { id: number
 const shareSum = (p: Palette) => p.colours.filter((c) => !c.background).reduce((s, c) => s + c.share, 0);
 
 describe('regions and the palette', () => {
+  it('writes nothing and removes no file when a photo change does not commit', async () => {
+    const row = await Photo.findByPk(photo.id, { rejectOnEmpty: true });
+    const files = await uploadedFiles();
+    const palette = async () => (await PaletteColour.findAll({ where: { photoId: photo.id }, order: [['id', 'ASC']] })).map((c) => [c.id, c.share, c.background]);
+    const before = await palette();
+    const audits = await AuditEvent.count({ where: { entity: 'piece', entityId: pieceId } });
+    const colour = (await PaletteColour.findOne({ where: { photoId: photo.id, regionId: null, variant: 'raw', background: false }, order: [['rank', 'DESC']], rejectOnEmpty: true }));
+    await expect(sequelize.transaction(async (transaction) => {
+      await setPaletteBackground({ actor: null, transaction, input: { photo: row, colour, background: true } });
+      await deletePhoto({ actor: null, transaction, input: { photo: row } });
+      throw new Error('stopped mid-way');
+    })).rejects.toThrow('stopped mid-way');
+    expect(await Photo.findByPk(photo.id)).not.toBeNull();
+    expect(await palette()).toEqual(before);
+    expect(await uploadedFiles()).toEqual(files);
+    expect(await AuditEvent.count({ where: { entity: 'piece', entityId: pieceId } })).toBe(audits);
+  });
+
   it('adds a colour-area region as a Web Annotation rectangle and answers its own palette', async () => {
     // The red rectangle of the test image (tests/support/images.ts) is at x 60, y 60, 160 × 200 px, colour #9b2d2a.
     const res = await curator.post(`/api/photos/${photo.id}/regions`).set('Origin', ORIGIN).send({ x: 80, y: 80, w: 100, h: 150, purpose: 'colour-area', label: 'madder red' }).expect(201);
@@ -154,5 +173,10 @@ describe('regions and the palette', () => {
     expect(await PaletteColour.count({ where: { photoId: own.id } })).toBe(0);
     const filesAfter = await uploadedFiles();
     expect(filesAfter.some((f) => f.startsWith(`derivatives/${own.id}/`) || f.includes(own.sha256))).toBe(false);
+    // Adding, editing and removing are in the piece's history, naming the photo.
+    for (const action of ['photo-added', 'photo-updated', 'photo-removed']) {
+      const rows = await AuditEvent.findAll({ where: { entity: 'piece', entityId: pieceId, action } });
+      expect(rows.some((r) => JSON.stringify(r.changes).includes(String(own.id)))).toBe(true);
+    }
   });
 });

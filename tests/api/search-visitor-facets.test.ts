@@ -1,8 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { Chemical, Piece, Substitution, Trial, sequelize } from '../../server/models/index.ts';
-import { makePiece } from '../../server/seed/factories.ts';
+import { Chemical, Piece, sequelize } from '../../server/models/index.ts';
+import { makePiece, makeSubstitution, makeTrial } from '../../server/seed/factories.ts';
 import { signedInAgent } from '../support/agents.ts';
 
 const app = createApp();
@@ -26,8 +26,8 @@ beforeAll(async () => {
   const chem = await Chemical.findOne({ where: { role: 'mordant' } });
   modernName = chem!.name;
   await sequelize.transaction(async (transaction) => {
-    const t = await Trial.create({ code: `TV-${u.slice(-9)}`, pieceId: published.id, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null, dyerId: null, fibre: null, weave: null, gsm: null, dryMassG: 10, fastness: null, notes: null, startedOn: null }, { transaction });
-    await Substitution.create({ trialId: t.id, stepId: null, historicalChemicalId: null, historicalPractice: 'lead-based red liquor', historicalAmountG: null, modernChemicalId: chem!.id, modernPractice: null, modernAmountG: null, reason: 'toxicity', notes: null }, { transaction });
+    const t = await makeTrial({ code: `TV-${u.slice(-9)}`, pieceId: published.id, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null, dyerId: null, fibre: null, weave: null, gsm: null, dryMassG: 10, fastness: null, notes: null, startedOn: null }, transaction);
+    await makeSubstitution({ trialId: t.id, stepId: null, historicalChemicalId: null, historicalPractice: 'lead-based red liquor', historicalAmountG: null, modernChemicalId: chem!.id, modernPractice: null, modernAmountG: null, reason: 'toxicity', notes: null }, transaction);
   });
 });
 

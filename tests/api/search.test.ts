@@ -1,8 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { Chemical, PaletteColour, Photo, Piece, Substitution, Trial, sequelize } from '../../server/models/index.ts';
-import { makePiece, type PieceInput } from '../../server/seed/factories.ts';
+import { Chemical, PaletteColour, Photo, Piece, sequelize } from '../../server/models/index.ts';
+import { makePiece, makeSubstitution, makeTrial, type PieceInput } from '../../server/seed/factories.ts';
 import { deltaE00 } from '../../server/search/ciede2000.ts';
 import { hexToLab } from '../../shared/search/lab.ts';
 import { signedInAgent } from '../support/agents.ts';
@@ -103,8 +103,8 @@ describe('GET /api/search (text and facets)', () => {
 
     const chem = await Chemical.findOne({ where: { role: 'mordant' } });
     const trial = await sequelize.transaction(async (transaction) => {
-      const t = await Trial.create({ code: `TS-${u.slice(-9)}`, pieceId: p.id, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null, dyerId: null, fibre: null, weave: null, gsm: null, dryMassG: 10, fastness: null, notes: `Bath note ${word('verjuice')}`, startedOn: null }, { transaction });
-      await Substitution.create({ trialId: t.id, stepId: null, historicalChemicalId: null, historicalPractice: 'lead-based red liquor', historicalAmountG: null, modernChemicalId: chem!.id, modernPractice: null, modernAmountG: null, reason: 'toxicity', notes: null }, { transaction });
+      const t = await makeTrial({ code: `TS-${u.slice(-9)}`, pieceId: p.id, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null, dyerId: null, fibre: null, weave: null, gsm: null, dryMassG: 10, fastness: null, notes: `Bath note ${word('verjuice')}`, startedOn: null }, transaction);
+      await makeSubstitution({ trialId: t.id, stepId: null, historicalChemicalId: null, historicalPractice: 'lead-based red liquor', historicalAmountG: null, modernChemicalId: chem!.id, modernPractice: null, modernAmountG: null, reason: 'toxicity', notes: null }, transaction);
       return t;
     });
     const viaTrial = await (await signedInAgent(app, 'dyer')).get('/api/search').query({ q: word('verjuice') });

@@ -2,8 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import { createApp } from '../../server/app.ts';
-import { Chemical, Dyestuff, PaletteColour, Photo, Trial, sequelize } from '../../server/models/index.ts';
-import { makePiece } from '../../server/seed/factories.ts';
+import { Chemical, Dyestuff, Photo, Trial, sequelize } from '../../server/models/index.ts';
+import { makePaletteColour, makePiece } from '../../server/seed/factories.ts';
 import { hexToLab } from '../../shared/search/lab.ts';
 import { trialUrl } from '../../server/pdf/card-data.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
@@ -96,7 +96,7 @@ describe('trial series through the API', () => {
         pieceId, trialId: null, sha256: 'f'.repeat(64), format: 'jpeg', bytes: 1, width: 10, height: 10, originalName: null, caption: null,
         capturedAt: null, exif: {}, gps: null, derivatives: {}, referencePatch: null, correction: null, createdById: null,
       });
-      return PaletteColour.create({ photoId: photo.id, regionId: null, variant: 'raw', rank: 1, ...hexToLab(hex), hex, share: 1, spread: 1, name: 'red', tradeName: null, background: false });
+      return makePaletteColour({ photoId: photo.id, regionId: null, variant: 'raw', rank: 1, ...hexToLab(hex), hex, share: 1, spread: 1, name: 'red', tradeName: null, background: false });
     };
     const madderRed = await colourOf(piece.id, '#9b2f2f');
     const elsewhere = await colourOf(other.id, '#2f4f7f');

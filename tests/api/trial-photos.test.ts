@@ -1,11 +1,15 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
-import { ColourMeasurement, Photo, User } from '../../server/models/index.ts';
-import { makePiece } from '../../server/seed/factories.ts';
+import { mkdir, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { AuditEvent, Job, PaletteColour, Photo, Trial, User, sequelize } from '../../server/models/index.ts';
+import { uploadsDir, tilesDir } from '../../server/media/paths.ts';
+import { deleteTrial } from '../../server/services/trials/trials.ts';
+import { makeMeasurement, makePiece } from '../../server/seed/factories.ts';
 import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
-import { clothJpeg } from '../support/images.ts';
+import { clothJpeg, uploadedFiles } from '../support/images.ts';
 import { useTestMail } from '../support/mail.ts';
 
 const app = createApp();
@@ -45,7 +49,7 @@ describe('result swatches and which colour is used', () => {
 
     await dyer.post(`/api/trials/${trial.id}/measurements`).set('Origin', ORIGIN).send({ L: 40, a: 40, b: 25 }).expect(201);
     await dyer.post(`/api/trials/${trial.id}/measurements`).set('Origin', ORIGIN).send({ L: 42, a: 42, b: 27 }).expect(201);
-    await ColourMeasurement.create({ pieceId: null, regionId: region.id, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', L: 38, a: 41, b: 24, label: 'madder red, measured', takenOn: null, createdById: null });
+    await makeMeasurement({ pieceId: null, regionId: region.id, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', L: 38, a: 41, b: 24, label: 'madder red, measured', takenOn: null, createdById: null });
     const measured = (await dyer.get(`/api/trials/${trial.id}`).expect(200)).body.trial;
     expect(measured.colour.result).toMatchObject({ source: 'instrument', L: 41, a: 41, b: 26, setAside: { source: 'image-estimate' } });
     expect(measured.colour.result.label).toMatch(/mean of 2/);
@@ -59,5 +63,53 @@ describe('result swatches and which colour is used', () => {
     const none = await dyer.post(`/api/trials/${trial.id}/photos`).set('Origin', ORIGIN).expect(400);
     expect(none.body.error.details.fields.photo).toBeDefined();
     await dyer.post(`/api/trials/${trial.id}/photos`).set('Origin', ORIGIN).attach('photo', Buffer.from('not an image at all'), 'x.png').expect(415);
+  });
+});
+
+describe('deleting a trial', () => {
+  const uploadSwatch = async (trialId: number, hex: string) =>
+    (await dyer.post(`/api/trials/${trialId}/photos`).set('Origin', ORIGIN).attach('photo', await swatchPng(hex), 'swatch.png').expect(201)).body.photo.id as number;
+  /** A stand-in tile, as the tiling job would leave it. */
+  const fakeTile = async (photoId: number) => {
+    const file = path.join(uploadsDir(), tilesDir(photoId), 'iiif', 'info.json');
+    await mkdir(path.dirname(file), { recursive: true });
+    await writeFile(file, '{}');
+  };
+  const filesOf = (files: string[], photoId: number) => files.filter((f) => f.startsWith(`derivatives/${photoId}/`) || f.startsWith(`tiles/${photoId}/`));
+
+  it('removes its swatch photos with their palettes, files and tiles, and says so in its history', async () => {
+    const filesBefore = await uploadedFiles();
+    const trial = (await dyer.post('/api/trials').set('Origin', ORIGIN).send({ dryMassG: 10 }).expect(201)).body.trial;
+    const photoId = await uploadSwatch(trial.id, '#5a7d3c');
+    await fakeTile(photoId);
+    expect(filesOf(await uploadedFiles(), photoId).length).toBeGreaterThan(1);
+    expect(await AuditEvent.count({ where: { entity: 'trial', entityId: trial.id, action: 'photo-added' } })).toBe(1);
+    const m = (await dyer.post(`/api/trials/${trial.id}/measurements`).set('Origin', ORIGIN).send({ L: 50, a: 10, b: 10 }).expect(201)).body.measurement;
+    await dyer.delete(`/api/trials/${trial.id}/measurements/${m.id}`).set('Origin', ORIGIN).expect(204);
+    expect(await AuditEvent.count({ where: { entity: 'trial', entityId: trial.id, action: 'measurement-removed' } })).toBe(1);
+
+    await dyer.delete(`/api/trials/${trial.id}`).set('Origin', ORIGIN).expect(204);
+    expect(await Photo.findByPk(photoId)).toBeNull();
+    expect(await PaletteColour.count({ where: { photoId } })).toBe(0);
+    expect(await Job.count({ where: { subjectType: 'photo', subjectId: photoId, state: 'queued' } })).toBe(0);
+    // Derivatives, tiles and the master (no other photo has the same bytes) are gone.
+    expect(await uploadedFiles()).toEqual(filesBefore);
+    expect(await AuditEvent.count({ where: { entity: 'trial', entityId: trial.id, action: 'trial-removed' } })).toBe(1);
+  });
+
+  it('leaves the trial, its photo and its files as they were when the transaction does not commit', async () => {
+    const created = (await dyer.post('/api/trials').set('Origin', ORIGIN).send({ dryMassG: 10 }).expect(201)).body.trial;
+    const photoId = await uploadSwatch(created.id, '#2f4f8a');
+    const files = await uploadedFiles();
+    const trial = await Trial.findByPk(created.id, { rejectOnEmpty: true });
+    await expect(sequelize.transaction(async (transaction) => {
+      await deleteTrial({ actor: null, transaction, input: { trial } });
+      throw new Error('stopped mid-way');
+    })).rejects.toThrow('stopped mid-way');
+    expect(await Trial.findByPk(created.id)).not.toBeNull();
+    expect(await Photo.findByPk(photoId)).not.toBeNull();
+    expect(await PaletteColour.count({ where: { photoId } })).toBeGreaterThan(0);
+    expect(await uploadedFiles()).toEqual(files);
+    expect(await AuditEvent.count({ where: { entity: 'trial', entityId: created.id, action: 'trial-removed' } })).toBe(0);
   });
 });

@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { AuditEvent, Chemical, ColourMeasurement, Dyestuff, Trial, User } from '../../server/models/index.ts';
-import { makePiece, makeUser } from '../../server/seed/factories.ts';
+import { makeMeasurement, makePiece, makeUser } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { readPdf } from '../support/pdf.ts';
 import { useTestMail, waitForMail } from '../support/mail.ts';
@@ -68,6 +68,7 @@ describe('who may see and change trials', () => {
     await dyer.get(`/api/trials/99999999`).expect(404);
     await dyer.delete(`/api/trials/${id}`).set('Origin', ORIGIN).expect(204);
     await dyer.get(`/api/trials/${id}`).expect(404);
+    expect(await AuditEvent.count({ where: { entity: 'trial', entityId: id, action: 'trial-removed' } })).toBe(1);
   });
 
   it('validates input with per-field details', async () => {
@@ -270,13 +271,16 @@ describe('substitutions and the metal load', () => {
     expect(bad.body.error.details.fields).toHaveProperty('historicalChemicalId');
     await dyer.delete(`/api/trials/${t.id}/substitutions/${subId}`).set('Origin', ORIGIN).expect(204);
     expect((await dyer.get(`/api/trials/${t.id}`)).body.trial.substitutions).toHaveLength(0);
+    // The removal is in the trial's history, with what was removed.
+    const removed = await AuditEvent.findOne({ where: { entity: 'trial', entityId: t.id, action: 'substitution-removed' } });
+    expect(removed?.changes).toMatchObject({ substitution: { from: { reason: 'regulation', historicalAmountG: 9 }, to: null } });
   });
 });
 
 describe('measurements and the colour difference to the target', () => {
   it('compares the mean of the readings with an instrument measurement of the original', async () => {
     const piece = await newPiece();
-    const target = await ColourMeasurement.create({ pieceId: piece.id, regionId: null, trialId: null, instrument: 'bench spectro', geometry: 'd:8°', specular: 'SCI', L: 50, a: 2.6772, b: -79.7751, label: 'ground blue', takenOn: null, createdById: null });
+    const target = await makeMeasurement({ pieceId: piece.id, regionId: null, trialId: null, instrument: 'bench spectro', geometry: 'd:8°', specular: 'SCI', L: 50, a: 2.6772, b: -79.7751, label: 'ground blue', takenOn: null, createdById: null });
     const t = (await post(dyer, `/api/pieces/${piece.id}/trials`, { dryMassG: 50, targetMeasurementId: target.id }).expect(201)).body.trial;
     expect(t.colour.result).toBeNull();
     await post(dyer, `/api/trials/${t.id}/measurements`, { L: 50, a: 0, b: -82.7485, geometry: 'd:8°', specular: 'SCI' }).expect(201);
@@ -294,7 +298,7 @@ describe('measurements and the colour difference to the target', () => {
 
   it('refuses a target from another piece', async () => {
     const [p1, p2] = [await newPiece(), await newPiece()];
-    const m = await ColourMeasurement.create({ pieceId: p2.id, regionId: null, trialId: null, instrument: null, geometry: null, specular: null, L: 40, a: 30, b: 10, label: null, takenOn: null, createdById: null });
+    const m = await makeMeasurement({ pieceId: p2.id, regionId: null, trialId: null, instrument: null, geometry: null, specular: null, L: 40, a: 30, b: 10, label: null, takenOn: null, createdById: null });
     const res = await post(dyer, `/api/pieces/${p1.id}/trials`, { dryMassG: 10, targetMeasurementId: m.id }).expect(400);
     expect(res.body.error.details.fields.targetMeasurementId).toBeDefined();
   });

@@ -5,8 +5,8 @@ import sharp from 'sharp';
 import { parse } from 'csv-parse/sync';
 import { differenceCmc } from 'culori';
 import { createApp } from '../../server/app.ts';
-import { ColourMeasurement, User } from '../../server/models/index.ts';
-import { makePiece } from '../../server/seed/factories.ts';
+import { User } from '../../server/models/index.ts';
+import { makeMeasurement, makePiece } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
 import { useTestMail } from '../support/mail.ts';
@@ -40,7 +40,7 @@ const post = (agent: typeof dyer, url: string, body: unknown) => agent.post(url)
 const newPiece = () => makePiece({ createdById: curatorUser.id, title: `Viewing conditions ${Date.now().toString(36)}` });
 /** A reading of the original, on the piece itself; the label names the place on it. */
 const originalReading = (pieceId: number, lab: { L: number; a: number; b: number }, illuminant: string, observer: string, label: string, takenOn: string | null = null) =>
-  ColourMeasurement.create({ pieceId, regionId: null, trialId: null, instrument: 'bench spectro', geometry: 'd:8°', specular: 'SCI', illuminant, observer, ...lab, label, takenOn, createdById: null });
+  makeMeasurement({ pieceId, regionId: null, trialId: null, instrument: 'bench spectro', geometry: 'd:8°', specular: 'SCI', illuminant, observer, ...lab, label, takenOn, createdById: null });
 const trialAgainst = async (pieceId: number, targetMeasurementId: number) =>
   (await post(dyer, `/api/pieces/${pieceId}/trials`, { dryMassG: 20, targetMeasurementId }).expect(201)).body.trial as { id: number; code: string };
 const read = (trialId: number, body: object) => post(dyer, `/api/trials/${trialId}/measurements`, { geometry: 'd:8°', specular: 'SCI', ...body }).expect(201);

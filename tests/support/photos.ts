@@ -1,6 +1,7 @@
 import sharp from 'sharp';
-import { Region, sequelize } from '../../server/models/index.ts';
+import { sequelize } from '../../server/models/index.ts';
 import { ingestPhoto, photoFile } from '../../server/media/pipeline.ts';
+import { makeRegion } from '../../server/seed/factories.ts';
 
 /**
  * A photo uploaded through the real media pipeline (master stored by SHA-256,
@@ -23,6 +24,6 @@ export async function makePhotoWithMaster(pieceId: number | null, opts: { width?
   const { photo } = await sequelize.transaction((transaction) =>
     ingestPhoto({ actor: null, transaction, input: { buffer, pieceId, originalName: `test-${seed}.jpg` } }),
   );
-  for (const r of opts.regions ?? []) await Region.create({ photoId: photo.id, ...r, purpose: 'motif', createdById: null });
+  for (const r of opts.regions ?? []) await makeRegion({ photoId: photo.id, ...r, purpose: 'motif', createdById: null });
   return { photo, file: photoFile(photo, 'master'), buffer };
 }

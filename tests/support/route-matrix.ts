@@ -1,11 +1,10 @@
 import { hashPassword } from '../../server/auth/passwords.ts';
 import { issueToken } from '../../server/auth/tokens.ts';
 import sharp from 'sharp';
+import * as factories from '../../server/seed/factories.ts';
 import { makePiece } from '../../server/seed/factories.ts';
-import { ingestPhoto } from '../../server/media/pipeline.ts';
-import { sequelize } from '../../server/models/index.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
-import { Chemical, ColourMeasurement, Dyestuff, Job, MordantBatch, PaletteColour, Photo, Region, Substitution, Trial, TrialSeries, User } from '../../server/models/index.ts';
+import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 
@@ -91,7 +90,7 @@ const exporter: Record<Who, Expected> = { visitor: 401, admin: '2xx', curator: '
 // Trials: a fresh trial per request, owned by the actor for `:own` and by another dyer otherwise.
 async function makeTrial(ctx: SetupContext) {
   const ownerId = ctx.ownership === 'own' && ctx.user ? ctx.user.id : (await makeUser('dyer')).id;
-  return Trial.create({ code: `T-1900-${(seq++).toString().padStart(3, '0')}-${Date.now().toString(36)}`.slice(0, 16), pieceId: null, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null, dyerId: ownerId, fibre: null, weave: null, gsm: null, dryMassG: 100, fastness: null, notes: null, startedOn: null });
+  return factories.makeTrial({ dyerId: ownerId, fibre: null, dryMassG: 100 });
 }
 const trialParams = async (ctx: SetupContext) => ({ params: { id: (await makeTrial(ctx)).id } });
 const ownTrial: MatrixRow['expect'] = { visitor: 401, admin: '2xx', curator: 403, researcher: 403, 'dyer:own': '2xx', 'dyer:other': 403 };
@@ -99,12 +98,12 @@ const dyersCreate: MatrixRow['expect'] = { visitor: 401, admin: '2xx', curator: 
 const substitutionBody = { historicalPractice: 'lead-based red liquor', modernPractice: 'aluminium acetate from alum and calcium acetate', reason: 'toxicity' };
 async function trialWithSubstitution(ctx: SetupContext) {
   const t = await makeTrial(ctx);
-  const s = await Substitution.create({ trialId: t.id, stepId: null, historicalChemicalId: null, historicalPractice: 'x', historicalAmountG: null, modernChemicalId: null, modernPractice: 'y', modernAmountG: null, reason: 'waste', notes: null });
+  const s = await factories.makeSubstitution({ trialId: t.id, historicalPractice: 'x', modernPractice: 'y', reason: 'waste' });
   return { params: { id: t.id, childId: s.id }, body: substitutionBody };
 }
 async function trialWithReading(ctx: SetupContext) {
   const t = await makeTrial(ctx);
-  const m = await ColourMeasurement.create({ pieceId: null, regionId: null, trialId: t.id, instrument: null, geometry: null, specular: null, L: 50, a: 10, b: 10, label: null, takenOn: null, createdById: null });
+  const m = await factories.makeMeasurement({ trialId: t.id, instrument: null, geometry: null, specular: null, L: 50, a: 10, b: 10 });
   return { params: { id: t.id, childId: m.id } };
 }
 
@@ -114,11 +113,11 @@ const shortCode = (p: string) => `${p}${Date.now().toString(36)}${(seq++).toStri
 const otherDyerId = async () => (await User.findOne({ where: { email: 'tamsin.orrery@weldfold.test' }, rejectOnEmpty: true })).id;
 const ownerFor = async (ctx: SetupContext) => (ctx.ownership === 'own' && ctx.user ? ctx.user.id : otherDyerId());
 async function batchParams(ctx: SetupContext) {
-  const b = await MordantBatch.create({ code: shortCode('MX-'), kind: 'mordant-bath', name: 'Matrix bath', ingredients: [], volumeMl: 1000, thickenerGPerL: null, ph: null, madeOn: '2024-05-01', madeById: await ownerFor(ctx), checkBy: null, parentId: null, notes: null });
+  const b = await factories.makeBatch({ code: shortCode('MX-'), name: 'Matrix bath', madeOn: '2024-05-01', madeById: await ownerFor(ctx) });
   return { params: { id: b.id } };
 }
 async function seriesParams(ctx: SetupContext) {
-  const s = await TrialSeries.create({ code: shortCode('SX-'), title: 'Matrix series', pieceId: null, factors: [{ name: 'tannin', levels: ['0', '10'] }], cells: [{ tannin: '0' }, { tannin: '10' }], participants: [], dryMassG: 10, ownerId: await ownerFor(ctx), heldOn: null, notes: null });
+  const s = await factories.makeSeries({ code: shortCode('SX-'), title: 'Matrix series', factors: [{ name: 'tannin', levels: ['0', '10'] }], cells: [{ tannin: '0' }, { tannin: '10' }], ownerId: await ownerFor(ctx) });
   return { params: { id: s.id } };
 }
 const ownRecord: MatrixRow['expect'] = { visitor: 401, admin: '2xx', curator: 403, researcher: 403, 'dyer:own': '2xx', 'dyer:other': 403 };
@@ -138,12 +137,12 @@ const deletedPiece = async () => {
 async function realPhoto() {
   const piece = await makePiece({ status: 'draft' });
   const buffer = await sharp({ create: { width: 96, height: 64, channels: 3, background: '#9b2f2f' } }).jpeg().toBuffer();
-  return (await sequelize.transaction((transaction) => ingestPhoto({ actor: null, transaction, input: { buffer, pieceId: piece.id } }))).photo;
+  return (await factories.makePhoto({ pieceId: piece.id, buffer })).photo;
 }
 const photoParams = async () => ({ params: { id: (await realPhoto()).id } });
 async function photoWithRegion() {
   const photo = await realPhoto();
-  const region = await Region.create({ photoId: photo.id, x: 0, y: 0, w: 20, h: 20, purpose: 'colour-area', label: null, createdById: null });
+  const region = await factories.makeRegion({ photoId: photo.id, w: 20, h: 20 });
   return { params: { id: photo.id, regionId: region.id } };
 }
 async function photoWithColour() {

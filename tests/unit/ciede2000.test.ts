@@ -3,6 +3,8 @@ import Color from 'colorjs.io';
 import { describe, expect, it } from 'vitest';
 import { deltaE00 } from '../../server/search/ciede2000.ts';
 import { hexToLab, labToHex } from '../../shared/search/lab.ts';
+import { deltaE00 as referenceDeltaE00 } from '../../shared/colour/difference.ts';
+import { hexToLab as referenceHexToLab, labToHex as referenceLabToHex } from '../../shared/colour/convert.ts';
 
 type Pair = { pair: number; L1: number; a1: number; b1: number; L2: number; a2: number; b2: number; dE00: number };
 const sharma: Pair[] = JSON.parse(readFileSync(new URL('../reference/ciede2000-sharma2005.json', import.meta.url), 'utf8'));
@@ -72,12 +74,32 @@ describe('hand-written CIEDE2000 used by the shade index', () => {
   });
 });
 
+describe('the fast kernel and the reference ΔE00 (shared/colour/difference.ts) are one formula', () => {
+  it('agree to 1e-9 on the Sharma, Wu & Dalal (2005) pairs and on 5 000 random pairs', () => {
+    for (const p of sharma) {
+      const x = { L: p.L1, a: p.a1, b: p.b1 };
+      const y = { L: p.L2, a: p.a2, b: p.b2 };
+      expect(Math.abs(deltaE00(x, y) - referenceDeltaE00(x, y)), `pair ${p.pair}`).toBeLessThan(1e-9);
+    }
+    let worst = 0;
+    for (let i = 0; i < 5_000; i++) {
+      const x = { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
+      const y = i % 2 ? { L: x.L + rnd() * 4 - 2, a: x.a + rnd() * 6 - 3, b: x.b + rnd() * 6 - 3 } : { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
+      worst = Math.max(worst, Math.abs(deltaE00(x, y) - referenceDeltaE00(x, y)));
+    }
+    expect(worst).toBeLessThan(1e-9);
+  });
+});
+
 describe('hex ↔ CIELAB (D65) for the shade chooser', () => {
   it('reproduces tests/reference/srgb-lab.json (IEC 61966-2-1 + CIE 15) to 0.001', () => {
     const withHex = srgb.filter((r) => r.hex);
     expect(withHex.length).toBeGreaterThan(20);
     for (const r of withHex) {
       const lab = hexToLab(r.hex);
+      // The shade chooser's conversion is the reference one (shared/colour/convert.ts), not a copy.
+      expect(lab).toEqual(referenceHexToLab(r.hex));
+      expect(labToHex(lab)).toBe(referenceLabToHex(lab));
       expect(lab.L, r.name).toBeCloseTo(r.L, 3);
       expect(lab.a, r.name).toBeCloseTo(r.a, 3);
       expect(lab.b, r.name).toBeCloseTo(r.b, 3);

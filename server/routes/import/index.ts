@@ -1,7 +1,7 @@
 import { Router, type RequestHandler } from 'express';
-import multer from 'multer';
 import { actorOf, requireUser } from '../../http/auth.ts';
-import { badRequest, forbidden, HttpError } from '../../http/errors.ts';
+import { badRequest, forbidden } from '../../http/errors.ts';
+import { receiveUpload } from '../../http/upload.ts';
 import { parseQuery } from '../../http/validate.ts';
 import { can } from '../../policies/index.ts';
 import { checkCsv, importPieces, preview } from '../../import/pieces.ts';
@@ -10,15 +10,12 @@ import { columnMapping, importQuery, type ColumnMapping } from '../../../shared/
 export const importRouter = Router();
 
 const MAX_BYTES = 50 * 1024 * 1024;
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_BYTES, files: 1, fields: 5 } });
 // multer's own errors (too large, unexpected field) in the API's error shape.
-const receiveFile: RequestHandler = (req, res, next) =>
-  upload.single('file')(req, res, (err: unknown) => {
-    if (!err) return next();
-    const e = err as { code?: string; message?: string };
-    if (e.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`));
-    next(badRequest(`The upload could not be read: ${e.message ?? 'unknown error'}.`));
-  });
+const receiveFile = receiveUpload({
+  field: 'file', maxFiles: 1, maxBytes: MAX_BYTES, maxFields: 5,
+  tooLarge: () => `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`,
+  refuse: (err) => badRequest(`The upload could not be read: ${(err as { message?: string }).message ?? 'unknown error'}.`),
+});
 
 const mayImport: RequestHandler = (req, _res, next) => (can(actorOf(req), 'import:run') ? next() : next(forbidden()));
 

@@ -5,24 +5,21 @@ import {
   paletteColourUpdateSchema,
   photoParams,
   photoUpdateSchema,
-  rectIssues,
   rectSchema,
   regionCreateSchema,
   regionParams,
   regionUpdateSchema,
 } from '../../../shared/schemas/photo.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
-import { badRequest, forbidden, notFound } from '../../http/errors.ts';
+import { forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams } from '../../http/validate.ts';
-import { removePhotoFiles, repalette } from '../../media/pipeline.ts';
-import { EXCLUDING_PURPOSES, type RepaletteScope } from '../../media/repalette.ts';
-import { Job, PaletteColour, Region, sequelize, type Photo } from '../../models/index.ts';
-import { TILE_JOB } from '../../jobs/handlers/tile-photo.ts';
+import { PaletteColour, Region, sequelize, type Photo } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import type { Action } from '../../../shared/abilities.ts';
 import { presentPalettes, presentPhoto, presentRegion } from '../../presenters/photo.ts';
-import { audit, type Changes } from '../../services/audit.ts';
-import { reshare } from '../../services/palette-shares.ts';
+import {
+  addRegion, clearReferencePatch, deletePhoto, removeRegion, setPaletteBackground, setReferencePatch, updatePhoto, updateRegion,
+} from '../../services/photos.ts';
 import { loadReadablePhoto, loadWritablePhoto } from './load.ts';
 
 export const photosRouter = Router();
@@ -32,15 +29,6 @@ async function writable(actor: Actor, id: number, action: Action) {
   const loaded = await loadWritablePhoto(actor, id);
   if (!can(actor, action)) throw forbidden();
   return loaded;
-}
-
-// Photo changes show in the piece's history when the photo belongs to a piece.
-const auditPhoto = (ctx: { actor: Actor; transaction: Transaction }, photo: Photo, action: string, changes: Changes) =>
-  audit(ctx, photo.pieceId != null ? 'piece' : 'photo', photo.pieceId ?? photo.id, action, { ...changes, photoId: { from: null, to: photo.id } });
-
-function checkRect(r: Partial<{ x: number; y: number; w: number; h: number }>, photo: Photo) {
-  const fields = rectIssues(r, photo);
-  if (Object.keys(fields).length) throw badRequest('The rectangle does not fit on the photo.', { fields });
 }
 
 photosRouter.get('/:id', async (req, res) => {
@@ -54,12 +42,7 @@ photosRouter.patch('/:id', async (req, res) => {
   const actor = actorOf(req);
   const input = parseBody(photoUpdateSchema, req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'photo:update');
-  await sequelize.transaction(async (transaction) => {
-    const before = { caption: photo.caption, view: photo.view };
-    await photo.update(input, { transaction });
-    const changes = Object.fromEntries(Object.entries(input).map(([k, to]) => [k, { from: before[k as keyof typeof before], to }]));
-    await auditPhoto({ actor, transaction }, photo, 'photo-updated', changes);
-  });
+  await sequelize.transaction((transaction) => updatePhoto({ actor, transaction, input: { photo, changes: input } }));
   const [palette, regions] = await Promise.all([PaletteColour.findAll({ where: { photoId: photo.id } }), Region.findAll({ where: { photoId: photo.id } })]);
   res.json({ photo: presentPhoto(photo, actor, { palette, regions }) });
 });
@@ -67,34 +50,16 @@ photosRouter.patch('/:id', async (req, res) => {
 photosRouter.delete('/:id', async (req, res) => {
   const actor = actorOf(req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'photo:delete');
-  await sequelize.transaction(async (transaction) => {
-    await PaletteColour.destroy({ where: { photoId: photo.id }, transaction });
-    await Region.destroy({ where: { photoId: photo.id }, transaction });
-    // Tiling not yet started has nothing left to tile.
-    await Job.destroy({ where: { type: TILE_JOB, subjectType: 'photo', subjectId: photo.id, state: 'queued' }, transaction });
-    await photo.destroy({ transaction });
-    await auditPhoto({ actor, transaction }, photo, 'photo-removed', { sha256: { from: photo.sha256, to: null } });
-  });
-  // Files go only after the rows are gone for good.
-  await removePhotoFiles(photo);
+  // The files go once the rows are gone for good (after the commit).
+  await sequelize.transaction((transaction) => deletePhoto({ actor, transaction, input: { photo } }));
   res.status(204).end();
 });
 
-/**
- * Run a change and the palette re-extraction it calls for in one transaction; answer the palettes.
- * A colour area or motif changes only its own palettes; an exclusion or a reference patch every
- * palette (see DEVELOPERS.md, Media and colour). `scope` is decided after the change.
- */
-async function withRepalette<T>(photo: Photo, change: (t: Transaction) => Promise<T>, scope: (result: T) => RepaletteScope | null) {
-  return sequelize.transaction(async (transaction) => {
-    const result = await change(transaction);
-    const chosen = scope(result);
-    const palette = chosen ? await repalette({ transaction, photo, scope: chosen }) : await PaletteColour.findAll({ where: { photoId: photo.id }, transaction });
-    return { result, palettes: presentPalettes(palette) };
-  });
+/** Run a photo service in one transaction (palette re-extraction included) and present the palettes it answers. */
+async function inTransaction<T extends { palette: PaletteColour[] }>(work: (transaction: Transaction) => Promise<T>) {
+  const result = await sequelize.transaction(work);
+  return { ...result, palettes: presentPalettes(result.palette) };
 }
-
-const scopeOf = (purposes: string[], regionId: number): RepaletteScope => (purposes.some((p) => EXCLUDING_PURPOSES.has(p)) ? 'all' : { regionId });
 
 photosRouter.get('/:id/regions', async (req, res) => {
   const actor = actorOf(req);
@@ -107,12 +72,7 @@ photosRouter.post('/:id/regions', async (req, res) => {
   const actor = actorOf(req);
   const input = parseBody(regionCreateSchema, req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:create');
-  checkRect(input, photo);
-  const { result: region, palettes } = await withRepalette(photo, async (transaction) => {
-    const r = await Region.create({ ...input, label: input.label ?? null, photoId: photo.id, createdById: actor?.id ?? null }, { transaction });
-    await auditPhoto({ actor, transaction }, photo, 'region-added', { region: { from: null, to: { ...input, id: r.id } } });
-    return r;
-  }, (r) => scopeOf([r.purpose], r.id));
+  const { region, palettes } = await inTransaction((transaction) => addRegion({ actor, transaction, input: { photo, region: input } }));
   res.status(201).json({ region: presentRegion(region), palettes });
 });
 
@@ -128,12 +88,7 @@ photosRouter.patch('/:id/regions/:regionId', async (req, res) => {
   const input = parseBody(regionUpdateSchema, req);
   const { photo } = await writable(actor, id, 'region:update');
   const region = await loadRegion(photo, regionId);
-  checkRect({ x: input.x ?? region.x, y: input.y ?? region.y, w: input.w ?? region.w, h: input.h ?? region.h }, photo);
-  const before = presentRegion(region);
-  const { palettes } = await withRepalette(photo, async (transaction) => {
-    await region.update(input, { transaction });
-    await auditPhoto({ actor, transaction }, photo, 'region-changed', { region: { from: before, to: presentRegion(region) } });
-  }, () => scopeOf([before.purpose, region.purpose], region.id));
+  const { palettes } = await inTransaction((transaction) => updateRegion({ actor, transaction, input: { photo, region, changes: input } }));
   res.json({ region: presentRegion(region), palettes });
 });
 
@@ -142,11 +97,7 @@ photosRouter.delete('/:id/regions/:regionId', async (req, res) => {
   const { id, regionId } = parseParams(regionParams, req);
   const { photo } = await writable(actor, id, 'region:delete');
   const region = await loadRegion(photo, regionId);
-  const { palettes } = await withRepalette(photo, async (transaction) => {
-    await PaletteColour.destroy({ where: { regionId: region.id }, transaction });
-    await region.destroy({ transaction });
-    await auditPhoto({ actor, transaction }, photo, 'region-removed', { region: { from: presentRegion(region), to: null } });
-  }, () => (EXCLUDING_PURPOSES.has(region.purpose) ? 'all' : null));
+  const { palettes } = await inTransaction((transaction) => removeRegion({ actor, transaction, input: { photo, region } }));
   res.json({ palettes });
 });
 
@@ -154,23 +105,14 @@ photosRouter.put('/:id/reference-patch', async (req, res) => {
   const actor = actorOf(req);
   const rect = parseBody(rectSchema, req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:update');
-  checkRect(rect, photo);
-  const before = photo.referencePatch;
-  const { palettes } = await withRepalette(photo, async (transaction) => {
-    await photo.update({ referencePatch: rect }, { transaction });
-    await auditPhoto({ actor, transaction }, photo, 'reference-patch-set', { referencePatch: { from: before, to: rect } });
-  }, () => 'all');
+  const { palettes } = await inTransaction((transaction) => setReferencePatch({ actor, transaction, input: { photo, rect } }));
   res.json({ referencePatch: photo.referencePatch, palettes });
 });
 
 photosRouter.delete('/:id/reference-patch', async (req, res) => {
   const actor = actorOf(req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:delete');
-  const before = photo.referencePatch;
-  const { palettes } = await withRepalette(photo, async (transaction) => {
-    await photo.update({ referencePatch: null, correction: null }, { transaction });
-    await auditPhoto({ actor, transaction }, photo, 'reference-patch-cleared', { referencePatch: { from: before, to: null } });
-  }, () => 'all');
+  const { palettes } = await inTransaction((transaction) => clearReferencePatch({ actor, transaction, input: { photo } }));
   res.json({ referencePatch: null, palettes });
 });
 
@@ -181,15 +123,6 @@ photosRouter.patch('/:id/palette/:colourId', async (req, res) => {
   const { photo } = await writable(actor, id, 'region:update');
   const colour = await PaletteColour.findOne({ where: { id: colourId, photoId: photo.id } });
   if (!colour) throw notFound('Palette colour');
-  const palettes = await sequelize.transaction(async (transaction) => {
-    const siblings = await PaletteColour.findAll({ where: { photoId: photo.id, regionId: colour.regionId, variant: colour.variant }, transaction });
-    for (const next of reshare(siblings, colour.id, background)) {
-      // The toggled colour's flag is now the user's: a later recompute of this palette keeps it.
-      const manual = next.id === colour.id ? { backgroundManual: true } : {};
-      await PaletteColour.update({ share: next.share, background: next.background, ...manual }, { where: { id: next.id }, transaction });
-    }
-    await auditPhoto({ actor, transaction }, photo, 'palette-background', { [`colour ${colour.hex}`]: { from: colour.background, to: background } });
-    return presentPalettes(await PaletteColour.findAll({ where: { photoId: photo.id }, transaction }));
-  });
+  const { palettes } = await inTransaction((transaction) => setPaletteBackground({ actor, transaction, input: { photo, colour, background } }));
   res.json({ palettes });
 });

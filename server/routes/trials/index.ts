@@ -8,9 +8,9 @@ import { ColourMeasurement, sequelize, Substitution } from '../../models/index.t
 import { can } from '../../policies/index.ts';
 import { presentMeasurement } from '../../presenters/trial.ts';
 import { withTrialCode } from '../../services/trials/code.ts';
-import { addMeasurement, importMeasurements } from '../../services/trials/measurements.ts';
+import { addMeasurement, importMeasurements, removeMeasurement } from '../../services/trials/measurements.ts';
 import { notifyCurator } from '../../services/trials/notify.ts';
-import { addSubstitution, createTrial, deleteTrial, replaceSteps, updateSubstitution, updateTrial } from '../../services/trials/trials.ts';
+import { addSubstitution, createTrial, deleteTrial, removeSubstitution, replaceSteps, updateSubstitution, updateTrial } from '../../services/trials/trials.ts';
 import { listTrials, loadReadableTrial, loadWritableTrial, presentTrialDetail } from './load.ts';
 import { trialPhotosRouter } from './photos.ts';
 import { pieceTrialsRouter } from './pieces.ts';
@@ -109,7 +109,8 @@ trialsRouter.delete('/:id/substitutions/:childId', async (req, res) => {
   const actor = actorOf(req);
   const { id, childId } = parseParams(childParams, req);
   const trial = await loadWritableTrial(actor, id);
-  await (await loadSubstitution(trial.id, childId)).destroy();
+  const substitution = await loadSubstitution(trial.id, childId);
+  await sequelize.transaction((transaction) => removeSubstitution({ actor, transaction, input: { substitution } }));
   res.status(204).end();
 });
 
@@ -126,9 +127,9 @@ trialsRouter.delete('/:id/measurements/:childId', async (req, res) => {
   const actor = actorOf(req);
   const { id, childId } = parseParams(childParams, req);
   const trial = await loadWritableTrial(actor, id);
-  const m = await ColourMeasurement.findOne({ where: { id: childId, trialId: trial.id } });
-  if (!m) throw notFound('Measurement');
-  await m.destroy();
+  const measurement = await ColourMeasurement.findOne({ where: { id: childId, trialId: trial.id } });
+  if (!measurement) throw notFound('Measurement');
+  await sequelize.transaction((transaction) => removeMeasurement({ actor, transaction, input: { measurement } }));
   res.status(204).end();
 });
 

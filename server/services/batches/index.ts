@@ -2,10 +2,9 @@ import { Op, type Transaction } from 'sequelize';
 import { UPTAKE_DEFAULTS, type BatchCreateInput, type BatchEventInput, type BatchUpdateInput } from '../../../shared/schemas/batches.ts';
 import { conflict, unprocessable } from '../../http/errors.ts';
 import { BatchEvent, Chemical, MordantBatch, Trial, sequelize } from '../../models/index.ts';
-import type { Actor } from '../../policies/index.ts';
 import { checkEvent, figures } from './ledger-figures.ts';
+import type { SignedInCtx } from '../context.ts';
 
-type Ctx<I> = { actor: NonNullable<Actor>; transaction: Transaction; input: I };
 
 export const eventOrder: [string, string][] = [['occurredAt', 'ASC'], ['id', 'ASC']];
 
@@ -21,7 +20,7 @@ export async function thickenerIds(transaction?: Transaction) {
 
 export const figuresFor = (batch: MordantBatch, events: BatchEvent[], thick: ReadonlySet<number>) => figures(batch, events, thick);
 
-export async function createBatch({ actor, transaction, input }: Ctx<BatchCreateInput>) {
+export async function createBatch({ actor, transaction, input }: SignedInCtx<BatchCreateInput>) {
   if (input.parentId != null) {
     const parent = await MordantBatch.findByPk(input.parentId, { transaction });
     if (!parent) throw unprocessable('The parent batch does not exist.', { fields: { parentId: ['No such batch'] } });
@@ -32,7 +31,7 @@ export async function createBatch({ actor, transaction, input }: Ctx<BatchCreate
   return MordantBatch.create({ ...input, uptakePerUse, madeById: actor.id, status: 'active' }, { transaction });
 }
 
-export async function updateBatch({ transaction, input, batch }: Ctx<BatchUpdateInput> & { batch: MordantBatch }) {
+export async function updateBatch({ transaction, input, batch }: SignedInCtx<BatchUpdateInput> & { batch: MordantBatch }) {
   if (batch.status === 'disposed') throw conflict(`${batch.code} has been disposed of and can no longer be changed.`);
   return batch.update(input, { transaction });
 }
@@ -42,7 +41,7 @@ export async function updateBatch({ transaction, input, batch }: Ctx<BatchUpdate
  * The batch row is locked (SELECT … FOR UPDATE) first, so concurrent draws are
  * serialised and never take more than is left.
  */
-export async function addEvent({ actor, input, batchId }: Omit<Ctx<BatchEventInput>, 'transaction'> & { batchId: number }) {
+export async function addEvent({ actor, input, batchId }: Omit<SignedInCtx<BatchEventInput>, 'transaction'> & { batchId: number }) {
   return sequelize.transaction(async (transaction) => {
     const batch = await MordantBatch.findByPk(batchId, { transaction, lock: transaction.LOCK.UPDATE, rejectOnEmpty: true });
     if (batch.status === 'disposed') throw conflict(`${batch.code} has been disposed of; no further events can be recorded.`, { status: batch.status });

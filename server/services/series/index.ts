@@ -3,17 +3,16 @@ import type { SeriesCreateInput, SeriesUpdateInput } from '../../../shared/schem
 import type { Cell } from '../../../shared/compute/series.ts';
 import { conflict, unprocessable } from '../../http/errors.ts';
 import { Chemical, Dyestuff, RecipeStep, Trial, TrialSeries } from '../../models/index.ts';
-import type { Actor } from '../../policies/index.ts';
 import { nextTrialCode } from '../trials/code.ts';
 import { checkPiece, checkTarget } from '../trials/refs.ts';
 import { cellKey, cellRecipe, expand, type StoredFactor } from './plan.ts';
+import type { SignedInCtx } from '../context.ts';
 
-type Ctx<I> = { actor: NonNullable<Actor>; transaction: Transaction; input: I };
 
 export const factorsOf = (s: TrialSeries) => s.factors as StoredFactor[];
 export const keptCells = (s: TrialSeries) => s.cells as Cell[];
 
-export async function createSeries({ actor, transaction, input }: Ctx<SeriesCreateInput>) {
+export async function createSeries({ actor, transaction, input }: SignedInCtx<SeriesCreateInput>) {
   const names = input.factors.map((f) => f.name);
   if (new Set(names).size !== names.length) throw unprocessable('Each factor needs its own name.', { fields: { factors: ['Two factors share a name'] } });
   if (input.kind === 'workshop' && !input.participants.length) throw unprocessable('A workshop needs participant codes.', { fields: { participants: ['Add pseudonymous codes such as P-01'] } });
@@ -25,7 +24,7 @@ export async function createSeries({ actor, transaction, input }: Ctx<SeriesCrea
   return TrialSeries.create({ ...input, factors, cells, ownerId: actor.id }, { transaction });
 }
 
-export async function updateSeries({ transaction, input, series }: Ctx<SeriesUpdateInput> & { series: TrialSeries }) {
+export async function updateSeries({ transaction, input, series }: SignedInCtx<SeriesUpdateInput> & { series: TrialSeries }) {
   const { keep, targetPaletteColourId, targetRegionId, targetMeasurementId, ...rest } = input;
   const patch: Partial<TrialSeries['_creationAttributes']> = { ...rest };
   // A new target replaces the old one whichever kind it is; trials already planned keep theirs.
@@ -52,7 +51,7 @@ export function plannedCells(series: TrialSeries): Cell[] {
 }
 
 /** Create the planned trials of a series in one transaction; cells that already have a trial are skipped. */
-export async function createSeriesTrials({ actor, transaction, series }: Omit<Ctx<unknown>, 'input'> & { series: TrialSeries }) {
+export async function createSeriesTrials({ actor, transaction, series }: Omit<SignedInCtx<unknown>, 'input'> & { series: TrialSeries }) {
   const locked = await TrialSeries.findByPk(series.id, { transaction, lock: transaction.LOCK.UPDATE, rejectOnEmpty: true });
   const existing = await Trial.findAll({ where: { seriesId: locked.id }, attributes: ['cell'], transaction });
   const done = new Set(existing.map((t) => cellKey((t.cell ?? {}) as Cell)));

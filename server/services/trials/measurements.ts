@@ -1,11 +1,11 @@
 import { parse } from 'csv-parse/sync';
-import type { Transaction } from 'sequelize';
 import { measurementSchema, type MeasurementInput } from '../../../shared/schemas/trial.ts';
 import { unprocessable } from '../../http/errors.ts';
 import { ColourMeasurement, type Trial } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
+import type { ServiceCtx } from '../context.ts';
+import { audit } from '../audit.ts';
 
-type Ctx<I> = { actor: Actor; transaction: Transaction; input: I };
 
 const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
   pieceId: null, regionId: null, trialId: trial.id, instrument: m.instrument ?? null, geometry: m.geometry ?? null, specular: m.specular ?? null,
@@ -13,9 +13,16 @@ const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.
   createdById: actor?.id ?? null,
 });
 
-export async function addMeasurement({ actor, transaction, input }: Ctx<MeasurementInput & { trial: Trial }>) {
+export async function addMeasurement({ actor, transaction, input }: ServiceCtx<MeasurementInput & { trial: Trial }>) {
   const { trial, ...rest } = input;
   return ColourMeasurement.create(row(trial, actor, measurementSchema.parse(rest)), { transaction });
+}
+
+export async function removeMeasurement({ actor, transaction, input }: ServiceCtx<{ measurement: ColourMeasurement }>) {
+  const m = input.measurement;
+  await m.destroy({ transaction });
+  const reading = { id: m.id, label: m.label, L: m.L, a: m.a, b: m.b, illuminant: m.illuminant, observer: m.observer };
+  await audit({ actor, transaction }, 'trial', m.trialId!, 'measurement-removed', { measurement: { from: reading, to: null } });
 }
 
 export type CsvLineError = { line: number; errors: string[] };
@@ -88,7 +95,7 @@ export function parseMeasurementCsv(csv: string): { rows: ReturnType<typeof meas
 }
 
 /** Import every reading of the file, or none: a file with any bad line is refused (422) with the lines. */
-export async function importMeasurements({ actor, transaction, input }: Ctx<{ trial: Trial; csv: string }>) {
+export async function importMeasurements({ actor, transaction, input }: ServiceCtx<{ trial: Trial; csv: string }>) {
   const { rows, errors } = parseMeasurementCsv(input.csv);
   if (errors.length) throw unprocessable(`Nothing was imported: ${errors.length} line${errors.length === 1 ? '' : 's'} need${errors.length === 1 ? 's' : ''} fixing.`, { lines: errors });
   return ColourMeasurement.bulkCreate(rows.map((m) => row(input.trial, actor, m)), { transaction });

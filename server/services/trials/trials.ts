@@ -3,16 +3,16 @@ import type { StepsInput, SubstitutionInput, TrialCreateInput, TrialUpdateInput 
 import { stepsSchema, substitutionSchema, trialCreateSchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
 import { badRequest, unprocessable } from '../../http/errors.ts';
 import { audit } from '../audit.ts';
-import { ColourMeasurement, RecipeStep, Substitution, Trial } from '../../models/index.ts';
-import type { Actor } from '../../policies/index.ts';
+import { ColourMeasurement, Photo, RecipeStep, Substitution, Trial } from '../../models/index.ts';
+import { removePhotoRows } from '../photos.ts';
 import { checkChemical, checkPiece, checkTarget, loadIngredientRefs } from './refs.ts';
 import { nextTrialCode } from './code.ts';
 import { lockBaths, oldDraws, syncStepDraws } from '../batches/step-draws.ts';
+import type { ServiceCtx } from '../context.ts';
 
-type Ctx<I> = { actor: Actor; transaction: Transaction; input: I };
 
 /** Create a trial with a server-assigned code; the caller retries on a code clash (withTrialCode). */
-export async function createTrial({ actor, transaction, input }: Ctx<TrialCreateInput>) {
+export async function createTrial({ actor, transaction, input }: ServiceCtx<TrialCreateInput>) {
   const v = trialCreateSchema.parse(input);
   await checkPiece(v.pieceId, transaction);
   await checkTarget(v.pieceId ?? null, v, transaction);
@@ -29,7 +29,7 @@ export async function createTrial({ actor, transaction, input }: Ctx<TrialCreate
 }
 
 /** Update the fields given; a changed piece clears a target that belonged to the old one. */
-export async function updateTrial({ transaction, input }: Ctx<TrialUpdateInput & { trial: Trial }>) {
+export async function updateTrial({ transaction, input }: ServiceCtx<TrialUpdateInput & { trial: Trial }>) {
   const { trial, ...rest } = input;
   const v = trialUpdateSchema.parse(rest);
   const pieceId = v.pieceId === undefined ? trial.pieceId : v.pieceId;
@@ -44,7 +44,7 @@ export async function updateTrial({ transaction, input }: Ctx<TrialUpdateInput &
   return trial;
 }
 
-export async function deleteTrial({ actor, transaction, input }: Ctx<{ trial: Trial }>) {
+export async function deleteTrial({ actor, transaction, input }: ServiceCtx<{ trial: Trial }>) {
   const trialId = input.trial.id;
   await Trial.findByPk(trialId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
   const old = await RecipeStep.findAll({ where: { trialId }, transaction });
@@ -53,14 +53,17 @@ export async function deleteTrial({ actor, transaction, input }: Ctx<{ trial: Tr
   await Substitution.destroy({ where: { trialId }, transaction });
   await RecipeStep.destroy({ where: { trialId }, transaction });
   await ColourMeasurement.destroy({ where: { trialId }, transaction });
+  // Its swatch photos go too: rows now, files and tiles once the transaction commits.
+  await removePhotoRows(await Photo.findAll({ where: { trialId }, transaction }), transaction);
   await input.trial.destroy({ transaction });
+  await audit({ actor, transaction }, 'trial', trialId, 'trial-removed', { code: { from: input.trial.code, to: null } });
 }
 
 /**
  * Replace the ordered recipe in one go. Substitutions keep pointing at the step in
  * the same position; those whose position disappears lose their step link.
  */
-export async function replaceSteps({ actor, transaction, input }: Ctx<StepsInput & { trial: Trial }>) {
+export async function replaceSteps({ actor, transaction, input }: ServiceCtx<StepsInput & { trial: Trial }>) {
   const { steps } = stepsSchema.parse({ steps: input.steps });
   const { chemicals, dyestuffs } = await loadIngredientRefs(steps, transaction);
   const historicalOnly = historicalOnlyIn(input.trial, steps, chemicals);
@@ -164,16 +167,22 @@ const substitutionRow = (v: ReturnType<typeof substitutionSchema.parse>) => ({
   modernAmountG: v.modernAmountG ?? null, reason: v.reason, notes: v.notes ?? null,
 });
 
-export async function addSubstitution({ transaction, input }: Ctx<SubstitutionInput & { trial: Trial }>) {
+export async function addSubstitution({ transaction, input }: ServiceCtx<SubstitutionInput & { trial: Trial }>) {
   const { trial, ...rest } = input;
   const v = substitutionSchema.parse(rest);
   await checkSubstitution(trial.id, v, transaction);
   return Substitution.create({ trialId: trial.id, ...substitutionRow(v) }, { transaction });
 }
 
-export async function updateSubstitution({ transaction, input }: Ctx<SubstitutionInput & { substitution: Substitution }>) {
+export async function updateSubstitution({ transaction, input }: ServiceCtx<SubstitutionInput & { substitution: Substitution }>) {
   const { substitution, ...rest } = input;
   const v = substitutionSchema.parse(rest);
   await checkSubstitution(substitution.trialId, v, transaction);
   return substitution.update(substitutionRow(v), { transaction });
+}
+
+export async function removeSubstitution({ actor, transaction, input }: ServiceCtx<{ substitution: Substitution }>) {
+  const { substitution } = input;
+  await substitution.destroy({ transaction });
+  await audit({ actor, transaction }, 'trial', substitution.trialId, 'substitution-removed', { substitution: { from: substitutionRow(substitution), to: null } });
 }
