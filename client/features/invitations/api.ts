@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { AcceptInvitationInput } from '../../../shared/schemas/team';
 import type { AcceptedResponse, InvitationResponse } from '../../../shared/schemas/invitations';
 import { http } from '../../lib/http';
-import { authKeys, fetchMe, forgetOtherQueries } from '../auth/api';
+import { authKeys, fetchMe, forgetOtherQueries } from '../auth';
 
 export const invitationKeys = { one: (token: string) => ['invitations', token] as const };
 

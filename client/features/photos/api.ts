@@ -13,7 +13,7 @@ import type {
 } from '../../../shared/schemas/photo';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
 import { ApiError, http } from '../../lib/http';
-import { pieceKeys, type Photo } from '../pieces/api';
+import { pieceKeys, type Photo } from '../pieces';
 
 export type { Palettes } from '../../../shared/schemas/photo';
 export type Region = RegionOut;

@@ -1,7 +1,7 @@
 import { Link, useLocation, useNavigate } from 'react-router-dom';
 import { useLogout, useMe } from '../api';
 import { paths } from '../../../paths';
-import { roleLabel } from '../../team/roles';
+import { roleLabel } from '../../team';
 
 // Shown by ability; the server leaves the outbox out in production, where it does not exist.
 const adminLinks = [

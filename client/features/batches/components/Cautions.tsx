@@ -1,4 +1,4 @@
-import { ChemicalCaution } from '../../reference/components/ChemicalCaution';
+import { ChemicalCaution } from '../../reference';
 import type { BatchDetail } from '../api';
 
 /** The shared caution (signal word, H statements, PPE, deferral to the SDS) for every chemical in the batch and its top-ups. */

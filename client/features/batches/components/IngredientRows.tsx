@@ -1,5 +1,5 @@
 import type { BatchIngredientInput } from '../../../../shared/schemas/batches';
-import { useChemicals, useDyestuffs } from '../../reference/api';
+import { useChemicals, useDyestuffs } from '../../reference';
 
 type Row = { key: string; grams: string };
 

@@ -1,5 +1,5 @@
-import { useCan } from '../../auth/api';
-import { manifestUrl } from '../../iiif/api';
+import { useCan } from '../../auth';
+import { manifestUrl } from '../../iiif';
 import { exportUrls } from '../urls';
 import { DownloadLink } from './DownloadLink';
 

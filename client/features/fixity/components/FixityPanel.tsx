@@ -1,6 +1,6 @@
 import { formatDateTime } from '../../../../shared/format';
 import { Button } from '../../../components/Button';
-import { JobStatus } from '../../iiif/components/JobStatus';
+import { JobStatus } from '../../iiif';
 import { useFixityLatest, useStartFixity } from '../api';
 import type { FixityProblem } from '../../../../shared/schemas/fixity';
 

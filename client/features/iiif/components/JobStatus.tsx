@@ -1,6 +1,6 @@
 import type { JobView } from '../../../../shared/schemas/jobs';
 import { Button } from '../../../components/Button';
-import { useRetryJob } from '../../jobs/api';
+import { useRetryJob } from '../../jobs';
 import { ProgressBar } from './ProgressBar';
 
 const WORDS: Record<JobView['state'], { text: string; tone: string }> = {

@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { paths } from '../../../paths';
-import { useMe } from '../../auth/api';
-import { usePhotoJobs } from '../../jobs/api';
+import { useMe } from '../../auth';
+import { usePhotoJobs } from '../../jobs';
 import { JobStatus } from './JobStatus';
 
 /** The way into a photo's deep zoom, with the state of its tiling job while it is not done (signed-in users only see jobs). */

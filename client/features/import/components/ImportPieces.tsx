@@ -4,7 +4,7 @@ import { Button } from '../../../components/Button';
 import { ApiError } from '../../../lib/http';
 import type { ColumnMapping, ImportError, ImportPreview } from '../../../../shared/schemas/piece-import';
 import { REQUIRED_PIECE_FIELDS } from '../../../../shared/schemas/piece-import';
-import { ProgressBar } from '../../iiif/components/ProgressBar';
+import { ProgressBar } from '../../iiif';
 import { paths } from '../../../paths';
 import { readHeader, usePreviewImport, useRunImport } from '../api';
 import { guessMapping, MappingTable } from './MappingTable';

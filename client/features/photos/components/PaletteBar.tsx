@@ -1,6 +1,6 @@
 import { formatNumber } from '../../../../shared/format';
 import { IMAGE_ESTIMATE, ViewingConditions } from '../../../components/ViewingConditions';
-import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
+import { ShadeSearchLink } from '../../search';
 import type { Palettes } from '../api';
 
 type Colour = Palettes[number]['colours'][number];

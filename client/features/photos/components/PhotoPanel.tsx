@@ -1,8 +1,8 @@
 import { exifLines, formatBytes, formatLocalDateTime, type ExifFacts } from '../../../../shared/format';
 import { colourFactsLines } from '../../../../shared/schemas/photo';
-import type { Photo } from '../../pieces/api';
+import type { Photo } from '../../pieces';
 import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
-import { PhotoTiles } from '../../iiif/components/PhotoTiles';
+import { PhotoTiles } from '../../iiif';
 import { PaletteBar } from './PaletteBar';
 import { PURPOSE_LABELS, RegionEditor } from './RegionEditor';
 

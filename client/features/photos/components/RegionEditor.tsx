@@ -3,7 +3,7 @@ import { REGION_PURPOSES, rectIssues, rectSchema, regionCreateSchema, type Rect,
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { formMessage, useFormErrors } from '../../../lib/form';
-import type { Photo } from '../../pieces/api';
+import type { Photo } from '../../pieces';
 import { useAddRegion, useReferencePatch } from '../api';
 
 export const PURPOSE_LABELS: Record<RegionPurpose, string> = {

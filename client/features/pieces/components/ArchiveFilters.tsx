@@ -1,7 +1,7 @@
 import { pieceListQuery } from '../../../../shared/schemas/piece';
 import { useFormErrors } from '../../../lib/form';
 import type { ListParams } from '../api';
-import { useVocabularies } from '../../vocabularies/api';
+import { useVocabularies } from '../../vocabularies';
 
 type Props = { value: ListParams; onChange: (next: ListParams) => void; canSeeDrafts: boolean; canSeeDeleted: boolean };
 

@@ -4,7 +4,7 @@ import { pieceCreateSchema, type PieceCreateInput } from '../../../../shared/sch
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { useFormErrors } from '../../../lib/form';
-import { useVocabularies } from '../../vocabularies/api';
+import { useVocabularies } from '../../vocabularies';
 import type { Piece } from '../api';
 import { EvidencedList, TermChecklist, TextAreaField, type Evidenced } from './FormBits';
 

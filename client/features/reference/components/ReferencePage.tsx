@@ -1,5 +1,5 @@
 import { Page } from '../../../components/Page';
-import { useCan } from '../../auth/api';
+import { useCan } from '../../auth';
 import { useChemicals, useDyestuffs } from '../api';
 import { AddChemicalForm } from './AddChemicalForm';
 import { AddDyestuffForm } from './AddDyestuffForm';

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Page } from '../../../components/Page';
 import { paths } from '../../../paths';
-import { useCan } from '../../auth/api';
+import { useCan } from '../../auth';
 import { useSeriesList } from '../api';
 import { NewSeriesForm } from './NewSeriesForm';
 

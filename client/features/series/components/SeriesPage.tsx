@@ -9,7 +9,7 @@ import { paths } from '../../../paths';
 import { useCreateSeriesTrials, useSeries, useUpdateSeries, type SeriesDetail } from '../api';
 import { MaterialsTable } from './MaterialsTable';
 import { seriesUpdateSchema } from '../../../../shared/schemas/series';
-import { TargetSelect, targetIds, targetValue } from '../../trials/components/TrialFields';
+import { TargetSelect, targetIds, targetValue } from '../../trials';
 
 /** The colour of the piece the series aims at; trials planned from now on take it as their target. */
 function SeriesTarget({ s, canEdit }: { s: SeriesDetail; canEdit: boolean }) {

@@ -3,7 +3,7 @@ import { labToHex } from '../../../../shared/colour';
 import { conditionsText, signed } from '../../../../shared/colour/conditions';
 import { ViewingConditions } from '../../../components/ViewingConditions';
 import { fmt, lab as labText } from '../format';
-import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
+import { ShadeSearchLink } from '../../search';
 import { VerdictBadge } from './VerdictBadge';
 
 type Colour = NonNullable<TrialSummaryView['colour']>;

@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { paths } from '../../../paths';
-import { useCan } from '../../auth/api';
+import { useCan } from '../../auth';
 
 /** The piece page's way into its trials: attach one (dyers) and compare them all (everyone signed in). */
 export function PieceTrialLinks({ pieceId }: { pieceId: number }) {

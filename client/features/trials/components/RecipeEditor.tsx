@@ -3,8 +3,8 @@ import { BASES, OPERATIONS, basisLabels, operationLabels, stepsSchema, type Step
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { formMessage, useFormErrors } from '../../../lib/form';
-import { useChemicals, useDyestuffs } from '../../reference/api';
-import { useBatches } from '../../batches/api';
+import { useChemicals, useDyestuffs } from '../../reference';
+import { useBatches } from '../../batches';
 import { useReplaceSteps, type TrialView } from '../api';
 import { incompatibleInStep } from '../../../../shared/compute/incompatible';
 

@@ -1,7 +1,7 @@
 import { Link, useParams } from 'react-router-dom';
 import { Page } from '../../../components/Page';
 import { paths } from '../../../paths';
-import { useCan } from '../../auth/api';
+import { useCan } from '../../auth';
 import { usePieceTrials } from '../api';
 import { fmt, STATUS_WORDS } from '../format';
 import { ColourComparison } from './ColourComparison';

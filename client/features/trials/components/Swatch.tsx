@@ -1,5 +1,5 @@
 import { labToHex } from '../../../../shared/colour';
-import { ShadeSearchLink } from '../../search/components/ShadeSearchLink';
+import { ShadeSearchLink } from '../../search';
 import { lab as labText } from '../format';
 
 type LabColour = { L: number; a: number; b: number };

@@ -5,8 +5,8 @@ import { DRY_MASS_BASES, TRIAL_STATUSES, dryMassBasisLabels } from '../../../../
 import { recipeMass } from '../../../../shared/compute/moisture';
 import { Field } from '../../../components/form/Field';
 import { Select } from '../../../components/form/Select';
-import { TextAreaField } from '../../pieces/components/FormBits';
-import { usePiece } from '../../pieces/api';
+import { TextAreaField } from '../../pieces';
+import { usePiece } from '../../pieces';
 import { usePieceTrials } from '../api';
 import { STATUS_WORDS } from '../format';
 

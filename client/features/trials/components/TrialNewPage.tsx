@@ -7,7 +7,7 @@ import { trialCreateSchema } from '../../../../shared/schemas/trial';
 import { formMessage, useFormErrors } from '../../../lib/form';
 import { paths } from '../../../paths';
 import { useQuery } from '@tanstack/react-query';
-import { pieceQuery } from '../../pieces/api';
+import { pieceQuery } from '../../pieces';
 import { useCreateTrial } from '../api';
 import { TrialFields, toTrialInput, type TrialFormValues } from './TrialFields';
 

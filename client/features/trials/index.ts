@@ -1,0 +1,2 @@
+// The public entry of the trials feature: what other features may use (lint forbids reaching past it).
+export { TargetSelect, targetIds, targetValue } from './components/TrialFields';
