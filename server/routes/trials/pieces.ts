@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { idParams, trialCreateSchema } from '../../../shared/schemas/trial.ts';
+import { idParams, pieceTrialsQuery, trialCreateSchema } from '../../../shared/schemas/trial.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseParams, parseQuery } from '../../http/validate.ts';
@@ -11,12 +11,9 @@ import { notifyCurator } from '../../services/trials/notify.ts';
 import { createTrial } from '../../services/trials/trials.ts';
 import { loadReadablePiece } from '../pieces/load.ts';
 import { listTrials, loadReadableTrial, presentTrialDetail } from './load.ts';
-import { z } from 'zod';
 
 /** /api/pieces/:id/trials: the reproductions of one piece (mounted beside the pieces router). */
 export const pieceTrialsRouter = Router();
-
-const pieceTrialsQuery = z.object({ page: z.coerce.number().int().min(1).default(1), pageSize: z.coerce.number().int().min(1).max(100).default(100) });
 
 pieceTrialsRouter.get('/:id/trials', requireUser, async (req, res) => {
   const actor = actorOf(req);
