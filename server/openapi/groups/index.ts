@@ -3,6 +3,7 @@ import openapi from './openapi.ts';
 import reference from './reference.ts';
 import vocabularies from './vocabularies.ts';
 import trials from './trials.ts';
+import batches from './batches.ts';
 
 // One import per route group, in the order of server/routes/index.ts.
 export const groups: RouteGroup[] = [
@@ -10,4 +11,5 @@ export const groups: RouteGroup[] = [
   reference,
   vocabularies,
   trials,
+  batches,
 ];
