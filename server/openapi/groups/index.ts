@@ -4,6 +4,7 @@ import reference from './reference.ts';
 import vocabularies from './vocabularies.ts';
 import trials from './trials.ts';
 import batches from './batches.ts';
+import series from './series.ts';
 
 // One import per route group, in the order of server/routes/index.ts.
 export const groups: RouteGroup[] = [
@@ -12,4 +13,5 @@ export const groups: RouteGroup[] = [
   vocabularies,
   trials,
   batches,
+  series,
 ];
