@@ -14,6 +14,15 @@ import type { RouteContract, RouteGroup } from '../openapi/registry.ts';
 export function contractCheck(groups: RouteGroup[] = allGroups): RequestHandler {
   const byRoute = new Map<string, RouteContract>();
   for (const g of groups) for (const r of g.routes) byRoute.set(`${r.method.toUpperCase()} ${r.path}`, r);
+  // A router mounted on a path with a parameter (e.g. '/:id/photos') has the actual values in req.baseUrl:
+  // then the request path is matched against the contracts' patterns, the most literal first.
+  const patterns = [...byRoute.entries()]
+    .map(([key, r]) => ({ key, method: r.method.toUpperCase(), params: (r.path.match(/:\w+/g) ?? []).length, re: new RegExp(`^${r.path.replace(/[.]/g, '\\.').replace(/:\w+/g, '[^/]+')}/?$`) }))
+    .sort((a, b) => a.params - b.params);
+  const find = (method: string, key: string | undefined, path: string) => {
+    if (key && byRoute.has(key)) return key;
+    return patterns.find((p) => p.method === method && p.re.test(path))?.key;
+  };
 
   return (req, res, next) => {
     const json = res.json.bind(res);
@@ -21,7 +30,8 @@ export function contractCheck(groups: RouteGroup[] = allGroups): RequestHandler 
       const wire: unknown = body === undefined ? undefined : JSON.parse(JSON.stringify(body));
       const status = res.statusCode;
       const routePath = typeof req.route?.path === 'string' ? req.route.path : undefined;
-      const key = routePath === undefined ? undefined : `${req.method} ${req.baseUrl}${routePath === '/' && req.baseUrl ? '' : routePath}`;
+      const matched = routePath === undefined ? undefined : `${req.method} ${req.baseUrl}${routePath === '/' && req.baseUrl ? '' : routePath}`;
+      const key = routePath === undefined ? undefined : find(req.method, matched, req.baseUrl + req.path);
       const contract = key ? byRoute.get(key) : undefined;
       const violation = (message: string, details: Record<string, unknown>) => {
         res.status(500);

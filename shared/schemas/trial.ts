@@ -3,7 +3,7 @@ import '../messages.ts';
 import { fastnessSchema } from './fastness.ts';
 import { DRY_MASS_BASES } from '../compute/moisture.ts';
 import { LOAD_METALS } from '../compute/chemistry.ts';
-import { idParams, pageQuery, paged } from './common.ts';
+import { pageQuery, paged } from './common.ts';
 import { PHOTO_VIEWS } from './photo.ts';
 import { chemicalSchema } from './reference.ts';
 
@@ -164,7 +164,6 @@ export const measurementSchema = labSchema.extend({
 });
 export type MeasurementInput = z.input<typeof measurementSchema>;
 
-export { idParams };
 export const childParams = z.object({ id, childId: id });
 
 /** GET /api/pieces/:id/trials: the piece's trials, 100 to a page. */

@@ -69,6 +69,7 @@ describe('the document from contracts', () => {
 describe('contract check (tests only)', () => {
   const group = defineRoutes('things', [
     { method: 'get', path: '/api/things/:id', summary: 'One', roles: 'anyone', responses: { 200: z.object({ id: z.number(), at: z.iso.datetime() }) } },
+    { method: 'get', path: '/api/things/:id/parts', summary: 'Parts', roles: 'anyone', responses: { 200: z.object({ parts: z.array(z.string()) }) } },
   ]);
   const mini = express();
   mini.use('/api', contractCheck([group]));
@@ -80,6 +81,9 @@ describe('contract check (tests only)', () => {
     else res.status(404).json({ error: { code: 'not_found', message: 'Thing not found.' } });
   });
   things.get('/:id/free', (_req, res) => res.json({ anything: true }));
+  const parts = express.Router({ mergeParams: true });
+  parts.get('/', (_req, res) => res.json({ parts: [1, 2] }));
+  things.use('/:id/parts', parts);
   mini.use('/api/things', things);
 
   it('lets an answer through that its schema describes (dates as serialised)', async () => {
@@ -91,6 +95,10 @@ describe('contract check (tests only)', () => {
     expect(res.body.error.code).toBe('contract_violation');
     expect(res.body.error.details.route).toBe('GET /api/things/:id');
     expect(res.body.error.details.issues.map((i: { path: string[] }) => i.path.join('.')).sort()).toEqual(['at', 'id']);
+  });
+  it('finds the contract of a router mounted on a path with a parameter', async () => {
+    const res = await request(mini).get('/api/things/7/parts').expect(500);
+    expect(res.body.error.details.route).toBe('GET /api/things/:id/parts');
   });
   it('refuses a status the contract does not list', async () => {
     const res = await request(mini).get('/api/things/3').expect(500);

@@ -1,5 +1,6 @@
 import { Router } from 'express';
-import { idParams, pieceTrialsQuery, trialCreateSchema } from '../../../shared/schemas/trial.ts';
+import { idParams } from '../../../shared/schemas/common.ts';
+import { pieceTrialsQuery, trialCreateSchema } from '../../../shared/schemas/trial.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseParams, parseQuery } from '../../http/validate.ts';
