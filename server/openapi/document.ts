@@ -39,7 +39,11 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
     delete js.$schema;
     const defs = js.$defs as Record<string, Json> | undefined;
     delete js.$defs;
-    const rename = (name: string) => `${prefix}_${name}`.replace(/[^A-Za-z0-9._-]/g, '_');
+    // A schema named in shared/schemas (`.meta({ id: 'TrialDetail' })`) becomes one shared component;
+    // zod's own names for repeated parts (`__schema0`) are kept apart per operation.
+    const names = new Map<string, string>();
+    for (const name of Object.keys(defs ?? {})) if (!name.startsWith('__')) names.set(name, io === 'input' ? `${name}Input` : name);
+    const rename = (name: string) => names.get(name) ?? `${prefix}_${name}`.replace(/[^A-Za-z0-9._-]/g, '_');
     const rewrite = (node: unknown): unknown => {
       if (Array.isArray(node)) return node.map(rewrite);
       if (node && typeof node === 'object') {
@@ -51,7 +55,12 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
       }
       return node;
     };
-    if (defs) for (const [name, def] of Object.entries(defs)) into[rename(name)] = rewrite(def) as Json;
+    for (const [name, def] of Object.entries(defs ?? {})) {
+      const key = rename(name);
+      const out = rewrite(def) as Json;
+      if (names.has(name) && key in into && JSON.stringify(into[key]) !== JSON.stringify(out)) throw new Error(`two different schemas are named ${key} in shared/schemas`);
+      into[key] = out;
+    }
     return rewrite(js) as Json;
   }
 

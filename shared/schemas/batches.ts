@@ -208,3 +208,8 @@ export type BatchSummary = z.infer<typeof batchSummarySchema>;
 export type BatchDetail = z.infer<typeof batchDetailSchema>;
 export type BatchEventOut = z.infer<typeof batchEventOutSchema>;
 export type BatchList = z.infer<typeof batchListResponse>;
+
+// Named components of the OpenAPI document (server/openapi/document.ts).
+z.globalRegistry.add(batchSummarySchema, { id: 'BatchSummary' });
+z.globalRegistry.add(batchDetailSchema, { id: 'BatchDetail' });
+z.globalRegistry.add(batchEventOutSchema, { id: 'BatchEvent' });

@@ -70,7 +70,7 @@ export const chemicalSchema = z.object({
   ghs: ghsSchema,
   source: z.string(),
   atomicWeightsSource: z.string().nullable(),
-});
+}).meta({ id: 'Chemical' });
 
 export const dyestuffSchema = z.object({
   id: z.number(),
@@ -80,7 +80,7 @@ export const dyestuffSchema = z.object({
   species: z.string().nullable(),
   dyeClass: z.string().nullable(),
   source: z.string(),
-});
+}).meta({ id: 'Dyestuff' });
 
 export type Ghs = z.infer<typeof ghsSchema>;
 export type ChemicalView = z.infer<typeof chemicalSchema>;

@@ -131,3 +131,7 @@ export type SeriesList = z.infer<typeof seriesListResponse>;
 export type SeriesPreview = z.infer<typeof seriesPreviewAnswer>;
 export type SeriesTrialsAnswer = z.infer<typeof seriesTrialsAnswer>;
 
+
+// Named components of the OpenAPI document (server/openapi/document.ts).
+z.globalRegistry.add(seriesSummarySchema, { id: 'SeriesSummary' });
+z.globalRegistry.add(seriesDetailSchema, { id: 'SeriesDetail' });

@@ -375,3 +375,12 @@ export const pieceTrialsResponse = trialListResponse.extend({
   targets: z.object({ measurements: z.array(measurementOutSchema) }),
 });
 export type PieceTrials = z.infer<typeof pieceTrialsResponse>;
+
+// Named components of the OpenAPI document (server/openapi/document.ts).
+z.globalRegistry.add(trialSummarySchema, { id: 'TrialSummary' });
+z.globalRegistry.add(trialDetailSchema, { id: 'TrialDetail' });
+z.globalRegistry.add(trialColourSchema, { id: 'TrialColour' });
+z.globalRegistry.add(measurementOutSchema, { id: 'Measurement' });
+z.globalRegistry.add(substitutionOutSchema, { id: 'Substitution' });
+z.globalRegistry.add(metalLoadSchema, { id: 'MetalLoad' });
+z.globalRegistry.add(differenceSchema, { id: 'ColourDifference' });
