@@ -1,9 +1,11 @@
 import { existsSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import path from 'node:path';
 import express from 'express';
 import helmet from 'helmet';
 import '../shared/messages.ts'; // zod speaks in people's words (details.fields of every 400)
-import { ROOT_DIR, env, publicUrl } from './env.ts';
+import { ROOT_DIR, env, isTest, publicUrl } from './env.ts';
+import { contractCheck } from './http/contract.ts';
 import { apiNotFound, errorHandler } from './http/errors.ts';
 import { originCheck } from './http/origin-check.ts';
 import { apiRouter } from './routes/index.ts';
@@ -44,6 +46,11 @@ export function createApp(options: AppOptions = {}) {
   app.use(passport.initialize());
   app.use(passport.session());
 
+  // In tests every JSON answer of an /api route is checked against its contract (server/openapi/groups/).
+  if (isTest) app.use('/api', contractCheck());
+  // The API reference: our page and initializer (server/openapi/docs/), then Swagger UI's files from swagger-ui-dist.
+  app.use('/api/docs', express.static(path.join(ROOT_DIR, 'server/openapi/docs')));
+  app.use('/api/docs', express.static(path.dirname(createRequire(import.meta.url).resolve('swagger-ui-dist/package.json')), { index: false }));
   app.use('/api', apiRouter());
   app.use('/api', apiNotFound);
   app.use('/iiif', iiifRouter);

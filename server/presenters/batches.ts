@@ -1,10 +1,10 @@
-import { DISPOSAL_NOTICE, DRAW_ONLY_KINDS } from '../../shared/schemas/batches.ts';
+import { DISPOSAL_NOTICE, DRAW_ONLY_KINDS, type BatchDetail, type BatchEventOut, type BatchSummary } from '../../shared/schemas/batches.ts';
 import { madeByReaction } from '../../shared/compute/stoichiometry.ts';
 import type { ChemicalView } from '../../shared/schemas/reference.ts';
 import type { BatchEvent, MordantBatch } from '../models/index.ts';
 import type { Figures } from '../services/batches/ledger-figures.ts';
 
-export const presentBatchEvent = (e: BatchEvent, trialCodes: ReadonlyMap<number, string> = new Map()) => ({
+export const presentBatchEvent = (e: BatchEvent, trialCodes: ReadonlyMap<number, string> = new Map()): BatchEventOut => ({
   id: e.id, type: e.type, volumeMl: e.volumeMl, fibreMassG: e.fibreMassG, trialId: e.trialId, stepId: e.stepId ?? null, trialCode: e.trialId ? (trialCodes.get(e.trialId) ?? null) : null, additions: e.additions, ph: e.ph,
   result: e.result, route: e.route, ruleFollowed: e.ruleFollowed, notes: e.notes, occurredAt: e.occurredAt.toISOString(), createdById: e.createdById,
 });
@@ -13,16 +13,16 @@ const STRIP_REASONS = { 'low-strength': 'the estimated strength is below half th
 
 const today = () => new Date().toISOString().slice(0, 10);
 
-export function presentBatchSummary(b: MordantBatch, f: Figures) {
+export function presentBatchSummary(b: MordantBatch, f: Figures): BatchSummary {
   return {
     id: b.id, code: b.code, kind: b.kind, name: b.name, volumeMl: b.volumeMl, status: b.status, madeOn: b.madeOn, madeById: b.madeById,
     checkBy: b.checkBy, dueForCheck: b.status === 'active' && b.checkBy != null && b.checkBy <= today(), parentId: b.parentId,
     remainingMl: f.remainingMl, uses: f.uses, fibreMassG: f.fibreMassG,
-    estimatedStrength: { value: f.estimatedStrength, estimate: true, basis: 'relative to the bath as made (1 = as made), from the uptake per use the dyer set; an estimate, not a measurement' },
+    estimatedStrength: { value: f.estimatedStrength, estimate: true as const, basis: 'relative to the bath as made (1 = as made), from the uptake per use the dyer set; an estimate, not a measurement' },
   };
 }
 
-export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], extra: { trialCodes: ReadonlyMap<number, string>; cautions: ChemicalView[]; parent: { id: number; code: string } | null; children: Array<{ id: number; code: string; name: string }>; abilities: Record<string, boolean> }) {
+export function presentBatch(b: MordantBatch, f: Figures, events: BatchEvent[], extra: { trialCodes: ReadonlyMap<number, string>; cautions: ChemicalView[]; parent: { id: number; code: string } | null; children: Array<{ id: number; code: string; name: string }>; abilities: Record<string, boolean> }): BatchDetail {
   return {
     ...presentBatchSummary(b, f),
     ingredients: b.ingredients, thickenerGPerL: b.thickenerGPerL, ph: b.ph, uptakePerUse: b.uptakePerUse, notes: b.notes,
@@ -56,7 +56,7 @@ function made(b: MordantBatch, strength: number) {
   if (!m) return null;
   return {
     reaction: m.reaction,
-    active: { name: m.active.name, formula: m.active.formula, grams: r2(m.active.grams), gPerL: r2(m.active.gPerL), nowGPerL: { value: r2(m.active.gPerL * strength), estimate: true } },
+    active: { name: m.active.name, formula: m.active.formula, grams: r2(m.active.grams), gPerL: r2(m.active.gPerL), nowGPerL: { value: r2(m.active.gPerL * strength), estimate: true as const } },
     metal: m.metal ? { symbol: m.metal.symbol, gPerL: r2(m.metal.gPerL) } : null,
     limiting: m.limiting,
     excess: m.excess.map((x) => ({ name: x.name, grams: r2(x.grams) })),
@@ -66,6 +66,4 @@ function made(b: MordantBatch, strength: number) {
   };
 }
 
-export type BatchSummary = ReturnType<typeof presentBatchSummary>;
-export type BatchDetail = ReturnType<typeof presentBatch>;
-export type BatchEventOut = ReturnType<typeof presentBatchEvent>;
+export type { BatchDetail, BatchEventOut, BatchSummary };

@@ -1,4 +1,5 @@
 import type { Cell, MaterialsList } from '../../shared/compute/series.ts';
+import type { SeriesDetail, SeriesSummary } from '../../shared/schemas/series.ts';
 import type { Trial, TrialSeries } from '../models/index.ts';
 import { cellKey, cellRecipe, cellRecipes, expand, gramsFromOwf, materialsList, roundTo, type StoredFactor } from '../services/series/plan.ts';
 
@@ -8,11 +9,11 @@ const tidy = (m: MaterialsList['total']) => ({
   fibreG: roundTo(m.fibreG, 2), bathL: roundTo(m.bathL, 3), bathLWithAllowance: roundTo(m.bathLWithAllowance, 3),
 });
 
-export const presentSeriesSummary = (s: TrialSeries) => ({
+export const presentSeriesSummary = (s: TrialSeries): SeriesSummary => ({
   id: s.id, code: s.code, title: s.title, kind: s.kind, heldOn: s.heldOn, cellCount: s.cells.length, participantCount: s.participants.length, dryMassG: s.dryMassG,
 });
 
-export function presentSeries(s: TrialSeries, trials: Trial[], abilities: Record<string, boolean>) {
+export function presentSeries(s: TrialSeries, trials: Trial[], abilities: Record<string, boolean>): SeriesDetail {
   const factors = s.factors as StoredFactor[];
   const kept = new Set((s.cells as Cell[]).map((c) => cellKey(c)));
   const dry = s.dryMassG ?? 0;
@@ -37,5 +38,4 @@ export function presentSeries(s: TrialSeries, trials: Trial[], abilities: Record
   };
 }
 
-export type SeriesSummary = ReturnType<typeof presentSeriesSummary>;
-export type SeriesDetail = ReturnType<typeof presentSeries>;
+export type { SeriesDetail, SeriesSummary };

@@ -7,9 +7,9 @@ import { incompatibleInStep } from '../../shared/compute/incompatible.ts';
 import { trialMetalLoad } from '../../shared/trials/metal-load.ts';
 import { isHazardous } from './chemical-caution.ts';
 import { presentChemical } from './reference.ts';
-import type { trialColour } from '../services/trials/colour.ts';
+import type { MeasurementView, StepWarning, TrialColourOut, TrialSummaryView, TrialView } from '../../shared/schemas/trial.ts';
 
-type Colour = Awaited<ReturnType<typeof trialColour>>;
+type Colour = TrialColourOut;
 const TRIAL_ACTIONS = ['trial:update', 'trial:delete'] as const;
 
 export const trialPolicyRecord = (t: Trial) => ({ ownerId: t.dyerId });
@@ -17,11 +17,9 @@ export const trialPolicyRecord = (t: Trial) => ({ ownerId: t.dyerId });
 const pieceRef = (p: Piece | null | undefined) => (p ? { id: p.id, accessionNumber: p.accessionNumber, title: p.title, createdById: p.createdById } : null);
 const userRef = (u: User | null | undefined) => (u ? { id: u.id, name: u.name } : null);
 
-export type StepWarning =
-  | { code: 'historical-only-in-modern'; chemicalId: number; name: string; message: string }
-  | { code: 'incompatible-mix'; pair: string; chemicals: Array<{ id: number; name: string }>; message: string; hazard: string; source: string };
+export type { MeasurementView, StepWarning, TrialSummaryView, TrialView };
 
-export function presentTrialSummary(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, colour: Colour | null) {
+export function presentTrialSummary(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, colour: Colour | null): TrialSummaryView {
   return {
     id: t.id,
     code: t.code,
@@ -60,7 +58,7 @@ type DetailParts = {
   colour: Colour;
 };
 
-export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, parts: DetailParts) {
+export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | null }, actor: Actor, parts: DetailParts): TrialView {
   const roles = new Map([...parts.chemicals].map(([id, c]) => [id, c.role as string]));
   // Every % owf is of the air-dry (commercial) mass: an oven-dry mass is brought to it with the fibre's regain.
   const mass = trialRecipeMass(t);
@@ -93,7 +91,7 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
       temperatureC: s.temperatureC,
       minutes: s.minutes,
       ph: s.ph,
-      paste: q.paste,
+      paste: q.paste && { volumeMl: q.paste.volumeMl, stockGPerL: q.paste.stockGPerL ?? null },
       batchId: s.batchId,
       batch: s.batchId != null ? parts.batches.get(s.batchId) ?? null : null,
       batchVolumeMl: s.batchVolumeMl,
@@ -129,7 +127,7 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
       modernAmountG: s.modernAmountG,
       /** The modern amount used in the metal load: as entered, or from the recipe step. */
       modernAmountUsedG: s.modernAmountG ?? modernFromRecipe,
-      modernAmountFrom: s.modernAmountG != null ? 'entered' : modernFromRecipe != null ? 'recipe' : null,
+      modernAmountFrom: s.modernAmountG != null ? ('entered' as const) : modernFromRecipe != null ? ('recipe' as const) : null,
       reason: s.reason,
       notes: s.notes,
     };
@@ -182,11 +180,8 @@ export function presentTrial(t: Trial & { piece?: Piece | null; dyer?: User | nu
   };
 }
 
-export const presentMeasurement = (m: ColourMeasurement) => ({
+export const presentMeasurement = (m: ColourMeasurement): MeasurementView => ({
   id: m.id, L: m.L, a: m.a, b: m.b, illuminant: m.illuminant, observer: m.observer, geometry: m.geometry, specular: m.specular,
   instrument: m.instrument, label: m.label, takenOn: m.takenOn, source: m.source,
 });
 
-export type TrialSummaryView = ReturnType<typeof presentTrialSummary>;
-export type TrialView = ReturnType<typeof presentTrial>;
-export type MeasurementView = ReturnType<typeof presentMeasurement>;

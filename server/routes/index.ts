@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import { isProduction } from '../env.ts';
 import { healthRouter } from './health/index.ts';
+import { openapiRouter } from './openapi/index.ts';
 import { authRouter } from './auth/index.ts';
 import { chemicalsRouter, dyestuffsRouter } from './reference/index.ts';
 import { invitationsRouter } from './invitations/index.ts';
@@ -24,6 +25,7 @@ import { searchRouter } from './search/index.ts';
 export function apiRouter() {
   const router = Router();
   router.use('/health', healthRouter);
+  router.use('/openapi.json', openapiRouter);
   router.use('/chemicals', chemicalsRouter);
   router.use('/dyestuffs', dyestuffsRouter);
   router.use('/auth', authRouter());

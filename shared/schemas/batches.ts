@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import '../messages.ts';
+import { pageQuery, paged } from './common.ts';
+import { chemicalSchema } from './reference.ts';
 
 export const BATCH_KINDS = ['mordant-bath', 'print-paste', 'dye-bath', 'vat', 'stock'] as const;
 export type BatchKindName = (typeof BATCH_KINDS)[number];
@@ -77,9 +79,7 @@ export const batchListQuery = z.object({
   status: z.enum(BATCH_STATUSES).optional(),
   kind: z.enum(BATCH_KINDS).optional(),
   due: z.enum(['1', 'true']).optional(),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(50),
-});
+}).extend(pageQuery(50).shape);
 
 /** One ledger event; which fields are required depends on its type. */
 export const batchEventSchema = z
@@ -118,3 +118,98 @@ export type BatchEventInput = z.infer<typeof batchEventSchema>;
 /** Said wherever disposal comes up; the product gives no disposal advice of its own. */
 export const DISPOSAL_NOTICE =
   'Dispose of spent baths only as your local regulations and the supplier’s safety data sheet require; where they call for it, use a licensed waste contractor. Tinctoria gives no disposal advice of its own.';
+
+// ---- Answers (presenters in server/presenters/batches.ts declare their return types from these) ----
+
+const num = z.number();
+const nnum = z.number().nullable();
+const nstr = z.string().nullable();
+const batchIngredientOut = z.object({ kind: z.enum(['dyestuff', 'chemical']), refId: num, name: z.string(), grams: num });
+
+export const batchEventOutSchema = z.object({
+  id: num,
+  type: z.enum(BATCH_EVENT_TYPES),
+  volumeMl: nnum,
+  fibreMassG: nnum,
+  trialId: nnum,
+  stepId: nnum,
+  trialCode: nstr,
+  additions: z.array(batchIngredientOut).nullable(),
+  ph: nnum,
+  result: nstr,
+  route: nstr,
+  ruleFollowed: nstr,
+  notes: nstr,
+  occurredAt: z.iso.datetime(),
+  createdById: nnum,
+});
+
+export const batchSummarySchema = z.object({
+  id: num,
+  code: z.string(),
+  kind: z.enum(BATCH_KINDS),
+  name: z.string(),
+  volumeMl: num,
+  status: z.enum(BATCH_STATUSES),
+  madeOn: z.string(),
+  madeById: nnum,
+  checkBy: nstr,
+  dueForCheck: z.boolean(),
+  parentId: nnum,
+  remainingMl: num,
+  uses: num,
+  fibreMassG: num,
+  /** Relative to the bath as made (1 = as made): an estimate from the ledger, not a measurement. */
+  estimatedStrength: z.object({ value: num, estimate: z.literal(true), basis: z.string() }),
+});
+
+export const batchDetailSchema = batchSummarySchema.extend({
+  ingredients: z.array(batchIngredientOut),
+  thickenerGPerL: nnum,
+  ph: nnum,
+  uptakePerUse: num,
+  notes: nstr,
+  /** madeByReaction (shared/compute/stoichiometry.ts), rounded; null when the charge does not react. */
+  made: z
+    .object({
+      reaction: z.string(),
+      active: z.object({ name: z.string(), formula: z.string(), grams: num, gPerL: num, nowGPerL: z.object({ value: num, estimate: z.literal(true) }) }),
+      metal: z.object({ symbol: z.string(), gPerL: num }).nullable(),
+      limiting: z.string(),
+      excess: z.array(z.object({ name: z.string(), grams: num })),
+      byProducts: z.array(z.object({ name: z.string(), grams: num, fate: z.enum(['solution', 'precipitate']) })),
+      note: z.string(),
+      source: z.string(),
+    })
+    .nullable(),
+  uptake: z.object({ value: num, referenceLoadG: nnum, estimate: z.literal(true), drawOnly: z.boolean(), basis: z.string() }),
+  topUpSuggestion: z
+    .object({
+      items: z.array(z.object({ name: z.string(), refId: nnum, grams: num, thickener: z.boolean() })),
+      waterMl: num,
+      volumeAfterMl: num,
+      usesSinceTopUp: num,
+      rule: z.string(),
+    })
+    .nullable(),
+  testStripPrompt: nstr,
+  timeline: z.array(z.object({ eventId: nnum, at: z.iso.datetime(), type: z.enum(['made', ...BATCH_EVENT_TYPES]), remainingMl: num, strength: num })),
+  events: z.array(batchEventOutSchema),
+  cautions: z.array(chemicalSchema),
+  parent: z.object({ id: num, code: z.string() }).nullable(),
+  children: z.array(z.object({ id: num, code: z.string(), name: z.string() })),
+  disposalNotice: z.string(),
+  abilities: z.record(z.string(), z.boolean()),
+});
+
+export const batchListResponse = paged(batchSummarySchema);
+export const batchEventAnswer = z.object({ event: batchEventOutSchema, batch: batchDetailSchema });
+export type BatchSummary = z.infer<typeof batchSummarySchema>;
+export type BatchDetail = z.infer<typeof batchDetailSchema>;
+export type BatchEventOut = z.infer<typeof batchEventOutSchema>;
+export type BatchList = z.infer<typeof batchListResponse>;
+
+// Named components of the OpenAPI document (server/openapi/document.ts).
+z.globalRegistry.add(batchSummarySchema, { id: 'BatchSummary' });
+z.globalRegistry.add(batchDetailSchema, { id: 'BatchDetail' });
+z.globalRegistry.add(batchEventOutSchema, { id: 'BatchEvent' });

@@ -96,7 +96,6 @@ export const pieceListQuery = pageQuery(25).extend({
 export type PieceListQuery = z.infer<typeof pieceListQuery>;
 
 /** A piece's trials (GET /api/pieces/:id/trials): one page of 100 unless asked otherwise. */
-export const pieceTrialsQuery = pageQuery(100);
 
 // ---- Responses (server/presenters/piece.ts returns these types; tsc checks the presenter against them) ----
 
@@ -179,18 +178,6 @@ export type PieceListResponse = z.infer<typeof pieceListResponse>;
 export type PieceResponse = z.infer<typeof pieceResponse>;
 export type PieceDetailResponse = z.infer<typeof pieceDetailResponse>;
 export type PieceHistoryResponse = z.infer<typeof pieceHistoryResponse>;
-
-/**
- * A piece's trials page: the piece's trials (paged), the piece itself and its instrument readings as
- * trial targets. The trial and measurement items are the trials group's (server/presenters/trial.ts);
- * only the fields this page relies on are named here, the rest pass through.
- */
-export const pieceTrialsResponse = paged(z.looseObject({ id: z.number(), code: z.string() })).extend({
-  piece: z.object({ id: z.number(), accessionNumber: z.string(), title: z.string() }),
-  targets: z.object({ measurements: z.array(z.looseObject({ id: z.number(), L: z.number(), a: z.number(), b: z.number(), illuminant: z.string(), observer: z.string() })) }),
-});
-/** A trial attached to the piece (POST /api/pieces/:id/trials); the trial is the trials group's detail. */
-export const pieceTrialCreatedResponse = z.object({ trial: z.looseObject({ id: z.number(), code: z.string() }), notified: z.boolean() });
 
 /** The Dublin Core record of a piece (JSON-LD, dcterms); fields without a value (and empty lists) are left out. */
 export const dublinCoreSchema = z.looseObject({

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import '../messages.ts';
+import { pageQuery, paged } from './common.ts';
 import { FormulaError, parseFormula, type Composition } from '../compute/chemistry.ts';
 
 /** The parser's fault in people's words with its position ("Unexpected "x" at position 7"), or null when the formula reads. */
@@ -35,14 +36,11 @@ export const HAZARD_BASIS_LABELS: Record<HazardBasis, string> = {
   memory: "Recalled from memory — check the supplier's safety data sheet",
 };
 
-export const idParams = z.object({ id: z.coerce.number().int().positive('Give a numeric id') });
-
-export const chemicalListQuery = z.object({
+/** The whole reference fits a page of 200 (the forms' pickers ask for it all), 100 unless asked. */
+export const chemicalListQuery = pageQuery(100, 200).extend({
   role: z.enum(CHEMICAL_ROLES).optional(),
   status: z.enum(CHEMICAL_STATUSES).optional(),
   q: z.string().trim().max(100).optional(),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(100),
 });
 export const dyestuffListQuery = chemicalListQuery.pick({ q: true, page: true, pageSize: true });
 
@@ -72,7 +70,7 @@ export const chemicalSchema = z.object({
   ghs: ghsSchema,
   source: z.string(),
   atomicWeightsSource: z.string().nullable(),
-});
+}).meta({ id: 'Chemical' });
 
 export const dyestuffSchema = z.object({
   id: z.number(),
@@ -82,13 +80,16 @@ export const dyestuffSchema = z.object({
   species: z.string().nullable(),
   dyeClass: z.string().nullable(),
   source: z.string(),
-});
+}).meta({ id: 'Dyestuff' });
 
 export type Ghs = z.infer<typeof ghsSchema>;
 export type ChemicalView = z.infer<typeof chemicalSchema>;
 export type DyestuffView = z.infer<typeof dyestuffSchema>;
 export type ChemicalListQuery = z.infer<typeof chemicalListQuery>;
-export type Paged<T> = { items: T[]; total: number; page: number; pageSize: number };
+export const chemicalListResponse = paged(chemicalSchema);
+export const dyestuffListResponse = paged(dyestuffSchema);
+export type ChemicalList = z.infer<typeof chemicalListResponse>;
+export type DyestuffList = z.infer<typeof dyestuffListResponse>;
 
 const formulaField = z
   .string()

@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import '../messages.ts';
+import { pageQuery, paged } from './common.ts';
+import { BASES, OPERATIONS, TRIAL_STATUSES } from './trial.ts';
 
 /** A mordant level: which chemical, and how much of it in % owf. */
 export const mordantLevelSchema = z.object({
@@ -57,8 +59,79 @@ export const seriesUpdateSchema = z
   .refine(oneTarget, oneTargetIssue);
 export type SeriesUpdateInput = z.infer<typeof seriesUpdateSchema>;
 
-export const seriesListQuery = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(50),
+export const seriesListQuery = pageQuery(50);
+
+/** POST /api/series/preview: the cells a set of factors would make, before anything is saved. */
+export const seriesPreviewSchema = z.object({ factors: z.array(factorSchema).min(1).max(6) });
+
+// ---- Answers (presenters in server/presenters/series.ts declare their return types from these) ----
+
+const num = z.number();
+const nnum = z.number().nullable();
+const nstr = z.string().nullable();
+const cellSchema = z.record(z.string(), z.string());
+
+export const seriesSummarySchema = z.object({
+  id: num,
+  code: z.string(),
+  title: z.string(),
+  kind: z.enum(['series', 'workshop']),
+  heldOn: nstr,
+  cellCount: num,
+  participantCount: num,
+  dryMassG: nnum,
 });
 
+const materialLines = z.object({
+  lines: z.array(z.object({ kind: z.enum(['dyestuff', 'chemical']), refId: nnum, name: z.string(), grams: num, gramsWithAllowance: num })),
+  fibreG: num,
+  bathL: num,
+  bathLWithAllowance: num,
+});
+
+export const seriesDetailSchema = seriesSummarySchema.extend({
+  pieceId: nnum,
+  target: z.object({ paletteColourId: nnum, regionId: nnum, measurementId: nnum }),
+  factors: z.array(
+    z.object({
+      name: z.string(),
+      levels: z.array(z.string()),
+      role: z.enum(['dyestuff', 'tannin', 'mordant', 'other']).optional(),
+      refId: nnum.optional(),
+      refName: nstr.optional(),
+      mordants: z.array(z.object({ level: z.string(), chemicals: z.array(z.object({ refId: nnum, name: z.string(), owf: num })) })).optional(),
+    }),
+  ),
+  participants: z.array(z.string()),
+  deadVolumePct: num,
+  liquorRatio: num,
+  notes: nstr,
+  ownerId: nnum,
+  cells: z.array(
+    z.object({
+      key: z.string(),
+      cell: cellSchema,
+      kept: z.boolean(),
+      recipe: z.array(z.object({ operation: z.enum(OPERATIONS), ingredients: z.array(z.object({ kind: z.enum(['dyestuff', 'chemical']), refId: num, name: z.string(), amount: num, basis: z.enum(BASES), grams: num })) })),
+    }),
+  ),
+  keptCount: num,
+  /** Materials for the kept cells with the dead-volume allowance (shared/compute/series.ts); null without a dry mass. */
+  materials: z.object({ deadVolumePct: num, unresolved: z.array(z.string()), whole: materialLines, perParticipant: z.array(materialLines.extend({ code: z.string() })) }).nullable(),
+  trials: z.array(z.object({ id: num, code: z.string(), status: z.enum(TRIAL_STATUSES), cell: cellSchema.nullable(), dryMassG: num })),
+  abilities: z.record(z.string(), z.boolean()),
+});
+
+export const seriesListResponse = paged(seriesSummarySchema);
+export const seriesPreviewAnswer = z.object({ count: num, cells: z.array(cellSchema) });
+export const seriesTrialsAnswer = z.object({ created: z.array(z.object({ id: num, code: z.string(), cell: cellSchema.nullable() })), series: seriesDetailSchema });
+export type SeriesSummary = z.infer<typeof seriesSummarySchema>;
+export type SeriesDetail = z.infer<typeof seriesDetailSchema>;
+export type SeriesList = z.infer<typeof seriesListResponse>;
+export type SeriesPreview = z.infer<typeof seriesPreviewAnswer>;
+export type SeriesTrialsAnswer = z.infer<typeof seriesTrialsAnswer>;
+
+
+// Named components of the OpenAPI document (server/openapi/document.ts).
+z.globalRegistry.add(seriesSummarySchema, { id: 'SeriesSummary' });
+z.globalRegistry.add(seriesDetailSchema, { id: 'SeriesDetail' });

@@ -2,6 +2,10 @@ import { z } from 'zod';
 import '../messages.ts';
 import { fastnessSchema } from './fastness.ts';
 import { DRY_MASS_BASES } from '../compute/moisture.ts';
+import { LOAD_METALS } from '../compute/chemistry.ts';
+import { pageQuery, paged } from './common.ts';
+import { PHOTO_VIEWS } from './photo.ts';
+import { chemicalSchema } from './reference.ts';
 
 // Shared by the server's validation and the client's forms; types come from z.infer.
 
@@ -90,9 +94,7 @@ export const trialListQuerySchema = z.object({
   pieceId: id.optional(),
   dyerId: id.optional(),
   mine: z.enum(['1', '0']).optional(),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(25),
-});
+}).extend(pageQuery(25).shape);
 export type TrialListQuery = z.input<typeof trialListQuerySchema>;
 
 export const ingredientSchema = z.object({
@@ -162,5 +164,223 @@ export const measurementSchema = labSchema.extend({
 });
 export type MeasurementInput = z.input<typeof measurementSchema>;
 
-export const idParams = z.object({ id });
 export const childParams = z.object({ id, childId: id });
+
+/** GET /api/pieces/:id/trials: the piece's trials, 100 to a page. */
+export const pieceTrialsQuery = pageQuery(100);
+
+/** PUT /api/colour/verdict-bands: ΔE00 upper bounds that rise, with their source. */
+const bandLimit = z.number().positive().max(100);
+export const verdictBandsInput = z.object({
+  bands: z.object({ match: bandLimit, close: bandLimit, near: bandLimit }).refine((b) => b.match < b.close && b.close < b.near, { message: 'Bands must rise: match < close < near.' }),
+  source: z.string().trim().min(3, 'Say where the bands come from').max(255),
+});
+
+// ---- Answers (presenters in server/presenters/trial.ts declare their return types from these) ----
+
+const num = z.number();
+const nnum = z.number().nullable();
+const nstr = z.string().nullable();
+const lab = { L: num, a: num, b: num };
+const conditions = { illuminant: z.enum(ILLUMINANTS), observer: z.enum(OBSERVERS) };
+
+export const verdictBandsSchema = z.object({ match: num, close: num, near: num });
+export const verdictBandsAnswer = z.object({ bands: verdictBandsSchema, source: z.string() });
+
+/** differenceReport (shared/colour/difference.ts): ΔE00, CMC, components and the words. */
+export const differenceSchema = z.object({
+  deltaE00: num, cmc21: num, cmc11: num, deltaEab: num,
+  dL: num, dC: num, dH: num, dh: num, da: num, db: num,
+  words: z.array(z.string()),
+  verdict: z.enum(['match', 'close', 'near', 'different']),
+});
+export const colourDifferenceAnswer = differenceSchema.extend({
+  conditions: z.object({ illuminant: z.enum(ILLUMINANTS).nullable(), referenceObserver: z.enum(OBSERVERS).nullable(), sampleObserver: z.enum(OBSERVERS).nullable(), observersDiffer: z.boolean() }),
+  note: nstr,
+  bands: verdictBandsSchema,
+  bandsSource: z.string(),
+});
+
+export const resolvedColourSchema = z.object({
+  ...lab, ...conditions,
+  source: z.enum(['instrument', 'image-estimate']),
+  label: z.string(),
+  readings: nnum,
+  setAside: z.object({ ...lab, ...conditions, source: z.literal('image-estimate') }).nullable(),
+});
+/** trialColour (server/services/trials/colour.ts): target, result, their difference and the other comparisons. */
+export const trialColourSchema = z.object({
+  target: resolvedColourSchema.nullable(),
+  result: resolvedColourSchema.nullable(),
+  difference: differenceSchema.nullable(),
+  conditions: z.object({ illuminant: z.enum(ILLUMINANTS), targetObserver: z.enum(OBSERVERS), resultObserver: z.enum(OBSERVERS), observersDiffer: z.boolean() }).nullable(),
+  note: nstr,
+  missing: z.object({ ...conditions, message: z.string() }).nullable(),
+  results: z.array(resolvedColourSchema),
+  comparisons: z.array(z.object({ illuminant: z.enum(ILLUMINANTS), target: resolvedColourSchema, result: resolvedColourSchema, difference: differenceSchema, observersDiffer: z.boolean(), note: nstr, primary: z.boolean() })),
+  bandsSource: z.string(),
+});
+
+export const measurementOutSchema = z.object({
+  id: num, ...lab, illuminant: z.string(), observer: z.string(), geometry: nstr, specular: z.enum(['SCI', 'SCE']).nullable(),
+  instrument: nstr, label: nstr, takenOn: nstr, source: z.string(),
+});
+
+export const trialSummarySchema = z.object({
+  id: num,
+  code: z.string(),
+  kind: z.enum(TRIAL_KINDS),
+  status: z.enum(TRIAL_STATUSES),
+  piece: z.object({ id: num, accessionNumber: z.string(), title: z.string(), createdById: nnum }).nullable(),
+  dyer: z.object({ id: num, name: z.string() }).nullable(),
+  fibre: nstr,
+  dryMassG: num,
+  dryMassBasis: z.enum(DRY_MASS_BASES),
+  startedOn: nstr,
+  notes: nstr,
+  updatedAt: z.iso.datetime(),
+  colour: trialColourSchema.nullable(),
+  abilities: z.object({ 'trial:update': z.boolean(), 'trial:delete': z.boolean() }),
+});
+
+const chemRef = z.object({ id: num, name: z.string() });
+const historicalOnlyWarning = z.object({ code: z.literal('historical-only-in-modern'), chemicalId: num, name: z.string(), message: z.string() });
+const incompatibleMixWarning = z.object({ code: z.literal('incompatible-mix'), pair: z.string(), chemicals: z.array(chemRef), message: z.string(), hazard: z.string(), source: z.string() });
+export const stepWarningSchema = z.discriminatedUnion('code', [historicalOnlyWarning, incompatibleMixWarning]);
+const atStep = { stepPosition: num };
+export const positionedStepWarningSchema = z.discriminatedUnion('code', [historicalOnlyWarning.extend(atStep), incompatibleMixWarning.extend(atStep)]);
+
+/** computeStep (shared/trials/quantities.ts) with pasteMakeUp (shared/compute/paste.ts). */
+export const stepComputedSchema = z.object({
+  volumeL: nnum,
+  ingredients: z.array(z.object({ grams: nnum, gPerL: nnum, percentOwf: nnum })),
+  missing: z.array(nstr),
+  paste: z
+    .object({
+      finalVolumeMl: num,
+      mordants: z.array(z.object({ name: z.string(), gPerL: num, grams: num, stockMl: nnum })),
+      thickener: z
+        .object({ name: z.string(), gPerL: num, grams: num, usualRange: z.object({ kind: z.string(), label: z.string(), min: num, max: num, source: z.string() }).nullable(), outsideUsualRange: z.boolean() })
+        .nullable(),
+      waterMl: num,
+    })
+    .nullable(),
+  pasteProblem: nstr,
+});
+
+export const trialStepOutSchema = z.object({
+  id: num,
+  position: num,
+  operation: z.enum(OPERATIONS),
+  ingredients: z.array(z.object({ kind: z.enum(['dyestuff', 'chemical']), refId: num, amount: num, basis: z.enum(BASES), name: z.string() })),
+  liquorRatio: nnum,
+  temperatureC: nnum,
+  minutes: nnum,
+  ph: nnum,
+  paste: z.object({ volumeMl: num, stockGPerL: nnum }).nullable(),
+  batchId: nnum,
+  batch: z.object({ id: num, code: z.string(), name: z.string(), status: z.string(), remainingMl: num }).nullable(),
+  batchVolumeMl: nnum,
+  notes: nstr,
+  computed: stepComputedSchema,
+  cautions: z.array(chemicalSchema),
+  warnings: z.array(stepWarningSchema),
+  historicalUse: z.object({ reason: nstr, confirmedBy: z.object({ id: num, name: nstr }).nullable(), confirmedAt: z.iso.datetime() }).nullable(),
+});
+
+export const substitutionOutSchema = z.object({
+  id: num,
+  stepId: nnum,
+  stepPosition: nnum,
+  historicalChemical: chemicalSchema.nullable(),
+  historicalPractice: nstr,
+  historicalAmountG: nnum,
+  modernChemical: chemicalSchema.nullable(),
+  modernPractice: nstr,
+  modernAmountG: nnum,
+  /** The modern amount used in the metal load: as entered, or from the recipe step. */
+  modernAmountUsedG: nnum,
+  modernAmountFrom: z.enum(['entered', 'recipe']).nullable(),
+  reason: z.enum(REASONS),
+  notes: nstr,
+});
+
+/** trialMetalLoad (shared/trials/metal-load.ts). */
+export const metalLoadSchema = z.object({
+  rows: z.array(z.object({ metal: z.enum(LOAD_METALS), heavy: z.boolean(), beforeG: num, afterG: num, avoidedG: num, beforeGPerKgFibre: nnum, afterGPerKgFibre: nnum })),
+  incomplete: num,
+  fibreMassG: num,
+});
+
+/** recipeMass (shared/compute/moisture.ts). */
+export const recipeMassSchema = z.object({
+  enteredG: num, basis: z.enum(DRY_MASS_BASES), recipeMassG: num, otherG: nnum, fibre: nstr, regainPct: nnum, regainNote: nstr, problem: nstr, source: z.string(),
+});
+
+/** mordantChecks (shared/compute/mordant-checks.ts). */
+export const mordantCheckSchema = z.object({
+  stepPosition: num, refId: num, name: z.string(),
+  mordant: z.enum(['potash-alum', 'aluminium-sulfate', 'aluminium-acetate', 'tannin']),
+  percentOwf: nnum,
+  range: z.object({ low: num, high: num, applies: z.string() }).nullable(),
+  verdict: z.enum(['below', 'within', 'above', 'no-range', 'not-computed']),
+  gAlPerKg: nnum,
+  rangeGAlPerKg: z.tuple([num, num]).nullable(),
+  marking: z.string(),
+});
+
+export const trialDetailSchema = trialSummarySchema.extend({
+  weave: nstr,
+  gsm: nnum,
+  fastness: z.record(z.string(), z.unknown()).nullable(),
+  target: z.object({ paletteColourId: nnum, regionId: nnum, measurementId: nnum }),
+  steps: z.array(trialStepOutSchema),
+  substitutions: z.array(substitutionOutSchema),
+  metalLoad: metalLoadSchema,
+  mass: recipeMassSchema,
+  checks: z.object({
+    fibre: nstr,
+    fibreClass: z.enum(['cellulose', 'protein']).nullable(),
+    mordant: z.array(mordantCheckSchema),
+    warnings: z.array(z.union([z.object({ code: z.literal('cellulose-alum-without-fixing'), stepPosition: num, message: z.string(), marking: z.string() }), incompatibleMixWarning.extend(atStep)])),
+  }),
+  measurements: z.array(measurementOutSchema),
+  photos: z.array(z.object({ id: num, width: num, height: num, view: z.enum(PHOTO_VIEWS), caption: nstr, originalName: nstr })),
+  warnings: z.array(positionedStepWarningSchema),
+  historicalRecord: z.boolean(),
+});
+
+export type TrialColourOut = z.infer<typeof trialColourSchema>;
+export type TrialSummaryView = z.infer<typeof trialSummarySchema>;
+export type TrialView = z.infer<typeof trialDetailSchema>;
+export type MeasurementView = z.infer<typeof measurementOutSchema>;
+export type StepWarning = z.infer<typeof stepWarningSchema>;
+export type ColourDifferenceAnswer = z.infer<typeof colourDifferenceAnswer>;
+export type VerdictBandsAnswer = z.infer<typeof verdictBandsAnswer>;
+
+export const trialListResponse = paged(trialSummarySchema);
+export type TrialList = z.infer<typeof trialListResponse>;
+export const trialAnswer = z.object({ trial: trialDetailSchema });
+export const trialSavedAnswer = z.object({ trial: trialDetailSchema, notified: z.boolean() });
+export const stepsSavedAnswer = z.object({ trial: trialDetailSchema, warnings: z.array(positionedStepWarningSchema), warning: z.boolean() });
+export const substitutionAnswer = z.object({ substitution: substitutionOutSchema, metalLoad: metalLoadSchema });
+export const measurementAnswer = z.object({ measurement: measurementOutSchema });
+export const measurementImportAnswer = z.object({ imported: num, measurements: z.array(measurementOutSchema) });
+export const trialPhotoAnswer = z.object({
+  photo: z.object({ id: num, width: num, height: num, view: z.enum(PHOTO_VIEWS), originalName: nstr }),
+  palette: z.array(z.object({ rank: num, ...lab, hex: z.string(), share: num, name: z.string(), variant: z.enum(['raw', 'corrected']), background: z.boolean() })),
+});
+export const pieceTrialsResponse = trialListResponse.extend({
+  piece: z.object({ id: num, accessionNumber: z.string(), title: z.string() }),
+  targets: z.object({ measurements: z.array(measurementOutSchema) }),
+});
+export type PieceTrials = z.infer<typeof pieceTrialsResponse>;
+
+// Named components of the OpenAPI document (server/openapi/document.ts).
+z.globalRegistry.add(trialSummarySchema, { id: 'TrialSummary' });
+z.globalRegistry.add(trialDetailSchema, { id: 'TrialDetail' });
+z.globalRegistry.add(trialColourSchema, { id: 'TrialColour' });
+z.globalRegistry.add(measurementOutSchema, { id: 'Measurement' });
+z.globalRegistry.add(substitutionOutSchema, { id: 'Substitution' });
+z.globalRegistry.add(metalLoadSchema, { id: 'MetalLoad' });
+z.globalRegistry.add(differenceSchema, { id: 'ColourDifference' });

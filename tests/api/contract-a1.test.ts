@@ -12,9 +12,8 @@ import {
   pieceHistoryResponse,
   pieceListResponse,
   pieceResponse,
-  pieceTrialCreatedResponse,
-  pieceTrialsResponse,
 } from '../../shared/schemas/piece.ts';
+import { pieceTrialsResponse, trialSavedAnswer } from '../../shared/schemas/trial.ts';
 import { palettesResponse, photoResponse, photoUploadResponse, referencePatchResponse, regionListResponse, regionSavedResponse } from '../../shared/schemas/photo.ts';
 import { searchResponse, shadeResponse } from '../../shared/schemas/search.ts';
 import { annotationPageSchema, imageInfoSchema, manifestSchema } from '../../shared/schemas/iiif.ts';
@@ -73,7 +72,7 @@ describe('pieces answer as shared/schemas/piece.ts says', () => {
 
   it("lists a piece's trials and attaches a new one", async () => {
     const piece = await makePiece({ status: 'published' });
-    fits(pieceTrialCreatedResponse, (await dyer.post(`/api/pieces/${piece.id}/trials`).set('Origin', ORIGIN).send({ dryMassG: 12 }).expect(201)).body);
+    fits(trialSavedAnswer, (await dyer.post(`/api/pieces/${piece.id}/trials`).set('Origin', ORIGIN).send({ dryMassG: 12 }).expect(201)).body);
     const list = fits(pieceTrialsResponse, (await dyer.get(`/api/pieces/${piece.id}/trials`).expect(200)).body);
     expect(list.items).toHaveLength(1);
     expect(list.pageSize).toBe(100);

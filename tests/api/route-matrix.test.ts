@@ -4,34 +4,16 @@ import { createApp } from '../../server/app.ts';
 import type { Role } from '../../shared/roles.ts';
 import { ORIGIN } from '../support/agents.ts';
 import { useTestMail } from '../support/mail.ts';
+import { registeredApiRoutes } from '../support/routes.ts';
 import { WHO, routeMatrix, type ActorKey, type Expected, type MatrixRow, type Ownership, type Who } from '../support/route-matrix.ts';
 
 const app = createApp();
 useTestMail();
 
-type Layer = { route?: { path: string; methods: Record<string, boolean> }; handle?: { stack?: Layer[] }; rawPath?: string | string[] };
-
-/** Every METHOD /path the app registers, walked from the app's router through mounted routers. */
-function registeredRoutes(stack: Layer[], prefix = ''): string[] {
-  return stack.flatMap((layer) => {
-    if (layer.route) {
-      const path = prefix + (layer.route.path === '/' && prefix ? '' : layer.route.path);
-      return Object.keys(layer.route.methods)
-        .filter((m) => m !== '_all')
-        .map((m) => `${m.toUpperCase()} ${path}`);
-    }
-    if (layer.handle?.stack) {
-      if (typeof layer.rawPath !== 'string') throw new Error(`a router is mounted on a non-string path (${String(layer.rawPath)}); the matrix cannot name its routes`);
-      return registeredRoutes(layer.handle.stack, prefix + (layer.rawPath === '/' ? '' : layer.rawPath));
-    }
-    return [];
-  });
-}
-
 const rowRoutes = routeMatrix.map((r) => r.route);
 
 describe('every /api route has a row in the matrix', () => {
-  const registered = registeredRoutes((app as unknown as { router: { stack: Layer[] } }).router.stack).filter((r) => r.split(' ')[1].startsWith('/api/'));
+  const registered = registeredApiRoutes(app);
 
   it('finds the registered routes', () => {
     expect(registered).toContain('POST /api/auth/login');

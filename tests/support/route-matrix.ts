@@ -155,6 +155,7 @@ const jpeg = async () => sharp({ create: { width: 64, height: 48, channels: 3, b
 
 export const routeMatrix: MatrixRow[] = [
   row('GET /api/health', everyone('2xx')),
+  row('GET /api/openapi.json', everyone('2xx')),
 
   row('POST /api/auth/login', everyone('2xx'), { setup: async () => ({ body: { email: (await makeUser()).email, password: 'matrix-password-1' } }) }),
   row('POST /api/auth/logout', everyone('2xx')),

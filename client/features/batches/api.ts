@@ -1,11 +1,9 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { BatchCreateInput, BatchEventInput } from '../../../shared/schemas/batches';
-import type { BatchDetail, BatchEventOut, BatchSummary } from '../../../server/presenters/batches';
+import type { BatchCreateInput, BatchDetail, BatchEventInput, BatchEventOut, BatchList, BatchSummary } from '../../../shared/schemas/batches';
 import { http } from '../../lib/http';
 
 export type { BatchDetail, BatchSummary };
 export type BatchFilters = { status?: string; kind?: string; due?: boolean };
-type List<T> = { items: T[]; total: number; page: number; pageSize: number };
 
 export const batchKeys = {
   all: ['batches'] as const,
@@ -21,7 +19,7 @@ const qs = (f: BatchFilters) => {
   return p.toString();
 };
 
-export const fetchBatches = (f: BatchFilters) => http<List<BatchSummary>>(`/api/batches?${qs(f)}`);
+export const fetchBatches = (f: BatchFilters) => http<BatchList>(`/api/batches?${qs(f)}`);
 export const batchesQuery = (f: BatchFilters = {}) => queryOptions({ queryKey: batchKeys.list(f), queryFn: () => fetchBatches(f) });
 export const useBatches = (f: BatchFilters = {}) => useQuery(batchesQuery(f));
 

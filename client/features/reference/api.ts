@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ChemicalCreate, ChemicalView, DyestuffCreate, DyestuffView, Paged } from '../../../shared/schemas/reference';
+import type { ChemicalCreate, ChemicalList, ChemicalView, DyestuffCreate, DyestuffList, DyestuffView } from '../../../shared/schemas/reference';
 import { http } from '../../lib/http';
 
 // The reference changes rarely (admins edit it), so it is cached for a while.
@@ -12,9 +12,9 @@ export const referenceKeys = {
   dyestuffs: () => [...referenceKeys.all, 'dyestuffs'] as const,
 };
 
-export const fetchChemicals = () => http<Paged<ChemicalView>>('/api/chemicals?pageSize=200');
+export const fetchChemicals = () => http<ChemicalList>('/api/chemicals?pageSize=200');
 export const fetchChemical = (id: number) => http<ChemicalView>(`/api/chemicals/${id}`);
-export const fetchDyestuffs = () => http<Paged<DyestuffView>>('/api/dyestuffs?pageSize=200');
+export const fetchDyestuffs = () => http<DyestuffList>('/api/dyestuffs?pageSize=200');
 
 export const chemicalsQuery = () => queryOptions({ queryKey: referenceKeys.chemicals(), queryFn: fetchChemicals, staleTime: STALE });
 export const chemicalQuery = (id: number) => queryOptions({ queryKey: referenceKeys.chemical(id), queryFn: () => fetchChemical(id), staleTime: STALE });

@@ -1,10 +1,8 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { SeriesCreateInput, SeriesUpdateInput } from '../../../shared/schemas/series';
-import type { SeriesDetail, SeriesSummary } from '../../../server/presenters/series';
+import type { SeriesCreateInput, SeriesDetail, SeriesList, SeriesPreview, SeriesSummary, SeriesTrialsAnswer, SeriesUpdateInput } from '../../../shared/schemas/series';
 import { http } from '../../lib/http';
 
 export type { SeriesDetail, SeriesSummary };
-type List<T> = { items: T[]; total: number; page: number; pageSize: number };
 
 export const seriesKeys = {
   all: ['series'] as const,
@@ -12,7 +10,7 @@ export const seriesKeys = {
   one: (id: number) => [...seriesKeys.all, 'one', id] as const,
 };
 
-export const fetchSeriesList = () => http<List<SeriesSummary>>('/api/series?pageSize=100');
+export const fetchSeriesList = () => http<SeriesList>('/api/series?pageSize=100');
 export const seriesListQuery = () => queryOptions({ queryKey: seriesKeys.list(), queryFn: fetchSeriesList });
 export const useSeriesList = () => useQuery(seriesListQuery());
 
@@ -21,7 +19,7 @@ export const seriesQuery = (id: number) => queryOptions({ queryKey: seriesKeys.o
 export const useSeries = (id: number) => useQuery(seriesQuery(id));
 
 export const previewCells = (factors: SeriesCreateInput['factors']) =>
-  http<{ count: number; cells: Array<Record<string, string>> }>('/api/series/preview', { method: 'POST', json: { factors } });
+  http<SeriesPreview>('/api/series/preview', { method: 'POST', json: { factors } });
 
 export function useCreateSeries() {
   const qc = useQueryClient();
@@ -42,7 +40,7 @@ export function useUpdateSeries(id: number) {
 export function useCreateSeriesTrials(id: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: () => http<{ created: Array<{ id: number; code: string }>; series: SeriesDetail }>(`/api/series/${id}/trials`, { method: 'POST' }),
+    mutationFn: () => http<SeriesTrialsAnswer>(`/api/series/${id}/trials`, { method: 'POST' }),
     onSuccess: (r) => {
       qc.setQueryData(seriesKeys.one(id), r.series);
       void qc.invalidateQueries({ queryKey: ['trials'] });

@@ -1,12 +1,9 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { MeasurementView, TrialSummaryView, TrialView } from '../../../server/presenters/trial';
-import type { MeasurementInput, StepsInput, SubstitutionInput, TrialCreateInput, TrialListQuery, TrialUpdateInput } from '../../../shared/schemas/trial';
+import type { MeasurementInput, MeasurementView, PieceTrials, StepsInput, SubstitutionInput, TrialCreateInput, TrialList, TrialListQuery, TrialSummaryView, TrialUpdateInput, TrialView } from '../../../shared/schemas/trial';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
 import { http } from '../../lib/http';
 
-export type { TrialSummaryView, TrialView, MeasurementView };
-export type TrialList = { items: TrialSummaryView[]; total: number; page: number; pageSize: number };
-export type PieceTrials = TrialList & { piece: { id: number; accessionNumber: string; title: string }; targets: { measurements: MeasurementView[] } };
+export type { TrialSummaryView, TrialView, MeasurementView, TrialList, PieceTrials };
 
 /** Every trial query key comes from here, so mutations invalidate exactly what changed. */
 export const trialKeys = {

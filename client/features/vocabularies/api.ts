@@ -1,13 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Vocabularies } from '../../../shared/schemas/vocabularies';
 import { http } from '../../lib/http';
 
-export type Vocabularies = {
-  fibres: { term: string; note: string | null }[];
-  weaves: { term: string; note: string | null }[];
-  techniques: { term: string; note: string | null }[];
-  dyestuffs: { name: string; ciName: string | null }[];
-  mordants: { name: string; formula: string | null; status: string; signalWord: string | null; hStatements: string[]; ppe: string | null }[];
-};
+export type { Vocabularies };
 
 export const vocabularyKeys = { all: ['vocabularies'] as const };
 export const fetchVocabularies = () => http<Vocabularies>('/api/vocabularies');

@@ -1,4 +1,5 @@
 import type { RouteGroup } from '../registry.ts';
+import openapi from './openapi.ts';
 import health from './health.ts';
 import auth from './auth.ts';
 import invitations from './invitations.ts';
@@ -8,6 +9,11 @@ import jobs from './jobs.ts';
 import adminFixity from './admin-fixity.ts';
 import importGroup from './import.ts';
 import exportGroup from './export.ts';
+import reference from './reference.ts';
+import vocabularies from './vocabularies.ts';
+import trials from './trials.ts';
+import batches from './batches.ts';
+import series from './series.ts';
 import pieces from './pieces.ts';
 import photos from './photos.ts';
 import search from './search.ts';
@@ -16,6 +22,7 @@ import media from './media.ts';
 
 // One import per route group, in the order of server/routes/index.ts (then /iiif and /media, mounted in server/app.ts).
 export const groups: RouteGroup[] = [
+  openapi,
   health,
   auth,
   invitations,
@@ -27,6 +34,11 @@ export const groups: RouteGroup[] = [
   exportGroup,
   pieces,
   photos,
+  reference,
+  vocabularies,
+  trials,
+  batches,
+  series,
   search,
   iiif,
   media,

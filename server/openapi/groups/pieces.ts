@@ -8,12 +8,8 @@ import {
   pieceListQuery,
   pieceListResponse,
   pieceResponse,
-  pieceTrialCreatedResponse,
-  pieceTrialsQuery,
-  pieceTrialsResponse,
   pieceUpdateSchema,
 } from '../../../shared/schemas/piece.ts';
-import { trialCreateSchema } from '../../../shared/schemas/trial.ts';
 import { defineRoutes } from '../registry.ts';
 
 // Everything mounted on /api/pieces, in mount order: the per-piece exports, the catalogue, the piece's trials.
@@ -77,23 +73,5 @@ export default defineRoutes('pieces', [
     roles: 'curator, admin',
     params: idParams,
     responses: { 201: photoUploadResponse },
-  },
-  {
-    method: 'get',
-    path: '/api/pieces/:id/trials',
-    summary: "The piece's trials (100 a page unless asked) and its instrument readings as targets",
-    roles: 'signed-in users',
-    params: idParams,
-    query: pieceTrialsQuery,
-    responses: { 200: pieceTrialsResponse },
-  },
-  {
-    method: 'post',
-    path: '/api/pieces/:id/trials',
-    summary: 'Start a trial reproducing the piece; its curator is told by e-mail',
-    roles: 'dyer, admin',
-    params: idParams,
-    body: trialCreateSchema,
-    responses: { 201: pieceTrialCreatedResponse },
   },
 ]);

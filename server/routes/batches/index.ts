@@ -1,6 +1,6 @@
 import { Router, type Request } from 'express';
-import { z } from 'zod';
 import { batchCreateSchema, batchEventSchema, batchListQuery, batchUpdateSchema } from '../../../shared/schemas/batches.ts';
+import { idParams, toPaged } from '../../../shared/schemas/common.ts';
 import { abilities, actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
@@ -16,7 +16,6 @@ import { sendPdf } from '../../pdf/send.ts';
 export const batchesRouter = Router();
 batchesRouter.use(requireUser);
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 const today = () => new Date().toISOString().slice(0, 10);
 const record = (b: MordantBatch) => ({ ownerId: b.madeById });
 
@@ -53,7 +52,7 @@ batchesRouter.get('/', async (req, res) => {
   const { rows, count } = await MordantBatch.findAndCountAll({ where, order: [['code', 'ASC']], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
   const thick = await thickenerIds();
   const items = await Promise.all(rows.map(async (b) => presentBatchSummary(b, figuresFor(b, await loadEvents(b.id), thick))));
-  res.json({ items, total: count, page: q.page, pageSize: q.pageSize });
+  res.json(toPaged(items, count, q.page, q.pageSize));
 });
 
 batchesRouter.post('/', async (req, res) => {

@@ -1,6 +1,5 @@
 import { Router } from 'express';
-import { z } from 'zod';
-import { colourDifferenceSchema } from '../../../shared/schemas/trial.ts';
+import { colourDifferenceSchema, verdictBandsInput, type ColourDifferenceAnswer } from '../../../shared/schemas/trial.ts';
 import { differenceReport } from '../../../shared/colour/index.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, unprocessable } from '../../http/errors.ts';
@@ -36,22 +35,17 @@ colourRouter.post('/difference', async (req, res) => {
     ? `Observers differ (reference ${reference.observer}°, sample ${sample.observer}°): the figures are given, but part of the difference may come from the observer rather than the colours.`
     : null;
   const { bands, source } = await verdictBands();
-  res.json({ ...differenceReport(reference, sample, bands), conditions, note, bands, bandsSource: source });
+  const answer: ColourDifferenceAnswer = { ...differenceReport(reference, sample, bands), conditions, note, bands, bandsSource: source };
+  res.json(answer);
 });
 
 colourRouter.get('/verdict-bands', async (_req, res) => {
   res.json(await verdictBands());
 });
 
-const limit = z.number().positive().max(100);
-const bandsInput = z.object({
-  bands: z.object({ match: limit, close: limit, near: limit }).refine((b) => b.match < b.close && b.close < b.near, { message: 'Bands must rise: match < close < near.' }),
-  source: z.string().trim().min(3, 'Say where the bands come from').max(255),
-});
-
 /** Admins tune the verdict bands (ΔE00 upper bounds), naming their source. */
 colourRouter.put('/verdict-bands', requireUser, async (req, res) => {
-  const input = parseBody(bandsInput, req);
+  const input = parseBody(verdictBandsInput, req);
   if (!can(actorOf(req), 'reference:manage')) throw forbidden('Only admins change the verdict bands.');
   res.json(await sequelize.transaction((transaction) => setVerdictBands(input.bands, input.source, transaction)));
 });

@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import { Op, type WhereOptions } from 'sequelize';
-import { chemicalCreateSchema, chemicalListQuery, chemicalPatchSchema, dyestuffCreateSchema, dyestuffListQuery, idParams } from '../../../shared/schemas/reference.ts';
+import { chemicalCreateSchema, chemicalListQuery, chemicalPatchSchema, dyestuffCreateSchema, dyestuffListQuery } from '../../../shared/schemas/reference.ts';
+import { idParams, toPaged } from '../../../shared/schemas/common.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
@@ -29,7 +30,7 @@ chemicalsRouter.get('/', async (req, res) => {
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });
-  res.json({ items: rows.map(presentChemical), total: count, page: query.page, pageSize: query.pageSize });
+  res.json(toPaged(rows.map(presentChemical), count, query.page, query.pageSize));
 });
 
 chemicalsRouter.get('/:id', async (req, res) => {
@@ -69,7 +70,7 @@ dyestuffsRouter.get('/', async (req, res) => {
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });
-  res.json({ items: rows.map(presentDyestuff), total: count, page: query.page, pageSize: query.pageSize });
+  res.json(toPaged(rows.map(presentDyestuff), count, query.page, query.pageSize));
 });
 
 dyestuffsRouter.post('/', requireUser, async (req, res) => {

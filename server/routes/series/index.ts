@@ -1,6 +1,6 @@
 import { Router, type Request } from 'express';
-import { z } from 'zod';
-import { seriesCreateSchema, seriesListQuery, seriesUpdateSchema, factorSchema } from '../../../shared/schemas/series.ts';
+import { seriesCreateSchema, seriesListQuery, seriesPreviewSchema, seriesUpdateSchema } from '../../../shared/schemas/series.ts';
+import { idParams, toPaged } from '../../../shared/schemas/common.ts';
 import { abilities, actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound, unprocessable } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
@@ -18,7 +18,6 @@ import { sendPdf } from '../../pdf/send.ts';
 export const seriesRouter = Router();
 seriesRouter.use(requireUser);
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 const record = (s: TrialSeries) => ({ ownerId: s.ownerId });
 
 async function load(req: Request) {
@@ -34,12 +33,12 @@ const full = async (req: Request, s: TrialSeries) =>
 seriesRouter.get('/', async (req, res) => {
   const q = parseQuery(seriesListQuery, req);
   const { rows, count } = await TrialSeries.findAndCountAll({ order: [['code', 'ASC']], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
-  res.json({ items: rows.map(presentSeriesSummary), total: count, page: q.page, pageSize: q.pageSize });
+  res.json(toPaged(rows.map(presentSeriesSummary), count, q.page, q.pageSize));
 });
 
 /** Cells a set of factors would make, before anything is saved. */
 seriesRouter.post('/preview', async (req, res) => {
-  const { factors } = parseBody(z.object({ factors: z.array(factorSchema).min(1).max(6) }), req);
+  const { factors } = parseBody(seriesPreviewSchema, req);
   if (new Set(factors.map((f) => f.name)).size !== factors.length) throw unprocessable('Each factor needs its own name.', { fields: { factors: ['Two factors share a name'] } });
   const cells = expand(factors);
   res.json({ count: cells.length, cells: cells.slice(0, 500) });

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { z } from 'zod';
+import { idParams } from '../../../shared/schemas/common.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { notFound } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
@@ -13,7 +13,7 @@ import { sendPdf } from '../../pdf/send.ts';
 export const trialCardsRouter = Router();
 
 trialCardsRouter.get('/:id/card.pdf', requireUser, async (req, res) => {
-  const { id } = parseParams(z.object({ id: z.coerce.number().int().positive() }), req);
+  const { id } = parseParams(idParams, req);
   const trial = await Trial.findByPk(id, { attributes: ['id', 'code', 'dyerId'] });
   if (!trial || !can(actorOf(req), 'trial:read', { ownerId: trial.dyerId })) throw notFound('Trial');
   sendPdf(res, `${trial.code}-card.pdf`, await cardsPdf(`Sample card ${trial.code}`, await loadCards([trial.id])));

@@ -1,6 +1,7 @@
 import express, { Router } from 'express';
 import { Transaction } from 'sequelize';
-import { childParams, idParams, measurementSchema, stepsSchema, substitutionSchema, trialCreateSchema, trialListQuerySchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
+import { idParams } from '../../../shared/schemas/common.ts';
+import { childParams, measurementSchema, stepsSchema, substitutionSchema, trialCreateSchema, trialListQuerySchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';

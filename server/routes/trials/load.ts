@@ -1,6 +1,7 @@
 import { Op, type WhereOptions } from 'sequelize';
 import type { z } from 'zod';
 import type { trialListQuerySchema } from '../../../shared/schemas/trial.ts';
+import { toPaged } from '../../../shared/schemas/common.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { Chemical, ColourMeasurement, Dyestuff, MordantBatch, Photo, Piece, RecipeStep, Substitution, Trial, User } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
@@ -80,5 +81,5 @@ export async function listTrials(actor: Actor, q: z.output<typeof trialListQuery
     distinct: true,
   });
   const items = await Promise.all(rows.map(async (t) => presentTrialSummary(t as Trial & { piece: Piece | null; dyer: User | null }, actor, await trialColour(t))));
-  return { items, total: count, page: q.page, pageSize: q.pageSize };
+  return toPaged(items, count, q.page, q.pageSize);
 }

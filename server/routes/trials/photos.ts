@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import multer from 'multer';
-import { idParams } from '../../../shared/schemas/trial.ts';
+import { idParams } from '../../../shared/schemas/common.ts';
 import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
 import { actorOf } from '../../http/auth.ts';
 import { badRequest } from '../../http/errors.ts';

@@ -1,7 +1,6 @@
 import { Router } from 'express';
 import { idParams } from '../../../shared/schemas/common.ts';
-import { pieceTrialsQuery } from '../../../shared/schemas/piece.ts';
-import { trialCreateSchema } from '../../../shared/schemas/trial.ts';
+import { pieceTrialsQuery, trialCreateSchema } from '../../../shared/schemas/trial.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
 import { parseParams, parseQuery } from '../../http/validate.ts';
