@@ -49,9 +49,15 @@ export const router = createBrowserRouter([
       },
       { path: 'reference', element: <ReferencePage /> },
       { path: 'archive', element: <Archive /> },
-      { element: <RequireAbility action="piece:create" />, children: [{ path: 'archive/new', element: <PieceNewPage /> }] },
+      {
+        element: <RequireAbility action="piece:create" />,
+        children: [{ path: 'archive/new', element: <PieceNewPage /> }],
+      },
       { path: 'archive/:id', element: <PieceDetailPage /> },
-      { element: <RequireAbility action="piece:update" />, children: [{ path: 'archive/:id/edit', element: <PieceEditPage /> }] },
+      {
+        element: <RequireAbility action="piece:update" />,
+        children: [{ path: 'archive/:id/edit', element: <PieceEditPage /> }],
+      },
       { path: 'forgot-password', element: <ForgotPassword /> },
       { path: 'reset-password/:token', element: <ResetPassword /> },
       { path: 'join/:token', element: <JoinTeam /> },
@@ -59,7 +65,10 @@ export const router = createBrowserRouter([
       { element: <RequireAbility action="outbox:read" />, children: [{ path: 'outbox', element: <Outbox /> }] },
       { path: 'photos/:photoId/zoom', element: <PhotoZoom /> },
       { element: <RequireAbility action="import:run" />, children: [{ path: 'import', element: <ImportPage /> }] },
-      { element: <RequireAbility action="fixity:run" />, children: [{ path: 'admin/fixity', element: <FixityPage /> }] },
+      {
+        element: <RequireAbility action="fixity:run" />,
+        children: [{ path: 'admin/fixity', element: <FixityPage /> }],
+      },
       {
         element: <RequireAbility action="trial:read" />,
         children: [
@@ -68,7 +77,10 @@ export const router = createBrowserRouter([
           { path: 'archive/:id/side-by-side', element: <SideBySidePage /> },
         ],
       },
-      { element: <RequireAbility action="trial:create" />, children: [{ path: 'trials/new', element: <TrialNewPage /> }] },
+      {
+        element: <RequireAbility action="trial:create" />,
+        children: [{ path: 'trials/new', element: <TrialNewPage /> }],
+      },
       { path: 'search', element: <Search /> },
       { path: '*', element: <NotFound /> },
     ],

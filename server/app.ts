@@ -50,7 +50,12 @@ export function createApp(options: AppOptions = {}) {
   if (isTest) app.use('/api', contractCheck());
   // The API reference: our page and initializer (server/openapi/docs/), then Swagger UI's files from swagger-ui-dist.
   app.use('/api/docs', express.static(path.join(ROOT_DIR, 'server/openapi/docs')));
-  app.use('/api/docs', express.static(path.dirname(createRequire(import.meta.url).resolve('swagger-ui-dist/package.json')), { index: false }));
+  app.use(
+    '/api/docs',
+    express.static(path.dirname(createRequire(import.meta.url).resolve('swagger-ui-dist/package.json')), {
+      index: false,
+    }),
+  );
   app.use('/api', apiRouter());
   app.use('/api', apiNotFound);
   app.use('/iiif', iiifRouter);

@@ -25,7 +25,11 @@ const schema = z
   })
   .superRefine((v, ctx) => {
     if (v.NODE_ENV === 'production' && !v.SESSION_SECRET) {
-      ctx.addIssue({ code: 'custom', path: ['SESSION_SECRET'], message: 'SESSION_SECRET (16+ characters) is required in production' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['SESSION_SECRET'],
+        message: 'SESSION_SECRET (16+ characters) is required in production',
+      });
     }
   });
 

@@ -15,7 +15,8 @@ if (seeded.demo) console.log('[tinctoria] demo scenario seeded');
 // Outside production and without SMTP_URL, mail goes to the local catcher (files under $DATA_DIR/mail/).
 const catcher = env.SMTP_URL || env.NODE_ENV === 'production' ? null : await startLocalMail();
 if (catcher) console.log(`[tinctoria] local mail catcher on 127.0.0.1:${catcher.port}, messages in ${catcher.dir}`);
-else if (!env.SMTP_URL) console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
+else if (!env.SMTP_URL)
+  console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
 const queuedTiles = await enqueueMissingTiles();
 if (queuedTiles) console.log(`[tinctoria] deep-zoom tiles queued for ${queuedTiles} photo(s)`);
 // The worker runs beside the web server; any number of servers may share the jobs table.

@@ -4,7 +4,8 @@
 export const ACCESSION_MAX = 40;
 // Parts of letters and digits joined by one separator (a mark, a mark and a space, or a space): no doubled marks.
 export const ACCESSION_PATTERN = /^[\p{L}\p{N}]+(?:(?:[.,/-] ?| )[\p{L}\p{N}]+)*$/u;
-export const ACCESSION_MESSAGE = 'Use letters and digits, with spaces or . - / , between them, e.g. 1931.4.12, T.14-1950 or EX 2021/1';
+export const ACCESSION_MESSAGE =
+  'Use letters and digits, with spaces or . - / , between them, e.g. 1931.4.12, T.14-1950 or EX 2021/1';
 
 /** As typed, with runs of spaces made one (a number is compared without them anyway). */
 export const tidyAccession = (s: string) => s.normalize('NFC').trim().replace(/\s+/g, ' ');

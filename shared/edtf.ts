@@ -32,7 +32,20 @@ export type EdtfResult = { ok: true; value: EdtfValue } | { ok: false; message: 
 export const EDTF_HINT = 'e.g. 1850-06-14, 1760~ (about), 1785? (perhaps), 17XX, 1770/1785, ../1800';
 const NOT_EDTF = `Not an EDTF date; write it as ${EDTF_HINT}`;
 
-const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+const MONTHS = [
+  'January',
+  'February',
+  'March',
+  'April',
+  'May',
+  'June',
+  'July',
+  'August',
+  'September',
+  'October',
+  'November',
+  'December',
+];
 const isLeap = (y: number) => (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
 const daysIn = (y: number, m: number) => (m === 2 ? (isLeap(y) ? 29 : 28) : [4, 6, 9, 11].includes(m) ? 30 : 31);
 
@@ -47,7 +60,8 @@ type Point = { lo: number; hi: number; earliest: number; latest: number; yearQua
 const key = (y: number, m: number, d: number) => y * 10_000 + m * 100 + d;
 
 /** Digits that may hold X (unspecified): the smallest and largest number they allow. */
-const digitsRange = (digits: string) => [Number(digits.replaceAll('X', '0')), Number(digits.replaceAll('X', '9'))] as const;
+const digitsRange = (digits: string) =>
+  [Number(digits.replaceAll('X', '0')), Number(digits.replaceAll('X', '9'))] as const;
 
 // A component is: optional leading qualifier, digits (X allowed), optional trailing qualifier.
 const COMPONENT = /^([?~%]?)([\dX]+)([?~%]?)$/;
@@ -57,13 +71,21 @@ function readYear(text: string): { lo: number; hi: number; pre: string; post: st
   const y = /^([?~%]?)Y(-?)(\d+)(?:E(\d+))?(?:S(\d+))?([?~%]?)$/.exec(text);
   if (y) {
     const [, pre, sign, digits, exp, sig, post] = y;
-    if (!exp && digits.length < 5) refuse(`A year written with Y has more than four digits (Y${sign}${digits} is ${sign}${digits.padStart(4, '0')})`);
+    if (!exp && digits.length < 5)
+      refuse(
+        `A year written with Y has more than four digits (Y${sign}${digits} is ${sign}${digits.padStart(4, '0')})`,
+      );
     const value = Number(digits) * 10 ** Number(exp ?? 0) * (sign ? -1 : 1);
     if (!Number.isSafeInteger(value)) refuse(`Y${sign}${digits}${exp ? `E${exp}` : ''} is too large a year to read`);
     return { ...significant(value, sig), pre, post };
   }
   const m = /^([?~%]?)(-?)([\dX]{4})(?:S(\d+))?([?~%]?)$/.exec(text);
-  if (!m) return refuse(/^-?\d{1,3}$/.test(text) ? `Write the year with four digits (e.g. ${text.startsWith('-') ? '-' : ''}${text.replace('-', '').padStart(4, '0')})` : NOT_EDTF);
+  if (!m)
+    return refuse(
+      /^-?\d{1,3}$/.test(text)
+        ? `Write the year with four digits (e.g. ${text.startsWith('-') ? '-' : ''}${text.replace('-', '').padStart(4, '0')})`
+        : NOT_EDTF,
+    );
   const [, pre, sign, digits, sig, post] = m;
   if (sign && digits === '0000') refuse('There is no year -0000; write 0000');
   if (sig && digits.includes('X')) refuse(NOT_EDTF);
@@ -106,7 +128,8 @@ function readDate(text: string): Point {
     } else {
       const n = Number(digits);
       if (n >= 21 && n <= 41) season = true;
-      else if (n < 1 || n > 12) refuse(`There is no month ${digits}; use 01–12, or 21–24 for spring, summer, autumn, winter`);
+      else if (n < 1 || n > 12)
+        refuse(`There is no month ${digits}; use 01–12, or 21–24 for spring, summer, autumn, winter`);
       else mLo = mHi = n;
     }
   }
@@ -127,8 +150,15 @@ function readDate(text: string): Point {
       if (d < 1) refuse(`There is no day ${digits}`);
       if (d > maxDay) {
         if (mLo !== mHi) refuse(`No month has a day ${digits}`);
-        if (mLo === 2 && d === 29) refuse(exactYear ? `${year.lo} is not a leap year: February ${year.lo} has 28 days` : 'None of these years is a leap year: February has 28 days');
-        refuse(`${MONTHS[mLo - 1]}${mLo === 2 && exactYear ? ` ${year.lo}` : ''} has ${maxDay} days; there is no day ${digits}`);
+        if (mLo === 2 && d === 29)
+          refuse(
+            exactYear
+              ? `${year.lo} is not a leap year: February ${year.lo} has 28 days`
+              : 'None of these years is a leap year: February has 28 days',
+          );
+        refuse(
+          `${MONTHS[mLo - 1]}${mLo === 2 && exactYear ? ` ${year.lo}` : ''} has ${maxDay} days; there is no day ${digits}`,
+        );
       }
     } else if (dLo > dHi) refuse(`There is no day ${digits}${mLo === mHi ? ` in ${MONTHS[mLo - 1]}` : ''}`);
   }
@@ -148,7 +178,8 @@ function readDateTime(text: string): Point {
   const [, date, hh, mi, ss, zone] = m;
   const h = Number(hh);
   const point = readDate(date);
-  if (h > 24 || Number(mi) > 59 || Number(ss) > 59 || (h === 24 && (mi !== '00' || ss !== '00'))) refuse(`There is no time ${hh}:${mi}:${ss}`);
+  if (h > 24 || Number(mi) > 59 || Number(ss) > 59 || (h === 24 && (mi !== '00' || ss !== '00')))
+    refuse(`There is no time ${hh}:${mi}:${ss}`);
   if (zone && zone !== 'Z') {
     const [zh, zm] = [Number(zone.slice(1, 3)), Number(zone.slice(-2))];
     if (zh > 14 || (zone.length > 3 && zm > 59)) refuse(`There is no time zone ${zone}`);
@@ -169,8 +200,10 @@ function readInterval(text: string): EdtfValue {
   if (rest.length) refuse('An interval has one slash: start/end');
   const start = readEnd(a);
   const end = readEnd(b);
-  if (typeof start === 'string' && typeof end === 'string') refuse('Give at least one end of the interval, e.g. 1770/.. or ../1800');
-  if (typeof start !== 'string' && typeof end !== 'string' && start.lo > end.hi) refuse(`The interval ends (${b}) before it starts (${a})`);
+  if (typeof start === 'string' && typeof end === 'string')
+    refuse('Give at least one end of the interval, e.g. 1770/.. or ../1800');
+  if (typeof start !== 'string' && typeof end !== 'string' && start.lo > end.hi)
+    refuse(`The interval ends (${b}) before it starts (${a})`);
   return {
     kind: 'interval',
     earliest: typeof start === 'string' ? null : start.earliest,
@@ -193,7 +226,8 @@ function readSet(text: string): EdtfValue {
     const range = /^(.*?)\.\.(.*)$/.exec(item);
     const ends = range ? [range[1], range[2]] : [item, item];
     if (range && ends[0] === '' && i !== 0) refuse('Only the first member of a set may be open at its start (..1760)');
-    if (range && ends[1] === '' && i !== items.length - 1) refuse('Only the last member of a set may be open at its end (1760..)');
+    if (range && ends[1] === '' && i !== items.length - 1)
+      refuse('Only the last member of a set may be open at its end (1760..)');
     const lo = ends[0] === '' ? null : readDate(ends[0]);
     const hi = ends[1] === '' ? null : readDate(ends[1]);
     if (!lo && !hi) refuse(NOT_EDTF);
@@ -222,7 +256,16 @@ export function parseEdtf(input: string): EdtfResult {
     if (text.includes('/')) return { ok: true, value: readInterval(text) };
     if (text === '..') return { ok: false, message: 'Give at least one end of the interval, e.g. 1770/.. or ../1800' };
     const p = readDate(text);
-    return { ok: true, value: { kind: 'date', earliest: p.earliest, latest: p.latest, startQualified: p.yearQualified, endQualified: p.yearQualified } };
+    return {
+      ok: true,
+      value: {
+        kind: 'date',
+        earliest: p.earliest,
+        latest: p.latest,
+        startQualified: p.yearQualified,
+        endQualified: p.yearQualified,
+      },
+    };
   } catch (err) {
     if (err instanceof Refusal) return { ok: false, message: err.message };
     throw err;
@@ -250,23 +293,41 @@ export type DateIssue = { path: keyof DateFields; message: string };
 export function dateIssues(p: DateFields): DateIssue[] {
   const issues: DateIssue[] = [];
   const { earliestYear: from, latestYear: to } = p;
-  if (from != null && to != null && from > to) issues.push({ path: 'latestYear', message: 'Latest year must not be before the earliest year' });
+  if (from != null && to != null && from > to)
+    issues.push({ path: 'latestYear', message: 'Latest year must not be before the earliest year' });
   if (!p.dateEdtf) return issues;
   const r = parseEdtf(p.dateEdtf);
   if (!r.ok) return [...issues, { path: 'dateEdtf', message: r.message }];
   const v = r.value;
   for (const y of [v.earliest, v.latest])
     if (y != null && (y < YEAR_MIN || y > YEAR_MAX))
-      return [...issues, { path: 'dateEdtf', message: `The archive searches years ${YEAR_MIN} to ${YEAR_MAX}; this date reaches ${y}` }];
+      return [
+        ...issues,
+        { path: 'dateEdtf', message: `The archive searches years ${YEAR_MIN} to ${YEAR_MAX}; this date reaches ${y}` },
+      ];
   if (from != null && v.earliest != null) {
     if (!v.startQualified && from !== v.earliest)
-      issues.push({ path: 'earliestYear', message: `The EDTF date starts in ${v.earliest}; only an uncertain (?) or approximate (~) date may start earlier` });
-    else if (v.startQualified && from > v.earliest) issues.push({ path: 'earliestYear', message: `The EDTF date may start in ${v.earliest}; the earliest year cannot be later` });
+      issues.push({
+        path: 'earliestYear',
+        message: `The EDTF date starts in ${v.earliest}; only an uncertain (?) or approximate (~) date may start earlier`,
+      });
+    else if (v.startQualified && from > v.earliest)
+      issues.push({
+        path: 'earliestYear',
+        message: `The EDTF date may start in ${v.earliest}; the earliest year cannot be later`,
+      });
   }
   if (to != null && v.latest != null) {
     if (!v.endQualified && to !== v.latest)
-      issues.push({ path: 'latestYear', message: `The EDTF date ends in ${v.latest}; only an uncertain (?) or approximate (~) date may end later` });
-    else if (v.endQualified && to < v.latest) issues.push({ path: 'latestYear', message: `The EDTF date may end in ${v.latest}; the latest year cannot be earlier` });
+      issues.push({
+        path: 'latestYear',
+        message: `The EDTF date ends in ${v.latest}; only an uncertain (?) or approximate (~) date may end later`,
+      });
+    else if (v.endQualified && to < v.latest)
+      issues.push({
+        path: 'latestYear',
+        message: `The EDTF date may end in ${v.latest}; the latest year cannot be earlier`,
+      });
   }
   return issues;
 }

@@ -13,7 +13,10 @@ export const fieldKey = (path: ReadonlyArray<PropertyKey>): string => path.map(S
  * Per-field messages from zod issues (`error.issues`). `first: true` keeps only the first problem of
  * each field (a form shows "Enter the code", not also "Letters only"); otherwise every message is kept.
  */
-export function fieldErrorsOf(issues: ReadonlyArray<{ path: ReadonlyArray<PropertyKey>; message: string }>, { first = false } = {}): FieldErrors {
+export function fieldErrorsOf(
+  issues: ReadonlyArray<{ path: ReadonlyArray<PropertyKey>; message: string }>,
+  { first = false } = {},
+): FieldErrors {
   const errors: FieldErrors = {};
   for (const issue of issues) {
     const list = (errors[fieldKey(issue.path)] ??= []);

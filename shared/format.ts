@@ -45,14 +45,25 @@ export function formatExposure(seconds: number): string {
 }
 
 export type ExifFacts = {
-  make?: string; model?: string; lens?: string; exposureTime?: number; fNumber?: number; iso?: number;
-  focalLengthMm?: number; dateTimeOriginal?: string;
+  make?: string;
+  model?: string;
+  lens?: string;
+  exposureTime?: number;
+  fNumber?: number;
+  iso?: number;
+  focalLengthMm?: number;
+  dateTimeOriginal?: string;
 };
 
 /** The EXIF a curator reads, as labelled values with units. */
 export function exifLines(exif: ExifFacts): Array<{ label: string; value: string }> {
   const lines: Array<{ label: string; value: string }> = [];
-  const camera = [exif.make, exif.model && exif.make && exif.model.startsWith(exif.make) ? exif.model.slice(exif.make.length).trim() : exif.model]
+  const camera = [
+    exif.make,
+    exif.model && exif.make && exif.model.startsWith(exif.make)
+      ? exif.model.slice(exif.make.length).trim()
+      : exif.model,
+  ]
     .filter(Boolean)
     .join(' ');
   if (camera) lines.push({ label: 'Camera', value: camera });
@@ -60,10 +71,14 @@ export function exifLines(exif: ExifFacts): Array<{ label: string; value: string
   if (exif.exposureTime != null) lines.push({ label: 'Exposure', value: formatExposure(exif.exposureTime) });
   if (exif.fNumber != null) lines.push({ label: 'Aperture', value: `f/${Number(exif.fNumber.toFixed(1))}` });
   if (exif.iso != null) lines.push({ label: 'Sensitivity', value: `ISO ${exif.iso}` });
-  if (exif.focalLengthMm != null) lines.push({ label: 'Focal length', value: `${Number(exif.focalLengthMm.toFixed(1))} mm` });
+  if (exif.focalLengthMm != null)
+    lines.push({ label: 'Focal length', value: `${Number(exif.focalLengthMm.toFixed(1))} mm` });
   if (exif.dateTimeOriginal) {
     const m = /^(\d{4}):(\d{2}):(\d{2})[ T](\d{2}):(\d{2})/.exec(exif.dateTimeOriginal);
-    lines.push({ label: 'Taken', value: m ? `${m[1]}-${m[2]}-${m[3]} ${m[4]}:${m[5]} (camera's clock)` : exif.dateTimeOriginal });
+    lines.push({
+      label: 'Taken',
+      value: m ? `${m[1]}-${m[2]}-${m[3]} ${m[4]}:${m[5]} (camera's clock)` : exif.dateTimeOriginal,
+    });
   }
   return lines;
 }

@@ -4,13 +4,22 @@ import { FIELD_LABELS, type PieceCsvField } from './schemas/piece-import.ts';
 export type HistoryEntry = { action: string; changes: Record<string, { from: unknown; to: unknown }> };
 
 const PURPOSE_WORDS: Record<string, string> = {
-  'colour-area': 'colour area', motif: 'motif', exclusion: 'exclusion', 'reference-patch': 'reference patch', 'sampling-site': 'sampling site',
+  'colour-area': 'colour area',
+  motif: 'motif',
+  exclusion: 'exclusion',
+  'reference-patch': 'reference patch',
+  'sampling-site': 'sampling site',
 };
 const PHOTO_FIELDS: Record<string, string> = { caption: 'caption', view: 'view' };
 
-const list = (words: string[]) => (words.length < 2 ? words.join('') : `${words.slice(0, -1).join(', ')} and ${words[words.length - 1]}`);
+const list = (words: string[]) =>
+  words.length < 2 ? words.join('') : `${words.slice(0, -1).join(', ')} and ${words[words.length - 1]}`;
 const fieldWords = (keys: string[], labels: Record<string, string>) =>
-  list(keys.filter((k) => k !== 'photoId').map((k) => (labels[k] ?? k.replace(/([A-Z])/g, ' $1')).replace(/^\w/, (c) => c.toLowerCase())));
+  list(
+    keys
+      .filter((k) => k !== 'photoId')
+      .map((k) => (labels[k] ?? k.replace(/([A-Z])/g, ' $1')).replace(/^\w/, (c) => c.toLowerCase())),
+  );
 
 function regionName(r: unknown): string {
   const region = (r ?? {}) as { label?: string | null; purpose?: string };
@@ -22,32 +31,47 @@ function regionName(r: unknown): string {
 export function describeHistory(e: HistoryEntry): string {
   const c = e.changes ?? {};
   switch (e.action) {
-    case 'create': return 'catalogued the piece';
+    case 'create':
+      return 'catalogued the piece';
     case 'update': {
       const keys = Object.keys(c);
-      return keys.length ? `changed the ${fieldWords(keys, FIELD_LABELS as Record<PieceCsvField, string>)}` : 'edited the record';
+      return keys.length
+        ? `changed the ${fieldWords(keys, FIELD_LABELS as Record<PieceCsvField, string>)}`
+        : 'edited the record';
     }
-    case 'publish': return 'published the piece';
-    case 'unpublish': return 'returned the piece to draft';
-    case 'delete': return 'deleted the piece';
-    case 'restore': return 'restored the piece';
-    case 'photo-added': return 'added a photo';
-    case 'photo-updated': return `changed a photo’s ${fieldWords(Object.keys(c), PHOTO_FIELDS)}`;
-    case 'photo-removed': return 'removed a photo';
-    case 'region-added': return `${regionName(c.region?.to)} added`;
+    case 'publish':
+      return 'published the piece';
+    case 'unpublish':
+      return 'returned the piece to draft';
+    case 'delete':
+      return 'deleted the piece';
+    case 'restore':
+      return 'restored the piece';
+    case 'photo-added':
+      return 'added a photo';
+    case 'photo-updated':
+      return `changed a photo’s ${fieldWords(Object.keys(c), PHOTO_FIELDS)}`;
+    case 'photo-removed':
+      return 'removed a photo';
+    case 'region-added':
+      return `${regionName(c.region?.to)} added`;
     case 'region-changed': {
       const from = regionName(c.region?.from);
       const to = regionName(c.region?.to);
       return from === to ? `${to} changed` : `${from} changed to ${to}`;
     }
-    case 'region-removed': return `${regionName(c.region?.from)} removed`;
-    case 'reference-patch-set': return 'reference patch set';
-    case 'reference-patch-cleared': return 'reference patch cleared';
+    case 'region-removed':
+      return `${regionName(c.region?.from)} removed`;
+    case 'reference-patch-set':
+      return 'reference patch set';
+    case 'reference-patch-cleared':
+      return 'reference patch cleared';
     case 'palette-background': {
       const [key, change] = Object.entries(c)[0] ?? [];
       const colour = key?.replace(/^colour /, '') ?? 'a colour';
       return change?.to ? `colour ${colour} marked as background` : `colour ${colour} counted as cloth again`;
     }
-    default: return e.action.replace(/-/g, ' ');
+    default:
+      return e.action.replace(/-/g, ' ');
   }
 }

@@ -142,14 +142,20 @@ export function fieldLabel(path: ReadonlyArray<PropertyKey>): Label {
 // camelCase keys not in the table still read as words ("modernPractice" → "the modern practice").
 const humanise = (key: string) => `the ${key.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase()}`;
 const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
-const fmt = (n: number | bigint) => (typeof n === 'bigint' ? n.toString() : n.toLocaleString('en-GB', { maximumFractionDigits: 6 }));
-const withUnit = (n: number | bigint, unit?: string) => `${fmt(n)}${unit ? (unit.startsWith('%') ? ` ${unit}` : ` ${unit}`) : ''}`;
+const fmt = (n: number | bigint) =>
+  typeof n === 'bigint' ? n.toString() : n.toLocaleString('en-GB', { maximumFractionDigits: 6 });
+const withUnit = (n: number | bigint, unit?: string) =>
+  `${fmt(n)}${unit ? (unit.startsWith('%') ? ` ${unit}` : ` ${unit}`) : ''}`;
 // "Choose a role", "Enter the volume": a label starting with "a"/"an" is chosen, the rest entered.
-const isChoice = (label: string) => /^(a|an) /.test(label) || label === 'attributed or identified' || label === 'active or not';
-const enter = ({ label, unit }: Label) => (isChoice(label) ? `Choose ${label}` : `Enter ${label}${unit ? ` in ${unit}` : ''}`);
-const listLabel = (values: ReadonlyArray<unknown>) => values.slice(0, 8).map(String).join(', ') + (values.length > 8 ? ', …' : '');
+const isChoice = (label: string) =>
+  /^(a|an) /.test(label) || label === 'attributed or identified' || label === 'active or not';
+const enter = ({ label, unit }: Label) =>
+  isChoice(label) ? `Choose ${label}` : `Enter ${label}${unit ? ` in ${unit}` : ''}`;
+const listLabel = (values: ReadonlyArray<unknown>) =>
+  values.slice(0, 8).map(String).join(', ') + (values.length > 8 ? ', …' : '');
 // NaN is what Number('') and an empty number input give: nothing was typed.
-const isEmpty = (v: unknown) => v === undefined || v === null || Number.isNaN(v) || (typeof v === 'string' && v.trim() === '');
+const isEmpty = (v: unknown) =>
+  v === undefined || v === null || Number.isNaN(v) || (typeof v === 'string' && v.trim() === '');
 
 /** One issue in people's words, using the field's label. Exported for the unit test. */
 export function messageFor(issue: z.core.$ZodRawIssue): string {
@@ -158,26 +164,39 @@ export function messageFor(issue: z.core.$ZodRawIssue): string {
   switch (issue.code) {
     case 'invalid_type': {
       if (isEmpty(issue.input) || issue.expected === 'nonoptional') return enter(f);
-      if (issue.expected === 'int' && typeof issue.input === 'number' && Number.isFinite(issue.input)) return isChoice(f.label) ? `Choose ${f.label}` : `${L} must be a whole number`;
-      if (issue.expected === 'number' || issue.expected === 'int' || issue.expected === 'bigint') return `Enter ${f.label} as a number${f.unit ? ` in ${f.unit}` : ''}`;
+      if (issue.expected === 'int' && typeof issue.input === 'number' && Number.isFinite(issue.input))
+        return isChoice(f.label) ? `Choose ${f.label}` : `${L} must be a whole number`;
+      if (issue.expected === 'number' || issue.expected === 'int' || issue.expected === 'bigint')
+        return `Enter ${f.label} as a number${f.unit ? ` in ${f.unit}` : ''}`;
       if (issue.expected === 'date') return 'Enter a date such as 2024-03-12';
-      if (issue.expected === 'boolean' || issue.expected === 'array' || issue.expected === 'object') return isChoice(f.label) ? `Choose ${f.label}` : `Check ${f.label}: it is not in a form this page understands`;
+      if (issue.expected === 'boolean' || issue.expected === 'array' || issue.expected === 'object')
+        return isChoice(f.label) ? `Choose ${f.label}` : `Check ${f.label}: it is not in a form this page understands`;
       return enter(f);
     }
     case 'too_small': {
       const min = issue.minimum;
-      if (issue.origin === 'string') return Number(min) <= 1 || isEmpty(issue.input) ? enter(f) : `Use at least ${fmt(min)} characters for ${f.label}`;
-      if (issue.origin === 'array' || issue.origin === 'set') return Number(min) <= 1 ? `Add at least one entry to ${f.label}` : `Add at least ${fmt(min)} entries to ${f.label}`;
+      if (issue.origin === 'string')
+        return Number(min) <= 1 || isEmpty(issue.input)
+          ? enter(f)
+          : `Use at least ${fmt(min)} characters for ${f.label}`;
+      if (issue.origin === 'array' || issue.origin === 'set')
+        return Number(min) <= 1
+          ? `Add at least one entry to ${f.label}`
+          : `Add at least ${fmt(min)} entries to ${f.label}`;
       if (issue.origin === 'date') return `${L} must not be before ${String(min)}`;
       if (isChoice(f.label)) return `Choose ${f.label}`; // an id of 0: nothing chosen
-      return issue.inclusive ? `${L} must be ${withUnit(min, f.unit)} or more` : `${L} must be more than ${withUnit(min, f.unit)}`;
+      return issue.inclusive
+        ? `${L} must be ${withUnit(min, f.unit)} or more`
+        : `${L} must be more than ${withUnit(min, f.unit)}`;
     }
     case 'too_big': {
       const max = issue.maximum;
       if (issue.origin === 'string') return `Use at most ${fmt(max)} characters for ${f.label}`;
       if (issue.origin === 'array' || issue.origin === 'set') return `${L} can have at most ${fmt(max)} entries`;
       if (issue.origin === 'date') return `${L} must not be after ${String(max)}`;
-      return issue.inclusive ? `${L} must be ${withUnit(max, f.unit)} or less` : `${L} must be less than ${withUnit(max, f.unit)}`;
+      return issue.inclusive
+        ? `${L} must be ${withUnit(max, f.unit)} or less`
+        : `${L} must be less than ${withUnit(max, f.unit)}`;
     }
     case 'invalid_format': {
       if (issue.format === 'email') return 'Enter an e-mail address such as name@example.org';
@@ -187,7 +206,9 @@ export function messageFor(issue: z.core.$ZodRawIssue): string {
       return `Check ${f.label}: it is not written the way it should be`;
     }
     case 'invalid_value':
-      return issue.values.length === 1 ? `${L} must be ${String(issue.values[0])}` : `Choose ${isChoice(f.label) ? f.label : `one of ${f.label}`}: ${listLabel(issue.values)}`;
+      return issue.values.length === 1
+        ? `${L} must be ${String(issue.values[0])}`
+        : `Choose ${isChoice(f.label) ? f.label : `one of ${f.label}`}: ${listLabel(issue.values)}`;
     case 'not_multiple_of':
       return `${L} must be a multiple of ${fmt(issue.divisor)}`;
     case 'unrecognized_keys':

@@ -30,7 +30,10 @@ export function AppShell() {
   const close = () => setMenuOpen(false);
   return (
     <div className="min-h-screen flex flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 bg-sheet px-3 py-2 rounded">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 bg-sheet px-3 py-2 rounded"
+      >
         Skip to content
       </a>
       <header className="border-b border-rule bg-sheet">
@@ -55,21 +58,25 @@ export function AppShell() {
             className={`${menuOpen ? 'block' : 'hidden'} md:block order-last w-full lg:order-none lg:w-auto lg:flex-1`}
           >
             <ul className="flex flex-col md:flex-row md:flex-wrap gap-1 text-sm py-1 md:py-0">
-              {areas.filter((a) => !('action' in a) || can(a.action)).map((a) => (
-                <li key={a.to}>
-                  <NavLink to={a.to} className={linkClass} onClick={close}>
-                    {a.label}
-                  </NavLink>
-                </li>
-              ))}
+              {areas
+                .filter((a) => !('action' in a) || can(a.action))
+                .map((a) => (
+                  <li key={a.to}>
+                    <NavLink to={a.to} className={linkClass} onClick={close}>
+                      {a.label}
+                    </NavLink>
+                  </li>
+                ))}
               {/* On a phone the user menu keeps only the sign-out button; its admin pages join this list. */}
-              {adminAreas.filter((a) => can(a.action)).map((a) => (
-                <li key={a.to} className="md:hidden">
-                  <NavLink to={a.to} className={linkClass} onClick={close}>
-                    {a.label}
-                  </NavLink>
-                </li>
-              ))}
+              {adminAreas
+                .filter((a) => can(a.action))
+                .map((a) => (
+                  <li key={a.to} className="md:hidden">
+                    <NavLink to={a.to} className={linkClass} onClick={close}>
+                      {a.label}
+                    </NavLink>
+                  </li>
+                ))}
             </ul>
           </nav>
           <UserMenu />
@@ -80,7 +87,9 @@ export function AppShell() {
       </main>
       <footer className="border-t border-rule text-xs text-ink-faint">
         <div className="mx-auto max-w-7xl px-4 md:px-6 py-3">
-          Tinctoria — archive and reproduction notebook for dyed and printed textiles. Colour values are CIELAB, each labelled with its illuminant and observer; image palettes are estimates (D65/2°), instrument readings outrank them.
+          Tinctoria — archive and reproduction notebook for dyed and printed textiles. Colour values are CIELAB, each
+          labelled with its illuminant and observer; image palettes are estimates (D65/2°), instrument readings outrank
+          them.
         </div>
       </footer>
     </div>

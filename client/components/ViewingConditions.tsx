@@ -3,7 +3,13 @@ import { IMAGE_ESTIMATE_CONDITIONS, viewingLabel, type ColourSource } from '../.
 type Conditioned = { illuminant: string; observer: string; source: ColourSource };
 
 /** The one label every colour figure carries: where it comes from and the illuminant/observer it is under. */
-export function ViewingConditions({ colour, className = 'text-ink-soft' }: { colour: Conditioned; className?: string }) {
+export function ViewingConditions({
+  colour,
+  className = 'text-ink-soft',
+}: {
+  colour: Conditioned;
+  className?: string;
+}) {
   return (
     <span className={`whitespace-nowrap text-xs ${className}`} data-testid="viewing-conditions">
       {viewingLabel(colour)}

@@ -7,7 +7,9 @@ export function Wordmark({ compact = false }: { compact?: boolean }) {
         <rect x="8.5" y="2" width="5" height="18" fill="#c9818a" />
         <rect x="16" y="2" width="5" height="18" fill="#4a3350" />
       </svg>
-      <span className={`font-serif ${compact ? 'text-lg' : 'text-2xl'} font-semibold tracking-tight text-ink`}>Tinctoria</span>
+      <span className={`font-serif ${compact ? 'text-lg' : 'text-2xl'} font-semibold tracking-tight text-ink`}>
+        Tinctoria
+      </span>
     </span>
   );
 }

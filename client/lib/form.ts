@@ -16,14 +16,24 @@ export function errorsFor(schema: z.ZodType, raw: unknown): FieldErrors | null {
 }
 
 /** Per-field errors the server sent back, if any. */
-export const serverFieldErrors = (err: unknown): FieldErrors => (err instanceof ApiError && err.details?.fields ? err.details.fields : {});
+export const serverFieldErrors = (err: unknown): FieldErrors =>
+  err instanceof ApiError && err.details?.fields ? err.details.fields : {};
 
 /** A message for the whole form when the error is not about one field. */
-export const formMessage = (err: unknown): string | null => (err instanceof ApiError ? (err.details?.fields ? null : err.message) : err ? 'Something went wrong. Try again.' : null);
+export const formMessage = (err: unknown): string | null =>
+  err instanceof ApiError
+    ? err.details?.fields
+      ? null
+      : err.message
+    : err
+      ? 'Something went wrong. Try again.'
+      : null;
 
 /** Messages for a field and everything under it ("factors" also gathers "factors.0.levels"). */
 export const errorsUnder = (errors: FieldErrors, key: string): string[] | undefined => {
-  const all = Object.entries(errors).filter(([k]) => k === key || k.startsWith(`${key}.`)).flatMap(([, v]) => v);
+  const all = Object.entries(errors)
+    .filter(([k]) => k === key || k.startsWith(`${key}.`))
+    .flatMap(([, v]) => v);
   return all.length ? [...new Set(all)] : undefined;
 };
 
@@ -66,5 +76,13 @@ export function useFormErrors() {
   /** After a failed request: its per-field messages under the fields (keys may be prefixed, e.g. the recipe's "steps.0."). */
   const fromServer = useCallback((err: unknown) => show(serverFieldErrors(err)), [show]);
 
-  return { formRef, errors, check, fromServer, show, clear: () => setErrors({}), under: (key: string) => errorsUnder(errors, key) };
+  return {
+    formRef,
+    errors,
+    check,
+    fromServer,
+    show,
+    clear: () => setErrors({}),
+    under: (key: string) => errorsUnder(errors, key),
+  };
 }

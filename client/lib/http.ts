@@ -18,7 +18,11 @@ export async function http<T>(url: string, init: RequestInit & { json?: unknown 
   const res = await fetch(url, {
     credentials: 'same-origin',
     ...rest,
-    headers: { Accept: 'application/json', ...(json === undefined ? {} : { 'Content-Type': 'application/json' }), ...headers },
+    headers: {
+      Accept: 'application/json',
+      ...(json === undefined ? {} : { 'Content-Type': 'application/json' }),
+      ...headers,
+    },
     body: json === undefined ? rest.body : JSON.stringify(json),
   });
   if (res.status === 204) return undefined as T;

@@ -23,7 +23,9 @@ export function upload<T>(url: string, form: FormData, onProgress?: (fraction: n
       }
       if (xhr.status >= 200 && xhr.status < 300) return resolve(body as T);
       const e = body?.error ?? {};
-      reject(new ApiError(xhr.status, e.code ?? 'http_error', e.message ?? `Upload failed (${xhr.status}).`, e.details));
+      reject(
+        new ApiError(xhr.status, e.code ?? 'http_error', e.message ?? `Upload failed (${xhr.status}).`, e.details),
+      );
     };
     xhr.send(form);
   });

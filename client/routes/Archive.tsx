@@ -20,7 +20,8 @@ export function Archive() {
 
   const update = (next: ListParams, nextView: string = view) => {
     const s = new URLSearchParams();
-    for (const [k, v] of Object.entries(next)) if (v != null && v !== '' && !(k === 'page' && v === 1) && k !== 'pageSize') s.set(k, String(v));
+    for (const [k, v] of Object.entries(next))
+      if (v != null && v !== '' && !(k === 'page' && v === 1) && k !== 'pageSize') s.set(k, String(v));
     if (nextView === 'grid') s.set('view', 'grid');
     setSearch(s, { replace: true });
   };
@@ -37,26 +38,44 @@ export function Archive() {
               Export pieces (CSV)
             </DownloadLink>
           ) : null}
-          <DownloadLink href={exportUrls.palettesCsv()} hint="Every palette colour of the pieces you may see: photo, region, variant, L*a*b* (image estimate, D65/2°), hex and share">
+          <DownloadLink
+            href={exportUrls.palettesCsv()}
+            hint="Every palette colour of the pieces you may see: photo, region, variant, L*a*b* (image estimate, D65/2°), hex and share"
+          >
             Export palettes (CSV)
           </DownloadLink>
           {can('import:run') ? (
-            <Link to={paths.importPieces()} className="rounded-md border border-rule-strong bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+            <Link
+              to={paths.importPieces()}
+              className="rounded-md border border-rule-strong bg-sheet px-3 py-1.5 text-sm hover:bg-paper"
+            >
               Import CSV
             </Link>
           ) : null}
           {can('piece:create') ? (
-            <Link to={paths.pieceNew()} className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong">
+            <Link
+              to={paths.pieceNew()}
+              className="rounded-md bg-action px-4 py-2 text-sm font-medium text-white hover:bg-action-strong"
+            >
               Catalogue a piece
             </Link>
           ) : null}
         </>
       }
     >
-      <ArchiveFilters value={params} onChange={update} canSeeDrafts={can('piece:list-drafts')} canSeeDeleted={can('piece:delete')} />
+      <ArchiveFilters
+        value={params}
+        onChange={update}
+        canSeeDrafts={can('piece:list-drafts')}
+        canSeeDeleted={can('piece:delete')}
+      />
       <div className="my-4 flex flex-wrap items-center justify-between gap-3 text-sm">
         <p aria-live="polite" className="text-ink-soft">
-          {list.isPending ? 'Loading…' : list.isError ? list.error.message : `${list.data.total} piece${list.data.total === 1 ? '' : 's'}`}
+          {list.isPending
+            ? 'Loading…'
+            : list.isError
+              ? list.error.message
+              : `${list.data.total} piece${list.data.total === 1 ? '' : 's'}`}
         </p>
         <div role="group" aria-label="View" className="flex rounded-md border border-rule-strong overflow-hidden">
           {(['table', 'grid'] as const).map((v) => (
@@ -76,18 +95,32 @@ export function Archive() {
         view === 'grid' ? (
           <ArchiveGrid rows={list.data.items} />
         ) : (
-          <ArchiveTable rows={list.data.items} params={params} onSort={(sort, dir) => update({ ...params, sort, dir, page: 1 })} />
+          <ArchiveTable
+            rows={list.data.items}
+            params={params}
+            onSort={(sort, dir) => update({ ...params, sort, dir, page: 1 })}
+          />
         )
       ) : null}
       {pages > 1 ? (
         <nav aria-label="Pages" className="mt-4 flex items-center gap-3 text-sm">
-          <button type="button" className="rounded border border-rule-strong px-3 py-1 disabled:opacity-50" disabled={params.page! <= 1} onClick={() => update({ ...params, page: params.page! - 1 })}>
+          <button
+            type="button"
+            className="rounded border border-rule-strong px-3 py-1 disabled:opacity-50"
+            disabled={params.page! <= 1}
+            onClick={() => update({ ...params, page: params.page! - 1 })}
+          >
             Previous
           </button>
           <span className="num">
             Page {params.page} of {pages}
           </span>
-          <button type="button" className="rounded border border-rule-strong px-3 py-1 disabled:opacity-50" disabled={params.page! >= pages} onClick={() => update({ ...params, page: params.page! + 1 })}>
+          <button
+            type="button"
+            className="rounded border border-rule-strong px-3 py-1 disabled:opacity-50"
+            disabled={params.page! >= pages}
+            onClick={() => update({ ...params, page: params.page! + 1 })}
+          >
             Next
           </button>
         </nav>

@@ -24,7 +24,10 @@ export function ForgotPassword() {
   return (
     <div className="mx-auto max-w-sm py-10">
       <h1 className="text-3xl font-semibold">Forgotten password</h1>
-      <p className="mt-1 text-sm text-ink-soft">Enter the e-mail address you sign in with. If it belongs to an account, we send a link to choose a new password; it works once, for 2 hours.</p>
+      <p className="mt-1 text-sm text-ink-soft">
+        Enter the e-mail address you sign in with. If it belongs to an account, we send a link to choose a new password;
+        it works once, for 2 hours.
+      </p>
       {request.isSuccess ? (
         <div className="mt-6 space-y-4">
           <FormAlert tone="ok" message={request.data.message} />

@@ -6,10 +6,28 @@ import { useHealth } from '../features/health/api';
 import { paths } from '../paths';
 
 const tasks = [
-  { to: paths.archive(), title: 'Archive', text: 'Catalogue pieces to museum standards, with photos, regions and their measured palettes.' },
-  { to: paths.search(), title: 'Find', text: 'Search by words, dyestuff and mordant, and by shade within a CIEDE2000 radius.' },
-  { to: paths.trials(), title: 'Trials', action: 'trial:read', text: 'Record reproduction recipes, the safer mordants that replaced historical ones, and how close the result came.' },
-  { to: paths.baths(), title: 'Baths', action: 'batch:read', text: 'Keep mordant baths and print pastes in use, topped up, until they are exhausted.' },
+  {
+    to: paths.archive(),
+    title: 'Archive',
+    text: 'Catalogue pieces to museum standards, with photos, regions and their measured palettes.',
+  },
+  {
+    to: paths.search(),
+    title: 'Find',
+    text: 'Search by words, dyestuff and mordant, and by shade within a CIEDE2000 radius.',
+  },
+  {
+    to: paths.trials(),
+    title: 'Trials',
+    action: 'trial:read',
+    text: 'Record reproduction recipes, the safer mordants that replaced historical ones, and how close the result came.',
+  },
+  {
+    to: paths.baths(),
+    title: 'Baths',
+    action: 'batch:read',
+    text: 'Keep mordant baths and print pastes in use, topped up, until they are exhausted.',
+  },
 ] as const;
 
 export function Home() {
@@ -22,22 +40,31 @@ export function Home() {
         <h1 className="sr-only">Tinctoria</h1>
         <Wordmark />
         <p className="mt-4 max-w-2xl text-lg text-ink-soft font-serif">
-          An archive and reproduction notebook for historical dyed and printed textiles: catalogue the pieces, read their colours, and remake them with
-          safer chemistry.
+          An archive and reproduction notebook for historical dyed and printed textiles: catalogue the pieces, read
+          their colours, and remake them with safer chemistry.
         </p>
       </div>
       <ul className="grid gap-4 sm:grid-cols-2">
-        {tasks.filter((t) => !('action' in t) || can(t.action)).map((t) => (
-          <li key={t.to}>
-            <Link to={t.to} className="block h-full rounded-lg border border-rule bg-sheet p-5 hover:border-rule-strong">
-              <h2 className="text-xl font-semibold">{t.title}</h2>
-              <p className="mt-1 text-sm text-ink-soft">{t.text}</p>
-            </Link>
-          </li>
-        ))}
+        {tasks
+          .filter((t) => !('action' in t) || can(t.action))
+          .map((t) => (
+            <li key={t.to}>
+              <Link
+                to={t.to}
+                className="block h-full rounded-lg border border-rule bg-sheet p-5 hover:border-rule-strong"
+              >
+                <h2 className="text-xl font-semibold">{t.title}</h2>
+                <p className="mt-1 text-sm text-ink-soft">{t.text}</p>
+              </Link>
+            </li>
+          ))}
       </ul>
       <p className="mt-8 text-xs text-ink-faint" aria-live="polite">
-        {health.data ? `Version ${health.data.version} · database ${health.data.db}` : health.isError ? 'The server is not answering.' : 'Checking the server…'}
+        {health.data
+          ? `Version ${health.data.version} · database ${health.data.db}`
+          : health.isError
+            ? 'The server is not answering.'
+            : 'Checking the server…'}
       </p>
     </div>
   );

@@ -39,12 +39,21 @@ export function JoinTeam() {
     <div className="mx-auto max-w-sm py-10">
       <h1 className="text-3xl font-semibold">Join the team</h1>
       <p className="mt-1 text-sm text-ink-soft">
-        You are invited as <strong>{roleLabel[role]}</strong> with the address <span className="font-mono">{email}</span>. Choose the name others will see and a
-        password. The link expires on <time dateTime={expiresAt}>{formatDateTime(expiresAt)}</time>.
+        You are invited as <strong>{roleLabel[role]}</strong> with the address{' '}
+        <span className="font-mono">{email}</span>. Choose the name others will see and a password. The link expires on{' '}
+        <time dateTime={expiresAt}>{formatDateTime(expiresAt)}</time>.
       </p>
       <form ref={formRef} className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
         <Field label="Your name" name="name" autoComplete="name" required error={errors.name} />
-        <Field label="Password" name="password" type="password" autoComplete="new-password" required hint="At least 10 characters." error={errors.password} />
+        <Field
+          label="Password"
+          name="password"
+          type="password"
+          autoComplete="new-password"
+          required
+          hint="At least 10 characters."
+          error={errors.password}
+        />
         <FormAlert message={formMessage(accept.error)} />
         <Button type="submit" disabled={accept.isPending} className="w-full">
           {accept.isPending ? 'Joining…' : 'Join Tinctoria'}
@@ -65,7 +74,10 @@ const SPENT_TITLES: Record<string, string> = {
 function SpentInvitation({ error }: { error: Error }) {
   const reason = error instanceof ApiError && typeof error.details?.reason === 'string' ? error.details.reason : null;
   const title = (reason && SPENT_TITLES[reason]) ?? 'This invitation link is not valid';
-  const text = error instanceof ApiError && error.status !== 404 ? error.message : 'The link may have been copied incompletely. Open it again from the e-mail, or ask an admin to send a new invitation.';
+  const text =
+    error instanceof ApiError && error.status !== 404
+      ? error.message
+      : 'The link may have been copied incompletely. Open it again from the e-mail, or ask an admin to send a new invitation.';
   return (
     <div className="mx-auto max-w-md py-10 space-y-4" data-testid="spent-invitation">
       <h1 className="text-3xl font-semibold">{title}</h1>

@@ -3,7 +3,13 @@ import { Link, isRouteErrorResponse, useRouteError } from 'react-router-dom';
 import { ApiError } from '../lib/http';
 import { paths } from '../paths';
 
-export function NotFound({ title = 'Not found', text = 'There is nothing at this address, or you may not see it.' }: { title?: string; text?: string }) {
+export function NotFound({
+  title = 'Not found',
+  text = 'There is nothing at this address, or you may not see it.',
+}: {
+  title?: string;
+  text?: string;
+}) {
   useDocumentTitle(title);
   return (
     <div className="py-16 max-w-xl">
@@ -18,7 +24,11 @@ export function NotFound({ title = 'Not found', text = 'There is nothing at this
 }
 
 /** A signed-in user whose role does not allow this page. */
-export function Forbidden({ text = 'Your role does not include this part of Tinctoria. An admin can change your role on the team page.' }: { text?: string }) {
+export function Forbidden({
+  text = 'Your role does not include this part of Tinctoria. An admin can change your role on the team page.',
+}: {
+  text?: string;
+}) {
   useDocumentTitle('Not allowed');
   return (
     <div className="py-16 max-w-xl">
@@ -36,5 +46,10 @@ export function RouteError() {
   const error = useRouteError();
   if ((isRouteErrorResponse(error) || error instanceof ApiError) && error.status === 404) return <NotFound />;
   if ((isRouteErrorResponse(error) || error instanceof ApiError) && error.status === 403) return <Forbidden />;
-  return <NotFound title="Something went wrong" text={error instanceof Error ? error.message : 'An unexpected error stopped this page.'} />;
+  return (
+    <NotFound
+      title="Something went wrong"
+      text={error instanceof Error ? error.message : 'An unexpected error stopped this page.'}
+    />
+  );
 }

@@ -34,7 +34,8 @@ export function PhotoZoom() {
               ← {piece.title}
             </Link>
           ) : null}{' '}
-          Deep zoom from the IIIF tiles. Drag to pan, scroll or use the buttons to zoom; outlined rectangles are the photo&apos;s regions.
+          Deep zoom from the IIIF tiles. Drag to pan, scroll or use the buttons to zoom; outlined rectangles are the
+          photo&apos;s regions.
         </>
       }
     >
@@ -43,7 +44,9 @@ export function PhotoZoom() {
           <JobStatus job={job} title="Deep-zoom tiles" />
         </div>
       ) : null}
-      {tilesReady && !me.isPending ? <DeepZoomViewer photoId={photoId} regions={regions.data ?? []} label={`Photo ${photoId} in deep zoom`} /> : null}
+      {tilesReady && !me.isPending ? (
+        <DeepZoomViewer photoId={photoId} regions={regions.data ?? []} label={`Photo ${photoId} in deep zoom`} />
+      ) : null}
     </Page>
   );
 }

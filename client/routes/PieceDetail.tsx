@@ -21,7 +21,8 @@ export function PieceDetailPage() {
   const navigate = useNavigate();
   const [showHistory, setShowHistory] = useState(false);
   if (detail.isPending) return <p>Loading…</p>;
-  if (detail.isError) return <Page title="Piece not found" lead="There is no such piece, or it is not published yet." />;
+  if (detail.isError)
+    return <Page title="Piece not found" lead="There is no such piece, or it is not published yet." />;
   const { piece, photos } = detail.data;
   const can = piece.abilities;
   const deleted = piece.deletedAt != null;
@@ -33,26 +34,37 @@ export function PieceDetailPage() {
       documentTitle={piece.accessionNumber}
       lead={
         <span className="flex flex-wrap items-center gap-2">
-          <span className="font-mono">{piece.accessionNumber}</span> · {piece.objectName} <StatusBadge status={piece.status} deleted={deleted} />
+          <span className="font-mono">{piece.accessionNumber}</span> · {piece.objectName}{' '}
+          <StatusBadge status={piece.status} deleted={deleted} />
         </span>
       }
       actions={
         <>
           {!deleted ? <PieceTrialLinks pieceId={id} /> : null}
           {can['piece:update'] && !deleted ? (
-            <Link to={paths.pieceEdit(id)} className="rounded-md border border-rule-strong bg-sheet px-4 py-2 text-sm font-medium hover:bg-paper">
+            <Link
+              to={paths.pieceEdit(id)}
+              className="rounded-md border border-rule-strong bg-sheet px-4 py-2 text-sm font-medium hover:bg-paper"
+            >
               Edit
             </Link>
           ) : null}
           {can['piece:publish'] && !deleted ? (
-            <Button variant="secondary" disabled={update.isPending} onClick={() => update.mutate({ status: piece.status === 'published' ? 'draft' : 'published' })}>
+            <Button
+              variant="secondary"
+              disabled={update.isPending}
+              onClick={() => update.mutate({ status: piece.status === 'published' ? 'draft' : 'published' })}
+            >
               {piece.status === 'published' ? 'Unpublish' : 'Publish'}
             </Button>
           ) : null}
           {can['piece:delete'] && !deleted ? (
             <Button
               variant="danger"
-              onClick={() => confirm(`Delete ${piece.accessionNumber}? An admin can restore it.`) && remove.mutate(undefined, { onSuccess: () => navigate(paths.archive()) })}
+              onClick={() =>
+                confirm(`Delete ${piece.accessionNumber}? An admin can restore it.`) &&
+                remove.mutate(undefined, { onSuccess: () => navigate(paths.archive()) })
+              }
             >
               Delete
             </Button>
@@ -68,7 +80,9 @@ export function PieceDetailPage() {
       ) : null}
       <div className="grid gap-8">
         <PieceFacts piece={piece} />
-        {!deleted ? <PieceShareLinks pieceId={id} published={piece.status === 'published'} hasPhotos={photos.length > 0} /> : null}
+        {!deleted ? (
+          <PieceShareLinks pieceId={id} published={piece.status === 'published'} hasPhotos={photos.length > 0} />
+        ) : null}
         <section className="space-y-4">
           <h2 className="font-serif text-2xl">Photos and palettes</h2>
           {can['photo:create'] && !deleted ? <UploadPanel pieceId={id} /> : null}

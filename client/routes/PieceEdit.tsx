@@ -9,10 +9,16 @@ export function PieceNewPage() {
   const can = useCan();
   const create = useCreatePiece();
   const navigate = useNavigate();
-  if (!can('piece:create')) return <Page title="Catalogue a piece" lead="Only curators and admins catalogue pieces. Sign in with such an account." />;
+  if (!can('piece:create'))
+    return (
+      <Page title="Catalogue a piece" lead="Only curators and admins catalogue pieces. Sign in with such an account." />
+    );
   return (
     <Page title="Catalogue a piece" lead="Saved as a draft; publish it from the record when it is ready for visitors.">
-      <PieceForm submitLabel="Save draft" onSubmit={async (input) => navigate(paths.piece((await create.mutateAsync(input)).piece.id))} />
+      <PieceForm
+        submitLabel="Save draft"
+        onSubmit={async (input) => navigate(paths.piece((await create.mutateAsync(input)).piece.id))}
+      />
     </Page>
   );
 }

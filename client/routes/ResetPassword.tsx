@@ -51,7 +51,15 @@ export function ResetPassword() {
         </div>
       ) : (
         <form ref={formRef} className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
-          <Field label="New password" name="password" type="password" autoComplete="new-password" required hint="At least 10 characters." error={errors.password} />
+          <Field
+            label="New password"
+            name="password"
+            type="password"
+            autoComplete="new-password"
+            required
+            hint="At least 10 characters."
+            error={errors.password}
+          />
           <FormAlert message={formMessage(reset.error)} />
           {reset.error && !errors.password ? (
             <Link to={paths.forgotPassword()} className="block text-action underline text-sm">

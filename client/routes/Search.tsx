@@ -14,7 +14,16 @@ import { FacetList } from '../features/search/components/FacetList';
 import { ShadeResults } from '../features/search/components/ShadeResults';
 import { TextResults } from '../features/search/components/TextResults';
 
-const FACETS: FacetName[] = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'];
+const FACETS: FacetName[] = [
+  'dyestuff',
+  'historicalMordant',
+  'modernMordant',
+  'fibre',
+  'technique',
+  'century',
+  'place',
+  'status',
+];
 const SHADE = ['hex', 'L', 'a', 'b', 'maxDeltaE'];
 
 /** Find: words, facets and shade together; every choice lives in the URL so it can be shared or linked. */
@@ -68,9 +77,19 @@ export function Search() {
     setUrl(next);
   };
 
-  const shadeError = shadeInvalid ? new ApiError(400, 'invalid_input', 'Some fields are not valid.', { fields: shadeInvalid }) : shade.error instanceof ApiError ? shade.error : null;
+  const shadeError = shadeInvalid
+    ? new ApiError(400, 'invalid_input', 'Some fields are not valid.', { fields: shadeInvalid })
+    : shade.error instanceof ApiError
+      ? shade.error
+      : null;
   const choice: ShadeChoice | null = hasShade
-    ? { hex: url.get('hex') ?? undefined, L: url.get('L') ?? undefined, a: url.get('a') ?? undefined, b: url.get('b') ?? undefined, maxDeltaE: url.get('maxDeltaE') ?? '5' }
+    ? {
+        hex: url.get('hex') ?? undefined,
+        L: url.get('L') ?? undefined,
+        a: url.get('a') ?? undefined,
+        b: url.get('b') ?? undefined,
+        maxDeltaE: url.get('maxDeltaE') ?? '5',
+      }
     : null;
   // A refused shade shows its errors and no results: the previous query's results would answer a different question.
   const shadeData = shadeError ? undefined : shade.data;
@@ -80,7 +99,10 @@ export function Search() {
   const pages = Math.max(1, Math.ceil(total / pageSize));
 
   return (
-    <Page title="Find" lead="Search the archive by words, by dyestuff and mordant, and by shade within a CIEDE2000 radius.">
+    <Page
+      title="Find"
+      lead="Search the archive by words, by dyestuff and mordant, and by shade within a CIEDE2000 radius."
+    >
       <form
         ref={words.formRef}
         noValidate
@@ -116,7 +138,12 @@ export function Search() {
         ) : null}
       </form>
       <div className="grid gap-6 md:grid-cols-[16rem_1fr]">
-        <aside ref={narrowRef} aria-label="Shade and facets" className="order-last md:order-none min-w-0" data-testid="narrow-panel">
+        <aside
+          ref={narrowRef}
+          aria-label="Shade and facets"
+          className="order-last md:order-none min-w-0"
+          data-testid="narrow-panel"
+        >
           <button
             type="button"
             className="md:hidden w-full rounded-md border border-rule-strong bg-sheet px-3 py-2 text-left text-sm font-medium"
@@ -127,11 +154,26 @@ export function Search() {
             {narrowOpen ? '▾' : '▸'} Narrow by shade and facets{chosenCount ? ` (${chosenCount} chosen)` : ''}
           </button>
           <div id="narrow-choices" className={`${narrowOpen ? 'block' : 'hidden'} md:block mt-4 md:mt-0 space-y-6`}>
-            <ColourChooser value={choice} errors={shadeError?.details?.fields} onSearch={setShade} onClear={clearShade} />
-            <FacetList facets={hasShade ? shadeData?.facets : text.data?.facets} chosen={chosen} onToggle={toggle} onClear={clearFacets} />
+            <ColourChooser
+              value={choice}
+              errors={shadeError?.details?.fields}
+              onSearch={setShade}
+              onClear={clearShade}
+            />
+            <FacetList
+              facets={hasShade ? shadeData?.facets : text.data?.facets}
+              chosen={chosen}
+              onToggle={toggle}
+              onClear={clearFacets}
+            />
           </div>
         </aside>
-        <section aria-live="polite" aria-busy={text.isFetching || shade.isFetching} className="min-w-0" data-testid="search-results">
+        <section
+          aria-live="polite"
+          aria-busy={text.isFetching || shade.isFetching}
+          className="min-w-0"
+          data-testid="search-results"
+        >
           <button
             type="button"
             className="md:hidden mb-3 text-sm text-action underline"
@@ -143,16 +185,25 @@ export function Search() {
             Narrow by shade and facets{chosenCount ? ` (${chosenCount} chosen)` : ''} ↓
           </button>
           {/* Field errors sit under the shade's fields; only a refusal about no field is said here. */}
-          {shadeError && !shadeError.details?.fields ? <p className="text-danger text-sm mb-2">{shadeError.message}</p> : null}
+          {shadeError && !shadeError.details?.fields ? (
+            <p className="text-danger text-sm mb-2">{shadeError.message}</p>
+          ) : null}
           {text.error && !hasShade ? <p className="text-danger text-sm mb-2">{text.error.message}</p> : null}
           <p className="text-sm text-ink-soft mb-3" data-testid="result-count">
-            {hasShade && shadeError ? 'No search: correct the shade.' : list ? `${total} ${total === 1 ? 'piece' : 'pieces'}${hasShade ? ` within ΔE00 ${shadeData?.query.maxDeltaE} of ${shadeData?.query.hex}` : ''}` : 'Searching…'}
+            {hasShade && shadeError
+              ? 'No search: correct the shade.'
+              : list
+                ? `${total} ${total === 1 ? 'piece' : 'pieces'}${hasShade ? ` within ΔE00 ${shadeData?.query.maxDeltaE} of ${shadeData?.query.hex}` : ''}`
+                : 'Searching…'}
           </p>
           {hasShade && shadeData ? (
             <div className="space-y-4">
               {shadeData.items.length ? <AbPlot items={shadeData.items} query={shadeData.query} /> : null}
               {shadeData.items.length ? (
-                <DownloadLink href={exportUrls.shadeCsv(shadeExportQuery(params))} hint="Every match of this shade search, ranked by ΔE00, with L*a*b* (image estimate, D65/2°), hex and share">
+                <DownloadLink
+                  href={exportUrls.shadeCsv(shadeExportQuery(params))}
+                  hint="Every match of this shade search, ranked by ΔE00, with L*a*b* (image estimate, D65/2°), hex and share"
+                >
                   Export matches (CSV)
                 </DownloadLink>
               ) : null}

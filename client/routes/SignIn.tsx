@@ -10,7 +10,8 @@ import { formMessage, useFormErrors } from '../lib/form';
 import { paths } from '../paths';
 
 // Only a path inside the app, never another site (//host or a full URL).
-const safeNext = (next: string | null) => (next && next.startsWith('/') && !next.startsWith('//') ? next : paths.home());
+const safeNext = (next: string | null) =>
+  next && next.startsWith('/') && !next.startsWith('//') ? next : paths.home();
 
 export function SignIn() {
   useDocumentTitle('Sign in');
@@ -38,7 +39,14 @@ export function SignIn() {
       <p className="mt-1 text-sm text-ink-soft">Visitors can browse published pieces without signing in.</p>
       <form ref={formRef} className="mt-6 space-y-4" onSubmit={onSubmit} noValidate>
         <Field label="E-mail" name="email" type="email" autoComplete="username" required error={fieldErrors.email} />
-        <Field label="Password" name="password" type="password" autoComplete="current-password" required error={fieldErrors.password} />
+        <Field
+          label="Password"
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          required
+          error={fieldErrors.password}
+        />
         <FormAlert message={formError} />
         <Button type="submit" disabled={login.isPending} className="w-full">
           {login.isPending ? 'Signing in…' : 'Sign in'}

@@ -24,7 +24,11 @@ export function Team() {
         <InviteForm />
         <PendingInvitations />
         {team.isPending ? <p className="text-ink-soft">Loading the team…</p> : null}
-        {team.error ? <p role="alert" className="text-danger">{team.error.message}</p> : null}
+        {team.error ? (
+          <p role="alert" className="text-danger">
+            {team.error.message}
+          </p>
+        ) : null}
         {team.data && me ? (
           <>
             <TeamTable members={team.data.items} meId={me.user.id} />

@@ -7,23 +7,42 @@ export const LOGIN_LIMITS = { perEmail: 10, perIp: 30 } as const;
 /** Password-reset requests allowed per e-mail address and per IP address in an hour: each may send a mail. */
 export const RESET_LIMITS = { perEmail: 5, perIp: 20 } as const;
 
-type PairOptions = { windowMs: number; limits: { perEmail: number; perIp: number }; keyPrefix: string; skipSuccessfulRequests?: boolean; error: () => HttpError };
+type PairOptions = {
+  windowMs: number;
+  limits: { perEmail: number; perIp: number };
+  keyPrefix: string;
+  skipSuccessfulRequests?: boolean;
+  error: () => HttpError;
+};
 
 /** One limiter per IP address and one per e-mail address in the body, created per app instance (counters in memory). */
-function perIpAndEmail({ windowMs, limits, keyPrefix, skipSuccessfulRequests = false, error }: PairOptions): RequestHandler[] {
+function perIpAndEmail({
+  windowMs,
+  limits,
+  keyPrefix,
+  skipSuccessfulRequests = false,
+  error,
+}: PairOptions): RequestHandler[] {
   const common = {
     windowMs,
     standardHeaders: 'draft-8' as const,
     legacyHeaders: false,
     skipSuccessfulRequests,
-    handler: (_req: Parameters<RequestHandler>[0], _res: Parameters<RequestHandler>[1], next: Parameters<RequestHandler>[2]) => next(error()),
+    handler: (
+      _req: Parameters<RequestHandler>[0],
+      _res: Parameters<RequestHandler>[1],
+      next: Parameters<RequestHandler>[2],
+    ) => next(error()),
   };
   return [
     rateLimit({ ...common, limit: limits.perIp }),
     rateLimit({
       ...common,
       limit: limits.perEmail,
-      keyGenerator: (req) => `${keyPrefix}:${String((req.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase()}`,
+      keyGenerator: (req) =>
+        `${keyPrefix}:${String((req.body as { email?: unknown } | undefined)?.email ?? '')
+          .trim()
+          .toLowerCase()}`,
     }),
   ];
 }
@@ -40,9 +59,14 @@ export const loginRateLimits = () =>
     keyPrefix: 'email',
     skipSuccessfulRequests: true,
     error: () =>
-      new HttpError(429, 'too_many_attempts', `Too many failed sign-in attempts. Wait ${LOGIN_WINDOW_MS / 60_000} minutes and try again, or set a new password.`, {
-        retryAfterSeconds: LOGIN_WINDOW_MS / 1000,
-      }),
+      new HttpError(
+        429,
+        'too_many_attempts',
+        `Too many failed sign-in attempts. Wait ${LOGIN_WINDOW_MS / 60_000} minutes and try again, or set a new password.`,
+        {
+          retryAfterSeconds: LOGIN_WINDOW_MS / 1000,
+        },
+      ),
   });
 
 const RESET_WINDOW_MS = 60 * 60_000;
@@ -56,7 +80,12 @@ export const resetRequestRateLimits = () =>
     limits: RESET_LIMITS,
     keyPrefix: 'reset',
     error: () =>
-      new HttpError(429, 'too_many_requests', `Too many password-reset requests. Wait ${RESET_WINDOW_MS / 60_000} minutes and try again, or ask an administrator.`, {
-        retryAfterSeconds: RESET_WINDOW_MS / 1000,
-      }),
+      new HttpError(
+        429,
+        'too_many_requests',
+        `Too many password-reset requests. Wait ${RESET_WINDOW_MS / 60_000} minutes and try again, or ask an administrator.`,
+        {
+          retryAfterSeconds: RESET_WINDOW_MS / 1000,
+        },
+      ),
   });

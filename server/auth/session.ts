@@ -41,6 +41,11 @@ export function sessionMiddleware() {
     saveUninitialized: false,
     // Not rolling: a response to a request still in flight during a new sign-in would put the old, destroyed session id back in the cookie.
     rolling: false,
-    cookie: { httpOnly: true, sameSite: 'lax', secure: isProduction ? 'auto' : false, maxAge: 14 * 24 * 60 * 60 * 1000 },
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure: isProduction ? 'auto' : false,
+      maxAge: 14 * 24 * 60 * 60 * 1000,
+    },
   });
 }

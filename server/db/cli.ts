@@ -6,7 +6,8 @@ import { migrate, seed } from './setup.ts';
 const command = process.argv[2];
 try {
   if (command === 'migrate') console.log('applied:', (await migrate()).join(', ') || 'nothing to do');
-  else if (command === 'rollback') console.log('reverted:', (await createMigrator(sequelize).down()).map((m) => m.name).join(', ') || 'nothing');
+  else if (command === 'rollback')
+    console.log('reverted:', (await createMigrator(sequelize).down()).map((m) => m.name).join(', ') || 'nothing');
   else if (command === 'seed') console.log(await seed());
   else throw new Error('usage: cli.ts migrate|rollback|seed');
 } finally {

@@ -9,7 +9,11 @@ export function dublinCore(base: string, piece: Piece) {
     piece.repeatMm != null ? `repeat ${piece.repeatMm} mm` : null,
   ].filter(Boolean);
   const doc: Record<string, unknown> = {
-    '@context': { dcterms: 'http://purl.org/dc/terms/', xsd: 'http://www.w3.org/2001/XMLSchema#', edtf: 'http://id.loc.gov/datatypes/edtf/' },
+    '@context': {
+      dcterms: 'http://purl.org/dc/terms/',
+      xsd: 'http://www.w3.org/2001/XMLSchema#',
+      edtf: 'http://id.loc.gov/datatypes/edtf/',
+    },
     '@id': `${base}/api/pieces/${piece.id}/dublin-core.jsonld`,
     '@type': 'dcterms:PhysicalResource',
     'dcterms:identifier': piece.accessionNumber,
@@ -18,7 +22,10 @@ export function dublinCore(base: string, piece: Piece) {
     'dcterms:description': piece.description ?? undefined,
     'dcterms:date': piece.dateText ?? undefined,
     'dcterms:created': piece.dateEdtf ? { '@value': piece.dateEdtf, '@type': 'edtf:EDTF' } : undefined,
-    'dcterms:temporal': piece.earliestYear != null || piece.latestYear != null ? `${piece.earliestYear ?? '..'}/${piece.latestYear ?? '..'}` : undefined,
+    'dcterms:temporal':
+      piece.earliestYear != null || piece.latestYear != null
+        ? `${piece.earliestYear ?? '..'}/${piece.latestYear ?? '..'}`
+        : undefined,
     'dcterms:spatial': piece.place ?? undefined,
     'dcterms:medium': [...piece.fibres, ...evidenced(piece.dyestuffs), ...evidenced(piece.historicalMordants)],
     'dcterms:subject': piece.techniques,

@@ -13,7 +13,15 @@ export async function writeMastersZip(out: Writable, piece: Piece, photos: Photo
   const zip = new yazl.ZipFile();
   zip.outputStream.pipe(out);
   const lines: string[] = [];
-  const files: Array<{ photoId: number; view: string; file: string | null; sha256: string; bytes: number; originalName: string | null; missing?: true }> = [];
+  const files: Array<{
+    photoId: number;
+    view: string;
+    file: string | null;
+    sha256: string;
+    bytes: number;
+    originalName: string | null;
+    missing?: true;
+  }> = [];
   for (const photo of photos) {
     const master = await findMaster(photo);
     const name = master ? `masters/${photo.id}-${photo.view}${path.extname(master)}` : null;
@@ -21,13 +29,34 @@ export async function writeMastersZip(out: Writable, piece: Piece, photos: Photo
       // Stored, not deflated: masters are already compressed images and must come out byte for byte.
       zip.addFile(master, name, { compress: false });
       lines.push(`${photo.sha256}  ${name}`);
-      files.push({ photoId: photo.id, view: photo.view, file: name, sha256: photo.sha256, bytes: Number(photo.bytes), originalName: photo.originalName });
+      files.push({
+        photoId: photo.id,
+        view: photo.view,
+        file: name,
+        sha256: photo.sha256,
+        bytes: Number(photo.bytes),
+        originalName: photo.originalName,
+      });
     } else {
-      files.push({ photoId: photo.id, view: photo.view, file: null, sha256: photo.sha256, bytes: Number(photo.bytes), originalName: photo.originalName, missing: true });
+      files.push({
+        photoId: photo.id,
+        view: photo.view,
+        file: null,
+        sha256: photo.sha256,
+        bytes: Number(photo.bytes),
+        originalName: photo.originalName,
+        missing: true,
+      });
     }
   }
   zip.addBuffer(Buffer.from(lines.map((l) => `${l}\n`).join('')), 'manifest-sha256.txt');
-  const manifest = { accessionNumber: piece.accessionNumber, title: piece.title, algorithm: 'SHA-256', createdAt: new Date().toISOString(), files };
+  const manifest = {
+    accessionNumber: piece.accessionNumber,
+    title: piece.title,
+    algorithm: 'SHA-256',
+    createdAt: new Date().toISOString(),
+    files,
+  };
   zip.addBuffer(Buffer.from(JSON.stringify(manifest, null, 2)), 'manifest.json');
   zip.end();
   await new Promise((resolve, reject) => out.on('finish', resolve).on('error', reject));

@@ -7,8 +7,25 @@ import { PaletteColour, Photo, Piece, Region } from '../models/index.ts';
 // Each colour says what it is: an estimate from the photo (CIELAB D65/2°), never an instrument reading.
 // `share` is the colour's part of the cloth in its palette; a background row's is its part of the whole area.
 const COLUMNS = [
-  'pieceAccessionNumber', 'pieceTitle', 'photoId', 'photoName', 'region', 'regionId', 'variant', 'rank', 'background',
-  'L', 'a', 'b', 'hex', 'share', 'name', 'tradeName', 'source', 'illuminant', 'observer',
+  'pieceAccessionNumber',
+  'pieceTitle',
+  'photoId',
+  'photoName',
+  'region',
+  'regionId',
+  'variant',
+  'rank',
+  'background',
+  'L',
+  'a',
+  'b',
+  'hex',
+  'share',
+  'name',
+  'tradeName',
+  'source',
+  'illuminant',
+  'observer',
 ] as const;
 
 const PIECES_PER_BATCH = 200;
@@ -18,15 +35,29 @@ const n = (x: number, d: number) => x.toFixed(d);
 export async function writePalettesCsv(out: Writable, where: WhereOptions<Piece>) {
   const csv = stringify({ header: true, columns: [...COLUMNS] });
   csv.pipe(out);
-  const pieces = await Piece.findAll({ where, attributes: ['id', 'accessionNumber', 'title'], order: [['accessionNumber', 'ASC']], paranoid: false });
+  const pieces = await Piece.findAll({
+    where,
+    attributes: ['id', 'accessionNumber', 'title'],
+    order: [['accessionNumber', 'ASC']],
+    paranoid: false,
+  });
   for (let i = 0; i < pieces.length; i += PIECES_PER_BATCH) {
     const batch = pieces.slice(i, i + PIECES_PER_BATCH);
-    const photos = await Photo.findAll({ where: { pieceId: { [Op.in]: batch.map((p) => p.id) } }, attributes: ['id', 'pieceId', 'originalName'], order: [['id', 'ASC']] });
+    const photos = await Photo.findAll({
+      where: { pieceId: { [Op.in]: batch.map((p) => p.id) } },
+      attributes: ['id', 'pieceId', 'originalName'],
+      order: [['id', 'ASC']],
+    });
     const colours = photos.length
       ? await PaletteColour.findAll({
           where: { photoId: { [Op.in]: photos.map((p) => p.id) } },
           include: [{ model: Region, as: 'region', attributes: ['id', 'label', 'purpose'] }],
-          order: [['photoId', 'ASC'], ['regionId', 'ASC'], ['variant', 'ASC'], ['rank', 'ASC']],
+          order: [
+            ['photoId', 'ASC'],
+            ['regionId', 'ASC'],
+            ['variant', 'ASC'],
+            ['rank', 'ASC'],
+          ],
         })
       : [];
     const byPhoto = new Map<number, PaletteColour[]>();
@@ -45,7 +76,9 @@ export async function writePalettesCsv(out: Writable, where: WhereOptions<Piece>
             variant: c.variant,
             rank: c.rank,
             background: c.background ? 'yes' : 'no',
-            L: n(c.L, 2), a: n(c.a, 2), b: n(c.b, 2),
+            L: n(c.L, 2),
+            a: n(c.a, 2),
+            b: n(c.b, 2),
             hex: c.hex,
             share: n(c.share, 4),
             name: c.name,

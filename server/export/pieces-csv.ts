@@ -2,7 +2,12 @@ import type { Writable } from 'node:stream';
 import { stringify } from 'csv-stringify';
 import { Op } from 'sequelize';
 import { Piece } from '../models/index.ts';
-import { PIECE_CSV_FIELDS, LIST_SEPARATOR, formatEvidenced, type PieceCsvField } from '../../shared/schemas/piece-import.ts';
+import {
+  PIECE_CSV_FIELDS,
+  LIST_SEPARATOR,
+  formatEvidenced,
+  type PieceCsvField,
+} from '../../shared/schemas/piece-import.ts';
 
 const PAGE = 1000;
 
@@ -10,11 +15,28 @@ const PAGE = 1000;
 export function pieceCells(p: Piece): Record<PieceCsvField, string> {
   const s = (v: string | number | null) => (v === null || v === undefined ? '' : String(v));
   return {
-    accessionNumber: p.accessionNumber, objectName: p.objectName, title: p.title, dateText: s(p.dateText), dateEdtf: s(p.dateEdtf),
-    earliestYear: s(p.earliestYear), latestYear: s(p.latestYear), place: s(p.place), fibres: p.fibres.join(LIST_SEPARATOR),
-    weave: s(p.weave), threadCount: s(p.threadCount), heightMm: s(p.heightMm), widthMm: s(p.widthMm), repeatMm: s(p.repeatMm),
-    techniques: p.techniques.join(LIST_SEPARATOR), dyestuffs: formatEvidenced(p.dyestuffs), historicalMordants: formatEvidenced(p.historicalMordants),
-    description: s(p.description), provenance: s(p.provenance), condition: s(p.condition), creditLine: s(p.creditLine), status: p.status,
+    accessionNumber: p.accessionNumber,
+    objectName: p.objectName,
+    title: p.title,
+    dateText: s(p.dateText),
+    dateEdtf: s(p.dateEdtf),
+    earliestYear: s(p.earliestYear),
+    latestYear: s(p.latestYear),
+    place: s(p.place),
+    fibres: p.fibres.join(LIST_SEPARATOR),
+    weave: s(p.weave),
+    threadCount: s(p.threadCount),
+    heightMm: s(p.heightMm),
+    widthMm: s(p.widthMm),
+    repeatMm: s(p.repeatMm),
+    techniques: p.techniques.join(LIST_SEPARATOR),
+    dyestuffs: formatEvidenced(p.dyestuffs),
+    historicalMordants: formatEvidenced(p.historicalMordants),
+    description: s(p.description),
+    provenance: s(p.provenance),
+    condition: s(p.condition),
+    creditLine: s(p.creditLine),
+    status: p.status,
   };
 }
 

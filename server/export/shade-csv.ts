@@ -5,8 +5,24 @@ import type { Actor } from '../policies/index.ts';
 import { runShade } from '../search/service.ts';
 
 const COLUMNS = [
-  'rank', 'pieceAccessionNumber', 'pieceTitle', 'photoId', 'hex', 'L', 'a', 'b', 'share', 'source', 'illuminant', 'observer',
-  'deltaE00', 'queryHex', 'queryL', 'queryA', 'queryB', 'maxDeltaE',
+  'rank',
+  'pieceAccessionNumber',
+  'pieceTitle',
+  'photoId',
+  'hex',
+  'L',
+  'a',
+  'b',
+  'share',
+  'source',
+  'illuminant',
+  'observer',
+  'deltaE00',
+  'queryHex',
+  'queryL',
+  'queryA',
+  'queryB',
+  'maxDeltaE',
 ] as const;
 const PAGE = 200;
 
@@ -27,14 +43,18 @@ export async function writeShadeCsv(out: Writable, actor: Actor, input: ShadeQue
         pieceTitle: it.title,
         photoId: it.photoId,
         hex: it.colour.hex,
-        L: it.colour.lab.L.toFixed(2), a: it.colour.lab.a.toFixed(2), b: it.colour.lab.b.toFixed(2),
+        L: it.colour.lab.L.toFixed(2),
+        a: it.colour.lab.a.toFixed(2),
+        b: it.colour.lab.b.toFixed(2),
         share: it.colour.share.toFixed(4),
         source: it.colour.source,
         illuminant: it.colour.illuminant,
         observer: `${it.colour.observer}°`,
         deltaE00: it.deltaE00.toFixed(3),
         queryHex: res.query.hex,
-        queryL: res.query.L.toFixed(2), queryA: res.query.a.toFixed(2), queryB: res.query.b.toFixed(2),
+        queryL: res.query.L.toFixed(2),
+        queryA: res.query.a.toFixed(2),
+        queryB: res.query.b.toFixed(2),
         maxDeltaE: res.query.maxDeltaE,
       });
     }

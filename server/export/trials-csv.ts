@@ -8,19 +8,62 @@ import { trialRecipeMass } from '../../shared/trials/quantities.ts';
 // Colour columns: each colour with the illuminant and observer it is under, and the figures of
 // the one comparison the trial page shows (target and result under the same illuminant).
 const COLOUR_COLUMNS = [
-  'targetSource', 'targetIlluminant', 'targetObserver', 'targetL', 'targetA', 'targetB',
-  'resultSource', 'resultIlluminant', 'resultObserver', 'resultReadings', 'resultL', 'resultA', 'resultB',
-  'deltaE00', 'cmc21', 'cmc11', 'deltaEab', 'dL', 'dC', 'dH', 'verdict', 'colourNote',
+  'targetSource',
+  'targetIlluminant',
+  'targetObserver',
+  'targetL',
+  'targetA',
+  'targetB',
+  'resultSource',
+  'resultIlluminant',
+  'resultObserver',
+  'resultReadings',
+  'resultL',
+  'resultA',
+  'resultB',
+  'deltaE00',
+  'cmc21',
+  'cmc11',
+  'deltaEab',
+  'dL',
+  'dC',
+  'dH',
+  'verdict',
+  'colourNote',
 ] as const;
 // Fastness grades as recorded: blue wool 1–8 for light (ISO 105-B02), grey scale 1–5 for the rest
 // (change in colour ISO 105-A02, staining ISO 105-A03); which tests were informal is said beside them.
-const FASTNESS_COLUMNS = ['lightBlueWool', 'washChangeGrey', 'washStainingGrey', 'rubDryStainingGrey', 'rubWetStainingGrey', 'fastnessInformal', 'fastnessTestedOn'] as const;
+const FASTNESS_COLUMNS = [
+  'lightBlueWool',
+  'washChangeGrey',
+  'washStainingGrey',
+  'rubDryStainingGrey',
+  'rubWetStainingGrey',
+  'fastnessInformal',
+  'fastnessTestedOn',
+] as const;
 const COLUMNS = [
-  'code', 'pieceAccessionNumber', 'series', 'status', 'kind', 'dyer', 'fibre', 'weave', 'gsm', 'dryMassG',
+  'code',
+  'pieceAccessionNumber',
+  'series',
+  'status',
+  'kind',
+  'dyer',
+  'fibre',
+  'weave',
+  'gsm',
+  'dryMassG',
   // How the dry mass was weighed, and the air-dry (commercial) mass every % owf is of: oven-dry × (1 + regain),
   // ASTM D1909 regains recalled from memory (shared/data/moisture-regain.ts).
-  'dryMassBasis', 'airDryMassG', 'moistureRegainPct',
-  'startedOn', 'recipe', 'substitutions', ...COLOUR_COLUMNS, ...FASTNESS_COLUMNS, 'notes',
+  'dryMassBasis',
+  'airDryMassG',
+  'moistureRegainPct',
+  'startedOn',
+  'recipe',
+  'substitutions',
+  ...COLOUR_COLUMNS,
+  ...FASTNESS_COLUMNS,
+  'notes',
 ] as const;
 
 const n = (x: number | null | undefined, decimals: number) => (x == null ? '' : x.toFixed(decimals));
@@ -28,10 +71,17 @@ const colourCells = (prefix: 'target' | 'result', c: ResolvedColour | null) => (
   [`${prefix}Source`]: c?.source ?? '',
   [`${prefix}Illuminant`]: c?.illuminant ?? '',
   [`${prefix}Observer`]: c ? `${c.observer}°` : '',
-  [`${prefix}L`]: n(c?.L, 2), [`${prefix}A`]: n(c?.a, 2), [`${prefix}B`]: n(c?.b, 2),
+  [`${prefix}L`]: n(c?.L, 2),
+  [`${prefix}A`]: n(c?.a, 2),
+  [`${prefix}B`]: n(c?.b, 2),
 });
 
-const FASTNESS_TESTS = [['light', 'light'], ['washing', 'washing'], ['rubbingDry', 'dry rubbing'], ['rubbingWet', 'wet rubbing']] as const;
+const FASTNESS_TESTS = [
+  ['light', 'light'],
+  ['washing', 'washing'],
+  ['rubbingDry', 'dry rubbing'],
+  ['rubbingWet', 'wet rubbing'],
+] as const;
 
 function fastnessRow(f: Fastness | null) {
   const done = FASTNESS_TESTS.filter(([k]) => f?.[k]);
@@ -41,8 +91,14 @@ function fastnessRow(f: Fastness | null) {
     washStainingGrey: f?.washing?.staining ?? '',
     rubDryStainingGrey: f?.rubbingDry?.staining ?? '',
     rubWetStainingGrey: f?.rubbingWet?.staining ?? '',
-    fastnessInformal: done.filter(([k]) => f?.[k]?.informal).map(([, word]) => word).join('; '),
-    fastnessTestedOn: done.map(([k, word]) => (f?.[k]?.testedOn ? `${word} ${f[k]!.testedOn}` : null)).filter(Boolean).join('; '),
+    fastnessInformal: done
+      .filter(([k]) => f?.[k]?.informal)
+      .map(([, word]) => word)
+      .join('; '),
+    fastnessTestedOn: done
+      .map(([k, word]) => (f?.[k]?.testedOn ? `${word} ${f[k]!.testedOn}` : null))
+      .filter(Boolean)
+      .join('; '),
   };
 }
 
@@ -52,8 +108,14 @@ async function colourRow(t: Trial) {
     ...colourCells('target', target),
     ...colourCells('result', result),
     resultReadings: result?.readings ?? '',
-    deltaE00: n(d?.deltaE00, 2), cmc21: n(d?.cmc21, 2), cmc11: n(d?.cmc11, 2), deltaEab: n(d?.deltaEab, 2),
-    dL: n(d?.dL, 2), dC: n(d?.dC, 2), dH: n(d?.dH, 2), verdict: d?.verdict ?? '',
+    deltaE00: n(d?.deltaE00, 2),
+    cmc21: n(d?.cmc21, 2),
+    cmc11: n(d?.cmc11, 2),
+    deltaEab: n(d?.deltaEab, 2),
+    dL: n(d?.dL, 2),
+    dC: n(d?.dC, 2),
+    dH: n(d?.dH, 2),
+    verdict: d?.verdict ?? '',
     colourNote: note ?? missing?.message ?? '',
   };
 }
@@ -107,7 +169,10 @@ export async function writeTrialsCsv(out: Writable) {
         ],
       },
     ],
-    order: [['code', 'ASC'], [{ model: RecipeStep, as: 'steps' }, 'position', 'ASC']],
+    order: [
+      ['code', 'ASC'],
+      [{ model: RecipeStep, as: 'steps' }, 'position', 'ASC'],
+    ],
   })) as Loaded[];
   for (const t of trials) {
     csv.write({

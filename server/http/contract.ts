@@ -17,7 +17,12 @@ export function contractCheck(groups: RouteGroup[] = allGroups): RequestHandler 
   // A router mounted on a path with a parameter (e.g. '/:id/photos') has the actual values in req.baseUrl:
   // then the request path is matched against the contracts' patterns, the most literal first.
   const patterns = [...byRoute.entries()]
-    .map(([key, r]) => ({ key, method: r.method.toUpperCase(), params: (r.path.match(/:\w+/g) ?? []).length, re: new RegExp(`^${r.path.replace(/[.]/g, '\\.').replace(/:\w+/g, '[^/]+')}/?$`) }))
+    .map(([key, r]) => ({
+      key,
+      method: r.method.toUpperCase(),
+      params: (r.path.match(/:\w+/g) ?? []).length,
+      re: new RegExp(`^${r.path.replace(/[.]/g, '\\.').replace(/:\w+/g, '[^/]+')}/?$`),
+    }))
     .sort((a, b) => a.params - b.params);
   const find = (method: string, key: string | undefined, path: string) => {
     if (key && byRoute.has(key)) return key;
@@ -30,24 +35,46 @@ export function contractCheck(groups: RouteGroup[] = allGroups): RequestHandler 
       const wire: unknown = body === undefined ? undefined : JSON.parse(JSON.stringify(body));
       const status = res.statusCode;
       const routePath = typeof req.route?.path === 'string' ? req.route.path : undefined;
-      const matched = routePath === undefined ? undefined : `${req.method} ${req.baseUrl}${routePath === '/' && req.baseUrl ? '' : routePath}`;
+      const matched =
+        routePath === undefined
+          ? undefined
+          : `${req.method} ${req.baseUrl}${routePath === '/' && req.baseUrl ? '' : routePath}`;
       const key = routePath === undefined ? undefined : find(req.method, matched, req.baseUrl + req.path);
       const contract = key ? byRoute.get(key) : undefined;
       const violation = (message: string, details: Record<string, unknown>) => {
         res.status(500);
-        return json({ error: { code: 'contract_violation', message, details: { route: key ?? `${req.method} ${req.originalUrl}`, status, ...details } } });
+        return json({
+          error: {
+            code: 'contract_violation',
+            message,
+            details: { route: key ?? `${req.method} ${req.originalUrl}`, status, ...details },
+          },
+        });
       };
 
       if (status >= 400) {
         const parsed = errorSchema.safeParse(wire);
-        return parsed.success ? json(body) : violation(`A ${status} refusal does not have the error shape.`, { issues: parsed.error.issues });
+        return parsed.success
+          ? json(body)
+          : violation(`A ${status} refusal does not have the error shape.`, { issues: parsed.error.issues });
       }
       if (!contract) return json(body);
       const expected = contract.responses[status as keyof RouteContract['responses']];
-      if (expected === undefined) return violation(`${key} answered ${status}, which its contract does not list.`, { listed: Object.keys(contract.responses) });
-      if (!(expected instanceof z.ZodType)) return violation(`${key} answered JSON with ${status}, which its contract lists as ${expected === null ? 'no content' : expected.contentType}.`, {});
+      if (expected === undefined)
+        return violation(`${key} answered ${status}, which its contract does not list.`, {
+          listed: Object.keys(contract.responses),
+        });
+      if (!(expected instanceof z.ZodType))
+        return violation(
+          `${key} answered JSON with ${status}, which its contract lists as ${expected === null ? 'no content' : expected.contentType}.`,
+          {},
+        );
       const parsed = expected.safeParse(wire);
-      return parsed.success ? json(body) : violation(`${key} answered ${status} with a body its contract does not describe.`, { issues: parsed.error.issues });
+      return parsed.success
+        ? json(body)
+        : violation(`${key} answered ${status} with a body its contract does not describe.`, {
+            issues: parsed.error.issues,
+          });
     };
     next();
   };

@@ -19,20 +19,26 @@ export const unauthorized = (message = 'Sign in to continue.') => new HttpError(
 export const forbidden = (message = 'Your role does not allow this.') => new HttpError(403, 'forbidden', message);
 export const notFound = (what = 'Resource') => new HttpError(404, 'not_found', `${what} not found.`);
 export const conflict = (message: string, details?: unknown) => new HttpError(409, 'conflict', message, details);
-export const unprocessable = (message: string, details?: unknown) => new HttpError(422, 'unprocessable', message, details);
+export const unprocessable = (message: string, details?: unknown) =>
+  new HttpError(422, 'unprocessable', message, details);
 
 /** Per-field details from a zod error: { "field.path": ["message", …] }. */
 export const zodDetails = (err: ZodError) => ({ fields: fieldErrorsOf(err.issues) });
 
-export const apiNotFound: RequestHandler = (req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`));
+export const apiNotFound: RequestHandler = (req, _res, next) =>
+  next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`));
 
 export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   if (err instanceof ZodError) {
-    res.status(400).json({ error: { code: 'invalid_input', message: 'Some fields are not valid.', details: zodDetails(err) } });
+    res
+      .status(400)
+      .json({ error: { code: 'invalid_input', message: 'Some fields are not valid.', details: zodDetails(err) } });
     return;
   }
   if (err instanceof HttpError) {
-    res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details === undefined ? {} : { details: err.details }) } });
+    res.status(err.status).json({
+      error: { code: err.code, message: err.message, ...(err.details === undefined ? {} : { details: err.details }) },
+    });
     return;
   }
   if (err?.type === 'entity.parse.failed') {
@@ -44,7 +50,9 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
     return;
   }
   if (err?.name === 'SequelizeUniqueConstraintError') {
-    res.status(409).json({ error: { code: 'conflict', message: 'A record with that value already exists.', details: err.fields } });
+    res
+      .status(409)
+      .json({ error: { code: 'conflict', message: 'A record with that value already exists.', details: err.fields } });
     return;
   }
   console.error(err);

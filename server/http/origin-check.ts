@@ -13,7 +13,8 @@ export function originCheck(allowed: string[] = []): RequestHandler {
     if (SAFE.has(req.method)) return next();
     const origin = req.get('origin');
     const own = `${req.protocol}://${req.get('host')}`;
-    if (origin ? origin === own || allowed.includes(origin) : req.get('sec-fetch-site') === 'same-origin') return next();
+    if (origin ? origin === own || allowed.includes(origin) : req.get('sec-fetch-site') === 'same-origin')
+      return next();
     next(new HttpError(403, 'bad_origin', 'This request did not come from Tinctoria itself and was refused.'));
   };
 }

@@ -17,15 +17,27 @@ export type UploadOptions = {
   refuse?: (err: unknown) => HttpError | null;
 };
 
-const couldNotRead = (err: unknown) => (err instanceof multer.MulterError ? badRequest(`The upload could not be read: ${err.message}.`) : null);
+const couldNotRead = (err: unknown) =>
+  err instanceof multer.MulterError ? badRequest(`The upload could not be read: ${err.message}.`) : null;
 
-export function receiveUpload({ field, maxFiles, maxBytes, maxFields, tooLarge, refuse = couldNotRead }: UploadOptions): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: maxFiles, fields: maxFields } });
+export function receiveUpload({
+  field,
+  maxFiles,
+  maxBytes,
+  maxFields,
+  tooLarge,
+  refuse = couldNotRead,
+}: UploadOptions): RequestHandler {
+  const upload = multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: maxBytes, files: maxFiles, fields: maxFields },
+  });
   const receive = maxFiles === 1 ? upload.single(field) : upload.array(field, maxFiles);
   return (req, res, next) =>
     receive(req, res, (err: unknown) => {
       if (!err) return next();
-      if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', tooLarge(err)));
+      if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE')
+        return next(new HttpError(413, 'too_large', tooLarge(err)));
       next(refuse(err) ?? err);
     });
 }

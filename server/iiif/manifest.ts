@@ -9,7 +9,8 @@ import { iiifDir } from './files.ts';
 const lang = (value: string) => ({ none: [value] });
 const en = (value: string) => ({ en: [value] });
 const entry = (label: string, value: string) => ({ label: en(label), value: lang(value) });
-const terms = (list: Array<{ name: string; evidence: string }>) => list.map((t) => `${t.name} (${t.evidence})`).join('; ');
+const terms = (list: Array<{ name: string; evidence: string }>) =>
+  list.map((t) => `${t.name} (${t.evidence})`).join('; ');
 
 export type TileInfo = { width: number; height: number; full: string | null };
 
@@ -29,7 +30,11 @@ export async function tileInfo(photo: Photo): Promise<TileInfo> {
 }
 
 /** A photo's regions as W3C Web Annotations on a canvas fragment (Media Fragments xywh, in image pixels). */
-export function regionAnnotationPage(canvasId: string, regions: Region[], pageId = `${canvasId}/page/regions`): AnnotationPage {
+export function regionAnnotationPage(
+  canvasId: string,
+  regions: Region[],
+  pageId = `${canvasId}/page/regions`,
+): AnnotationPage {
   return {
     id: pageId,
     type: 'AnnotationPage',
@@ -43,7 +48,11 @@ export function regionAnnotationPage(canvasId: string, regions: Region[], pageId
   };
 }
 
-export async function buildManifest(base: string, piece: Piece, photos: Array<Photo & { regions?: Region[] }>): Promise<Manifest> {
+export async function buildManifest(
+  base: string,
+  piece: Piece,
+  photos: Array<Photo & { regions?: Region[] }>,
+): Promise<Manifest> {
   const id = `${base}/iiif/${piece.id}/manifest.json`;
   const metadata = [
     entry('Accession number', piece.accessionNumber),
@@ -61,7 +70,12 @@ export async function buildManifest(base: string, piece: Piece, photos: Array<Ph
     const canvasId = `${base}/iiif/${piece.id}/canvas/${photo.id}`;
     const service = `${base}/iiif/photos/${photo.id}`;
     const body = full
-      ? { id: `${service}/full/${full}/0/default.jpg`, type: 'Image' as const, format: 'image/jpeg', service: [{ id: service, type: 'ImageService3', profile: 'level0' }] }
+      ? {
+          id: `${service}/full/${full}/0/default.jpg`,
+          type: 'Image' as const,
+          format: 'image/jpeg',
+          service: [{ id: service, type: 'ImageService3', profile: 'level0' }],
+        }
       : { id: `${base}/media/photos/${photo.id}/display`, type: 'Image' as const, format: 'image/webp' };
     const regions = photo.regions ?? [];
     items.push({
@@ -74,7 +88,15 @@ export async function buildManifest(base: string, piece: Piece, photos: Array<Ph
         {
           id: `${canvasId}/page/painting`,
           type: 'AnnotationPage',
-          items: [{ id: `${canvasId}/annotation/painting`, type: 'Annotation', motivation: 'painting', body: { ...body, ...bodySize(full, width, height) }, target: canvasId }],
+          items: [
+            {
+              id: `${canvasId}/annotation/painting`,
+              type: 'Annotation',
+              motivation: 'painting',
+              body: { ...body, ...bodySize(full, width, height) },
+              target: canvasId,
+            },
+          ],
         },
       ],
       ...(regions.length ? { annotations: [regionAnnotationPage(canvasId, regions)] } : {}),

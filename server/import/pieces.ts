@@ -3,11 +3,24 @@ import { Chemical, Dyestuff, Piece, VocabularyTerm, sequelize } from '../models/
 import type { Actor } from '../policies/index.ts';
 import { HttpError } from '../http/errors.ts';
 import { accessionKey } from '../../shared/accession.ts';
-import { pieceImportRow, type ColumnMapping, type ImportError, type ImportPreview, type ImportResult, type PieceImportRow } from '../../shared/schemas/piece-import.ts';
+import {
+  pieceImportRow,
+  type ColumnMapping,
+  type ImportError,
+  type ImportPreview,
+  type ImportResult,
+  type PieceImportRow,
+} from '../../shared/schemas/piece-import.ts';
 import { decodeUtf8, readPieceCsv } from './csv-file.ts';
 
 const CHUNK = 1000;
-type Checked = { line: number; value: PieceImportRow | null; accessionNumber: string; title: string; errors: ImportError[] };
+type Checked = {
+  line: number;
+  value: PieceImportRow | null;
+  accessionNumber: string;
+  title: string;
+  errors: ImportError[];
+};
 
 /** Names the archive knows, compared case-insensitively; the stored spelling is the archive's. */
 async function vocabularies(transaction?: Transaction) {
@@ -29,7 +42,12 @@ async function vocabularies(transaction?: Transaction) {
 async function existingAccessions(numbers: string[], transaction?: Transaction) {
   const found = new Set<string>();
   for (let i = 0; i < numbers.length; i += CHUNK) {
-    const rows = await Piece.findAll({ attributes: ['accessionKey'], where: { accessionKey: { [Op.in]: numbers.slice(i, i + CHUNK) } }, paranoid: false, transaction });
+    const rows = await Piece.findAll({
+      attributes: ['accessionKey'],
+      where: { accessionKey: { [Op.in]: numbers.slice(i, i + CHUNK) } },
+      paranoid: false,
+      transaction,
+    });
     for (const r of rows) found.add(r.accessionKey);
   }
   return found;
@@ -46,7 +64,8 @@ export async function checkCsv(buffer: Buffer, mapping: ColumnMapping, transacti
     const errors = [...row.errors];
     const parsed = pieceImportRow.safeParse(row.cells);
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) errors.push({ line: row.line, field: String(issue.path[0] ?? '') || null, message: issue.message });
+      for (const issue of parsed.error.issues)
+        errors.push({ line: row.line, field: String(issue.path[0] ?? '') || null, message: issue.message });
     }
     const value = parsed.success ? parsed.data : null;
     if (value) {
@@ -58,27 +77,55 @@ export async function checkCsv(buffer: Buffer, mapping: ColumnMapping, transacti
         });
       value.fibres = known(value.fibres, vocab.fibre, 'fibres', 'fibre');
       value.techniques = known(value.techniques, vocab.technique, 'techniques', 'technique');
-      const names = known(value.dyestuffs.map((d) => d.name), vocab.dyestuff, 'dyestuffs', 'dyestuff');
+      const names = known(
+        value.dyestuffs.map((d) => d.name),
+        vocab.dyestuff,
+        'dyestuffs',
+        'dyestuff',
+      );
       value.dyestuffs = value.dyestuffs.map((d, i) => ({ ...d, name: names[i] }));
-      const mordants = known(value.historicalMordants.map((d) => d.name), vocab.mordant, 'historicalMordants', 'mordant (chemical)');
+      const mordants = known(
+        value.historicalMordants.map((d) => d.name),
+        vocab.mordant,
+        'historicalMordants',
+        'mordant (chemical)',
+      );
       value.historicalMordants = value.historicalMordants.map((d, i) => ({ ...d, name: mordants[i] }));
       const key = accessionKey(value.accessionNumber);
       const first = firstLine.get(key);
-      if (first !== undefined) errors.push({ line: row.line, field: 'accessionNumber', message: `Accession number ${value.accessionNumber} is also on line ${first} of this file.` });
+      if (first !== undefined)
+        errors.push({
+          line: row.line,
+          field: 'accessionNumber',
+          message: `Accession number ${value.accessionNumber} is also on line ${first} of this file.`,
+        });
       else firstLine.set(key, row.line);
     }
-    return { line: row.line, value, accessionNumber: row.cells.accessionNumber.trim(), title: row.cells.title.trim(), errors };
+    return {
+      line: row.line,
+      value,
+      accessionNumber: row.cells.accessionNumber.trim(),
+      title: row.cells.title.trim(),
+      errors,
+    };
   });
   const inArchive = await existingAccessions([...firstLine.keys()], transaction);
   for (const c of checked) {
     if (c.value && inArchive.has(accessionKey(c.value.accessionNumber)))
-      c.errors.push({ line: c.line, field: 'accessionNumber', message: `Accession number ${c.value.accessionNumber} is already in the archive.` });
+      c.errors.push({
+        line: c.line,
+        field: 'accessionNumber',
+        message: `Accession number ${c.value.accessionNumber} is already in the archive.`,
+      });
   }
   if (!checked.length) fileErrors.push({ line: 2, field: null, message: 'The file has a header but no pieces.' });
   return { checked, fileErrors };
 }
 
-const allErrors = (checked: Checked[], fileErrors: ImportError[]) => [...fileErrors, ...checked.flatMap((c) => c.errors)];
+const allErrors = (checked: Checked[], fileErrors: ImportError[]) => [
+  ...fileErrors,
+  ...checked.flatMap((c) => c.errors),
+];
 
 export function preview(checked: Checked[], fileErrors: ImportError[]): ImportPreview {
   const invalid = checked.filter((c) => c.errors.length).length;
@@ -93,13 +140,24 @@ export function preview(checked: Checked[], fileErrors: ImportError[]): ImportPr
 }
 
 /** All rows or none: every piece is created in one transaction, in chunks so 10,000 rows stay quick. */
-export async function importPieces({ actor, input }: { actor: NonNullable<Actor>; input: { buffer: Buffer; mapping: ColumnMapping } }): Promise<ImportResult> {
+export async function importPieces({
+  actor,
+  input,
+}: {
+  actor: NonNullable<Actor>;
+  input: { buffer: Buffer; mapping: ColumnMapping };
+}): Promise<ImportResult> {
   return sequelize.transaction(async (transaction) => {
     const { checked, fileErrors } = await checkCsv(input.buffer, input.mapping, transaction);
     const errors = allErrors(checked, fileErrors);
     if (errors.length) {
       const lines = new Set(errors.map((e) => e.line)).size;
-      throw new HttpError(422, 'import_invalid', `${errors.length} error(s) on ${lines} line(s); nothing was imported.`, { errors });
+      throw new HttpError(
+        422,
+        'import_invalid',
+        `${errors.length} error(s) on ${lines} line(s); nothing was imported.`,
+        { errors },
+      );
     }
     const ids: number[] = [];
     for (let i = 0; i < checked.length; i += CHUNK) {

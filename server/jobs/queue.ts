@@ -3,7 +3,13 @@ import { sequelize as defaultDb, Job } from '../models/index.ts';
 import { isJobType, jobPayloads, type JobPayload, type JobType } from '../../shared/schemas/jobs.ts';
 
 /** A claimed job. The worker hands it to its handler only once the payload has passed the kind's schema. */
-export type ClaimedJob<P = Record<string, unknown>> = { id: number; type: string; payload: P; attempts: number; maxAttempts: number };
+export type ClaimedJob<P = Record<string, unknown>> = {
+  id: number;
+  type: string;
+  payload: P;
+  attempts: number;
+  maxAttempts: number;
+};
 
 /** Thrown by a handler when retrying cannot help (a missing file, a deleted photo). */
 export class PermanentJobError extends Error {}
@@ -15,7 +21,8 @@ type EnqueueOptions = {
   runAfter?: Date;
 };
 /** The payload a kind takes (shared/schemas/jobs.ts `jobPayloads`); optional when it takes none. */
-type PayloadField<K extends JobType> = JobPayload<K> extends Record<string, never> ? { payload?: JobPayload<K> } : { payload: JobPayload<K> };
+type PayloadField<K extends JobType> =
+  JobPayload<K> extends Record<string, never> ? { payload?: JobPayload<K> } : { payload: JobPayload<K> };
 /** A job of one kind, with the payload that kind takes: `{ type: 'tile-photo', payload: { photoId } }`. */
 export type EnqueueInput<K extends JobType = JobType> = { [T in K]: { type: T } & PayloadField<T> & EnqueueOptions }[K];
 
@@ -28,7 +35,10 @@ export async function enqueue<K extends JobType>(input: EnqueueInput<K>, transac
  * Queue a job of a kind outside `jobPayloads` (the queue tests' throwaway kinds). A known kind's
  * payload is still checked against its schema; prefer enqueue() everywhere else.
  */
-export async function enqueueUntyped(input: { type: string; payload?: Record<string, unknown> } & EnqueueOptions, transaction?: Transaction) {
+export async function enqueueUntyped(
+  input: { type: string; payload?: Record<string, unknown> } & EnqueueOptions,
+  transaction?: Transaction,
+) {
   return insertJob(input, transaction);
 }
 
@@ -61,7 +71,10 @@ async function insertJob(input: { type: string; payload?: object } & EnqueueOpti
  * other app servers) run the same query at once: each sees only rows no other
  * open transaction has locked, so no job is handed out twice.
  */
-export async function claim(workerId: string, opts: { db?: Sequelize; types?: string[] } = {}): Promise<ClaimedJob | null> {
+export async function claim(
+  workerId: string,
+  opts: { db?: Sequelize; types?: string[] } = {},
+): Promise<ClaimedJob | null> {
   const db = opts.db ?? defaultDb;
   return db.transaction(async (transaction) => {
     const now = new Date();
@@ -82,7 +95,13 @@ export async function claim(workerId: string, opts: { db?: Sequelize; types?: st
       { type: QueryTypes.SELECT, transaction, replacements: { id } },
     );
     const payload = typeof job.payload === 'string' ? JSON.parse(job.payload) : job.payload;
-    return { id, type: job.type, payload: (payload ?? {}) as Record<string, unknown>, attempts: Number(job.attempts), maxAttempts: Number(job.maxAttempts) };
+    return {
+      id,
+      type: job.type,
+      payload: (payload ?? {}) as Record<string, unknown>,
+      attempts: Number(job.attempts),
+      maxAttempts: Number(job.maxAttempts),
+    };
   });
 }
 
@@ -96,7 +115,12 @@ export async function reportProgress(jobId: number, workerId: string, progress: 
   return Number(affected) > 0;
 }
 
-export async function complete(jobId: number, workerId: string, result: Record<string, unknown> | null, db: Sequelize = defaultDb) {
+export async function complete(
+  jobId: number,
+  workerId: string,
+  result: Record<string, unknown> | null,
+  db: Sequelize = defaultDb,
+) {
   const now = new Date();
   await db.query(
     `UPDATE jobs SET state = 'done', progress = 1, result = :result, lockedBy = NULL, lockedAt = NULL, finishedAt = :now, updatedAt = :now
@@ -106,7 +130,13 @@ export async function complete(jobId: number, workerId: string, result: Record<s
 }
 
 /** A failure re-queues the job with a back-off until its attempts run out; then it stays failed with the reason. */
-export async function fail(job: ClaimedJob, workerId: string, reason: string, permanent: boolean, db: Sequelize = defaultDb) {
+export async function fail(
+  job: ClaimedJob,
+  workerId: string,
+  reason: string,
+  permanent: boolean,
+  db: Sequelize = defaultDb,
+) {
   const now = new Date();
   const final = permanent || job.attempts >= job.maxAttempts;
   const runAfter = new Date(now.getTime() + 5_000 * job.attempts ** 2);
@@ -115,7 +145,15 @@ export async function fail(job: ClaimedJob, workerId: string, reason: string, pe
        finishedAt = :finishedAt, updatedAt = :now WHERE id = :id AND state = 'running' AND lockedBy = :workerId`,
     {
       type: QueryTypes.UPDATE,
-      replacements: { state: final ? 'failed' : 'queued', reason: reason.slice(0, 2000), runAfter, finishedAt: final ? now : null, now, id: job.id, workerId },
+      replacements: {
+        state: final ? 'failed' : 'queued',
+        reason: reason.slice(0, 2000),
+        runAfter,
+        finishedAt: final ? now : null,
+        now,
+        id: job.id,
+        workerId,
+      },
     },
   );
   return final;
@@ -144,7 +182,17 @@ export async function requeueStale(staleMs: number, db: Sequelize = defaultDb) {
 /** A failed job starts again with fresh attempts. */
 export async function retry(job: Job, transaction?: Transaction) {
   await job.update(
-    { state: 'queued', attempts: 0, progress: 0, error: null, lockedBy: null, lockedAt: null, runAfter: new Date(), startedAt: null, finishedAt: null },
+    {
+      state: 'queued',
+      attempts: 0,
+      progress: 0,
+      error: null,
+      lockedBy: null,
+      lockedAt: null,
+      runAfter: new Date(),
+      startedAt: null,
+      finishedAt: null,
+    },
     { transaction },
   );
   return job;

@@ -39,6 +39,8 @@ export function checkPayload(type: string, payload: unknown): PayloadCheck {
   if (!isJobType(type)) return { ok: true, payload: (payload ?? {}) as Record<string, unknown> };
   const parsed = jobPayloads[type].safeParse(payload ?? {});
   if (parsed.success) return { ok: true, payload: parsed.data };
-  const issues = parsed.error.issues.map((i) => (i.path.length ? `${i.path.join('.')}: ${i.message}` : i.message)).join('; ');
+  const issues = parsed.error.issues
+    .map((i) => (i.path.length ? `${i.path.join('.')}: ${i.message}` : i.message))
+    .join('; ');
   return { ok: false, reason: `The job's payload is not valid for a ${type} job (${issues}), so it was not run.` };
 }

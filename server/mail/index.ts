@@ -22,7 +22,8 @@ function useCatcher(port: number) {
  */
 export async function startLocalMail(port = 0): Promise<MailCatcher | null> {
   if (env.SMTP_URL) return null;
-  if (isProduction) throw new Error('SMTP_URL is required in production; the local mail catcher runs only outside production.');
+  if (isProduction)
+    throw new Error('SMTP_URL is required in production; the local mail catcher runs only outside production.');
   const catcher = await startMailCatcher(mailDir(), port);
   useCatcher(catcher.port);
   return {
@@ -37,6 +38,7 @@ export async function startLocalMail(port = 0): Promise<MailCatcher | null> {
 
 /** Send one message with a plain-text and an HTML part. Everyone sends mail through this. */
 export async function sendMail(message: MailMessage): Promise<void> {
-  if (!transport) throw new Error('No mail transport: set SMTP_URL, or start the local catcher (startLocalMail) first.');
+  if (!transport)
+    throw new Error('No mail transport: set SMTP_URL, or start the local catcher (startLocalMail) first.');
   await transport.sendMail({ from: env.MAIL_FROM, ...message });
 }

@@ -1,7 +1,12 @@
 import type { Role } from '../../shared/roles.ts';
 import { letter } from './templates.ts';
 
-const roleWords: Record<Role, string> = { admin: 'an admin', curator: 'a curator', researcher: 'a researcher', dyer: 'a dyer' };
+const roleWords: Record<Role, string> = {
+  admin: 'an admin',
+  curator: 'a curator',
+  researcher: 'a researcher',
+  dyer: 'a dyer',
+};
 const when = (d: Date) => d.toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
 
 export const invitationLetter = (m: { to: string; role: Role; inviter: string; url: string; expiresAt: Date }) =>
@@ -22,7 +27,9 @@ export const resetLetter = (m: { to: string; name: string; url: string; expiresA
     to: m.to,
     subject: 'Set a new Tinctoria password',
     greeting: `Hello ${m.name},`,
-    paragraphs: ['Someone asked to set a new password for your Tinctoria account. Follow the link to choose one; it works once and signs you out everywhere else.'],
+    paragraphs: [
+      'Someone asked to set a new password for your Tinctoria account. Follow the link to choose one; it works once and signs you out everywhere else.',
+    ],
     action: { label: 'Choose a new password', url: m.url },
     footnote: `The link expires on ${when(m.expiresAt)}. If you did not ask for it, ignore this message: your password stays as it is.`,
   });

@@ -2,7 +2,15 @@ import { readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { simpleParser, type AddressObject } from 'mailparser';
 
-export type CaughtMail = { id: string; subject: string; from: string; to: string[]; date: string | null; text: string; html: string | null };
+export type CaughtMail = {
+  id: string;
+  subject: string;
+  from: string;
+  to: string[];
+  date: string | null;
+  text: string;
+  html: string | null;
+};
 
 const addresses = (a: AddressObject | AddressObject[] | undefined) =>
   (Array.isArray(a) ? a : a ? [a] : []).flatMap((o) => o.value.map((v) => v.address ?? '')).filter(Boolean);
@@ -10,7 +18,10 @@ const addresses = (a: AddressObject | AddressObject[] | undefined) =>
 /** The catcher's .eml file names, newest first (names start with the time). */
 export async function mailFiles(dir: string): Promise<string[]> {
   const names = await readdir(dir).catch(() => [] as string[]);
-  return names.filter((n) => n.endsWith('.eml')).sort().reverse();
+  return names
+    .filter((n) => n.endsWith('.eml'))
+    .sort()
+    .reverse();
 }
 
 export async function readMail(dir: string, id: string): Promise<CaughtMail> {

@@ -21,13 +21,20 @@ function borderConnected({ width, height, labels }: Frame, isBg: boolean[]) {
     seen[p] = 1;
     stack.push(p);
   };
-  for (let x = 0; x < width; x++) { push(x); push((height - 1) * width + x); }
-  for (let y = 0; y < height; y++) { push(y * width); push(y * width + width - 1); }
+  for (let x = 0; x < width; x++) {
+    push(x);
+    push((height - 1) * width + x);
+  }
+  for (let y = 0; y < height; y++) {
+    push(y * width);
+    push(y * width + width - 1);
+  }
   const counts = isBg.map(() => 0);
   while (stack.length) {
     const p = stack.pop()!;
     counts[pixelLabel(p)]++;
-    const x = p % width, y = (p - x) / width;
+    const x = p % width,
+      y = (p - x) / width;
     if (x > 0) push(p - 1);
     if (x < width - 1) push(p + 1);
     if (y > 0) push(p - width);
@@ -44,41 +51,60 @@ function borderConnected({ width, height, labels }: Frame, isBg: boolean[]) {
  */
 function enclosedShare(labels: Int32Array, width: number, height: number, c: number) {
   const n = width * height;
-  const seen = new Uint8Array(n), keep = new Uint8Array(n);
+  const seen = new Uint8Array(n),
+    keep = new Uint8Array(n);
   const order = new Int32Array(n);
   const minArea = Math.max(16, Math.round(CLOTH_MIN_AREA * n));
   const isCloth = (p: number) => labels[p] >= 0 && labels[p] !== c;
   for (let start = 0; start < n; start++) {
     if (seen[start] || !isCloth(start)) continue;
     // Flood one 4-connected component; `order` doubles as its pixel list and the stack.
-    let head = 0, tail = 0;
+    let head = 0,
+      tail = 0;
     order[tail++] = start;
     seen[start] = 1;
     while (head < tail) {
       const p = order[head++];
       const x = p % width;
-      if (x > 0 && !seen[p - 1] && isCloth(p - 1)) { seen[p - 1] = 1; order[tail++] = p - 1; }
-      if (x < width - 1 && !seen[p + 1] && isCloth(p + 1)) { seen[p + 1] = 1; order[tail++] = p + 1; }
-      if (p >= width && !seen[p - width] && isCloth(p - width)) { seen[p - width] = 1; order[tail++] = p - width; }
-      if (p < n - width && !seen[p + width] && isCloth(p + width)) { seen[p + width] = 1; order[tail++] = p + width; }
+      if (x > 0 && !seen[p - 1] && isCloth(p - 1)) {
+        seen[p - 1] = 1;
+        order[tail++] = p - 1;
+      }
+      if (x < width - 1 && !seen[p + 1] && isCloth(p + 1)) {
+        seen[p + 1] = 1;
+        order[tail++] = p + 1;
+      }
+      if (p >= width && !seen[p - width] && isCloth(p - width)) {
+        seen[p - width] = 1;
+        order[tail++] = p - width;
+      }
+      if (p < n - width && !seen[p + width] && isCloth(p + width)) {
+        seen[p + width] = 1;
+        order[tail++] = p + width;
+      }
     }
     if (tail >= minArea) for (let k = 0; k < tail; k++) keep[order[k]] = 1;
   }
-  const rowMin = new Int32Array(height).fill(width), rowMax = new Int32Array(height).fill(-1);
-  const colMin = new Int32Array(width).fill(height), colMax = new Int32Array(width).fill(-1);
+  const rowMin = new Int32Array(height).fill(width),
+    rowMax = new Int32Array(height).fill(-1);
+  const colMin = new Int32Array(width).fill(height),
+    colMax = new Int32Array(width).fill(-1);
   for (let p = 0; p < n; p++) {
     if (!keep[p]) continue;
-    const x = p % width, y = (p - x) / width;
+    const x = p % width,
+      y = (p - x) / width;
     if (x < rowMin[y]) rowMin[y] = x;
     if (x > rowMax[y]) rowMax[y] = x;
     if (y < colMin[x]) colMin[x] = y;
     if (y > colMax[x]) colMax[x] = y;
   }
-  let inside = 0, all = 0;
+  let inside = 0,
+    all = 0;
   for (let p = 0; p < n; p++) {
     if (labels[p] !== c) continue;
     all++;
-    const x = p % width, y = (p - x) / width;
+    const x = p % width,
+      y = (p - x) / width;
     if ((x > rowMin[y] && x < rowMax[y]) || (y > colMin[x] && y < colMax[x])) inside++;
   }
   return all ? inside / all : 0;
@@ -103,10 +129,16 @@ export function backgroundColours(frame: Frame & { centres: number[][]; weight: 
       bandTotal++;
     }
   }
-  const isBg = centres.map((c, i) => bandTotal > 0 && inBand[i] / bandTotal >= BG_BORDER_SHARE && Math.hypot(c[1], c[2]) <= BG_MAX_CHROMA);
+  const isBg = centres.map(
+    (c, i) => bandTotal > 0 && inBand[i] / bandTotal >= BG_BORDER_SHARE && Math.hypot(c[1], c[2]) <= BG_MAX_CHROMA,
+  );
   if (!isBg.some(Boolean)) return isBg;
   const reached = borderConnected(frame, isBg);
-  centres.forEach((_, i) => { if (isBg[i] && reached[i] < 0.5 * weight[i]) isBg[i] = false; });
-  centres.forEach((_, i) => { if (isBg[i] && enclosedShare(labels, width, height, i) > BG_MAX_ENCLOSED) isBg[i] = false; });
+  centres.forEach((_, i) => {
+    if (isBg[i] && reached[i] < 0.5 * weight[i]) isBg[i] = false;
+  });
+  centres.forEach((_, i) => {
+    if (isBg[i] && enclosedShare(labels, width, height, i) > BG_MAX_ENCLOSED) isBg[i] = false;
+  });
   return isBg;
 }

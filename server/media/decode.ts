@@ -45,7 +45,11 @@ type Device = {
 type Managed = { kind: 'lcms'; sixteen: boolean };
 export type ColourSource = { mode: Device | Managed; facts: PhotoColourFacts };
 
-const IDENTITY: M3 = [[1, 0, 0], [0, 1, 0], [0, 0, 1]];
+const IDENTITY: M3 = [
+  [1, 0, 0],
+  [0, 1, 0],
+  [0, 0, 1],
+];
 const srgbCurve: Curve = (x) => (x <= 0.04045 ? x / 12.92 : ((x + 0.055) / 1.055) ** 2.4);
 
 const lutCache = new Map<string, Float32Array[]>();
@@ -65,8 +69,27 @@ function luts(key: string, curves: Curve[], bits: 8 | 16): Float32Array[] {
   return hit;
 }
 
-const SPACES: Record<string, string> = { srgb: 'RGB', rgb: 'RGB', rgb16: 'RGB', 'b-w': 'grey', grey16: 'grey', cmyk: 'CMYK', labs: 'CIELAB', lab: 'CIELAB', scrgb: 'RGB (linear, floating point)' };
-const BITS: Record<string, number> = { uchar: 8, char: 8, ushort: 16, short: 16, uint: 32, int: 32, float: 32, double: 64 };
+const SPACES: Record<string, string> = {
+  srgb: 'RGB',
+  rgb: 'RGB',
+  rgb16: 'RGB',
+  'b-w': 'grey',
+  grey16: 'grey',
+  cmyk: 'CMYK',
+  labs: 'CIELAB',
+  lab: 'CIELAB',
+  scrgb: 'RGB (linear, floating point)',
+};
+const BITS: Record<string, number> = {
+  uchar: 8,
+  char: 8,
+  ushort: 16,
+  short: 16,
+  uint: 32,
+  int: 32,
+  float: 32,
+  double: 64,
+};
 
 /**
  * Decides how the photo's pixels are read, and the facts to record: the embedded profile (or none:
@@ -77,7 +100,11 @@ export function colourSource(meta: Metadata): ColourSource {
   const bitDepth = BITS[meta.depth ?? 'uchar'] ?? 8;
   const colourSpace = SPACES[meta.space ?? ''] ?? meta.space ?? 'unknown';
   if (meta.space === 'cmyk') {
-    throw new HttpError(415, 'cmyk_not_supported', 'This photo is in CMYK, a printing colour model, and its colours cannot be measured reliably from it. Export it as RGB (sRGB, Display P3 or Adobe RGB) with the profile embedded and upload that.');
+    throw new HttpError(
+      415,
+      'cmyk_not_supported',
+      'This photo is in CMYK, a printing colour model, and its colours cannot be measured reliably from it. Export it as RGB (sRGB, Display P3 or Adobe RGB) with the profile embedded and upload that.',
+    );
   }
   const base = { bitDepth, colourSpace, cmykConverted: false };
   const deviceBits = meta.depth === 'uchar' ? 8 : meta.depth === 'ushort' ? 16 : null;
@@ -85,32 +112,62 @@ export function colourSource(meta: Metadata): ColourSource {
   const rgb = meta.space === 'srgb' || meta.space === 'rgb16' || meta.space === 'rgb';
   if (meta.icc) {
     let profile: ReturnType<typeof parseIcc> | null = null;
-    try { profile = parseIcc(meta.icc); } catch { profile = null; }
+    try {
+      profile = parseIcc(meta.icc);
+    } catch {
+      profile = null;
+    }
     const description = profile?.description ?? 'embedded profile without a description';
     const fits = profile && ((rgb && profile.colourSpace === 'RGB ') || (grey && profile.colourSpace === 'GRAY'));
     if (profile?.matrix && profile.curves && fits && deviceBits) {
       const key = createHash('sha1').update(meta.icc).digest('hex');
       return {
-        mode: { kind: 'device', bits: deviceBits, grey, luts: luts(key, profile.curves, deviceBits), matrix: toLinearSrgbMatrix(profile), plainSrgb: false },
+        mode: {
+          kind: 'device',
+          bits: deviceBits,
+          grey,
+          luts: luts(key, profile.curves, deviceBits),
+          matrix: toLinearSrgbMatrix(profile),
+          plainSrgb: false,
+        },
         facts: { ...base, profile: description, assumedSrgb: false, conversion: 'icc-matrix' },
       };
     }
     if (profile) {
-      return { mode: { kind: 'lcms', sixteen: deviceBits === 16 }, facts: { ...base, profile: description, assumedSrgb: false, conversion: 'lcms-perceptual' } };
+      return {
+        mode: { kind: 'lcms', sixteen: deviceBits === 16 },
+        facts: { ...base, profile: description, assumedSrgb: false, conversion: 'lcms-perceptual' },
+      };
     }
     // An unreadable profile is ignored, as sharp would, and the photo taken as sRGB.
   }
   if (deviceBits && (rgb || grey)) {
     return {
-      mode: { kind: 'device', bits: deviceBits, grey, luts: luts('srgb', [srgbCurve, srgbCurve, srgbCurve], deviceBits), matrix: IDENTITY, plainSrgb: deviceBits === 8 && !grey },
+      mode: {
+        kind: 'device',
+        bits: deviceBits,
+        grey,
+        luts: luts('srgb', [srgbCurve, srgbCurve, srgbCurve], deviceBits),
+        matrix: IDENTITY,
+        plainSrgb: deviceBits === 8 && !grey,
+      },
       facts: { ...base, profile: null, assumedSrgb: true, conversion: 'none' },
     };
   }
   // Floating-point or Lab files: libvips' own conversion to sRGB.
-  return { mode: { kind: 'lcms', sixteen: false }, facts: { ...base, profile: null, assumedSrgb: meta.space !== 'labs' && meta.space !== 'lab', conversion: 'libvips' } };
+  return {
+    mode: { kind: 'lcms', sixteen: false },
+    facts: {
+      ...base,
+      profile: null,
+      assumedSrgb: meta.space !== 'labs' && meta.space !== 'lab',
+      conversion: 'libvips',
+    },
+  };
 }
 
-export const open = (input: Buffer, device: boolean) => sharp(input, { limitInputPixels: MAX_PIXELS, failOn: 'error', ignoreIcc: device });
+export const open = (input: Buffer, device: boolean) =>
+  sharp(input, { limitInputPixels: MAX_PIXELS, failOn: 'error', ignoreIcc: device });
 
 /** The upright device pixels as decoded, at their own depth (or 8-bit sRGB through lcms). */
 type Decoded = { data: Uint8Array | Uint16Array; width: number; height: number; channels: number };
@@ -150,9 +207,12 @@ export function toWorking(d: Decoded, mode: Device | Managed): RawImage {
   const [lr, lg, lb] = mode.luts;
   const m = mode.matrix;
   const out = new Float32Array(n * 3);
-  const src = d.data, c = d.channels;
+  const src = d.data,
+    c = d.channels;
   for (let p = 0, i = 0; p < n; p++, i += c) {
-    const r = lr[src[i]], g = lg[src[c === 1 ? i : i + 1]], b = lb[src[c === 1 ? i : i + 2]];
+    const r = lr[src[i]],
+      g = lg[src[c === 1 ? i : i + 1]],
+      b = lb[src[c === 1 ? i : i + 2]];
     out[p * 3] = encodeValue(m[0][0] * r + m[0][1] * g + m[0][2] * b);
     out[p * 3 + 1] = encodeValue(m[1][0] * r + m[1][1] * g + m[1][2] * b);
     out[p * 3 + 2] = encodeValue(m[2][0] * r + m[2][1] * g + m[2][2] * b);
@@ -176,7 +236,8 @@ export async function readSource(input: Buffer): Promise<ColourSource> {
 async function decodeAtDisplaySize(input: Buffer, source: ColourSource) {
   const { width, height } = await uprightSize(input);
   const size = displaySize(Math.max(width, height));
-  const img = open(input, source.mode.kind === 'device').rotate()
+  const img = open(input, source.mode.kind === 'device')
+    .rotate()
     .resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' });
   return toDecoded(finish(img, source.mode));
 }
@@ -189,14 +250,22 @@ async function decodeAtDisplaySize(input: Buffer, source: ColourSource) {
  */
 export async function decodeForIngest(input: Buffer, source?: ColourSource) {
   const src = source ?? (await readSource(input));
-  const [shown, work] = await Promise.all([decodeAtDisplaySize(input, src), wholeWorkingImage(input, src, WORKING_SIZE)]);
+  const [shown, work] = await Promise.all([
+    decodeAtDisplaySize(input, src),
+    wholeWorkingImage(input, src, WORKING_SIZE),
+  ]);
   const display = toWorking(shown, src.mode);
-  return { display: { data: toDisplay(display), width: display.width, height: display.height }, work, facts: src.facts };
+  return {
+    display: { data: toDisplay(display), width: display.width, height: display.height },
+    work,
+    facts: src.facts,
+  };
 }
 
 /** The whole upright photo reduced to the working size in one pipeline. */
 async function wholeWorkingImage(input: Buffer, src: ColourSource, size: number) {
-  const img = open(input, src.mode.kind === 'device').rotate()
+  const img = open(input, src.mode.kind === 'device')
+    .rotate()
     .resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' });
   return toWorking(await toDecoded(finish(img, src.mode)), src.mode);
 }
@@ -207,7 +276,11 @@ async function wholeWorkingImage(input: Buffer, src: ColourSource, size: number)
  * a rectangle is cut from the full-size image. The linear kernel avoids the overshoot (ringing)
  * at edges that would invent colours.
  */
-export async function workingImage(input: Buffer, region?: Rect, size = WORKING_SIZE): Promise<RawImage & { scale: number }> {
+export async function workingImage(
+  input: Buffer,
+  region?: Rect,
+  size = WORKING_SIZE,
+): Promise<RawImage & { scale: number }> {
   const src = await readSource(input);
   const full = await uprightSize(input);
   if (!region) {
@@ -215,26 +288,46 @@ export async function workingImage(input: Buffer, region?: Rect, size = WORKING_
     return { ...work, scale: work.width / full.width };
   }
   const device = src.mode.kind === 'device';
-  const left = Math.min(full.width - 1, Math.max(0, Math.round(region.x))), top = Math.min(full.height - 1, Math.max(0, Math.round(region.y)));
-  const box = { left, top, width: Math.max(1, Math.min(full.width - left, Math.round(region.w))), height: Math.max(1, Math.min(full.height - top, Math.round(region.h))) };
+  const left = Math.min(full.width - 1, Math.max(0, Math.round(region.x))),
+    top = Math.min(full.height - 1, Math.max(0, Math.round(region.y)));
+  const box = {
+    left,
+    top,
+    width: Math.max(1, Math.min(full.width - left, Math.round(region.w))),
+    height: Math.max(1, Math.min(full.height - top, Math.round(region.h))),
+  };
   let img: Sharp;
   if (((await open(input, device).metadata()).orientation ?? 1) === 1) {
     img = open(input, device).extract(box);
   } else {
     // Extracting after auto-orientation needs the upright image materialised first.
     const upright = await toDecoded(finish(open(input, device).rotate(), src.mode));
-    img = sharp(upright.data, { raw: { width: upright.width, height: upright.height, channels: upright.channels as 1 | 3 } }).extract(box);
-    const d = await toDecoded(finishRaw(img.resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' }), upright));
+    img = sharp(upright.data, {
+      raw: { width: upright.width, height: upright.height, channels: upright.channels as 1 | 3 },
+    }).extract(box);
+    const d = await toDecoded(
+      finishRaw(
+        img.resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' }),
+        upright,
+      ),
+    );
     return { ...toWorking(d, src.mode), scale: d.width / box.width };
   }
-  const d = await toDecoded(finish(img.resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' }), src.mode));
+  const d = await toDecoded(
+    finish(
+      img.resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' }),
+      src.mode,
+    ),
+  );
   return { ...toWorking(d, src.mode), scale: d.width / box.width };
 }
 
 /** Raw output for an image made from already-decoded pixels, keeping their depth and channels. */
 function finishRaw(img: Sharp, like: Decoded) {
   const sixteen = like.data instanceof Uint16Array;
-  return img.toColourspace(sixteen ? (like.channels === 1 ? 'grey16' : 'rgb16') : like.channels === 1 ? 'b-w' : 'srgb').raw({ depth: sixteen ? 'ushort' : 'uchar' });
+  return img
+    .toColourspace(sixteen ? (like.channels === 1 ? 'grey16' : 'rgb16') : like.channels === 1 ? 'b-w' : 'srgb')
+    .raw({ depth: sixteen ? 'ushort' : 'uchar' });
 }
 
 export async function uprightSize(input: Buffer) {

@@ -7,18 +7,34 @@ import Color from 'colorjs.io';
 // the fast path against the reference conversion (shared/colour/convert.ts, colorjs.io).
 
 const STEPS = 4096;
-let tables: { decode8: Float64Array; decode: Float64Array; encode: Float64Array; toXyz: number[][]; fromXyz: number[][] } | null = null;
+let tables: {
+  decode8: Float64Array;
+  decode: Float64Array;
+  encode: Float64Array;
+  toXyz: number[][];
+  fromXyz: number[][];
+} | null = null;
 
 function build() {
   const decode8 = new Float64Array(256);
   for (let i = 0; i < 256; i++) decode8[i] = new Color('srgb', [i / 255, 0, 0]).to('srgb-linear').coords[0] as number;
   const decode = new Float64Array(STEPS + 1);
-  for (let i = 0; i <= STEPS; i++) decode[i] = new Color('srgb', [i / STEPS, 0, 0]).to('srgb-linear').coords[0] as number;
+  for (let i = 0; i <= STEPS; i++)
+    decode[i] = new Color('srgb', [i / STEPS, 0, 0]).to('srgb-linear').coords[0] as number;
   const encode = new Float64Array(STEPS + 1);
   // Encoding is sampled on a square-root scale so dark values keep their precision.
-  for (let i = 0; i <= STEPS; i++) encode[i] = new Color('srgb-linear', [(i / STEPS) ** 2, 0, 0]).to('srgb').coords[0] as number;
-  const toXyz = [[1, 0, 0], [0, 1, 0], [0, 0, 1]].map((e) => linearRgbToXyz(e as [number, number, number]));
-  const fromXyz = [[1, 0, 0], [0, 1, 0], [0, 0, 1]].map((e) => xyzToLinearRgb(e as [number, number, number]));
+  for (let i = 0; i <= STEPS; i++)
+    encode[i] = new Color('srgb-linear', [(i / STEPS) ** 2, 0, 0]).to('srgb').coords[0] as number;
+  const toXyz = [
+    [1, 0, 0],
+    [0, 1, 0],
+    [0, 0, 1],
+  ].map((e) => linearRgbToXyz(e as [number, number, number]));
+  const fromXyz = [
+    [1, 0, 0],
+    [0, 1, 0],
+    [0, 0, 1],
+  ].map((e) => xyzToLinearRgb(e as [number, number, number]));
   // Columns of the conversion are the images of the unit vectors; transpose into rows.
   const rows = (cols: number[][]) => [0, 1, 2].map((i) => cols.map((c) => c[i]));
   tables = { decode8, decode, encode, toXyz: rows(toXyz), fromXyz: rows(fromXyz) };

@@ -30,20 +30,36 @@ function readText(b: Buffer, o: number, size: number): string | null {
   const type = sig(b, o);
   if (type === 'desc') {
     const n = b.readUInt32BE(o + 8);
-    return b.toString('latin1', o + 12, o + 12 + Math.max(0, n - 1)).replace(/\0+$/, '').trim() || null;
+    return (
+      b
+        .toString('latin1', o + 12, o + 12 + Math.max(0, n - 1))
+        .replace(/\0+$/, '')
+        .trim() || null
+    );
   }
   if (type === 'mluc') {
-    const records = b.readUInt32BE(o + 8), recordSize = b.readUInt32BE(o + 12);
+    const records = b.readUInt32BE(o + 8),
+      recordSize = b.readUInt32BE(o + 12);
     if (!records) return null;
     // The first record is enough: descriptions name the space, not a language.
-    const len = b.readUInt32BE(o + 16 + 4), off = b.readUInt32BE(o + 16 + 8);
+    const len = b.readUInt32BE(o + 16 + 4),
+      off = b.readUInt32BE(o + 16 + 8);
     if (recordSize < 12 || off + len > size) return null;
     const utf16be = b.subarray(o + off, o + off + len);
     const le = Buffer.alloc(utf16be.length);
-    for (let i = 0; i + 1 < utf16be.length; i += 2) { le[i] = utf16be[i + 1]; le[i + 1] = utf16be[i]; }
+    for (let i = 0; i + 1 < utf16be.length; i += 2) {
+      le[i] = utf16be[i + 1];
+      le[i + 1] = utf16be[i];
+    }
     return le.toString('utf16le').replace(/\0+$/, '').trim() || null;
   }
-  if (type === 'text') return b.toString('latin1', o + 8, o + size).replace(/\0+$/, '').trim() || null;
+  if (type === 'text')
+    return (
+      b
+        .toString('latin1', o + 8, o + size)
+        .replace(/\0+$/, '')
+        .trim() || null
+    );
   return null;
 }
 
@@ -69,14 +85,21 @@ function readCurve(b: Buffer, o: number): Curve | null {
     const fn = b.readUInt16BE(o + 8);
     const count = [1, 3, 4, 5, 7][fn];
     if (count === undefined) return null;
-    const [g, a = 1, bb = 0, c = 0, d = 0, e = 0, f = 0] = Array.from({ length: count }, (_, i) => s15(b, o + 12 + 4 * i));
+    const [g, a = 1, bb = 0, c = 0, d = 0, e = 0, f = 0] = Array.from({ length: count }, (_, i) =>
+      s15(b, o + 12 + 4 * i),
+    );
     const pow = (v: number) => (v <= 0 ? 0 : v ** g);
     switch (fn) {
-      case 0: return (x) => pow(x);
-      case 1: return (x) => (x >= -bb / a ? pow(a * x + bb) : 0);
-      case 2: return (x) => (x >= -bb / a ? pow(a * x + bb) + c : c);
-      case 3: return (x) => (x >= d ? pow(a * x + bb) : c * x);
-      default: return (x) => (x >= d ? pow(a * x + bb) + e : c * x + f);
+      case 0:
+        return (x) => pow(x);
+      case 1:
+        return (x) => (x >= -bb / a ? pow(a * x + bb) : 0);
+      case 2:
+        return (x) => (x >= -bb / a ? pow(a * x + bb) + c : c);
+      case 3:
+        return (x) => (x >= d ? pow(a * x + bb) : c * x);
+      default:
+        return (x) => (x >= d ? pow(a * x + bb) + e : c * x + f);
     }
   }
   return null;
@@ -90,10 +113,12 @@ export function parseIcc(bytes: Buffer | Uint8Array): IccProfile {
   const tags = new Map<string, { o: number; size: number }>();
   for (let i = 0; i < count && 132 + 12 * i + 12 <= b.length; i++) {
     const e = 132 + 12 * i;
-    const o = b.readUInt32BE(e + 4), size = b.readUInt32BE(e + 8);
+    const o = b.readUInt32BE(e + 4),
+      size = b.readUInt32BE(e + 8);
     if (o + size <= b.length) tags.set(sig(b, e), { o, size });
   }
-  const colourSpace = sig(b, 16), pcs = sig(b, 20);
+  const colourSpace = sig(b, 16),
+    pcs = sig(b, 20);
   const version = `${b[8]}.${b[9] >> 4}`;
   const desc = tags.get('desc');
   const description = desc ? readText(b, desc.o, desc.size) : null;
@@ -102,8 +127,12 @@ export function parseIcc(bytes: Buffer | Uint8Array): IccProfile {
     if (!at || sig(b, at.o) !== 'XYZ ') return null;
     return [s15(b, at.o + 8), s15(b, at.o + 12), s15(b, at.o + 16)];
   };
-  const curve = (t: string) => { const at = tags.get(t); return at ? readCurve(b, at.o) : null; };
-  let matrix: M3 | null = null, curves: Curve[] | null = null;
+  const curve = (t: string) => {
+    const at = tags.get(t);
+    return at ? readCurve(b, at.o) : null;
+  };
+  let matrix: M3 | null = null,
+    curves: Curve[] | null = null;
   if (colourSpace === 'RGB ' && pcs === 'XYZ ') {
     const cols = [xyz('rXYZ'), xyz('gXYZ'), xyz('bXYZ')];
     const trcs = [curve('rTRC'), curve('gTRC'), curve('bTRC')];
@@ -114,12 +143,20 @@ export function parseIcc(bytes: Buffer | Uint8Array): IccProfile {
   } else if (colourSpace === 'GRAY') {
     const k = curve('kTRC');
     // A grey profile maps to the connection-space white scaled by the curve.
-    if (k) { matrix = [[ICC_D50[0], 0, 0], [0, ICC_D50[1], 0], [0, 0, ICC_D50[2]]]; curves = [k, k, k]; }
+    if (k) {
+      matrix = [
+        [ICC_D50[0], 0, 0],
+        [0, ICC_D50[1], 0],
+        [0, 0, ICC_D50[2]],
+      ];
+      curves = [k, k, k];
+    }
   }
   return { colourSpace, pcs, version, description, matrix, curves };
 }
 
-const mul = (x: number[][], y: number[][]) => [0, 1, 2].map((i) => [0, 1, 2].map((j) => x[i][0] * y[0][j] + x[i][1] * y[1][j] + x[i][2] * y[2][j])) as M3;
+const mul = (x: number[][], y: number[][]) =>
+  [0, 1, 2].map((i) => [0, 1, 2].map((j) => x[i][0] * y[0][j] + x[i][1] * y[1][j] + x[i][2] * y[2][j])) as M3;
 
 /**
  * Linear device RGB → linear sRGB (D65), unbounded: the profile's colorants to XYZ D50, Bradford

@@ -46,7 +46,11 @@ const PER_CHANNEL = 64 + 2 * EXTRA;
 const BINS = PER_CHANNEL ** 3;
 const U8_BIN = Int32Array.from({ length: 256 }, (_, v) => EXTRA + (v >> 2));
 const binOfValue = (v: number) =>
-  v < 0 ? EXTRA - 1 - Math.min(EXTRA - 1, (-v / 16) | 0) : v < 256 ? EXTRA + (v >> 2) : EXTRA + 64 + Math.min(EXTRA - 1, ((v - 256) / 16) | 0);
+  v < 0
+    ? EXTRA - 1 - Math.min(EXTRA - 1, (-v / 16) | 0)
+    : v < 256
+      ? EXTRA + (v >> 2)
+      : EXTRA + 64 + Math.min(EXTRA - 1, ((v - 256) / 16) | 0);
 
 /** A small deterministic PRNG (mulberry32) so the same photo always gives the same palette. */
 function rng(seed: number) {
@@ -83,8 +87,13 @@ function histogram(img: RawImage, mask: Uint8Array | null): Hist {
   let total = 0;
   const u8 = data instanceof Uint8Array;
   for (let p = 0, i = 0; p < pixels; p++, i += 3) {
-    if (mask !== null && mask[p] === 1) { pixelBin[p] = -1; continue; }
-    const r = data[i], g = data[i + 1], b = data[i + 2];
+    if (mask !== null && mask[p] === 1) {
+      pixelBin[p] = -1;
+      continue;
+    }
+    const r = data[i],
+      g = data[i + 1],
+      b = data[i + 2];
     const bin = u8
       ? (U8_BIN[r] * PER_CHANNEL + U8_BIN[g]) * PER_CHANNEL + U8_BIN[b]
       : (binOfValue(r) * PER_CHANNEL + binOfValue(g)) * PER_CHANNEL + binOfValue(b);
@@ -98,7 +107,9 @@ function histogram(img: RawImage, mask: Uint8Array | null): Hist {
   }
   occupied.sort((x, y) => x - y); // bin order, so results do not depend on pixel order
   const n = occupied.length;
-  const w = new Float64Array(n), lab = new Float64Array(n * 3), rgb = new Float64Array(n * 3);
+  const w = new Float64Array(n),
+    lab = new Float64Array(n * 3),
+    rgb = new Float64Array(n * 3);
   for (let j = 0; j < n; j++) {
     const bin = occupied[j];
     const c = count[bin];
@@ -116,15 +127,21 @@ function histogram(img: RawImage, mask: Uint8Array | null): Hist {
 const binAt = (h: Hist, p: number) => (h.pixelBin[p] < 0 ? -1 : binOf[h.pixelBin[p]]);
 
 const d2 = (lab: Float64Array, i: number, c: number[]) => {
-  const x = lab[i * 3] - c[0], y = lab[i * 3 + 1] - c[1], z = lab[i * 3 + 2] - c[2];
+  const x = lab[i * 3] - c[0],
+    y = lab[i * 3 + 1] - c[1],
+    z = lab[i * 3 + 2] - c[2];
   return x * x + y * y + z * z;
 };
 
 function nearest(h: Hist, i: number, centres: number[][]) {
-  let best = 0, bestD = Infinity;
+  let best = 0,
+    bestD = Infinity;
   for (let c = 0; c < centres.length; c++) {
     const d = d2(h.lab, i, centres[c]);
-    if (d < bestD) { bestD = d; best = c; }
+    if (d < bestD) {
+      bestD = d;
+      best = c;
+    }
   }
   return best;
 }
@@ -133,7 +150,10 @@ function nearest(h: Hist, i: number, centres: number[][]) {
 function seedCentres(h: Hist, k: number, random: () => number): number[][] {
   const pick = (weights: Float64Array, sum: number) => {
     let r = random() * sum;
-    for (let i = 0; i < h.n; i++) { r -= weights[i]; if (r <= 0) return i; }
+    for (let i = 0; i < h.n; i++) {
+      r -= weights[i];
+      if (r <= 0) return i;
+    }
     return h.n - 1;
   };
   const at = (i: number) => [h.lab[i * 3], h.lab[i * 3 + 1], h.lab[i * 3 + 2]];
@@ -143,7 +163,10 @@ function seedCentres(h: Hist, k: number, random: () => number): number[][] {
   while (centres.length < Math.min(k, h.n)) {
     const wd = new Float64Array(h.n);
     let sum = 0;
-    for (let i = 0; i < h.n; i++) { wd[i] = h.w[i] * dist[i]; sum += wd[i]; }
+    for (let i = 0; i < h.n; i++) {
+      wd[i] = h.w[i] * dist[i];
+      sum += wd[i];
+    }
     if (sum === 0) break;
     const c = at(pick(wd, sum));
     centres.push(c);
@@ -160,11 +183,19 @@ function lloyd(h: Hist, centres: number[][], iterations: number): Int32Array {
     const acc = centres.map(() => [0, 0, 0, 0]);
     for (let i = 0; i < h.n; i++) {
       const c = nearest(h, i, centres);
-      if (c !== assign[i]) { assign[i] = c; changed++; }
-      const a = acc[c], w = h.w[i];
-      a[0] += w * h.lab[i * 3]; a[1] += w * h.lab[i * 3 + 1]; a[2] += w * h.lab[i * 3 + 2]; a[3] += w;
+      if (c !== assign[i]) {
+        assign[i] = c;
+        changed++;
+      }
+      const a = acc[c],
+        w = h.w[i];
+      a[0] += w * h.lab[i * 3];
+      a[1] += w * h.lab[i * 3 + 1];
+      a[2] += w * h.lab[i * 3 + 2];
+      a[3] += w;
     }
-    for (let c = 0; c < centres.length; c++) if (acc[c][3] > 0) centres[c] = [acc[c][0] / acc[c][3], acc[c][1] / acc[c][3], acc[c][2] / acc[c][3]];
+    for (let c = 0; c < centres.length; c++)
+      if (acc[c][3] > 0) centres[c] = [acc[c][0] / acc[c][3], acc[c][1] / acc[c][3], acc[c][2] / acc[c][3]];
     if (!changed) break;
   }
   return assign;
@@ -199,15 +230,22 @@ function mergeClose(h: Hist, centres: number[][], mergeDeltaE: number): number[]
     const assign = lloyd(h, centres, round === 0 ? ITERATIONS : 4);
     const weight = centres.map(() => 0);
     for (let i = 0; i < h.n; i++) weight[assign[i]] += h.w[i];
-    let pair: [number, number] | null = null, bestGap = Infinity;
+    let pair: [number, number] | null = null,
+      bestGap = Infinity;
     for (let a = 0; a < centres.length; a++) {
       for (let b = a + 1; b < centres.length; b++) {
         const gap = d2Lab(centres[a], centres[b]);
-        if (gap < bestGap && shouldMerge(h, centres[a], centres[b], mergeDeltaE)) { bestGap = gap; pair = [a, b]; }
+        if (gap < bestGap && shouldMerge(h, centres[a], centres[b], mergeDeltaE)) {
+          bestGap = gap;
+          pair = [a, b];
+        }
       }
     }
     if (!pair) return centres;
-    const [a, b] = pair, wa = weight[a], wb = weight[b], s = wa + wb || 1;
+    const [a, b] = pair,
+      wa = weight[a],
+      wb = weight[b],
+      s = wa + wb || 1;
     centres[a] = [0, 1, 2].map((k) => (centres[a][k] * wa + centres[b][k] * wb) / s);
     centres.splice(b, 1);
   }
@@ -227,15 +265,26 @@ function refine(h: Hist, centres: number[][], assign: Int32Array): number[][] {
     for (let pass = 0; pass < 4; pass++) {
       const dists = members.map((i) => Math.sqrt(d2(h.lab, i, centre)));
       const order = members.map((_, k) => k).sort((x, y) => dists[x] - dists[y]);
-      let half = 0, cum = 0, wsum = 0;
+      let half = 0,
+        cum = 0,
+        wsum = 0;
       for (const i of members) wsum += h.w[i];
-      for (const k of order) { cum += h.w[members[k]]; if (cum >= wsum / 2) { half = dists[k]; break; } }
+      for (const k of order) {
+        cum += h.w[members[k]];
+        if (cum >= wsum / 2) {
+          half = dists[k];
+          break;
+        }
+      }
       const radius = Math.max(3, 2.5 * half);
       const acc = [0, 0, 0, 0];
       members.forEach((i, k) => {
         if (dists[k] > radius) return;
         const w = h.w[i];
-        acc[0] += w * h.rgb[i * 3]; acc[1] += w * h.rgb[i * 3 + 1]; acc[2] += w * h.rgb[i * 3 + 2]; acc[3] += w;
+        acc[0] += w * h.rgb[i * 3];
+        acc[1] += w * h.rgb[i * 3 + 1];
+        acc[2] += w * h.rgb[i * 3 + 2];
+        acc[3] += w;
       });
       if (!acc[3]) break;
       const out = [0, 0, 0];
@@ -249,7 +298,10 @@ function refine(h: Hist, centres: number[][], assign: Int32Array): number[][] {
 function assignAll(h: Hist, centres: number[][]) {
   const assign = new Int32Array(h.n);
   const weight = centres.map(() => 0);
-  for (let i = 0; i < h.n; i++) { assign[i] = nearest(h, i, centres); weight[assign[i]] += h.w[i]; }
+  for (let i = 0; i < h.n; i++) {
+    assign[i] = nearest(h, i, centres);
+    weight[assign[i]] += h.w[i];
+  }
   return { assign, weight };
 }
 
@@ -257,8 +309,10 @@ function maskOf(img: RawImage, exclude: Rect[]): Uint8Array | null {
   if (!exclude.length) return null;
   const mask = new Uint8Array(img.width * img.height);
   for (const r of exclude) {
-    const x0 = Math.max(0, Math.floor(r.x)), y0 = Math.max(0, Math.floor(r.y));
-    const x1 = Math.min(img.width, Math.ceil(r.x + r.w)), y1 = Math.min(img.height, Math.ceil(r.y + r.h));
+    const x0 = Math.max(0, Math.floor(r.x)),
+      y0 = Math.max(0, Math.floor(r.y));
+    const x1 = Math.min(img.width, Math.ceil(r.x + r.w)),
+      y1 = Math.min(img.height, Math.ceil(r.y + r.h));
     for (let y = y0; y < y1; y++) mask.fill(1, y * img.width + x0, y * img.width + x1);
   }
   return mask;
@@ -266,7 +320,14 @@ function maskOf(img: RawImage, exclude: Rect[]): Uint8Array | null {
 
 /** The palette of an image: up to maxColours colours sorted by share, plus any background colours. */
 export function extractPalette(img: RawImage, options: PaletteOptions = {}): ExtractedColour[] {
-  const { maxColours = 8, minShare = 0.01, mergeDeltaE = 2.5, exclude = [], detectBackground = true, seed = 0x7c1 } = options;
+  const {
+    maxColours = 8,
+    minShare = 0.01,
+    mergeDeltaE = 2.5,
+    exclude = [],
+    detectBackground = true,
+    seed = 0x7c1,
+  } = options;
   const h = histogram(img, maskOf(img, exclude));
   if (!h.total) return [];
   let centres = mergeClose(h, seedCentres(h, INITIAL_K, rng(seed)), mergeDeltaE);
@@ -277,7 +338,8 @@ export function extractPalette(img: RawImage, options: PaletteOptions = {}): Ext
   for (;;) {
     ({ assign, weight } = assignAll(h, centres));
     const smallest = weight.reduce((m, w, i) => (w < weight[m] ? i : m), 0);
-    if (centres.length > 1 && (weight[smallest] < minShare * h.total || centres.length > maxColours + 2)) centres.splice(smallest, 1);
+    if (centres.length > 1 && (weight[smallest] < minShare * h.total || centres.length > maxColours + 2))
+      centres.splice(smallest, 1);
     else break;
   }
 
@@ -285,7 +347,10 @@ export function extractPalette(img: RawImage, options: PaletteOptions = {}): Ext
   if (detectBackground) {
     // Each pixel's colour (-1 where excluded), for the spatial tests of background.ts.
     const labels = new Int32Array(img.width * img.height);
-    for (let p = 0; p < labels.length; p++) { const j = binAt(h, p); labels[p] = j < 0 ? -1 : assign[j]; }
+    for (let p = 0; p < labels.length; p++) {
+      const j = binAt(h, p);
+      labels[p] = j < 0 ? -1 : assign[j];
+    }
     isBg = backgroundColours({ width: img.width, height: img.height, labels, centres, weight });
   }
 
@@ -296,13 +361,20 @@ export function extractPalette(img: RawImage, options: PaletteOptions = {}): Ext
     const lab = { L: c[0], a: c[1], b: c[2] };
     const areaShare = weight[i] / h.total;
     return {
-      lab, hex: labToHex(lab), areaShare,
+      lab,
+      hex: labToHex(lab),
+      areaShare,
       share: isBg[i] || !fgTotal ? areaShare : weight[i] / fgTotal,
       spread: weight[i] ? Math.sqrt(spreadAcc[i] / weight[i]) : 0,
-      name: shadeName(lab), tradeName: tradeShade(lab)?.name ?? null, background: isBg[i],
+      name: shadeName(lab),
+      tradeName: tradeShade(lab)?.name ?? null,
+      background: isBg[i],
     };
   });
-  const fg = colours.filter((c) => !c.background).sort((x, y) => y.share - x.share).slice(0, maxColours);
+  const fg = colours
+    .filter((c) => !c.background)
+    .sort((x, y) => y.share - x.share)
+    .slice(0, maxColours);
   const fgSum = fg.reduce((s, c) => s + c.share, 0) || 1;
   for (const c of fg) c.share /= fgSum;
   return [...fg, ...colours.filter((c) => c.background).sort((x, y) => y.share - x.share)];

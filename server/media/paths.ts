@@ -41,9 +41,11 @@ export const tmpDir = () => 'tmp';
 /** Absolute path of a path relative to uploads/; throws if it would leave uploads/. */
 export function resolveInsideUploads(relative: string): string {
   const root = uploadsDir();
-  if (path.isAbsolute(relative) || relative.includes('\0')) throw new HttpError(400, 'bad_path', 'Path is not inside the uploads folder.');
+  if (path.isAbsolute(relative) || relative.includes('\0'))
+    throw new HttpError(400, 'bad_path', 'Path is not inside the uploads folder.');
   const abs = path.resolve(root, relative);
-  if (abs === root || !abs.startsWith(root + path.sep)) throw new HttpError(400, 'bad_path', 'Path is not inside the uploads folder.');
+  if (abs === root || !abs.startsWith(root + path.sep))
+    throw new HttpError(400, 'bad_path', 'Path is not inside the uploads folder.');
   return abs;
 }
 

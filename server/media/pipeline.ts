@@ -20,30 +20,57 @@ export const DERIVATIVES = { thumb: 320, display: 1600 } as const;
 
 const FORMATS: Record<string, string> = { jpeg: 'jpg', png: 'png', tiff: 'tif', webp: 'webp', heif: 'heic' };
 
-export type IngestInput = { buffer: Buffer; originalName?: string | null; pieceId?: number | null; trialId?: number | null; view?: PhotoView };
+export type IngestInput = {
+  buffer: Buffer;
+  originalName?: string | null;
+  pieceId?: number | null;
+  trialId?: number | null;
+  view?: PhotoView;
+};
 
 /** Format and upright size, decided by content; refuses what is not a supported image. */
 async function probe(buffer: Buffer) {
   if (buffer.length === 0) throw new HttpError(422, 'empty_file', 'The file is empty.');
-  if (buffer.length > MAX_BYTES) throw new HttpError(413, 'too_large', `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`);
+  if (buffer.length > MAX_BYTES)
+    throw new HttpError(413, 'too_large', `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`);
   let meta: Metadata;
   try {
     meta = await sharp(buffer, { limitInputPixels: false }).metadata();
   } catch (err) {
-    if (/unsupported image format/i.test(String(err))) throw new HttpError(415, 'unsupported_type', 'This file is not an image in a supported format (JPEG, PNG, TIFF, WebP, HEIF/AVIF).');
+    if (/unsupported image format/i.test(String(err)))
+      throw new HttpError(
+        415,
+        'unsupported_type',
+        'This file is not an image in a supported format (JPEG, PNG, TIFF, WebP, HEIF/AVIF).',
+      );
     throw new HttpError(422, 'corrupt_image', 'The image file is damaged and cannot be read.');
   }
   const format = meta.format ?? '';
-  if (!FORMATS[format]) throw new HttpError(415, 'unsupported_type', `Images of type ${format || 'unknown'} are not accepted; use JPEG, PNG, TIFF, WebP or HEIF/AVIF.`);
+  if (!FORMATS[format])
+    throw new HttpError(
+      415,
+      'unsupported_type',
+      `Images of type ${format || 'unknown'} are not accepted; use JPEG, PNG, TIFF, WebP or HEIF/AVIF.`,
+    );
   if (!meta.width || !meta.height) throw new HttpError(422, 'corrupt_image', 'The image has no size.');
   if (meta.width * meta.height > MAX_PIXELS) {
-    throw new HttpError(422, 'pixel_limit', `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${MAX_PIXELS / 1e6} megapixels.`);
+    throw new HttpError(
+      422,
+      'pixel_limit',
+      `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${MAX_PIXELS / 1e6} megapixels.`,
+    );
   }
   // Decided here, before anything is written: CMYK is refused with its reason.
   const colour: ColourSource = colourSource(meta);
   const swap = (meta.orientation ?? 1) >= 5;
   const ext = format === 'heif' && meta.compression === 'av1' ? 'avif' : FORMATS[format];
-  return { format: ext === 'avif' ? 'avif' : format, ext, width: swap ? meta.height : meta.width, height: swap ? meta.width : meta.height, colour };
+  return {
+    format: ext === 'avif' ? 'avif' : format,
+    ext,
+    width: swap ? meta.height : meta.width,
+    height: swap ? meta.width : meta.height,
+    colour,
+  };
 }
 
 /**
@@ -88,10 +115,24 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     const d = { width: shown.width, height: shown.height };
     const photo = await Photo.create(
       {
-        pieceId: input.pieceId ?? null, trialId: input.trialId ?? null, sha256, format: info.format, bytes: buffer.length,
-        width: info.width, height: info.height, view: input.view ?? 'recto', originalName: input.originalName?.slice(0, 255) ?? null,
-        caption: null, capturedAt, exif, gps, derivatives: { master: { path: master, width: info.width, height: info.height } },
-        referencePatch: null, correction: null, colour: facts, createdById: actor?.id ?? null,
+        pieceId: input.pieceId ?? null,
+        trialId: input.trialId ?? null,
+        sha256,
+        format: info.format,
+        bytes: buffer.length,
+        width: info.width,
+        height: info.height,
+        view: input.view ?? 'recto',
+        originalName: input.originalName?.slice(0, 255) ?? null,
+        caption: null,
+        capturedAt,
+        exif,
+        gps,
+        derivatives: { master: { path: master, width: info.width, height: info.height } },
+        referencePatch: null,
+        correction: null,
+        colour: facts,
+        createdById: actor?.id ?? null,
       },
       { transaction },
     );
@@ -111,7 +152,10 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
 
     const [display, thumb] = await encoding;
     const derivatives = { ...photo.derivatives };
-    for (const [kind, out] of [['display', display], ['thumb', thumb]] as const) {
+    for (const [kind, out] of [
+      ['display', display],
+      ['thumb', thumb],
+    ] as const) {
       const rel = derivativePath(photo.id, kind);
       await files.write(rel, out.data);
       derivatives[kind] = { path: rel, width: out.info.width, height: out.info.height };
@@ -123,7 +167,9 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     await files.removeAll();
     if (photoId) await rm(resolveInsideUploads(derivativesDir(photoId)), { recursive: true, force: true });
     if (err instanceof HttpError) throw err;
-    throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', { reason: err instanceof Error ? err.message : String(err) });
+    throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
+      reason: err instanceof Error ? err.message : String(err),
+    });
   }
 }
 

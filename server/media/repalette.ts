@@ -34,20 +34,46 @@ function into(rect: Rect, frame: Rect, scale: number): Rect {
  * point at keep their ids; leftover rows are deleted, leftover colours added. A background flag
  * set by hand stays on its colour, and the shares are worked out again around it.
  */
-async function reconcile(photoId: number, regionId: number | null, variant: 'raw' | 'corrected', colours: ExtractedColour[], stored: PaletteColour[], transaction: Transaction) {
+async function reconcile(
+  photoId: number,
+  regionId: number | null,
+  variant: 'raw' | 'corrected',
+  colours: ExtractedColour[],
+  stored: PaletteColour[],
+  transaction: Transaction,
+) {
   const pairs: Array<[number, number, number]> = [];
-  colours.forEach((c, i) => stored.forEach((s, j) => { const d = deltaE00(c.lab, s); if (d <= SAME_COLOUR_DE00) pairs.push([d, i, j]); }));
+  colours.forEach((c, i) =>
+    stored.forEach((s, j) => {
+      const d = deltaE00(c.lab, s);
+      if (d <= SAME_COLOUR_DE00) pairs.push([d, i, j]);
+    }),
+  );
   pairs.sort((x, y) => x[0] - y[0] || x[1] - y[1] || x[2] - y[2]);
-  const rowOf = new Map<number, PaletteColour>(), taken = new Set<number>();
-  for (const [, i, j] of pairs) if (!rowOf.has(i) && !taken.has(j)) { rowOf.set(i, stored[j]); taken.add(j); }
+  const rowOf = new Map<number, PaletteColour>(),
+    taken = new Set<number>();
+  for (const [, i, j] of pairs)
+    if (!rowOf.has(i) && !taken.has(j)) {
+      rowOf.set(i, stored[j]);
+      taken.add(j);
+    }
 
   const manual = colours.map((_, i) => rowOf.get(i)?.backgroundManual ?? false);
   const background = colours.map((c, i) => (manual[i] ? rowOf.get(i)!.background : c.background));
   const counted = colours.reduce((s, c, i) => s + (background[i] ? 0 : c.areaShare), 0);
-  const order = colours.map((_, i) => i).sort((x, y) => Number(background[x]) - Number(background[y]) || colours[y].areaShare - colours[x].areaShare);
-  const rows = paletteRows(photoId, regionId, variant, order.map((i) => ({
-    ...colours[i], background: background[i], share: background[i] || !counted ? colours[i].areaShare : colours[i].areaShare / counted,
-  })));
+  const order = colours
+    .map((_, i) => i)
+    .sort((x, y) => Number(background[x]) - Number(background[y]) || colours[y].areaShare - colours[x].areaShare);
+  const rows = paletteRows(
+    photoId,
+    regionId,
+    variant,
+    order.map((i) => ({
+      ...colours[i],
+      background: background[i],
+      share: background[i] || !counted ? colours[i].areaShare : colours[i].areaShare / counted,
+    })),
+  );
   for (const [rank, i] of order.entries()) {
     const values = { ...rows[rank], backgroundManual: manual[i] };
     const row = rowOf.get(i);
@@ -69,17 +95,30 @@ async function reconcile(photoId: number, regionId: number | null, variant: 'raw
  * after a Bradford adaptation of the patch's white to D65 ('corrected'); the master file is never
  * altered. Returns every palette row of the photo.
  */
-export async function repalette({ transaction, photo, scope = 'all' }: { transaction: Transaction; photo: Photo; scope?: RepaletteScope }) {
+export async function repalette({
+  transaction,
+  photo,
+  scope = 'all',
+}: {
+  transaction: Transaction;
+  photo: Photo;
+  scope?: RepaletteScope;
+}) {
   const master = photo.derivatives.master?.path;
   if (!master) throw new Error(`Photo ${photo.id} has no master file`);
   const buffer = await readFile(resolveInsideUploads(master));
   const regions = await Region.findAll({ where: { photoId: photo.id }, order: [['id', 'ASC']], transaction });
   const patchRegion = regions.find((r) => r.purpose === 'reference-patch');
-  const patch: Rect | null = photo.referencePatch ?? (patchRegion ? { x: patchRegion.x, y: patchRegion.y, w: patchRegion.w, h: patchRegion.h } : null);
-  const excluded: Rect[] = regions.filter((r) => EXCLUDING_PURPOSES.has(r.purpose)).map(({ x, y, w, h }) => ({ x, y, w, h }));
+  const patch: Rect | null =
+    photo.referencePatch ??
+    (patchRegion ? { x: patchRegion.x, y: patchRegion.y, w: patchRegion.w, h: patchRegion.h } : null);
+  const excluded: Rect[] = regions
+    .filter((r) => EXCLUDING_PURPOSES.has(r.purpose))
+    .map(({ x, y, w, h }) => ({ x, y, w, h }));
   if (patch) excluded.push(patch);
   const stored = await PaletteColour.findAll({ where: { photoId: photo.id }, transaction });
-  const storedOf = (regionId: number | null, variant: 'raw' | 'corrected') => stored.filter((c) => (c.regionId ?? null) === regionId && c.variant === variant);
+  const storedOf = (regionId: number | null, variant: 'raw' | 'corrected') =>
+    stored.filter((c) => (c.regionId ?? null) === regionId && c.variant === variant);
 
   const full: Rect = { x: 0, y: 0, w: photo.width, h: photo.height };
   // The patch's white is read from the whole photo, so a region's corrected palette matches the photo's.
@@ -93,19 +132,29 @@ export async function repalette({ transaction, photo, scope = 'all' }: { transac
     await reconcile(photo.id, regionId, 'corrected', corrected, storedOf(regionId, 'corrected'), transaction);
   };
   if (scope === 'all') await compute(whole!, full, whole!.scale, null);
-  for (const r of regions.filter((x) => PALETTE_PURPOSES.has(x.purpose) && (scope === 'all' || x.id === scope.regionId))) {
+  for (const r of regions.filter(
+    (x) => PALETTE_PURPOSES.has(x.purpose) && (scope === 'all' || x.id === scope.regionId),
+  )) {
     const frame = { x: r.x, y: r.y, w: r.w, h: r.h };
     const img = await workingImage(buffer, frame);
     await compute(img, frame, img.scale, r.id);
   }
   // A region that no longer has a palette of its own (removed, or now another purpose) loses its rows.
   const ownRegions = new Set(regions.filter((x) => PALETTE_PURPOSES.has(x.purpose)).map((x) => x.id));
-  const orphans = stored.filter((c) => c.regionId != null && !ownRegions.has(c.regionId) && (scope === 'all' || c.regionId === scope.regionId)).map((c) => c.id);
+  const orphans = stored
+    .filter(
+      (c) => c.regionId != null && !ownRegions.has(c.regionId) && (scope === 'all' || c.regionId === scope.regionId),
+    )
+    .map((c) => c.id);
   if (orphans.length) await PaletteColour.destroy({ where: { id: orphans }, transaction });
 
   if (scope === 'all') {
     await photo.update(
-      { correction: white ? { method: 'bradford', to: 'D65', patch, patchWhiteXyz: white, matrix: bradfordMatrix(white) } : null },
+      {
+        correction: white
+          ? { method: 'bradford', to: 'D65', patch, patchWhiteXyz: white, matrix: bradfordMatrix(white) }
+          : null,
+      },
       { transaction },
     );
   }

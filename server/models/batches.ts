@@ -1,4 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 export type BatchKind = 'mordant-bath' | 'print-paste' | 'dye-bath' | 'vat' | 'stock';
 export type BatchStatus = 'active' | 'exhausted' | 'disposed';

@@ -1,6 +1,13 @@
 import { accessionKey, accessionSortKey } from '../../shared/accession.ts';
 import type { PhotoColourFacts } from '../../shared/schemas/photo.ts';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 export type Evidence = 'attributed' | 'identified';
 export type EvidencedTerm = { name: string; evidence: Evidence };
@@ -105,7 +112,10 @@ export class PaletteColour extends Model<InferAttributes<PaletteColour>, InferCr
   declare updatedAt: CreationOptional<Date>;
 }
 
-export class ColourMeasurement extends Model<InferAttributes<ColourMeasurement>, InferCreationAttributes<ColourMeasurement>> {
+export class ColourMeasurement extends Model<
+  InferAttributes<ColourMeasurement>,
+  InferCreationAttributes<ColourMeasurement>
+> {
   declare id: CreationOptional<number>;
   declare pieceId: number | null;
   declare regionId: number | null;
@@ -188,7 +198,11 @@ export function initCatalogueModels(sequelize: Sequelize) {
       bytes: { type: DataTypes.BIGINT, allowNull: false },
       width: { type: DataTypes.INTEGER, allowNull: false },
       height: { type: DataTypes.INTEGER, allowNull: false },
-      view: { type: DataTypes.ENUM('recto', 'verso', 'detail', 'raking', 'transmitted', 'uv', 'swatch'), allowNull: false, defaultValue: 'recto' },
+      view: {
+        type: DataTypes.ENUM('recto', 'verso', 'detail', 'raking', 'transmitted', 'uv', 'swatch'),
+        allowNull: false,
+        defaultValue: 'recto',
+      },
       originalName: DataTypes.STRING(255),
       caption: DataTypes.STRING(255),
       capturedAt: DataTypes.STRING(32),
@@ -198,7 +212,11 @@ export function initCatalogueModels(sequelize: Sequelize) {
       referencePatch: DataTypes.JSON,
       correction: DataTypes.JSON,
       colour: DataTypes.JSON,
-      tileStatus: { type: DataTypes.ENUM('none', 'queued', 'running', 'done', 'failed'), allowNull: false, defaultValue: 'none' },
+      tileStatus: {
+        type: DataTypes.ENUM('none', 'queued', 'running', 'done', 'failed'),
+        allowNull: false,
+        defaultValue: 'none',
+      },
       createdById: fk(),
       ...stamps(),
     },
@@ -212,7 +230,10 @@ export function initCatalogueModels(sequelize: Sequelize) {
       y: { type: DataTypes.INTEGER, allowNull: false },
       w: { type: DataTypes.INTEGER, allowNull: false },
       h: { type: DataTypes.INTEGER, allowNull: false },
-      purpose: { type: DataTypes.ENUM('colour-area', 'motif', 'exclusion', 'reference-patch', 'sampling-site'), allowNull: false },
+      purpose: {
+        type: DataTypes.ENUM('colour-area', 'motif', 'exclusion', 'reference-patch', 'sampling-site'),
+        allowNull: false,
+      },
       label: DataTypes.STRING(160),
       createdById: fk(),
       ...stamps(),

@@ -1,5 +1,12 @@
 import type { HazardBasis } from '../../shared/schemas/reference.ts';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 export type Vocabulary = 'fibre' | 'weave' | 'technique';
 
@@ -79,7 +86,10 @@ export function initReferenceModels(sequelize: Sequelize) {
     {
       id: pk(),
       name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
-      role: { type: DataTypes.ENUM('mordant', 'assistant', 'reducer', 'alkali', 'acid', 'tannin', 'thickener'), allowNull: false },
+      role: {
+        type: DataTypes.ENUM('mordant', 'assistant', 'reducer', 'alkali', 'acid', 'tannin', 'thickener'),
+        allowNull: false,
+      },
       formula: DataTypes.STRING(80),
       metal: DataTypes.STRING(4),
       status: { type: DataTypes.ENUM('permitted', 'restricted', 'historical-only'), allowNull: false },

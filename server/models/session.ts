@@ -1,4 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /** express-session rows (connect-session-sequelize); userId lets a deactivation end a user's sessions at once. */
 export class Session extends Model<InferAttributes<Session>, InferCreationAttributes<Session>> {

@@ -1,8 +1,22 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 export type TrialStatus = 'planned' | 'in-progress' | 'finished' | 'abandoned';
-export type Operation = 'scour' | 'tannin' | 'mordant-bath' | 'print-paste' | 'dye-bath' | 'vat' | 'overdye' | 'after-treatment' | 'rinse';
-export type Ingredient = { kind: 'dyestuff' | 'chemical'; refId: number; name: string; amount: number; basis: 'owf' | 'g/L' | 'g' };
+export type Operation =
+  'scour' | 'tannin' | 'mordant-bath' | 'print-paste' | 'dye-bath' | 'vat' | 'overdye' | 'after-treatment' | 'rinse';
+export type Ingredient = {
+  kind: 'dyestuff' | 'chemical';
+  refId: number;
+  name: string;
+  amount: number;
+  basis: 'owf' | 'g/L' | 'g';
+};
 
 export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes<Trial>> {
   declare id: CreationOptional<number>;
@@ -108,7 +122,11 @@ export function initTrialModels(sequelize: Sequelize) {
       targetRegionId: fk(),
       targetMeasurementId: fk(),
       dyerId: fk(),
-      status: { type: DataTypes.ENUM('planned', 'in-progress', 'finished', 'abandoned'), allowNull: false, defaultValue: 'planned' },
+      status: {
+        type: DataTypes.ENUM('planned', 'in-progress', 'finished', 'abandoned'),
+        allowNull: false,
+        defaultValue: 'planned',
+      },
       kind: { type: DataTypes.ENUM('modern', 'historical'), allowNull: false, defaultValue: 'modern' },
       fibre: DataTypes.STRING(80),
       weave: DataTypes.STRING(80),
@@ -128,7 +146,17 @@ export function initTrialModels(sequelize: Sequelize) {
       trialId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
       position: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false },
       operation: {
-        type: DataTypes.ENUM('scour', 'tannin', 'mordant-bath', 'print-paste', 'dye-bath', 'vat', 'overdye', 'after-treatment', 'rinse'),
+        type: DataTypes.ENUM(
+          'scour',
+          'tannin',
+          'mordant-bath',
+          'print-paste',
+          'dye-bath',
+          'vat',
+          'overdye',
+          'after-treatment',
+          'rinse',
+        ),
         allowNull: false,
       },
       ingredients: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },

@@ -23,9 +23,17 @@ const ERROR_STATUSES: Record<number, string> = {
   422: 'Understood but cannot be done.',
 };
 
-const SUCCESS_WORDS: Record<number, string> = { 200: 'OK', 201: 'Created', 202: 'Accepted', 204: 'No content', 302: 'Redirect', 303: 'See other' };
+const SUCCESS_WORDS: Record<number, string> = {
+  200: 'OK',
+  201: 'Created',
+  202: 'Accepted',
+  204: 'No content',
+  302: 'Redirect',
+  303: 'See other',
+};
 
-const isNonJson = (r: unknown): r is NonJson => typeof r === 'object' && r !== null && 'contentType' in r && !(r instanceof z.ZodType);
+const isNonJson = (r: unknown): r is NonJson =>
+  typeof r === 'object' && r !== null && 'contentType' in r && !(r instanceof z.ZodType);
 
 /** Express `/api/pieces/:id` → OpenAPI `/api/pieces/{id}`. */
 export const openApiPath = (expressPath: string) => expressPath.replace(/:(\w+)/g, '{$1}');
@@ -34,7 +42,12 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
   const components: Record<string, Json> = { Error: toSchema(errorSchema, 'output', 'Error', {}) };
 
   /** A zod schema as JSON Schema; its $defs (recursive or named parts) move to components so $refs resolve in the document. */
-  function toSchema(schema: z.ZodType, io: 'input' | 'output', prefix: string, into: Record<string, Json> = components): Json {
+  function toSchema(
+    schema: z.ZodType,
+    io: 'input' | 'output',
+    prefix: string,
+    into: Record<string, Json> = components,
+  ): Json {
     const js = z.toJSONSchema(schema, { io, unrepresentable: 'any' }) as Json;
     delete js.$schema;
     const defs = js.$defs as Record<string, Json> | undefined;
@@ -42,14 +55,18 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
     // A schema named in shared/schemas (`.meta({ id: 'TrialDetail' })`) becomes one shared component;
     // zod's own names for repeated parts (`__schema0`) are kept apart per operation.
     const names = new Map<string, string>();
-    for (const name of Object.keys(defs ?? {})) if (!name.startsWith('__')) names.set(name, io === 'input' ? `${name}Input` : name);
+    for (const name of Object.keys(defs ?? {}))
+      if (!name.startsWith('__')) names.set(name, io === 'input' ? `${name}Input` : name);
     const rename = (name: string) => names.get(name) ?? `${prefix}_${name}`.replace(/[^A-Za-z0-9._-]/g, '_');
     const rewrite = (node: unknown): unknown => {
       if (Array.isArray(node)) return node.map(rewrite);
       if (node && typeof node === 'object') {
         const out: Json = {};
         for (const [k, v] of Object.entries(node)) {
-          out[k] = k === '$ref' && typeof v === 'string' && v.startsWith('#/$defs/') ? `#/components/schemas/${rename(v.slice('#/$defs/'.length))}` : rewrite(v);
+          out[k] =
+            k === '$ref' && typeof v === 'string' && v.startsWith('#/$defs/')
+              ? `#/components/schemas/${rename(v.slice('#/$defs/'.length))}`
+              : rewrite(v);
         }
         return out;
       }
@@ -58,7 +75,8 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
     for (const [name, def] of Object.entries(defs ?? {})) {
       const key = rename(name);
       const out = rewrite(def) as Json;
-      if (names.has(name) && key in into && JSON.stringify(into[key]) !== JSON.stringify(out)) throw new Error(`two different schemas are named ${key} in shared/schemas`);
+      if (names.has(name) && key in into && JSON.stringify(into[key]) !== JSON.stringify(out))
+        throw new Error(`two different schemas are named ${key} in shared/schemas`);
       into[key] = out;
     }
     return rewrite(js) as Json;
@@ -90,10 +108,17 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
   function response(status: number, r: z.ZodType | NonJson | null, prefix: string): Json {
     if (r === null) return { description: SUCCESS_WORDS[status] ?? 'No content' };
     if (isNonJson(r)) {
-      if (status >= 300 && status < 400) return { description: r.description, headers: { Location: { schema: { type: 'string' } } } };
-      return { description: r.description, content: { [r.contentType]: { schema: { type: 'string', contentMediaType: r.contentType } } } };
+      if (status >= 300 && status < 400)
+        return { description: r.description, headers: { Location: { schema: { type: 'string' } } } };
+      return {
+        description: r.description,
+        content: { [r.contentType]: { schema: { type: 'string', contentMediaType: r.contentType } } },
+      };
     }
-    return { description: SUCCESS_WORDS[status] ?? 'Answer', content: { 'application/json': { schema: toSchema(r, 'output', prefix) } } };
+    return {
+      description: SUCCESS_WORDS[status] ?? 'Answer',
+      content: { 'application/json': { schema: toSchema(r, 'output', prefix) } },
+    };
   }
 
   const paths: Record<string, Record<string, Json>> = {};
@@ -113,11 +138,19 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
       };
       const params = [...parameters(r.params, 'path', `${id}_params`), ...parameters(r.query, 'query', `${id}_query`)];
       if (params.length) op.parameters = params;
-      if (r.body) op.requestBody = { required: true, content: { 'application/json': { schema: toSchema(r.body, 'input', `${id}_body`) } } };
+      if (r.body)
+        op.requestBody = {
+          required: true,
+          content: { 'application/json': { schema: toSchema(r.body, 'input', `${id}_body`) } },
+        };
       const responses: Json = {};
-      for (const [status, res] of Object.entries(r.responses)) responses[status] = response(Number(status), res as z.ZodType | NonJson | null, `${id}_${status}`);
+      for (const [status, res] of Object.entries(r.responses))
+        responses[status] = response(Number(status), res as z.ZodType | NonJson | null, `${id}_${status}`);
       for (const [status, description] of Object.entries(ERROR_STATUSES)) {
-        responses[status] = { description, content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } };
+        responses[status] = {
+          description,
+          content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } },
+        };
       }
       op.responses = responses;
       (paths[openApiPath(r.path)] ??= {})[r.method] = op;
@@ -130,11 +163,14 @@ export function buildOpenApiDocument(groups: RouteGroup[] = allGroups) {
       title: 'Tinctoria API',
       version: APP_VERSION,
       description:
-        'The JSON API of Tinctoria. Every refusal answers `{ error: { code, message, details? } }`. Sign-in is a session cookie (POST /api/auth/login); writes from a browser must come from the app\'s own origin.',
+        "The JSON API of Tinctoria. Every refusal answers `{ error: { code, message, details? } }`. Sign-in is a session cookie (POST /api/auth/login); writes from a browser must come from the app's own origin.",
     },
     tags: groups.map((g) => ({ name: g.group })),
     paths,
-    components: { schemas: components, securitySchemes: { session: { type: 'apiKey', in: 'cookie', name: SESSION_COOKIE } } },
+    components: {
+      schemas: components,
+      securitySchemes: { session: { type: 'apiKey', in: 'cookie', name: SESSION_COOKIE } },
+    },
   };
 }
 

@@ -25,13 +25,21 @@ export function finish(doc: PDFKit.PDFDocument): Promise<Buffer> {
 }
 
 /** The QR image drawn on cards: exposed on its own so tests can decode exactly what is embedded. */
-export const qrPng = (url: string) => QRCode.toBuffer(url, { type: 'png', errorCorrectionLevel: 'M', margin: 2, scale: 6 });
+export const qrPng = (url: string) =>
+  QRCode.toBuffer(url, { type: 'png', errorCorrectionLevel: 'M', margin: 2, scale: 6 });
 
 /**
  * Writes `text` in the box at the largest size from `max` down to `min` at which it fits; at `min`
  * whatever still does not fit is cut with an ellipsis, so nothing prints outside its box.
  */
-export function fitText(doc: PDFKit.PDFDocument, text: string, box: { x: number; y: number; w: number; h: number }, font: string, max: number, min: number) {
+export function fitText(
+  doc: PDFKit.PDFDocument,
+  text: string,
+  box: { x: number; y: number; w: number; h: number },
+  font: string,
+  max: number,
+  min: number,
+) {
   doc.font(font);
   let size = max;
   for (; size > min; size -= 0.25) if (doc.fontSize(size).heightOfString(text, { width: box.w }) <= box.h) break;

@@ -37,7 +37,11 @@ const SYMBOLS: Record<GhsCode, (doc: Doc) => void> = {
     doc.circle(44, 58, 10).fill(BLACK);
     for (let k = 0; k < 9; k++) {
       const t = (-150 + k * 30) * (Math.PI / 180);
-      doc.moveTo(44 + Math.cos(t) * 14, 58 + Math.sin(t) * 14).lineTo(44 + Math.cos(t) * 24, 58 + Math.sin(t) * 24).lineWidth(3).stroke(BLACK);
+      doc
+        .moveTo(44 + Math.cos(t) * 14, 58 + Math.sin(t) * 14)
+        .lineTo(44 + Math.cos(t) * 24, 58 + Math.sin(t) * 24)
+        .lineWidth(3)
+        .stroke(BLACK);
     }
     doc.rect(58, 66, 6, 6).fill(BLACK);
     doc.rect(32, 70, 5, 5).fill(BLACK);
@@ -59,8 +63,18 @@ const SYMBOLS: Record<GhsCode, (doc: Doc) => void> = {
   },
   GHS05: (doc) => {
     // Liquid pouring from two tubes onto a surface and a hand.
-    doc.save().rotate(-30, { origin: [36, 34] }).rect(30, 22, 8, 20).fill(BLACK).restore();
-    doc.save().rotate(30, { origin: [64, 34] }).rect(62, 22, 8, 20).fill(BLACK).restore();
+    doc
+      .save()
+      .rotate(-30, { origin: [36, 34] })
+      .rect(30, 22, 8, 20)
+      .fill(BLACK)
+      .restore();
+    doc
+      .save()
+      .rotate(30, { origin: [64, 34] })
+      .rect(62, 22, 8, 20)
+      .fill(BLACK)
+      .restore();
     doc.circle(40, 50, 2.5).circle(40, 57, 2.5).fill(BLACK);
     doc.circle(60, 50, 2.5).circle(60, 57, 2.5).fill(BLACK);
     doc.rect(30, 64, 16, 4).fill(BLACK);
@@ -69,8 +83,18 @@ const SYMBOLS: Record<GhsCode, (doc: Doc) => void> = {
   },
   GHS06: (doc) => {
     // Skull over crossed bones.
-    doc.save().rotate(35, { origin: [50, 62] }).roundedRect(28, 59, 44, 6, 3).fill(BLACK).restore();
-    doc.save().rotate(-35, { origin: [50, 62] }).roundedRect(28, 59, 44, 6, 3).fill(BLACK).restore();
+    doc
+      .save()
+      .rotate(35, { origin: [50, 62] })
+      .roundedRect(28, 59, 44, 6, 3)
+      .fill(BLACK)
+      .restore();
+    doc
+      .save()
+      .rotate(-35, { origin: [50, 62] })
+      .roundedRect(28, 59, 44, 6, 3)
+      .fill(BLACK)
+      .restore();
     doc.circle(50, 42, 13).fill(BLACK);
     doc.rect(43, 50, 14, 9).fill(BLACK);
     doc.circle(45, 42, 3.5).circle(55, 42, 3.5).fill('#ffffff');
@@ -82,7 +106,14 @@ const SYMBOLS: Record<GhsCode, (doc: Doc) => void> = {
   GHS08: (doc) => {
     // A head and shoulders with a star-burst on the chest.
     doc.circle(50, 30, 7).fill(BLACK);
-    doc.moveTo(34, 78).lineTo(34, 50).bezierCurveTo(34, 42, 40, 39, 50, 39).bezierCurveTo(60, 39, 66, 42, 66, 50).lineTo(66, 78).closePath().fill(BLACK);
+    doc
+      .moveTo(34, 78)
+      .lineTo(34, 50)
+      .bezierCurveTo(34, 42, 40, 39, 50, 39)
+      .bezierCurveTo(60, 39, 66, 42, 66, 50)
+      .lineTo(66, 78)
+      .closePath()
+      .fill(BLACK);
     const pts: Array<[number, number]> = [];
     for (let k = 0; k < 12; k++) {
       const r = k % 2 ? 4 : 10;
@@ -105,7 +136,10 @@ const SYMBOLS: Record<GhsCode, (doc: Doc) => void> = {
 
 /** Draws one pictogram with its top-left corner at (x, y), `size` points across. */
 export function drawPictogram(doc: Doc, code: GhsCode, x: number, y: number, size: number) {
-  doc.save().translate(x, y).scale(size / 100);
+  doc
+    .save()
+    .translate(x, y)
+    .scale(size / 100);
   doc.polygon([50, 4], [96, 50], [50, 96], [4, 50]).lineWidth(7).lineJoin('miter').fillAndStroke('#ffffff', RED);
   SYMBOLS[code](doc);
   doc.restore();

@@ -23,7 +23,8 @@ const RULES: Array<[RegExp, GhsCode]> = [
 /** The pictograms the H statements call for, in GHS code order (H400 and H410 both call for GHS09, so the label rule of shared/compute/hazard-label.ts changes none). */
 export function pictogramCodes(hStatements: string[]): GhsCode[] {
   const out = new Set<GhsCode>();
-  for (const h of hStatements) for (const code of h.match(/H\d{3}/g) ?? []) for (const [re, ghs] of RULES) if (re.test(code)) out.add(ghs);
+  for (const h of hStatements)
+    for (const code of h.match(/H\d{3}/g) ?? []) for (const [re, ghs] of RULES) if (re.test(code)) out.add(ghs);
   // GHS precedence: no exclamation mark where skull and crossbones or corrosion already appears.
   if (out.has('GHS06') || out.has('GHS05')) out.delete('GHS07');
   return [...out].sort();
@@ -34,4 +35,5 @@ export const pictogramWords = (hStatements: string[]) => pictogramCodes(hStateme
 export type Hazard = { name: string; signalWord: 'Danger' | 'Warning' | null; hStatements: string[] };
 
 /** The strongest signal word among the chemicals (Danger outranks Warning). */
-export const strongestSignal = (hs: Hazard[]) => (hs.some((h) => h.signalWord === 'Danger') ? 'Danger' : hs.some((h) => h.signalWord === 'Warning') ? 'Warning' : null);
+export const strongestSignal = (hs: Hazard[]) =>
+  hs.some((h) => h.signalWord === 'Danger') ? 'Danger' : hs.some((h) => h.signalWord === 'Warning') ? 'Warning' : null;

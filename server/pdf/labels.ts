@@ -38,14 +38,32 @@ export async function labelsPdf(title: string, labels: Label[]) {
     for (const [j, code] of codes.entries()) {
       const px = x + PAD + j * size;
       drawPictogram(doc, code, px, stripTop, size);
-      doc.font('sans').fontSize(Math.min(4.5, size / 5.2)).fillColor('#222').text(code, px, stripTop + size + 0.5, { width: size, align: 'center', lineBreak: false });
+      doc
+        .font('sans')
+        .fontSize(Math.min(4.5, size / 5.2))
+        .fillColor('#222')
+        .text(code, px, stripTop + size + 0.5, { width: size, align: 'center', lineBreak: false });
     }
     const signal = strongestSignal(l.hazards);
     const tx = x + PAD + codes.length * size + (codes.length ? 4 : 0);
     const tw = x + W - PAD - tx;
     doc.fillColor('#111');
-    fitText(doc, signal ? signal.toUpperCase() : 'No GHS signal word', { x: tx, y: stripTop, w: tw, h: 10 }, 'sans-bold', 7, 5);
-    fitText(doc, "See the supplier's safety data sheet and local rules.", { x: tx, y: stripTop + 10, w: tw, h: PICTO - 5 }, 'sans', 6, 4.5);
+    fitText(
+      doc,
+      signal ? signal.toUpperCase() : 'No GHS signal word',
+      { x: tx, y: stripTop, w: tw, h: 10 },
+      'sans-bold',
+      7,
+      5,
+    );
+    fitText(
+      doc,
+      "See the supplier's safety data sheet and local rules.",
+      { x: tx, y: stripTop + 10, w: tw, h: PICTO - 5 },
+      'sans',
+      6,
+      4.5,
+    );
   }
   if (!labels.length) doc.font('sans').fontSize(11).text('Nothing to label.');
   return finish(doc);
@@ -53,7 +71,10 @@ export async function labelsPdf(title: string, labels: Label[]) {
 
 export async function hazardsFor(refIds: number[]): Promise<Hazard[]> {
   if (!refIds.length) return [];
-  const rows = await Chemical.findAll({ where: { id: { [Op.in]: refIds } }, attributes: ['name', 'signalWord', 'hStatements'] });
+  const rows = await Chemical.findAll({
+    where: { id: { [Op.in]: refIds } },
+    attributes: ['name', 'signalWord', 'hStatements'],
+  });
   return rows.map((c) => ({ name: c.name, signalWord: c.signalWord, hStatements: c.hStatements ?? [] }));
 }
 
@@ -64,7 +85,9 @@ export async function batchLabel(b: MordantBatch): Promise<Label> {
     lines: [
       `${b.volumeMl} mL made ${b.madeOn}${b.checkBy ? `, check by ${b.checkBy}` : ''}`,
       contents || 'no ingredients recorded',
-      [b.thickenerGPerL != null ? `thickener ${b.thickenerGPerL} g/L` : null, b.ph != null ? `pH ${b.ph}` : null].filter(Boolean).join(', '),
+      [b.thickenerGPerL != null ? `thickener ${b.thickenerGPerL} g/L` : null, b.ph != null ? `pH ${b.ph}` : null]
+        .filter(Boolean)
+        .join(', '),
     ].filter(Boolean),
     hazards: await hazardsFor(b.ingredients.filter((i) => i.kind === 'chemical').map((i) => i.refId)),
   };

@@ -14,7 +14,10 @@ export type PolicyRecord = {
 };
 
 const everyoneSignedIn = (a: Actor) => a !== null;
-const roleIn = (...roles: Role[]) => (a: Actor) => a !== null && roles.includes(a.role);
+const roleIn =
+  (...roles: Role[]) =>
+  (a: Actor) =>
+    a !== null && roles.includes(a.role);
 const owns = (a: Actor, r?: PolicyRecord) => a !== null && r?.ownerId != null && r.ownerId === a.id;
 
 type Rule = (actor: Actor, record?: PolicyRecord) => boolean;

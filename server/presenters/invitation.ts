@@ -6,10 +6,20 @@ import type { Role } from '../../shared/roles.ts';
 // An invitation's token always carries the role offered (server/services/invitations.ts); only reset tokens have none.
 const offeredRole = (t: AuthToken) => t.role as Role;
 
-export const presentInvitation = (t: AuthToken): Invitation => ({ email: t.email, role: offeredRole(t), expiresAt: t.expiresAt.toISOString() });
+export const presentInvitation = (t: AuthToken): Invitation => ({
+  email: t.email,
+  role: offeredRole(t),
+  expiresAt: t.expiresAt.toISOString(),
+});
 
 /** For admins: the invitation's id (to resend or withdraw), who sent it and whether its link has expired. */
-export const presentPendingInvitation = ({ record: t, invitedBy }: { record: AuthToken; invitedBy: string | null }): PendingInvitation => ({
+export const presentPendingInvitation = ({
+  record: t,
+  invitedBy,
+}: {
+  record: AuthToken;
+  invitedBy: string | null;
+}): PendingInvitation => ({
   id: t.id,
   email: t.email,
   role: offeredRole(t),

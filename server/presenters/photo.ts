@@ -1,5 +1,11 @@
 import { IMAGE_ESTIMATE_CONDITIONS } from '../../shared/colour/conditions.ts';
-import { xywhSelector, type PaletteColourOut, type Palettes, type PhotoOut, type RegionOut } from '../../shared/schemas/photo.ts';
+import {
+  xywhSelector,
+  type PaletteColourOut,
+  type Palettes,
+  type PhotoOut,
+  type RegionOut,
+} from '../../shared/schemas/photo.ts';
 import type { PaletteColour, Photo, Region } from '../models/index.ts';
 import { abilities, can, type Actor } from '../policies/index.ts';
 
@@ -30,7 +36,10 @@ export function presentRegion(r: Region): RegionOut {
 export function presentPalettes(rows: PaletteColour[]): Palettes {
   const groups = new Map<string, Palettes[number]>();
   const sorted = [...rows].sort(
-    (x, y) => (x.regionId ?? 0) - (y.regionId ?? 0) || (x.variant === y.variant ? 0 : x.variant === 'raw' ? -1 : 1) || x.rank - y.rank,
+    (x, y) =>
+      (x.regionId ?? 0) - (y.regionId ?? 0) ||
+      (x.variant === y.variant ? 0 : x.variant === 'raw' ? -1 : 1) ||
+      x.rank - y.rank,
   );
   for (const c of sorted) {
     const key = `${c.regionId ?? 'photo'}:${c.variant}`;
@@ -47,9 +56,15 @@ export function presentExif(exif: Record<string, unknown>, seeGps: boolean) {
   return seeGps ? exif : Object.fromEntries(Object.entries(exif ?? {}).filter(([k]) => !GPS_KEY.test(k)));
 }
 
-export function presentPhoto(p: Photo, actor: Actor, extra: { palette: PaletteColour[]; regions?: Region[] }): PhotoOut {
+export function presentPhoto(
+  p: Photo,
+  actor: Actor,
+  extra: { palette: PaletteColour[]; regions?: Region[] },
+): PhotoOut {
   const seeGps = can(actor, 'photo:see-gps');
-  const wholeRaw = extra.palette.filter((c) => c.regionId == null && c.variant === 'raw').sort((x, y) => x.rank - y.rank);
+  const wholeRaw = extra.palette
+    .filter((c) => c.regionId == null && c.variant === 'raw')
+    .sort((x, y) => x.rank - y.rank);
   return {
     id: p.id,
     pieceId: p.pieceId,
@@ -70,7 +85,17 @@ export function presentPhoto(p: Photo, actor: Actor, extra: { palette: PaletteCo
     palettes: presentPalettes(extra.palette),
     regions: (extra.regions ?? []).map(presentRegion),
     // The master's link only for those the media route serves it to, so nobody follows a link into a refusal.
-    urls: { thumb: mediaUrl(p.id, 'thumb'), display: mediaUrl(p.id, 'display'), ...(can(actor, 'photo:master', { hasGps: p.gps != null }) ? { master: mediaUrl(p.id, 'master') } : {}) },
-    abilities: abilities(actor, ['photo:update', 'photo:delete', 'region:create', 'region:update', 'region:delete'] as const),
+    urls: {
+      thumb: mediaUrl(p.id, 'thumb'),
+      display: mediaUrl(p.id, 'display'),
+      ...(can(actor, 'photo:master', { hasGps: p.gps != null }) ? { master: mediaUrl(p.id, 'master') } : {}),
+    },
+    abilities: abilities(actor, [
+      'photo:update',
+      'photo:delete',
+      'region:create',
+      'region:update',
+      'region:delete',
+    ] as const),
   };
 }

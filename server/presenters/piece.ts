@@ -2,7 +2,14 @@ import type { AuditEventOut, PieceOut, PieceSummary } from '../../shared/schemas
 import type { AuditEvent, Piece, User } from '../models/index.ts';
 import { abilities, type Actor } from '../policies/index.ts';
 
-const PIECE_ACTIONS = ['piece:update', 'piece:publish', 'piece:delete', 'piece:restore', 'piece:history', 'photo:create'] as const;
+const PIECE_ACTIONS = [
+  'piece:update',
+  'piece:publish',
+  'piece:delete',
+  'piece:restore',
+  'piece:history',
+  'photo:create',
+] as const;
 
 export const pieceRecord = (p: Piece) => ({ status: p.status, deleted: p.deletedAt != null });
 

@@ -55,7 +55,13 @@ const P25_7 = 25 ** 7;
 
 const tOf = (hDeg: number) => {
   const h = hDeg * DEG;
-  return 1 - 0.17 * Math.cos(h - 30 * DEG) + 0.24 * Math.cos(2 * h) + 0.32 * Math.cos(3 * h + 6 * DEG) - 0.2 * Math.cos(4 * h - 63 * DEG);
+  return (
+    1 -
+    0.17 * Math.cos(h - 30 * DEG) +
+    0.24 * Math.cos(2 * h) +
+    0.32 * Math.cos(3 * h + 6 * DEG) -
+    0.2 * Math.cos(4 * h - 63 * DEG)
+  );
 };
 // |dT/dh| ≤ 0.17 + 2·0.24 + 3·0.32 + 4·0.20 = 2.41 per radian; samples every 0.1° leave at most 0.05° to a true maximum.
 const T_PAD = 2.41 * 0.05 * DEG;
@@ -116,7 +122,8 @@ const slOf = (lBar: number) => {
 };
 const norm = (x: number, y: number) => Math.sqrt(x * x + y * y);
 /** Distance from the origin to the nearest and the furthest point of a rectangle. */
-const nearest = (x0: number, x1: number, y0: number, y1: number) => norm(x0 > 0 ? x0 : x1 < 0 ? -x1 : 0, y0 > 0 ? y0 : y1 < 0 ? -y1 : 0);
+const nearest = (x0: number, x1: number, y0: number, y1: number) =>
+  norm(x0 > 0 ? x0 : x1 < 0 ? -x1 : 0, y0 > 0 ? y0 : y1 < 0 ? -y1 : 0);
 const furthest = (x0: number, x1: number, y0: number, y1: number) => norm(Math.max(-x0, x1), Math.max(-y0, y1));
 
 /** Circular distance (degrees) from `point` to the arc [start, start + width]. */
@@ -127,7 +134,13 @@ function arcDistance(point: number, start: number, width: number): number {
 }
 
 export type BoundQuery = { L: number; a: number; b: number; C: number; hRef: number };
-export const boundQuery = (L: number, a: number, b: number): BoundQuery => ({ L, a, b, C: norm(a, b), hRef: Math.atan2(b, a) / DEG });
+export const boundQuery = (L: number, a: number, b: number): BoundQuery => ({
+  L,
+  a,
+  b,
+  C: norm(a, b),
+  hRef: Math.atan2(b, a) / DEG,
+});
 
 /** A pair of bounds on squared terms of ΔE00, written by the functions below (reused, so the walk allocates nothing). */
 export type Terms = { lo: number; hi: number };
@@ -216,7 +229,8 @@ export function chromaHueTerms(q: BoundQuery, a0: number, a1: number, b0: number
   // The smallest |RT|: Δθ at the arc's point furthest from 275° in the formula's own linear sense (h̄' on [0°, 360°));
   // none when the arc is wide or crosses 0°, where h̄' may be 0 (|h̄' − 275°| = 275°, Δθ ≈ 0).
   const s0 = ((hStart % 360) + 360) % 360;
-  const far = hWidth >= 360 || s0 + hWidth >= 360 ? Infinity : Math.max(Math.abs(s0 - 275), Math.abs(s0 + hWidth - 275)) / 25;
+  const far =
+    hWidth >= 360 || s0 + hWidth >= 360 ? Infinity : Math.max(Math.abs(s0 - 275), Math.abs(s0 + hWidth - 275)) / 25;
   const rtMin = far === Infinity ? 0 : rcOf(cBarPMin) * Math.sin(60 * DEG * Math.exp(-far * far));
   // |x| and |y| ranges; RT ≤ 0 always, so the cross term RT·x·y is ≥ 0 when ΔC' and ΔH' have opposite signs.
   const x = dC / (1 + 0.045 * cBarPMax);
@@ -263,7 +277,15 @@ export const upperBound = (lightHi: number, chromaHueHi: number) => Math.sqrt(li
 const scratchL: Terms = { lo: 0, hi: 0 };
 const scratchAB: Terms = { lo: 0, hi: 0 };
 /** Both bounds for a whole box (tests; the index combines the parts itself). */
-export function boxBounds(q: BoundQuery, L0: number, L1: number, a0: number, a1: number, b0: number, b1: number): { lower: number; upper: number } {
+export function boxBounds(
+  q: BoundQuery,
+  L0: number,
+  L1: number,
+  a0: number,
+  a1: number,
+  b0: number,
+  b1: number,
+): { lower: number; upper: number } {
   lightnessTerms(q, L0, L1, scratchL);
   chromaHueTerms(q, a0, a1, b0, b1, scratchAB);
   return { lower: lowerBound(scratchL.lo, scratchAB.lo), upper: upperBound(scratchL.hi, scratchAB.hi) };

@@ -16,7 +16,10 @@ export function bruteForceShade(
     const de = deltaE00(q, c);
     if (de > q.maxDeltaE) continue;
     const prev = best.get(c.pieceId);
-    if (!prev || de < prev.deltaE00 || (de === prev.deltaE00 && c.share > prev.share)) best.set(c.pieceId, { ...c, deltaE00: de });
+    if (!prev || de < prev.deltaE00 || (de === prev.deltaE00 && c.share > prev.share))
+      best.set(c.pieceId, { ...c, deltaE00: de });
   }
-  return [...best.values()].sort((x, y) => compareMatch(x.deltaE00, x.share, x.pieceId, y.deltaE00, y.share, y.pieceId));
+  return [...best.values()].sort((x, y) =>
+    compareMatch(x.deltaE00, x.share, x.pieceId, y.deltaE00, y.share, y.pieceId),
+  );
 }

@@ -45,7 +45,14 @@ export const kernelBlock = () => new Float64Array(5);
  *   double, so h̄' in degrees (one atan2) is needed only outside that range.
  * Exactly opposite hues (the bisector is undefined there) take the angle route, as Sharma et al. write it.
  */
-export function deltaE00Kernel(k: Float64Array, L: Float64Array, A: Float64Array, B: Float64Array, C: Float64Array, j: number): void {
+export function deltaE00Kernel(
+  k: Float64Array,
+  L: Float64Array,
+  A: Float64Array,
+  B: Float64Array,
+  C: Float64Array,
+  j: number,
+): void {
   const L1 = k[K_L];
   const a1 = k[K_A];
   const b1 = k[K_B];
@@ -104,7 +111,12 @@ export function deltaE00Kernel(k: Float64Array, L: Float64Array, A: Float64Array
   const sin3 = shh * (3 - 4 * shh * shh);
   const cos4 = 2 * cos2 * cos2 - 1;
   const sin4 = 2 * sin2 * cos2;
-  const t = 1 - 0.17 * (ch * COS30 + shh * SIN30) + 0.24 * cos2 + 0.32 * (cos3 * COS6 - sin3 * SIN6) - 0.2 * (cos4 * COS63 + sin4 * SIN63);
+  const t =
+    1 -
+    0.17 * (ch * COS30 + shh * SIN30) +
+    0.24 * cos2 +
+    0.32 * (cos3 * COS6 - sin3 * SIN6) -
+    0.2 * (cos4 * COS63 + sin4 * SIN63);
   const lm = (lBar - 50) * (lBar - 50);
   const sl = 1 + (0.015 * lm) / Math.sqrt(20 + lm);
   const sc = 1 + 0.045 * cBarP;
@@ -146,7 +158,13 @@ function angleRoute(a1p: number, b1: number, a2p: number, b2: number, c1p: numbe
   ANGLES[2] = Math.sin(hBar);
 }
 
-const ONE = { k: kernelBlock(), L: new Float64Array(1), A: new Float64Array(1), B: new Float64Array(1), C: new Float64Array(1) };
+const ONE = {
+  k: kernelBlock(),
+  L: new Float64Array(1),
+  A: new Float64Array(1),
+  B: new Float64Array(1),
+  C: new Float64Array(1),
+};
 
 /** ΔE00 between a reference (standard) and a sample. */
 export function deltaE00(ref: Lab, sample: Lab): number {

@@ -22,7 +22,8 @@ export type PieceDoc = {
   /** Facet values, lower-cased and de-duplicated once here so facet counting does no string work per query. */
   keys: Record<FacetKey, readonly string[]>;
 };
-export type FacetKey = 'dyestuff' | 'historicalMordant' | 'modernMordant' | 'fibre' | 'technique' | 'century' | 'place' | 'status';
+export type FacetKey =
+  'dyestuff' | 'historicalMordant' | 'modernMordant' | 'fibre' | 'technique' | 'century' | 'place' | 'status';
 
 // Most pieces share a few value lists ("madder", "cotton"…): one shared array per distinct list keeps the
 // documents' heap, and so garbage-collection work, smaller (about 120 MB at 170,000 pieces). Never mutate them.
@@ -36,7 +37,8 @@ function shared<T>(list: T[]): T[] {
   pool.set(key, list);
   return list;
 }
-const keyList = (xs: Array<string | number>): readonly string[] => shared([...new Set(xs.map((x) => String(x).trim().toLowerCase()).filter(Boolean))]);
+const keyList = (xs: Array<string | number>): readonly string[] =>
+  shared([...new Set(xs.map((x) => String(x).trim().toLowerCase()).filter(Boolean))]);
 export function facetKeys(d: Omit<PieceDoc, 'keys'>): Record<FacetKey, readonly string[]> {
   return {
     dyestuff: keyList(d.dyestuffs),
@@ -51,7 +53,14 @@ export function facetKeys(d: Omit<PieceDoc, 'keys'>): Record<FacetKey, readonly 
 }
 
 /** A reproduction trial: its code, notes and the modern mordants of its substitutions and recipe. */
-export type TrialDoc = { id: number; code: string; pieceId: number | null; notes: string; modernMordants: string[]; dyestuffs: string[] };
+export type TrialDoc = {
+  id: number;
+  code: string;
+  pieceId: number | null;
+  notes: string;
+  modernMordants: string[];
+  dyestuffs: string[];
+};
 
 // MariaDB's JSON is LONGTEXT: raw rows may bring it as a string.
 const json = <T>(v: unknown, fallback: T): T => {
@@ -65,7 +74,10 @@ const json = <T>(v: unknown, fallback: T): T => {
   }
   return v as T;
 };
-const names = (v: unknown) => json<Array<{ name?: string } | string>>(v, []).map((x) => (typeof x === 'string' ? x : (x?.name ?? ''))).filter(Boolean);
+const names = (v: unknown) =>
+  json<Array<{ name?: string } | string>>(v, [])
+    .map((x) => (typeof x === 'string' ? x : (x?.name ?? '')))
+    .filter(Boolean);
 
 /** Centuries touched by a date range, numbered as 18 for 1700–1799. */
 export function centuriesOf(earliest: number | null, latest: number | null): number[] {
@@ -73,7 +85,12 @@ export function centuriesOf(earliest: number | null, latest: number | null): num
   const hi = latest ?? earliest;
   if (lo == null || hi == null) return [];
   const out: number[] = [];
-  for (let c = Math.floor(Math.min(lo, hi) / 100) + 1; c <= Math.floor(Math.max(lo, hi) / 100) + 1 && out.length < 40; c++) out.push(c);
+  for (
+    let c = Math.floor(Math.min(lo, hi) / 100) + 1;
+    c <= Math.floor(Math.max(lo, hi) / 100) + 1 && out.length < 40;
+    c++
+  )
+    out.push(c);
   return out;
 }
 
@@ -100,7 +117,8 @@ function pieceDoc(r: PieceRow, modern: string[]): PieceDoc {
   return { ...doc, keys: facetKeys(doc) };
 }
 
-const PIECE_COLS = 'id, accessionNumber, title, objectName, description, provenance, place, dateText, techniques, dyestuffs, historicalMordants, fibres, earliestYear, latestYear, status';
+const PIECE_COLS =
+  'id, accessionNumber, title, objectName, description, provenance, place, dateText, techniques, dyestuffs, historicalMordants, fibres, earliestYear, latestYear, status';
 
 /** Modern mordants and dyestuffs per trial, from substitutions and recipe ingredients. */
 async function trialDocs(where: string, params: unknown[], transaction?: Transaction): Promise<TrialDoc[]> {
@@ -114,14 +132,37 @@ async function trialDocs(where: string, params: unknown[], transaction?: Transac
     `SELECT s.trialId, c.name, s.modernPractice AS practice FROM substitutions s LEFT JOIN chemicals c ON c.id = s.modernChemicalId WHERE s.trialId IN (?)`,
     { replacements: [ids], type: QueryTypes.SELECT, transaction },
   );
-  const steps = await sequelize.query<{ trialId: number; operation: string; ingredients: unknown; notes: string | null }>(
-    `SELECT trialId, operation, ingredients, notes FROM recipe_steps WHERE trialId IN (?)`,
-    { replacements: [ids], type: QueryTypes.SELECT, transaction },
-  );
+  const steps = await sequelize.query<{
+    trialId: number;
+    operation: string;
+    ingredients: unknown;
+    notes: string | null;
+  }>(`SELECT trialId, operation, ingredients, notes FROM recipe_steps WHERE trialId IN (?)`, {
+    replacements: [ids],
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   const mordantIds = new Set(
-    (await sequelize.query<{ id: number }>(`SELECT id FROM chemicals WHERE role = 'mordant'`, { type: QueryTypes.SELECT, transaction })).map((c) => c.id),
+    (
+      await sequelize.query<{ id: number }>(`SELECT id FROM chemicals WHERE role = 'mordant'`, {
+        type: QueryTypes.SELECT,
+        transaction,
+      })
+    ).map((c) => c.id),
   );
-  const byId = new Map(trials.map((t) => [t.id, { id: t.id, code: t.code, pieceId: t.pieceId, notes: t.notes ?? '', modernMordants: new Set<string>(), dyestuffs: new Set<string>() }]));
+  const byId = new Map(
+    trials.map((t) => [
+      t.id,
+      {
+        id: t.id,
+        code: t.code,
+        pieceId: t.pieceId,
+        notes: t.notes ?? '',
+        modernMordants: new Set<string>(),
+        dyestuffs: new Set<string>(),
+      },
+    ]),
+  );
   for (const s of subs) {
     const d = byId.get(s.trialId)!;
     if (s.name) d.modernMordants.add(s.name);
@@ -130,7 +171,8 @@ async function trialDocs(where: string, params: unknown[], transaction?: Transac
     const d = byId.get(s.trialId)!;
     for (const ing of json<Array<{ kind: string; refId: number; name: string }>>(s.ingredients, [])) {
       if (ing.kind === 'dyestuff') d.dyestuffs.add(ing.name);
-      else if (ing.kind === 'chemical' && (mordantIds.has(ing.refId) || s.operation === 'mordant-bath')) d.modernMordants.add(ing.name);
+      else if (ing.kind === 'chemical' && (mordantIds.has(ing.refId) || s.operation === 'mordant-bath'))
+        d.modernMordants.add(ing.name);
     }
     if (s.notes) d.notes += `\n${s.notes}`;
   }
@@ -139,7 +181,10 @@ async function trialDocs(where: string, params: unknown[], transaction?: Transac
 
 function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
   const modern = new Map<number, Set<string>>();
-  for (const t of trials) if (t.pieceId != null) for (const m of t.modernMordants) (modern.get(t.pieceId) ?? modern.set(t.pieceId, new Set()).get(t.pieceId)!).add(m);
+  for (const t of trials)
+    if (t.pieceId != null)
+      for (const m of t.modernMordants)
+        (modern.get(t.pieceId) ?? modern.set(t.pieceId, new Set()).get(t.pieceId)!).add(m);
   return rows.map((r) => pieceDoc(r, [...(modern.get(r.id) ?? [])]));
 }
 
@@ -147,11 +192,14 @@ function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
 export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[] }> {
   // Keyset-paged: one huge result set can stall past the server's net_write_timeout.
   const rows: PieceRow[] = [];
-  for (let after = 0; ; ) {
-    const chunk = await sequelize.query<PieceRow>(`SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT 20000`, {
-      replacements: [after],
-      type: QueryTypes.SELECT,
-    });
+  for (let after = 0; ;) {
+    const chunk = await sequelize.query<PieceRow>(
+      `SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT 20000`,
+      {
+        replacements: [after],
+        type: QueryTypes.SELECT,
+      },
+    );
     for (const r of chunk) rows.push(r);
     if (chunk.length < 20_000) break;
     after = chunk[chunk.length - 1].id;

@@ -24,10 +24,12 @@ class SearchEngine {
 
   /** Load both indexes (once); later calls wait for the same load. */
   ready(): Promise<void> {
-    this.loading ??= Promise.all([this.reloadText(), this.reloadShade()]).then(() => undefined).catch((err) => {
-      this.loading = null;
-      throw err;
-    });
+    this.loading ??= Promise.all([this.reloadText(), this.reloadShade()])
+      .then(() => undefined)
+      .catch((err) => {
+        this.loading = null;
+        throw err;
+      });
     return this.loading;
   }
 
@@ -51,10 +53,12 @@ class SearchEngine {
   }
 
   private async reloadShade() {
-    const photos = await sequelize.query<{ id: number; pieceId: number | null }>('SELECT id, pieceId FROM photos', { type: QueryTypes.SELECT });
+    const photos = await sequelize.query<{ id: number; pieceId: number | null }>('SELECT id, pieceId FROM photos', {
+      type: QueryTypes.SELECT,
+    });
     // In keyset-paged chunks: one 1M-row result set can stall past the server's net_write_timeout.
     const rows: ShadeRow[] = [];
-    for (let after = 0; ; ) {
+    for (let after = 0; ;) {
       const chunk = await sequelize.query<ShadeRow>(
         'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT 50000',
         { replacements: [after], type: QueryTypes.SELECT },
@@ -70,7 +74,9 @@ class SearchEngine {
   enqueue(change: Change) {
     if (!this.started) return;
     this.pending.push(change);
-    this.flushing = this.flushing.then(() => this.flush()).catch((err) => console.error('[search] index update failed', err));
+    this.flushing = this.flushing
+      .then(() => this.flush())
+      .catch((err) => console.error('[search] index update failed', err));
   }
 
   /** Resolves once every change enqueued so far is in the indexes. */
@@ -103,13 +109,17 @@ class SearchEngine {
         const trial = await loadTrial(c.id);
         this.text.setTrial(c.id, trial);
         // A trial's modern mordants are facets of its piece.
-        for (const pid of new Set([before, trial?.pieceId ?? null])) if (pid != null) this.text.setPiece(pid, (await loadPiece(pid)).piece);
+        for (const pid of new Set([before, trial?.pieceId ?? null]))
+          if (pid != null) this.text.setPiece(pid, (await loadPiece(pid)).piece);
         this.version++;
       } else if (c.kind === 'photo-palette') {
-        const rows = await sequelize.query<ShadeRow>('SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE photoId = ? AND background = 0', {
-          replacements: [c.id],
-          type: QueryTypes.SELECT,
-        });
+        const rows = await sequelize.query<ShadeRow>(
+          'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE photoId = ? AND background = 0',
+          {
+            replacements: [c.id],
+            type: QueryTypes.SELECT,
+          },
+        );
         this.shade.removePhoto(c.id);
         this.shade.add(rows);
       }

@@ -3,9 +3,19 @@ import type { FacetName } from '../../shared/schemas/search.ts';
 import type { PieceDoc } from './docs.ts';
 import type { TextIndex } from './text-index.ts';
 
-export const FACETS: FacetName[] = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'];
+export const FACETS: FacetName[] = [
+  'dyestuff',
+  'historicalMordant',
+  'modernMordant',
+  'fibre',
+  'technique',
+  'century',
+  'place',
+  'status',
+];
 
-const ordinal = (n: number) => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
+const ordinal = (n: number) =>
+  `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : (['th', 'st', 'nd', 'rd'][n % 10] ?? 'th')}`;
 const centuryLabel = (c: number) => `${ordinal(c)} century (${(c - 1) * 100}–${(c - 1) * 100 + 99})`;
 export const norm = (s: string) => s.trim().toLowerCase();
 
@@ -13,7 +23,14 @@ export const norm = (s: string) => s.trim().toLowerCase();
 function labelFor(d: PieceDoc, f: FacetName, key: string): string {
   if (f === 'century') return centuryLabel(Number(key));
   if (f === 'status') return key;
-  const src = { dyestuff: d.dyestuffs, historicalMordant: d.historicalMordants, modernMordant: d.modernMordants, fibre: d.fibres, technique: d.techniques, place: [d.place] }[f];
+  const src = {
+    dyestuff: d.dyestuffs,
+    historicalMordant: d.historicalMordants,
+    modernMordant: d.modernMordants,
+    fibre: d.fibres,
+    technique: d.techniques,
+    place: [d.place],
+  }[f];
   return src.find((v) => norm(v) === key) ?? key;
 }
 
@@ -23,10 +40,19 @@ function labelFor(d: PieceDoc, f: FacetName, key: string): string {
  * ranking tens of thousands of hits are then array reads over piece ids, not string work or document objects.
  */
 export type FacetTable = {
-  version: number; start: Int32Array; vals: Int32Array; keys: string[][]; labels: string[][]; intern: Array<Map<string, number>>;
+  version: number;
+  start: Int32Array;
+  vals: Int32Array;
+  keys: string[][];
+  labels: string[][];
+  intern: Array<Map<string, number>>;
   /** The same values numbered densely across facets (facet fi's value i is base[fi] + i), so counting is one array increment. */
-  dense: Int32Array; base: Int32Array;
-  exists: Uint8Array; published: Uint8Array; accessionRank: Int32Array; all: Int32Array;
+  dense: Int32Array;
+  base: Int32Array;
+  exists: Uint8Array;
+  published: Uint8Array;
+  accessionRank: Int32Array;
+  all: Int32Array;
 };
 let table: FacetTable | null = null;
 
@@ -62,7 +88,9 @@ function accessionOrder(byId: ReadonlyArray<PieceDoc | undefined>, present: Piec
     let i = 0;
     let j = 0;
     while (i < kept.length || j < changed.length)
-      order.push(j >= changed.length || (i < kept.length && byAccession(kept[i], changed[j]) < 0) ? kept[i++] : changed[j++]);
+      order.push(
+        j >= changed.length || (i < kept.length && byAccession(kept[i], changed[j]) < 0) ? kept[i++] : changed[j++],
+      );
   }
   const acc: Array<string | undefined> = Array.from({ length: byId.length });
   for (const d of present) acc[d.id] = d.accessionNumber;
@@ -117,7 +145,20 @@ export function facetTableFor(text: TextIndex, version: number): FacetTable {
     packed[k] = vals[k];
     dense[k] = base[vals[k] >>> 24] + (vals[k] & 0xffffff);
   }
-  return (table = { version, start, vals: packed, dense, base, keys, labels, intern, exists, published, accessionRank, all });
+  return (table = {
+    version,
+    start,
+    vals: packed,
+    dense,
+    base,
+    keys,
+    labels,
+    intern,
+    exists,
+    published,
+    accessionRank,
+    all,
+  });
 }
 
 /** Values counted per facet over `ids` (one flat array, facet fi's value i at base[fi] + i). */

@@ -45,7 +45,9 @@ export function highlights(doc: PieceDoc, terms: Iterable<string>, fields: Itera
     const end = Math.min(full.length, found[0][1] + RADIUS * 2);
     const prefix = start > 0 ? '…' : '';
     const text = prefix + full.slice(start, end) + (end < full.length ? '…' : '');
-    const marks = found.filter(([s, e]) => s >= start && e <= end).map(([s, e]): [number, number] => [s - start + prefix.length, e - start + prefix.length]);
+    const marks = found
+      .filter(([s, e]) => s >= start && e <= end)
+      .map(([s, e]): [number, number] => [s - start + prefix.length, e - start + prefix.length]);
     out.push({ field, text, marks });
   }
   return out;

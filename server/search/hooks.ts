@@ -14,7 +14,8 @@ function later(options: Opts | undefined, fn: () => void) {
   if (t) t.afterCommit(fn);
   else fn();
 }
-const send = (options: Opts | undefined, ...changes: Change[]) => later(options, () => changes.forEach((c) => searchEngine.enqueue(c)));
+const send = (options: Opts | undefined, ...changes: Change[]) =>
+  later(options, () => changes.forEach((c) => searchEngine.enqueue(c)));
 
 // Ids named in a bulk call's where clause ({ photoId: 3 } or { photoId: [3, 4] }); null when it says something else,
 // and then the whole index is reloaded: bulk writes must name ids (README.md, invariant 2).
@@ -36,8 +37,11 @@ export function installSearchHooks() {
   Piece.addHook('afterUpdate', 'search', piece);
   Piece.addHook('afterDestroy', 'search', piece);
   Piece.addHook('afterRestore', 'search', piece);
-  Piece.addHook('afterBulkCreate', 'search', (ps: Piece[], o: Opts) => send(o, ...ps.map((p) => ({ kind: 'piece' as const, id: p.id }))));
-  for (const h of ['afterBulkUpdate', 'afterBulkDestroy', 'afterBulkRestore'] as const) Piece.addHook(h, 'search', (o: Opts) => send(o, { kind: 'all-text' }));
+  Piece.addHook('afterBulkCreate', 'search', (ps: Piece[], o: Opts) =>
+    send(o, ...ps.map((p) => ({ kind: 'piece' as const, id: p.id }))),
+  );
+  for (const h of ['afterBulkUpdate', 'afterBulkDestroy', 'afterBulkRestore'] as const)
+    Piece.addHook(h, 'search', (o: Opts) => send(o, { kind: 'all-text' }));
 
   const trialId = (m: Model & { trialId?: number; id?: number }, isTrial: boolean) => (isTrial ? m.id! : m.trialId!);
   for (const [m, isTrial] of [
@@ -51,7 +55,9 @@ export function installSearchHooks() {
     model.addHook('afterCreate', 'search', one);
     model.addHook('afterUpdate', 'search', one);
     model.addHook('afterDestroy', 'search', one);
-    model.addHook('afterBulkCreate', 'search', (ms: Model[], o: Opts) => send(o, ...ms.map((m) => ({ kind: 'trial' as const, id: trialId(m as never, isTrial) }))));
+    model.addHook('afterBulkCreate', 'search', (ms: Model[], o: Opts) =>
+      send(o, ...ms.map((m) => ({ kind: 'trial' as const, id: trialId(m as never, isTrial) }))),
+    );
     for (const h of ['afterBulkUpdate', 'afterBulkDestroy'] as const) {
       model.addHook(h, 'search', (o: Opts) => {
         const ids = idsFrom(o.where, isTrial ? 'id' : 'trialId');
@@ -67,10 +73,13 @@ export function installSearchHooks() {
   Photo.addHook('afterUpdate', 'search', photo);
   Photo.addHook('afterDestroy', 'search', (p: Photo, o: Opts) => later(o, () => searchEngine.setPhoto(p.id, null)));
   Photo.addHook('afterBulkCreate', 'search', (ps: Photo[], o: Opts) => ps.forEach((p) => photo(p, o)));
-  for (const h of ['afterBulkUpdate', 'afterBulkDestroy'] as const) Photo.addHook(h, 'search', (o: Opts) => send(o, { kind: 'all-shade' }));
+  for (const h of ['afterBulkUpdate', 'afterBulkDestroy'] as const)
+    Photo.addHook(h, 'search', (o: Opts) => send(o, { kind: 'all-shade' }));
 
   const palette = (c: PaletteColour, o?: Opts) => {
-    const ids = new Set([c.photoId, c.previous('photoId') as number | undefined].filter((x): x is number => typeof x === 'number'));
+    const ids = new Set(
+      [c.photoId, c.previous('photoId') as number | undefined].filter((x): x is number => typeof x === 'number'),
+    );
     send(o, ...[...ids].map((id) => ({ kind: 'photo-palette' as const, id })));
   };
   PaletteColour.addHook('afterCreate', 'search', palette);

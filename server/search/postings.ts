@@ -168,7 +168,23 @@ export class PostingStore {
       const k1 = BM25.k * (1 - BM25.b);
       const k2 = (BM25.k * BM25.b) / ms._avgFieldLength[this.fids[f]];
       const base = this.boosts[f] * idf;
-      n = scoreRun(docs, tf, from, to, base, k1, k2, this.fieldLen, f * this.cap, weight, w, s.score, s.hitCount, into, n);
+      n = scoreRun(
+        docs,
+        tf,
+        from,
+        to,
+        base,
+        k1,
+        k2,
+        this.fieldLen,
+        f * this.cap,
+        weight,
+        w,
+        s.score,
+        s.hitCount,
+        into,
+        n,
+      );
     }
     return n;
   }
@@ -187,8 +203,21 @@ function sizeOf(data: Postings) {
  * optimises it. AND: only documents that matched every earlier word (hitCount ≥ w) are scored.
  */
 function scoreRun(
-  docs: Int32Array, tf: Int32Array, from: number, to: number, base: number, k1: number, k2: number,
-  fieldLen: Float64Array, off: number, weight: number, w: number, score: Float64Array, hitCount: Uint16Array, into: Int32Array, n: number,
+  docs: Int32Array,
+  tf: Int32Array,
+  from: number,
+  to: number,
+  base: number,
+  k1: number,
+  k2: number,
+  fieldLen: Float64Array,
+  off: number,
+  weight: number,
+  w: number,
+  score: Float64Array,
+  hitCount: Uint16Array,
+  into: Int32Array,
+  n: number,
 ): number {
   const d = BM25.d;
   const kp1 = BM25.k + 1;

@@ -1,6 +1,16 @@
 import type { Actor } from '../policies/index.ts';
 import { can } from '../policies/index.ts';
-import type { FacetCounts, FacetName, SearchFilters, SearchItem, SearchQuery, SearchResponse, ShadeItem, ShadeQuery, ShadeResponse } from '../../shared/schemas/search.ts';
+import type {
+  FacetCounts,
+  FacetName,
+  SearchFilters,
+  SearchItem,
+  SearchQuery,
+  SearchResponse,
+  ShadeItem,
+  ShadeQuery,
+  ShadeResponse,
+} from '../../shared/schemas/search.ts';
 import { IMAGE_ESTIMATE_CONDITIONS } from '../../shared/colour/conditions.ts';
 import { hexToLab, labToHex } from '../../shared/search/lab.ts';
 import { searchEngine } from './engine.ts';
@@ -49,7 +59,12 @@ function compile(sel: Selected, t: FacetTable, trials: boolean): Compiled {
   const facets: Compiled['facets'] = [];
   FACETS.forEach((f, fi) => {
     const want = sel[f];
-    if (want) facets.push({ fi, narrowing: NARROWING.has(f), want: [...want].map((v) => (f === 'modernMordant' && !trials ? -1 : code(fi, v))) });
+    if (want)
+      facets.push({
+        fi,
+        narrowing: NARROWING.has(f),
+        want: [...want].map((v) => (f === 'modernMordant' && !trials ? -1 : code(fi, v))),
+      });
   });
   const h = FACETS.indexOf('historicalMordant');
   const m = FACETS.indexOf('modernMordant');
@@ -114,7 +129,13 @@ function candidates(actor: Actor, f: SearchFilters) {
   return { textMatched, matched: filtered ? matchedBuf.subarray(0, nm) : textMatched, hits, c, filtered, trials };
 }
 
-function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, drafts: boolean, trials: boolean): FacetCounts {
+function facetCounts(
+  textMatched: Int32Array,
+  matched: Int32Array,
+  c: Compiled,
+  drafts: boolean,
+  trials: boolean,
+): FacetCounts {
   const t = facetTable();
   // A widening (OR) facet's own counts ignore its own choice.
   const ownRule = FACETS.map((f, fi) => !NARROWING.has(f) && c.facets.some((x) => x.fi === fi));
@@ -144,7 +165,11 @@ function facetCounts(textMatched: Int32Array, matched: Int32Array, c: Compiled, 
       const n = counts[t.base[fi] + i];
       if (n) rows.push({ value: f === 'century' ? key : t.labels[fi][i], label: t.labels[fi][i], count: n });
     });
-    out[f] = rows.sort((x, y) => (f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label))).slice(0, 100);
+    out[f] = rows
+      .sort((x, y) =>
+        f === 'century' ? Number(x.value) - Number(y.value) : y.count - x.count || x.label.localeCompare(y.label),
+      )
+      .slice(0, 100);
   });
   return out;
 }
@@ -179,7 +204,13 @@ export async function runSearch({ actor, input }: { actor: Actor; input: SearchQ
       viaTrials: hit?.viaTrials.filter(Boolean) ?? [],
     };
   });
-  return { items, facets: facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts'), trials), total: matched.length, page: input.page, pageSize: input.pageSize };
+  return {
+    items,
+    facets: facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts'), trials),
+    total: matched.length,
+    page: input.page,
+    pageSize: input.pageSize,
+  };
 }
 
 // Unfiltered shade queries reuse one allow-list per audience until a piece changes.
@@ -204,7 +235,13 @@ export async function runShade({ actor, input }: { actor: Actor; input: ShadeQue
   // From here to the answer: no `await`, the matches live in reused buffers (README.md, invariant 1).
   const lab = input.hex ? hexToLab(input.hex) : { L: input.L!, a: input.a!, b: input.b! };
   const offset = (input.page - 1) * input.limit;
-  const res = searchEngine.shade.query({ ...lab, maxDeltaE: input.maxDeltaE, limit: input.limit, offset, allow: allowList(actor, input) });
+  const res = searchEngine.shade.query({
+    ...lab,
+    maxDeltaE: input.maxDeltaE,
+    limit: input.limit,
+    offset,
+    allow: allowList(actor, input),
+  });
   const facets = shadeFacets(actor, input, lab, res.matched);
   const items: ShadeItem[] = res.items.map((m) => {
     const doc = searchEngine.text.pieces.get(m.pieceId)!;
@@ -213,12 +250,25 @@ export async function runShade({ actor, input }: { actor: Actor; input: ShadeQue
       accessionNumber: doc.accessionNumber,
       title: doc.title,
       photoId: m.photoId,
-      colour: { hex: m.hex, lab: { L: round(m.L, 2), a: round(m.a, 2), b: round(m.b, 2) }, share: round(m.share, 4), source: 'image-estimate' as const, ...IMAGE_ESTIMATE_CONDITIONS },
+      colour: {
+        hex: m.hex,
+        lab: { L: round(m.L, 2), a: round(m.a, 2), b: round(m.b, 2) },
+        share: round(m.share, 4),
+        source: 'image-estimate' as const,
+        ...IMAGE_ESTIMATE_CONDITIONS,
+      },
       deltaE00: round(m.deltaE00, 3),
     };
   });
   const hex = input.hex ? `#${input.hex.replace('#', '').toLowerCase()}` : labToHex(lab);
-  return { items, facets, total: res.total, page: input.page, pageSize: input.limit, query: { ...lab, hex, maxDeltaE: input.maxDeltaE } };
+  return {
+    items,
+    facets,
+    total: res.total,
+    page: input.page,
+    pageSize: input.limit,
+    query: { ...lab, hex, maxDeltaE: input.maxDeltaE },
+  };
 }
 
 /**
@@ -226,7 +276,12 @@ export async function runShade({ actor, input }: { actor: Actor; input: ShadeQue
  * also pass the words and filters. A widening facet's own counts ignore its own choice, so when one is
  * chosen the shade is asked again with only the words applied, for the pieces those counts start from.
  */
-function shadeFacets(actor: Actor, input: ShadeQuery, lab: { L: number; a: number; b: number }, matchedView: Int32Array): FacetCounts {
+function shadeFacets(
+  actor: Actor,
+  input: ShadeQuery,
+  lab: { L: number; a: number; b: number },
+  matchedView: Int32Array,
+): FacetCounts {
   const t = facetTable();
   const trials = can(actor, 'trial:read');
   const c = compile(selected(input), t, trials);
@@ -234,7 +289,13 @@ function shadeFacets(actor: Actor, input: ShadeQuery, lab: { L: number; a: numbe
   const matched = Int32Array.from(matchedView);
   let textMatched = matched;
   if (c.facets.some((x) => !x.narrowing)) {
-    const words = searchEngine.shade.query({ ...lab, maxDeltaE: input.maxDeltaE, limit: 1, offset: 0, allow: allowList(actor, { q: input.q }) });
+    const words = searchEngine.shade.query({
+      ...lab,
+      maxDeltaE: input.maxDeltaE,
+      limit: 1,
+      offset: 0,
+      allow: allowList(actor, { q: input.q }),
+    });
     textMatched = Int32Array.from(words.matched);
   }
   return facetCounts(textMatched, matched, c, can(actor, 'piece:list-drafts'), trials);

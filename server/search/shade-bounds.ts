@@ -86,7 +86,15 @@ export function lightnessHalfWidth(L1: number, r: number): number {
  * when the box is clear of the origin it spans < 180° and h̄' stays inside the
  * box's own hue span.
  */
-function maxDeltaTheta(aLo: number, aHi: number, bLo: number, bHi: number, hRefDeg: number, qLo: number, qHi: number): number {
+function maxDeltaTheta(
+  aLo: number,
+  aHi: number,
+  bLo: number,
+  bHi: number,
+  hRefDeg: number,
+  qLo: number,
+  qHi: number,
+): number {
   let mn = qLo - 90;
   let mx = qHi + 90;
   if (!(aLo <= 0 && aHi >= 0 && bLo <= 0 && bHi >= 0)) {

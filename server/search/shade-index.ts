@@ -22,7 +22,17 @@ import { selectTop } from './top.ts';
  * into the grid when it grows; removed colours are tombstoned.
  */
 export type ShadeRow = { id: number; photoId: number; L: number; a: number; b: number; hex: string; share: number };
-export type ShadeMatch = { pieceId: number; photoId: number; colourId: number; L: number; a: number; b: number; hex: string; share: number; deltaE00: number };
+export type ShadeMatch = {
+  pieceId: number;
+  photoId: number;
+  colourId: number;
+  L: number;
+  a: number;
+  b: number;
+  hex: string;
+  share: number;
+  deltaE00: number;
+};
 export type ShadeQuery = {
   L: number;
   a: number;
@@ -98,7 +108,18 @@ class Columns {
     const next = new Columns(Math.max(min, this.cap * 2, 64));
     next.copyFrom(this, 0, 0, this.n);
     next.n = this.n;
-    Object.assign(this, { L: next.L, A: next.A, B: next.B, C: next.C, share: next.share, photo: next.photo, piece: next.piece, id: next.id, rgb: next.rgb, alive: next.alive });
+    Object.assign(this, {
+      L: next.L,
+      A: next.A,
+      B: next.B,
+      C: next.C,
+      share: next.share,
+      photo: next.photo,
+      piece: next.piece,
+      id: next.id,
+      rgb: next.rgb,
+      alive: next.alive,
+    });
   }
   copyFrom(src: Columns, from: number, to: number, count = 1) {
     for (let k = 0; k < count; k++) {
@@ -181,7 +202,8 @@ export class ShadeIndex {
     this.photoPiece[photoId] = pieceId ?? 0;
     this.firstPhoto = null;
     this.ensurePieces(pieceId ?? 0);
-    for (const c of [this.main, this.tail]) for (let j = 0; j < c.n; j++) if (c.photo[j] === photoId) c.piece[j] = pieceId ?? 0;
+    for (const c of [this.main, this.tail])
+      for (let j = 0; j < c.n; j++) if (c.photo[j] === photoId) c.piece[j] = pieceId ?? 0;
   }
 
   private pieceOf(photoId: number) {
@@ -201,7 +223,8 @@ export class ShadeIndex {
       this.firstPhoto = first;
     }
     const out = new Map<number, number>();
-    for (const p of pieceIds) if (p > 0 && p < this.firstPhoto.length && this.firstPhoto[p]) out.set(p, this.firstPhoto[p]);
+    for (const p of pieceIds)
+      if (p > 0 && p < this.firstPhoto.length && this.firstPhoto[p]) out.set(p, this.firstPhoto[p]);
     return out;
   }
 
@@ -246,7 +269,8 @@ export class ShadeIndex {
     for (let ai = 0; ai < NAB; ai++)
       for (let bi = 0; bi < NAB; bi++) {
         const col = ai * NAB + bi;
-        sum[(ai + 1) * W + bi + 1] = start[(col + 1) * NL] - start[col * NL] + sum[ai * W + bi + 1] + sum[(ai + 1) * W + bi] - sum[ai * W + bi];
+        sum[(ai + 1) * W + bi + 1] =
+          start[(col + 1) * NL] - start[col * NL] + sum[ai * W + bi + 1] + sum[(ai + 1) * W + bi] - sum[ai * W + bi];
       }
     this.colSum = sum;
     this.tail = new Columns(0);
@@ -424,14 +448,25 @@ export class ShadeIndex {
         }
       };
       const visit = (a0: number, a1: number, b0: number, b1: number) => {
-        if (colSum[(a1 + 1) * W + b1 + 1] - colSum[a0 * W + b1 + 1] - colSum[(a1 + 1) * W + b0] + colSum[a0 * W + b0] === 0) return;
+        if (
+          colSum[(a1 + 1) * W + b1 + 1] - colSum[a0 * W + b1 + 1] - colSum[(a1 + 1) * W + b0] + colSum[a0 * W + b0] ===
+          0
+        )
+          return;
         const ga = span(qa, AB_MIN, CELL_AB, a0, a1, NAB);
         const gb = span(qb, AB_MIN, CELL_AB, b0, b1, NAB);
         if ((ga * ga + gb * gb) * invAB2 > ELLIPSOID_SLACK) return;
         let abLo = 0;
         let abHi = Infinity;
         if (innerAB(a0) && innerAB(a1) && innerAB(b0) && innerAB(b1)) {
-          chromaHueTerms(bq, AB_MIN + a0 * CELL_AB, AB_MIN + (a1 + 1) * CELL_AB, AB_MIN + b0 * CELL_AB, AB_MIN + (b1 + 1) * CELL_AB, t);
+          chromaHueTerms(
+            bq,
+            AB_MIN + a0 * CELL_AB,
+            AB_MIN + (a1 + 1) * CELL_AB,
+            AB_MIN + b0 * CELL_AB,
+            AB_MIN + (b1 + 1) * CELL_AB,
+            t,
+          );
           abLo = t.lo;
           abHi = t.hi;
           if (lowerBound(0, abLo) > r) return;
@@ -455,12 +490,18 @@ export class ShadeIndex {
     scan(this.tail, 0, this.tail.n, TAIL_BIT, false);
 
     const bestDe = (p: number) => state[2 * p + 1];
-    const better = (p: number, o: number) => compareMatch(bestDe(p), this.shareOf(bestSlot[p]), p, bestDe(o), this.shareOf(bestSlot[o]), o) < 0;
+    const better = (p: number, o: number) =>
+      compareMatch(bestDe(p), this.shareOf(bestSlot[p]), p, bestDe(o), this.shareOf(bestSlot[o]), o) < 0;
     // The page holds only pieces whose best is ≤ kth (see above): rank those, not every match.
     const onPage: number[] = [];
     for (let i = 0; i < total; i++) if (bestDe(matchedIds[i]) <= kthSlot[0]) onPage.push(matchedIds[i]);
     const top = selectTop(onPage, need, better);
-    return { total, items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))), candidates, matched: matchedIds.subarray(0, total) };
+    return {
+      total,
+      items: top.slice(q.offset ?? 0).map((pid) => this.match(pid, bestSlot[pid], bestDe(pid))),
+      candidates,
+      matched: matchedIds.subarray(0, total),
+    };
   }
 
   private shareOf(slot: number) {
@@ -470,7 +511,17 @@ export class ShadeIndex {
   private match(pieceId: number, slot: number, de: number): ShadeMatch {
     const c = slot & TAIL_BIT ? this.tail : this.main;
     const j = slot & ~TAIL_BIT;
-    return { pieceId, photoId: c.photo[j], colourId: c.id[j], L: c.L[j], a: c.A[j], b: c.B[j], hex: intToHex(c.rgb[j]), share: c.share[j], deltaE00: de };
+    return {
+      pieceId,
+      photoId: c.photo[j],
+      colourId: c.id[j],
+      L: c.L[j],
+      a: c.A[j],
+      b: c.B[j],
+      hex: intToHex(c.rgb[j]),
+      share: c.share[j],
+      deltaE00: de,
+    };
   }
 
   /** Every live colour with its piece, for the brute-force check (tests and benchmark). */
@@ -479,7 +530,18 @@ export class ShadeIndex {
       for (let j = 0; j < c.n; j++) {
         if (!c.alive[j]) continue;
         const pid = c.piece[j];
-        if (pid > 0) yield { pieceId: pid, photoId: c.photo[j], colourId: c.id[j], L: c.L[j], a: c.A[j], b: c.B[j], hex: intToHex(c.rgb[j]), share: c.share[j], deltaE00: NaN };
+        if (pid > 0)
+          yield {
+            pieceId: pid,
+            photoId: c.photo[j],
+            colourId: c.id[j],
+            L: c.L[j],
+            a: c.A[j],
+            b: c.B[j],
+            hex: intToHex(c.rgb[j]),
+            share: c.share[j],
+            deltaE00: NaN,
+          };
       }
   }
 }
@@ -496,8 +558,6 @@ function centreOut(c: number, lo: number, hi: number): number[] {
   }
   return out;
 }
-
-
 
 /** Ranking order: smaller ΔE00, then larger share, then lower piece id (stable across runs). */
 export function compareMatch(deA: number, shareA: number, pidA: number, deB: number, shareB: number, pidB: number) {

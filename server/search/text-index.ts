@@ -27,13 +27,32 @@ type IndexedDoc = {
 };
 
 export const TEXT_FIELDS = [
-  'accessionNumber', 'title', 'objectName', 'description', 'provenance', 'place',
-  'techniques', 'dyestuffs', 'historicalMordants', 'modernMordants', 'trialCode', 'notes',
+  'accessionNumber',
+  'title',
+  'objectName',
+  'description',
+  'provenance',
+  'place',
+  'techniques',
+  'dyestuffs',
+  'historicalMordants',
+  'modernMordants',
+  'trialCode',
+  'notes',
 ] as const;
 export type TextField = (typeof TEXT_FIELDS)[number];
 
 // Accession numbers and trial codes first, then titles; then what the object is made of.
-const BOOST: Partial<Record<TextField, number>> = { accessionNumber: 6, trialCode: 5, title: 4, objectName: 2, dyestuffs: 2, historicalMordants: 1.5, modernMordants: 1.5, techniques: 1.5 };
+const BOOST: Partial<Record<TextField, number>> = {
+  accessionNumber: 6,
+  trialCode: 5,
+  title: 4,
+  objectName: 2,
+  dyestuffs: 2,
+  historicalMordants: 1.5,
+  modernMordants: 1.5,
+  techniques: 1.5,
+};
 
 const EDGE = /^[\p{P}\p{S}]+|[\p{P}\p{S}]+$/gu;
 const PARTS = /[\s\p{P}\p{S}]+/u;
@@ -53,7 +72,11 @@ export function tokenize(text: string): string[] {
   }
   return out;
 }
-const queryTokens = (text: string) => text.split(/\s+/).map((w) => w.replace(EDGE, '')).filter(Boolean);
+const queryTokens = (text: string) =>
+  text
+    .split(/\s+/)
+    .map((w) => w.replace(EDGE, ''))
+    .filter(Boolean);
 
 export type TextHit = { score: number; terms: Set<string>; fields: Set<TextField>; viaTrials: string[] };
 
@@ -72,7 +95,8 @@ const WEIGHT_FUZZY = 0.45;
 const MAX_FUZZY = 2;
 const prefixOk = (term: string) => term.length >= 2;
 // 1 edit from 4 letters, 20 % of the length from 5 (at most MAX_FUZZY).
-const fuzzyEdits = (term: string) => (term.length >= 5 ? Math.min(MAX_FUZZY, Math.round(term.length * 0.2)) : term.length >= 4 ? 1 : 0);
+const fuzzyEdits = (term: string) =>
+  term.length >= 5 ? Math.min(MAX_FUZZY, Math.round(term.length * 0.2)) : term.length >= 4 ? 1 : 0;
 
 type Expansion = { term: string; weight: number; data: Postings };
 
@@ -237,7 +261,8 @@ export class TextIndex {
       }
     }
     clearDocs(first, nFirst, score, hitCount);
-    const scoreOf = (pid: number) => (pid >= 0 && pid <= maxPiece && matched[pid] === stamp ? pieceScore[pid] : undefined);
+    const scoreOf = (pid: number) =>
+      pid >= 0 && pid <= maxPiece && matched[pid] === stamp ? pieceScore[pid] : undefined;
     // Which expanded terms and fields a page's document holds: tokenise its own fields (as the index did) against the term set.
     const expanded = new Set(perWord.flatMap((exps) => exps.map((e) => e.term)));
     // A token equal to an expanded term is a substring of its lower-cased field (lower-casing works character by
@@ -281,7 +306,13 @@ export class TextIndex {
     let s = this.scratch;
     if (!s || s.score.length < docs) {
       const n = docs + 1024;
-      s = { ...(s ?? emptyPieces(0)), score: new Float64Array(n), hitCount: new Uint16Array(n), first: new Int32Array(n), live: new Int32Array(n) };
+      s = {
+        ...(s ?? emptyPieces(0)),
+        score: new Float64Array(n),
+        hitCount: new Uint16Array(n),
+        first: new Int32Array(n),
+        live: new Int32Array(n),
+      };
     }
     if (s.pieceScore.length < pieces) s = { ...s, ...emptyPieces(pieces + 1024) };
     return (this.scratch = s);
@@ -289,10 +320,23 @@ export class TextIndex {
 }
 
 type Scratch = {
-  score: Float64Array; hitCount: Uint16Array; first: Int32Array; live: Int32Array;
-  pieceScore: Float64Array; matched: Uint32Array; own: Uint32Array; ids: Int32Array; stamp: number;
+  score: Float64Array;
+  hitCount: Uint16Array;
+  first: Int32Array;
+  live: Int32Array;
+  pieceScore: Float64Array;
+  matched: Uint32Array;
+  own: Uint32Array;
+  ids: Int32Array;
+  stamp: number;
 };
-const emptyPieces = (n: number) => ({ pieceScore: new Float64Array(n), matched: new Uint32Array(n), own: new Uint32Array(n), ids: new Int32Array(n), stamp: 0 });
+const emptyPieces = (n: number) => ({
+  pieceScore: new Float64Array(n),
+  matched: new Uint32Array(n),
+  own: new Uint32Array(n),
+  ids: new Int32Array(n),
+  stamp: 0,
+});
 
 function clearDocs(docs: Int32Array, n: number, score: Float64Array, hitCount: Uint16Array) {
   for (let i = 0; i < n; i++) {

@@ -6,7 +6,15 @@ import { decode8, encode8 } from '../media/fast-lab.ts';
 
 export type Shape =
   | { kind: 'rect'; x: number; y: number; w: number; h: number; colour: string }
-  | { kind: 'ellipse'; cx: number; cy: number; rx: number; ry: number; colour: string; outline?: { colour: string; width: number } };
+  | {
+      kind: 'ellipse';
+      cx: number;
+      cy: number;
+      rx: number;
+      ry: number;
+      colour: string;
+      outline?: { colour: string; width: number };
+    };
 
 export type ClothSpec = {
   width: number;
@@ -22,7 +30,8 @@ export type ClothSpec = {
   seed?: number;
 };
 
-const rgbOf = (hex: string): [number, number, number] => [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16)) as [number, number, number];
+const rgbOf = (hex: string): [number, number, number] =>
+  [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16)) as [number, number, number];
 
 /** Box–Muller normal deviates from a seeded PRNG. */
 function gaussian(seed: number) {
@@ -47,16 +56,19 @@ export function labelMap(spec: ClothSpec) {
   for (const s of spec.shapes) {
     if (s.kind === 'rect') {
       const c = index(s.colour);
-      for (let y = Math.max(0, s.y); y < Math.min(spec.height, s.y + s.h); y++) labels.fill(c, y * spec.width + Math.max(0, s.x), y * spec.width + Math.min(spec.width, s.x + s.w));
+      for (let y = Math.max(0, s.y); y < Math.min(spec.height, s.y + s.h); y++)
+        labels.fill(c, y * spec.width + Math.max(0, s.x), y * spec.width + Math.min(spec.width, s.x + s.w));
       continue;
     }
     const c = index(s.colour);
     const o = s.outline ? index(s.outline.colour) : -1;
     const ow = s.outline?.width ?? 0;
-    const rx = s.rx + ow, ry = s.ry + ow;
+    const rx = s.rx + ow,
+      ry = s.ry + ow;
     for (let y = Math.max(0, Math.floor(s.cy - ry)); y < Math.min(spec.height, Math.ceil(s.cy + ry)); y++) {
       for (let x = Math.max(0, Math.floor(s.cx - rx)); x < Math.min(spec.width, Math.ceil(s.cx + rx)); x++) {
-        const dx = x + 0.5 - s.cx, dy = y + 0.5 - s.cy;
+        const dx = x + 0.5 - s.cx,
+          dy = y + 0.5 - s.cy;
         if ((dx / s.rx) ** 2 + (dy / s.ry) ** 2 <= 1) labels[y * spec.width + x] = c;
         else if (o >= 0 && (dx / rx) ** 2 + (dy / ry) ** 2 <= 1) labels[y * spec.width + x] = o;
       }
@@ -71,7 +83,10 @@ export function paintCloth(spec: ClothSpec) {
   const { colours, labels } = labelMap(spec);
   const tint = spec.tint ?? [1, 1, 1];
   const base = colours.map((hex) => rgbOf(hex).map((v, k) => encode8(decode8(v) * tint[k]))) as number[][];
-  const noise = spec.noise ?? 0, weave = spec.weave ?? 0, period = spec.weavePeriod ?? 6, gradient = spec.gradient ?? 0;
+  const noise = spec.noise ?? 0,
+    weave = spec.weave ?? 0,
+    period = spec.weavePeriod ?? 6,
+    gradient = spec.gradient ?? 0;
   const normal = gaussian(spec.seed ?? 1);
   const data = new Uint8Array(width * height * 3);
   const counts = Array.from({ length: colours.length }, () => 0);
@@ -84,7 +99,8 @@ export function paintCloth(spec: ClothSpec) {
       counts[label]++;
       const light = (1 + weave * wx[x] * wy) * (1 + gradient * ((2 * x) / (width - 1) - 1));
       const c = base[label];
-      for (let k = 0; k < 3; k++) data[p * 3 + k] = Math.max(0, Math.min(255, Math.round(c[k] * light + noise * normal())));
+      for (let k = 0; k < 3; k++)
+        data[p * 3 + k] = Math.max(0, Math.min(255, Math.round(c[k] * light + noise * normal())));
     }
   }
   const total = width * height;

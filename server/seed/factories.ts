@@ -1,7 +1,18 @@
 import sharp from 'sharp';
 import type { Transaction } from 'sequelize';
 import {
-  BatchEvent, ColourMeasurement, MordantBatch, PaletteColour, Piece, RecipeStep, Region, Substitution, Trial, TrialSeries, User, sequelize,
+  BatchEvent,
+  ColourMeasurement,
+  MordantBatch,
+  PaletteColour,
+  Piece,
+  RecipeStep,
+  Region,
+  Substitution,
+  Trial,
+  TrialSeries,
+  User,
+  sequelize,
 } from '../models/index.ts';
 import type { Role } from '../../shared/roles.ts';
 import { hashPassword } from '../auth/passwords.ts';
@@ -72,8 +83,18 @@ export function makeBatch(attrs: Attrs<MordantBatch> = {}, transaction?: Transac
   const n = next();
   return MordantBatch.create(
     {
-      code: `B-${n}`, kind: 'mordant-bath', name: `Test bath ${n}`, ingredients: [], volumeMl: 1000, thickenerGPerL: null, ph: null,
-      madeOn: new Date().toISOString().slice(0, 10), madeById: null, checkBy: null, parentId: null, notes: null,
+      code: `B-${n}`,
+      kind: 'mordant-bath',
+      name: `Test bath ${n}`,
+      ingredients: [],
+      volumeMl: 1000,
+      thickenerGPerL: null,
+      ph: null,
+      madeOn: new Date().toISOString().slice(0, 10),
+      madeById: null,
+      checkBy: null,
+      parentId: null,
+      notes: null,
       ...attrs,
     },
     { transaction },
@@ -84,8 +105,18 @@ export function makeBatch(attrs: Attrs<MordantBatch> = {}, transaction?: Transac
 export function makeBatchEvent(attrs: Attrs<BatchEvent> & { batchId: number }, transaction?: Transaction) {
   return BatchEvent.create(
     {
-      type: 'use', occurredAt: new Date(), createdById: null, volumeMl: null, fibreMassG: null, trialId: null, additions: null, ph: null,
-      result: null, route: null, ruleFollowed: null, notes: null,
+      type: 'use',
+      occurredAt: new Date(),
+      createdById: null,
+      volumeMl: null,
+      fibreMassG: null,
+      trialId: null,
+      additions: null,
+      ph: null,
+      result: null,
+      route: null,
+      ruleFollowed: null,
+      notes: null,
       ...attrs,
     },
     { transaction },
@@ -97,8 +128,21 @@ export function makeTrial(attrs: Attrs<Trial> = {}, transaction?: Transaction) {
   const n = next();
   return Trial.create(
     {
-      code: `F-${n}`.slice(0, 16), pieceId: null, seriesId: null, cell: null, targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null,
-      dyerId: null, fibre: 'cotton', weave: null, gsm: null, dryMassG: 10, fastness: null, notes: null, startedOn: null,
+      code: `F-${n}`.slice(0, 16),
+      pieceId: null,
+      seriesId: null,
+      cell: null,
+      targetPaletteColourId: null,
+      targetRegionId: null,
+      targetMeasurementId: null,
+      dyerId: null,
+      fibre: 'cotton',
+      weave: null,
+      gsm: null,
+      dryMassG: 10,
+      fastness: null,
+      notes: null,
+      startedOn: null,
       ...attrs,
     },
     { transaction },
@@ -109,8 +153,17 @@ export function makeTrial(attrs: Attrs<Trial> = {}, transaction?: Transaction) {
 export function makeRecipeStep(attrs: Attrs<RecipeStep> & { trialId: number }, transaction?: Transaction) {
   return RecipeStep.create(
     {
-      position: 1, operation: 'dye-bath', ingredients: [], liquorRatio: null, temperatureC: null, minutes: null, ph: null,
-      paste: null, batchId: null, batchVolumeMl: null, notes: null,
+      position: 1,
+      operation: 'dye-bath',
+      ingredients: [],
+      liquorRatio: null,
+      temperatureC: null,
+      minutes: null,
+      ph: null,
+      paste: null,
+      batchId: null,
+      batchVolumeMl: null,
+      notes: null,
       ...attrs,
     },
     { transaction },
@@ -121,8 +174,15 @@ export function makeRecipeStep(attrs: Attrs<RecipeStep> & { trialId: number }, t
 export function makeSubstitution(attrs: Attrs<Substitution> & { trialId: number }, transaction?: Transaction) {
   return Substitution.create(
     {
-      stepId: null, historicalChemicalId: null, historicalPractice: null, historicalAmountG: null, modernChemicalId: null, modernPractice: null,
-      modernAmountG: null, reason: 'toxicity', notes: null,
+      stepId: null,
+      historicalChemicalId: null,
+      historicalPractice: null,
+      historicalAmountG: null,
+      modernChemicalId: null,
+      modernPractice: null,
+      modernAmountG: null,
+      reason: 'toxicity',
+      notes: null,
       ...attrs,
     },
     { transaction },
@@ -133,8 +193,18 @@ export function makeSubstitution(attrs: Attrs<Substitution> & { trialId: number 
 export function makeMeasurement(attrs: Attrs<ColourMeasurement> = {}, transaction?: Transaction) {
   return ColourMeasurement.create(
     {
-      pieceId: null, regionId: null, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI',
-      L: 50, a: 0, b: 0, label: null, takenOn: null, createdById: null,
+      pieceId: null,
+      regionId: null,
+      trialId: null,
+      instrument: 'bench spectrophotometer',
+      geometry: 'd:8°',
+      specular: 'SCI',
+      L: 50,
+      a: 0,
+      b: 0,
+      label: null,
+      takenOn: null,
+      createdById: null,
       ...attrs,
     },
     { transaction },
@@ -146,8 +216,16 @@ export function makeSeries(attrs: Attrs<TrialSeries> = {}, transaction?: Transac
   const n = next();
   return TrialSeries.create(
     {
-      code: `S-${n}`, title: `Test series ${n}`, pieceId: null, factors: [{ name: 'madder', levels: ['50'] }], cells: [{ madder: '50' }],
-      participants: [], dryMassG: 10, ownerId: null, heldOn: null, notes: null,
+      code: `S-${n}`,
+      title: `Test series ${n}`,
+      pieceId: null,
+      factors: [{ name: 'madder', levels: ['50'] }],
+      cells: [{ madder: '50' }],
+      participants: [],
+      dryMassG: 10,
+      ownerId: null,
+      heldOn: null,
+      notes: null,
       ...attrs,
     },
     { transaction },
@@ -158,23 +236,45 @@ export function makeSeries(attrs: Attrs<TrialSeries> = {}, transaction?: Transac
  * A photo through the real media pipeline (master by SHA-256, derivatives, palette): a flat image of
  * one colour unless a buffer is given. Give a pieceId or a trialId. Answers the pipeline's { photo, palette }.
  */
-export async function makePhoto(input: Partial<IngestInput> & { hex?: string; width?: number; height?: number } = {}, transaction?: Transaction) {
+export async function makePhoto(
+  input: Partial<IngestInput> & { hex?: string; width?: number; height?: number } = {},
+  transaction?: Transaction,
+) {
   const { hex = '#8a3b2f', width = 240, height = 160, ...rest } = input;
-  const buffer = rest.buffer ?? (await sharp({ create: { width, height, channels: 3, background: hex } }).png().toBuffer());
+  const buffer =
+    rest.buffer ??
+    (await sharp({ create: { width, height, channels: 3, background: hex } })
+      .png()
+      .toBuffer());
   const run = (t: Transaction) => ingestPhoto({ actor: null, transaction: t, input: { ...rest, buffer } });
   return transaction ? run(transaction) : sequelize.transaction(run);
 }
 
 /** A colour area on a photo (no palette re-extraction: the region row alone). */
 export function makeRegion(attrs: Attrs<Region> & { photoId: number }, transaction?: Transaction) {
-  return Region.create({ x: 0, y: 0, w: 10, h: 10, purpose: 'colour-area', label: null, createdById: null, ...attrs }, { transaction });
+  return Region.create(
+    { x: 0, y: 0, w: 10, h: 10, purpose: 'colour-area', label: null, createdById: null, ...attrs },
+    { transaction },
+  );
 }
 
 /** One palette colour row, its L*a*b* from its hex (shared/colour/convert.ts) unless given. */
 export function makePaletteColour(attrs: Attrs<PaletteColour> & { photoId: number }, transaction?: Transaction) {
   const hex = attrs.hex ?? '#8a3b2f';
   return PaletteColour.create(
-    { regionId: null, variant: 'raw', rank: 1, ...hexToLab(hex), hex, share: 1, spread: 0, name: 'red', tradeName: null, background: false, ...attrs },
+    {
+      regionId: null,
+      variant: 'raw',
+      rank: 1,
+      ...hexToLab(hex),
+      hex,
+      share: 1,
+      spread: 0,
+      name: 'red',
+      tradeName: null,
+      background: false,
+      ...attrs,
+    },
     { transaction },
   );
 }

@@ -25,7 +25,10 @@ type ChemicalRow = {
 
 /** Reference vocabularies from the data files in server/seed/data; idempotent (upsert by name). */
 export async function seedReference(transaction?: Transaction) {
-  const vocab = dataFile('vocabularies.json') as Record<Vocabulary, Array<{ term: string; note?: string; source: string }>>;
+  const vocab = dataFile('vocabularies.json') as Record<
+    Vocabulary,
+    Array<{ term: string; note?: string; source: string }>
+  >;
   for (const [vocabulary, rows] of Object.entries(vocab) as Array<[Vocabulary, typeof vocab.fibre]>) {
     for (const r of rows) {
       await VocabularyTerm.findOrCreate({
@@ -39,10 +42,36 @@ export async function seedReference(transaction?: Transaction) {
     await Dyestuff.findOrCreate({ where: { name: d.name }, defaults: d, transaction });
   }
   for (const c of dataFile('chemicals.json') as ChemicalRow[]) {
-    const { name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource, hazardBasis } = c;
+    const {
+      name,
+      role,
+      formula,
+      metal,
+      status,
+      signalWord,
+      hStatements,
+      ppe,
+      caution,
+      source,
+      hazardSource,
+      hazardBasis,
+    } = c;
     await Chemical.findOrCreate({
       where: { name },
-      defaults: { name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource, hazardBasis: hazardBasis ?? 'memory' },
+      defaults: {
+        name,
+        role,
+        formula,
+        metal,
+        status,
+        signalWord,
+        hStatements,
+        ppe,
+        caution,
+        source,
+        hazardSource,
+        hazardBasis: hazardBasis ?? 'memory',
+      },
       transaction,
     });
   }

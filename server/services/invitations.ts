@@ -9,7 +9,6 @@ import { invitationLetter } from '../mail/letters.ts';
 import { AuthToken, User } from '../models/index.ts';
 import type { ServiceCtx } from './context.ts';
 
-
 /** Link the e-mail points to; the client page at /join/:token sets name and password. */
 export const invitationUrl = (token: string) => `${publicUrl}/join/${token}`;
 
@@ -18,15 +17,36 @@ export const invitationUrl = (token: string) => `${publicUrl}/join/${token}`;
  * mailed inside the transaction so a failed send leaves no usable token behind.
  */
 export async function inviteMember({ actor, transaction, input }: ServiceCtx<InviteInput>) {
-  if (await User.findOne({ where: { email: input.email }, transaction })) throw conflict('Someone on the team already uses that e-mail address.', { fields: { email: ['Already on the team'] } });
-  await AuthToken.update({ usedAt: new Date() }, { where: { purpose: 'invitation', email: input.email, usedAt: { [Op.is]: null } }, transaction });
+  if (await User.findOne({ where: { email: input.email }, transaction }))
+    throw conflict('Someone on the team already uses that e-mail address.', {
+      fields: { email: ['Already on the team'] },
+    });
+  await AuthToken.update(
+    { usedAt: new Date() },
+    { where: { purpose: 'invitation', email: input.email, usedAt: { [Op.is]: null } }, transaction },
+  );
   const inviter = actor ? await User.findByPk(actor.id, { transaction }) : null;
-  const { token, record } = await issueToken({ purpose: 'invitation', email: input.email, role: input.role, createdById: actor?.id ?? null }, transaction);
+  const { token, record } = await issueToken(
+    { purpose: 'invitation', email: input.email, role: input.role, createdById: actor?.id ?? null },
+    transaction,
+  );
   try {
-    await sendMail(invitationLetter({ to: input.email, role: input.role, inviter: inviter?.name ?? 'An administrator', url: invitationUrl(token), expiresAt: record.expiresAt }));
+    await sendMail(
+      invitationLetter({
+        to: input.email,
+        role: input.role,
+        inviter: inviter?.name ?? 'An administrator',
+        url: invitationUrl(token),
+        expiresAt: record.expiresAt,
+      }),
+    );
   } catch (err) {
     console.error('[mail] invitation not sent:', err);
-    throw new HttpError(502, 'mail_failed', 'The invitation e-mail could not be sent; nothing was saved. Try again later.');
+    throw new HttpError(
+      502,
+      'mail_failed',
+      'The invitation e-mail could not be sent; nothing was saved. Try again later.',
+    );
   }
   return record;
 }
@@ -42,32 +62,71 @@ export async function liveInvitation(plain: string, transaction?: Transaction, l
     return await findLiveToken(plain, 'invitation', transaction, lock);
   } catch (err) {
     if (!(err instanceof HttpError) || err.status !== 410) throw err;
-    const record = await AuthToken.findOne({ where: { tokenHash: hashToken(plain), purpose: 'invitation' }, transaction });
+    const record = await AuthToken.findOne({
+      where: { tokenHash: hashToken(plain), purpose: 'invitation' },
+      transaction,
+    });
     if (!record) throw err;
     const joined = await User.findOne({ where: { email: record.email }, transaction });
     if (joined)
-      throw new HttpError(410, 'invitation_accepted', `This invitation has already been used: ${record.email} is on the team. Sign in with that address.`, { reason: 'joined', email: record.email });
+      throw new HttpError(
+        410,
+        'invitation_accepted',
+        `This invitation has already been used: ${record.email} is on the team. Sign in with that address.`,
+        { reason: 'joined', email: record.email },
+      );
     const inviter = record.createdById ? await User.findByPk(record.createdById, { transaction }) : null;
     const ask = inviter ? `Ask ${inviter.name} or another admin` : 'Ask an admin';
     if (record.usedAt) {
-      const newer = await AuthToken.count({ where: { purpose: 'invitation', email: record.email, id: { [Op.gt]: record.id } }, transaction });
-      if (newer) throw new HttpError(410, 'invitation_replaced', 'A newer invitation was sent to this address; use the link in the latest e-mail.', { reason: 'replaced' });
-      throw new HttpError(410, 'invitation_withdrawn', `This invitation was withdrawn. ${ask} if you should still join.`, { reason: 'withdrawn' });
+      const newer = await AuthToken.count({
+        where: { purpose: 'invitation', email: record.email, id: { [Op.gt]: record.id } },
+        transaction,
+      });
+      if (newer)
+        throw new HttpError(
+          410,
+          'invitation_replaced',
+          'A newer invitation was sent to this address; use the link in the latest e-mail.',
+          { reason: 'replaced' },
+        );
+      throw new HttpError(
+        410,
+        'invitation_withdrawn',
+        `This invitation was withdrawn. ${ask} if you should still join.`,
+        { reason: 'withdrawn' },
+      );
     }
-    throw new HttpError(410, 'invitation_expired', `This invitation expired on ${isoDay(record.expiresAt)}. ${ask} to send a new one.`, { reason: 'expired' });
+    throw new HttpError(
+      410,
+      'invitation_expired',
+      `This invitation expired on ${isoDay(record.expiresAt)}. ${ask} to send a new one.`,
+      { reason: 'expired' },
+    );
   }
 }
 
 /** Invitations not yet accepted or withdrawn (expired ones too, so they can be sent again), newest first. */
 export async function pendingInvitations() {
-  const rows = await AuthToken.findAll({ where: { purpose: 'invitation', usedAt: { [Op.is]: null } }, order: [['createdAt', 'DESC'], ['id', 'DESC']] });
+  const rows = await AuthToken.findAll({
+    where: { purpose: 'invitation', usedAt: { [Op.is]: null } },
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+  });
   const inviterIds = [...new Set(rows.map((r) => r.createdById).filter((id): id is number => id != null))];
-  const inviters = new Map((await User.findAll({ where: { id: inviterIds }, attributes: ['id', 'name'] })).map((u) => [u.id, u.name]));
+  const inviters = new Map(
+    (await User.findAll({ where: { id: inviterIds }, attributes: ['id', 'name'] })).map((u) => [u.id, u.name]),
+  );
   return rows.map((r) => ({ record: r, invitedBy: r.createdById ? (inviters.get(r.createdById) ?? null) : null }));
 }
 
 async function pending(id: number, transaction: Transaction) {
-  const record = await AuthToken.findOne({ where: { id, purpose: 'invitation', usedAt: { [Op.is]: null } }, transaction, lock: transaction.LOCK.UPDATE });
+  const record = await AuthToken.findOne({
+    where: { id, purpose: 'invitation', usedAt: { [Op.is]: null } },
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
   if (!record) throw notFound('Pending invitation');
   return record;
 }
@@ -89,6 +148,15 @@ export async function revokeInvitation({ transaction, input }: ServiceCtx<{ id: 
 export async function acceptInvitation({ transaction, input }: ServiceCtx<AcceptInvitationInput & { token: string }>) {
   const record = await liveInvitation(input.token, transaction, true);
   await record.update({ usedAt: new Date() }, { transaction });
-  if (await User.findOne({ where: { email: record.email }, transaction })) throw conflict('An account with this e-mail address already exists; sign in instead.');
-  return User.create({ email: record.email, name: input.name, role: record.role ?? 'researcher', passwordHash: await hashPassword(input.password) }, { transaction });
+  if (await User.findOne({ where: { email: record.email }, transaction }))
+    throw conflict('An account with this e-mail address already exists; sign in instead.');
+  return User.create(
+    {
+      email: record.email,
+      name: input.name,
+      role: record.role ?? 'researcher',
+      passwordHash: await hashPassword(input.password),
+    },
+    { transaction },
+  );
 }

@@ -4,7 +4,11 @@
  * background colour keeps its share of the whole analysed area. Converting everything
  * to whole-area fractions first makes the toggle exact and reversible.
  */
-export function reshare<T extends { id: number; share: number; background: boolean }>(colours: T[], toggledId: number, background: boolean) {
+export function reshare<T extends { id: number; share: number; background: boolean }>(
+  colours: T[],
+  toggledId: number,
+  background: boolean,
+) {
   const bgArea = colours.filter((c) => c.background).reduce((s, c) => s + c.share, 0);
   const counted = Math.max(0, 1 - bgArea);
   const area = new Map(colours.map((c) => [c.id, c.background ? c.share : c.share * counted]));

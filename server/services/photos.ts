@@ -1,5 +1,11 @@
 import { Op, type Transaction } from 'sequelize';
-import { rectIssues, type PhotoUpdateInput, type Rect, type RegionCreateInput, type RegionUpdateInput } from '../../shared/schemas/photo.ts';
+import {
+  rectIssues,
+  type PhotoUpdateInput,
+  type Rect,
+  type RegionCreateInput,
+  type RegionUpdateInput,
+} from '../../shared/schemas/photo.ts';
 import { badRequest } from '../http/errors.ts';
 import { enqueueTiles } from '../iiif/enqueue.ts';
 import { TILE_JOB } from '../jobs/handlers/tile-photo.ts';
@@ -18,7 +24,10 @@ import { reshare } from './palette-shares.ts';
 
 // Photo changes show in the piece's history when the photo belongs to a piece.
 const auditPhoto = (ctx: TxCtx, photo: Photo, action: string, changes: Changes) =>
-  audit(ctx, photo.pieceId != null ? 'piece' : 'photo', photo.pieceId ?? photo.id, action, { ...changes, photoId: { from: null, to: photo.id } });
+  audit(ctx, photo.pieceId != null ? 'piece' : 'photo', photo.pieceId ?? photo.id, action, {
+    ...changes,
+    photoId: { from: null, to: photo.id },
+  });
 
 function checkRect(r: Partial<Rect>, photo: Photo) {
   const fields = rectIssues(r, photo);
@@ -37,8 +46,16 @@ export async function addPhoto({ actor, transaction, input }: ServiceCtx<IngestI
     stored = result.photo;
     await enqueueTiles(result.photo.id, transaction, actor?.id ?? null);
     // In the history of what it belongs to: the piece, or the trial it is a swatch of.
-    const owner = input.pieceId != null ? { entity: 'piece', id: input.pieceId } : input.trialId != null ? { entity: 'trial', id: input.trialId } : null;
-    if (owner) await audit({ actor, transaction }, owner.entity, owner.id, 'photo-added', { photo: { from: null, to: result.photo.id } });
+    const owner =
+      input.pieceId != null
+        ? { entity: 'piece', id: input.pieceId }
+        : input.trialId != null
+          ? { entity: 'trial', id: input.trialId }
+          : null;
+    if (owner)
+      await audit({ actor, transaction }, owner.entity, owner.id, 'photo-added', {
+        photo: { from: null, to: result.photo.id },
+      });
     return result;
   } catch (e) {
     if (stored) await removePhotoFiles(stored).catch(() => undefined);
@@ -46,11 +63,17 @@ export async function addPhoto({ actor, transaction, input }: ServiceCtx<IngestI
   }
 }
 
-export async function updatePhoto({ actor, transaction, input }: ServiceCtx<{ photo: Photo; changes: PhotoUpdateInput }>) {
+export async function updatePhoto({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<{ photo: Photo; changes: PhotoUpdateInput }>) {
   const { photo, changes: patch } = input;
   const before = { caption: photo.caption, view: photo.view };
   await photo.update(patch, { transaction });
-  const changes = Object.fromEntries(Object.entries(patch).map(([k, to]) => [k, { from: before[k as keyof typeof before], to }]));
+  const changes = Object.fromEntries(
+    Object.entries(patch).map(([k, to]) => [k, { from: before[k as keyof typeof before], to }]),
+  );
   await auditPhoto({ actor, transaction }, photo, 'photo-updated', changes);
   return photo;
 }
@@ -62,7 +85,10 @@ export async function removePhotoRows(photos: Photo[], transaction: Transaction)
   await PaletteColour.destroy({ where: { photoId: { [Op.in]: ids } }, transaction });
   await Region.destroy({ where: { photoId: { [Op.in]: ids } }, transaction });
   // Tiling not yet started has nothing left to tile.
-  await Job.destroy({ where: { type: TILE_JOB, subjectType: 'photo', subjectId: { [Op.in]: ids }, state: 'queued' }, transaction });
+  await Job.destroy({
+    where: { type: TILE_JOB, subjectType: 'photo', subjectId: { [Op.in]: ids }, state: 'queued' },
+    transaction,
+  });
   for (const photo of photos) await photo.destroy({ transaction });
   // Files go only after the rows are gone for good.
   transaction.afterCommit(async () => {
@@ -82,33 +108,59 @@ export async function deletePhoto({ actor, transaction, input }: ServiceCtx<{ ph
  * Media and colour). Answers every palette of the photo.
  */
 async function palettesAfter(photo: Photo, scope: RepaletteScope | null, transaction: Transaction) {
-  return scope ? repalette({ transaction, photo, scope }) : PaletteColour.findAll({ where: { photoId: photo.id }, transaction });
+  return scope
+    ? repalette({ transaction, photo, scope })
+    : PaletteColour.findAll({ where: { photoId: photo.id }, transaction });
 }
 
-const scopeOf = (purposes: string[], regionId: number): RepaletteScope => (purposes.some((p) => EXCLUDING_PURPOSES.has(p)) ? 'all' : { regionId });
+const scopeOf = (purposes: string[], regionId: number): RepaletteScope =>
+  purposes.some((p) => EXCLUDING_PURPOSES.has(p)) ? 'all' : { regionId };
 
-export async function addRegion({ actor, transaction, input }: ServiceCtx<{ photo: Photo; region: RegionCreateInput }>) {
+export async function addRegion({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<{ photo: Photo; region: RegionCreateInput }>) {
   const { photo, region: fields } = input;
   checkRect(fields, photo);
-  const region = await Region.create({ ...fields, label: fields.label ?? null, photoId: photo.id, createdById: actor?.id ?? null }, { transaction });
-  await auditPhoto({ actor, transaction }, photo, 'region-added', { region: { from: null, to: { ...fields, id: region.id } } });
+  const region = await Region.create(
+    { ...fields, label: fields.label ?? null, photoId: photo.id, createdById: actor?.id ?? null },
+    { transaction },
+  );
+  await auditPhoto({ actor, transaction }, photo, 'region-added', {
+    region: { from: null, to: { ...fields, id: region.id } },
+  });
   return { region, palette: await palettesAfter(photo, scopeOf([region.purpose], region.id), transaction) };
 }
 
-export async function updateRegion({ actor, transaction, input }: ServiceCtx<{ photo: Photo; region: Region; changes: RegionUpdateInput }>) {
+export async function updateRegion({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<{ photo: Photo; region: Region; changes: RegionUpdateInput }>) {
   const { photo, region, changes } = input;
-  checkRect({ x: changes.x ?? region.x, y: changes.y ?? region.y, w: changes.w ?? region.w, h: changes.h ?? region.h }, photo);
+  checkRect(
+    { x: changes.x ?? region.x, y: changes.y ?? region.y, w: changes.w ?? region.w, h: changes.h ?? region.h },
+    photo,
+  );
   const before = presentRegion(region);
   await region.update(changes, { transaction });
-  await auditPhoto({ actor, transaction }, photo, 'region-changed', { region: { from: before, to: presentRegion(region) } });
-  return { region, palette: await palettesAfter(photo, scopeOf([before.purpose, region.purpose], region.id), transaction) };
+  await auditPhoto({ actor, transaction }, photo, 'region-changed', {
+    region: { from: before, to: presentRegion(region) },
+  });
+  return {
+    region,
+    palette: await palettesAfter(photo, scopeOf([before.purpose, region.purpose], region.id), transaction),
+  };
 }
 
 export async function removeRegion({ actor, transaction, input }: ServiceCtx<{ photo: Photo; region: Region }>) {
   const { photo, region } = input;
   await PaletteColour.destroy({ where: { regionId: region.id }, transaction });
   await region.destroy({ transaction });
-  await auditPhoto({ actor, transaction }, photo, 'region-removed', { region: { from: presentRegion(region), to: null } });
+  await auditPhoto({ actor, transaction }, photo, 'region-removed', {
+    region: { from: presentRegion(region), to: null },
+  });
   return { palette: await palettesAfter(photo, EXCLUDING_PURPOSES.has(region.purpose) ? 'all' : null, transaction) };
 }
 
@@ -117,7 +169,9 @@ export async function setReferencePatch({ actor, transaction, input }: ServiceCt
   checkRect(rect, photo);
   const before = photo.referencePatch;
   await photo.update({ referencePatch: rect }, { transaction });
-  await auditPhoto({ actor, transaction }, photo, 'reference-patch-set', { referencePatch: { from: before, to: rect } });
+  await auditPhoto({ actor, transaction }, photo, 'reference-patch-set', {
+    referencePatch: { from: before, to: rect },
+  });
   return { palette: await palettesAfter(photo, 'all', transaction) };
 }
 
@@ -125,19 +179,33 @@ export async function clearReferencePatch({ actor, transaction, input }: Service
   const { photo } = input;
   const before = photo.referencePatch;
   await photo.update({ referencePatch: null, correction: null }, { transaction });
-  await auditPhoto({ actor, transaction }, photo, 'reference-patch-cleared', { referencePatch: { from: before, to: null } });
+  await auditPhoto({ actor, transaction }, photo, 'reference-patch-cleared', {
+    referencePatch: { from: before, to: null },
+  });
   return { palette: await palettesAfter(photo, 'all', transaction) };
 }
 
 /** Mark a palette colour as background (or not); the other colours of its palette share again without it. */
-export async function setPaletteBackground({ actor, transaction, input }: ServiceCtx<{ photo: Photo; colour: PaletteColour; background: boolean }>) {
+export async function setPaletteBackground({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<{ photo: Photo; colour: PaletteColour; background: boolean }>) {
   const { photo, colour, background } = input;
-  const siblings = await PaletteColour.findAll({ where: { photoId: photo.id, regionId: colour.regionId, variant: colour.variant }, transaction });
+  const siblings = await PaletteColour.findAll({
+    where: { photoId: photo.id, regionId: colour.regionId, variant: colour.variant },
+    transaction,
+  });
   for (const next of reshare(siblings, colour.id, background)) {
     // The toggled colour's flag is now the user's: a later recompute of this palette keeps it.
     const manual = next.id === colour.id ? { backgroundManual: true } : {};
-    await PaletteColour.update({ share: next.share, background: next.background, ...manual }, { where: { id: next.id }, transaction });
+    await PaletteColour.update(
+      { share: next.share, background: next.background, ...manual },
+      { where: { id: next.id }, transaction },
+    );
   }
-  await auditPhoto({ actor, transaction }, photo, 'palette-background', { [`colour ${colour.hex}`]: { from: colour.background, to: background } });
+  await auditPhoto({ actor, transaction }, photo, 'palette-background', {
+    [`colour ${colour.hex}`]: { from: colour.background, to: background },
+  });
   return { palette: await PaletteColour.findAll({ where: { photoId: photo.id }, transaction }) };
 }

@@ -7,14 +7,18 @@ import { Piece, VocabularyTerm } from '../models/index.ts';
 import { audit, diff } from './audit.ts';
 import type { ServiceCtx } from './context.ts';
 
-
 /** Fibres and techniques must come from the vocabularies an admin keeps. */
 async function checkVocabulary(input: { fibres?: string[]; techniques?: string[] }, transaction: Transaction) {
   const fields: Record<string, string[]> = {};
-  for (const [field, vocabulary] of [['fibres', 'fibre'], ['techniques', 'technique']] as const) {
+  for (const [field, vocabulary] of [
+    ['fibres', 'fibre'],
+    ['techniques', 'technique'],
+  ] as const) {
     const wanted = input[field];
     if (!wanted?.length) continue;
-    const known = new Set((await VocabularyTerm.findAll({ where: { vocabulary }, attributes: ['term'], transaction })).map((t) => t.term));
+    const known = new Set(
+      (await VocabularyTerm.findAll({ where: { vocabulary }, attributes: ['term'], transaction })).map((t) => t.term),
+    );
     const unknown = wanted.filter((t) => !known.has(t));
     if (unknown.length) fields[field] = [`Not in the ${vocabulary} vocabulary: ${unknown.join(', ')}`];
   }
@@ -23,7 +27,11 @@ async function checkVocabulary(input: { fibres?: string[]; techniques?: string[]
 
 async function checkAccessionFree(accessionNumber: string, exceptId: number | null, transaction: Transaction) {
   // Case and spaces do not make a new number: "ex 2021/1" is taken when "EX 2021/1" exists.
-  const other = await Piece.findOne({ where: { accessionKey: accessionKey(accessionNumber) }, paranoid: false, transaction });
+  const other = await Piece.findOne({
+    where: { accessionKey: accessionKey(accessionNumber) },
+    paranoid: false,
+    transaction,
+  });
   if (other && other.id !== exceptId) {
     const as = other.accessionNumber === accessionNumber ? '' : ` (as ${other.accessionNumber})`;
     const message = other.deletedAt
@@ -34,7 +42,9 @@ async function checkAccessionFree(accessionNumber: string, exceptId: number | nu
 }
 
 /** Fill the year bounds from the EDTF date when the cataloguer left them empty. */
-function withYears<T extends { dateEdtf?: string | null; earliestYear?: number | null; latestYear?: number | null }>(p: T): T {
+function withYears<T extends { dateEdtf?: string | null; earliestYear?: number | null; latestYear?: number | null }>(
+  p: T,
+): T {
   if (!p.dateEdtf) return p;
   const r = edtfYears(p.dateEdtf);
   return { ...p, earliestYear: p.earliestYear ?? r?.earliest ?? null, latestYear: p.latestYear ?? r?.latest ?? null };
@@ -76,7 +86,11 @@ export async function createPiece({ actor, transaction, input }: ServiceCtx<Piec
   return piece;
 }
 
-export async function updatePiece({ actor, transaction, input }: ServiceCtx<{ piece: Piece; changes: PieceUpdateInput }>) {
+export async function updatePiece({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<{ piece: Piece; changes: PieceUpdateInput }>) {
   const { piece, changes } = input;
   await checkVocabulary(changes, transaction);
   if (changes.accessionNumber) await checkAccessionFree(changes.accessionNumber, piece.id, transaction);
@@ -88,7 +102,10 @@ export async function updatePiece({ actor, transaction, input }: ServiceCtx<{ pi
   const before = piece.get({ plain: true }) as unknown as Record<string, unknown>;
   const merged = { ...before, ...patch } as Parameters<typeof dateIssues>[0];
   const issues = dateIssues(merged);
-  if (issues.length) throw badRequest('Some fields are not valid.', { fields: Object.fromEntries(issues.map((i) => [i.path, [i.message]])) });
+  if (issues.length)
+    throw badRequest('Some fields are not valid.', {
+      fields: Object.fromEntries(issues.map((i) => [i.path, [i.message]])),
+    });
   const changed = diff(before, patch);
   if (!Object.keys(changed).length) return piece;
   await piece.update(patch, { transaction });

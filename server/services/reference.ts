@@ -5,7 +5,8 @@ import { AuditEvent, Chemical, Dyestuff } from '../models/index.ts';
 import { audit } from './audit.ts';
 import type { ServiceCtx } from './context.ts';
 
-const created = (input: Record<string, unknown>) => Object.fromEntries(Object.entries(input).map(([k, to]) => [k, { from: null, to }]));
+const created = (input: Record<string, unknown>) =>
+  Object.fromEntries(Object.entries(input).map(([k, to]) => [k, { from: null, to }]));
 
 /** An admin adds a chemical to the reference; a name already in use answers 409, and the addition is audited. */
 export async function createChemical({ actor, transaction, input }: ServiceCtx<ChemicalCreate>) {
@@ -30,7 +31,11 @@ export async function createDyestuff({ actor, transaction, input }: ServiceCtx<D
 }
 
 /** Edit a chemical's reference row and record what changed, in one transaction. */
-export async function updateChemical({ actor, transaction, input }: ServiceCtx<{ chemical: Chemical; patch: ChemicalPatch }>) {
+export async function updateChemical({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<{ chemical: Chemical; patch: ChemicalPatch }>) {
   const { chemical, patch } = input;
   const normalised = { ...patch, ...(patch.formula === '' ? { formula: null } : {}) };
   // The row as it will be: a metal must occur in its formula (the schema checks this on create, where both come together).
@@ -40,8 +45,14 @@ export async function updateChemical({ actor, transaction, input }: ServiceCtx<{
     const message = `The formula has no ${metal}`;
     throw badRequest(message, { fields: { [normalised.metal !== undefined ? 'metal' : 'formula']: [message] } });
   }
-  if (normalised.name !== undefined && normalised.name !== chemical.name && (await Chemical.findOne({ where: { name: normalised.name }, transaction }))) {
-    throw conflict(`A chemical named "${normalised.name}" is already in the reference.`, { fields: { name: ['A chemical with this name already exists'] } });
+  if (
+    normalised.name !== undefined &&
+    normalised.name !== chemical.name &&
+    (await Chemical.findOne({ where: { name: normalised.name }, transaction }))
+  ) {
+    throw conflict(`A chemical named "${normalised.name}" is already in the reference.`, {
+      fields: { name: ['A chemical with this name already exists'] },
+    });
   }
   const changes: Record<string, { from: unknown; to: unknown }> = {};
   for (const [key, to] of Object.entries(normalised)) {
@@ -50,6 +61,9 @@ export async function updateChemical({ actor, transaction, input }: ServiceCtx<{
   }
   if (Object.keys(changes).length === 0) return chemical;
   await chemical.update(normalised, { transaction });
-  await AuditEvent.create({ actorId: actor?.id ?? null, entity: 'chemical', entityId: chemical.id, action: 'update', changes }, { transaction });
+  await AuditEvent.create(
+    { actorId: actor?.id ?? null, entity: 'chemical', entityId: chemical.id, action: 'update', changes },
+    { transaction },
+  );
   return chemical;
 }

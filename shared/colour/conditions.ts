@@ -14,16 +14,23 @@ export type ViewingConditions = { illuminant: Illuminant; observer: Observer };
  */
 export const IMAGE_ESTIMATE_CONDITIONS = { illuminant: 'D65', observer: '2' } as const satisfies ViewingConditions;
 
-export const SOURCE_WORDS: Record<ColourSource, string> = { instrument: 'instrument reading', 'image-estimate': 'image estimate' };
+export const SOURCE_WORDS: Record<ColourSource, string> = {
+  instrument: 'instrument reading',
+  'image-estimate': 'image estimate',
+};
 
 /** "D65/10°". */
 export const conditionsText = (c: { illuminant: string; observer: string }) => `${c.illuminant}/${c.observer}°`;
 
 /** "image estimate · D65/2°", "instrument reading · A/10°". */
-export const viewingLabel = (c: { illuminant: string; observer: string; source: ColourSource }) => `${SOURCE_WORDS[c.source]} · ${conditionsText(c)}`;
+export const viewingLabel = (c: { illuminant: string; observer: string; source: ColourSource }) =>
+  `${SOURCE_WORDS[c.source]} · ${conditionsText(c)}`;
 
 /** Same viewing conditions: only such readings may be averaged together. */
-export const sameConditions = (x: { illuminant: string; observer: string }, y: { illuminant: string; observer: string }) => x.illuminant === y.illuminant && x.observer === y.observer;
+export const sameConditions = (
+  x: { illuminant: string; observer: string },
+  y: { illuminant: string; observer: string },
+) => x.illuminant === y.illuminant && x.observer === y.observer;
 
 /** A signed difference figure, "+1.20" or "−0.35" (a true minus sign), so its direction reads at a glance. */
 export const signed = (x: number, decimals = 2) => {

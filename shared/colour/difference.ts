@@ -29,7 +29,8 @@ export function deltaE76(x: Lab, y: Lab): number {
  * (anticlockwise on the a*b* plane). ΔL*² + ΔC*² + ΔH*² = ΔE*ab².
  */
 export function labComponents(standard: Lab, sample: Lab) {
-  const s = labToLch(standard), t = labToLch(sample);
+  const s = labToLch(standard),
+    t = labToLch(sample);
   let dh = t.h - s.h;
   if (dh > 180) dh -= 360;
   else if (dh <= -180) dh += 360;
@@ -99,7 +100,9 @@ export function differenceReport(ref: Lab, sample: Lab, bands: Bands = DEFAULT_B
     cmc21: deltaECMC(ref, sample, 2, 1),
     cmc11: deltaECMC(ref, sample, 1, 1),
     deltaEab: dEab,
-    dL, dC, dH,
+    dL,
+    dC,
+    dH,
     /** Hue-angle change in degrees (−180 to 180), sample minus standard. */
     dh,
     da: sample.a - ref.a,

@@ -10,7 +10,13 @@
 export type HueFamily = 'red' | 'orange' | 'yellow' | 'green' | 'blue' | 'purple';
 
 export const HUE_FAMILIES: ReadonlyArray<readonly [upTo: number, family: HueFamily]> = [
-  [45, 'red'], [75, 'orange'], [115, 'yellow'], [200, 'green'], [310, 'blue'], [352, 'purple'], [361, 'red'],
+  [45, 'red'],
+  [75, 'orange'],
+  [115, 'yellow'],
+  [200, 'green'],
+  [310, 'blue'],
+  [352, 'purple'],
+  [361, 'red'],
 ];
 
 /** The family of a hue angle in degrees (any angle; taken modulo 360). */

@@ -18,7 +18,14 @@ export const TINTED_CHROMA = 10;
 
 /** The ISCC–NBS adjectives for a tinted neutral ("yellowish grey", "bluish black"). */
 const TINT: Record<HueFamily | 'brown' | 'pink', string> = {
-  red: 'reddish', orange: 'brownish', brown: 'brownish', yellow: 'yellowish', green: 'greenish', blue: 'bluish', purple: 'purplish', pink: 'pinkish',
+  red: 'reddish',
+  orange: 'brownish',
+  brown: 'brownish',
+  yellow: 'yellowish',
+  green: 'greenish',
+  blue: 'bluish',
+  purple: 'purplish',
+  pink: 'pinkish',
 };
 
 function neutral(L: number) {
@@ -57,7 +64,8 @@ export function shadeName(lab: Lab): string {
   }
   if (isBrown(L, C, h)) return [L < 30 ? 'dark' : null, C < 15 ? 'greyish' : null, 'brown'].filter(Boolean).join(' ');
   if (isOlive(L, h)) return [L < 35 ? 'dark' : null, C < 15 ? 'greyish' : null, 'olive'].filter(Boolean).join(' ');
-  if (isPink(L, h)) return [L >= 85 ? 'pale' : null, C < 12 ? 'greyish' : C >= 50 ? 'vivid' : null, 'pink'].filter(Boolean).join(' ');
+  if (isPink(L, h))
+    return [L >= 85 ? 'pale' : null, C < 12 ? 'greyish' : C >= 50 ? 'vivid' : null, 'pink'].filter(Boolean).join(' ');
   const hue = hueFamily(h);
   const light = L >= 70 ? 'pale' : L < 40 ? 'dark' : null;
   const chroma = C < 20 ? 'greyish' : C >= 50 ? 'vivid' : null;
@@ -66,7 +74,8 @@ export function shadeName(lab: Lab): string {
 
 export type TradeShade = { name: string; lab: Lab; source: string };
 
-const CP = 'common practice: a typical reading of this shade on cotton or wool, our approximation (not a published value)';
+const CP =
+  'common practice: a typical reading of this shade on cotton or wool, our approximation (not a published value)';
 
 /**
  * Trade shade names of dyed and printed cloth with typical CIELAB D65 values. No published

@@ -27,8 +27,24 @@ const HYDRATE_DOTS = '·•∙⋅*.';
 
 /** Unicode vulgar fractions allowed as (part of) a hydrate coefficient, e.g. CaSO4·½H2O, 2CaSO4·1½H2O... */
 const VULGAR: Record<string, number> = {
-  '½': 1 / 2, '⅓': 1 / 3, '⅔': 2 / 3, '¼': 1 / 4, '¾': 3 / 4, '⅕': 1 / 5, '⅖': 2 / 5, '⅗': 3 / 5, '⅘': 4 / 5,
-  '⅙': 1 / 6, '⅚': 5 / 6, '⅐': 1 / 7, '⅛': 1 / 8, '⅜': 3 / 8, '⅝': 5 / 8, '⅞': 7 / 8, '⅑': 1 / 9, '⅒': 1 / 10,
+  '½': 1 / 2,
+  '⅓': 1 / 3,
+  '⅔': 2 / 3,
+  '¼': 1 / 4,
+  '¾': 3 / 4,
+  '⅕': 1 / 5,
+  '⅖': 2 / 5,
+  '⅗': 3 / 5,
+  '⅘': 4 / 5,
+  '⅙': 1 / 6,
+  '⅚': 5 / 6,
+  '⅐': 1 / 7,
+  '⅛': 1 / 8,
+  '⅜': 3 / 8,
+  '⅝': 5 / 8,
+  '⅞': 7 / 8,
+  '⅑': 1 / 9,
+  '⅒': 1 / 10,
 };
 
 function add(into: Composition, from: Composition, times: number) {
@@ -88,7 +104,8 @@ export function parseFormula(formula: string): Composition {
     if (!d) return 1;
     if (Number(d) === 0) fail('A count of zero', start);
     // "Fe1.5O" would otherwise read as Fe · 5 O: counts inside a part are whole numbers.
-    if (d === '1' && src[i] === '.' && /[0-9]/.test(src[i + 1] ?? '')) fail('Unexpected "." (counts inside a formula are whole numbers)', i);
+    if (d === '1' && src[i] === '.' && /[0-9]/.test(src[i + 1] ?? ''))
+      fail('Unexpected "." (counts inside a formula are whole numbers)', i);
     return Number(d);
   };
 
@@ -123,7 +140,10 @@ export function parseFormula(formula: string): Composition {
     if (openers.length) fail(`Unclosed "${src[openers[openers.length - 1].at]}"`, openers[openers.length - 1].at);
     if (i === bodyStart) {
       if (i < src.length) fail(`Unexpected ${show(src[i])}`);
-      fail(i > partStart ? 'An element is missing after the coefficient at the end' : 'An element is missing at the end', null);
+      fail(
+        i > partStart ? 'An element is missing after the coefficient at the end' : 'An element is missing at the end',
+        null,
+      );
     }
     const part: Composition = {};
     add(part, stack[0], coefficient);
@@ -208,13 +228,25 @@ export type MetalComparisonRow = {
 };
 
 /** Historical vs modern metal load side by side, e.g. the grams of lead not used. */
-export function compareMetalLoad(before: readonly ChemicalAmount[], after: readonly ChemicalAmount[], fibreMassG?: number): MetalComparisonRow[] {
+export function compareMetalLoad(
+  before: readonly ChemicalAmount[],
+  after: readonly ChemicalAmount[],
+  fibreMassG?: number,
+): MetalComparisonRow[] {
   const b = metalLoad(before);
   const a = metalLoad(after);
   const perKg = (g: number) => (fibreMassG && fibreMassG > 0 ? (g * 1000) / fibreMassG : null);
   return LOAD_METALS.filter((el) => b[el] !== undefined || a[el] !== undefined).map((metal) => {
     const beforeG = b[metal] ?? 0;
     const afterG = a[metal] ?? 0;
-    return { metal, heavy: isHeavyMetal(metal), beforeG, afterG, avoidedG: beforeG - afterG, beforeGPerKgFibre: perKg(beforeG), afterGPerKgFibre: perKg(afterG) };
+    return {
+      metal,
+      heavy: isHeavyMetal(metal),
+      beforeG,
+      afterG,
+      avoidedG: beforeG - afterG,
+      beforeGPerKgFibre: perKg(beforeG),
+      afterGPerKgFibre: perKg(afterG),
+    };
   });
 }

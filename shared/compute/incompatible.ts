@@ -1,4 +1,10 @@
-import { GROUP_FORMULAS, GROUP_LABELS, GROUP_ROLES, INCOMPATIBLE_PAIRS, type ChemicalGroup } from '../data/incompatible-pairs.ts';
+import {
+  GROUP_FORMULAS,
+  GROUP_LABELS,
+  GROUP_ROLES,
+  INCOMPATIBLE_PAIRS,
+  type ChemicalGroup,
+} from '../data/incompatible-pairs.ts';
 
 // Dangerous pairs within one step (one bath or one paste): pure rules over the chemicals named in it.
 // The pairs, their hazards and their sources are in shared/data/incompatible-pairs.ts.
@@ -21,7 +27,10 @@ export function chemicalGroups(c: MixChemical): ChemicalGroup[] {
   if (byRole && !(byRole === 'reducer' && SUGARS.includes(f))) out.add(byRole);
   // Any arsenic compound (As not followed by a lower-case letter, so not "Ast…").
   if (/As(?![a-z])/.test(f) || /arsen/i.test(c.name)) out.add('arsenic');
-  if (/hypochlorite/i.test(c.name)) { out.add('hypochlorite'); out.add('oxidiser'); }
+  if (/hypochlorite/i.test(c.name)) {
+    out.add('hypochlorite');
+    out.add('oxidiser');
+  }
   return [...out];
 }
 
@@ -49,9 +58,13 @@ export function incompatibleInStep(stepPosition: number, chemicals: readonly Mix
     const names = (xs: MixChemical[]) => [...new Set(xs.map((x) => x.name))].join(', ');
     const with_ = p.b === 'water' ? 'water' : names(bs);
     out.push({
-      code: p.code, stepPosition,
+      code: p.code,
+      stepPosition,
       chemicals: [...new Map([...as, ...bs].map((x) => [x.id, { id: x.id, name: x.name }])).values()],
-      message: p.b === 'water' ? `${names(as)}: ${p.hazard}` : `Do not combine ${names(as)} (${GROUP_LABELS[p.a]}) with ${with_} (${GROUP_LABELS[p.b]}). ${p.hazard}`,
+      message:
+        p.b === 'water'
+          ? `${names(as)}: ${p.hazard}`
+          : `Do not combine ${names(as)} (${GROUP_LABELS[p.a]}) with ${with_} (${GROUP_LABELS[p.b]}). ${p.hazard}`,
       hazard: p.hazard,
       source: p.source,
     });

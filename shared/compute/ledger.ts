@@ -68,7 +68,12 @@ export function keptFraction(batch: LedgerBatch, fibreMassG?: number | null): nu
  * is below half the original, the last strip drifted more than ΔE00 2 from the first,
  * or three uses have passed without a strip.
  */
-export const TEST_STRIP_RULE = { lowStrength: 0.5, driftDeltaE: 2, usesWithoutStrip: 3, source: 'common practice, from memory' } as const;
+export const TEST_STRIP_RULE = {
+  lowStrength: 0.5,
+  driftDeltaE: 2,
+  usesWithoutStrip: 3,
+  source: 'common practice, from memory',
+} as const;
 
 /** Below this estimated strength the bath is probably spent (common practice, from memory). */
 export const EXHAUSTED_BELOW = 0.15;
@@ -93,9 +98,16 @@ export type LedgerState = {
   disposed: boolean;
 };
 
-export type TimelinePoint = { index: number; type: LedgerEvent['type'] | 'made'; remainingMl: number; strength: number; chargeFraction: number };
+export type TimelinePoint = {
+  index: number;
+  type: LedgerEvent['type'] | 'made';
+  remainingMl: number;
+  strength: number;
+  chargeFraction: number;
+};
 
-const activeGrams = (list: readonly LedgerIngredient[] | null | undefined) => (list ?? []).filter((i) => !i.thickener).reduce((s, i) => s + i.grams, 0);
+const activeGrams = (list: readonly LedgerIngredient[] | null | undefined) =>
+  (list ?? []).filter((i) => !i.thickener).reduce((s, i) => s + i.grams, 0);
 
 /**
  * The charge the strength is measured against: the active grams as made. A batch that lists no active
@@ -105,14 +117,16 @@ const activeGrams = (list: readonly LedgerIngredient[] | null | undefined) => (l
 const madeCharge = (batch: LedgerBatch) => activeGrams(batch.ingredients) || batch.volumeMl;
 
 /** One ingredient's key in `LedgerState.grams`: its reference id when it has one, else its name. */
-export const ingredientKey = (i: Pick<LedgerIngredient, 'name' | 'refId'>) => (i.refId != null ? `#${i.refId}` : i.name);
+export const ingredientKey = (i: Pick<LedgerIngredient, 'name' | 'refId'>) =>
+  i.refId != null ? `#${i.refId}` : i.name;
 
 const addGrams = (into: Record<string, number>, list: readonly LedgerIngredient[] | null | undefined) => {
   const out = { ...into };
   for (const i of list ?? []) out[ingredientKey(i)] = (out[ingredientKey(i)] ?? 0) + i.grams;
   return out;
 };
-const scaleGrams = (g: Record<string, number>, k: (key: string) => number) => Object.fromEntries(Object.entries(g).map(([key, v]) => [key, v * k(key)]));
+const scaleGrams = (g: Record<string, number>, k: (key: string) => number) =>
+  Object.fromEntries(Object.entries(g).map(([key, v]) => [key, v * k(key)]));
 
 /** The bath as made; a disposal is known only from a disposal event in the history. */
 export function initialState(batch: LedgerBatch): LedgerState {
@@ -139,22 +153,35 @@ const thickenerKeys = (batch: LedgerBatch) => new Set(batch.ingredients.filter((
 const positive = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x) && x > 0;
 
 /** Apply one event; throws a LedgerError and leaves the state untouched when it is refused. */
-export function applyEvent(batch: LedgerBatch, s: LedgerState, e: LedgerEvent, opts: { exhausted?: boolean } = {}): LedgerState {
-  if (s.disposed) throw new LedgerError('disposed', 409, 'This batch has been disposed of; no further events can be recorded.');
+export function applyEvent(
+  batch: LedgerBatch,
+  s: LedgerState,
+  e: LedgerEvent,
+  opts: { exhausted?: boolean } = {},
+): LedgerState {
+  if (s.disposed)
+    throw new LedgerError('disposed', 409, 'This batch has been disposed of; no further events can be recorded.');
   const charge0 = madeCharge(batch);
   const withCharge = (next: LedgerState): LedgerState => {
     const chargeFraction = charge0 > 0 ? next.chargeG / charge0 : 0;
-    const strength = next.remainingMl > 0 && charge0 > 0 ? next.chargeG / next.remainingMl / (charge0 / batch.volumeMl) : 0;
+    const strength =
+      next.remainingMl > 0 && charge0 > 0 ? next.chargeG / next.remainingMl / (charge0 / batch.volumeMl) : 0;
     return { ...next, chargeFraction, strength };
   };
   switch (e.type) {
     case 'use': {
-      if (!positive(e.volumeMl)) throw new LedgerError('invalid-event', 422, 'A use needs the volume drawn, in mL, greater than zero.');
+      if (!positive(e.volumeMl))
+        throw new LedgerError('invalid-event', 422, 'A use needs the volume drawn, in mL, greater than zero.');
       if (e.volumeMl > s.remainingMl + 1e-9) {
-        throw new LedgerError('overdraw', 409, `Only ${round1(s.remainingMl)} mL are left; ${round1(e.volumeMl)} mL cannot be drawn.`, {
-          remainingMl: s.remainingMl,
-          requestedMl: e.volumeMl,
-        });
+        throw new LedgerError(
+          'overdraw',
+          409,
+          `Only ${round1(s.remainingMl)} mL are left; ${round1(e.volumeMl)} mL cannot be drawn.`,
+          {
+            remainingMl: s.remainingMl,
+            requestedMl: e.volumeMl,
+          },
+        );
       }
       // The liquid drawn carries its share of every ingredient; the fibre takes up the estimated
       // fraction of the active ones that stay (thickeners are not taken up; a draw-only batch keeps its strength).
@@ -177,21 +204,36 @@ export function applyEvent(batch: LedgerBatch, s: LedgerState, e: LedgerEvent, o
     case 'top-up': {
       const addedG = activeGrams(e.additions);
       const addedMl = e.volumeMl ?? 0;
-      if (addedMl < 0 || !(addedG > 0 || addedMl > 0)) throw new LedgerError('invalid-event', 422, 'A top-up needs chemicals added, water added, or both.');
-      return withCharge({ ...s, chargeG: s.chargeG + addedG, grams: addGrams(s.grams, e.additions), remainingMl: s.remainingMl + addedMl, usesSinceTopUp: 0 });
+      if (addedMl < 0 || !(addedG > 0 || addedMl > 0))
+        throw new LedgerError('invalid-event', 422, 'A top-up needs chemicals added, water added, or both.');
+      return withCharge({
+        ...s,
+        chargeG: s.chargeG + addedG,
+        grams: addGrams(s.grams, e.additions),
+        remainingMl: s.remainingMl + addedMl,
+        usesSinceTopUp: 0,
+      });
     }
     case 'water':
-      if (!positive(e.volumeMl)) throw new LedgerError('invalid-event', 422, 'Water added needs a volume in mL greater than zero.');
+      if (!positive(e.volumeMl))
+        throw new LedgerError('invalid-event', 422, 'Water added needs a volume in mL greater than zero.');
       return withCharge({ ...s, remainingMl: s.remainingMl + e.volumeMl });
     case 'test-strip': {
       const d = e.deltaE ?? null;
-      return { ...s, usesSinceStrip: 0, firstStripDeltaE: s.firstStripDeltaE ?? d, lastStripDeltaE: d ?? s.lastStripDeltaE };
+      return {
+        ...s,
+        usesSinceStrip: 0,
+        firstStripDeltaE: s.firstStripDeltaE ?? d,
+        lastStripDeltaE: d ?? s.lastStripDeltaE,
+      };
     }
     case 'ph':
-      if (!(e.ph >= 0 && e.ph <= 14)) throw new LedgerError('invalid-event', 422, 'A pH reading lies between 0 and 14.');
+      if (!(e.ph >= 0 && e.ph <= 14))
+        throw new LedgerError('invalid-event', 422, 'A pH reading lies between 0 and 14.');
       return { ...s, lastPh: e.ph };
     case 'disposal': {
-      const spent = opts.exhausted || batch.status === 'exhausted' || s.remainingMl <= 0 || s.strength < EXHAUSTED_BELOW;
+      const spent =
+        opts.exhausted || batch.status === 'exhausted' || s.remainingMl <= 0 || s.strength < EXHAUSTED_BELOW;
       if (!spent && !e.reason?.trim()) {
         throw new LedgerError('not-exhausted', 422, 'This batch is not exhausted; give a reason for disposing of it.');
       }
@@ -235,9 +277,16 @@ export function suggestTopUp(batch: LedgerBatch, s: LedgerState): TopUpSuggestio
   for (const i of batch.ingredients) {
     const key = ingredientKey(i);
     const prev = made.get(key);
-    made.set(key, { name: i.name, refId: i.refId ?? null, thickener: !!i.thickener, perMl: (prev?.perMl ?? 0) + i.grams / batch.volumeMl });
+    made.set(key, {
+      name: i.name,
+      refId: i.refId ?? null,
+      thickener: !!i.thickener,
+      perMl: (prev?.perMl ?? 0) + i.grams / batch.volumeMl,
+    });
   }
-  const due = [...made.entries()].some(([key, m]) => !m.thickener && m.perMl > 0 && (s.grams[key] ?? 0) / s.remainingMl < m.perMl * (1 - AT_STRENGTH));
+  const due = [...made.entries()].some(
+    ([key, m]) => !m.thickener && m.perMl > 0 && (s.grams[key] ?? 0) / s.remainingMl < m.perMl * (1 - AT_STRENGTH),
+  );
   if (!due) return null;
   // Water back to the made volume, never more: a bath above it keeps its volume (no dilution).
   const volumeAfterMl = Math.max(batch.volumeMl, s.remainingMl);
@@ -262,7 +311,12 @@ export function testStripPrompt(s: LedgerState): StripPrompt {
   const reasons: StripPrompt['reasons'] = [];
   if (s.disposed) return { due: false, reasons };
   if (s.strength < TEST_STRIP_RULE.lowStrength) reasons.push('low-strength');
-  if (s.firstStripDeltaE != null && s.lastStripDeltaE != null && Math.abs(s.lastStripDeltaE - s.firstStripDeltaE) > TEST_STRIP_RULE.driftDeltaE) reasons.push('drift');
+  if (
+    s.firstStripDeltaE != null &&
+    s.lastStripDeltaE != null &&
+    Math.abs(s.lastStripDeltaE - s.firstStripDeltaE) > TEST_STRIP_RULE.driftDeltaE
+  )
+    reasons.push('drift');
   if (s.usesSinceStrip >= TEST_STRIP_RULE.usesWithoutStrip) reasons.push('many-uses');
   return { due: reasons.length > 0, reasons };
 }
@@ -279,10 +333,24 @@ export type Ledger = {
 /** Replay a batch's ordered events; throws the first LedgerError met. */
 export function computeLedger(batch: LedgerBatch, events: readonly LedgerEvent[]): Ledger {
   let state = initialState(batch);
-  const timeline: TimelinePoint[] = [{ index: 0, type: 'made', remainingMl: state.remainingMl, strength: state.strength, chargeFraction: state.chargeFraction }];
+  const timeline: TimelinePoint[] = [
+    {
+      index: 0,
+      type: 'made',
+      remainingMl: state.remainingMl,
+      strength: state.strength,
+      chargeFraction: state.chargeFraction,
+    },
+  ];
   events.forEach((e, i) => {
     state = applyEvent(batch, state, e);
-    timeline.push({ index: i + 1, type: e.type, remainingMl: state.remainingMl, strength: state.strength, chargeFraction: state.chargeFraction });
+    timeline.push({
+      index: i + 1,
+      type: e.type,
+      remainingMl: state.remainingMl,
+      strength: state.strength,
+      chargeFraction: state.chargeFraction,
+    });
   });
   return {
     state,
@@ -294,7 +362,11 @@ export function computeLedger(batch: LedgerBatch, events: readonly LedgerEvent[]
 }
 
 /** Check a new event against the history without changing anything: the ledger after it, or the refusal. */
-export function tryEvent(batch: LedgerBatch, history: readonly LedgerEvent[], next: LedgerEvent): { ok: true; ledger: Ledger } | { ok: false; error: LedgerError } {
+export function tryEvent(
+  batch: LedgerBatch,
+  history: readonly LedgerEvent[],
+  next: LedgerEvent,
+): { ok: true; ledger: Ledger } | { ok: false; error: LedgerError } {
   try {
     return { ok: true, ledger: computeLedger(batch, [...history, next]) };
   } catch (err) {

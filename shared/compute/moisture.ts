@@ -13,7 +13,11 @@ export type DryMassBasis = (typeof DRY_MASS_BASES)[number];
  */
 export function matchFibre(text: string | null | undefined): FibreEntry | null {
   if (!text) return null;
-  const words = text.toLowerCase().normalize('NFKD').split(/[^a-z]+/).filter(Boolean);
+  const words = text
+    .toLowerCase()
+    .normalize('NFKD')
+    .split(/[^a-z]+/)
+    .filter(Boolean);
   const found = FIBRES.filter((f) => f.words.some((w) => words.includes(w)));
   if (!found.length) return null;
   const first = found[0];
@@ -40,18 +44,39 @@ export type RecipeMass = {
   source: string;
 };
 
-export function recipeMass(enteredG: number, basis: DryMassBasis | null | undefined, fibreText: string | null | undefined): RecipeMass {
+export function recipeMass(
+  enteredG: number,
+  basis: DryMassBasis | null | undefined,
+  fibreText: string | null | undefined,
+): RecipeMass {
   const b: DryMassBasis = basis === 'oven-dry' ? 'oven-dry' : 'air-dry';
   const f = matchFibre(fibreText);
   const regainPct = f?.regainPct ?? null;
-  const base = { enteredG, basis: b, fibre: f?.label ?? null, regainPct, regainNote: f?.note ?? null, source: MOISTURE_REGAIN_SOURCE };
+  const base = {
+    enteredG,
+    basis: b,
+    fibre: f?.label ?? null,
+    regainPct,
+    regainNote: f?.note ?? null,
+    source: MOISTURE_REGAIN_SOURCE,
+  };
   if (regainPct == null) {
     return {
-      ...base, recipeMassG: enteredG, otherG: null,
-      problem: b === 'oven-dry' ? 'No commercial regain is recorded for this fibre: the recipe is worked on the oven-dry mass as entered.' : null,
+      ...base,
+      recipeMassG: enteredG,
+      otherG: null,
+      problem:
+        b === 'oven-dry'
+          ? 'No commercial regain is recorded for this fibre: the recipe is worked on the oven-dry mass as entered.'
+          : null,
     };
   }
   return b === 'oven-dry'
-    ? { ...base, recipeMassG: airDryFromOvenDry(enteredG, regainPct), otherG: airDryFromOvenDry(enteredG, regainPct), problem: null }
+    ? {
+        ...base,
+        recipeMassG: airDryFromOvenDry(enteredG, regainPct),
+        otherG: airDryFromOvenDry(enteredG, regainPct),
+        problem: null,
+      }
     : { ...base, recipeMassG: enteredG, otherG: ovenDryFromAirDry(enteredG, regainPct), problem: null };
 }

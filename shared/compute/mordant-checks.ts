@@ -18,10 +18,34 @@ export type MordantRange = { kind: MordantKind; fibreClass: FibreClass; low: num
 
 export const MORDANT_RANGES: readonly MordantRange[] = [
   { kind: 'potash-alum', fibreClass: 'protein', low: 8, high: 15, applies: 'potash alum on wool or silk' },
-  { kind: 'potash-alum', fibreClass: 'cellulose', low: 12, high: 20, applies: 'potash alum on cotton, linen and other plant fibres, after a tannin step' },
-  { kind: 'aluminium-sulfate', fibreClass: 'cellulose', low: 12, high: 20, applies: 'aluminium sulfate on cotton, linen and other plant fibres, after a tannin step' },
-  { kind: 'aluminium-acetate', fibreClass: 'cellulose', low: 5, high: 8, applies: 'aluminium acetate on plant fibres (often followed by a chalk or bran bath)' },
-  { kind: 'tannin', fibreClass: 'cellulose', low: 5, high: 15, applies: 'tannin (gall, sumac, tara, tannic acid) before alum on plant fibres' },
+  {
+    kind: 'potash-alum',
+    fibreClass: 'cellulose',
+    low: 12,
+    high: 20,
+    applies: 'potash alum on cotton, linen and other plant fibres, after a tannin step',
+  },
+  {
+    kind: 'aluminium-sulfate',
+    fibreClass: 'cellulose',
+    low: 12,
+    high: 20,
+    applies: 'aluminium sulfate on cotton, linen and other plant fibres, after a tannin step',
+  },
+  {
+    kind: 'aluminium-acetate',
+    fibreClass: 'cellulose',
+    low: 5,
+    high: 8,
+    applies: 'aluminium acetate on plant fibres (often followed by a chalk or bran bath)',
+  },
+  {
+    kind: 'tannin',
+    fibreClass: 'cellulose',
+    low: 5,
+    high: 15,
+    applies: 'tannin (gall, sumac, tara, tannic acid) before alum on plant fibres',
+  },
 ];
 
 export type CheckChemical = { id: number; name: string; formula: string | null; role: string | null };
@@ -58,12 +82,23 @@ export type MordantCheck = {
   marking: string;
 };
 
-export type MordantWarning = { code: 'cellulose-alum-without-fixing'; stepPosition: number; message: string; marking: string };
+export type MordantWarning = {
+  code: 'cellulose-alum-without-fixing';
+  stepPosition: number;
+  message: string;
+  marking: string;
+};
 
-export type MordantChecks = { fibre: string | null; fibreClass: FibreClass | null; mordant: MordantCheck[]; warnings: MordantWarning[] };
+export type MordantChecks = {
+  fibre: string | null;
+  fibreClass: FibreClass | null;
+  mordant: MordantCheck[];
+  warnings: MordantWarning[];
+};
 
 /** Grams of Al per kg of fibre at P % owf of a chemical: P × 10 g/kg × Al fraction. */
-export const gAlPerKgFibre = (percentOwf: number, formula: string) => percentOwf * 10 * metalMassFraction(formula, 'Al');
+export const gAlPerKgFibre = (percentOwf: number, formula: string) =>
+  percentOwf * 10 * metalMassFraction(formula, 'Al');
 
 /**
  * The checks for one recipe. `dyestuffClasses` names the dye class of each dyestuff (a dyestuff of class
@@ -85,9 +120,19 @@ export function mordantChecks(input: {
   let alumSeen = false;
   for (const step of input.steps) {
     if (step.operation === 'tannin') tannin = true;
-    const stepChems = step.ingredients.filter((i) => i.kind === 'chemical').map((i) => input.chemicals.get(i.refId)).filter((c): c is CheckChemical => Boolean(c));
-    if (stepChems.some((c) => { const k = mordantKind(c); return k === 'potash-alum' || k === 'aluminium-sulfate'; })) alumSeen = true;
-    if (alumSeen && step.operation !== 'scour' && stepChems.some((c) => ALKALI_FIXERS.has(compact(c.formula)))) alkali = true;
+    const stepChems = step.ingredients
+      .filter((i) => i.kind === 'chemical')
+      .map((i) => input.chemicals.get(i.refId))
+      .filter((c): c is CheckChemical => Boolean(c));
+    if (
+      stepChems.some((c) => {
+        const k = mordantKind(c);
+        return k === 'potash-alum' || k === 'aluminium-sulfate';
+      })
+    )
+      alumSeen = true;
+    if (alumSeen && step.operation !== 'scour' && stepChems.some((c) => ALKALI_FIXERS.has(compact(c.formula))))
+      alkali = true;
     for (const ing of step.ingredients) {
       if (ing.kind === 'dyestuff') {
         if (input.dyestuffClasses?.get(ing.refId) === 'tannin') tannin = true;
@@ -99,11 +144,17 @@ export function mordantChecks(input: {
       if (!kind) continue;
       if (kind === 'tannin') tannin = true;
       if (step.operation === 'print-paste') continue;
-      const r = fibreClass ? MORDANT_RANGES.find((x) => x.kind === kind && x.fibreClass === fibreClass) ?? null : null;
+      const r = fibreClass
+        ? (MORDANT_RANGES.find((x) => x.kind === kind && x.fibreClass === fibreClass) ?? null)
+        : null;
       const p = ing.percentOwf;
       const withAl = kind !== 'tannin' && c.formula ? c.formula : null;
       mordant.push({
-        stepPosition: step.position, refId: ing.refId, name: c.name, mordant: kind, percentOwf: p,
+        stepPosition: step.position,
+        refId: ing.refId,
+        name: c.name,
+        mordant: kind,
+        percentOwf: p,
         range: r ? { low: r.low, high: r.high, applies: r.applies } : null,
         verdict: p == null ? 'not-computed' : !r ? 'no-range' : p < r.low ? 'below' : p > r.high ? 'above' : 'within',
         gAlPerKg: withAl && p != null ? gAlPerKgFibre(p, withAl) : null,
@@ -117,7 +168,9 @@ export function mordantChecks(input: {
     const alum = mordant.find((m) => m.mordant === 'potash-alum' || m.mordant === 'aluminium-sulfate');
     if (alum) {
       warnings.push({
-        code: 'cellulose-alum-without-fixing', stepPosition: alum.stepPosition, marking: MORDANT_RANGE_MARKING,
+        code: 'cellulose-alum-without-fixing',
+        stepPosition: alum.stepPosition,
+        marking: MORDANT_RANGE_MARKING,
         message: `${f!.label[0].toUpperCase()}${f!.label.slice(1)} is a plant (cellulose) fibre: alum alone takes poorly and washes out. Add a tannin step (gall, sumac, tannic acid), or fix the alum with soda ash or chalk.`,
       });
     }

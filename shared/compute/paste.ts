@@ -15,13 +15,23 @@ export function stockVolumeMl(targetGPerL: number, finalVolumeMl: number, stockG
 }
 
 export type PasteMordant = { name: string; gPerL: number; stockGPerL?: number | null };
-export type PasteInput = { finalVolumeMl: number; mordants: PasteMordant[]; thickener?: { name: string; gPerL: number } | null };
+export type PasteInput = {
+  finalVolumeMl: number;
+  mordants: PasteMordant[];
+  thickener?: { name: string; gPerL: number } | null;
+};
 
 export type PasteMakeUp = {
   finalVolumeMl: number;
   mordants: Array<{ name: string; gPerL: number; grams: number; stockMl: number | null }>;
   /** `usualRange` is the range for this kind of thickener (null when the app has none); `outsideUsualRange` false then. */
-  thickener: { name: string; gPerL: number; grams: number; usualRange: ThickenerRange | null; outsideUsualRange: boolean } | null;
+  thickener: {
+    name: string;
+    gPerL: number;
+    grams: number;
+    usualRange: ThickenerRange | null;
+    outsideUsualRange: boolean;
+  } | null;
   /** Water to add after the stock solutions; solids are weighed in and the paste made up to the final volume. */
   waterMl: number;
 };
@@ -72,7 +82,8 @@ export function dilute(
   if (!(fraction > 0 && fraction <= 1)) throw new RangeError('The dilution must be a fraction between 0 and 1');
   if (!(childVolumeMl > 0)) throw new RangeError('The child volume must be positive');
   const parentMl = childVolumeMl * fraction;
-  if (parent.availableMl != null && parentMl > parent.availableMl) throw new RangeError('Not enough of the parent batch is left for this dilution');
+  if (parent.availableMl != null && parentMl > parent.availableMl)
+    throw new RangeError('Not enough of the parent batch is left for this dilution');
   const waterMl = childVolumeMl - parentMl;
   const thickenerG = ((parent.thickenerGPerL ?? 0) * waterMl) / 1000;
   const childGPerL = Object.fromEntries(Object.entries(parent.gPerL).map(([k, c]) => [k, c * fraction]));

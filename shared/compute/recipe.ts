@@ -44,7 +44,11 @@ export function stepVolumeL(step: Pick<StepLike, 'liquorRatio' | 'volumeL'>, dry
 }
 
 /** One ingredient on all three bases, as far as the step's volume and the fibre mass allow. */
-export function ingredientQuantity(ing: IngredientAmount, dryMassG: number, volumeL: number | null): IngredientQuantity & { missing: string | null } {
+export function ingredientQuantity(
+  ing: IngredientAmount,
+  dryMassG: number,
+  volumeL: number | null,
+): IngredientQuantity & { missing: string | null } {
   let grams: number | null;
   if (ing.basis === 'owf') grams = gramsFromOwf(ing.amount, dryMassG);
   else if (ing.basis === 'g') grams = ing.amount;
@@ -59,7 +63,11 @@ export function ingredientQuantity(ing: IngredientAmount, dryMassG: number, volu
 export function stepQuantities(step: StepLike, dryMassG: number): StepQuantities {
   const volumeL = stepVolumeL(step, dryMassG);
   const rows = step.ingredients.map((ing) => ingredientQuantity(ing, dryMassG, volumeL));
-  return { volumeL, ingredients: rows.map(({ grams, gPerL, percentOwf }) => ({ grams, gPerL, percentOwf })), missing: rows.map((r) => r.missing) };
+  return {
+    volumeL,
+    ingredients: rows.map(({ grams, gPerL, percentOwf }) => ({ grams, gPerL, percentOwf })),
+    missing: rows.map((r) => r.missing),
+  };
 }
 
 /**
@@ -67,7 +75,11 @@ export function stepQuantities(step: StepLike, dryMassG: number): StepQuantities
  * are intensive and stay; fixed grams and fixed volumes scale with the mass ratio.
  * Scaling is always by mass, never by a count of swatches.
  */
-export function scaleRecipe<I extends IngredientAmount, S extends StepLike<I>>(steps: readonly S[], fromDryMassG: number, toDryMassG: number): S[] {
+export function scaleRecipe<I extends IngredientAmount, S extends StepLike<I>>(
+  steps: readonly S[],
+  fromDryMassG: number,
+  toDryMassG: number,
+): S[] {
   if (!(fromDryMassG > 0) || !(toDryMassG > 0)) throw new RangeError('Dry masses must be positive');
   const k = toDryMassG / fromDryMassG;
   return steps.map((step) => ({

@@ -16,7 +16,10 @@ export function expandCells(factors: readonly Factor[]): Cell[] {
     names.add(f.name);
     if (f.levels.length === 0) throw new RangeError(`Factor "${f.name}" has no levels`);
   }
-  return factors.reduce<Cell[]>((cells, f) => cells.flatMap((c) => f.levels.map((level) => ({ ...c, [f.name]: level }))), [{}]);
+  return factors.reduce<Cell[]>(
+    (cells, f) => cells.flatMap((c) => f.levels.map((level) => ({ ...c, [f.name]: level }))),
+    [{}],
+  );
 }
 
 /** A stable key for a cell, independent of property order. */
@@ -32,19 +35,32 @@ export function pruneCells(cells: readonly Cell[], pruned: readonly Cell[]): Cel
   return cells.filter((c) => !out.has(cellKey(c)));
 }
 
-export type SeriesIngredient = IngredientAmount & { kind: 'dyestuff' | 'chemical'; refId?: number | null; name: string };
+export type SeriesIngredient = IngredientAmount & {
+  kind: 'dyestuff' | 'chemical';
+  refId?: number | null;
+  name: string;
+};
 export type SeriesStep = StepLike<SeriesIngredient>;
 export type CellRecipe = { cell: Cell; dryMassG: number; steps: SeriesStep[] };
 
 /** Scale each cell's recipe (written for `fromDryMassG`) to the cell's own dry mass. */
-export function scaleCells(recipes: ReadonlyArray<{ cell: Cell; steps: SeriesStep[]; fromDryMassG: number }>, toDryMassG: number | ((cell: Cell) => number)): CellRecipe[] {
+export function scaleCells(
+  recipes: ReadonlyArray<{ cell: Cell; steps: SeriesStep[]; fromDryMassG: number }>,
+  toDryMassG: number | ((cell: Cell) => number),
+): CellRecipe[] {
   return recipes.map((r) => {
     const dryMassG = typeof toDryMassG === 'function' ? toDryMassG(r.cell) : toDryMassG;
     return { cell: r.cell, dryMassG, steps: scaleRecipe(r.steps, r.fromDryMassG, dryMassG) };
   });
 }
 
-export type MaterialLine = { kind: 'dyestuff' | 'chemical'; refId: number | null; name: string; grams: number; gramsWithAllowance: number };
+export type MaterialLine = {
+  kind: 'dyestuff' | 'chemical';
+  refId: number | null;
+  name: string;
+  grams: number;
+  gramsWithAllowance: number;
+};
 export type MaterialsList = {
   deadVolumePct: number;
   participants: number;
@@ -59,7 +75,10 @@ export type MaterialsList = {
  * allowance (liquid left in pots, tubes and on equipment) applied to baths and what
  * dissolves in them. For a workshop every participant makes every cell.
  */
-export function materialsList(cells: readonly CellRecipe[], opts: { deadVolumePct?: number; participants?: number } = {}): MaterialsList {
+export function materialsList(
+  cells: readonly CellRecipe[],
+  opts: { deadVolumePct?: number; participants?: number } = {},
+): MaterialsList {
   const deadVolumePct = opts.deadVolumePct ?? 0;
   const participants = Math.max(1, opts.participants ?? 1);
   if (deadVolumePct < 0) throw new RangeError('The dead-volume allowance cannot be negative');
@@ -80,7 +99,13 @@ export function materialsList(cells: readonly CellRecipe[], opts: { deadVolumePc
           return;
         }
         const key = `${ing.kind}:${ing.refId ?? ing.name}`;
-        const line = byKey.get(key) ?? { kind: ing.kind, refId: ing.refId ?? null, name: ing.name, grams: 0, gramsWithAllowance: 0 };
+        const line = byKey.get(key) ?? {
+          kind: ing.kind,
+          refId: ing.refId ?? null,
+          name: ing.name,
+          grams: 0,
+          gramsWithAllowance: 0,
+        };
         line.grams += grams;
         line.gramsWithAllowance = line.grams * k;
         byKey.set(key, line);
@@ -88,12 +113,18 @@ export function materialsList(cells: readonly CellRecipe[], opts: { deadVolumePc
     }
   }
   const lines = [...byKey.values()].sort((a, b) => a.kind.localeCompare(b.kind) || a.name.localeCompare(b.name));
-  const times = (n: number) => lines.map((l) => ({ ...l, grams: l.grams * n, gramsWithAllowance: l.gramsWithAllowance * n }));
+  const times = (n: number) =>
+    lines.map((l) => ({ ...l, grams: l.grams * n, gramsWithAllowance: l.gramsWithAllowance * n }));
   return {
     deadVolumePct,
     participants,
     perParticipant: { lines: times(1), fibreG, bathL, bathLWithAllowance: bathL * k },
-    total: { lines: times(participants), fibreG: fibreG * participants, bathL: bathL * participants, bathLWithAllowance: bathL * k * participants },
+    total: {
+      lines: times(participants),
+      fibreG: fibreG * participants,
+      bathL: bathL * participants,
+      bathLWithAllowance: bathL * k * participants,
+    },
     unresolved: [...unresolved],
   };
 }

@@ -74,7 +74,8 @@ export const REACTIONS: readonly Reaction[] = [
 /** Σ coefficient × composition of one side of an equation. */
 export function sideComposition(side: readonly Species[]): Composition {
   const total: Composition = {};
-  for (const s of side) for (const [el, n] of Object.entries(parseFormula(s.formula))) total[el] = (total[el] ?? 0) + n * s.coefficient;
+  for (const s of side)
+    for (const [el, n] of Object.entries(parseFormula(s.formula))) total[el] = (total[el] ?? 0) + n * s.coefficient;
   return total;
 }
 
@@ -111,7 +112,13 @@ export function reactionYield(r: Reaction, gramsByName: Record<string, number>):
     limiting: limit.s.name,
     products: r.products
       .filter((p) => p.formula !== 'H2O')
-      .map((p) => ({ name: p.name, formula: p.formula, grams: extentMol * p.coefficient * molarMass(p.formula), fate: p.fate, active: Boolean(p.active) })),
+      .map((p) => ({
+        name: p.name,
+        formula: p.formula,
+        grams: extentMol * p.coefficient * molarMass(p.formula),
+        fate: p.fate,
+        active: Boolean(p.active),
+      })),
     excess: moles
       .map(({ s, mol }) => ({ name: s.name, grams: (mol - extentMol * s.coefficient) * molarMass(s.formula) }))
       .filter((x) => x.grams > 1e-9),
@@ -129,7 +136,10 @@ export type BathProduct = ReactionYield & {
  * The reaction a batch's ingredients make, if any: every reactant of a known reaction present.
  * Returns null for a bath whose chemicals are simply dissolved (its strength is what was weighed).
  */
-export function bathProduct(ingredients: ReadonlyArray<{ name: string; grams: number }>, volumeMl: number): BathProduct | null {
+export function bathProduct(
+  ingredients: ReadonlyArray<{ name: string; grams: number }>,
+  volumeMl: number,
+): BathProduct | null {
   const grams: Record<string, number> = {};
   for (const i of ingredients) grams[i.name] = (grams[i.name] ?? 0) + i.grams;
   const r = REACTIONS.find((x) => x.reactants.every((s) => grams[s.name] > 0));
@@ -144,7 +154,9 @@ export function matchingReactant(r: Reaction, from: string, grams: number): Arra
   const base = r.reactants.find((s) => s.name === from);
   if (!base) throw new RangeError(`${from} is not a reactant of ${r.name}`);
   const extent = grams / molarMass(base.formula) / base.coefficient;
-  return r.reactants.filter((s) => s !== base).map((s) => ({ name: s.name, grams: extent * s.coefficient * molarMass(s.formula) }));
+  return r.reactants
+    .filter((s) => s !== base)
+    .map((s) => ({ name: s.name, grams: extent * s.coefficient * molarMass(s.formula) }));
 }
 
 export type MadeByReaction = {
@@ -162,12 +174,17 @@ export type MadeByReaction = {
 const MORDANT_METALS = ['Al', 'Fe', 'Cu', 'Sn', 'Cr', 'Pb'];
 
 /** What a reacting bath makes, for display: the active product's grams and g/L, its metal, the by-products. */
-export function madeByReaction(ingredients: ReadonlyArray<{ name: string; grams: number }>, volumeMl: number): MadeByReaction | null {
+export function madeByReaction(
+  ingredients: ReadonlyArray<{ name: string; grams: number }>,
+  volumeMl: number,
+): MadeByReaction | null {
   const p = bathProduct(ingredients, volumeMl);
   if (!p) return null;
   const comp = parseFormula(p.active.formula);
   const metal = MORDANT_METALS.find((m) => comp[m]);
-  const metalGPerL = metal ? (p.activeGPerL * comp[metal] * (ATOMIC_MASS[metal] ?? 0)) / molarMass(p.active.formula) : 0;
+  const metalGPerL = metal
+    ? (p.activeGPerL * comp[metal] * (ATOMIC_MASS[metal] ?? 0)) / molarMass(p.active.formula)
+    : 0;
   return {
     reaction: p.reaction.name,
     active: { name: p.active.name, formula: p.active.formula, grams: p.active.grams, gPerL: p.activeGPerL },

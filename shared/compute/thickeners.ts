@@ -17,16 +17,31 @@ export type ThickenerRange = {
   source: string;
 };
 
-const DYE_FACTS = 'common practice, no published source (tests/reference/dye-facts.json, printing thickener, % w/w × 10)';
+const DYE_FACTS =
+  'common practice, no published source (tests/reference/dye-facts.json, printing thickener, % w/w × 10)';
 const MEMORY = 'common practice, recalled from memory';
 
 /** In the order they are matched: the more specific names first (British gum is a roasted starch). */
 export const THICKENER_RANGES: readonly (ThickenerRange & { match: RegExp })[] = [
   { kind: 'guar', label: 'guar gum', min: 20, max: 50, source: DYE_FACTS, match: /\bguar\b/i },
   { kind: 'alginate', label: 'sodium alginate', min: 20, max: 40, source: DYE_FACTS, match: /alginate/i },
-  { kind: 'gum-arabic', label: 'gum arabic', min: 200, max: 500, source: DYE_FACTS, match: /\b(gum arabic|gum acacia|acacia gum|arabic gum)\b/i },
+  {
+    kind: 'gum-arabic',
+    label: 'gum arabic',
+    min: 200,
+    max: 500,
+    source: DYE_FACTS,
+    match: /\b(gum arabic|gum acacia|acacia gum|arabic gum)\b/i,
+  },
   { kind: 'tragacanth', label: 'gum tragacanth', min: 30, max: 80, source: MEMORY, match: /tragacanth/i },
-  { kind: 'british-gum', label: 'British gum (dextrin)', min: 250, max: 600, source: MEMORY, match: /british gum|dextrin/i },
+  {
+    kind: 'british-gum',
+    label: 'British gum (dextrin)',
+    min: 250,
+    max: 600,
+    source: MEMORY,
+    match: /british gum|dextrin/i,
+  },
   { kind: 'starch', label: 'starch (wheat)', min: 80, max: 150, source: MEMORY, match: /starch|flour/i },
 ];
 

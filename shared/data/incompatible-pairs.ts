@@ -2,11 +2,27 @@
 // Each pair names its source; "recalled from memory" means it was not read in a stored copy:
 // always defer to the supplier's safety data sheet and local rules.
 
-export type ChemicalGroup = 'reducer' | 'acid' | 'oxidiser' | 'hypochlorite' | 'arsenic' | 'quicklime' | 'strong-alkali' | 'aluminium-metal' | 'water';
+export type ChemicalGroup =
+  | 'reducer'
+  | 'acid'
+  | 'oxidiser'
+  | 'hypochlorite'
+  | 'arsenic'
+  | 'quicklime'
+  | 'strong-alkali'
+  | 'aluminium-metal'
+  | 'water';
 
 export const GROUP_LABELS: Record<ChemicalGroup, string> = {
-  reducer: 'a reducer', acid: 'an acid', oxidiser: 'an oxidiser', hypochlorite: 'a hypochlorite (bleach)', arsenic: 'an arsenic compound',
-  quicklime: 'quicklime', 'strong-alkali': 'a strong alkali', 'aluminium-metal': 'aluminium metal', water: 'water',
+  reducer: 'a reducer',
+  acid: 'an acid',
+  oxidiser: 'an oxidiser',
+  hypochlorite: 'a hypochlorite (bleach)',
+  arsenic: 'an arsenic compound',
+  quicklime: 'quicklime',
+  'strong-alkali': 'a strong alkali',
+  'aluminium-metal': 'aluminium metal',
+  water: 'water',
 };
 
 /** Formulas (spaces removed) that put a chemical in a group whatever its role in the reference list. */
@@ -38,38 +54,56 @@ const MEMORY = 'recalled from memory; check the safety data sheet';
 
 export const INCOMPATIBLE_PAIRS: readonly IncompatiblePair[] = [
   {
-    code: 'reducer-acid', a: 'reducer', b: 'acid',
-    hazard: 'An acid decomposes the reducer and gives off sulfur dioxide, a choking, toxic gas; sodium dithionite also heats itself when damp and can catch fire.',
+    code: 'reducer-acid',
+    a: 'reducer',
+    b: 'acid',
+    hazard:
+      'An acid decomposes the reducer and gives off sulfur dioxide, a choking, toxic gas; sodium dithionite also heats itself when damp and can catch fire.',
     source: `sodium dithionite: supplementary hazard EUH031 "Contact with acids liberates toxic gas" in its CLP classification (${MEMORY})`,
   },
   {
-    code: 'reducer-oxidiser', a: 'reducer', b: 'oxidiser',
+    code: 'reducer-oxidiser',
+    a: 'reducer',
+    b: 'oxidiser',
     hazard: 'A reducer and an oxidiser (such as potassium dichromate) react with heat; dry mixtures can ignite.',
     source: `potassium dichromate: H272 "May intensify fire; oxidiser" in its CLP classification (${MEMORY})`,
   },
   {
-    code: 'hypochlorite-acid', a: 'hypochlorite', b: 'acid',
+    code: 'hypochlorite-acid',
+    a: 'hypochlorite',
+    b: 'acid',
     hazard: 'Acid on a hypochlorite (bleach) releases chlorine gas.',
     source: `sodium hypochlorite solutions: EUH031 "Contact with acids liberates toxic gas" (${MEMORY})`,
   },
   {
-    code: 'arsenic-acid', a: 'arsenic', b: 'acid',
-    hazard: 'Acid frees arsenious acid from an arsenite, no less poisonous; with a reducing metal (zinc, iron, aluminium) or a reducer present it can give arsine gas, which is deadly in small amounts.',
+    code: 'arsenic-acid',
+    a: 'arsenic',
+    b: 'acid',
+    hazard:
+      'Acid frees arsenious acid from an arsenite, no less poisonous; with a reducing metal (zinc, iron, aluminium) or a reducer present it can give arsine gas, which is deadly in small amounts.',
     source: `arsine from arsenic compounds, acid and a reducing metal is the Marsh test reaction (${MEMORY})`,
   },
   {
-    code: 'arsenic-reducer', a: 'arsenic', b: 'reducer',
+    code: 'arsenic-reducer',
+    a: 'arsenic',
+    b: 'reducer',
     hazard: 'A reducer with an arsenic compound can give arsine gas, which is deadly in small amounts.',
     source: `arsenic compounds are reduced to arsine by strong reducers (${MEMORY})`,
   },
   {
-    code: 'quicklime-water', a: 'quicklime', b: 'water',
-    hazard: 'Quicklime slakes in water with strong heat and can boil and spit caustic lime: add it a little at a time to plenty of cold water, with goggles and gloves.',
+    code: 'quicklime-water',
+    a: 'quicklime',
+    b: 'water',
+    hazard:
+      'Quicklime slakes in water with strong heat and can boil and spit caustic lime: add it a little at a time to plenty of cold water, with goggles and gloves.',
     source: `calcium oxide: exothermic reaction with water (slaking) (${MEMORY})`,
   },
   {
-    code: 'alkali-aluminium', a: 'strong-alkali', b: 'aluminium-metal',
-    hazard: 'A strong alkali dissolves aluminium with heat and gives off hydrogen, a flammable gas: never use aluminium pots or foil in a caustic bath or vat.',
+    code: 'alkali-aluminium',
+    a: 'strong-alkali',
+    b: 'aluminium-metal',
+    hazard:
+      'A strong alkali dissolves aluminium with heat and gives off hydrogen, a flammable gas: never use aluminium pots or foil in a caustic bath or vat.',
     source: `sodium hydroxide: reacts with aluminium and zinc to give hydrogen (${MEMORY})`,
   },
 ];

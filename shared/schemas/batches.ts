@@ -14,17 +14,30 @@ export const DRAW_ONLY_KINDS: readonly BatchKindName[] = ['print-paste', 'stock'
  * drawn from; 10 % for a bath the fibre is worked in (the app's starting estimate, common practice,
  * recalled from memory; a test strip tells more than the figure).
  */
-export const UPTAKE_DEFAULTS: Record<BatchKindName, number> = { 'mordant-bath': 0.1, 'dye-bath': 0.1, vat: 0.1, 'print-paste': 0, stock: 0 };
+export const UPTAKE_DEFAULTS: Record<BatchKindName, number> = {
+  'mordant-bath': 0.1,
+  'dye-bath': 0.1,
+  vat: 0.1,
+  'print-paste': 0,
+  stock: 0,
+};
 export const BATCH_STATUSES = ['active', 'exhausted', 'disposed'] as const;
 export const BATCH_EVENT_TYPES = ['use', 'top-up', 'water', 'test-strip', 'ph', 'disposal'] as const;
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date such as 2024-03-04');
 // `label` as it reads mid-sentence ("the volume"); a missing or non-numeric value is worded by shared/messages.ts.
-const ml = (label: string) => z.number().positive(`${cap(label)} must be more than 0 mL`).max(1_000_000, `${cap(label)} must be at most 1,000,000 mL`);
+const ml = (label: string) =>
+  z
+    .number()
+    .positive(`${cap(label)} must be more than 0 mL`)
+    .max(1_000_000, `${cap(label)} must be at most 1,000,000 mL`);
 const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
 // The API stores the uptake as a fraction; forms show it as a percentage (batchCreateFormSchema).
-const fraction = z.number().min(0, 'Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)').max(1, 'Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)');
+const fraction = z
+  .number()
+  .min(0, 'Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)')
+  .max(1, 'Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)');
 
 export const batchIngredientSchema = z.object({
   kind: z.enum(['dyestuff', 'chemical']),
@@ -35,7 +48,12 @@ export const batchIngredientSchema = z.object({
 export type BatchIngredientInput = z.infer<typeof batchIngredientSchema>;
 
 export const batchCreateSchema = z.object({
-  code: z.string().trim().min(2, 'Give the batch a code such as MB-12').max(20).regex(/^[A-Za-z0-9-]+$/, 'Letters, digits and dashes only'),
+  code: z
+    .string()
+    .trim()
+    .min(2, 'Give the batch a code such as MB-12')
+    .max(20)
+    .regex(/^[A-Za-z0-9-]+$/, 'Letters, digits and dashes only'),
   kind: z.enum(BATCH_KINDS),
   name: z.string().trim().min(1, 'Name the batch').max(160),
   ingredients: z.array(batchIngredientSchema).max(30).default([]),
@@ -75,11 +93,13 @@ export const batchUpdateSchema = z
   .partial();
 export type BatchUpdateInput = z.infer<typeof batchUpdateSchema>;
 
-export const batchListQuery = z.object({
-  status: z.enum(BATCH_STATUSES).optional(),
-  kind: z.enum(BATCH_KINDS).optional(),
-  due: z.enum(['1', 'true']).optional(),
-}).extend(pageQuery(50).shape);
+export const batchListQuery = z
+  .object({
+    status: z.enum(BATCH_STATUSES).optional(),
+    kind: z.enum(BATCH_KINDS).optional(),
+    due: z.enum(['1', 'true']).optional(),
+  })
+  .extend(pageQuery(50).shape);
 
 /** One ledger event; which fields are required depends on its type. */
 export const batchEventSchema = z
@@ -88,7 +108,11 @@ export const batchEventSchema = z
     volumeMl: ml('the volume').optional(),
     trialId: z.number().int().positive().optional(),
     // A trial may also be named by its code (T-YYYY-NNN), as dyers write it on the jar.
-    trialCode: z.string().trim().regex(/^T-\d{4}-\d{3,}$/, 'Use a trial code such as T-2024-001').optional(),
+    trialCode: z
+      .string()
+      .trim()
+      .regex(/^T-\d{4}-\d{3,}$/, 'Use a trial code such as T-2024-001')
+      .optional(),
     fibreMassG: z.number().positive('Enter the fibre mass in g').max(100_000).optional(),
     additions: z.array(batchIngredientSchema).max(30).optional(),
     ph: z.number().min(0).max(14).optional(),
@@ -105,7 +129,8 @@ export const batchEventSchema = z
     };
     if (e.type === 'use') need('volumeMl', 'Enter the volume drawn in mL');
     if (e.type === 'water') need('volumeMl', 'Enter the water added in mL');
-    if (e.type === 'top-up' && !e.additions?.length && e.volumeMl === undefined) ctx.addIssue({ code: 'custom', path: ['additions'], message: 'Add a chemical or a volume' });
+    if (e.type === 'top-up' && !e.additions?.length && e.volumeMl === undefined)
+      ctx.addIssue({ code: 'custom', path: ['additions'], message: 'Add a chemical or a volume' });
     if (e.type === 'test-strip') need('result', 'Describe what the strip showed');
     if (e.type === 'ph') need('ph', 'Enter the pH reading');
     if (e.type === 'disposal') {
@@ -124,7 +149,12 @@ export const DISPOSAL_NOTICE =
 const num = z.number();
 const nnum = z.number().nullable();
 const nstr = z.string().nullable();
-const batchIngredientOut = z.object({ kind: z.enum(['dyestuff', 'chemical']), refId: num, name: z.string(), grams: num });
+const batchIngredientOut = z.object({
+  kind: z.enum(['dyestuff', 'chemical']),
+  refId: num,
+  name: z.string(),
+  grams: num,
+});
 
 export const batchEventOutSchema = z.object({
   id: num,
@@ -173,7 +203,13 @@ export const batchDetailSchema = batchSummarySchema.extend({
   made: z
     .object({
       reaction: z.string(),
-      active: z.object({ name: z.string(), formula: z.string(), grams: num, gPerL: num, nowGPerL: z.object({ value: num, estimate: z.literal(true) }) }),
+      active: z.object({
+        name: z.string(),
+        formula: z.string(),
+        grams: num,
+        gPerL: num,
+        nowGPerL: z.object({ value: num, estimate: z.literal(true) }),
+      }),
       metal: z.object({ symbol: z.string(), gPerL: num }).nullable(),
       limiting: z.string(),
       excess: z.array(z.object({ name: z.string(), grams: num })),
@@ -182,7 +218,13 @@ export const batchDetailSchema = batchSummarySchema.extend({
       source: z.string(),
     })
     .nullable(),
-  uptake: z.object({ value: num, referenceLoadG: nnum, estimate: z.literal(true), drawOnly: z.boolean(), basis: z.string() }),
+  uptake: z.object({
+    value: num,
+    referenceLoadG: nnum,
+    estimate: z.literal(true),
+    drawOnly: z.boolean(),
+    basis: z.string(),
+  }),
   topUpSuggestion: z
     .object({
       items: z.array(z.object({ name: z.string(), refId: nnum, grams: num, thickener: z.boolean() })),
@@ -193,7 +235,15 @@ export const batchDetailSchema = batchSummarySchema.extend({
     })
     .nullable(),
   testStripPrompt: nstr,
-  timeline: z.array(z.object({ eventId: nnum, at: z.iso.datetime(), type: z.enum(['made', ...BATCH_EVENT_TYPES]), remainingMl: num, strength: num })),
+  timeline: z.array(
+    z.object({
+      eventId: nnum,
+      at: z.iso.datetime(),
+      type: z.enum(['made', ...BATCH_EVENT_TYPES]),
+      remainingMl: num,
+      strength: num,
+    }),
+  ),
   events: z.array(batchEventOutSchema),
   cautions: z.array(chemicalSchema),
   parent: z.object({ id: num, code: z.string() }).nullable(),

@@ -18,11 +18,22 @@ export const pageQuery = (defaultSize = 50, max = 100) =>
   });
 
 /** The envelope of every paged list. */
-export const paged = <T extends z.ZodType>(item: T) => z.object({ items: z.array(item), total: z.number().int().min(0), page: z.number().int().min(1), pageSize: z.number().int().min(1) });
+export const paged = <T extends z.ZodType>(item: T) =>
+  z.object({
+    items: z.array(item),
+    total: z.number().int().min(0),
+    page: z.number().int().min(1),
+    pageSize: z.number().int().min(1),
+  });
 export type Paged<T> = { items: T[]; total: number; page: number; pageSize: number };
 
 /** Build the envelope from a page of rows (one place, so every list answers alike). */
-export const toPaged = <T>(items: T[], total: number, page: number, pageSize: number): Paged<T> => ({ items, total, page, pageSize });
+export const toPaged = <T>(items: T[], total: number, page: number, pageSize: number): Paged<T> => ({
+  items,
+  total,
+  page,
+  pageSize,
+});
 
 /** Every refusal: `{ error: { code, message, details? } }`; a 400 carries `details.fields` keyed by dotted path. */
 export const errorSchema = z.object({

@@ -17,7 +17,10 @@ export const lightFastness = z.object({ blueWool: blueWoolGrade, ...common });
 /** Washing, ISO 105-C06: change in colour (ISO 105-A02) and staining of the adjacent fabric (ISO 105-A03). */
 export const washFastness = z
   .object({ change: greyGrade.nullish(), staining: greyGrade.nullish(), ...common })
-  .refine((v) => v.change != null || v.staining != null, { message: 'Give the change in colour, the staining, or both', path: ['change'] });
+  .refine((v) => v.change != null || v.staining != null, {
+    message: 'Give the change in colour, the staining, or both',
+    path: ['change'],
+  });
 /** Rubbing, ISO 105-X12: staining of the rubbing cloth (ISO 105-A03). */
 export const rubFastness = z.object({ staining: greyGrade, ...common });
 

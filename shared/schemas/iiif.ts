@@ -26,7 +26,9 @@ export const imageInfoSchema = z.looseObject({
   width: z.number(),
   height: z.number(),
   sizes: z.array(z.object({ width: z.number(), height: z.number() })).optional(),
-  tiles: z.array(z.looseObject({ width: z.number(), height: z.number().optional(), scaleFactors: z.array(z.number()) })).optional(),
+  tiles: z
+    .array(z.looseObject({ width: z.number(), height: z.number().optional(), scaleFactors: z.array(z.number()) }))
+    .optional(),
 });
 export type ImageInfo = z.infer<typeof imageInfoSchema>;
 
@@ -35,7 +37,12 @@ export const regionAnnotationSchema = z.object({
   id: z.string(),
   type: z.literal('Annotation'),
   motivation: z.literal('tagging'),
-  body: z.object({ type: z.literal('TextualBody'), value: z.string(), format: z.literal('text/plain'), purpose: z.literal('tagging') }),
+  body: z.object({
+    type: z.literal('TextualBody'),
+    value: z.string(),
+    format: z.literal('text/plain'),
+    purpose: z.literal('tagging'),
+  }),
   target: z.string(),
 });
 export const annotationPageSchema = z.object({
@@ -67,7 +74,9 @@ const canvasSchema = z.looseObject({
   label: langMap,
   width: z.number(),
   height: z.number(),
-  items: z.array(z.looseObject({ id: z.string(), type: z.literal('AnnotationPage'), items: z.array(paintingAnnotation) })),
+  items: z.array(
+    z.looseObject({ id: z.string(), type: z.literal('AnnotationPage'), items: z.array(paintingAnnotation) }),
+  ),
   annotations: z.array(annotationPageSchema).optional(),
 });
 

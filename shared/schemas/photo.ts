@@ -21,11 +21,20 @@ export const photoUpdateSchema = z
   .strict();
 export type PhotoUpdateInput = z.infer<typeof photoUpdateSchema>;
 
-const px = (what: string) => z.number({ error: `Enter ${what} in pixels` }).int(`Use whole pixels for ${what}`).min(0, `${what} must be 0 px or more`);
+const px = (what: string) =>
+  z
+    .number({ error: `Enter ${what} in pixels` })
+    .int(`Use whole pixels for ${what}`)
+    .min(0, `${what} must be 0 px or more`);
 
 /** A rectangle in pixels of the master image: the xywh of a media-fragment selector. */
 export const rectSchema = z
-  .object({ x: px('x'), y: px('y'), w: px('width').min(1, 'Width must be at least 1 px'), h: px('height').min(1, 'Height must be at least 1 px') })
+  .object({
+    x: px('x'),
+    y: px('y'),
+    w: px('width').min(1, 'Width must be at least 1 px'),
+    h: px('height').min(1, 'Height must be at least 1 px'),
+  })
   .strict();
 export type Rect = z.infer<typeof rectSchema>;
 
@@ -84,8 +93,10 @@ export const mediaParams = photoParams.extend({ kind: z.enum(PHOTO_KINDS) });
 /** Problems with a rectangle against the photo's size, per field. */
 export function rectIssues(r: Partial<Rect>, size: { width: number; height: number }) {
   const fields: Record<string, string[]> = {};
-  if (r.x != null && r.w != null && r.x + r.w > size.width) fields.w = [`Reaches past the right edge (${size.width} px wide)`];
-  if (r.y != null && r.h != null && r.y + r.h > size.height) fields.h = [`Reaches past the bottom edge (${size.height} px high)`];
+  if (r.x != null && r.w != null && r.x + r.w > size.width)
+    fields.w = [`Reaches past the right edge (${size.width} px wide)`];
+  if (r.y != null && r.h != null && r.y + r.h > size.height)
+    fields.h = [`Reaches past the bottom edge (${size.height} px high)`];
   if (r.x != null && r.x >= size.width) fields.x = [`Must be less than ${size.width} px`];
   if (r.y != null && r.y >= size.height) fields.y = [`Must be less than ${size.height} px`];
   return fields;
@@ -121,7 +132,11 @@ export const paletteColourSchema = z.object({
 export type PaletteColourOut = z.infer<typeof paletteColourSchema>;
 
 /** A photo's palettes grouped as { regionId, variant, colours }: whole photo first, raw before corrected. */
-export const paletteGroupSchema = z.object({ regionId: z.number().nullable(), variant: z.enum(['raw', 'corrected']), colours: z.array(paletteColourSchema) });
+export const paletteGroupSchema = z.object({
+  regionId: z.number().nullable(),
+  variant: z.enum(['raw', 'corrected']),
+  colours: z.array(paletteColourSchema),
+});
 export const palettesSchema = z.array(paletteGroupSchema);
 export type Palettes = z.infer<typeof palettesSchema>;
 

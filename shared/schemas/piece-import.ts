@@ -5,19 +5,55 @@ import { dateIssues, edtfYears, YEAR_MAX, YEAR_MIN } from '../edtf.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).
 export const PIECE_CSV_FIELDS = [
-  'accessionNumber', 'objectName', 'title', 'dateText', 'dateEdtf', 'earliestYear', 'latestYear', 'place',
-  'fibres', 'weave', 'threadCount', 'heightMm', 'widthMm', 'repeatMm', 'techniques', 'dyestuffs',
-  'historicalMordants', 'description', 'provenance', 'condition', 'creditLine', 'status',
+  'accessionNumber',
+  'objectName',
+  'title',
+  'dateText',
+  'dateEdtf',
+  'earliestYear',
+  'latestYear',
+  'place',
+  'fibres',
+  'weave',
+  'threadCount',
+  'heightMm',
+  'widthMm',
+  'repeatMm',
+  'techniques',
+  'dyestuffs',
+  'historicalMordants',
+  'description',
+  'provenance',
+  'condition',
+  'creditLine',
+  'status',
 ] as const;
 export type PieceCsvField = (typeof PIECE_CSV_FIELDS)[number];
 export const REQUIRED_PIECE_FIELDS: readonly PieceCsvField[] = ['accessionNumber', 'objectName', 'title'];
 
 export const FIELD_LABELS: Record<PieceCsvField, string> = {
-  accessionNumber: 'Accession number', objectName: 'Object name', title: 'Title', dateText: 'Date (as written)',
-  dateEdtf: 'Date (EDTF)', earliestYear: 'Earliest year', latestYear: 'Latest year', place: 'Place', fibres: 'Fibres',
-  weave: 'Weave', threadCount: 'Thread count', heightMm: 'Height (mm)', widthMm: 'Width (mm)', repeatMm: 'Repeat (mm)',
-  techniques: 'Techniques', dyestuffs: 'Dyestuffs', historicalMordants: 'Historical mordants', description: 'Description',
-  provenance: 'Provenance', condition: 'Condition', creditLine: 'Credit line', status: 'Status',
+  accessionNumber: 'Accession number',
+  objectName: 'Object name',
+  title: 'Title',
+  dateText: 'Date (as written)',
+  dateEdtf: 'Date (EDTF)',
+  earliestYear: 'Earliest year',
+  latestYear: 'Latest year',
+  place: 'Place',
+  fibres: 'Fibres',
+  weave: 'Weave',
+  threadCount: 'Thread count',
+  heightMm: 'Height (mm)',
+  widthMm: 'Width (mm)',
+  repeatMm: 'Repeat (mm)',
+  techniques: 'Techniques',
+  dyestuffs: 'Dyestuffs',
+  historicalMordants: 'Historical mordants',
+  description: 'Description',
+  provenance: 'Provenance',
+  condition: 'Condition',
+  creditLine: 'Credit line',
+  status: 'Status',
 };
 
 /** Lists in one cell are separated by semicolons; evidence follows a term in brackets: "madder (identified)". */
@@ -25,11 +61,18 @@ export const LIST_SEPARATOR = '; ';
 const EVIDENCE = /\s*\((attributed|identified)\)\s*$/i;
 export type Evidenced = { name: string; evidence: 'attributed' | 'identified' };
 
-export const splitList = (cell: string) => cell.split(';').map((s) => s.trim()).filter(Boolean);
+export const splitList = (cell: string) =>
+  cell
+    .split(';')
+    .map((s) => s.trim())
+    .filter(Boolean);
 export function parseEvidenced(cell: string): Evidenced[] {
   return splitList(cell).map((item) => {
     const m = EVIDENCE.exec(item);
-    return { name: m ? item.slice(0, m.index).trim() : item, evidence: m ? (m[1].toLowerCase() as Evidenced['evidence']) : 'attributed' };
+    return {
+      name: m ? item.slice(0, m.index).trim() : item,
+      evidence: m ? (m[1].toLowerCase() as Evidenced['evidence']) : 'attributed',
+    };
   });
 }
 export const formatEvidenced = (list: Evidenced[]) => list.map((t) => `${t.name} (${t.evidence})`).join(LIST_SEPARATOR);
@@ -39,8 +82,13 @@ export const columnMapping = z.record(z.string(), z.union([z.enum(PIECE_CSV_FIEL
 export type ColumnMapping = z.infer<typeof columnMapping>;
 
 const text = (max: number) =>
-  z.string().trim().max(max, `At most ${max} characters.`).transform((s) => (s === '' ? null : s));
-const required = (max: number, what: string) => z.string().trim().min(1, `${what} is required.`).max(max, `At most ${max} characters.`);
+  z
+    .string()
+    .trim()
+    .max(max, `At most ${max} characters.`)
+    .transform((s) => (s === '' ? null : s));
+const required = (max: number, what: string) =>
+  z.string().trim().min(1, `${what} is required.`).max(max, `At most ${max} characters.`);
 const year = z
   .string()
   .trim()
@@ -72,7 +120,9 @@ const mm = z
 /** One CSV row (all cells strings) → a piece's fields; vocabulary and uniqueness checks need the archive and run on the server. */
 export const pieceImportRow = z
   .object({
-    accessionNumber: required(ACCESSION_MAX, 'Accession number').transform(tidyAccession).pipe(z.string().regex(ACCESSION_PATTERN, `${ACCESSION_MESSAGE}.`)),
+    accessionNumber: required(ACCESSION_MAX, 'Accession number')
+      .transform(tidyAccession)
+      .pipe(z.string().regex(ACCESSION_PATTERN, `${ACCESSION_MESSAGE}.`)),
     objectName: required(120, 'Object name'),
     title: required(255, 'Title'),
     dateText: text(120),
@@ -109,18 +159,36 @@ export const pieceImportRow = z
     row.earliestYear ??= range?.earliest ?? null;
     row.latestYear ??= range?.latest ?? null;
     if (row.earliestYear !== null && row.latestYear !== null && row.earliestYear > row.latestYear)
-      ctx.addIssue({ code: 'custom', path: ['latestYear'], message: 'The latest year comes before the earliest year.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['latestYear'],
+        message: 'The latest year comes before the earliest year.',
+      });
     return row;
   });
 export type PieceImportRow = z.output<typeof pieceImportRow>;
 
-export const importQuery = z.object({ dryRun: z.enum(['true', 'false', '1', '0']).optional().transform((v) => v === 'true' || v === '1') });
+export const importQuery = z.object({
+  dryRun: z
+    .enum(['true', 'false', '1', '0'])
+    .optional()
+    .transform((v) => v === 'true' || v === '1'),
+});
 
 // Answers of POST /api/import/pieces (server/import/pieces.ts is typed by these).
 /** A problem on one line of the file (1 is the header); `field` is null when no one column is at fault. */
-export const importErrorSchema = z.object({ line: z.number().int(), field: z.string().nullable(), message: z.string() });
+export const importErrorSchema = z.object({
+  line: z.number().int(),
+  field: z.string().nullable(),
+  message: z.string(),
+});
 export type ImportError = z.infer<typeof importErrorSchema>;
-export const importPreviewRowSchema = z.object({ line: z.number().int(), accessionNumber: z.string(), title: z.string(), errors: z.array(importErrorSchema) });
+export const importPreviewRowSchema = z.object({
+  line: z.number().int(),
+  accessionNumber: z.string(),
+  title: z.string(),
+  errors: z.array(importErrorSchema),
+});
 export type ImportPreviewRow = z.infer<typeof importPreviewRowSchema>;
 /** `?dryRun=true` (200): every row checked, nothing written. */
 export const importPreviewSchema = z.object({
@@ -133,5 +201,9 @@ export const importPreviewSchema = z.object({
 });
 export type ImportPreview = z.infer<typeof importPreviewSchema>;
 /** The import itself (201): the new pieces' ids. */
-export const importResultSchema = z.object({ dryRun: z.literal(false), imported: z.number().int().min(0), ids: z.array(z.number()) });
+export const importResultSchema = z.object({
+  dryRun: z.literal(false),
+  imported: z.number().int().min(0),
+  ids: z.array(z.number()),
+});
 export type ImportResult = z.infer<typeof importResultSchema>;

@@ -23,7 +23,13 @@ const mm = z
   .multipleOf(0.1, 'Use at most one decimal place')
   .nullable()
   .optional();
-const year = z.number({ error: 'Enter a year' }).int('Enter a whole year').min(YEAR_MIN, `Use a year from ${YEAR_MIN}`).max(YEAR_MAX, `Use a year up to ${YEAR_MAX}`).nullable().optional();
+const year = z
+  .number({ error: 'Enter a year' })
+  .int('Enter a whole year')
+  .min(YEAR_MIN, `Use a year from ${YEAR_MIN}`)
+  .max(YEAR_MAX, `Use a year up to ${YEAR_MAX}`)
+  .nullable()
+  .optional();
 
 export const evidencedTerm = z.object({
   name: text(120).min(1, 'Enter a name'),
@@ -45,7 +51,13 @@ const pieceFields = {
   accessionNumber: z
     .string()
     .transform(tidyAccession)
-    .pipe(z.string().min(1, 'Enter the accession number').max(ACCESSION_MAX, `Use at most ${ACCESSION_MAX} characters`).regex(ACCESSION_PATTERN, ACCESSION_MESSAGE)),
+    .pipe(
+      z
+        .string()
+        .min(1, 'Enter the accession number')
+        .max(ACCESSION_MAX, `Use at most ${ACCESSION_MAX} characters`)
+        .regex(ACCESSION_PATTERN, ACCESSION_MESSAGE),
+    ),
   objectName: text(120).min(1, 'Enter the object name, e.g. panel'),
   title: text(255).min(1, 'Enter a title'),
   dateText: optionalText(120),
@@ -81,7 +93,14 @@ export const pieceUpdateSchema = withDateRules(z.object(pieceFields).partial().s
 export type PieceCreateInput = z.infer<typeof pieceCreateSchema>;
 export type PieceUpdateInput = z.infer<typeof pieceUpdateSchema>;
 
-export const PIECE_SORTS = ['accessionNumber', 'title', 'objectName', 'earliestYear', 'updatedAt', 'createdAt'] as const;
+export const PIECE_SORTS = [
+  'accessionNumber',
+  'title',
+  'objectName',
+  'earliestYear',
+  'updatedAt',
+  'createdAt',
+] as const;
 // The archive's pages hold 25 pieces unless asked otherwise.
 export const pieceListQuery = pageQuery(25).extend({
   sort: z.enum(PIECE_SORTS).default('accessionNumber'),

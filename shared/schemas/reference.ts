@@ -9,7 +9,9 @@ export function formulaFault(f: string): string | null {
     parseFormula(f);
     return null;
   } catch (e) {
-    return e instanceof FormulaError ? `${e.reason}. Write a formula such as KAl(SO4)2·12H2O or CaSO4·½H2O` : 'Write a formula such as KAl(SO4)2·12H2O';
+    return e instanceof FormulaError
+      ? `${e.reason}. Write a formula such as KAl(SO4)2·12H2O or CaSO4·½H2O`
+      : 'Write a formula such as KAl(SO4)2·12H2O';
   }
 }
 const composition = (f: string): Composition | null => {
@@ -56,31 +58,35 @@ export const ghsSchema = z.object({
   labelStatements: z.array(z.string()),
 });
 
-export const chemicalSchema = z.object({
-  id: z.number(),
-  name: z.string(),
-  role: z.enum(CHEMICAL_ROLES),
-  formula: z.string().nullable(),
-  /** g/mol, computed from the formula with IUPAC 2021 abridged atomic weights. */
-  molarMass: z.number().nullable(),
-  metal: z.string().nullable(),
-  /** 0–1, computed from the formula. */
-  metalMassFraction: z.number().nullable(),
-  status: z.enum(CHEMICAL_STATUSES),
-  ghs: ghsSchema,
-  source: z.string(),
-  atomicWeightsSource: z.string().nullable(),
-}).meta({ id: 'Chemical' });
+export const chemicalSchema = z
+  .object({
+    id: z.number(),
+    name: z.string(),
+    role: z.enum(CHEMICAL_ROLES),
+    formula: z.string().nullable(),
+    /** g/mol, computed from the formula with IUPAC 2021 abridged atomic weights. */
+    molarMass: z.number().nullable(),
+    metal: z.string().nullable(),
+    /** 0–1, computed from the formula. */
+    metalMassFraction: z.number().nullable(),
+    status: z.enum(CHEMICAL_STATUSES),
+    ghs: ghsSchema,
+    source: z.string(),
+    atomicWeightsSource: z.string().nullable(),
+  })
+  .meta({ id: 'Chemical' });
 
-export const dyestuffSchema = z.object({
-  id: z.number(),
-  name: z.string(),
-  ciName: z.string().nullable(),
-  colorants: z.string().nullable(),
-  species: z.string().nullable(),
-  dyeClass: z.string().nullable(),
-  source: z.string(),
-}).meta({ id: 'Dyestuff' });
+export const dyestuffSchema = z
+  .object({
+    id: z.number(),
+    name: z.string(),
+    ciName: z.string().nullable(),
+    colorants: z.string().nullable(),
+    species: z.string().nullable(),
+    dyeClass: z.string().nullable(),
+    source: z.string(),
+  })
+  .meta({ id: 'Dyestuff' });
 
 export type Ghs = z.infer<typeof ghsSchema>;
 export type ChemicalView = z.infer<typeof chemicalSchema>;
@@ -103,13 +109,18 @@ const formulaField = z
   });
 
 // An empty text box means "none": '' becomes null before the field's own checks.
-const blankToNull = <S extends z.ZodType>(schema: S) => z.preprocess((v) => (v === undefined || (typeof v === 'string' && v.trim() === '') ? null : v), schema);
+const blankToNull = <S extends z.ZodType>(schema: S) =>
+  z.preprocess((v) => (v === undefined || (typeof v === 'string' && v.trim() === '') ? null : v), schema);
 
 const chemicalFields = {
   name: z.string().trim().min(1, 'Give a name').max(120),
   role: z.enum(CHEMICAL_ROLES),
   formula: formulaField,
-  metal: z.string().trim().regex(/^[A-Z][a-z]?$/, 'Give an element symbol such as Al').nullable(),
+  metal: z
+    .string()
+    .trim()
+    .regex(/^[A-Z][a-z]?$/, 'Give an element symbol such as Al')
+    .nullable(),
   status: z.enum(CHEMICAL_STATUSES),
   signalWord: z.enum(SIGNAL_WORDS).nullable(),
   hStatements: z.array(z.string().trim().min(1).max(200)).max(30),
@@ -146,11 +157,16 @@ export const chemicalCreateSchema = z
   .superRefine((v, ctx) => {
     if (!v.metal) return;
     if (!v.formula) {
-      ctx.addIssue({ code: 'custom', path: ['metal'], message: 'Give the formula the metal belongs to, or leave the metal empty' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['metal'],
+        message: 'Give the formula the metal belongs to, or leave the metal empty',
+      });
       return;
     }
     const comp = composition(v.formula);
-    if (comp && !comp[v.metal]) ctx.addIssue({ code: 'custom', path: ['metal'], message: `The formula has no ${v.metal}` });
+    if (comp && !comp[v.metal])
+      ctx.addIssue({ code: 'custom', path: ['metal'], message: `The formula has no ${v.metal}` });
   });
 export type ChemicalCreate = z.infer<typeof chemicalCreateSchema>;
 export type ChemicalCreateInput = z.input<typeof chemicalCreateSchema>;

@@ -10,7 +10,8 @@ const many = z
   .transform((v) => (Array.isArray(v) ? v : [v]).map((s) => s.trim()).filter(Boolean))
   .pipe(z.array(z.string().max(160, 'Use at most 160 characters')).max(10, 'Choose at most 10 values'))
   .optional();
-const int = (min: number, max: number, msg: string) => z.coerce.number<string>({ error: msg }).int(msg).min(min, msg).max(max, msg);
+const int = (min: number, max: number, msg: string) =>
+  z.coerce.number<string>({ error: msg }).int(msg).min(min, msg).max(max, msg);
 
 export const searchFiltersSchema = z.object({
   q: z.string().trim().max(200, 'Use at most 200 characters').optional(),
@@ -40,7 +41,11 @@ export type SearchQuery = z.infer<typeof searchQuerySchema>;
 export type SearchFilters = z.infer<typeof searchFiltersSchema>;
 
 const labNum = (min: number, max: number, name: string) =>
-  z.coerce.number({ error: `Give ${name} as a number` }).min(min, `${name} runs from ${min} to ${max}`).max(max, `${name} runs from ${min} to ${max}`).optional();
+  z.coerce
+    .number({ error: `Give ${name} as a number` })
+    .min(min, `${name} runs from ${min} to ${max}`)
+    .max(max, `${name} runs from ${min} to ${max}`)
+    .optional();
 
 export const MAX_RADIUS = 30;
 
@@ -50,30 +55,52 @@ export const shadeQuerySchema = searchFiltersSchema
     L: labNum(0, 100, 'L*'),
     a: labNum(-160, 160, 'a*'),
     b: labNum(-160, 160, 'b*'),
-    maxDeltaE: z.coerce.number({ error: 'Give the radius as a number' }).gt(0, 'The radius must be above 0').max(MAX_RADIUS, `Use a radius of at most ${MAX_RADIUS} ΔE00`).default(5),
+    maxDeltaE: z.coerce
+      .number({ error: 'Give the radius as a number' })
+      .gt(0, 'The radius must be above 0')
+      .max(MAX_RADIUS, `Use a radius of at most ${MAX_RADIUS} ΔE00`)
+      .default(5),
     limit: int(1, 200, 'Give a limit from 1 to 200').default(50),
     page: int(1, 10_000, 'Give a page number of 1 or more').default(1),
   })
   .superRefine((v, ctx) => {
     const lab = [v.L, v.a, v.b].filter((x) => x !== undefined).length;
-    if (v.hex && lab) ctx.addIssue({ code: 'custom', path: ['hex'], message: 'Give either a hex colour or L*, a*, b*, not both' });
-    else if (!v.hex && lab === 0) ctx.addIssue({ code: 'custom', path: ['hex'], message: 'Give a colour: hex, or L*, a* and b*' });
+    if (v.hex && lab)
+      ctx.addIssue({ code: 'custom', path: ['hex'], message: 'Give either a hex colour or L*, a*, b*, not both' });
+    else if (!v.hex && lab === 0)
+      ctx.addIssue({ code: 'custom', path: ['hex'], message: 'Give a colour: hex, or L*, a* and b*' });
     else if (!v.hex && lab < 3)
-      for (const k of ['L', 'a', 'b'] as const) if (v[k] === undefined) ctx.addIssue({ code: 'custom', path: [k], message: `Give ${k}* too` });
+      for (const k of ['L', 'a', 'b'] as const)
+        if (v[k] === undefined) ctx.addIssue({ code: 'custom', path: [k], message: `Give ${k}* too` });
   });
 export type ShadeQuery = z.infer<typeof shadeQuerySchema>;
 
 // ---- Responses (server/search/service.ts returns these types; tsc checks the service against them) ----
 
-export const FACET_NAMES = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'] as const;
+export const FACET_NAMES = [
+  'dyestuff',
+  'historicalMordant',
+  'modernMordant',
+  'fibre',
+  'technique',
+  'century',
+  'place',
+  'status',
+] as const;
 export type FacetName = (typeof FACET_NAMES)[number];
 const facetRows = z.array(z.object({ value: z.string(), label: z.string(), count: z.number() }));
 /** Every facet, each with its values (value as filtered by, label as shown) and how many pieces carry them. */
-export const facetCountsSchema = z.object(Object.fromEntries(FACET_NAMES.map((f) => [f, facetRows])) as Record<FacetName, typeof facetRows>);
+export const facetCountsSchema = z.object(
+  Object.fromEntries(FACET_NAMES.map((f) => [f, facetRows])) as Record<FacetName, typeof facetRows>,
+);
 export type FacetCounts = z.infer<typeof facetCountsSchema>;
 
 /** A matched stretch of a field: `marks` are [start, end) character offsets into `text`. */
-export const searchHighlightSchema = z.object({ field: z.string(), text: z.string(), marks: z.array(z.tuple([z.number(), z.number()])) });
+export const searchHighlightSchema = z.object({
+  field: z.string(),
+  text: z.string(),
+  marks: z.array(z.tuple([z.number(), z.number()])),
+});
 export type SearchHighlight = z.infer<typeof searchHighlightSchema>;
 
 export const searchItemSchema = z.object({
@@ -115,5 +142,8 @@ export const shadeItemSchema = z.object({
 });
 export type ShadeItem = z.infer<typeof shadeItemSchema>;
 /** `pageSize` is the shade query's `limit`; `query` echoes the colour searched for and the radius. */
-export const shadeResponse = paged(shadeItemSchema).extend({ facets: facetCountsSchema, query: lab.extend({ hex: z.string(), maxDeltaE: z.number() }) });
+export const shadeResponse = paged(shadeItemSchema).extend({
+  facets: facetCountsSchema,
+  query: lab.extend({ hex: z.string(), maxDeltaE: z.number() }),
+});
 export type ShadeResponse = z.infer<typeof shadeResponse>;

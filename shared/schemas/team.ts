@@ -23,7 +23,10 @@ export type ResetPasswordInput = z.infer<typeof resetPasswordSchema>;
 
 export const teamPatchSchema = z
   .object({ role: z.enum(ROLES).optional(), active: z.boolean().optional() })
-  .refine((v) => v.role !== undefined || v.active !== undefined, { message: 'Change the role or the active flag', path: ['role'] });
+  .refine((v) => v.role !== undefined || v.active !== undefined, {
+    message: 'Change the role or the active flag',
+    path: ['role'],
+  });
 export type TeamPatchInput = z.infer<typeof teamPatchSchema>;
 
 /** The team list takes up to 200 a page (the team page asks for 100). */

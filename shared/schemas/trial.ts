@@ -11,7 +11,17 @@ import { chemicalSchema } from './reference.ts';
 
 export const TRIAL_STATUSES = ['planned', 'in-progress', 'finished', 'abandoned'] as const;
 export const TRIAL_KINDS = ['modern', 'historical'] as const;
-export const OPERATIONS = ['scour', 'tannin', 'mordant-bath', 'print-paste', 'dye-bath', 'vat', 'overdye', 'after-treatment', 'rinse'] as const;
+export const OPERATIONS = [
+  'scour',
+  'tannin',
+  'mordant-bath',
+  'print-paste',
+  'dye-bath',
+  'vat',
+  'overdye',
+  'after-treatment',
+  'rinse',
+] as const;
 export const BASES = ['owf', 'g/L', 'g'] as const;
 export const REASONS = ['toxicity', 'regulation', 'availability', 'waste'] as const;
 export const GEOMETRIES = ['d:8°', '45°a:0°'] as const;
@@ -30,7 +40,10 @@ export const operationLabels: Record<(typeof OPERATIONS)[number], string> = {
   rinse: 'Rinse',
 };
 export { DRY_MASS_BASES };
-export const dryMassBasisLabels: Record<(typeof DRY_MASS_BASES)[number], string> = { 'air-dry': 'air-dry (conditioned)', 'oven-dry': 'oven-dry' };
+export const dryMassBasisLabels: Record<(typeof DRY_MASS_BASES)[number], string> = {
+  'air-dry': 'air-dry (conditioned)',
+  'oven-dry': 'oven-dry',
+};
 export const basisLabels: Record<(typeof BASES)[number], string> = { owf: '% owf', 'g/L': 'g/L', g: 'g' };
 
 const id = z.coerce.number().int().positive();
@@ -41,13 +54,22 @@ const positive = (what: string) => z.number().positive(`${what} must be more tha
 
 export const labSchema = z.object({
   L: z.number({ error: 'Enter L* as a number from 0 to 100' }).min(0, 'L* is 0–100').max(100, 'L* is 0–100'),
-  a: z.number({ error: 'Enter a* as a number from −200 to 200' }).min(-200, 'a* is −200 to 200').max(200, 'a* is −200 to 200'),
-  b: z.number({ error: 'Enter b* as a number from −200 to 200' }).min(-200, 'b* is −200 to 200').max(200, 'b* is −200 to 200'),
+  a: z
+    .number({ error: 'Enter a* as a number from −200 to 200' })
+    .min(-200, 'a* is −200 to 200')
+    .max(200, 'a* is −200 to 200'),
+  b: z
+    .number({ error: 'Enter b* as a number from −200 to 200' })
+    .min(-200, 'b* is −200 to 200')
+    .max(200, 'b* is −200 to 200'),
 });
 export type LabInput = z.infer<typeof labSchema>;
 
 /** A colour to compare, optionally with the conditions it was measured under (unstated: the caller vouches they match). */
-export const conditionedLabSchema = labSchema.extend({ illuminant: z.enum(ILLUMINANTS).optional(), observer: z.enum(OBSERVERS).optional() });
+export const conditionedLabSchema = labSchema.extend({
+  illuminant: z.enum(ILLUMINANTS).optional(),
+  observer: z.enum(OBSERVERS).optional(),
+});
 export const colourDifferenceSchema = z.object({ reference: conditionedLabSchema, sample: conditionedLabSchema });
 
 export { fastnessSchema };
@@ -57,8 +79,11 @@ const targetFields = {
   targetRegionId: optionalId,
   targetMeasurementId: optionalId,
 };
-const oneTarget = (v: { targetPaletteColourId?: number | null; targetRegionId?: number | null; targetMeasurementId?: number | null }) =>
-  [v.targetPaletteColourId, v.targetRegionId, v.targetMeasurementId].filter((x) => x != null).length <= 1;
+const oneTarget = (v: {
+  targetPaletteColourId?: number | null;
+  targetRegionId?: number | null;
+  targetMeasurementId?: number | null;
+}) => [v.targetPaletteColourId, v.targetRegionId, v.targetMeasurementId].filter((x) => x != null).length <= 1;
 const oneTargetIssue = { message: 'Choose one target: a palette colour, a region or a measurement.', path: ['target'] };
 
 const trialFields = {
@@ -82,19 +107,27 @@ export type TrialCreateInput = z.input<typeof trialCreateSchema>;
 
 /** The kind is fixed at creation: a historical record never turns into a modern recipe. */
 export const trialUpdateSchema = z
-  .object({ pieceId: optionalId, ...trialFields, status: z.enum(TRIAL_STATUSES).optional(), dryMassG: trialFields.dryMassG.optional(), dryMassBasis: z.enum(DRY_MASS_BASES, { error: 'Choose air-dry or oven-dry' }).optional() })
+  .object({
+    pieceId: optionalId,
+    ...trialFields,
+    status: z.enum(TRIAL_STATUSES).optional(),
+    dryMassG: trialFields.dryMassG.optional(),
+    dryMassBasis: z.enum(DRY_MASS_BASES, { error: 'Choose air-dry or oven-dry' }).optional(),
+  })
   .partial()
   .refine(oneTarget, oneTargetIssue);
 export type TrialUpdateInput = z.input<typeof trialUpdateSchema>;
 
-export const trialListQuerySchema = z.object({
-  q: z.string().trim().max(100).optional(),
-  status: z.enum(TRIAL_STATUSES).optional(),
-  kind: z.enum(TRIAL_KINDS).optional(),
-  pieceId: id.optional(),
-  dyerId: id.optional(),
-  mine: z.enum(['1', '0']).optional(),
-}).extend(pageQuery(25).shape);
+export const trialListQuerySchema = z
+  .object({
+    q: z.string().trim().max(100).optional(),
+    status: z.enum(TRIAL_STATUSES).optional(),
+    kind: z.enum(TRIAL_KINDS).optional(),
+    pieceId: id.optional(),
+    dyerId: id.optional(),
+    mine: z.enum(['1', '0']).optional(),
+  })
+  .extend(pageQuery(25).shape);
 export type TrialListQuery = z.input<typeof trialListQuerySchema>;
 
 export const ingredientSchema = z.object({
@@ -111,27 +144,31 @@ export const pasteSchema = z.object({
   stockGPerL: positive('The stock strength').nullable().optional(),
 });
 
-export const stepSchema = z.object({
-  /** The stored step this one continues (sent back by the editor), so its bath draw is edited rather than drawn again. */
-  id: optionalId,
-  operation: z.enum(OPERATIONS),
-  ingredients: z.array(ingredientSchema).max(20).default([]),
-  liquorRatio: positive('The liquor ratio').max(500).nullable().optional(),
-  temperatureC: z.number().min(0).max(130, '°C above 130 is not a dye bath').nullable().optional(),
-  minutes: z.number().min(0).max(100_000).nullable().optional(),
-  ph: z.number().min(0, 'pH is 0–14').max(14, 'pH is 0–14').nullable().optional(),
-  paste: pasteSchema.nullable().optional(),
-  batchId: optionalId,
-  batchVolumeMl: positive('The volume drawn').nullable().optional(),
-  notes: text(2000),
-  /** A historical-only chemical in a modern trial is used only when confirmed, with the reason (the server checks). */
-  historicalUseConfirmed: z.boolean({ error: 'Tick the box or leave it empty' }).optional(),
-  historicalUseReason: text(2000),
-}).superRefine((s, ctx) => {
-  // A draw is a bath and a volume together: one without the other would be saved as half a record.
-  if (s.batchId != null && s.batchVolumeMl == null) ctx.addIssue({ code: 'custom', path: ['batchVolumeMl'], message: 'Enter the volume drawn from the bath, in mL' });
-  if (s.batchId == null && s.batchVolumeMl != null) ctx.addIssue({ code: 'custom', path: ['batchId'], message: 'Choose the bath this volume is drawn from' });
-});
+export const stepSchema = z
+  .object({
+    /** The stored step this one continues (sent back by the editor), so its bath draw is edited rather than drawn again. */
+    id: optionalId,
+    operation: z.enum(OPERATIONS),
+    ingredients: z.array(ingredientSchema).max(20).default([]),
+    liquorRatio: positive('The liquor ratio').max(500).nullable().optional(),
+    temperatureC: z.number().min(0).max(130, '°C above 130 is not a dye bath').nullable().optional(),
+    minutes: z.number().min(0).max(100_000).nullable().optional(),
+    ph: z.number().min(0, 'pH is 0–14').max(14, 'pH is 0–14').nullable().optional(),
+    paste: pasteSchema.nullable().optional(),
+    batchId: optionalId,
+    batchVolumeMl: positive('The volume drawn').nullable().optional(),
+    notes: text(2000),
+    /** A historical-only chemical in a modern trial is used only when confirmed, with the reason (the server checks). */
+    historicalUseConfirmed: z.boolean({ error: 'Tick the box or leave it empty' }).optional(),
+    historicalUseReason: text(2000),
+  })
+  .superRefine((s, ctx) => {
+    // A draw is a bath and a volume together: one without the other would be saved as half a record.
+    if (s.batchId != null && s.batchVolumeMl == null)
+      ctx.addIssue({ code: 'custom', path: ['batchVolumeMl'], message: 'Enter the volume drawn from the bath, in mL' });
+    if (s.batchId == null && s.batchVolumeMl != null)
+      ctx.addIssue({ code: 'custom', path: ['batchId'], message: 'Choose the bath this volume is drawn from' });
+  });
 export type StepInput = z.input<typeof stepSchema>;
 
 export const stepsSchema = z.object({ steps: z.array(stepSchema).max(40) });
@@ -149,8 +186,14 @@ const substitutionFields = z.object({
   notes: text(2000),
 });
 export const substitutionSchema = substitutionFields
-  .refine((v) => v.historicalChemicalId != null || Boolean(v.historicalPractice), { message: 'Name the historical chemical or practice.', path: ['historicalChemicalId'] })
-  .refine((v) => v.modernChemicalId != null || Boolean(v.modernPractice), { message: 'Name the modern chemical or practice.', path: ['modernChemicalId'] });
+  .refine((v) => v.historicalChemicalId != null || Boolean(v.historicalPractice), {
+    message: 'Name the historical chemical or practice.',
+    path: ['historicalChemicalId'],
+  })
+  .refine((v) => v.modernChemicalId != null || Boolean(v.modernPractice), {
+    message: 'Name the modern chemical or practice.',
+    path: ['modernChemicalId'],
+  });
 export type SubstitutionInput = z.input<typeof substitutionSchema>;
 
 export const measurementSchema = labSchema.extend({
@@ -172,7 +215,9 @@ export const pieceTrialsQuery = pageQuery(100);
 /** PUT /api/colour/verdict-bands: ΔE00 upper bounds that rise, with their source. */
 const bandLimit = z.number().positive().max(100);
 export const verdictBandsInput = z.object({
-  bands: z.object({ match: bandLimit, close: bandLimit, near: bandLimit }).refine((b) => b.match < b.close && b.close < b.near, { message: 'Bands must rise: match < close < near.' }),
+  bands: z
+    .object({ match: bandLimit, close: bandLimit, near: bandLimit })
+    .refine((b) => b.match < b.close && b.close < b.near, { message: 'Bands must rise: match < close < near.' }),
   source: z.string().trim().min(3, 'Say where the bands come from').max(255),
 });
 
@@ -189,20 +234,34 @@ export const verdictBandsAnswer = z.object({ bands: verdictBandsSchema, source: 
 
 /** differenceReport (shared/colour/difference.ts): ΔE00, CMC, components and the words. */
 export const differenceSchema = z.object({
-  deltaE00: num, cmc21: num, cmc11: num, deltaEab: num,
-  dL: num, dC: num, dH: num, dh: num, da: num, db: num,
+  deltaE00: num,
+  cmc21: num,
+  cmc11: num,
+  deltaEab: num,
+  dL: num,
+  dC: num,
+  dH: num,
+  dh: num,
+  da: num,
+  db: num,
   words: z.array(z.string()),
   verdict: z.enum(['match', 'close', 'near', 'different']),
 });
 export const colourDifferenceAnswer = differenceSchema.extend({
-  conditions: z.object({ illuminant: z.enum(ILLUMINANTS).nullable(), referenceObserver: z.enum(OBSERVERS).nullable(), sampleObserver: z.enum(OBSERVERS).nullable(), observersDiffer: z.boolean() }),
+  conditions: z.object({
+    illuminant: z.enum(ILLUMINANTS).nullable(),
+    referenceObserver: z.enum(OBSERVERS).nullable(),
+    sampleObserver: z.enum(OBSERVERS).nullable(),
+    observersDiffer: z.boolean(),
+  }),
   note: nstr,
   bands: verdictBandsSchema,
   bandsSource: z.string(),
 });
 
 export const resolvedColourSchema = z.object({
-  ...lab, ...conditions,
+  ...lab,
+  ...conditions,
   source: z.enum(['instrument', 'image-estimate']),
   label: z.string(),
   readings: nnum,
@@ -213,17 +272,42 @@ export const trialColourSchema = z.object({
   target: resolvedColourSchema.nullable(),
   result: resolvedColourSchema.nullable(),
   difference: differenceSchema.nullable(),
-  conditions: z.object({ illuminant: z.enum(ILLUMINANTS), targetObserver: z.enum(OBSERVERS), resultObserver: z.enum(OBSERVERS), observersDiffer: z.boolean() }).nullable(),
+  conditions: z
+    .object({
+      illuminant: z.enum(ILLUMINANTS),
+      targetObserver: z.enum(OBSERVERS),
+      resultObserver: z.enum(OBSERVERS),
+      observersDiffer: z.boolean(),
+    })
+    .nullable(),
   note: nstr,
   missing: z.object({ ...conditions, message: z.string() }).nullable(),
   results: z.array(resolvedColourSchema),
-  comparisons: z.array(z.object({ illuminant: z.enum(ILLUMINANTS), target: resolvedColourSchema, result: resolvedColourSchema, difference: differenceSchema, observersDiffer: z.boolean(), note: nstr, primary: z.boolean() })),
+  comparisons: z.array(
+    z.object({
+      illuminant: z.enum(ILLUMINANTS),
+      target: resolvedColourSchema,
+      result: resolvedColourSchema,
+      difference: differenceSchema,
+      observersDiffer: z.boolean(),
+      note: nstr,
+      primary: z.boolean(),
+    }),
+  ),
   bandsSource: z.string(),
 });
 
 export const measurementOutSchema = z.object({
-  id: num, ...lab, illuminant: z.string(), observer: z.string(), geometry: nstr, specular: z.enum(['SCI', 'SCE']).nullable(),
-  instrument: nstr, label: nstr, takenOn: nstr, source: z.string(),
+  id: num,
+  ...lab,
+  illuminant: z.string(),
+  observer: z.string(),
+  geometry: nstr,
+  specular: z.enum(['SCI', 'SCE']).nullable(),
+  instrument: nstr,
+  label: nstr,
+  takenOn: nstr,
+  source: z.string(),
 });
 
 export const trialSummarySchema = z.object({
@@ -244,11 +328,26 @@ export const trialSummarySchema = z.object({
 });
 
 const chemRef = z.object({ id: num, name: z.string() });
-const historicalOnlyWarning = z.object({ code: z.literal('historical-only-in-modern'), chemicalId: num, name: z.string(), message: z.string() });
-const incompatibleMixWarning = z.object({ code: z.literal('incompatible-mix'), pair: z.string(), chemicals: z.array(chemRef), message: z.string(), hazard: z.string(), source: z.string() });
+const historicalOnlyWarning = z.object({
+  code: z.literal('historical-only-in-modern'),
+  chemicalId: num,
+  name: z.string(),
+  message: z.string(),
+});
+const incompatibleMixWarning = z.object({
+  code: z.literal('incompatible-mix'),
+  pair: z.string(),
+  chemicals: z.array(chemRef),
+  message: z.string(),
+  hazard: z.string(),
+  source: z.string(),
+});
 export const stepWarningSchema = z.discriminatedUnion('code', [historicalOnlyWarning, incompatibleMixWarning]);
 const atStep = { stepPosition: num };
-export const positionedStepWarningSchema = z.discriminatedUnion('code', [historicalOnlyWarning.extend(atStep), incompatibleMixWarning.extend(atStep)]);
+export const positionedStepWarningSchema = z.discriminatedUnion('code', [
+  historicalOnlyWarning.extend(atStep),
+  incompatibleMixWarning.extend(atStep),
+]);
 
 /** computeStep (shared/trials/quantities.ts) with pasteMakeUp (shared/compute/paste.ts). */
 export const stepComputedSchema = z.object({
@@ -260,7 +359,15 @@ export const stepComputedSchema = z.object({
       finalVolumeMl: num,
       mordants: z.array(z.object({ name: z.string(), gPerL: num, grams: num, stockMl: nnum })),
       thickener: z
-        .object({ name: z.string(), gPerL: num, grams: num, usualRange: z.object({ kind: z.string(), label: z.string(), min: num, max: num, source: z.string() }).nullable(), outsideUsualRange: z.boolean() })
+        .object({
+          name: z.string(),
+          gPerL: num,
+          grams: num,
+          usualRange: z
+            .object({ kind: z.string(), label: z.string(), min: num, max: num, source: z.string() })
+            .nullable(),
+          outsideUsualRange: z.boolean(),
+        })
         .nullable(),
       waterMl: num,
     })
@@ -272,7 +379,15 @@ export const trialStepOutSchema = z.object({
   id: num,
   position: num,
   operation: z.enum(OPERATIONS),
-  ingredients: z.array(z.object({ kind: z.enum(['dyestuff', 'chemical']), refId: num, amount: num, basis: z.enum(BASES), name: z.string() })),
+  ingredients: z.array(
+    z.object({
+      kind: z.enum(['dyestuff', 'chemical']),
+      refId: num,
+      amount: num,
+      basis: z.enum(BASES),
+      name: z.string(),
+    }),
+  ),
   liquorRatio: nnum,
   temperatureC: nnum,
   minutes: nnum,
@@ -285,7 +400,9 @@ export const trialStepOutSchema = z.object({
   computed: stepComputedSchema,
   cautions: z.array(chemicalSchema),
   warnings: z.array(stepWarningSchema),
-  historicalUse: z.object({ reason: nstr, confirmedBy: z.object({ id: num, name: nstr }).nullable(), confirmedAt: z.iso.datetime() }).nullable(),
+  historicalUse: z
+    .object({ reason: nstr, confirmedBy: z.object({ id: num, name: nstr }).nullable(), confirmedAt: z.iso.datetime() })
+    .nullable(),
 });
 
 export const substitutionOutSchema = z.object({
@@ -307,19 +424,39 @@ export const substitutionOutSchema = z.object({
 
 /** trialMetalLoad (shared/trials/metal-load.ts). */
 export const metalLoadSchema = z.object({
-  rows: z.array(z.object({ metal: z.enum(LOAD_METALS), heavy: z.boolean(), beforeG: num, afterG: num, avoidedG: num, beforeGPerKgFibre: nnum, afterGPerKgFibre: nnum })),
+  rows: z.array(
+    z.object({
+      metal: z.enum(LOAD_METALS),
+      heavy: z.boolean(),
+      beforeG: num,
+      afterG: num,
+      avoidedG: num,
+      beforeGPerKgFibre: nnum,
+      afterGPerKgFibre: nnum,
+    }),
+  ),
   incomplete: num,
   fibreMassG: num,
 });
 
 /** recipeMass (shared/compute/moisture.ts). */
 export const recipeMassSchema = z.object({
-  enteredG: num, basis: z.enum(DRY_MASS_BASES), recipeMassG: num, otherG: nnum, fibre: nstr, regainPct: nnum, regainNote: nstr, problem: nstr, source: z.string(),
+  enteredG: num,
+  basis: z.enum(DRY_MASS_BASES),
+  recipeMassG: num,
+  otherG: nnum,
+  fibre: nstr,
+  regainPct: nnum,
+  regainNote: nstr,
+  problem: nstr,
+  source: z.string(),
 });
 
 /** mordantChecks (shared/compute/mordant-checks.ts). */
 export const mordantCheckSchema = z.object({
-  stepPosition: num, refId: num, name: z.string(),
+  stepPosition: num,
+  refId: num,
+  name: z.string(),
   mordant: z.enum(['potash-alum', 'aluminium-sulfate', 'aluminium-acetate', 'tannin']),
   percentOwf: nnum,
   range: z.object({ low: num, high: num, applies: z.string() }).nullable(),
@@ -342,10 +479,22 @@ export const trialDetailSchema = trialSummarySchema.extend({
     fibre: nstr,
     fibreClass: z.enum(['cellulose', 'protein']).nullable(),
     mordant: z.array(mordantCheckSchema),
-    warnings: z.array(z.union([z.object({ code: z.literal('cellulose-alum-without-fixing'), stepPosition: num, message: z.string(), marking: z.string() }), incompatibleMixWarning.extend(atStep)])),
+    warnings: z.array(
+      z.union([
+        z.object({
+          code: z.literal('cellulose-alum-without-fixing'),
+          stepPosition: num,
+          message: z.string(),
+          marking: z.string(),
+        }),
+        incompatibleMixWarning.extend(atStep),
+      ]),
+    ),
   }),
   measurements: z.array(measurementOutSchema),
-  photos: z.array(z.object({ id: num, width: num, height: num, view: z.enum(PHOTO_VIEWS), caption: nstr, originalName: nstr })),
+  photos: z.array(
+    z.object({ id: num, width: num, height: num, view: z.enum(PHOTO_VIEWS), caption: nstr, originalName: nstr }),
+  ),
   warnings: z.array(positionedStepWarningSchema),
   historicalRecord: z.boolean(),
 });
@@ -362,13 +511,27 @@ export const trialListResponse = paged(trialSummarySchema);
 export type TrialList = z.infer<typeof trialListResponse>;
 export const trialAnswer = z.object({ trial: trialDetailSchema });
 export const trialSavedAnswer = z.object({ trial: trialDetailSchema, notified: z.boolean() });
-export const stepsSavedAnswer = z.object({ trial: trialDetailSchema, warnings: z.array(positionedStepWarningSchema), warning: z.boolean() });
+export const stepsSavedAnswer = z.object({
+  trial: trialDetailSchema,
+  warnings: z.array(positionedStepWarningSchema),
+  warning: z.boolean(),
+});
 export const substitutionAnswer = z.object({ substitution: substitutionOutSchema, metalLoad: metalLoadSchema });
 export const measurementAnswer = z.object({ measurement: measurementOutSchema });
 export const measurementImportAnswer = z.object({ imported: num, measurements: z.array(measurementOutSchema) });
 export const trialPhotoAnswer = z.object({
   photo: z.object({ id: num, width: num, height: num, view: z.enum(PHOTO_VIEWS), originalName: nstr }),
-  palette: z.array(z.object({ rank: num, ...lab, hex: z.string(), share: num, name: z.string(), variant: z.enum(['raw', 'corrected']), background: z.boolean() })),
+  palette: z.array(
+    z.object({
+      rank: num,
+      ...lab,
+      hex: z.string(),
+      share: num,
+      name: z.string(),
+      variant: z.enum(['raw', 'corrected']),
+      background: z.boolean(),
+    }),
+  ),
 });
 export const pieceTrialsResponse = trialListResponse.extend({
   piece: z.object({ id: num, accessionNumber: z.string(), title: z.string() }),

@@ -14,7 +14,8 @@ export type TrialMetalLoad = {
   fibreMassG: number;
 };
 
-const known = (x: { formula: string | null; grams: number | null } | null): x is ChemicalAmount & { grams: number } => Boolean(x?.formula) && x?.grams != null;
+const known = (x: { formula: string | null; grams: number | null } | null): x is ChemicalAmount & { grams: number } =>
+  Boolean(x?.formula) && x?.grams != null;
 
 /**
  * Metal before (historical chemicals) and after (their replacements) for one batch

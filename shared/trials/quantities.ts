@@ -37,7 +37,11 @@ export function computeStep(step: QStep, dryMassG: number, roles: ChemicalRoles)
       // The stock solution named on the paste is the one its (first) mordant is drawn from.
       paste = pasteMakeUp({
         finalVolumeMl: step.paste.volumeMl,
-        mordants: mordants.map((m, i) => ({ name: m.name, gPerL: m.amount, stockGPerL: i === 0 ? step.paste?.stockGPerL ?? null : null })),
+        mordants: mordants.map((m, i) => ({
+          name: m.name,
+          gPerL: m.amount,
+          stockGPerL: i === 0 ? (step.paste?.stockGPerL ?? null) : null,
+        })),
         thickener: thickener ? { name: thickener.name, gPerL: thickener.amount } : null,
       });
     } catch (e) {
@@ -46,9 +50,10 @@ export function computeStep(step: QStep, dryMassG: number, roles: ChemicalRoles)
   }
   // A print paste is weighed per litre of paste and printed, not worked on the fibre: its g/L
   // ingredients are given as g/L of paste and grams for the paste volume, never as % owf.
-  const ingredients = step.operation === 'print-paste'
-    ? q.ingredients.map((x, i) => (step.ingredients[i]?.basis === 'g/L' ? { ...x, percentOwf: null } : x))
-    : q.ingredients;
+  const ingredients =
+    step.operation === 'print-paste'
+      ? q.ingredients.map((x, i) => (step.ingredients[i]?.basis === 'g/L' ? { ...x, percentOwf: null } : x))
+      : q.ingredients;
   return { volumeL: q.volumeL, ingredients, missing: q.missing, paste, pasteProblem };
 }
 
@@ -67,11 +72,18 @@ export function gramsInStep(step: QStep, chemicalId: number, dryMassG: number, r
 /** Scale stored steps to another dry mass (shared/compute's scaleRecipe; a paste's volume scales with the mass). */
 export function scaleSteps<S extends QStep>(steps: readonly S[], fromDryMassG: number, toDryMassG: number): S[] {
   const like = steps.map((s) => ({ ...s, volumeL: s.paste ? s.paste.volumeMl / 1000 : null }));
-  return scaleRecipe(like, fromDryMassG, toDryMassG).map(({ volumeL, ...s }) => ({ ...s, paste: s.paste && volumeL != null ? { ...s.paste, volumeMl: volumeL * 1000 } : s.paste }) as unknown as S);
+  return scaleRecipe(like, fromDryMassG, toDryMassG).map(
+    ({ volumeL, ...s }) =>
+      ({
+        ...s,
+        paste: s.paste && volumeL != null ? { ...s.paste, volumeMl: volumeL * 1000 } : s.paste,
+      }) as unknown as S,
+  );
 }
 
 /**
  * The mass a trial's recipe is worked on: its dry mass as entered, brought to air-dry (commercial)
  * when it was weighed oven-dry (shared/compute/moisture.ts, ASTM D1909 regains recalled from memory).
  */
-export const trialRecipeMass = (t: { dryMassG: number; dryMassBasis?: DryMassBasis | null; fibre?: string | null }) => recipeMass(t.dryMassG, t.dryMassBasis, t.fibre);
+export const trialRecipeMass = (t: { dryMassG: number; dryMassBasis?: DryMassBasis | null; fibre?: string | null }) =>
+  recipeMass(t.dryMassG, t.dryMassBasis, t.fibre);

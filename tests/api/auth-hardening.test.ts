@@ -13,9 +13,13 @@ const login = (app: ReturnType<typeof createApp>, email: string, password: strin
 describe('sign-in hardening', () => {
   it('limits failed sign-ins per e-mail: the 11th try in 15 minutes answers 429, even with the right password', async () => {
     const app = createApp();
-    for (let i = 0; i < LOGIN_LIMITS.perEmail; i++) await login(app, 'researcher@demo.test', 'wrong password').expect(401);
+    for (let i = 0; i < LOGIN_LIMITS.perEmail; i++)
+      await login(app, 'researcher@demo.test', 'wrong password').expect(401);
     const res = await login(app, 'researcher@demo.test', 'tinctoria-demo').expect(429);
-    expect(res.body.error).toMatchObject({ code: 'too_many_attempts', message: expect.stringMatching(/Too many failed sign-in attempts/) });
+    expect(res.body.error).toMatchObject({
+      code: 'too_many_attempts',
+      message: expect.stringMatching(/Too many failed sign-in attempts/),
+    });
     expect(res.headers['ratelimit-policy']).toBeDefined();
     // Another address from the same IP is not affected; a fresh app has fresh counters.
     await login(app, 'curator@demo.test', 'tinctoria-demo').expect(200);
@@ -25,7 +29,8 @@ describe('sign-in hardening', () => {
   it('limits failed sign-ins per IP address across e-mails; successful sign-ins do not count', async () => {
     const app = createApp();
     for (let i = 0; i < 5; i++) await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.7').expect(200);
-    for (let i = 0; i < LOGIN_LIMITS.perIp; i++) await login(app, `spray-${i}@nowhere.test`, 'guess', '10.9.8.7').expect(401);
+    for (let i = 0; i < LOGIN_LIMITS.perIp; i++)
+      await login(app, `spray-${i}@nowhere.test`, 'guess', '10.9.8.7').expect(401);
     await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.7').expect(429);
     await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.8').expect(200);
   });

@@ -16,10 +16,19 @@ beforeAll(async () => {
 });
 
 const makeBatch = async (suffix: string, volumeMl: number) => {
-  const res = await dyer.post('/api/batches').set('Origin', ORIGIN).send({
-    code: `T${tag}-${suffix}`, kind: 'mordant-bath', name: `Alum bath ${suffix}`, volumeMl, madeOn: '2024-05-01', checkBy: '2024-05-20',
-    ingredients: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 100 }], uptakePerUse: 0.12,
-  });
+  const res = await dyer
+    .post('/api/batches')
+    .set('Origin', ORIGIN)
+    .send({
+      code: `T${tag}-${suffix}`,
+      kind: 'mordant-bath',
+      name: `Alum bath ${suffix}`,
+      volumeMl,
+      madeOn: '2024-05-01',
+      checkBy: '2024-05-20',
+      ingredients: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 100 }],
+      uptakePerUse: 0.12,
+    });
   expect(res.status).toBe(201);
   return res.body as { id: number; remainingMl: number; uses: number };
 };
@@ -34,11 +43,16 @@ describe('bath ledger through the API', () => {
     for (const e of [
       { type: 'use', volumeMl: 160, fibreMassG: 250 },
       { type: 'use', volumeMl: 400, fibreMassG: 250 },
-      { type: 'top-up', volumeMl: 400, additions: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 35 }] },
+      {
+        type: 'top-up',
+        volumeMl: 400,
+        additions: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 35 }],
+      },
       { type: 'use', volumeMl: 600, fibreMassG: 300 },
       { type: 'water', volumeMl: 300 },
       { type: 'use', volumeMl: 900, fibreMassG: 400 },
-    ]) expect((await post(b.id, e)).status).toBe(201);
+    ])
+      expect((await post(b.id, e)).status).toBe(201);
     const got = (await dyer.get(`/api/batches/${b.id}`).expect(200)).body;
     expect(got).toMatchObject({ remainingMl: 640, uses: 4, fibreMassG: 1200, status: 'active' });
     expect(got.estimatedStrength.estimate).toBe(true);
@@ -50,10 +64,16 @@ describe('bath ledger through the API', () => {
     expect(got.topUpSuggestion.waterMl).toBe(1360);
     expect(got.uptake).toMatchObject({ value: 0.12, referenceLoadG: 100, estimate: true, drawOnly: false });
     expect(got.timeline).toHaveLength(7);
-    expect(got.timeline.map((p: { remainingMl: number }) => p.remainingMl)).toEqual([2000, 1840, 1440, 1840, 1240, 1540, 640]);
+    expect(got.timeline.map((p: { remainingMl: number }) => p.remainingMl)).toEqual([
+      2000, 1840, 1440, 1840, 1240, 1540, 640,
+    ]);
 
     // Following the suggestion brings the estimate back to the bath as made.
-    const topped = await post(b.id, { type: 'top-up', volumeMl: 1360, additions: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 91.65 }] });
+    const topped = await post(b.id, {
+      type: 'top-up',
+      volumeMl: 1360,
+      additions: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 91.65 }],
+    });
     expect(topped.status).toBe(201);
     expect(topped.body.batch).toMatchObject({ remainingMl: 2000, estimatedStrength: { value: 1 } });
     expect((await dyer.get(`/api/batches/${b.id}`).expect(200)).body.topUpSuggestion).toBeNull();
@@ -64,10 +84,18 @@ describe('bath ledger through the API', () => {
   });
 
   it('gives a stock or print paste left without an uptake 0 (only drawn from: volume falls, strength stays), a bath 10 %', async () => {
-    const mk = (kind: string, suffix: string) => dyer.post('/api/batches').set('Origin', ORIGIN).send({
-      code: `T${tag}-${suffix}`, kind, name: `${kind} ${suffix}`, volumeMl: 1000, madeOn: '2024-05-01',
-      ingredients: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 60 }],
-    });
+    const mk = (kind: string, suffix: string) =>
+      dyer
+        .post('/api/batches')
+        .set('Origin', ORIGIN)
+        .send({
+          code: `T${tag}-${suffix}`,
+          kind,
+          name: `${kind} ${suffix}`,
+          volumeMl: 1000,
+          madeOn: '2024-05-01',
+          ingredients: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 60 }],
+        });
     const stock = await mk('stock', 'stk');
     expect(stock.status).toBe(201);
     const bath = await mk('mordant-bath', 'dflt');
@@ -87,12 +115,20 @@ describe('bath ledger through the API', () => {
     expect(res.status).toBe(409);
     expect(res.body.error).toMatchObject({ code: 'conflict', details: { remainingMl: 300, requestedMl: 301 } });
     expect(await BatchEvent.count({ where: { batchId: b.id } })).toBe(before);
-    expect((await dyer.get(`/api/batches/${b.id}`)).body).toMatchObject({ remainingMl: 300, uses: 1, status: 'active' });
+    expect((await dyer.get(`/api/batches/${b.id}`)).body).toMatchObject({
+      remainingMl: 300,
+      uses: 1,
+      status: 'active',
+    });
   });
 
   it('offers disposal only for an exhausted batch or with a reason, then refuses any further event', async () => {
     const b = await makeBatch('dispose', 300);
-    const disposal = { type: 'disposal', route: 'collected by a licensed waste contractor', ruleFollowed: 'SDS section 13 and the local trade-effluent rule' };
+    const disposal = {
+      type: 'disposal',
+      route: 'collected by a licensed waste contractor',
+      ruleFollowed: 'SDS section 13 and the local trade-effluent rule',
+    };
     const early = await post(b.id, disposal);
     expect(early.status).toBe(422);
     expect(early.body.error.details.fields.reason).toBeDefined();
@@ -105,7 +141,10 @@ describe('bath ledger through the API', () => {
 
   it('never takes more than is left when two draws arrive at once (row lock)', async () => {
     const b = await makeBatch('race', 1000);
-    const [r1, r2] = await Promise.all([post(b.id, { type: 'use', volumeMl: 600 }), post(b.id, { type: 'use', volumeMl: 600 })]);
+    const [r1, r2] = await Promise.all([
+      post(b.id, { type: 'use', volumeMl: 600 }),
+      post(b.id, { type: 'use', volumeMl: 600 }),
+    ]);
     expect([r1.status, r2.status].sort()).toEqual([201, 409]);
     expect((await dyer.get(`/api/batches/${b.id}`)).body).toMatchObject({ remainingMl: 400, uses: 1 });
     const five = await Promise.all(Array.from({ length: 5 }, () => post(b.id, { type: 'use', volumeMl: 150 })));
@@ -119,11 +158,23 @@ describe('bath ledger through the API', () => {
     expect(due.items.some((x: { id: number }) => x.id === b.id)).toBe(true);
     expect(due.items.every((x: { dueForCheck: boolean }) => x.dueForCheck)).toBe(true);
     const exhausted = (await dyer.get('/api/batches?status=exhausted&pageSize=100').expect(200)).body;
-    expect(exhausted.items.find((x: { code: string }) => x.code === 'MB-07')).toMatchObject({ remainingMl: 0, uses: 6, status: 'exhausted' });
+    expect(exhausted.items.find((x: { code: string }) => x.code === 'MB-07')).toMatchObject({
+      remainingMl: 0,
+      uses: 6,
+      status: 'exhausted',
+    });
     // MB-07's strength is what 100 g alum and 50 g calcium acetate make (tests/unit/stoichiometry.test.ts), not 75 g/L.
-    const mb07 = (await dyer.get(`/api/batches/${exhausted.items.find((x: { code: string }) => x.code === 'MB-07').id}`).expect(200)).body;
-    expect(mb07.made).toMatchObject({ limiting: 'calcium acetate', active: { name: 'aluminium acetate (basic)', gPerL: 17.08 }, metal: { symbol: 'Al', gPerL: 2.84 } });
-    expect(mb07.made.byProducts).toContainEqual(expect.objectContaining({ name: 'calcium sulfate (gypsum)', fate: 'precipitate' }));
+    const mb07 = (
+      await dyer.get(`/api/batches/${exhausted.items.find((x: { code: string }) => x.code === 'MB-07').id}`).expect(200)
+    ).body;
+    expect(mb07.made).toMatchObject({
+      limiting: 'calcium acetate',
+      active: { name: 'aluminium acetate (basic)', gPerL: 17.08 },
+      metal: { symbol: 'Al', gPerL: 2.84 },
+    });
+    expect(mb07.made.byProducts).toContainEqual(
+      expect.objectContaining({ name: 'calcium sulfate (gypsum)', fate: 'precipitate' }),
+    );
   });
 
   it('keeps the role rules: visitors 401, curators may read but not draw, a dyer may not edit another dyer’s batch', async () => {
@@ -131,7 +182,11 @@ describe('bath ledger through the API', () => {
     await request(app).get(`/api/batches/${b.id}`).expect(401);
     const curator = await signedInAgent(app, 'curator');
     await curator.get(`/api/batches/${b.id}`).expect(200);
-    await curator.post(`/api/batches/${b.id}/events`).set('Origin', ORIGIN).send({ type: 'water', volumeMl: 10 }).expect(403);
+    await curator
+      .post(`/api/batches/${b.id}/events`)
+      .set('Origin', ORIGIN)
+      .send({ type: 'water', volumeMl: 10 })
+      .expect(403);
     const tamsin = await signedInAgent(app, { email: 'tamsin.orrery@weldfold.test', password: 'tinctoria-demo' });
     await tamsin.patch(`/api/batches/${b.id}`).set('Origin', ORIGIN).send({ notes: 'x' }).expect(403);
     await dyer.patch(`/api/batches/${b.id}`).set('Origin', ORIGIN).send({ notes: 'settled overnight' }).expect(200);

@@ -10,7 +10,12 @@ import { makePiece } from '../../server/seed/factories.ts';
 import { resetLinkSchema, resetRequestedSchema, sessionSchema } from '../../shared/schemas/auth.ts';
 import { healthSchema } from '../../shared/schemas/health.ts';
 import { acceptedResponse, invitationResponse } from '../../shared/schemas/invitations.ts';
-import { memberResponse, pendingInvitationListSchema, pendingInvitationResponse, teamPageSchema } from '../../shared/schemas/team.ts';
+import {
+  memberResponse,
+  pendingInvitationListSchema,
+  pendingInvitationResponse,
+  teamPageSchema,
+} from '../../shared/schemas/team.ts';
 import { outboxPageSchema } from '../../shared/schemas/outbox.ts';
 import { jobListResponse, jobResponse } from '../../shared/schemas/jobs.ts';
 import { fixityLatestSchema } from '../../shared/schemas/fixity.ts';
@@ -26,10 +31,14 @@ const app = createApp();
 
 function expectShape<S extends z.ZodType>(schema: S, body: unknown) {
   const parsed = schema.safeParse(body);
-  if (!parsed.success) throw new Error(`answer does not match its schema: ${JSON.stringify(parsed.error.issues)}\n${JSON.stringify(body)}`);
+  if (!parsed.success)
+    throw new Error(
+      `answer does not match its schema: ${JSON.stringify(parsed.error.issues)}\n${JSON.stringify(body)}`,
+    );
   expect(parsed.data).toEqual(body);
 }
-const unique = (what: string) => `${what}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}@contract.test`;
+const unique = (what: string) =>
+  `${what}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}@contract.test`;
 
 describe('wire contract of the a2 route groups', () => {
   it('health', async () => {
@@ -38,9 +47,27 @@ describe('wire contract of the a2 route groups', () => {
 
   it('auth: login, me, password reset', async () => {
     const agent = request.agent(app);
-    expectShape(sessionSchema, (await agent.post('/api/auth/login').set('Origin', ORIGIN).send({ email: 'curator@demo.test', password: 'tinctoria-demo' }).expect(200)).body);
+    expectShape(
+      sessionSchema,
+      (
+        await agent
+          .post('/api/auth/login')
+          .set('Origin', ORIGIN)
+          .send({ email: 'curator@demo.test', password: 'tinctoria-demo' })
+          .expect(200)
+      ).body,
+    );
     expectShape(sessionSchema, (await agent.get('/api/auth/me').expect(200)).body);
-    expectShape(resetRequestedSchema, (await request(app).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email: unique('nobody') }).expect(202)).body);
+    expectShape(
+      resetRequestedSchema,
+      (
+        await request(app)
+          .post('/api/auth/password-reset')
+          .set('Origin', ORIGIN)
+          .send({ email: unique('nobody') })
+          .expect(202)
+      ).body,
+    );
     const user = await User.findOne({ where: { email: 'researcher@demo.test' } });
     const { token, record } = await issueToken({ purpose: 'password-reset', email: user!.email, userId: user!.id });
     expectShape(resetLinkSchema, (await request(app).get(`/api/auth/password-reset/${token}`).expect(200)).body);
@@ -50,7 +77,10 @@ describe('wire contract of the a2 route groups', () => {
   it('invitations and the team', async () => {
     const admin = await signedInAgent(app, 'admin');
     const email = unique('join');
-    expectShape(invitationResponse, (await admin.post('/api/invitations').set('Origin', ORIGIN).send({ email, role: 'dyer' }).expect(201)).body);
+    expectShape(
+      invitationResponse,
+      (await admin.post('/api/invitations').set('Origin', ORIGIN).send({ email, role: 'dyer' }).expect(201)).body,
+    );
     const token = tokenFrom(await waitForMail(email), 'join');
     expectShape(invitationResponse, (await request(app).get(`/api/invitations/${token}`).expect(200)).body);
 
@@ -61,10 +91,25 @@ describe('wire contract of the a2 route groups', () => {
     expectShape(pendingInvitationResponse, resent);
     const newToken = tokenFrom(await waitForMail(email), 'join');
 
-    const accepted = (await request(app).post(`/api/invitations/${newToken}/accept`).set('Origin', ORIGIN).send({ name: 'Contract Tester', password: 'a-long-new-password' }).expect(201)).body;
+    const accepted = (
+      await request(app)
+        .post(`/api/invitations/${newToken}/accept`)
+        .set('Origin', ORIGIN)
+        .send({ name: 'Contract Tester', password: 'a-long-new-password' })
+        .expect(201)
+    ).body;
     expectShape(acceptedResponse, accepted);
     expectShape(teamPageSchema, (await admin.get('/api/team?pageSize=200').expect(200)).body);
-    expectShape(memberResponse, (await admin.patch(`/api/team/${accepted.user.id}`).set('Origin', ORIGIN).send({ role: 'researcher' }).expect(200)).body);
+    expectShape(
+      memberResponse,
+      (
+        await admin
+          .patch(`/api/team/${accepted.user.id}`)
+          .set('Origin', ORIGIN)
+          .send({ role: 'researcher' })
+          .expect(200)
+      ).body,
+    );
   });
 
   it('outbox', async () => {
@@ -78,11 +123,32 @@ describe('wire contract of the a2 route groups', () => {
     const admin = await signedInAgent(app, 'admin');
     const piece = await makePiece({ status: 'draft' });
     const photo = await Photo.create({
-      pieceId: piece.id, trialId: null, sha256: 'c'.repeat(64), format: 'jpeg', bytes: 1, width: 10, height: 10, originalName: null, caption: null,
-      capturedAt: null, exif: {}, gps: null, derivatives: {}, referencePatch: null, correction: null, createdById: null,
+      pieceId: piece.id,
+      trialId: null,
+      sha256: 'c'.repeat(64),
+      format: 'jpeg',
+      bytes: 1,
+      width: 10,
+      height: 10,
+      originalName: null,
+      caption: null,
+      capturedAt: null,
+      exif: {},
+      gps: null,
+      derivatives: {},
+      referencePatch: null,
+      correction: null,
+      createdById: null,
     });
-    const job = await enqueue({ type: 'tile-photo', payload: { photoId: photo.id }, subject: { type: 'photo', id: photo.id } });
-    await Job.update({ state: 'failed', error: 'contract', attempts: 3, finishedAt: new Date() }, { where: { id: job.id } });
+    const job = await enqueue({
+      type: 'tile-photo',
+      payload: { photoId: photo.id },
+      subject: { type: 'photo', id: photo.id },
+    });
+    await Job.update(
+      { state: 'failed', error: 'contract', attempts: 3, finishedAt: new Date() },
+      { where: { id: job.id } },
+    );
     try {
       expectShape(jobListResponse, (await admin.get(`/api/jobs?photoId=${photo.id}`).expect(200)).body);
       expectShape(jobListResponse, (await admin.get('/api/jobs?pageSize=5').expect(200)).body);
@@ -109,14 +175,25 @@ describe('wire contract of the a2 route groups', () => {
   it('import: preview and import', async () => {
     const curator = await signedInAgent(app, 'curator');
     const accession = `CT.${Date.now().toString(36).toUpperCase()}`;
-    const csv = Buffer.from(`accessionNumber,objectName,title,earliestYear\n${accession},panel,Contract import,\n${accession}.2,panel,,not-a-year\n`);
+    const csv = Buffer.from(
+      `accessionNumber,objectName,title,earliestYear\n${accession},panel,Contract import,\n${accession}.2,panel,,not-a-year\n`,
+    );
     const send = (dryRun: boolean) =>
-      curator.post(`/api/import/pieces${dryRun ? '?dryRun=true' : ''}`).set('Origin', ORIGIN).attach('file', csv, { filename: 'p.csv', contentType: 'text/csv' });
+      curator
+        .post(`/api/import/pieces${dryRun ? '?dryRun=true' : ''}`)
+        .set('Origin', ORIGIN)
+        .attach('file', csv, { filename: 'p.csv', contentType: 'text/csv' });
     const preview = (await send(true).expect(200)).body;
     expect(preview.invalid).toBe(1);
     expectShape(importPreviewSchema, preview);
     const good = Buffer.from(`accessionNumber,objectName,title\n${accession},panel,Contract import\n`);
-    const done = (await curator.post('/api/import/pieces').set('Origin', ORIGIN).attach('file', good, { filename: 'p.csv', contentType: 'text/csv' }).expect(201)).body;
+    const done = (
+      await curator
+        .post('/api/import/pieces')
+        .set('Origin', ORIGIN)
+        .attach('file', good, { filename: 'p.csv', contentType: 'text/csv' })
+        .expect(201)
+    ).body;
     expectShape(importResultSchema, done);
   });
 });

@@ -24,10 +24,12 @@ function unzip(buf: Buffer): Promise<Map<string, Buffer>> {
         zip.openReadStream(entry, (e, stream) => {
           if (e || !stream) return reject(e);
           const chunks: Buffer[] = [];
-          stream.on('data', (c: Buffer) => chunks.push(c)).on('end', () => {
-            files.set(entry.fileName, Buffer.concat(chunks));
-            zip.readEntry();
-          });
+          stream
+            .on('data', (c: Buffer) => chunks.push(c))
+            .on('end', () => {
+              files.set(entry.fileName, Buffer.concat(chunks));
+              zip.readEntry();
+            });
         });
       });
       zip.on('end', () => resolve(files));
@@ -45,9 +47,22 @@ let piece: Awaited<ReturnType<typeof makePiece>>;
 let draft: Awaited<ReturnType<typeof makePiece>>;
 let masters: Array<Awaited<ReturnType<typeof makePhotoWithMaster>>>;
 beforeAll(async () => {
-  piece = await makePiece({ status: 'published', title: 'Export test', creditLine: 'Test gift', dateText: 'about 1800', dateEdtf: '1800~', heightMm: 300, widthMm: 200, techniques: ['resist'], dyestuffs: [{ name: 'indigo', evidence: 'identified' }] });
+  piece = await makePiece({
+    status: 'published',
+    title: 'Export test',
+    creditLine: 'Test gift',
+    dateText: 'about 1800',
+    dateEdtf: '1800~',
+    heightMm: 300,
+    widthMm: 200,
+    techniques: ['resist'],
+    dyestuffs: [{ name: 'indigo', evidence: 'identified' }],
+  });
   draft = await makePiece({ status: 'draft' });
-  masters = [await makePhotoWithMaster(piece.id, { width: 320, height: 240 }), await makePhotoWithMaster(piece.id, { width: 200, height: 300 })];
+  masters = [
+    await makePhotoWithMaster(piece.id, { width: 320, height: 240 }),
+    await makePhotoWithMaster(piece.id, { width: 200, height: 300 }),
+  ];
 });
 
 describe('exports', () => {
@@ -76,8 +91,12 @@ describe('exports', () => {
     // Term IRIs from DCMI Metadata Terms.
     expect(dc['@context'].dcterms).toBe('http://purl.org/dc/terms/');
     expect(dc).toMatchObject({
-      'dcterms:identifier': piece.accessionNumber, 'dcterms:title': 'Export test', 'dcterms:date': 'about 1800',
-      'dcterms:created': { '@value': '1800~' }, 'dcterms:subject': ['resist'], 'dcterms:rights': 'Test gift',
+      'dcterms:identifier': piece.accessionNumber,
+      'dcterms:title': 'Export test',
+      'dcterms:date': 'about 1800',
+      'dcterms:created': { '@value': '1800~' },
+      'dcterms:subject': ['resist'],
+      'dcterms:rights': 'Test gift',
       'dcterms:extent': '300 × 200 mm (height × width)',
     });
     expect(dc['dcterms:medium']).toContain('indigo (identified)');
@@ -150,7 +169,10 @@ describe('fixity check', () => {
     const mismatch = report.mismatches.find((m: { sha256: string }) => m.sha256 === bad.sha256);
     expect(mismatch).toMatchObject({ photoIds: [bad.id], actual: sha(bytes) });
     expect(mismatch.file).toMatch(/^masters\//);
-    expect(report.missing.find((m: { sha256: string }) => m.sha256 === gone.sha256)).toMatchObject({ photoIds: [gone.id], file: null });
+    expect(report.missing.find((m: { sha256: string }) => m.sha256 === gone.sha256)).toMatchObject({
+      photoIds: [gone.id],
+      file: null,
+    });
     // The intact masters of this suite pass.
     for (const m of masters) {
       expect(report.mismatches.some((x: { sha256: string }) => x.sha256 === m.photo.sha256)).toBe(false);

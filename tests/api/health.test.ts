@@ -20,7 +20,11 @@ describe('GET /api/health', () => {
   });
 
   it('answers malformed JSON with a 400 in the same shape', async () => {
-    const res = await request(app).post('/api/health').set('Origin', 'http://127.0.0.1:3000').set('Content-Type', 'application/json').send('{oops');
+    const res = await request(app)
+      .post('/api/health')
+      .set('Origin', 'http://127.0.0.1:3000')
+      .set('Content-Type', 'application/json')
+      .send('{oops');
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_json');
   });

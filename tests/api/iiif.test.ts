@@ -21,12 +21,22 @@ let draftPhoto: Photo;
 
 beforeAll(async () => {
   published = await makePiece({
-    status: 'published', title: 'Trellis sample for tiling', description: 'Test piece with three bands.', creditLine: 'Test credit line',
-    dateText: 'about 1780', dateEdtf: '1780~', techniques: ['block printing'], dyestuffs: [{ name: 'madder', evidence: 'identified' }],
+    status: 'published',
+    title: 'Trellis sample for tiling',
+    description: 'Test piece with three bands.',
+    creditLine: 'Test credit line',
+    dateText: 'about 1780',
+    dateEdtf: '1780~',
+    techniques: ['block printing'],
+    dyestuffs: [{ name: 'madder', evidence: 'identified' }],
     historicalMordants: [{ name: 'iron(II) acetate', evidence: 'attributed' }],
   });
   draft = await makePiece({ status: 'draft' });
-  ({ photo, buffer: masterBuffer } = await makePhotoWithMaster(published.id, { width: 1500, height: 1000, regions: [{ x: 100, y: 120, w: 300, h: 200, label: 'pink ground' }] }));
+  ({ photo, buffer: masterBuffer } = await makePhotoWithMaster(published.id, {
+    width: 1500,
+    height: 1000,
+    regions: [{ x: 100, y: 120, w: 300, h: 200, label: 'pink ground' }],
+  }));
   ({ photo: draftPhoto } = await makePhotoWithMaster(draft.id, { width: 600, height: 400 }));
   await sequelize.transaction(async (t) => {
     await enqueueTiles(photo.id, t);
@@ -46,7 +56,10 @@ describe('deep-zoom tiles (IIIF Image API 3, level 0)', () => {
   });
 
   it('serves info.json with this server as id, and a tile that sharp decodes at the size the URL names', async () => {
-    const res = await request(app).get(`/iiif/photos/${photo.id}/info.json`).set('Host', 'archive.example:8080').expect(200);
+    const res = await request(app)
+      .get(`/iiif/photos/${photo.id}/info.json`)
+      .set('Host', 'archive.example:8080')
+      .expect(200);
     const info = JSON.parse(res.text);
     // Required properties per https://iiif.io/api/image/3.0/#51-image-information-request
     expect(info['@context']).toBe('http://iiif.io/api/image/3/context.json');
@@ -59,17 +72,26 @@ describe('deep-zoom tiles (IIIF Image API 3, level 0)', () => {
     expect(res.headers['access-control-allow-origin']).toBe('*');
 
     // Top-left tile at full resolution: region 0,0,512,512 → size 512,512 (Image API 3 §4.1/§4.2).
-    const tile = await request(app).get(`/iiif/photos/${photo.id}/0,0,512,512/512,512/0/default.jpg`).buffer(true).expect(200);
+    const tile = await request(app)
+      .get(`/iiif/photos/${photo.id}/0,0,512,512/512,512/0/default.jpg`)
+      .buffer(true)
+      .expect(200);
     expect(tile.headers['content-type']).toBe('image/jpeg');
     const meta = await sharp(tile.body).metadata();
     expect([meta.format, meta.width, meta.height]).toEqual(['jpeg', 512, 512]);
     // The right-hand edge tile at scale factor 2 covers 1024..1500 → 476 px wide, halved to 238.
-    const edge = await request(app).get(`/iiif/photos/${photo.id}/1024,0,476,1000/238,500/0/default.jpg`).buffer(true).expect(200);
+    const edge = await request(app)
+      .get(`/iiif/photos/${photo.id}/1024,0,476,1000/238,500/0/default.jpg`)
+      .buffer(true)
+      .expect(200);
     const edgeMeta = await sharp(edge.body).metadata();
     expect([edgeMeta.width, edgeMeta.height]).toEqual([238, 500]);
     // The band colours of the master survive: the tile's top-left pixel is the first band's colour (±JPEG error).
     const { data } = await sharp(tile.body).raw().toBuffer({ resolveWithObject: true });
-    const { data: m } = await sharp(masterBuffer).extract({ left: 0, top: 0, width: 1, height: 1 }).raw().toBuffer({ resolveWithObject: true });
+    const { data: m } = await sharp(masterBuffer)
+      .extract({ left: 0, top: 0, width: 1, height: 1 })
+      .raw()
+      .toBuffer({ resolveWithObject: true });
     for (let c = 0; c < 3; c++) expect(Math.abs(data[c] - m[c])).toBeLessThan(12);
   });
 
@@ -112,7 +134,10 @@ describe('deep-zoom tiles (IIIF Image API 3, level 0)', () => {
 
 describe('IIIF Presentation 3 manifest', () => {
   it('describes a published piece with one canvas per photo, a painting annotation with the tile service, and the regions', async () => {
-    const res = await request(app).get(`/iiif/${published.id}/manifest.json`).set('Host', 'archive.example').expect(200);
+    const res = await request(app)
+      .get(`/iiif/${published.id}/manifest.json`)
+      .set('Host', 'archive.example')
+      .expect(200);
     expect(res.headers['content-type']).toMatch(/application\/ld\+json/);
     const m = JSON.parse(res.text);
     // Required structure per https://iiif.io/api/presentation/3.0/#b-example-manifest-response
@@ -121,7 +146,9 @@ describe('IIIF Presentation 3 manifest', () => {
     expect(m.type).toBe('Manifest');
     expect(m.label).toEqual({ en: ['Trellis sample for tiling'] });
     expect(m.summary).toEqual({ en: ['Test piece with three bands.'] });
-    const meta = Object.fromEntries(m.metadata.map((e: { label: { en: string[] }; value: { none: string[] } }) => [e.label.en[0], e.value.none[0]]));
+    const meta = Object.fromEntries(
+      m.metadata.map((e: { label: { en: string[] }; value: { none: string[] } }) => [e.label.en[0], e.value.none[0]]),
+    );
     expect(meta['Accession number']).toBe(published.accessionNumber);
     expect(meta.Date).toBe('about 1780');
     expect(meta.Techniques).toBe('block printing');
@@ -137,13 +164,21 @@ describe('IIIF Presentation 3 manifest', () => {
     const paint = page.items[0];
     expect(paint).toMatchObject({ type: 'Annotation', motivation: 'painting', target: canvas.id });
     expect(paint.body.type).toBe('Image');
-    expect(paint.body.service[0]).toEqual({ id: `http://archive.example/iiif/photos/${photo.id}`, type: 'ImageService3', profile: 'level0' });
+    expect(paint.body.service[0]).toEqual({
+      id: `http://archive.example/iiif/photos/${photo.id}`,
+      type: 'ImageService3',
+      profile: 'level0',
+    });
     // The body's own image file is fetchable from the tile set.
     await request(app).get(new URL(paint.body.id).pathname).expect(200);
 
     const regions = canvas.annotations[0];
     expect(regions.type).toBe('AnnotationPage');
-    expect(regions.items[0]).toMatchObject({ type: 'Annotation', target: `${canvas.id}#xywh=100,120,300,200`, body: { type: 'TextualBody', value: 'pink ground' } });
+    expect(regions.items[0]).toMatchObject({
+      type: 'Annotation',
+      target: `${canvas.id}#xywh=100,120,300,200`,
+      body: { type: 'TextualBody', value: 'pink ground' },
+    });
   });
 
   it('answers 404 to visitors for a draft piece, and shows it to signed-in staff', async () => {

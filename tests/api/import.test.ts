@@ -19,12 +19,18 @@ const countWith = (p: string) => Piece.count({ where: { accessionNumber: { [Op.l
 const HEADER = 'accessionNumber,objectName,title,dateEdtf,dyestuffs,techniques';
 
 // Signs in, sends the file, and checks the status (with the body in the failure message).
-function upload(csv: string | Buffer, opts: { dryRun?: boolean; mapping?: Record<string, string>; as?: 'curator' | 'admin' } = {}) {
+function upload(
+  csv: string | Buffer,
+  opts: { dryRun?: boolean; mapping?: Record<string, string>; as?: 'curator' | 'admin' } = {},
+) {
   const send = async () => {
     const agent = await signedInAgent(app, opts.as ?? 'curator');
     const req = agent.post(`/api/import/pieces${opts.dryRun ? '?dryRun=true' : ''}`).set('Origin', ORIGIN);
     if (opts.mapping) req.field('mapping', JSON.stringify(opts.mapping));
-    return req.attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv, 'utf8'), { filename: 'pieces.csv', contentType: 'text/csv' });
+    return req.attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv, 'utf8'), {
+      filename: 'pieces.csv',
+      contentType: 'text/csv',
+    });
   };
   return {
     expect: async (status: number) => {
@@ -55,15 +61,39 @@ describe('CSV import of pieces', () => {
     const p = prefix();
     const originals = [
       await makePiece({
-        accessionNumber: `${p}.1a-b`, objectName: 'furnishing fabric', title: 'Bed hanging, "pheasant" pattern; with comma, and quote',
-        dateText: '1770–1785', dateEdtf: '1770/1785', earliestYear: 1770, latestYear: 1785, place: 'Calderwick', fibres: ['cotton', 'linen'],
-        weave: 'plain (tabby)', threadCount: '24 × 22 threads/cm', heightMm: 1840, widthMm: 915.5, repeatMm: 412,
+        accessionNumber: `${p}.1a-b`,
+        objectName: 'furnishing fabric',
+        title: 'Bed hanging, "pheasant" pattern; with comma, and quote',
+        dateText: '1770–1785',
+        dateEdtf: '1770/1785',
+        earliestYear: 1770,
+        latestYear: 1785,
+        place: 'Calderwick',
+        fibres: ['cotton', 'linen'],
+        weave: 'plain (tabby)',
+        threadCount: '24 × 22 threads/cm',
+        heightMm: 1840,
+        widthMm: 915.5,
+        repeatMm: 412,
         techniques: ['block printing', 'mordant printing'],
-        dyestuffs: [{ name: 'madder', evidence: 'identified' }, { name: 'weld', evidence: 'attributed' }],
+        dyestuffs: [
+          { name: 'madder', evidence: 'identified' },
+          { name: 'weld', evidence: 'attributed' },
+        ],
         historicalMordants: [{ name: 'lead(II) acetate (sugar of lead)', evidence: 'attributed' }],
-        description: 'Two lines:\nreds and pinks from one madder bath.', provenance: 'Given 1931.', condition: 'Faded fold.', creditLine: 'Gift, 1931', status: 'published',
+        description: 'Two lines:\nreds and pinks from one madder bath.',
+        provenance: 'Given 1931.',
+        condition: 'Faded fold.',
+        creditLine: 'Gift, 1931',
+        status: 'published',
       }),
-      await makePiece({ accessionNumber: `${p}.2`, objectName: 'panel', title: 'Plain panel', fibres: [], status: 'draft' }),
+      await makePiece({
+        accessionNumber: `${p}.2`,
+        objectName: 'panel',
+        title: 'Plain panel',
+        fibres: [],
+        status: 'draft',
+      }),
     ];
     const researcher = await signedInAgent(app, 'researcher');
     const exported = await researcher.get('/api/export/pieces.csv').buffer(true).expect(200);
@@ -78,9 +108,34 @@ describe('CSV import of pieces', () => {
     const res = await upload(csv).expect(201);
     expect(res.body.imported).toBe(2);
 
-    const after = await Piece.findAll({ where: { accessionNumber: { [Op.like]: `${p}%` } }, order: [['accessionNumber', 'ASC']] });
-    const fields = ['accessionNumber', 'objectName', 'title', 'dateText', 'dateEdtf', 'earliestYear', 'latestYear', 'place', 'fibres', 'weave', 'threadCount',
-      'heightMm', 'widthMm', 'repeatMm', 'techniques', 'dyestuffs', 'historicalMordants', 'description', 'provenance', 'condition', 'creditLine', 'status'] as const;
+    const after = await Piece.findAll({
+      where: { accessionNumber: { [Op.like]: `${p}%` } },
+      order: [['accessionNumber', 'ASC']],
+    });
+    const fields = [
+      'accessionNumber',
+      'objectName',
+      'title',
+      'dateText',
+      'dateEdtf',
+      'earliestYear',
+      'latestYear',
+      'place',
+      'fibres',
+      'weave',
+      'threadCount',
+      'heightMm',
+      'widthMm',
+      'repeatMm',
+      'techniques',
+      'dyestuffs',
+      'historicalMordants',
+      'description',
+      'provenance',
+      'condition',
+      'creditLine',
+      'status',
+    ] as const;
     for (const [i, piece] of after.entries()) {
       for (const f of fields) expect([f, piece.get(f)]).toEqual([f, before[i][f]]);
     }
@@ -89,7 +144,9 @@ describe('CSV import of pieces', () => {
   it('round-trips the demo pieces: their CSV export re-imports without errors and with identical dates', async () => {
     // Every export re-imports (issue 14): the demo catalogue holds exact, approximate (1760~ searched as 1755–1765),
     // unspecified (183X) and interval dates. The copies get a prefix so they do not clash with the originals.
-    const demo = JSON.parse(readFileSync(new URL('../../server/seed/data/demo-pieces.json', import.meta.url), 'utf8')) as Array<{ accessionNumber: string }>;
+    const demo = JSON.parse(
+      readFileSync(new URL('../../server/seed/data/demo-pieces.json', import.meta.url), 'utf8'),
+    ) as Array<{ accessionNumber: string }>;
     const originals = await Piece.findAll({ where: { accessionNumber: demo.map((d) => d.accessionNumber) } });
     expect(originals.map((o) => o.dateEdtf)).toContain('1760~');
     const researcher = await signedInAgent(app, 'researcher');
@@ -107,8 +164,17 @@ describe('CSV import of pieces', () => {
     const res = await upload(csv).expect(201);
     expect(res.body.imported).toBe(originals.length);
     const after = await Piece.findAll({ where: { id: res.body.ids } });
-    const dates = (x: Piece) => ({ dateText: x.dateText, dateEdtf: x.dateEdtf, earliestYear: x.earliestYear, latestYear: x.latestYear });
-    for (const copy of after) expect([copy.accessionNumber, dates(copy)]).toEqual([copy.accessionNumber, dates(byNumber.get(copy.accessionNumber.slice(p.length + 1))!)]);
+    const dates = (x: Piece) => ({
+      dateText: x.dateText,
+      dateEdtf: x.dateEdtf,
+      earliestYear: x.earliestYear,
+      latestYear: x.latestYear,
+    });
+    for (const copy of after)
+      expect([copy.accessionNumber, dates(copy)]).toEqual([
+        copy.accessionNumber,
+        dates(byNumber.get(copy.accessionNumber.slice(p.length + 1))!),
+      ]);
 
     // The Dublin Core record carries the same EDTF date (typed as EDTF) and the search years.
     for (const o of originals.filter((x) => x.dateEdtf)) {
@@ -123,10 +189,17 @@ describe('CSV import of pieces', () => {
   it('imports an approximate date with a wider year range, and refuses an invalid calendar date beside the field', async () => {
     const p = prefix();
     const head = 'accessionNumber,objectName,title,dateEdtf,earliestYear,latestYear';
-    const ok = await upload(`${head}\n${p}.1,panel,About 1760,1760~,1755,1765\n${p}.2,panel,Perhaps 1785,1785?/1795,1780,\n`).expect(201);
+    const ok = await upload(
+      `${head}\n${p}.1,panel,About 1760,1760~,1755,1765\n${p}.2,panel,Perhaps 1785,1785?/1795,1780,\n`,
+    ).expect(201);
     const made = await Piece.findAll({ where: { id: ok.body.ids }, order: [['accessionNumber', 'ASC']] });
-    expect(made.map((m) => [m.earliestYear, m.latestYear])).toEqual([[1755, 1765], [1780, 1795]]);
-    const bad = await upload(`${head}\n${p}.3,panel,Bad,1850-02-30,,\n${p}.4,panel,Bad,1851-02-29,,\n${p}.5,panel,Bad,1850-13,,\n${p}.6,panel,Exact,1760,1755,1765\n`).expect(422);
+    expect(made.map((m) => [m.earliestYear, m.latestYear])).toEqual([
+      [1755, 1765],
+      [1780, 1795],
+    ]);
+    const bad = await upload(
+      `${head}\n${p}.3,panel,Bad,1850-02-30,,\n${p}.4,panel,Bad,1851-02-29,,\n${p}.5,panel,Bad,1850-13,,\n${p}.6,panel,Exact,1760,1755,1765\n`,
+    ).expect(422);
     expect(bad.body.error.details.errors).toEqual([
       { line: 2, field: 'dateEdtf', message: 'February 1850 has 28 days; there is no day 30.' },
       { line: 3, field: 'dateEdtf', message: '1851 is not a leap year: February 1851 has 28 days.' },
@@ -136,12 +209,26 @@ describe('CSV import of pieces', () => {
     ]);
   });
 
-  it('maps the file\'s own column names to fields, and fills the years from the EDTF date', async () => {
+  it("maps the file's own column names to fields, and fills the years from the EDTF date", async () => {
     const p = prefix();
     const csv = `Accession No.,Object,Name of piece,Date (EDTF),Ignored\n${p}.1,panel,Indigo panel,18XX,whatever\n`;
-    const res = await upload(csv, { mapping: { 'Accession No.': 'accessionNumber', Object: 'objectName', 'Name of piece': 'title', 'Date (EDTF)': 'dateEdtf', Ignored: '' } }).expect(201);
+    const res = await upload(csv, {
+      mapping: {
+        'Accession No.': 'accessionNumber',
+        Object: 'objectName',
+        'Name of piece': 'title',
+        'Date (EDTF)': 'dateEdtf',
+        Ignored: '',
+      },
+    }).expect(201);
     const piece = await Piece.findByPk(res.body.ids[0]);
-    expect(piece).toMatchObject({ accessionNumber: `${p}.1`, title: 'Indigo panel', earliestYear: 1800, latestYear: 1899, status: 'draft' });
+    expect(piece).toMatchObject({
+      accessionNumber: `${p}.1`,
+      title: 'Indigo panel',
+      earliestYear: 1800,
+      latestYear: 1899,
+      status: 'draft',
+    });
   });
 
   it('previews a dry run with the errors of each row and writes nothing', async () => {
@@ -149,16 +236,26 @@ describe('CSV import of pieces', () => {
     const csv = `${HEADER}\n${p}.1,panel,Good,1780,madder (identified),resist\n${p}.2,panel,Bad date,around 1780,,\n${p}.3,panel,Bad dye,,woad; unobtainium,block printing\n`;
     const res = await upload(csv, { dryRun: true }).expect(200);
     expect(res.body).toMatchObject({ dryRun: true, rows: 3, valid: 1, invalid: 2 });
-    expect(res.body.items.map((r: { line: number; errors: unknown[] }) => [r.line, r.errors.length])).toEqual([[2, 0], [3, 1], [4, 1]]);
+    expect(res.body.items.map((r: { line: number; errors: unknown[] }) => [r.line, r.errors.length])).toEqual([
+      [2, 0],
+      [3, 1],
+      [4, 1],
+    ]);
     expect(res.body.items[1].errors[0]).toMatchObject({ line: 3, field: 'dateEdtf' });
-    expect(res.body.items[2].errors[0]).toMatchObject({ line: 4, field: 'dyestuffs', message: 'Unknown dyestuff "unobtainium".' });
+    expect(res.body.items[2].errors[0]).toMatchObject({
+      line: 4,
+      field: 'dyestuffs',
+      message: 'Unknown dyestuff "unobtainium".',
+    });
     expect(await countWith(p)).toBe(0);
   });
 
   it('refuses a file missing a required column (422, line 1) and imports nothing', async () => {
     const p = prefix();
     const res = await upload(`accessionNumber,objectName\n${p}.1,panel\n`).expect(422);
-    expect(res.body.error.details.errors).toEqual([{ line: 1, field: 'title', message: expect.stringMatching(/required column Title/) }]);
+    expect(res.body.error.details.errors).toEqual([
+      { line: 1, field: 'title', message: expect.stringMatching(/required column Title/) },
+    ]);
     expect(await countWith(p)).toBe(0);
   });
 
@@ -171,7 +268,11 @@ describe('CSV import of pieces', () => {
     expect(res.body.error.details.errors).toEqual([
       { line: 3, field: 'accessionNumber', message: 'Accession number 1931.4.12 is already in the archive.' },
       { line: 4, field: 'accessionNumber', message: `Accession number ${p}.1 is also on line 2 of this file.` },
-      { line: 5, field: 'accessionNumber', message: `Accession number ${p.toLowerCase().replace('.', '. ')}.1 is also on line 2 of this file.` },
+      {
+        line: 5,
+        field: 'accessionNumber',
+        message: `Accession number ${p.toLowerCase().replace('.', '. ')}.1 is also on line 2 of this file.`,
+      },
     ]);
     expect(await countWith(p)).toBe(0);
   });
@@ -191,16 +292,26 @@ describe('CSV import of pieces', () => {
 
   it('accepts UTF-8 with a byte-order mark and non-Latin text', async () => {
     const p = prefix();
-    const res = await upload(Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(`${HEADER}\n${p}.1,panel,"Kalamkari — ""तोता"" motif",,,\n`)])).expect(201);
+    const res = await upload(
+      Buffer.concat([
+        Buffer.from([0xef, 0xbb, 0xbf]),
+        Buffer.from(`${HEADER}\n${p}.1,panel,"Kalamkari — ""तोता"" motif",,,\n`),
+      ]),
+    ).expect(201);
     expect((await Piece.findByPk(res.body.ids[0]))?.title).toBe('Kalamkari — "तोता" motif');
   });
 
-  it('imports nothing when 1 row among 1,000 is bad, and names that row\'s line', async () => {
+  it("imports nothing when 1 row among 1,000 is bad, and names that row's line", async () => {
     const p = prefix();
     const lines = [HEADER];
-    for (let i = 1; i <= 1000; i++) lines.push(`${p}.${i},fragment,Sample ${i},1800/1850,${i === 637 ? 'madder; unobtainium' : 'madder'},block printing`);
+    for (let i = 1; i <= 1000; i++)
+      lines.push(
+        `${p}.${i},fragment,Sample ${i},1800/1850,${i === 637 ? 'madder; unobtainium' : 'madder'},block printing`,
+      );
     const res = await upload(`${lines.join('\n')}\n`).expect(422);
-    expect(res.body.error.details.errors).toEqual([{ line: 638, field: 'dyestuffs', message: 'Unknown dyestuff "unobtainium".' }]);
+    expect(res.body.error.details.errors).toEqual([
+      { line: 638, field: 'dyestuffs', message: 'Unknown dyestuff "unobtainium".' },
+    ]);
     expect(await countWith(p)).toBe(0);
     // The same file without the bad cell imports all 1,000 rows in one go.
     lines[637] = lines[637].replace('madder; unobtainium', 'madder');
@@ -213,16 +324,26 @@ describe('CSV import of pieces', () => {
     const p = prefix();
     const csv = `${HEADER}\n${p}.1,panel,"Title over\ntwo lines",,,\n${p}.2,,Missing object name,,,\n`;
     const res = await upload(csv).expect(422);
-    expect(res.body.error.details.errors).toEqual([{ line: 4, field: 'objectName', message: 'Object name is required.' }]);
+    expect(res.body.error.details.errors).toEqual([
+      { line: 4, field: 'objectName', message: 'Object name is required.' },
+    ]);
   });
 
   it('lets curators and admins import; researchers, dyers and visitors may not', async () => {
     const csv = `${HEADER}\n${prefix()}.1,panel,Role check,,,\n`;
     for (const role of ['researcher', 'dyer'] as const) {
       const agent = await signedInAgent(app, role);
-      await agent.post('/api/import/pieces').set('Origin', ORIGIN).attach('file', Buffer.from(csv), 'p.csv').expect(403);
+      await agent
+        .post('/api/import/pieces')
+        .set('Origin', ORIGIN)
+        .attach('file', Buffer.from(csv), 'p.csv')
+        .expect(403);
     }
-    await request(app).post('/api/import/pieces').set('Origin', ORIGIN).attach('file', Buffer.from(csv), 'p.csv').expect(401);
+    await request(app)
+      .post('/api/import/pieces')
+      .set('Origin', ORIGIN)
+      .attach('file', Buffer.from(csv), 'p.csv')
+      .expect(401);
     await upload(csv, { as: 'admin', dryRun: true }).expect(200);
     const curator = await signedInAgent(app, 'curator');
     await curator.post('/api/import/pieces').attach('file', Buffer.from(csv), 'p.csv').expect(403);

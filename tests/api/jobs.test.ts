@@ -4,7 +4,13 @@ import { Op } from 'sequelize';
 import { createSequelize } from '../../server/db/sequelize.ts';
 import { Job, sequelize } from '../../server/models/index.ts';
 // The queue's own tests use throwaway kinds outside the typed map, hence enqueueUntyped.
-import { claim, enqueue as enqueueTyped, enqueueUntyped as enqueue, requeueStale, PermanentJobError } from '../../server/jobs/queue.ts';
+import {
+  claim,
+  enqueue as enqueueTyped,
+  enqueueUntyped as enqueue,
+  requeueStale,
+  PermanentJobError,
+} from '../../server/jobs/queue.ts';
 import { checkPayload, registerHandler } from '../../server/jobs/registry.ts';
 import { drain, runOnce } from '../../server/jobs/worker.ts';
 
@@ -48,7 +54,9 @@ describe('job queue', () => {
   it('never returns the same job to simultaneous raw claims from two connections', async () => {
     const type = uniqueType('claims');
     for (let i = 0; i < 5; i++) await enqueue({ type });
-    const claims = await Promise.all(Array.from({ length: 12 }, (_, i) => claim(`w${i}`, { db: i % 2 ? serverA : serverB, types: [type] })));
+    const claims = await Promise.all(
+      Array.from({ length: 12 }, (_, i) => claim(`w${i}`, { db: i % 2 ? serverA : serverB, types: [type] })),
+    );
     const got = claims.filter((c) => c !== null).map((c) => c!.id);
     expect(got).toHaveLength(5);
     expect(new Set(got).size).toBe(5);
@@ -122,12 +130,15 @@ describe('job queue', () => {
 });
 
 describe('typed job payloads (shared/schemas/jobs.ts jobPayloads)', () => {
-  it('checks a known kind\'s payload: a good one passes, a bad one is refused with each field named', () => {
+  it("checks a known kind's payload: a good one passes, a bad one is refused with each field named", () => {
     expect(checkPayload('tile-photo', { photoId: 7 })).toEqual({ ok: true, payload: { photoId: 7 } });
     expect(checkPayload('fixity-check', {})).toEqual({ ok: true, payload: {} });
     const bad = checkPayload('tile-photo', { photoId: 'seven' });
     expect(bad.ok).toBe(false);
-    if (!bad.ok) expect(bad.reason).toMatch(/^The job's payload is not valid for a tile-photo job \(photoId: .+\), so it was not run\.$/);
+    if (!bad.ok)
+      expect(bad.reason).toMatch(
+        /^The job's payload is not valid for a tile-photo job \(photoId: .+\), so it was not run\.$/,
+      );
     const missing = checkPayload('tile-photo', null);
     expect(missing.ok).toBe(false);
     // Kinds outside the map pass as they are.
@@ -147,8 +158,19 @@ describe('typed job payloads (shared/schemas/jobs.ts jobPayloads)', () => {
   it('fails a claimed job whose stored payload is malformed, at once and with the reason, without running its handler', async () => {
     // Written past enqueue() (as an old row or a hand edit might be); due long ago, so it is the first tile job claimed.
     const job = await Job.create({
-      type: 'tile-photo', payload: { photoId: 'not-a-number' }, subjectType: null, subjectId: null, maxAttempts: 3, error: null, result: null,
-      lockedBy: null, lockedAt: null, runAfter: new Date('2000-01-01T00:00:00Z'), startedAt: null, finishedAt: null, createdById: null,
+      type: 'tile-photo',
+      payload: { photoId: 'not-a-number' },
+      subjectType: null,
+      subjectId: null,
+      maxAttempts: 3,
+      error: null,
+      result: null,
+      lockedBy: null,
+      lockedAt: null,
+      runAfter: new Date('2000-01-01T00:00:00Z'),
+      startedAt: null,
+      finishedAt: null,
+      createdById: null,
     });
     try {
       expect(await runOnce({ types: ['tile-photo'] })).toBe(job.id);

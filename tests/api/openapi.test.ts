@@ -23,26 +23,66 @@ describe('GET /api/openapi.json', () => {
 
   it('describes itself', async () => {
     const res = await request(app).get('/api/openapi.json').expect(200);
-    expect(res.body.paths['/api/openapi.json'].get).toMatchObject({ 'x-roles': 'anyone', responses: { 200: expect.any(Object), 404: expect.any(Object) } });
+    expect(res.body.paths['/api/openapi.json'].get).toMatchObject({
+      'x-roles': 'anyone',
+      responses: { 200: expect.any(Object), 404: expect.any(Object) },
+    });
   });
 
   // Fails until every route group has its contract file (server/openapi/groups/); lists the routes still missing.
   it('has a contract for every registered /api route, and none for a route that does not exist', () => {
     const doc = buildOpenApiDocument();
-    const documented = Object.entries(doc.paths).flatMap(([p, ops]) => Object.keys(ops).map((m) => `${m.toUpperCase()} ${p.replace(/\{(\w+)\}/g, ':$1')}`));
+    const documented = Object.entries(doc.paths).flatMap(([p, ops]) =>
+      Object.keys(ops).map((m) => `${m.toUpperCase()} ${p.replace(/\{(\w+)\}/g, ':$1')}`),
+    );
     const registered = registeredApiRoutes(app);
-    expect(documented.filter((r) => !registered.includes(r)), 'documented but not registered').toEqual([]);
-    expect(registered.filter((r) => !documented.includes(r)), 'registered /api routes without a contract').toEqual([]);
+    expect(
+      documented.filter((r) => !registered.includes(r)),
+      'documented but not registered',
+    ).toEqual([]);
+    expect(
+      registered.filter((r) => !documented.includes(r)),
+      'registered /api routes without a contract',
+    ).toEqual([]);
   });
 });
 
 describe('the document from contracts', () => {
   const thing = z.object({ id: z.number().int(), name: z.string(), seenAt: z.iso.datetime().nullable() });
   const group = defineRoutes('things', [
-    { method: 'get', path: '/api/things', summary: 'List', roles: 'anyone', query: z.object({ page: z.coerce.number().int().min(1).default(1), q: z.string().optional() }), responses: { 200: z.object({ items: z.array(thing) }) } },
-    { method: 'patch', path: '/api/things/:id', summary: 'Edit', roles: 'curator, admin', params: z.object({ id: z.coerce.number().int() }), body: z.object({ name: z.string() }), responses: { 200: thing } },
-    { method: 'get', path: '/api/things/:id/label.pdf', summary: 'Label', roles: 'anyone', params: z.object({ id: z.coerce.number().int() }), responses: { 200: { contentType: 'application/pdf', description: 'A PDF label' } } },
-    { method: 'delete', path: '/api/things/:id', summary: 'Delete', roles: 'admin', params: z.object({ id: z.coerce.number().int() }), responses: { 204: null } },
+    {
+      method: 'get',
+      path: '/api/things',
+      summary: 'List',
+      roles: 'anyone',
+      query: z.object({ page: z.coerce.number().int().min(1).default(1), q: z.string().optional() }),
+      responses: { 200: z.object({ items: z.array(thing) }) },
+    },
+    {
+      method: 'patch',
+      path: '/api/things/:id',
+      summary: 'Edit',
+      roles: 'curator, admin',
+      params: z.object({ id: z.coerce.number().int() }),
+      body: z.object({ name: z.string() }),
+      responses: { 200: thing },
+    },
+    {
+      method: 'get',
+      path: '/api/things/:id/label.pdf',
+      summary: 'Label',
+      roles: 'anyone',
+      params: z.object({ id: z.coerce.number().int() }),
+      responses: { 200: { contentType: 'application/pdf', description: 'A PDF label' } },
+    },
+    {
+      method: 'delete',
+      path: '/api/things/:id',
+      summary: 'Delete',
+      roles: 'admin',
+      params: z.object({ id: z.coerce.number().int() }),
+      responses: { 204: null },
+    },
   ]);
   const doc = buildOpenApiDocument([group]);
 
@@ -53,14 +93,28 @@ describe('the document from contracts', () => {
       expect.objectContaining({ name: 'page', in: 'query', required: false }),
       expect.objectContaining({ name: 'q', in: 'query', required: false }),
     ]);
-    const edit = doc.paths['/api/things/{id}'].patch as { parameters: unknown[]; requestBody: unknown; responses: Record<string, unknown>; 'x-roles': string };
+    const edit = doc.paths['/api/things/{id}'].patch as {
+      parameters: unknown[];
+      requestBody: unknown;
+      responses: Record<string, unknown>;
+      'x-roles': string;
+    };
     expect(edit['x-roles']).toBe('curator, admin');
     expect(edit.parameters).toEqual([expect.objectContaining({ name: 'id', in: 'path', required: true })]);
-    expect(edit.requestBody).toMatchObject({ required: true, content: { 'application/json': { schema: { type: 'object', required: ['name'] } } } });
+    expect(edit.requestBody).toMatchObject({
+      required: true,
+      content: { 'application/json': { schema: { type: 'object', required: ['name'] } } },
+    });
     expect(Object.keys(edit.responses).sort()).toEqual(['200', '400', '401', '403', '404', '409', '422']);
-    expect(edit.responses[400]).toMatchObject({ content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } });
-    expect((doc.paths['/api/things/{id}/label.pdf'].get as { responses: Record<string, unknown> }).responses[200]).toMatchObject({ content: { 'application/pdf': expect.any(Object) } });
-    expect((doc.paths['/api/things/{id}'].delete as { responses: Record<string, unknown> }).responses[204]).toEqual({ description: 'No content' });
+    expect(edit.responses[400]).toMatchObject({
+      content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } },
+    });
+    expect(
+      (doc.paths['/api/things/{id}/label.pdf'].get as { responses: Record<string, unknown> }).responses[200],
+    ).toMatchObject({ content: { 'application/pdf': expect.any(Object) } });
+    expect((doc.paths['/api/things/{id}'].delete as { responses: Record<string, unknown> }).responses[204]).toEqual({
+      description: 'No content',
+    });
     const result = await new Validator().validate(JSON.parse(JSON.stringify(doc)));
     expect(result.valid, JSON.stringify(result.errors)).toBe(true);
   });
@@ -68,8 +122,20 @@ describe('the document from contracts', () => {
 
 describe('contract check (tests only)', () => {
   const group = defineRoutes('things', [
-    { method: 'get', path: '/api/things/:id', summary: 'One', roles: 'anyone', responses: { 200: z.object({ id: z.number(), at: z.iso.datetime() }) } },
-    { method: 'get', path: '/api/things/:id/parts', summary: 'Parts', roles: 'anyone', responses: { 200: z.object({ parts: z.array(z.string()) }) } },
+    {
+      method: 'get',
+      path: '/api/things/:id',
+      summary: 'One',
+      roles: 'anyone',
+      responses: { 200: z.object({ id: z.number(), at: z.iso.datetime() }) },
+    },
+    {
+      method: 'get',
+      path: '/api/things/:id/parts',
+      summary: 'Parts',
+      roles: 'anyone',
+      responses: { 200: z.object({ parts: z.array(z.string()) }) },
+    },
   ]);
   const mini = express();
   mini.use('/api', contractCheck([group]));

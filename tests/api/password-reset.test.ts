@@ -29,7 +29,8 @@ describe('password reset by e-mail', () => {
   it('limits requests per address and per IP address, the same for known and unknown addresses', async () => {
     // A fresh app: its own counters, so the other tests here are not affected.
     const limited = createApp();
-    const ask = (email: string) => request(limited).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email });
+    const ask = (email: string) =>
+      request(limited).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email });
     const email = await member();
     for (let i = 0; i < RESET_LIMITS.perEmail; i++) await ask(i % 2 ? email : email.toUpperCase()).expect(202);
     const refused = await ask(email).expect(429);
@@ -41,11 +42,13 @@ describe('password reset by e-mail', () => {
     await ask(unknown).expect(429);
     // Other addresses get through until the per-IP limit (the refused requests counted too).
     const used = 2 * (RESET_LIMITS.perEmail + 1);
-    for (let i = used; i < RESET_LIMITS.perIp; i++) await ask(`other-${i}-${Date.now().toString(36)}@reset.test`).expect(202);
+    for (let i = used; i < RESET_LIMITS.perIp; i++)
+      await ask(`other-${i}-${Date.now().toString(36)}@reset.test`).expect(202);
     await ask(`one-more-${Date.now().toString(36)}@reset.test`).expect(429);
     // The known address got one mail per accepted request, none for the refused one.
     await waitForMail(email);
-    for (let i = 0; i < 50 && (await mailsTo(email)) < RESET_LIMITS.perEmail; i++) await new Promise((r) => setTimeout(r, 100));
+    for (let i = 0; i < 50 && (await mailsTo(email)) < RESET_LIMITS.perEmail; i++)
+      await new Promise((r) => setTimeout(r, 100));
     await new Promise((r) => setTimeout(r, 300));
     expect(await mailsTo(email)).toBe(RESET_LIMITS.perEmail);
   });
@@ -53,13 +56,21 @@ describe('password reset by e-mail', () => {
   it('answers 202 for a known and an unknown address alike, and mails only the known one', async () => {
     const email = await member();
     const known = await request(app).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email }).expect(202);
-    const unknown = await request(app).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email: 'nobody-here@reset.test' }).expect(202);
+    const unknown = await request(app)
+      .post('/api/auth/password-reset')
+      .set('Origin', ORIGIN)
+      .send({ email: 'nobody-here@reset.test' })
+      .expect(202);
     expect(known.body).toEqual(unknown.body);
     const message = await waitForMail(email);
     expect(message.subject).toMatch(/Tinctoria/);
     expect(message.html).toMatch(/reset-password\//);
     expect(await newestMailTo('nobody-here@reset.test')).toBeNull();
-    await request(app).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email: 'not an address' }).expect(400);
+    await request(app)
+      .post('/api/auth/password-reset')
+      .set('Origin', ORIGIN)
+      .send({ email: 'not an address' })
+      .expect(400);
   });
 
   it('sets a new password once, ends the old sessions, and refuses the link a second time', async () => {
@@ -68,19 +79,39 @@ describe('password reset by e-mail', () => {
     await request(app).post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email }).expect(202);
     const token = tokenFrom(await waitForMail(email), 'reset-password');
 
-    await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'short' }).expect(400);
+    await request(app)
+      .post(`/api/auth/password-reset/${token}`)
+      .set('Origin', ORIGIN)
+      .send({ password: 'short' })
+      .expect(400);
     // The page checks the link when it opens.
     await request(app).get(`/api/auth/password-reset/${token}`).expect(200);
-    await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'the-new-password' }).expect(204);
+    await request(app)
+      .post(`/api/auth/password-reset/${token}`)
+      .set('Origin', ORIGIN)
+      .send({ password: 'the-new-password' })
+      .expect(204);
     await old.get('/api/auth/me').expect(401);
-    await request(app).post('/api/auth/login').set('Origin', ORIGIN).send({ email, password: 'the-old-password' }).expect(401);
+    await request(app)
+      .post('/api/auth/login')
+      .set('Origin', ORIGIN)
+      .send({ email, password: 'the-old-password' })
+      .expect(401);
     await signedInAgent(app, { email, password: 'the-new-password' });
 
-    const reused = await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'a-third-password' }).expect(410);
+    const reused = await request(app)
+      .post(`/api/auth/password-reset/${token}`)
+      .set('Origin', ORIGIN)
+      .send({ password: 'a-third-password' })
+      .expect(410);
     expect(reused.body.error.code).toBe('token_used');
     const opened = await request(app).get(`/api/auth/password-reset/${token}`).expect(410);
-    expect(opened.body.error.message).toBe('This link has already been used (or a newer one was sent). Sign in with your password, or ask for a new link.');
-    const unknown = await request(app).get(`/api/auth/password-reset/${'C'.repeat(43)}`).expect(404);
+    expect(opened.body.error.message).toBe(
+      'This link has already been used (or a newer one was sent). Sign in with your password, or ask for a new link.',
+    );
+    const unknown = await request(app)
+      .get(`/api/auth/password-reset/${'C'.repeat(43)}`)
+      .expect(404);
     expect(unknown.body.error.message).toMatch(/^This link is not valid/);
   });
 
@@ -92,7 +123,11 @@ describe('password reset by e-mail', () => {
     // Two hours (see TOKEN_TTL_MS).
     expect(Math.abs(stored!.expiresAt.getTime() - stored!.createdAt.getTime() - 2 * 3600_000)).toBeLessThan(1000);
     await stored!.update({ expiresAt: new Date(Date.now() - 1000) });
-    const res = await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'the-new-password' }).expect(410);
+    const res = await request(app)
+      .post(`/api/auth/password-reset/${token}`)
+      .set('Origin', ORIGIN)
+      .send({ password: 'the-new-password' })
+      .expect(410);
     expect(res.body.error.code).toBe('token_expired');
     expect(res.body.error.message).toBe('This link has expired: reset links work for 2 hours. Ask for a new one.');
     await signedInAgent(app, { email, password: 'the-old-password' });
@@ -103,6 +138,10 @@ describe('password reset by e-mail', () => {
     const email = `swap-${Date.now().toString(36)}@reset.test`;
     await admin.post('/api/invitations').set('Origin', ORIGIN).send({ email, role: 'dyer' }).expect(201);
     const token = tokenFrom(await waitForMail(email), 'join');
-    await request(app).post(`/api/auth/password-reset/${token}`).set('Origin', ORIGIN).send({ password: 'the-new-password' }).expect(404);
+    await request(app)
+      .post(`/api/auth/password-reset/${token}`)
+      .set('Origin', ORIGIN)
+      .send({ password: 'the-new-password' })
+      .expect(404);
   });
 });

@@ -16,21 +16,36 @@ beforeAll(async () => {
 });
 afterAll(() => sequelize.close());
 
-const shareSum = (palette: { share: number; background: boolean }[]) => palette.filter((c) => !c.background).reduce((s, c) => s + c.share, 0);
+const shareSum = (palette: { share: number; background: boolean }[]) =>
+  palette.filter((c) => !c.background).reduce((s, c) => s + c.share, 0);
 
 describe('photo upload', () => {
   it('stores a photo and answers its size, fixity, EXIF, palette and URLs; GPS only for curators and admins', async () => {
     const curator = await signedInAgent(app, 'curator');
-    const res = await curator.post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'recto.jpg').expect(201);
+    const res = await curator
+      .post(`/api/pieces/${pieceId}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', jpeg, 'recto.jpg')
+      .expect(201);
     const [photo] = res.body.photos;
-    expect(photo).toMatchObject({ width: 480, height: 320, urls: { thumb: `/media/photos/${photo.id}/thumb`, display: expect.any(String), master: expect.any(String) } });
+    expect(photo).toMatchObject({
+      width: 480,
+      height: 320,
+      urls: { thumb: `/media/photos/${photo.id}/thumb`, display: expect.any(String), master: expect.any(String) },
+    });
     expect(photo.sha256).toMatch(/^[0-9a-f]{64}$/);
     expect(photo.exif).toMatchObject({ make: 'Weldfold', model: 'Copy Stand 2' });
     // Latitude 54° 30′ N, longitude 2° 15′ W as written into the test file above.
     expect(photo.gps).toEqual({ latitude: 54.5, longitude: -2.25 });
     expect(photo.palette.length).toBeGreaterThan(0);
     expect(shareSum(photo.palette)).toBeCloseTo(1, 6);
-    expect(photo.palette[0]).toMatchObject({ hex: expect.stringMatching(/^#[0-9a-f]{6}$/), lab: { L: expect.any(Number), a: expect.any(Number), b: expect.any(Number) }, source: 'image-estimate', illuminant: 'D65', observer: '2' });
+    expect(photo.palette[0]).toMatchObject({
+      hex: expect.stringMatching(/^#[0-9a-f]{6}$/),
+      lab: { L: expect.any(Number), a: expect.any(Number), b: expect.any(Number) },
+      source: 'image-estimate',
+      illuminant: 'D65',
+      observer: '2',
+    });
 
     const researcher = await signedInAgent(app, 'researcher');
     const seen = await researcher.get(`/api/pieces/${pieceId}`).expect(200);
@@ -44,7 +59,13 @@ describe('photo upload', () => {
   it('serves media by role: drafts to signed-in users only, masters with GPS only to curators and admins', async () => {
     const curator = await signedInAgent(app, 'curator');
     const piece = await makePiece({ status: 'draft' });
-    const photo = (await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'a.jpg').expect(201)).body.photos[0];
+    const photo = (
+      await curator
+        .post(`/api/pieces/${piece.id}/photos`)
+        .set('Origin', ORIGIN)
+        .attach('photo', jpeg, 'a.jpg')
+        .expect(201)
+    ).body.photos[0];
     const thumb = await curator.get(photo.urls.thumb).buffer(true).expect(200);
     expect(thumb.headers['content-type']).toBe('image/webp');
     const meta = await sharp(thumb.body).metadata();
@@ -59,7 +80,9 @@ describe('photo upload', () => {
     await request(app).get(photo.urls.display).expect(200);
     // Masters are for signed-in users (and, carrying GPS, for curators and admins): nobody is given a link they cannot follow.
     await request(app).get(photo.urls.master).expect(401);
-    expect((await request(app).get(`/api/pieces/${piece.id}`).expect(200)).body.photos[0].urls).not.toHaveProperty('master');
+    expect((await request(app).get(`/api/pieces/${piece.id}`).expect(200)).body.photos[0].urls).not.toHaveProperty(
+      'master',
+    );
     const researcher = await signedInAgent(app, 'researcher');
     await researcher.get(photo.urls.master).expect(404);
     expect((await researcher.get(`/api/photos/${photo.id}`).expect(200)).body.photo.urls).not.toHaveProperty('master');
@@ -68,11 +91,27 @@ describe('photo upload', () => {
   });
 
   it('lets only curators and admins upload', async () => {
-    await request(app).post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'x.jpg').expect(401);
+    await request(app)
+      .post(`/api/pieces/${pieceId}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', jpeg, 'x.jpg')
+      .expect(401);
     for (const role of ['researcher', 'dyer'] as const) {
-      await (await signedInAgent(app, role)).post(`/api/pieces/${pieceId}/photos`).set('Origin', ORIGIN).attach('photo', jpeg, 'x.jpg').expect(403);
+      await (
+        await signedInAgent(app, role)
+      )
+        .post(`/api/pieces/${pieceId}/photos`)
+        .set('Origin', ORIGIN)
+        .attach('photo', jpeg, 'x.jpg')
+        .expect(403);
     }
-    await (await signedInAgent(app, 'curator')).post('/api/pieces/999999999/photos').set('Origin', ORIGIN).attach('photo', jpeg, 'x.jpg').expect(404);
+    await (
+      await signedInAgent(app, 'curator')
+    )
+      .post('/api/pieces/999999999/photos')
+      .set('Origin', ORIGIN)
+      .attach('photo', jpeg, 'x.jpg')
+      .expect(404);
   });
 });
 
@@ -88,7 +127,11 @@ describe('refused uploads leave nothing behind', () => {
     const curator = await signedInAgent(app, 'curator');
     const piece = await makePiece();
     const before = await uploadedFiles();
-    const res = await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', await make(), filename).expect(status);
+    const res = await curator
+      .post(`/api/pieces/${piece.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', await make(), filename)
+      .expect(status);
     expect(res.body.error.message).toContain(filename);
     expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
     expect(await uploadedFiles()).toEqual(before);
@@ -97,7 +140,11 @@ describe('refused uploads leave nothing behind', () => {
   it('answers an unknown field name with a clear 400, and no file with 400', async () => {
     const curator = await signedInAgent(app, 'curator');
     const piece = await makePiece();
-    const res = await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('image', jpeg, 'x.jpg').expect(400);
+    const res = await curator
+      .post(`/api/pieces/${piece.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('image', jpeg, 'x.jpg')
+      .expect(400);
     expect(res.body.error.message).toMatch(/"photo"/);
     await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).field('note', 'nothing').expect(400);
     expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
@@ -108,7 +155,11 @@ describe('refused uploads leave nothing behind', () => {
     const piece = await makePiece();
     const before = await uploadedFiles();
     const big = Buffer.concat([jpeg, Buffer.alloc(60 * 1024 * 1024 + 1 - jpeg.length)]);
-    const res = await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', big, 'huge.jpg').expect(413);
+    const res = await curator
+      .post(`/api/pieces/${piece.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', big, 'huge.jpg')
+      .expect(413);
     expect(res.body.error.code).toBe('too_large');
     expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
     expect(await uploadedFiles()).toEqual(before);

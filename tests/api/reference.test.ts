@@ -51,7 +51,11 @@ describe('GET /api/chemicals', () => {
       checked++;
       expect(Math.abs(row.molarMass! - ref.molar_mass_g_per_mol), ref.formula).toBeLessThanOrEqual(0.5e-3);
       if (row.metal && ref.metal_mass_fraction[row.metal as keyof typeof ref.metal_mass_fraction] !== undefined) {
-        expect(Math.abs(row.metalMassFraction! - ref.metal_mass_fraction[row.metal as keyof typeof ref.metal_mass_fraction]!)).toBeLessThanOrEqual(0.5e-6);
+        expect(
+          Math.abs(
+            row.metalMassFraction! - ref.metal_mass_fraction[row.metal as keyof typeof ref.metal_mass_fraction]!,
+          ),
+        ).toBeLessThanOrEqual(0.5e-6);
       }
     }
     expect(checked).toBeGreaterThanOrEqual(10);
@@ -60,7 +64,19 @@ describe('GET /api/chemicals', () => {
     expect(lead.ghs.hStatements.length).toBeGreaterThan(0);
     expect(lead.ghs.source).toEqual(expect.any(String));
     expect(Object.keys(lead).sort()).toEqual(
-      ['atomicWeightsSource', 'formula', 'ghs', 'id', 'metal', 'metalMassFraction', 'molarMass', 'name', 'role', 'source', 'status'].sort(),
+      [
+        'atomicWeightsSource',
+        'formula',
+        'ghs',
+        'id',
+        'metal',
+        'metalMassFraction',
+        'molarMass',
+        'name',
+        'role',
+        'source',
+        'status',
+      ].sort(),
     );
     const guar = items.find((c) => c.name === 'guar gum');
     if (guar) expect(guar).toMatchObject({ formula: null, molarMass: null, metalMassFraction: null });
@@ -111,11 +127,14 @@ describe('GET /api/dyestuffs', () => {
 describe('reference role matrix', () => {
   // reference:read is open to every role and to signed-out visitors.
   const routes = ['/api/chemicals', '/api/dyestuffs'];
-  it.each([null, 'admin', 'curator', 'researcher', 'dyer'] as Array<DemoRole | null>)('%s may read the reference', async (role) => {
-    const agent = role ? await signedInAgent(app, role) : request.agent(app);
-    for (const r of routes) await agent.get(r).expect(200);
-    await agent.get(`/api/chemicals/${made.id}`).expect(200);
-  });
+  it.each([null, 'admin', 'curator', 'researcher', 'dyer'] as Array<DemoRole | null>)(
+    '%s may read the reference',
+    async (role) => {
+      const agent = role ? await signedInAgent(app, role) : request.agent(app);
+      for (const r of routes) await agent.get(r).expect(200);
+      await agent.get(`/api/chemicals/${made.id}`).expect(200);
+    },
+  );
 });
 
 describe('PATCH /api/chemicals/:id (admin keeps the reference)', () => {
@@ -130,26 +149,52 @@ describe('PATCH /api/chemicals/:id (admin keeps the reference)', () => {
     expect(res.body.molarMass).toBeCloseTo(379.333, 3);
     expect(res.body.metalMassFraction).toBeCloseTo(0.546222, 6);
     expect(res.body.ghs.hStatements).toEqual(['H360Df May damage the unborn child.']);
-    const audit = await AuditEvent.findOne({ where: { entity: 'chemical', entityId: made.id }, order: [['id', 'DESC']] });
-    expect(audit?.changes).toMatchObject({ formula: { from: 'K2Cr2O7', to: 'Pb(CH3COO)2·3H2O' }, metal: { from: 'Cr', to: 'Pb' } });
+    const audit = await AuditEvent.findOne({
+      where: { entity: 'chemical', entityId: made.id },
+      order: [['id', 'DESC']],
+    });
+    expect(audit?.changes).toMatchObject({
+      formula: { from: 'K2Cr2O7', to: 'Pb(CH3COO)2·3H2O' },
+      metal: { from: 'Cr', to: 'Pb' },
+    });
   });
 
   it('refuses a formula that does not parse, with the field named', async () => {
     const admin = await signedInAgent(app, 'admin');
-    const res = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ formula: 'KAl(SO4' }).expect(400);
+    const res = await admin
+      .patch(`/api/chemicals/${made.id}`)
+      .set('Origin', ORIGIN)
+      .send({ formula: 'KAl(SO4' })
+      .expect(400);
     expect(res.body.error.details.fields).toHaveProperty('formula');
     await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({}).expect(400);
-    const at = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ formula: 'CaSO4.0.5H2O!' }).expect(400);
+    const at = await admin
+      .patch(`/api/chemicals/${made.id}`)
+      .set('Origin', ORIGIN)
+      .send({ formula: 'CaSO4.0.5H2O!' })
+      .expect(400);
     expect(at.body.error.details.fields.formula[0]).toMatch(/^Unexpected "!" at position 13\./);
     // The row's metal (Pb after the edit above) must occur in a new formula.
-    const metal = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ formula: 'K2Cr2O7' }).expect(400);
+    const metal = await admin
+      .patch(`/api/chemicals/${made.id}`)
+      .set('Origin', ORIGIN)
+      .send({ formula: 'K2Cr2O7' })
+      .expect(400);
     expect(metal.body.error.details.fields.formula).toEqual(['The formula has no Pb']);
-    const taken = await admin.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ name: 'potash alum' }).expect(409);
+    const taken = await admin
+      .patch(`/api/chemicals/${made.id}`)
+      .set('Origin', ORIGIN)
+      .send({ name: 'potash alum' })
+      .expect(409);
     expect(taken.body.error.details.fields.name).toEqual(['A chemical with this name already exists']);
   });
 
   it('answers 401 signed out, 403 for other roles, 403 without the Origin header, 404 for a missing row', async () => {
-    await request(app).patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ status: 'permitted' }).expect(401);
+    await request(app)
+      .patch(`/api/chemicals/${made.id}`)
+      .set('Origin', ORIGIN)
+      .send({ status: 'permitted' })
+      .expect(401);
     for (const role of ['curator', 'researcher', 'dyer'] as const) {
       const agent = await signedInAgent(app, role);
       await agent.patch(`/api/chemicals/${made.id}`).set('Origin', ORIGIN).send({ status: 'permitted' }).expect(403);
@@ -178,40 +223,80 @@ describe('POST /api/chemicals (admin adds to the reference)', () => {
     const admin = await signedInAgent(app, 'admin');
     const res = await admin.post('/api/chemicals').set('Origin', ORIGIN).send(body()).expect(201);
     // CaSO4·½H2O = 145.1415 g/mol from IUPAC 2021 abridged atomic weights (tests/reference/atomic-weights.json), summed by hand.
-    expect(res.body).toMatchObject({ name: `test gypsum ${suffix}`, formula: 'CaSO4·½H2O', metal: null, ghs: { signalWord: null, hStatements: [], basis: 'supplier', source: 'test supplier SDS' } });
+    expect(res.body).toMatchObject({
+      name: `test gypsum ${suffix}`,
+      formula: 'CaSO4·½H2O',
+      metal: null,
+      ghs: { signalWord: null, hStatements: [], basis: 'supplier', source: 'test supplier SDS' },
+    });
     expect(res.body.molarMass).toBeCloseTo(145.1415, 4);
     const audit = await AuditEvent.findOne({ where: { entity: 'chemical', entityId: res.body.id, action: 'create' } });
-    expect(audit?.changes).toMatchObject({ name: { from: null, to: `test gypsum ${suffix}` }, formula: { from: null, to: 'CaSO4·½H2O' } });
+    expect(audit?.changes).toMatchObject({
+      name: { from: null, to: `test gypsum ${suffix}` },
+      formula: { from: null, to: 'CaSO4·½H2O' },
+    });
     // A decimal hydrate with a full stop as the hydrate dot: Al2(SO4)3·14.3H2O = 599.7465 g/mol (IUPAC 2021, by hand).
-    const dec = await admin.post('/api/chemicals').set('Origin', ORIGIN).send(body({ name: `test alum cake ${suffix}`, formula: 'Al2(SO4)3.14.3H2O', metal: 'Al', role: 'mordant' })).expect(201);
+    const dec = await admin
+      .post('/api/chemicals')
+      .set('Origin', ORIGIN)
+      .send(body({ name: `test alum cake ${suffix}`, formula: 'Al2(SO4)3.14.3H2O', metal: 'Al', role: 'mordant' }))
+      .expect(201);
     expect(dec.body.molarMass).toBeCloseTo(599.7465, 4);
   });
 
   it('answers 409 with a clear message for a name already in the reference', async () => {
     const admin = await signedInAgent(app, 'admin');
-    const res = await admin.post('/api/chemicals').set('Origin', ORIGIN).send(body({ name: 'potash alum' })).expect(409);
-    expect(res.body.error.message).toBe('A chemical named "potash alum" is already in the reference; edit that one instead.');
+    const res = await admin
+      .post('/api/chemicals')
+      .set('Origin', ORIGIN)
+      .send(body({ name: 'potash alum' }))
+      .expect(409);
+    expect(res.body.error.message).toBe(
+      'A chemical named "potash alum" is already in the reference; edit that one instead.',
+    );
     expect(res.body.error.details.fields.name).toEqual(['A chemical with this name already exists']);
   });
 
   it('refuses a formula it cannot read with the position of the fault, and a metal the formula lacks', async () => {
     const admin = await signedInAgent(app, 'admin');
-    const res = await admin.post('/api/chemicals').set('Origin', ORIGIN).send(body({ name: `test bad ${suffix}`, formula: 'CaSO4·x' })).expect(400);
+    const res = await admin
+      .post('/api/chemicals')
+      .set('Origin', ORIGIN)
+      .send(body({ name: `test bad ${suffix}`, formula: 'CaSO4·x' }))
+      .expect(400);
     expect(res.body.error.details.fields.formula[0]).toMatch(/^Unexpected "x" at position 7\./);
-    const decimal = await admin.post('/api/chemicals').set('Origin', ORIGIN).send(body({ name: `test bad ${suffix}`, formula: 'Fe1.5O' })).expect(400);
+    const decimal = await admin
+      .post('/api/chemicals')
+      .set('Origin', ORIGIN)
+      .send(body({ name: `test bad ${suffix}`, formula: 'Fe1.5O' }))
+      .expect(400);
     expect(decimal.body.error.details.fields.formula[0]).toMatch(/at position 4/);
-    const metal = await admin.post('/api/chemicals').set('Origin', ORIGIN).send(body({ name: `test bad ${suffix}`, metal: 'Pb' })).expect(400);
+    const metal = await admin
+      .post('/api/chemicals')
+      .set('Origin', ORIGIN)
+      .send(body({ name: `test bad ${suffix}`, metal: 'Pb' }))
+      .expect(400);
     expect(metal.body.error.details.fields.metal).toEqual(['The formula has no Pb']);
     const missing = await admin.post('/api/chemicals').set('Origin', ORIGIN).send({}).expect(400);
-    expect(Object.keys(missing.body.error.details.fields)).toEqual(expect.arrayContaining(['name', 'role', 'status', 'source']));
+    expect(Object.keys(missing.body.error.details.fields)).toEqual(
+      expect.arrayContaining(['name', 'role', 'status', 'source']),
+    );
     expect(await Chemical.count({ where: { name: `test bad ${suffix}` } })).toBe(0);
   });
 
   it('answers 401 signed out and 403 for other roles', async () => {
-    await request(app).post('/api/chemicals').set('Origin', ORIGIN).send(body({ name: `test denied ${suffix}` })).expect(401);
+    await request(app)
+      .post('/api/chemicals')
+      .set('Origin', ORIGIN)
+      .send(body({ name: `test denied ${suffix}` }))
+      .expect(401);
     for (const role of ['curator', 'researcher', 'dyer'] as const) {
       const agent = await signedInAgent(app, role);
-      await agent.post('/api/chemicals').set('Origin', ORIGIN).send(body({ name: `test denied ${suffix}` })).expect(403);
+      await agent
+        .post('/api/chemicals')
+        .set('Origin', ORIGIN)
+        .send(body({ name: `test denied ${suffix}` }))
+        .expect(403);
     }
     expect(await Chemical.count({ where: { name: `test denied ${suffix}` } })).toBe(0);
   });
@@ -225,15 +310,32 @@ describe('POST /api/dyestuffs (admin adds to the reference)', () => {
       .set('Origin', ORIGIN)
       .send({ name: `test dyer's broom ${suffix}`, ciName: '', dyeClass: 'flavonoid', source: 'test row' })
       .expect(201);
-    expect(res.body).toMatchObject({ name: `test dyer's broom ${suffix}`, ciName: null, dyeClass: 'flavonoid', colorants: null });
+    expect(res.body).toMatchObject({
+      name: `test dyer's broom ${suffix}`,
+      ciName: null,
+      dyeClass: 'flavonoid',
+      colorants: null,
+    });
     expect(await AuditEvent.count({ where: { entity: 'dyestuff', entityId: res.body.id, action: 'create' } })).toBe(1);
-    const dup = await admin.post('/api/dyestuffs').set('Origin', ORIGIN).send({ name: 'madder', source: 'test row' }).expect(409);
+    const dup = await admin
+      .post('/api/dyestuffs')
+      .set('Origin', ORIGIN)
+      .send({ name: 'madder', source: 'test row' })
+      .expect(409);
     expect(dup.body.error.message).toBe('A dyestuff named "madder" is already in the reference.');
-    const bad = await admin.post('/api/dyestuffs').set('Origin', ORIGIN).send({ name: `test nosource ${suffix}` }).expect(400);
+    const bad = await admin
+      .post('/api/dyestuffs')
+      .set('Origin', ORIGIN)
+      .send({ name: `test nosource ${suffix}` })
+      .expect(400);
     expect(bad.body.error.details.fields).toHaveProperty('source');
     for (const role of ['curator', 'researcher', 'dyer'] as const) {
       const agent = await signedInAgent(app, role);
-      await agent.post('/api/dyestuffs').set('Origin', ORIGIN).send({ name: `test denied ${suffix}`, source: 'x' }).expect(403);
+      await agent
+        .post('/api/dyestuffs')
+        .set('Origin', ORIGIN)
+        .send({ name: `test denied ${suffix}`, source: 'x' })
+        .expect(403);
     }
   });
 });

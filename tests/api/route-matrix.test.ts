@@ -5,7 +5,15 @@ import type { Role } from '../../shared/roles.ts';
 import { ORIGIN } from '../support/agents.ts';
 import { useTestMail } from '../support/mail.ts';
 import { registeredApiRoutes } from '../support/routes.ts';
-import { WHO, routeMatrix, type ActorKey, type Expected, type MatrixRow, type Ownership, type Who } from '../support/route-matrix.ts';
+import {
+  WHO,
+  routeMatrix,
+  type ActorKey,
+  type Expected,
+  type MatrixRow,
+  type Ownership,
+  type Who,
+} from '../support/route-matrix.ts';
 
 const app = createApp();
 useTestMail();
@@ -27,14 +35,20 @@ describe('every /api route has a row in the matrix', () => {
     expect(rowRoutes.filter((r, i) => rowRoutes.indexOf(r) !== i)).toEqual([]);
   });
   it.each(routeMatrix.map((r) => [r.route, r] as const))('%s names every actor', (_route, r) => {
-    for (const who of WHO) expect(who in r.expect || (`${who}:own` in r.expect && `${who}:other` in r.expect), `${r.route}: ${who}`).toBe(true);
+    for (const who of WHO)
+      expect(who in r.expect || (`${who}:own` in r.expect && `${who}:other` in r.expect), `${r.route}: ${who}`).toBe(
+        true,
+      );
   });
 });
 
 async function actor(who: Who) {
   const agent = request.agent(app);
   if (who === 'visitor') return { agent, user: null };
-  const res = await agent.post('/api/auth/login').set('Origin', ORIGIN).send({ email: `${who}@demo.test`, password: 'tinctoria-demo' });
+  const res = await agent
+    .post('/api/auth/login')
+    .set('Origin', ORIGIN)
+    .send({ email: `${who}@demo.test`, password: 'tinctoria-demo' });
   if (res.status !== 200) throw new Error(`sign-in as ${who} failed: ${res.status}`);
   return { agent, user: res.body.user as { id: number; role: Role } };
 }
@@ -58,8 +72,11 @@ describe.each(routeMatrix.map((r) => [r.route, r] as const))('%s', (_route, r) =
     if (fixture.query) req = req.query(fixture.query);
     if (fixture.attach) for (const f of fixture.attach) req = req.attach(f.field, f.buffer, f.filename);
     const res = fixture.attach ? await req : await req.send((fixture.body ?? r.body) as object);
-    expect(matches(res.status, expected), `${r.route} as ${key}: got ${res.status} ${JSON.stringify(res.body)}`).toBe(true);
+    expect(matches(res.status, expected), `${r.route} as ${key}: got ${res.status} ${JSON.stringify(res.body)}`).toBe(
+      true,
+    );
     // Refusals always carry the JSON error shape.
-    if (res.status >= 400) expect(res.body.error).toMatchObject({ code: expect.any(String), message: expect.any(String) });
+    if (res.status >= 400)
+      expect(res.body.error).toMatchObject({ code: expect.any(String), message: expect.any(String) });
   });
 });

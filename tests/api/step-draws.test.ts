@@ -17,18 +17,39 @@ beforeAll(async () => {
 });
 
 const makeBath = async (suffix: string, volumeMl: number) => {
-  const res = await dyer.post('/api/batches').set('Origin', ORIGIN).send({
-    code: `D${tag}-${suffix}`, kind: 'mordant-bath', name: `Alum bath ${suffix}`, volumeMl, madeOn: '2024-05-01',
-    ingredients: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 100 }],
-  });
+  const res = await dyer
+    .post('/api/batches')
+    .set('Origin', ORIGIN)
+    .send({
+      code: `D${tag}-${suffix}`,
+      kind: 'mordant-bath',
+      name: `Alum bath ${suffix}`,
+      volumeMl,
+      madeOn: '2024-05-01',
+      ingredients: [{ kind: 'chemical', refId: alumId, name: 'potash alum', grams: 100 }],
+    });
   expect(res.status).toBe(201);
   return res.body as { id: number; code: string };
 };
-const makeTrial = async () => (await dyer.post('/api/trials').set('Origin', ORIGIN).send({ dryMassG: 250 }).expect(201)).body.trial as { id: number; code: string };
-const draw = (batchId: number | null, batchVolumeMl: number | null, id?: number) => ({ id, operation: 'mordant-bath', liquorRatio: 30, batchId, batchVolumeMl, ingredients: [] });
-const putSteps = (trialId: number, steps: object[]) => dyer.put(`/api/trials/${trialId}/steps`).set('Origin', ORIGIN).send({ steps });
+const makeTrial = async () =>
+  (await dyer.post('/api/trials').set('Origin', ORIGIN).send({ dryMassG: 250 }).expect(201)).body.trial as {
+    id: number;
+    code: string;
+  };
+const draw = (batchId: number | null, batchVolumeMl: number | null, id?: number) => ({
+  id,
+  operation: 'mordant-bath',
+  liquorRatio: 30,
+  batchId,
+  batchVolumeMl,
+  ingredients: [],
+});
+const putSteps = (trialId: number, steps: object[]) =>
+  dyer.put(`/api/trials/${trialId}/steps`).set('Origin', ORIGIN).send({ steps });
 const bath = async (id: number) => (await dyer.get(`/api/batches/${id}`).expect(200)).body;
-const uses = (b: { events: Array<{ type: string; trialId: number | null; stepId: number | null; volumeMl: number | null }> }) => b.events.filter((e) => e.type === 'use');
+const uses = (b: {
+  events: Array<{ type: string; trialId: number | null; stepId: number | null; volumeMl: number | null }>;
+}) => b.events.filter((e) => e.type === 'use');
 
 describe('a recipe step drawing from a bath', () => {
   it('records the draw once, as a use linked to the trial and the step', async () => {
@@ -39,7 +60,9 @@ describe('a recipe step drawing from a bath', () => {
     expect(step.batch).toMatchObject({ code: b.code, remainingMl: 700 });
     const got = await bath(b.id);
     expect(got.remainingMl).toBe(700);
-    expect(uses(got)).toEqual([expect.objectContaining({ volumeMl: 300, trialId: t.id, trialCode: t.code, stepId: step.id })]);
+    expect(uses(got)).toEqual([
+      expect.objectContaining({ volumeMl: 300, trialId: t.id, trialCode: t.code, stepId: step.id }),
+    ]);
   });
 
   it('edits the event when the volume changes, and keeps one event through a save without changes', async () => {
@@ -66,7 +89,9 @@ describe('a recipe step drawing from a bath', () => {
     expect(moved.batch.code).toBe(b.code);
     expect(uses(await bath(a.id))).toHaveLength(0);
     expect((await bath(a.id)).remainingMl).toBe(1000);
-    expect(uses(await bath(b.id))).toEqual([expect.objectContaining({ volumeMl: 250, trialId: t.id, stepId: moved.id })]);
+    expect(uses(await bath(b.id))).toEqual([
+      expect.objectContaining({ volumeMl: 250, trialId: t.id, stepId: moved.id }),
+    ]);
   });
 
   it('removes the event when the step is deleted, or its draw cleared, or the trial deleted', async () => {
@@ -99,12 +124,20 @@ describe('a recipe step drawing from a bath', () => {
     const stepsBefore = await RecipeStep.count({ where: { trialId: t.id } });
     const eventsBefore = await BatchEvent.count({ where: { batchId: b.id } });
     // A second step asks for 250 mL of the 200 mL left.
-    const res = await putSteps(t.id, [draw(b.id, 300, kept.id), { operation: 'rinse', ingredients: [] }, draw(b.id, 250)]).expect(409);
-    expect(res.body.error.details.fields['steps.2.batchVolumeMl']).toEqual(['Only 200 mL are left; 250 mL cannot be drawn.']);
+    const res = await putSteps(t.id, [
+      draw(b.id, 300, kept.id),
+      { operation: 'rinse', ingredients: [] },
+      draw(b.id, 250),
+    ]).expect(409);
+    expect(res.body.error.details.fields['steps.2.batchVolumeMl']).toEqual([
+      'Only 200 mL are left; 250 mL cannot be drawn.',
+    ]);
     expect(res.body.error.message).toContain(b.code);
     // Raising the kept step beyond the bath is refused too, beside that step.
     const raise = await putSteps(t.id, [draw(b.id, 600, kept.id)]).expect(409);
-    expect(raise.body.error.details.fields['steps.0.batchVolumeMl']).toEqual(['Only 500 mL are left; 600 mL cannot be drawn.']);
+    expect(raise.body.error.details.fields['steps.0.batchVolumeMl']).toEqual([
+      'Only 500 mL are left; 600 mL cannot be drawn.',
+    ]);
     expect(await RecipeStep.count({ where: { trialId: t.id } })).toBe(stepsBefore);
     expect(await BatchEvent.count({ where: { batchId: b.id } })).toBe(eventsBefore);
     const after = (await dyer.get(`/api/trials/${t.id}`).expect(200)).body.trial.steps;
@@ -116,7 +149,9 @@ describe('a recipe step drawing from a bath', () => {
     const b = await makeBath('half', 500);
     const t = await makeTrial();
     const noVolume = await putSteps(t.id, [draw(b.id, null)]).expect(400);
-    expect(noVolume.body.error.details.fields['steps.0.batchVolumeMl']).toEqual(['Enter the volume drawn from the bath, in mL']);
+    expect(noVolume.body.error.details.fields['steps.0.batchVolumeMl']).toEqual([
+      'Enter the volume drawn from the bath, in mL',
+    ]);
     const noBath = await putSteps(t.id, [draw(null, 100)]).expect(400);
     expect(noBath.body.error.details.fields['steps.0.batchId']).toEqual(['Choose the bath this volume is drawn from']);
   });

@@ -59,7 +59,11 @@ describe('the team (admin)', () => {
     const others = await User.findAll({ where: { role: 'admin', active: true, id: { [Op.ne]: soleAdmin.id } } });
     await User.update({ active: false }, { where: { id: others.map((o) => o.id) } });
     try {
-      const demote = await me.patch(`/api/team/${soleAdmin.id}`).set('Origin', ORIGIN).send({ role: 'curator' }).expect(409);
+      const demote = await me
+        .patch(`/api/team/${soleAdmin.id}`)
+        .set('Origin', ORIGIN)
+        .send({ role: 'curator' })
+        .expect(409);
       expect(demote.body.error.details.reason).toBe('last_admin');
     } finally {
       await User.update({ active: true }, { where: { id: others.map((o) => o.id) } });

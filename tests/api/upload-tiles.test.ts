@@ -40,10 +40,20 @@ describe('an upload queues the deep-zoom tiles of each new photo', () => {
   it('queues tiles for a trial swatch photo too', async () => {
     const curatorUser = await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true });
     const piece = await makePiece({ createdById: curatorUser.id, status: 'published' });
-    const trial = (await dyer.post(`/api/pieces/${piece.id}/trials`).set('Origin', ORIGIN).send({ dryMassG: 10 }).expect(201)).body.trial;
-    const swatch = await sharp({ create: { width: 200, height: 140, channels: 3, background: '#7a3b5c' } }).png().toBuffer();
-    const up = await dyer.post(`/api/trials/${trial.id}/photos`).set('Origin', ORIGIN).attach('photo', swatch, 'swatch.png').expect(201);
-    const jobs = await Job.findAll({ where: { type: 'tile-photo', subjectType: 'photo', subjectId: up.body.photo.id } });
+    const trial = (
+      await dyer.post(`/api/pieces/${piece.id}/trials`).set('Origin', ORIGIN).send({ dryMassG: 10 }).expect(201)
+    ).body.trial;
+    const swatch = await sharp({ create: { width: 200, height: 140, channels: 3, background: '#7a3b5c' } })
+      .png()
+      .toBuffer();
+    const up = await dyer
+      .post(`/api/trials/${trial.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', swatch, 'swatch.png')
+      .expect(201);
+    const jobs = await Job.findAll({
+      where: { type: 'tile-photo', subjectType: 'photo', subjectId: up.body.photo.id },
+    });
     expect(jobs).toHaveLength(1);
   });
 });

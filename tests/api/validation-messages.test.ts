@@ -16,7 +16,10 @@ beforeAll(async () => {
 });
 afterAll(() => sequelize.close());
 
-const fieldsOf = (res: { status: number; body: { error: { code: string; details?: { fields?: Record<string, string[]> } } } }) => {
+const fieldsOf = (res: {
+  status: number;
+  body: { error: { code: string; details?: { fields?: Record<string, string[]> } } };
+}) => {
   expect(res.status).toBe(400);
   expect(res.body.error.code).toBe('invalid_input');
   const fields = res.body.error.details?.fields ?? {};
@@ -28,7 +31,12 @@ describe('400 answers say what is wrong in people’s words, field by field', ()
   it('a new trial: the missing dry mass and a wrong weight and date', async () => {
     const empty = fieldsOf(await dyer.post('/api/trials').set('Origin', ORIGIN).send({}));
     expect(empty.dryMassG).toEqual(['Enter the dry fibre mass in g']);
-    const wrong = fieldsOf(await dyer.post('/api/trials').set('Origin', ORIGIN).send({ dryMassG: 'heavy', gsm: 0, startedOn: 'March', status: 'done' }));
+    const wrong = fieldsOf(
+      await dyer
+        .post('/api/trials')
+        .set('Origin', ORIGIN)
+        .send({ dryMassG: 'heavy', gsm: 0, startedOn: 'March', status: 'done' }),
+    );
     expect(wrong.dryMassG).toEqual(['Enter the dry fibre mass as a number in g']);
     expect(wrong.gsm).toEqual(['The fabric weight must be more than 0']);
     expect(wrong.startedOn).toEqual(['Enter a date such as 2024-03-12']);
@@ -41,7 +49,16 @@ describe('400 answers say what is wrong in people’s words, field by field', ()
       await dyer
         .put(`/api/trials/${trial.id}/steps`)
         .set('Origin', ORIGIN)
-        .send({ steps: [{ operation: 'dye-bath', minutes: -5, temperatureC: null, ingredients: [{ kind: 'chemical', refId: 0, amount: null, basis: 'owf' }] }] }),
+        .send({
+          steps: [
+            {
+              operation: 'dye-bath',
+              minutes: -5,
+              temperatureC: null,
+              ingredients: [{ kind: 'chemical', refId: 0, amount: null, basis: 'owf' }],
+            },
+          ],
+        }),
     );
     expect(fields['steps.0.minutes']).toEqual(['The time must be 0 min or more']);
     expect(fields['steps.0.ingredients.0.refId']).toEqual(['Choose an ingredient']);
@@ -49,17 +66,33 @@ describe('400 answers say what is wrong in people’s words, field by field', ()
   });
 
   it('a bath: what is missing, and the uptake as the API takes it', async () => {
-    const fields = fieldsOf(await dyer.post('/api/batches').set('Origin', ORIGIN).send({ uptakePerUse: 10, kind: 'soup' }));
-    expect(fields).toMatchObject({ code: ['Enter the code'], name: ['Enter the name'], volumeMl: ['Enter the volume in mL'], madeOn: ['Enter the date it was made'] });
+    const fields = fieldsOf(
+      await dyer.post('/api/batches').set('Origin', ORIGIN).send({ uptakePerUse: 10, kind: 'soup' }),
+    );
+    expect(fields).toMatchObject({
+      code: ['Enter the code'],
+      name: ['Enter the name'],
+      volumeMl: ['Enter the volume in mL'],
+      madeOn: ['Enter the date it was made'],
+    });
     expect(fields.uptakePerUse).toEqual(['Give the uptake per use as a fraction from 0 to 1 (0.1 = 10 %)']);
     expect(fields.kind[0]).toMatch(/^Choose a kind: mordant-bath/);
   });
 
   it('a series and an invitation', async () => {
-    const series = fieldsOf(await dyer.post('/api/series').set('Origin', ORIGIN).send({ code: 'x', factors: [], deadVolumePct: 150 }));
-    expect(series).toMatchObject({ code: ['Use at least 2 characters for the code'], title: ['Enter the title'], factors: ['Add at least one factor'], dryMassG: ['Enter the dry mass per cell in g'] });
+    const series = fieldsOf(
+      await dyer.post('/api/series').set('Origin', ORIGIN).send({ code: 'x', factors: [], deadVolumePct: 150 }),
+    );
+    expect(series).toMatchObject({
+      code: ['Use at least 2 characters for the code'],
+      title: ['Enter the title'],
+      factors: ['Add at least one factor'],
+      dryMassG: ['Enter the dry mass per cell in g'],
+    });
     expect(series.deadVolumePct).toEqual(['The dead-volume allowance must be 100 % or less']);
-    const invite = fieldsOf(await admin.post('/api/invitations').set('Origin', ORIGIN).send({ email: null, role: 'boss' }));
+    const invite = fieldsOf(
+      await admin.post('/api/invitations').set('Origin', ORIGIN).send({ email: null, role: 'boss' }),
+    );
     expect(invite.email).toEqual(['Enter the e-mail address']);
     expect(invite.role).toEqual(['Choose a role']);
   });

@@ -18,12 +18,29 @@ let dyer: Awaited<ReturnType<typeof signedInAgent>>;
 let curator: Awaited<ReturnType<typeof signedInAgent>>;
 let researcher: Awaited<ReturnType<typeof signedInAgent>>;
 
-type Pair = { pair: number; L1: number; a1: number; b1: number; L2: number; a2: number; b2: number; dE00: number; decimals: number };
+type Pair = {
+  pair: number;
+  L1: number;
+  a1: number;
+  b1: number;
+  L2: number;
+  a2: number;
+  b2: number;
+  dE00: number;
+  decimals: number;
+};
 // Sharma, Wu & Dalal (2005), Color Res. Appl. 30(1):21–30, Table 1 (tests/reference/ciede2000-sharma2005.json).
-const pairs = JSON.parse(readFileSync(new URL('../reference/ciede2000-sharma2005.json', import.meta.url), 'utf8')) as Pair[];
+const pairs = JSON.parse(
+  readFileSync(new URL('../reference/ciede2000-sharma2005.json', import.meta.url), 'utf8'),
+) as Pair[];
 const pair = (n: number) => {
   const p = pairs.find((x) => x.pair === n)!;
-  return { one: { L: p.L1, a: p.a1, b: p.b1 }, two: { L: p.L2, a: p.a2, b: p.b2 }, dE00: p.dE00, tolerance: 0.5 * 10 ** -p.decimals };
+  return {
+    one: { L: p.L1, a: p.a1, b: p.b1 },
+    two: { L: p.L2, a: p.a2, b: p.b2 },
+    dE00: p.dE00,
+    tolerance: 0.5 * 10 ** -p.decimals,
+  };
 };
 const blue = pair(2); // 50/3.1571/−77.2803 against 50/0/−82.7485: ΔE00 2.8615
 const red = pair(30); // 36.4612/47.858/18.3852 against 36.2715/50.5065/21.2231: ΔE00 1.4146
@@ -36,14 +53,43 @@ beforeAll(async () => {
   researcher = await signedInAgent(app, 'researcher');
 });
 
-const post = (agent: typeof dyer, url: string, body: unknown) => agent.post(url).set('Origin', ORIGIN).send(body as object);
-const newPiece = () => makePiece({ createdById: curatorUser.id, title: `Viewing conditions ${Date.now().toString(36)}` });
+const post = (agent: typeof dyer, url: string, body: unknown) =>
+  agent
+    .post(url)
+    .set('Origin', ORIGIN)
+    .send(body as object);
+const newPiece = () =>
+  makePiece({ createdById: curatorUser.id, title: `Viewing conditions ${Date.now().toString(36)}` });
 /** A reading of the original, on the piece itself; the label names the place on it. */
-const originalReading = (pieceId: number, lab: { L: number; a: number; b: number }, illuminant: string, observer: string, label: string, takenOn: string | null = null) =>
-  makeMeasurement({ pieceId, regionId: null, trialId: null, instrument: 'bench spectro', geometry: 'd:8°', specular: 'SCI', illuminant, observer, ...lab, label, takenOn, createdById: null });
+const originalReading = (
+  pieceId: number,
+  lab: { L: number; a: number; b: number },
+  illuminant: string,
+  observer: string,
+  label: string,
+  takenOn: string | null = null,
+) =>
+  makeMeasurement({
+    pieceId,
+    regionId: null,
+    trialId: null,
+    instrument: 'bench spectro',
+    geometry: 'd:8°',
+    specular: 'SCI',
+    illuminant,
+    observer,
+    ...lab,
+    label,
+    takenOn,
+    createdById: null,
+  });
 const trialAgainst = async (pieceId: number, targetMeasurementId: number) =>
-  (await post(dyer, `/api/pieces/${pieceId}/trials`, { dryMassG: 20, targetMeasurementId }).expect(201)).body.trial as { id: number; code: string };
-const read = (trialId: number, body: object) => post(dyer, `/api/trials/${trialId}/measurements`, { geometry: 'd:8°', specular: 'SCI', ...body }).expect(201);
+  (await post(dyer, `/api/pieces/${pieceId}/trials`, { dryMassG: 20, targetMeasurementId }).expect(201)).body.trial as {
+    id: number;
+    code: string;
+  };
+const read = (trialId: number, body: object) =>
+  post(dyer, `/api/trials/${trialId}/measurements`, { geometry: 'd:8°', specular: 'SCI', ...body }).expect(201);
 const colourOf = async (trialId: number) => (await dyer.get(`/api/trials/${trialId}`).expect(200)).body.trial.colour;
 
 describe("a trial's readings and the comparison with the original", () => {
@@ -56,7 +102,14 @@ describe("a trial's readings and the comparison with the original", () => {
     await read(t.id, { ...blue.two, a: -1, illuminant: 'D65', observer: '10' });
     await read(t.id, { L: 60, a: 30, b: 10, illuminant: 'A', observer: '10' });
     const colour = await colourOf(t.id);
-    expect(colour.result).toMatchObject({ source: 'instrument', illuminant: 'D65', observer: '10', readings: 2, L: blue.two.L, b: blue.two.b });
+    expect(colour.result).toMatchObject({
+      source: 'instrument',
+      illuminant: 'D65',
+      observer: '10',
+      readings: 2,
+      L: blue.two.L,
+      b: blue.two.b,
+    });
     expect(colour.result.a).toBeCloseTo(0, 12);
     expect(colour.result.label).toMatch(/mean of 2/);
     // The A reading is its own group, never in the mean.
@@ -65,7 +118,12 @@ describe("a trial's readings and the comparison with the original", () => {
       expect.objectContaining({ illuminant: 'A', observer: '10', readings: 1, L: 60, a: 30, b: 10 }),
     ]);
     expect(Math.abs(colour.difference.deltaE00 - blue.dE00)).toBeLessThanOrEqual(blue.tolerance);
-    expect(colour.conditions).toEqual({ illuminant: 'D65', targetObserver: '10', resultObserver: '10', observersDiffer: false });
+    expect(colour.conditions).toEqual({
+      illuminant: 'D65',
+      targetObserver: '10',
+      resultObserver: '10',
+      observersDiffer: false,
+    });
     expect(colour.note).toBeNull();
     expect(colour.missing).toBeNull();
     // The original was not read under A, so there is no comparison under A.
@@ -95,7 +153,13 @@ describe("a trial's readings and the comparison with the original", () => {
     // Under D65 the original's D65 reading meets the swatch's D65 reading: pair 2 again.
     const [primary, d65] = colour.comparisons;
     expect(primary).toMatchObject({ illuminant: 'A', primary: true });
-    expect(d65).toMatchObject({ illuminant: 'D65', primary: false, observersDiffer: false, target: { illuminant: 'D65', ...blue.one }, result: { illuminant: 'D65', ...blue.two } });
+    expect(d65).toMatchObject({
+      illuminant: 'D65',
+      primary: false,
+      observersDiffer: false,
+      target: { illuminant: 'D65', ...blue.one },
+      result: { illuminant: 'D65', ...blue.two },
+    });
     expect(Math.abs(d65.difference.deltaE00 - blue.dE00)).toBeLessThanOrEqual(blue.tolerance);
   });
 
@@ -106,7 +170,12 @@ describe("a trial's readings and the comparison with the original", () => {
     await read(t.id, { ...blue.two, illuminant: 'D65', observer: '2' });
     const colour = await colourOf(t.id);
     expect(Math.abs(colour.difference.deltaE00 - blue.dE00)).toBeLessThanOrEqual(blue.tolerance);
-    expect(colour.conditions).toEqual({ illuminant: 'D65', targetObserver: '10', resultObserver: '2', observersDiffer: true });
+    expect(colour.conditions).toEqual({
+      illuminant: 'D65',
+      targetObserver: '10',
+      resultObserver: '2',
+      observersDiffer: true,
+    });
     expect(colour.note).toMatch(/Observers differ/);
     expect(colour.note).toMatch(/10° observer/);
     expect(colour.note).toMatch(/2° observer/);
@@ -133,7 +202,9 @@ describe("a trial's readings and the comparison with the original", () => {
     expect(colour.result).toBeNull();
     expect(colour.comparisons).toEqual([]);
     expect(colour.missing).toMatchObject({ illuminant: 'A', observer: '10' });
-    expect(colour.missing.message).toMatch(/^No reading of the swatch under A\/10°: measure it under A to compare with the original's reading\./);
+    expect(colour.missing.message).toMatch(
+      /^No reading of the swatch under A\/10°: measure it under A to compare with the original's reading\./,
+    );
     expect(colour.missing.message).toMatch(/readings under D65\/10° are not compared/);
     // The D65 reading is still there to see, under its own conditions.
     expect(colour.results).toEqual([expect.objectContaining({ illuminant: 'D65', observer: '10', readings: 1 })]);
@@ -153,28 +224,59 @@ describe("a trial's readings and the comparison with the original", () => {
     const piece = await newPiece();
     const underA = await originalReading(piece.id, red.one, 'A', '10', 'ground red');
     const t = await trialAgainst(piece.id, underA.id);
-    const swatch = await sharp({ create: { width: 240, height: 160, channels: 3, background: '#a33a2e' } }).png().toBuffer();
-    await dyer.post(`/api/trials/${t.id}/photos`).set('Origin', ORIGIN).attach('photo', swatch, 'swatch.png').expect(201);
+    const swatch = await sharp({ create: { width: 240, height: 160, channels: 3, background: '#a33a2e' } })
+      .png()
+      .toBuffer();
+    await dyer
+      .post(`/api/trials/${t.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', swatch, 'swatch.png')
+      .expect(201);
     const colour = await colourOf(t.id);
-    expect(colour.results).toEqual([expect.objectContaining({ source: 'image-estimate', illuminant: 'D65', observer: '2', readings: null })]);
+    expect(colour.results).toEqual([
+      expect.objectContaining({ source: 'image-estimate', illuminant: 'D65', observer: '2', readings: null }),
+    ]);
     expect(colour.difference).toBeNull();
     expect(colour.missing.message).toMatch(/under A\/10°/);
 
     // An instrument target under D65/10° is compared with the D65/2° estimate, saying the observers differ.
     const d65 = await originalReading(piece.id, red.one, 'D65', '10', 'ground red, D65');
     const t2 = await trialAgainst(piece.id, d65.id);
-    await dyer.post(`/api/trials/${t2.id}/photos`).set('Origin', ORIGIN).attach('photo', swatch, 'swatch.png').expect(201);
+    await dyer
+      .post(`/api/trials/${t2.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', swatch, 'swatch.png')
+      .expect(201);
     const c2 = await colourOf(t2.id);
     expect(c2.result).toMatchObject({ source: 'image-estimate', illuminant: 'D65', observer: '2' });
     expect(c2.difference.deltaE00).toBeGreaterThan(0);
-    expect(c2.conditions).toMatchObject({ illuminant: 'D65', targetObserver: '10', resultObserver: '2', observersDiffer: true });
+    expect(c2.conditions).toMatchObject({
+      illuminant: 'D65',
+      targetObserver: '10',
+      resultObserver: '2',
+      observersDiffer: true,
+    });
   });
 
   it('compares an image estimate of the original only with results under D65', async () => {
     const piece = await newPiece();
-    const photo = (await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', await clothJpeg({ seed: 7 }), 'original.jpg').expect(201)).body.photos[0];
-    const region = (await curator.post(`/api/photos/${photo.id}/regions`).set('Origin', ORIGIN).send({ x: 80, y: 80, w: 100, h: 150, purpose: 'colour-area', label: 'madder red' }).expect(201)).body.region;
-    const t = (await post(dyer, `/api/pieces/${piece.id}/trials`, { dryMassG: 20, targetRegionId: region.id }).expect(201)).body.trial;
+    const photo = (
+      await curator
+        .post(`/api/pieces/${piece.id}/photos`)
+        .set('Origin', ORIGIN)
+        .attach('photo', await clothJpeg({ seed: 7 }), 'original.jpg')
+        .expect(201)
+    ).body.photos[0];
+    const region = (
+      await curator
+        .post(`/api/photos/${photo.id}/regions`)
+        .set('Origin', ORIGIN)
+        .send({ x: 80, y: 80, w: 100, h: 150, purpose: 'colour-area', label: 'madder red' })
+        .expect(201)
+    ).body.region;
+    const t = (
+      await post(dyer, `/api/pieces/${piece.id}/trials`, { dryMassG: 20, targetRegionId: region.id }).expect(201)
+    ).body.trial;
     expect(t.colour.target).toMatchObject({ source: 'image-estimate', illuminant: 'D65', observer: '2' });
     await read(t.id, { L: 40, a: 40, b: 25, illuminant: 'F11', observer: '10' });
     const colour = await colourOf(t.id);
@@ -184,7 +286,12 @@ describe("a trial's readings and the comparison with the original", () => {
     await read(t.id, { L: 40, a: 40, b: 25, illuminant: 'D65', observer: '10' });
     const after = await colourOf(t.id);
     expect(after.result).toMatchObject({ illuminant: 'D65', observer: '10', readings: 1 });
-    expect(after.conditions).toMatchObject({ illuminant: 'D65', targetObserver: '2', resultObserver: '10', observersDiffer: true });
+    expect(after.conditions).toMatchObject({
+      illuminant: 'D65',
+      targetObserver: '2',
+      resultObserver: '10',
+      observersDiffer: true,
+    });
   });
 });
 
@@ -200,7 +307,14 @@ describe('exports and cards carry the viewing conditions', () => {
     const res = await researcher.get('/api/export/trials.csv').buffer(true).expect(200);
     const rows: Record<string, string>[] = parse(res.text, { columns: true });
     const one = rows.find((r) => r.code === matched.code)!;
-    expect(one).toMatchObject({ targetSource: 'instrument', targetIlluminant: 'A', targetObserver: '10°', resultIlluminant: 'A', resultObserver: '2°', resultReadings: '1' });
+    expect(one).toMatchObject({
+      targetSource: 'instrument',
+      targetIlluminant: 'A',
+      targetObserver: '10°',
+      resultIlluminant: 'A',
+      resultObserver: '2°',
+      resultReadings: '1',
+    });
     expect(Math.abs(Number(one.deltaE00) - red.dE00)).toBeLessThanOrEqual(0.005);
     // ΔL* of pair 30 by hand: 36.2715 − 36.4612 = −0.1897.
     expect(one.dL).toBe('-0.19');
@@ -216,11 +330,19 @@ describe('exports and cards carry the viewing conditions', () => {
     const t = await trialAgainst(piece.id, underA.id);
     await read(t.id, { ...red.two, illuminant: 'A', observer: '10' });
     const pdfOf = async (id: number) =>
-      readPdf((await dyer.get(`/api/trials/${id}/card.pdf`).buffer(true).parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      }).expect(200)).body as Buffer);
+      readPdf(
+        (
+          await dyer
+            .get(`/api/trials/${id}/card.pdf`)
+            .buffer(true)
+            .parse((r, cb) => {
+              const chunks: Buffer[] = [];
+              r.on('data', (c: Buffer) => chunks.push(c));
+              r.on('end', () => cb(null, Buffer.concat(chunks)));
+            })
+            .expect(200)
+        ).body as Buffer,
+      );
     const card = await pdfOf(t.id);
     expect(card.text).toContain('instrument reading · A/10°');
     expect(card.text).toMatch(/ΔL\* −0\.19/);
@@ -234,23 +356,43 @@ describe('exports and cards carry the viewing conditions', () => {
 });
 
 describe('POST /api/colour/difference with viewing conditions', () => {
-  const difference = (reference: object, sample: object) => request(app).post('/api/colour/difference').set('Origin', ORIGIN).send({ reference, sample });
+  const difference = (reference: object, sample: object) =>
+    request(app).post('/api/colour/difference').set('Origin', ORIGIN).send({ reference, sample });
 
   it('refuses colours under different illuminants (422), in plain words', async () => {
-    const res = await difference({ ...blue.one, illuminant: 'D65', observer: '10' }, { ...blue.two, illuminant: 'A', observer: '10' }).expect(422);
+    const res = await difference(
+      { ...blue.one, illuminant: 'D65', observer: '10' },
+      { ...blue.two, illuminant: 'A', observer: '10' },
+    ).expect(422);
     expect(res.body.error.message).toMatch(/different illuminants \(the reference under D65, the sample under A\)/);
     expect(res.body.error.details.fields['sample.illuminant']).toBeDefined();
   });
 
   it('compares under one illuminant, says when the observers differ, and gives the same figures as without conditions', async () => {
     const plain = await difference(blue.one, blue.two).expect(200);
-    expect(plain.body.conditions).toEqual({ illuminant: null, referenceObserver: null, sampleObserver: null, observersDiffer: false });
-    const same = await difference({ ...blue.one, illuminant: 'D50', observer: '2' }, { ...blue.two, illuminant: 'D50', observer: '2' }).expect(200);
+    expect(plain.body.conditions).toEqual({
+      illuminant: null,
+      referenceObserver: null,
+      sampleObserver: null,
+      observersDiffer: false,
+    });
+    const same = await difference(
+      { ...blue.one, illuminant: 'D50', observer: '2' },
+      { ...blue.two, illuminant: 'D50', observer: '2' },
+    ).expect(200);
     expect(Math.abs(same.body.deltaE00 - blue.dE00)).toBeLessThanOrEqual(blue.tolerance);
     expect(same.body.note).toBeNull();
-    const mixed = await difference({ ...blue.one, illuminant: 'D65', observer: '10' }, { ...blue.two, illuminant: 'D65', observer: '2' }).expect(200);
+    const mixed = await difference(
+      { ...blue.one, illuminant: 'D65', observer: '10' },
+      { ...blue.two, illuminant: 'D65', observer: '2' },
+    ).expect(200);
     expect(mixed.body.deltaE00).toBe(plain.body.deltaE00);
-    expect(mixed.body.conditions).toEqual({ illuminant: 'D65', referenceObserver: '10', sampleObserver: '2', observersDiffer: true });
+    expect(mixed.body.conditions).toEqual({
+      illuminant: 'D65',
+      referenceObserver: '10',
+      sampleObserver: '2',
+      observersDiffer: true,
+    });
     expect(mixed.body.note).toMatch(/Observers differ/);
   });
 

@@ -13,7 +13,9 @@ export const importBench: Bench = {
     await sequelize.transaction((t) => seedReference(t));
     const curator = await makeUser({ role: 'curator' });
     const tag = Date.now().toString(36);
-    const lines = ['accessionNumber,objectName,title,dateEdtf,fibres,techniques,dyestuffs,historicalMordants,heightMm,widthMm,description,status'];
+    const lines = [
+      'accessionNumber,objectName,title,dateEdtf,fibres,techniques,dyestuffs,historicalMordants,heightMm,widthMm,description,status',
+    ];
     for (let i = 1; i <= 10_000; i++) {
       lines.push(
         `B${tag}.${i},fragment,"Sample ${i}, block printed",17XX,cotton,block printing; mordant printing,madder (identified); weld,potash alum (attributed),${200 + (i % 50)},${150 + (i % 30)},"Bench row ${i}",draft`,
@@ -25,7 +27,13 @@ export const importBench: Bench = {
     const seconds = (performance.now() - started) / 1000;
     await sequelize.close();
     return [
-      { metric: '10,000-row CSV import', value: seconds, unit: 's', target: '< 60 s', pass: seconds < 60 && result.imported === 10_000 },
+      {
+        metric: '10,000-row CSV import',
+        value: seconds,
+        unit: 's',
+        target: '< 60 s',
+        pass: seconds < 60 && result.imported === 10_000,
+      },
       { metric: 'rows per second', value: result.imported / seconds, unit: 'rows/s' },
       { metric: 'file size', value: buffer.length / 1024 / 1024, unit: 'MB' },
     ];

@@ -20,17 +20,42 @@ export const paletteBench: Bench = {
     const { ingestPhoto, removePhotoFiles } = await import('../../server/media/pipeline.ts');
     await migrate();
 
-    const W = 6000, H = 4000;
+    const W = 6000,
+      H = 4000;
     const shapes = [];
     for (let i = 0; i < 24; i++) {
-      const cx = ((i % 6) + 0.5) * (W / 6), cy = (Math.floor(i / 6) + 0.5) * (H / 4);
-      shapes.push({ kind: 'ellipse' as const, cx, cy, rx: W / 16, ry: H / 10, colour: ['#9e2a2b', '#d98c95', '#5b3a55', '#2e3f66'][i % 4], outline: { colour: '#2a2630', width: W / 300 } });
+      const cx = ((i % 6) + 0.5) * (W / 6),
+        cy = (Math.floor(i / 6) + 0.5) * (H / 4);
+      shapes.push({
+        kind: 'ellipse' as const,
+        cx,
+        cy,
+        rx: W / 16,
+        ry: H / 10,
+        colour: ['#9e2a2b', '#d98c95', '#5b3a55', '#2e3f66'][i % 4],
+        outline: { colour: '#2a2630', width: W / 300 },
+      });
     }
-    const cloth = paintCloth({ width: W, height: H, ground: '#e6d9bf', shapes, noise: 4, weave: 0.05, gradient: 0.03, seed: 1 });
-    const jpeg = await sharp(cloth.data, { raw: { width: W, height: H, channels: 3 } }).jpeg({ quality: 90 }).toBuffer();
+    const cloth = paintCloth({
+      width: W,
+      height: H,
+      ground: '#e6d9bf',
+      shapes,
+      noise: 4,
+      weave: 0.05,
+      gradient: 0.03,
+      seed: 1,
+    });
+    const jpeg = await sharp(cloth.data, { raw: { width: W, height: H, channels: 3 } })
+      .jpeg({ quality: 90 })
+      .toBuffer();
 
-    const baseline = async () => { await sharp(jpeg).resize({ width: 256, height: 256, fit: 'inside' }).raw().toBuffer(); };
-    const palette = async () => { extractPalette(await workingImage(jpeg)); };
+    const baseline = async () => {
+      await sharp(jpeg).resize({ width: 256, height: 256, fit: 'inside' }).raw().toBuffer();
+    };
+    const palette = async () => {
+      extractPalette(await workingImage(jpeg));
+    };
     // The pipeline runs in a transaction that is then rolled back; its files are removed after timing.
     let ingested: Awaited<ReturnType<typeof ingestPhoto>>['photo'] | null = null;
     const cleanUp = async () => {
@@ -46,7 +71,11 @@ export const paletteBench: Bench = {
         .catch(() => undefined);
     };
     const times: Record<string, number[]> = { baseline: [], palette: [], pipeline: [] };
-    const steps: Array<[string, () => Promise<void>]> = [['baseline', baseline], ['palette', palette], ['pipeline', pipeline]];
+    const steps: Array<[string, () => Promise<void>]> = [
+      ['baseline', baseline],
+      ['palette', palette],
+      ['pipeline', pipeline],
+    ];
     for (const [, f] of steps) await f(); // warm-up (JIT, libvips caches)
     await cleanUp();
     for (let i = 0; i < RUNS; i++) {
@@ -59,7 +88,9 @@ export const paletteBench: Bench = {
       }
     }
     await sequelize.close();
-    const base = median(times.baseline), pal = median(times.palette), pipe = median(times.pipeline);
+    const base = median(times.baseline),
+      pal = median(times.palette),
+      pipe = median(times.pipeline);
     const results: BenchResult[] = [
       { metric: 'decode 24 MP JPEG to 256 px (median)', value: base, unit: 'ms' },
       { metric: 'palette extraction (median)', value: pal, unit: 'ms' },

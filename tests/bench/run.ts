@@ -6,7 +6,8 @@ import { benches } from './index.ts';
 // Runs every registered benchmark (or those named on the command line), prints
 // a table, and writes the figures to $DATA_DIR/bench/results.json.
 const only = process.argv.slice(2);
-const results: Array<{ bench: string; metric: string; value: number; unit: string; target?: string; pass?: boolean }> = [];
+const results: Array<{ bench: string; metric: string; value: number; unit: string; target?: string; pass?: boolean }> =
+  [];
 for (const b of benches) {
   if (only.length && !only.includes(b.name)) continue;
   console.error(`[bench] ${b.name}…`);

@@ -5,7 +5,7 @@ import { labToHex } from '../../shared/search/lab.ts';
 
 /** Synthetic archive for the search benchmark: deterministic, bulk-inserted with multi-row INSERTs. */
 let seed = 20240917;
-export const rnd = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 4294967296);
+export const rnd = () => (seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 4294967296;
 const gauss = () => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
 
 // A realistic vocabulary: trade words plus thousands of made-up words, drawn with Zipf-like (skewed) frequencies.
@@ -14,9 +14,31 @@ const TRADE = (
   'chintz calico furnishing dress panel border ground sprig trellis floral stripe check pomegranate vine pheasant tree-of-life red pink ' +
   'purple brown black blue green yellow buff drab olive lilac puce nankeen faded repaired hem selvedge repeat lining glazed'
 ).split(' ');
-const SYL = ['ka', 'lo', 'mer', 'tin', 'va', 'dre', 'sol', 'pa', 'ri', 'gon', 'el', 'fu', 'ste', 'ban', 'cro', 'wy', 'the', 'nor', 'qui', 'zel'];
+const SYL = [
+  'ka',
+  'lo',
+  'mer',
+  'tin',
+  'va',
+  'dre',
+  'sol',
+  'pa',
+  'ri',
+  'gon',
+  'el',
+  'fu',
+  'ste',
+  'ban',
+  'cro',
+  'wy',
+  'the',
+  'nor',
+  'qui',
+  'zel',
+];
 export const VOCAB: string[] = [...TRADE];
-for (let i = 0; VOCAB.length < 6000; i++) VOCAB.push(SYL[i % 20] + SYL[Math.floor(i / 20) % 20] + SYL[Math.floor(i / 400) % 20] + (i >= 8000 ? 'n' : ''));
+for (let i = 0; VOCAB.length < 6000; i++)
+  VOCAB.push(SYL[i % 20] + SYL[Math.floor(i / 20) % 20] + SYL[Math.floor(i / 400) % 20] + (i >= 8000 ? 'n' : ''));
 const CUM: number[] = [];
 {
   let t = 0;
@@ -37,9 +59,31 @@ const words = (n: number) => Array.from({ length: n }, zipfWord).join(' ');
 const pick = <T>(xs: T[]) => xs[Math.floor(rnd() * xs.length)];
 
 const DYES = ['madder', 'indigo', 'weld', 'cochineal', 'logwood', 'quercitron', 'fustic', 'sumac'];
-const MORDANTS = ['aluminium acetate (basic)', 'iron(II) acetate', 'potash alum', 'tin(II) chloride', 'potassium dichromate', 'copper(II) sulfate'];
-const TECH = ['block printing', 'mordant printing', 'pencilling', 'resist', 'roller printing', 'overdyeing', 'vat dyeing'];
-const PLACES = ['Calderwick', 'Calderwick print works', 'coastal workshop', 'unknown', 'river valley mill', 'market town'];
+const MORDANTS = [
+  'aluminium acetate (basic)',
+  'iron(II) acetate',
+  'potash alum',
+  'tin(II) chloride',
+  'potassium dichromate',
+  'copper(II) sulfate',
+];
+const TECH = [
+  'block printing',
+  'mordant printing',
+  'pencilling',
+  'resist',
+  'roller printing',
+  'overdyeing',
+  'vat dyeing',
+];
+const PLACES = [
+  'Calderwick',
+  'Calderwick print works',
+  'coastal workshop',
+  'unknown',
+  'river valley mill',
+  'market town',
+];
 
 // Numbers go in as literals (escaping a million of them through the ORM was most of the load time).
 const lit = (v: unknown) => (typeof v === 'number' ? String(v) : sequelize.escape(v as string));
@@ -66,16 +110,70 @@ export async function insertPieces(n: number) {
   for (let i = 0; i < n; i++) {
     const y = 1650 + Math.floor(rnd() * 250);
     pieces.push([
-      `B.${i + 1}`, accessionKey(`B.${i + 1}`), accessionSortKey(`B.${i + 1}`), pick(['furnishing fabric', 'dress fabric', 'panel', 'fragment', 'sample book page']), `${words(3)} ${pick(TRADE)}`, words(25 + Math.floor(rnd() * 35)),
-      `Given ${words(4)}`, pick(PLACES), JSON.stringify([pick(['cotton', 'linen', 'silk', 'wool'])]), JSON.stringify([pick(TECH), pick(TECH)]),
-      JSON.stringify([{ name: pick(DYES), evidence: 'attributed' }]), JSON.stringify([{ name: pick(MORDANTS), evidence: 'attributed' }]), y, y + Math.floor(rnd() * 30), 'published', now, now,
+      `B.${i + 1}`,
+      accessionKey(`B.${i + 1}`),
+      accessionSortKey(`B.${i + 1}`),
+      pick(['furnishing fabric', 'dress fabric', 'panel', 'fragment', 'sample book page']),
+      `${words(3)} ${pick(TRADE)}`,
+      words(25 + Math.floor(rnd() * 35)),
+      `Given ${words(4)}`,
+      pick(PLACES),
+      JSON.stringify([pick(['cotton', 'linen', 'silk', 'wool'])]),
+      JSON.stringify([pick(TECH), pick(TECH)]),
+      JSON.stringify([{ name: pick(DYES), evidence: 'attributed' }]),
+      JSON.stringify([{ name: pick(MORDANTS), evidence: 'attributed' }]),
+      y,
+      y + Math.floor(rnd() * 30),
+      'published',
+      now,
+      now,
     ]);
   }
-  await insertRows('pieces', ['accessionNumber', 'accessionKey', 'accessionSort', 'objectName', 'title', 'description', 'provenance', 'place', 'fibres', 'techniques', 'dyestuffs', 'historicalMordants', 'earliestYear', 'latestYear', 'status', 'createdAt', 'updatedAt'], pieces, 2000);
+  await insertRows(
+    'pieces',
+    [
+      'accessionNumber',
+      'accessionKey',
+      'accessionSort',
+      'objectName',
+      'title',
+      'description',
+      'provenance',
+      'place',
+      'fibres',
+      'techniques',
+      'dyestuffs',
+      'historicalMordants',
+      'earliestYear',
+      'latestYear',
+      'status',
+      'createdAt',
+      'updatedAt',
+    ],
+    pieces,
+    2000,
+  );
   const ids = (await sequelize.query('SELECT id FROM pieces ORDER BY id', { type: 'SELECT' })) as Array<{ id: number }>;
-  const photos = ids.map((p) => [p.id, createHash('sha256').update(`bench-${p.id}`).digest('hex'), 'jpeg', 1, 1, 1, '{}', '{}', now, now]);
-  await insertRows('photos', ['pieceId', 'sha256', 'format', 'bytes', 'width', 'height', 'exif', 'derivatives', 'createdAt', 'updatedAt'], photos);
-  return ((await sequelize.query('SELECT id FROM photos ORDER BY id', { type: 'SELECT' })) as Array<{ id: number }>).map((p) => p.id);
+  const photos = ids.map((p) => [
+    p.id,
+    createHash('sha256').update(`bench-${p.id}`).digest('hex'),
+    'jpeg',
+    1,
+    1,
+    1,
+    '{}',
+    '{}',
+    now,
+    now,
+  ]);
+  await insertRows(
+    'photos',
+    ['pieceId', 'sha256', 'format', 'bytes', 'width', 'height', 'exif', 'derivatives', 'createdAt', 'updatedAt'],
+    photos,
+  );
+  return (
+    (await sequelize.query('SELECT id FROM photos ORDER BY id', { type: 'SELECT' })) as Array<{ id: number }>
+  ).map((p) => p.id);
 }
 
 // Common dye shades an archive of printed cottons bunches around (CIELAB D65, approximate, from memory of typical
@@ -106,19 +204,58 @@ export function clusteredColour() {
 }
 
 /** Replace every palette row: `perPhoto` colours on each photo, shares summing to 1. */
-export async function insertPalettes(photoIds: number[], perPhoto: number, make: () => { L: number; a: number; b: number }) {
+export async function insertPalettes(
+  photoIds: number[],
+  perPhoto: number,
+  make: () => { L: number; a: number; b: number },
+) {
   await sequelize.query('DELETE FROM palette_colours');
   const now = new Date();
   const rows: unknown[][] = [];
   const flush = async () => {
-    await insertRows('palette_colours', ['photoId', 'variant', 'rank', 'L', 'a', 'b', 'hex', 'share', 'spread', 'name', 'background', 'source', 'createdAt', 'updatedAt'], rows.splice(0), 8000);
+    await insertRows(
+      'palette_colours',
+      [
+        'photoId',
+        'variant',
+        'rank',
+        'L',
+        'a',
+        'b',
+        'hex',
+        'share',
+        'spread',
+        'name',
+        'background',
+        'source',
+        'createdAt',
+        'updatedAt',
+      ],
+      rows.splice(0),
+      8000,
+    );
   };
   for (const ph of photoIds) {
     const w = Array.from({ length: perPhoto }, () => rnd() + 0.05);
     const sum = w.reduce((s, x) => s + x, 0);
     for (let k = 0; k < perPhoto; k++) {
       const lab = make();
-      rows.push([ph, 'raw', k + 1, lab.L, lab.a, lab.b, labToHex(lab), w[k] / sum, 1, 'bench', 0, 'image-estimate', now, now]);
+      rows.push([
+        ph,
+        'raw',
+        k + 1,
+        lab.L,
+        lab.a,
+        lab.b,
+        labToHex(lab),
+        w[k] / sum,
+        1,
+        'bench',
+        0,
+        'image-estimate',
+        now,
+        now,
+      ]);
     }
     if (rows.length >= 100_000) await flush();
   }

@@ -1,5 +1,14 @@
 import type { Bench, BenchResult } from './index.ts';
-import { CLUSTERS, VOCAB, clusteredColour, insertPalettes, insertPieces, rnd, uniformColour, zipfWord } from './search-data.ts';
+import {
+  CLUSTERS,
+  VOCAB,
+  clusteredColour,
+  insertPalettes,
+  insertPieces,
+  rnd,
+  uniformColour,
+  zipfWord,
+} from './search-data.ts';
 import { testEnv } from '../support/env.ts';
 
 /**
@@ -17,7 +26,8 @@ const PER_PHOTO = 6;
 const QUERIES = 200;
 const CHECKED = 40;
 
-const pct = (xs: number[], p: number) => [...xs].sort((x, y) => x - y)[Math.min(xs.length - 1, Math.floor((p / 100) * xs.length))];
+const pct = (xs: number[], p: number) =>
+  [...xs].sort((x, y) => x - y)[Math.min(xs.length - 1, Math.floor((p / 100) * xs.length))];
 const mean = (xs: number[]) => xs.reduce((s, x) => s + x, 0) / xs.length;
 
 async function timed<T>(fn: () => Promise<T>): Promise<[T, number]> {
@@ -58,13 +68,19 @@ export const searchBench: Bench = {
     ] as const) {
       if (!PARTS.includes(label)) continue;
       const [, palMs] = await timed(() => insertPalettes(photoIds, PER_PHOTO, make));
-      out.push({ metric: `${label}: insert palette colours`, value: palMs / 1000, unit: `s (${photoIds.length * PER_PHOTO} colours)` });
+      out.push({
+        metric: `${label}: insert palette colours`,
+        value: palMs / 1000,
+        unit: `s (${photoIds.length * PER_PHOTO} colours)`,
+      });
       const [, loadMs] = await timed(() => searchEngine.reloadAll());
       out.push({ metric: `${label}: load indexes from MariaDB`, value: loadMs / 1000, unit: 's' });
       // 20 untimed queries first: the server has just loaded a million rows (JIT warm-up, GC of the load's garbage).
       for (let i = 0; i < 20; i++) {
         // Fixed colours, so the timed queries' random stream is the same with or without the warm-up.
-        await get(`/api/search/shade?L=${20 + ((i * 37) % 60)}&a=${-40 + ((i * 53) % 80)}&b=${-40 + ((i * 29) % 80)}&maxDeltaE=5&limit=50`);
+        await get(
+          `/api/search/shade?L=${20 + ((i * 37) % 60)}&a=${-40 + ((i * 53) % 80)}&b=${-40 + ((i * 29) % 80)}&maxDeltaE=5&limit=50`,
+        );
       }
       const api: number[] = [];
       const direct: number[] = [];
@@ -74,12 +90,21 @@ export const searchBench: Bench = {
       const allow = new Uint8Array(PIECES + 10).fill(1);
       for (let i = 0; i < QUERIES; i++) {
         const q = queryAt();
-        const { body, ms } = await get(`/api/search/shade?L=${q.L.toFixed(3)}&a=${q.a.toFixed(3)}&b=${q.b.toFixed(3)}&maxDeltaE=5&limit=50`);
+        const { body, ms } = await get(
+          `/api/search/shade?L=${q.L.toFixed(3)}&a=${q.a.toFixed(3)}&b=${q.b.toFixed(3)}&maxDeltaE=5&limit=50`,
+        );
         api.push(ms);
         matches.push(body.total);
         // The same query straight on the index, to show what the HTTP round trip adds.
         const t1 = performance.now();
-        searchEngine.shade.query({ L: Number(q.L.toFixed(3)), a: Number(q.a.toFixed(3)), b: Number(q.b.toFixed(3)), maxDeltaE: 5, limit: 50, allow });
+        searchEngine.shade.query({
+          L: Number(q.L.toFixed(3)),
+          a: Number(q.a.toFixed(3)),
+          b: Number(q.b.toFixed(3)),
+          maxDeltaE: 5,
+          limit: 50,
+          allow,
+        });
         direct.push(performance.now() - t1);
         if (i < CHECKED) {
           const lab = { L: Number(q.L.toFixed(3)), a: Number(q.a.toFixed(3)), b: Number(q.b.toFixed(3)) };
@@ -89,7 +114,9 @@ export const searchBench: Bench = {
           const same =
             scan.total === body.total &&
             scan.items.length === body.items.length &&
-            scan.items.every((m, k) => m.pieceId === body.items[k].pieceId && Math.abs(m.deltaE00 - body.items[k].deltaE00) < 5e-4);
+            scan.items.every(
+              (m, k) => m.pieceId === body.items[k].pieceId && Math.abs(m.deltaE00 - body.items[k].deltaE00) < 5e-4,
+            );
           if (!same) mismatches++;
         }
       }
@@ -97,11 +124,25 @@ export const searchBench: Bench = {
       out.push(
         { metric: `${label}: shade search p50 via API`, value: pct(api, 50), unit: 'ms' },
         { metric: `${label}: shade search p95 via API`, value: p95, unit: 'ms', target: '≤ 25', pass: p95 <= 25 },
-        { metric: `${label}: the same queries on the index in-process, p50 / p95`, value: pct(direct, 50), unit: `ms / ${pct(direct, 95).toFixed(1)} ms` },
+        {
+          metric: `${label}: the same queries on the index in-process, p50 / p95`,
+          value: pct(direct, 50),
+          unit: `ms / ${pct(direct, 95).toFixed(1)} ms`,
+        },
         { metric: `${label}: matching pieces per query (mean)`, value: mean(matches), unit: 'pieces' },
         { metric: `${label}: brute-force ΔE00 scan of every colour (mean)`, value: mean(brute), unit: 'ms' },
-        { metric: `${label}: speed-up over brute force (scan mean / API p50)`, value: mean(brute) / pct(api, 50), unit: '×' },
-        { metric: `${label}: queries differing from brute force`, value: mismatches, unit: `of ${CHECKED}`, target: '0', pass: mismatches === 0 },
+        {
+          metric: `${label}: speed-up over brute force (scan mean / API p50)`,
+          value: mean(brute) / pct(api, 50),
+          unit: '×',
+        },
+        {
+          metric: `${label}: queries differing from brute force`,
+          value: mismatches,
+          unit: `of ${CHECKED}`,
+          target: '0',
+          pass: mismatches === 0,
+        },
       );
     }
 
@@ -114,13 +155,28 @@ export const searchBench: Bench = {
     const [, textMs] = await timed(async () => {
       await searchEngine.reloadAll();
     });
-    out.push({ metric: 'text: load pieces + build both indexes', value: textMs / 1000, unit: `s (${PIECES} pieces, ${VOCAB.length} vocabulary words)` });
-    out.push({ metric: 'heap after indexes (approximate, no forced GC)', value: process.memoryUsage().heapUsed / 2 ** 20, unit: `MB (was ${(before / 2 ** 20).toFixed(0)} MB)` });
+    out.push({
+      metric: 'text: load pieces + build both indexes',
+      value: textMs / 1000,
+      unit: `s (${PIECES} pieces, ${VOCAB.length} vocabulary words)`,
+    });
+    out.push({
+      metric: 'heap after indexes (approximate, no forced GC)',
+      value: process.memoryUsage().heapUsed / 2 ** 20,
+      unit: `MB (was ${(before / 2 ** 20).toFixed(0)} MB)`,
+    });
     const text: number[] = [];
     for (let i = 0; i < QUERIES; i++) {
       const kind = i % 4;
       const w = zipfWord();
-      const q = kind === 0 ? w : kind === 1 ? `${w} ${zipfWord()}` : kind === 2 ? w.slice(0, Math.max(3, w.length - 2)) : `${w.slice(0, 2)}x${w.slice(3)}`;
+      const q =
+        kind === 0
+          ? w
+          : kind === 1
+            ? `${w} ${zipfWord()}`
+            : kind === 2
+              ? w.slice(0, Math.max(3, w.length - 2))
+              : `${w.slice(0, 2)}x${w.slice(3)}`;
       const extra = i % 5 === 0 ? '&dyestuff=madder' : '';
       text.push((await get(`/api/search?q=${encodeURIComponent(q)}${extra}`)).ms);
     }

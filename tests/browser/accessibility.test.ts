@@ -59,7 +59,15 @@ describe('every main page passes axe (WCAG 2.1 AA, serious and critical)', () =>
     const { piece } = await demo();
     const page = await suite.browser.context.newPage();
     const found = await check(page, 'visitor', [
-      '/', '/sign-in', '/forgot-password', '/archive', `/archive/${piece}`, '/search', '/search?q=madder', '/search?hex=a53a2d', '/reference',
+      '/',
+      '/sign-in',
+      '/forgot-password',
+      '/archive',
+      `/archive/${piece}`,
+      '/search',
+      '/search?q=madder',
+      '/search?hex=a53a2d',
+      '/reference',
     ]);
     // A page that needs an account says so in its own words.
     await page.goto(`${suite.server.url}/trials`, { waitUntil: 'networkidle' });
@@ -73,8 +81,17 @@ describe('every main page passes axe (WCAG 2.1 AA, serious and critical)', () =>
     const page = await suite.browser.context.newPage();
     await signInAs(page, suite.server.url, 'dyer@demo.test');
     const found = await check(page, 'dyer', [
-      '/', '/trials', `/trials/${trial}`, '/trials/new', `/archive/${piece}/side-by-side`, '/baths', `/baths/${bath}`, '/series', `/series/${series}`,
-      '/search?hex=a53a2d', '/reference',
+      '/',
+      '/trials',
+      `/trials/${trial}`,
+      '/trials/new',
+      `/archive/${piece}/side-by-side`,
+      '/baths',
+      `/baths/${bath}`,
+      '/series',
+      `/series/${series}`,
+      '/search?hex=a53a2d',
+      '/reference',
     ]);
     expect(found).toEqual([]);
   }, 300_000);
@@ -83,7 +100,14 @@ describe('every main page passes axe (WCAG 2.1 AA, serious and critical)', () =>
     const { piece, trial } = await demo();
     const page = await suite.browser.context.newPage();
     await signInAs(page, suite.server.url, 'researcher@demo.test');
-    const found = await check(page, 'researcher', ['/', '/archive', `/archive/${piece}`, '/search?q=madder', `/trials/${trial}`, '/reference']);
+    const found = await check(page, 'researcher', [
+      '/',
+      '/archive',
+      `/archive/${piece}`,
+      '/search?q=madder',
+      `/trials/${trial}`,
+      '/reference',
+    ]);
     expect(found).toEqual([]);
   }, 300_000);
 
@@ -91,7 +115,15 @@ describe('every main page passes axe (WCAG 2.1 AA, serious and critical)', () =>
     const { piece } = await demo();
     const page = await suite.browser.context.newPage();
     await signInAs(page, suite.server.url, 'curator@demo.test');
-    const found = await check(page, 'curator', ['/', '/archive', `/archive/${piece}`, `/archive/${piece}/edit`, '/archive/new', '/import', '/reference']);
+    const found = await check(page, 'curator', [
+      '/',
+      '/archive',
+      `/archive/${piece}`,
+      `/archive/${piece}/edit`,
+      '/archive/new',
+      '/import',
+      '/reference',
+    ]);
     expect(found).toEqual([]);
   }, 300_000);
 
@@ -119,18 +151,24 @@ describe('every main page passes axe (WCAG 2.1 AA, serious and critical)', () =>
     await opened('visitor', '/sign-in', 'Sign in', invalid);
     await signInAs(page, suite.server.url, 'curator@demo.test');
     await opened('curator', '/archive/new', 'Save draft', invalid);
-    await opened('curator', `/archive/${piece}`, 'Show who changed what', () => page.getByRole('button', { name: 'Show who changed what' }).waitFor({ state: 'detached' }));
+    await opened('curator', `/archive/${piece}`, 'Show who changed what', () =>
+      page.getByRole('button', { name: 'Show who changed what' }).waitFor({ state: 'detached' }),
+    );
 
     // The dyer's editors on a trial of their own.
     await signInAs(page, suite.server.url, 'dyer@demo.test');
     for (const button of ['Edit details', 'Edit recipe', 'Add a substitution', 'Record grades'])
-      await opened('dyer', `/trials/${trial}`, button, () => page.getByRole('button', { name: button }).waitFor({ state: 'detached' }));
+      await opened('dyer', `/trials/${trial}`, button, () =>
+        page.getByRole('button', { name: button }).waitFor({ state: 'detached' }),
+      );
 
     // A phone: the folded menu and the search's facet panel, open.
     await signInAs(page, suite.server.url, 'admin@demo.test');
     await page.setViewportSize({ width: 390, height: 844 });
     await opened('admin at 390 px', '/archive', 'Menu', () => page.getByRole('navigation', { name: 'Main' }).waitFor());
-    await opened('admin at 390 px', '/search?hex=a53a2d', /Narrow by shade and facets/, () => page.getByRole('region', { name: 'Facets' }).waitFor());
+    await opened('admin at 390 px', '/search?hex=a53a2d', /Narrow by shade and facets/, () =>
+      page.getByRole('region', { name: 'Facets' }).waitFor(),
+    );
     expect(found).toEqual([]);
   }, 300_000);
 });

@@ -11,8 +11,18 @@ beforeAll(async () => {
   browser = await launchBrowser();
   const dyer = await User.findOne({ where: { email: 'dyer@demo.test' }, rejectOnEmpty: true });
   batch = await MordantBatch.create({
-    code: `BR-${Date.now() % 1_000_000}`, kind: 'mordant-bath', name: 'Browser test alum bath', ingredients: [], volumeMl: 500, thickenerGPerL: null, ph: null,
-    madeOn: '2024-05-01', madeById: dyer.id, checkBy: null, parentId: null, notes: null,
+    code: `BR-${Date.now() % 1_000_000}`,
+    kind: 'mordant-bath',
+    name: 'Browser test alum bath',
+    ingredients: [],
+    volumeMl: 500,
+    thickenerGPerL: null,
+    ph: null,
+    madeOn: '2024-05-01',
+    madeById: dyer.id,
+    checkBy: null,
+    parentId: null,
+    notes: null,
   });
 });
 afterAll(async () => {

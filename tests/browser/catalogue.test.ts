@@ -83,13 +83,23 @@ describe('cataloguing a piece in Chromium', () => {
     await page.getByText('image estimate · D65/2°').first().waitFor();
     // The test JPEG carries no ICC profile: its file facts say it was taken as sRGB.
     await page.getByText('File facts').first().click();
-    await expect(page.getByTestId('colour-facts').first().textContent()).resolves.toMatch(/No embedded colour profile: taken as sRGB.*8 bits/s);
+    await expect(page.getByTestId('colour-facts').first().textContent()).resolves.toMatch(
+      /No embedded colour profile: taken as sRGB.*8 bits/s,
+    );
     // EXIF as labelled values with units, the camera's clock as written.
     const exif = await page.getByTestId('exif').first().innerText();
-    expect(exif.split('\n').map((l) => l.trim()).filter(Boolean).join(' | ')).toBe(
+    expect(
+      exif
+        .split('\n')
+        .map((l) => l.trim())
+        .filter(Boolean)
+        .join(' | '),
+    ).toBe(
       "Camera | Weldfold Copy Stand 2 | Exposure | 1/60 s | Aperture | f/8 | Sensitivity | ISO 200 | Focal length | 50 mm | Taken | 2025-03-14 10:22 (camera's clock)",
     );
-    await expect(page.getByTestId('photo-panel').first().textContent()).resolves.toMatch(/jpeg · \d+ kB · taken 2025-03-14 10:22/);
+    await expect(page.getByTestId('photo-panel').first().textContent()).resolves.toMatch(
+      /jpeg · \d+ kB · taken 2025-03-14 10:22/,
+    );
     await page.getByTestId('photo-panel').first().screenshot({ path: '.data/test/file-facts.png' });
 
     await page.getByRole('button', { name: 'Publish' }).click();

@@ -13,7 +13,11 @@ let photo: Photo;
 
 beforeAll(async () => {
   const piece = await makePiece({ status: 'published', title: 'Deep-zoom browser piece' });
-  ({ photo } = await makePhotoWithMaster(piece.id, { width: 2400, height: 1600, regions: [{ x: 200, y: 300, w: 500, h: 400, label: 'madder pink ground' }] }));
+  ({ photo } = await makePhotoWithMaster(piece.id, {
+    width: 2400,
+    height: 1600,
+    regions: [{ x: 200, y: 300, w: 500, h: 400, label: 'madder pink ground' }],
+  }));
   await enqueueTiles(photo.id);
   await drain({ types: ['tile-photo'] });
   server = await startServer();
@@ -52,7 +56,9 @@ describe('deep-zoom viewer in Chromium', () => {
 
     // OpenSeadragon stops at 2 screen pixels per image pixel (maxZoomPixelRatio), about × 3.9 here.
     for (let i = 0; i < 5; i++) await page.getByRole('button', { name: 'Zoom in' }).click();
-    await expect.poll(async () => Number(await level.getAttribute('data-zoom')), { timeout: 20_000 }).toBeGreaterThan(start * 2);
+    await expect
+      .poll(async () => Number(await level.getAttribute('data-zoom')), { timeout: 20_000 })
+      .toBeGreaterThan(start * 2);
     await expect.poll(() => tiles.some((t) => t.scale === 1), { timeout: 20_000 }).toBe(true);
     expect(failed).toEqual([]);
     expect(errors).toEqual([]);
@@ -60,7 +66,9 @@ describe('deep-zoom viewer in Chromium', () => {
     // The keyboard reaches the controls.
     await page.getByRole('button', { name: 'Whole photo' }).focus();
     await page.keyboard.press('Enter');
-    await expect.poll(async () => Number(await level.getAttribute('data-zoom')), { timeout: 20_000 }).toBeLessThan(start * 1.5);
+    await expect
+      .poll(async () => Number(await level.getAttribute('data-zoom')), { timeout: 20_000 })
+      .toBeLessThan(start * 1.5);
     await page.close();
   }, 90_000);
 });

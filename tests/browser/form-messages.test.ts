@@ -7,7 +7,8 @@ import { useBrowserSuite } from '../support/browser-suite.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
 
 // zod's own English, which must never reach the page.
-const RAW = /Invalid input|Invalid option|expected (string|number|boolean)|received|Too big|Too small|Unrecognized key|Enter The|NaN/;
+const RAW =
+  /Invalid input|Invalid option|expected (string|number|boolean)|received|Too big|Too small|Unrecognized key|Enter The|NaN/;
 
 const suite = useBrowserSuite();
 
@@ -63,7 +64,9 @@ describe('every named form, empty and wrong, in people’s words under the field
     expect(text).toContain('Choose an ingredient');
     expect(text).toContain('Enter the amount');
     await expect.poll(() => isFocused(step.getByLabel(/^Time/))).toBe(true);
-    await expect(page.getByRole('alert').textContent()).resolves.toBe('Some fields need attention; see the steps above.');
+    await expect(page.getByRole('alert').textContent()).resolves.toBe(
+      'Some fields need attention; see the steps above.',
+    );
     await noRawText(page);
   });
 
@@ -127,7 +130,9 @@ describe('every named form, empty and wrong, in people’s words under the field
     await form.getByLabel('Factor', { exact: true }).first().fill('');
     await form.getByRole('button', { name: 'Create series' }).click();
     await expect(messageOf(code)).resolves.toBe('Use at least 2 characters for the code');
-    await expect(messageOf(form.getByLabel('Dead-volume allowance'))).resolves.toBe('The dead-volume allowance must be 100 % or less');
+    await expect(messageOf(form.getByLabel('Dead-volume allowance'))).resolves.toBe(
+      'The dead-volume allowance must be 100 % or less',
+    );
     await expect(form.innerText()).resolves.toContain('Name the factor');
     await expect.poll(() => isFocused(code)).toBe(true);
     await noRawText(page);
@@ -192,7 +197,9 @@ describe('every named form, empty and wrong, in people’s words under the field
     const L = reading.getByLabel('L*', { exact: true });
     await reading.getByRole('button', { name: 'Add reading' }).click();
     await expect(messageOf(L)).resolves.toBe('Enter L* as a number from 0 to 100');
-    await expect(messageOf(reading.getByLabel('b*', { exact: true }))).resolves.toBe('Enter b* as a number from −200 to 200');
+    await expect(messageOf(reading.getByLabel('b*', { exact: true }))).resolves.toBe(
+      'Enter b* as a number from −200 to 200',
+    );
     await expect.poll(() => isFocused(L)).toBe(true);
     await L.fill('120');
     await reading.getByLabel('a*', { exact: true }).fill('0');
@@ -212,7 +219,9 @@ describe('every named form, empty and wrong, in people’s words under the field
     await sub.getByLabel('or modern practice').fill('alum mordant');
     await sub.getByLabel('Historical amount').fill('lots');
     await sub.getByRole('button', { name: 'Save substitution' }).click();
-    await expect(messageOf(sub.getByLabel('Historical amount'))).resolves.toBe('Enter the historical amount as a number in g');
+    await expect(messageOf(sub.getByLabel('Historical amount'))).resolves.toBe(
+      'Enter the historical amount as a number in g',
+    );
     await noRawText(page);
 
     // Every grade is chosen from its list, so the grades cannot be wrong on screen; they save as before.
@@ -299,9 +308,15 @@ describe('every named form, empty and wrong, in people’s words under the field
     await save.click();
     await expect.poll(() => save.isDisabled()).toBe(true);
     await page.reload();
-    await expect.poll(() => page.getByRole('form', { name: 'Target colour' }).getByLabel('Target colour of the original').inputValue()).toBe(chosen);
+    await expect
+      .poll(() =>
+        page.getByRole('form', { name: 'Target colour' }).getByLabel('Target colour of the original').inputValue(),
+      )
+      .toBe(chosen);
     await series.reload();
-    expect([series.targetPaletteColourId, series.targetRegionId, series.targetMeasurementId].filter((x) => x != null)).toHaveLength(1);
+    expect(
+      [series.targetPaletteColourId, series.targetRegionId, series.targetMeasurementId].filter((x) => x != null),
+    ).toHaveLength(1);
     // The demo workshop goes back to no target, as the other suites know it.
     await series.update({ targetPaletteColourId: null, targetRegionId: null, targetMeasurementId: null });
   });

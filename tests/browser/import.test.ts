@@ -13,7 +13,9 @@ describe('importing a spreadsheet catalogue in Chromium', () => {
     const page = await suite.browser.context.newPage();
     await signInAs(page, suite.server.url, 'curator@demo.test');
     await page.goto(`${suite.server.url}/import`);
-    await page.getByLabel('CSV file (UTF-8)').setInputFiles({ name: 'catalogue.csv', mimeType: 'text/csv', buffer: Buffer.from(bad) });
+    await page
+      .getByLabel('CSV file (UTF-8)')
+      .setInputFiles({ name: 'catalogue.csv', mimeType: 'text/csv', buffer: Buffer.from(bad) });
     // "Title" is guessed; the others are mapped by hand with the keyboard-usable selects.
     await page.getByLabel('Field for column Accession No.').selectOption('accessionNumber');
     await page.getByLabel('Field for column Object').selectOption('objectName');
@@ -24,21 +26,30 @@ describe('importing a spreadsheet catalogue in Chromium', () => {
     expect(await page.getByRole('button', { name: /^Import/ }).isDisabled()).toBe(true);
 
     const good = bad.replace('unobtainium', 'weld (attributed)');
-    await page.getByLabel('CSV file (UTF-8)').setInputFiles({ name: 'catalogue.csv', mimeType: 'text/csv', buffer: Buffer.from(good) });
+    await page
+      .getByLabel('CSV file (UTF-8)')
+      .setInputFiles({ name: 'catalogue.csv', mimeType: 'text/csv', buffer: Buffer.from(good) });
     await page.getByLabel('Field for column Accession No.').selectOption('accessionNumber');
     await page.getByLabel('Field for column Object').selectOption('objectName');
     await page.getByLabel('Field for column Dyes').selectOption('dyestuffs');
     await page.getByRole('button', { name: 'Check every row' }).click();
     await page.getByRole('button', { name: 'Import 2 pieces' }).click();
     await page.getByRole('status').filter({ hasText: 'Imported 2 pieces' }).waitFor();
-    const rows = await Piece.findAll({ where: { accessionNumber: { [Op.like]: `${tag}%` } }, order: [['accessionNumber', 'ASC']] });
+    const rows = await Piece.findAll({
+      where: { accessionNumber: { [Op.like]: `${tag}%` } },
+      order: [['accessionNumber', 'ASC']],
+    });
     expect(rows.map((r) => [r.accessionNumber, r.dyestuffs])).toEqual([
       [`${tag}.1`, [{ name: 'madder', evidence: 'identified' }]],
       [`${tag}.2`, [{ name: 'weld', evidence: 'attributed' }]],
     ]);
 
     // A Latin-1 file is refused with the line of the first bad byte.
-    await page.getByLabel('CSV file (UTF-8)').setInputFiles({ name: 'old.csv', mimeType: 'text/csv', buffer: Buffer.from(`accessionNumber,objectName,title\n${tag}.9,panel,Toile imprimée\n`, 'latin1') });
+    await page.getByLabel('CSV file (UTF-8)').setInputFiles({
+      name: 'old.csv',
+      mimeType: 'text/csv',
+      buffer: Buffer.from(`accessionNumber,objectName,title\n${tag}.9,panel,Toile imprimée\n`, 'latin1'),
+    });
     await page.getByRole('button', { name: 'Check every row' }).click();
     await expect.poll(() => page.getByRole('alert').first().textContent()).toMatch(/not UTF-8: line 2/);
     await page.close();

@@ -46,8 +46,24 @@ describe('every main page at 390 × 844', () => {
     const trial = await Trial.findOne({ where: { code: 'T-2024-001' }, rejectOnEmpty: true });
     const bath = await MordantBatch.findOne({ where: { code: 'MB-07' }, rejectOnEmpty: true });
     const series = await TrialSeries.findOne({ where: { code: 'WS-2024-01' }, rejectOnEmpty: true });
-    const publicPages = ['/', '/archive', `/archive/${piece.id}`, '/search?hex=a53a2d', '/search?q=madder', '/reference', '/sign-in'];
-    const signedIn = [`/archive/${piece.id}/side-by-side`, '/trials', `/trials/${trial.id}`, '/baths', `/baths/${bath.id}`, '/series', `/series/${series.id}`];
+    const publicPages = [
+      '/',
+      '/archive',
+      `/archive/${piece.id}`,
+      '/search?hex=a53a2d',
+      '/search?q=madder',
+      '/reference',
+      '/sign-in',
+    ];
+    const signedIn = [
+      `/archive/${piece.id}/side-by-side`,
+      '/trials',
+      `/trials/${trial.id}`,
+      '/baths',
+      `/baths/${bath.id}`,
+      '/series',
+      `/series/${series.id}`,
+    ];
     const byRole: Array<[string | null, string[]]> = [
       [null, publicPages],
       ['dyer@demo.test', [...signedIn, `/archive/${piece.id}`, '/search?hex=a53a2d']],
@@ -82,7 +98,18 @@ describe('every main page at 390 × 844', () => {
     // The admin's pages come into the same menu, so the header row stays within the phone's width.
     await pictureAsIs(page, 'menu-open-390');
     const items = await nav.getByRole('link').allTextContents();
-    expect(items).toEqual(['Archive', 'Find', 'Trials', 'Baths', 'Series', 'Reference', 'Import', 'Team', 'Fixity', 'Outbox']);
+    expect(items).toEqual([
+      'Archive',
+      'Find',
+      'Trials',
+      'Baths',
+      'Series',
+      'Reference',
+      'Import',
+      'Team',
+      'Fixity',
+      'Outbox',
+    ]);
     expect(await scrollWidth(page)).toBeLessThanOrEqual(PHONE.width);
     await nav.getByRole('link', { name: 'Baths' }).click();
     await page.waitForURL((u) => u.pathname === '/baths');
@@ -102,7 +129,9 @@ describe('every main page at 390 × 844', () => {
     await expect.poll(() => page.getByTestId('result-count').textContent()).toMatch(/within ΔE00 5/);
     const facets = page.getByRole('region', { name: 'Facets' });
     await expect(facets.isVisible()).resolves.toBe(false);
-    const toggle = page.getByTestId('narrow-panel').getByRole('button', { name: /Narrow by shade and facets \(1 chosen\)/ });
+    const toggle = page
+      .getByTestId('narrow-panel')
+      .getByRole('button', { name: /Narrow by shade and facets \(1 chosen\)/ });
     await toggle.click();
     await facets.waitFor();
     await expect(toggle.getAttribute('aria-expanded')).resolves.toBe('true');
@@ -122,7 +151,10 @@ describe('every main page at 390 × 844', () => {
     const recipe = page.getByRole('region', { name: 'Recipe' });
     await recipe.getByTestId('recipe-step').first().waitFor();
     await expect(recipe.locator('thead').isVisible()).resolves.toBe(false);
-    const labels = await recipe.locator('td[data-label="Grams"]').first().evaluate((td) => getComputedStyle(td, '::before').content);
+    const labels = await recipe
+      .locator('td[data-label="Grams"]')
+      .first()
+      .evaluate((td) => getComputedStyle(td, '::before').content);
     expect(labels).toBe('"Grams"');
     const table = await recipe.locator('table').boundingBox();
     expect(table!.width).toBeLessThanOrEqual(PHONE.width);

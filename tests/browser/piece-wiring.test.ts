@@ -61,7 +61,9 @@ describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offer
     const dc = await page.getByRole('link', { name: 'Dublin Core (JSON-LD)' }).getAttribute('href');
     const answer = await page.request.get(`${server.url}${dc}`);
     expect(answer.status()).toBe(200);
-    expect(await page.getByRole('link', { name: /Masters \(ZIP/ }).getAttribute('href')).toBe(`/api/pieces/${pieceId}/masters.zip`);
+    expect(await page.getByRole('link', { name: /Masters \(ZIP/ }).getAttribute('href')).toBe(
+      `/api/pieces/${pieceId}/masters.zip`,
+    );
     const manifest = await page.request.get(`${server.url}/iiif/${pieceId}/manifest.json`);
     expect(manifest.status()).toBe(200);
 
@@ -70,7 +72,9 @@ describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offer
     await page.waitForURL((u) => u.pathname === '/import');
     expect(await page.getByRole('navigation', { name: 'Administration' }).count()).toBe(0);
     await page.goto(`${server.url}/archive`);
-    expect(await page.getByRole('link', { name: 'Export pieces (CSV)' }).getAttribute('href')).toBe('/api/export/pieces.csv');
+    expect(await page.getByRole('link', { name: 'Export pieces (CSV)' }).getAttribute('href')).toBe(
+      '/api/export/pieces.csv',
+    );
     await page.close();
   });
 

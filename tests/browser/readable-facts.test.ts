@@ -17,15 +17,22 @@ afterAll(async () => {
   await sequelize.close();
 });
 
-describe('facts in a person\'s format, in Chromium', () => {
-  it('names each page in the tab, and tells a piece\'s history in words with ISO dates', async () => {
+describe("facts in a person's format, in Chromium", () => {
+  it("names each page in the tab, and tells a piece's history in words with ISO dates", async () => {
     const curator = await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true });
     const piece = await makePiece({ accessionNumber: `EX ${Date.now() % 100000}/1`, title: 'History in words' });
     await sequelize.transaction(async (transaction) => {
       const ctx = { actor: { id: curator.id, role: curator.role }, transaction };
-      await audit(ctx, 'piece', piece.id, 'update', { dateEdtf: { from: null, to: '1770/1785' }, historicalMordants: { from: [], to: [] } });
-      await audit(ctx, 'piece', piece.id, 'region-added', { region: { from: null, to: { label: 'ground red', purpose: 'colour-area' } } });
-      await audit(ctx, 'piece', piece.id, 'reference-patch-set', { referencePatch: { from: null, to: { x: 1, y: 1, w: 5, h: 5 } } });
+      await audit(ctx, 'piece', piece.id, 'update', {
+        dateEdtf: { from: null, to: '1770/1785' },
+        historicalMordants: { from: [], to: [] },
+      });
+      await audit(ctx, 'piece', piece.id, 'region-added', {
+        region: { from: null, to: { label: 'ground red', purpose: 'colour-area' } },
+      });
+      await audit(ctx, 'piece', piece.id, 'reference-patch-set', {
+        referencePatch: { from: null, to: { x: 1, y: 1, w: 5, h: 5 } },
+      });
     });
 
     const page = await browser.context.newPage();

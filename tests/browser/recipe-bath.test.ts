@@ -17,11 +17,41 @@ describe('a dyer draws from a bath in the recipe editor', () => {
     const dyer = await User.findOne({ where: { email: 'dyer@demo.test' }, rejectOnEmpty: true });
     const code = `MB-${Math.floor(100 + Math.random() * 899)}${Date.now() % 1000}`;
     const bath = await MordantBatch.create({
-      code, kind: 'mordant-bath', name: 'Alum bath for the editor', ingredients: [], volumeMl: 1000, thickenerGPerL: null, ph: null,
-      madeOn: '2024-05-01', madeById: dyer.id, checkBy: null, parentId: null, notes: null,
+      code,
+      kind: 'mordant-bath',
+      name: 'Alum bath for the editor',
+      ingredients: [],
+      volumeMl: 1000,
+      thickenerGPerL: null,
+      ph: null,
+      madeOn: '2024-05-01',
+      madeById: dyer.id,
+      checkBy: null,
+      parentId: null,
+      notes: null,
     });
-    const trial = await withTrialCode((transaction) => createTrial({ actor: dyer, transaction, input: { dryMassG: 250 } }));
-    await sequelize.transaction((transaction) => RecipeStep.create({ trialId: trial.id, position: 1, operation: 'mordant-bath', ingredients: [], liquorRatio: 30, temperatureC: null, minutes: null, ph: null, paste: null, batchId: null, batchVolumeMl: null, notes: null }, { transaction }));
+    const trial = await withTrialCode((transaction) =>
+      createTrial({ actor: dyer, transaction, input: { dryMassG: 250 } }),
+    );
+    await sequelize.transaction((transaction) =>
+      RecipeStep.create(
+        {
+          trialId: trial.id,
+          position: 1,
+          operation: 'mordant-bath',
+          ingredients: [],
+          liquorRatio: 30,
+          temperatureC: null,
+          minutes: null,
+          ph: null,
+          paste: null,
+          batchId: null,
+          batchVolumeMl: null,
+          notes: null,
+        },
+        { transaction },
+      ),
+    );
 
     const page = await suite.browser.context.newPage();
     await page.setViewportSize({ width: 1280, height: 900 });
@@ -51,12 +81,18 @@ describe('a dyer draws from a bath in the recipe editor', () => {
     await page.setViewportSize({ width: 390, height: 844 });
     await page.screenshot({ path: `${shots}/recipe-bath-overdraw-390.png`, fullPage: true });
     await page.setViewportSize({ width: 1280, height: 900 });
-    expect((await BatchEvent.findAll({ where: { batchId: bath.id, type: 'use' } })).map((e) => e.volumeMl)).toEqual([300]);
+    expect((await BatchEvent.findAll({ where: { batchId: bath.id, type: 'use' } })).map((e) => e.volumeMl)).toEqual([
+      300,
+    ]);
     await page.getByRole('button', { name: 'Cancel' }).click();
 
     // Scaled to 1000 g the step draws 1200 mL; the bath holds 700 mL now.
     await page.getByLabel('Scale to dry mass').fill('1000');
-    await page.getByText(`Scaled, this recipe draws 1,200 mL from ${code}, which holds 700 mL now: make up or top up the bath first.`).waitFor();
+    await page
+      .getByText(
+        `Scaled, this recipe draws 1,200 mL from ${code}, which holds 700 mL now: make up or top up the bath first.`,
+      )
+      .waitFor();
     await page.screenshot({ path: `${shots}/recipe-bath-scaling-1280.png`, fullPage: true });
     await page.setViewportSize({ width: 390, height: 844 });
     await page.screenshot({ path: `${shots}/recipe-bath-scaling-390.png`, fullPage: true });

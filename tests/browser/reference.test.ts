@@ -30,8 +30,13 @@ describe('reference page in Chromium', () => {
     expect(statements.join(' ')).not.toMatch(/H400/);
     const source = await caution.getByTestId('hazard-source').allTextContents();
     expect(source).toHaveLength(1);
-    expect(source[0]).toMatch(/^Hazard data for lead\(II\) acetate \(sugar of lead\): Harmonised EU classification \(CLP\) — Annex VI index 082-005-00-8/);
-    const alum = await page.getByRole('complementary', { name: /Safety: potash alum/ }).getByTestId('hazard-source').textContent();
+    expect(source[0]).toMatch(
+      /^Hazard data for lead\(II\) acetate \(sugar of lead\): Harmonised EU classification \(CLP\) — Annex VI index 082-005-00-8/,
+    );
+    const alum = await page
+      .getByRole('complementary', { name: /Safety: potash alum/ })
+      .getByTestId('hazard-source')
+      .textContent();
     expect(alum).toMatch(/Recalled from memory — check the supplier's safety data sheet/);
 
     // Filtering narrows the table without another request.
@@ -43,7 +48,10 @@ describe('reference page in Chromium', () => {
     expect(new Set(statuses)).toEqual(new Set(['historical only']));
 
     await page.getByRole('heading', { name: 'Dyestuffs' }).scrollIntoViewIfNeeded();
-    const madder = await page.getByRole('row', { name: /madder/ }).first().textContent();
+    const madder = await page
+      .getByRole('row', { name: /madder/ })
+      .first()
+      .textContent();
     expect(madder).toContain('C.I. Natural Red 8');
   });
 
@@ -61,7 +69,9 @@ describe('reference page in Chromium', () => {
     const formula = form.getByLabel('Formula');
     await expect(formula.getAttribute('aria-invalid')).resolves.toBe('true');
     const describedBy = await formula.getAttribute('aria-describedby');
-    await expect(page.locator(`[id="${describedBy}"]`).textContent()).resolves.toMatch(/^Unexpected "x" at position 7\./);
+    await expect(page.locator(`[id="${describedBy}"]`).textContent()).resolves.toMatch(
+      /^Unexpected "x" at position 7\./,
+    );
     await formula.fill('CaSO4·½H2O');
     await form.getByRole('button', { name: 'Add chemical' }).click();
     await expect(form.getByRole('status').textContent()).resolves.toBe(`${name} added to the reference.`);

@@ -14,21 +14,53 @@ const u = `w${Array.from({ length: 10 }, () => 'bcdfghjkmnpqrstvwxz'[Math.floor(
 const target = '#6a3d5c';
 const t = hexToLab(target);
 // Three shades at growing CIEDE2000 distances from the target, and one well outside the radius.
-const shades = [target, labToHex({ ...t, L: t.L + 1.5 }), labToHex({ ...t, a: t.a + 4, L: t.L - 2 }), labToHex({ ...t, L: t.L + 15 })];
+const shades = [
+  target,
+  labToHex({ ...t, L: t.L + 1.5 }),
+  labToHex({ ...t, a: t.a + 4, L: t.L - 2 }),
+  labToHex({ ...t, L: t.L + 15 }),
+];
 const accessions: string[] = [];
 
 beforeAll(async () => {
   for (const [i, hex] of shades.entries()) {
     const p = await makePiece({
-      title: `Plum ${u} sample ${i}`, status: 'published',
+      title: `Plum ${u} sample ${i}`,
+      status: 'published',
       dyestuffs: [{ name: i === 0 ? `logwood${u}` : `cochineal${u}`, evidence: 'attributed' }],
     });
     accessions.push(p.accessionNumber);
     const photo = await Photo.create({
-      pieceId: p.id, trialId: null, sha256: `${u}${i}`.padEnd(64, '0'), format: 'jpeg', bytes: 1, width: 1, height: 1, originalName: null, caption: null,
-      capturedAt: null, exif: {}, gps: null, derivatives: {}, referencePatch: null, correction: null, createdById: null,
+      pieceId: p.id,
+      trialId: null,
+      sha256: `${u}${i}`.padEnd(64, '0'),
+      format: 'jpeg',
+      bytes: 1,
+      width: 1,
+      height: 1,
+      originalName: null,
+      caption: null,
+      capturedAt: null,
+      exif: {},
+      gps: null,
+      derivatives: {},
+      referencePatch: null,
+      correction: null,
+      createdById: null,
     });
-    await PaletteColour.create({ photoId: photo.id, regionId: null, variant: 'raw', rank: 1, ...hexToLab(hex), hex, share: 0.5, spread: 1, name: 'plum', tradeName: null, background: false });
+    await PaletteColour.create({
+      photoId: photo.id,
+      regionId: null,
+      variant: 'raw',
+      rank: 1,
+      ...hexToLab(hex),
+      hex,
+      share: 0.5,
+      spread: 1,
+      name: 'plum',
+      tradeName: null,
+      background: false,
+    });
   }
   server = await startServer();
   browser = await launchBrowser();
@@ -47,16 +79,23 @@ describe('search page in Chromium', () => {
     await page.getByLabel('Words').fill(u);
     await page.getByRole('button', { name: 'Search', exact: true }).click();
     await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('4 pieces');
-    const facet = (name: string) => page.getByRole('region', { name: 'Facets' }).getByRole('checkbox', { name: new RegExp(`^${name}${u}`) });
+    const facet = (name: string) =>
+      page.getByRole('region', { name: 'Facets' }).getByRole('checkbox', { name: new RegExp(`^${name}${u}`) });
     // The words match three cochineal pieces …
-    await expect.poll(async () => (await facet('cochineal').locator('xpath=..').textContent())?.trim()).toBe(`cochineal${u}3`);
+    await expect
+      .poll(async () => (await facet('cochineal').locator('xpath=..').textContent())?.trim())
+      .toBe(`cochineal${u}3`);
 
     await page.getByLabel('Hex').fill(target.slice(1));
     await page.getByRole('button', { name: 'Find this hex' }).click();
     await expect.poll(() => page.getByTestId('result-count').textContent()).toContain('3 pieces within ΔE00 5');
     // … and with the shade chosen the facets count the shade's matches: two cochineal pieces lie within the radius.
-    await expect.poll(async () => (await facet('cochineal').locator('xpath=..').textContent())?.trim()).toBe(`cochineal${u}2`);
-    await expect.poll(async () => (await facet('logwood').locator('xpath=..').textContent())?.trim()).toBe(`logwood${u}1`);
+    await expect
+      .poll(async () => (await facet('cochineal').locator('xpath=..').textContent())?.trim())
+      .toBe(`cochineal${u}2`);
+    await expect
+      .poll(async () => (await facet('logwood').locator('xpath=..').textContent())?.trim())
+      .toBe(`logwood${u}1`);
     const shots = testEnv.screensDir;
     mkdirSync(shots, { recursive: true });
     await page.screenshot({ path: `${shots}/search-shade-facets-1280.png`, fullPage: true });

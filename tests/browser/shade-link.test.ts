@@ -37,11 +37,20 @@ describe('from a palette swatch to the pieces with that shade', () => {
     const rows = page.getByRole('table', { name: 'Shade matches' }).locator('tbody tr');
     // The piece cell starts with the accession number in its own element (numbers may hold spaces, e.g. "EX 2021/1").
     const cells = await rows.evaluateAll((trs) =>
-      trs.map((tr) => Array.from(tr.querySelectorAll('td'), (td, i) => (i === 2 ? td.querySelector('.font-mono')?.textContent : td.textContent) ?? '')),
+      trs.map((tr) =>
+        Array.from(
+          tr.querySelectorAll('td'),
+          (td, i) => (i === 2 ? td.querySelector('.font-mono')?.textContent : td.textContent) ?? '',
+        ),
+      ),
     );
     // Figures are shown with a true minus sign.
     const num = (t: string) => Number(t.replace('\u2212', '-'));
-    const found = cells.map((c) => ({ accession: c[2], lab: { L: num(c[3]), a: num(c[4]), b: num(c[5]) }, dE: num(c[7]) }));
+    const found = cells.map((c) => ({
+      accession: c[2],
+      lab: { L: num(c[3]), a: num(c[4]), b: num(c[5]) },
+      dE: num(c[7]),
+    }));
 
     // Other pieces than the one we came from, among them the demo's other Turkey-red piece (1962.3.1).
     const others = new Set(found.map((f) => f.accession).filter((a) => a !== DEMO_PIECE));
@@ -58,7 +67,9 @@ describe('from a palette swatch to the pieces with that shade', () => {
     const csvHref = await page.getByRole('link', { name: 'Export matches (CSV)' }).getAttribute('href');
     expect(csvHref).toMatch(/^\/api\/export\/shade\.csv\?/);
     const csv = await (await page.request.get(`${server.url}${csvHref}`)).text();
-    const accessions = (parse(csv, { columns: true }) as Array<Record<string, string>>).map((r) => r.pieceAccessionNumber);
+    const accessions = (parse(csv, { columns: true }) as Array<Record<string, string>>).map(
+      (r) => r.pieceAccessionNumber,
+    );
     expect(accessions.slice(0, found.length)).toEqual(found.map((f) => f.accession));
   });
 });

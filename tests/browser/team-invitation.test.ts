@@ -60,7 +60,9 @@ describe('the team and invitations in Chromium', () => {
     await admin.getByRole('button', { name: 'Send invitation' }).click();
     const row = admin.getByTestId(`invitation-${email}`);
     await row.getByText('by Jory Fenmarch').waitFor();
-    expect(await row.innerText()).toMatch(/as Researcher[\s\S]*Sent \d{4}-\d{2}-\d{2} by Jory Fenmarch · link works until \d{4}-\d{2}-\d{2}/);
+    expect(await row.innerText()).toMatch(
+      /as Researcher[\s\S]*Sent \d{4}-\d{2}-\d{2} by Jory Fenmarch · link works until \d{4}-\d{2}-\d{2}/,
+    );
     const first = tokenFrom(await waitForMail(email), 'join');
 
     await row.getByRole('button', { name: 'Resend' }).click();
@@ -100,7 +102,11 @@ describe('the team and invitations in Chromium', () => {
     await live.record.update({ usedAt: new Date() });
     await page.goto(`${suite.server.url}/reset-password/${live.token}`);
     await page.getByRole('heading', { name: 'This link no longer works' }).waitFor();
-    await page.getByText('This link has already been used (or a newer one was sent). Sign in with your password, or ask for a new link.').waitFor();
+    await page
+      .getByText(
+        'This link has already been used (or a newer one was sent). Sign in with your password, or ask for a new link.',
+      )
+      .waitFor();
     await page.getByTestId('spent-reset-link').getByRole('link', { name: 'Ask for a new link' }).click();
     await page.waitForURL(/\/forgot-password$/);
     // Leave the shared browser signed out, as the next test expects a visitor.

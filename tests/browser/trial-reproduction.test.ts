@@ -9,8 +9,25 @@ const suite = useBrowserSuite({ mail: true });
 describe('the demo dyer records a reproduction in Chromium', () => {
   it('attaches a trial with a lead-to-aluminium substitution to a piece and sees ΔE00, the verdict and the lead avoided', async () => {
     const curator = await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true });
-    const piece = await makePiece({ createdById: curator.id, title: `Madder red ground, browser ${Date.now().toString(36)}`, status: 'published' });
-    await ColourMeasurement.create({ pieceId: piece.id, regionId: null, trialId: null, instrument: 'bench spectrophotometer', geometry: 'd:8°', specular: 'SCI', L: 45, a: 48, b: 28, label: 'red ground', takenOn: null, createdById: null });
+    const piece = await makePiece({
+      createdById: curator.id,
+      title: `Madder red ground, browser ${Date.now().toString(36)}`,
+      status: 'published',
+    });
+    await ColourMeasurement.create({
+      pieceId: piece.id,
+      regionId: null,
+      trialId: null,
+      instrument: 'bench spectrophotometer',
+      geometry: 'd:8°',
+      specular: 'SCI',
+      L: 45,
+      a: 48,
+      b: 28,
+      label: 'red ground',
+      takenOn: null,
+      createdById: null,
+    });
 
     const page = await suite.browser.context.newPage();
     await signInAs(page, suite.server.url, 'dyer@demo.test');
@@ -49,11 +66,16 @@ describe('the demo dyer records a reproduction in Chromium', () => {
     await delta.waitFor();
     expect(await delta.textContent()).toMatch(/ΔE00 \d+\.\d\d/);
     // The verdict from the default bands (common practice) is shown beside it.
-    await page.getByText(/^(Match|Close|Near|Different)$/).first().waitFor();
+    await page
+      .getByText(/^(Match|Close|Near|Different)$/)
+      .first()
+      .waitFor();
     // The colours are labelled with their source and viewing conditions (was "instrument measurement: red ground").
     await page.getByText('red ground', { exact: true }).first().waitFor();
     await page.getByTestId('viewing-conditions').getByText('instrument reading · D65/10°').first().waitFor();
-    expect(await page.getByTestId('comparison-conditions').textContent()).toBe('Under D65; original 10°, reproduction 10° observer');
+    expect(await page.getByTestId('comparison-conditions').textContent()).toBe(
+      'Under D65; original 10°, reproduction 10° observer',
+    );
     await page.close();
   });
 });

@@ -37,14 +37,20 @@ describe('a signed-out visitor meets no dead ends', () => {
     await page.waitForURL((u) => u.pathname === '/trials');
     // The list itself now, not the sign-in notice (which trials are on its first page depends on what earlier suites made).
     await page.getByRole('heading', { level: 1, name: 'Trials' }).waitFor();
-    await page.getByRole('link', { name: /^T-\d{4}-\d{3}$/ }).first().waitFor();
+    await page
+      .getByRole('link', { name: /^T-\d{4}-\d{3}$/ })
+      .first()
+      .waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
     // Signed out on a page that needs an account: the header offers sign-in and the page says why.
     await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
   }, 60_000);
 
   it('sees a published piece with its photos but no link to the master files; a curator has them', async () => {
-    const piece = await Piece.findOne({ where: { accessionNumber: '1931.4.12', status: 'published' }, rejectOnEmpty: true });
+    const piece = await Piece.findOne({
+      where: { accessionNumber: '1931.4.12', status: 'published' },
+      rejectOnEmpty: true,
+    });
     const page = await suite.browser.context.newPage();
     await page.goto(`${suite.server.url}/archive/${piece.id}`, { waitUntil: 'networkidle' });
     await page.getByTestId('photo-panel').first().waitFor();

@@ -12,8 +12,11 @@ describe('demo photos', () => {
       const photos = await Photo.findAll({ where: { pieceId: piece.id } });
       expect(photos.length, accessionNumber).toBeGreaterThan(0);
       for (const photo of photos) {
-        for (const kind of ['thumb', 'display', 'master'] as const) expect(existsSync(photoFile(photo, kind))).toBe(true);
-        expect(await PaletteColour.count({ where: { photoId: photo.id, variant: 'raw', regionId: null } })).toBeGreaterThan(0);
+        for (const kind of ['thumb', 'display', 'master'] as const)
+          expect(existsSync(photoFile(photo, kind))).toBe(true);
+        expect(
+          await PaletteColour.count({ where: { photoId: photo.id, variant: 'raw', regionId: null } }),
+        ).toBeGreaterThan(0);
       }
     }
   });
@@ -21,7 +24,9 @@ describe('demo photos', () => {
   it('the tinted recto of 1931.4.12 has a corrected palette that finds the painted madder red', async () => {
     const piece = await Piece.findOne({ where: { accessionNumber: '1931.4.12' }, rejectOnEmpty: true });
     const photo = await Photo.findOne({ where: { pieceId: piece.id, view: 'recto' }, rejectOnEmpty: true });
-    const corrected = await PaletteColour.findAll({ where: { photoId: photo.id, variant: 'corrected', regionId: null } });
+    const corrected = await PaletteColour.findAll({
+      where: { photoId: photo.id, variant: 'corrected', regionId: null },
+    });
     const red = hexToLab('#a23b30');
     const best = Math.min(...corrected.map((c) => deltaE00(c, red)));
     expect(best).toBeLessThanOrEqual(2);

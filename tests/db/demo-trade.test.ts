@@ -10,10 +10,17 @@ import { computeLedger } from '../../shared/compute/ledger.ts';
 
 const batch = (code: string) => MordantBatch.findOne({ where: { code }, rejectOnEmpty: true });
 const trial = (code: string) => Trial.findOne({ where: { code }, rejectOnEmpty: true });
-const steps = async (code: string) => RecipeStep.findAll({ where: { trialId: (await trial(code)).id }, order: [['position', 'ASC']] });
+const steps = async (code: string) =>
+  RecipeStep.findAll({ where: { trialId: (await trial(code)).id }, order: [['position', 'ASC']] });
 // Only the seeded history: tests elsewhere may draw from demo batches today.
 const seededEvents = async (batchId: number) =>
-  BatchEvent.findAll({ where: { batchId, occurredAt: { [Op.lt]: new Date('2025-01-01') } }, order: [['occurredAt', 'ASC'], ['id', 'ASC']] });
+  BatchEvent.findAll({
+    where: { batchId, occurredAt: { [Op.lt]: new Date('2025-01-01') } },
+    order: [
+      ['occurredAt', 'ASC'],
+      ['id', 'ASC'],
+    ],
+  });
 
 describe('demo batches', () => {
   it('MB-07 is as strong as its charge can make it: about 17.1 g/L basic aluminium acetate, not the 75 g/L weighed in', async () => {
@@ -44,7 +51,10 @@ describe('demo batches', () => {
     for (const code of ['MB-07', 'MB-08', 'MB-09']) {
       const b = await batch(code);
       const events = (await seededEvents(b.id)).map((e) => e.get({ plain: true })) as never[];
-      const ledger = computeLedger({ volumeMl: b.volumeMl, ingredients: b.ingredients, uptakePerUse: b.uptakePerUse, status: b.status }, events);
+      const ledger = computeLedger(
+        { volumeMl: b.volumeMl, ingredients: b.ingredients, uptakePerUse: b.uptakePerUse, status: b.status },
+        events,
+      );
       if (code === 'MB-07') expect(ledger.state.remainingMl).toBe(0);
       else expect(ledger.state.remainingMl).toBeGreaterThan(0);
     }
@@ -58,9 +68,15 @@ describe('demo top-ups', () => {
     const topUps = events.flatMap((e, i) => (e.type === 'top-up' ? [i] : []));
     expect(topUps).toHaveLength(2);
     for (const i of topUps) {
-      const before = computeLedger({ volumeMl: b.volumeMl, ingredients: b.ingredients, uptakePerUse: b.uptakePerUse }, events.slice(0, i) as never[]);
+      const before = computeLedger(
+        { volumeMl: b.volumeMl, ingredients: b.ingredients, uptakePerUse: b.uptakePerUse },
+        events.slice(0, i) as never[],
+      );
       const t = before.topUp!;
-      for (const a of events[i].additions!) expect(Math.abs(a.grams - t.ingredients.find((x) => x.name === a.name)!.grams), a.name).toBeLessThanOrEqual(0.25);
+      for (const a of events[i].additions!)
+        expect(Math.abs(a.grams - t.ingredients.find((x) => x.name === a.name)!.grams), a.name).toBeLessThanOrEqual(
+          0.25,
+        );
       expect(events[i].volumeMl! + before.state.remainingMl).toBeCloseTo(2000, 0);
     }
   });
@@ -82,7 +98,8 @@ describe('demo trials', () => {
     expect((red.paste as { stockGPerL: number }).stockGPerL).toBeCloseTo(made.activeGPerL, 1);
     const mb08 = await batch('MB-08');
     const pink = (await steps('T-2024-002')).find((s) => s.operation === 'print-paste')!;
-    const mb08GPerL = (mb08.ingredients.find((i) => i.name === 'aluminium acetate (basic)')!.grams * 1000) / mb08.volumeMl;
+    const mb08GPerL =
+      (mb08.ingredients.find((i) => i.name === 'aluminium acetate (basic)')!.grams * 1000) / mb08.volumeMl;
     expect((pink.paste as { stockGPerL: number }).stockGPerL).toBeCloseTo(mb08GPerL, 2);
   });
 
@@ -92,16 +109,28 @@ describe('demo trials', () => {
       const s = await RecipeStep.findAll({ where: { trialId: t.id }, order: [['position', 'ASC']] });
       const alumAt = s.findIndex((x) => x.ingredients.some((i) => /potash alum|aluminium sulfate/.test(i.name)));
       if (alumAt < 0) continue;
-      const tanninAt = s.findIndex((x) => x.operation === 'tannin' || x.ingredients.some((i) => i.name === 'tannic acid'));
+      const tanninAt = s.findIndex(
+        (x) => x.operation === 'tannin' || x.ingredients.some((i) => i.name === 'tannic acid'),
+      );
       expect(tanninAt, t.code).toBeGreaterThanOrEqual(0);
       expect(tanninAt, t.code).toBeLessThan(alumAt);
     }
   });
 
   it('every indigo vat lists its lime and fructose, so the lime caution shows', async () => {
-    const demoVats = await RecipeStep.findAll({ where: { operation: 'vat', trialId: { [Op.in]: (await Trial.findAll({ where: { code: ['T-2024-005', 'T-2024-006', 'T-2024-007'] } })).map((t) => t.id) } } });
+    const demoVats = await RecipeStep.findAll({
+      where: {
+        operation: 'vat',
+        trialId: {
+          [Op.in]: (await Trial.findAll({ where: { code: ['T-2024-005', 'T-2024-006', 'T-2024-007'] } })).map(
+            (t) => t.id,
+          ),
+        },
+      },
+    });
     expect(demoVats).toHaveLength(3);
-    for (const v of demoVats) expect(v.ingredients.map((i) => i.name)).toEqual(['indigo', 'calcium hydroxide (slaked lime)', 'fructose']);
+    for (const v of demoVats)
+      expect(v.ingredients.map((i) => i.name)).toEqual(['indigo', 'calcium hydroxide (slaked lime)', 'fructose']);
     const lime = await Chemical.findOne({ where: { name: 'calcium hydroxide (slaked lime)' }, rejectOnEmpty: true });
     expect(lime.signalWord).toBe('Danger');
   });
@@ -111,7 +140,11 @@ describe('demo trials', () => {
     const [sub] = await Substitution.findAll({ where: { trialId: t1.id } });
     const red = (await steps('T-2024-001')).find((s) => s.operation === 'print-paste')!;
     const alumG = (100 * red.batchVolumeMl!) / 2000;
-    const lead = matchingReactant(REACTIONS.find((r) => r.id === 'alum-lead-acetate')!, 'potash alum', alumG)[0].grams;
+    const lead = matchingReactant(
+      REACTIONS.find((r) => r.id === 'alum-lead-acetate')!,
+      'potash alum',
+      alumG,
+    )[0].grams;
     expect(sub.historicalAmountG).toBeCloseTo(lead, 1);
     expect(sub.modernAmountG).toBeCloseTo((50 * red.batchVolumeMl!) / 2000, 2);
     expect(sub.notes).toMatch(/lead sulfate sludge/);

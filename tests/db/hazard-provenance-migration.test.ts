@@ -9,7 +9,8 @@ const dbName = 'tinctoria_hazard_migration_test';
 let admin: Sequelize;
 let db: Sequelize;
 
-const OLD_SOURCE = 'CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory';
+const OLD_SOURCE =
+  'CLP Annex VI harmonised entry — recalled from memory, verify against the supplier SDS and the ECHA C&L Inventory';
 const OLD_LEAD = [
   'H360Df May damage the unborn child. Suspected of damaging fertility.',
   'H373 May cause damage to organs through prolonged or repeated exposure.',
@@ -33,18 +34,30 @@ afterAll(async () => {
 });
 
 const insert = (name: string, formula: string, hStatements: string[], hazardSource: string) =>
-  db.query("INSERT INTO chemicals (name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource, createdAt, updatedAt) VALUES (?, 'mordant', ?, NULL, 'permitted', 'Danger', ?, NULL, NULL, 'seed', ?, NOW(), NOW())", {
-    replacements: [name, formula, JSON.stringify(hStatements), hazardSource],
-  });
+  db.query(
+    "INSERT INTO chemicals (name, role, formula, metal, status, signalWord, hStatements, ppe, caution, source, hazardSource, createdAt, updatedAt) VALUES (?, 'mordant', ?, NULL, 'permitted', 'Danger', ?, NULL, NULL, 'seed', ?, NOW(), NOW())",
+    {
+      replacements: [name, formula, JSON.stringify(hStatements), hazardSource],
+    },
+  );
 type Row = { name: string; hStatements: string | string[]; hazardSource: string; hazardBasis?: string | null };
 // Later migrations add reference rows of their own (0018: thickeners): read back only the two inserted here.
-const rows = () => db.query<Row>("SELECT * FROM chemicals WHERE name IN ('lead(II) acetate (sugar of lead)', 'sodium carbonate (soda ash)') ORDER BY name", { type: QueryTypes.SELECT });
+const rows = () =>
+  db.query<Row>(
+    "SELECT * FROM chemicals WHERE name IN ('lead(II) acetate (sugar of lead)', 'sodium carbonate (soda ash)') ORDER BY name",
+    { type: QueryTypes.SELECT },
+  );
 const statements = (r: Row) => (typeof r.hStatements === 'string' ? JSON.parse(r.hStatements) : r.hStatements);
 
 describe('migration 0017: hazard provenance', () => {
   it('adds the basis, updates seeded texts (lead acetate gains H362) and leaves an admin-edited source alone; down restores', async () => {
     await insert('lead(II) acetate (sugar of lead)', 'Pb(CH3COO)2·3H2O', OLD_LEAD, OLD_SOURCE);
-    await insert('sodium carbonate (soda ash)', 'Na2CO3', ['H319 Causes serious eye irritation.'], 'our own supplier SDS, 2024');
+    await insert(
+      'sodium carbonate (soda ash)',
+      'Na2CO3',
+      ['H319 Causes serious eye irritation.'],
+      'our own supplier SDS, 2024',
+    );
     await createMigrator(db).up();
     const [lead, soda] = await rows();
     expect(lead.hazardBasis).toBe('harmonised');

@@ -14,7 +14,9 @@ import { deltaE00, hexToLab, srgbToLab } from '../../shared/colour/index.ts';
 import { inProfile } from '../support/icc-images.ts';
 
 let piece: Piece;
-beforeAll(async () => { piece = await makePiece({ title: 'Media pipeline test piece' }); });
+beforeAll(async () => {
+  piece = await makePiece({ title: 'Media pipeline test piece' });
+});
 afterAll(async () => {
   for (const photo of await Photo.findAll({ where: { pieceId: piece.id } })) {
     await PaletteColour.destroy({ where: { photoId: photo.id } });
@@ -28,7 +30,11 @@ afterAll(async () => {
 function filesUnder(dir: string): string[] {
   let out: string[] = [];
   let entries: string[] = [];
-  try { entries = readdirSync(dir); } catch { return out; }
+  try {
+    entries = readdirSync(dir);
+  } catch {
+    return out;
+  }
   for (const name of entries) {
     const p = path.join(dir, name);
     out = statSync(p).isDirectory() ? out.concat(filesUnder(p)) : out.concat(p);
@@ -37,26 +43,43 @@ function filesUnder(dir: string): string[] {
 }
 
 const ingest = (buffer: Buffer, extra: Record<string, unknown> = {}) =>
-  sequelize.transaction((transaction) => ingestPhoto({ actor: null, transaction, input: { buffer, pieceId: piece.id, originalName: 'x.jpg', ...extra } }));
+  sequelize.transaction((transaction) =>
+    ingestPhoto({ actor: null, transaction, input: { buffer, pieceId: piece.id, originalName: 'x.jpg', ...extra } }),
+  );
 
-const solid = (colour: string, width = 64, height = 48) => sharp({ create: { width, height, channels: 3, background: colour } });
+const solid = (colour: string, width = 64, height = 48) =>
+  sharp({ create: { width, height, channels: 3, background: colour } });
 
 describe('ingestPhoto', () => {
   it('keeps the master byte for byte by SHA-256, makes WebP derivatives and a palette, all in one transaction', async () => {
-    const cloth = paintCloth({ width: 900, height: 600, ground: '#e6d9bf', shapes: [{ kind: 'rect', x: 300, y: 150, w: 300, h: 300, colour: '#2e3f66' }], noise: 3, seed: 2 });
-    const buffer = await sharp(cloth.data, { raw: { width: 900, height: 600, channels: 3 } }).png().toBuffer();
+    const cloth = paintCloth({
+      width: 900,
+      height: 600,
+      ground: '#e6d9bf',
+      shapes: [{ kind: 'rect', x: 300, y: 150, w: 300, h: 300, colour: '#2e3f66' }],
+      noise: 3,
+      seed: 2,
+    });
+    const buffer = await sharp(cloth.data, { raw: { width: 900, height: 600, channels: 3 } })
+      .png()
+      .toBuffer();
     const { photo, palette } = await ingest(buffer);
     const master = photoFile(photo, 'master');
     expect(readFileSync(master).equals(buffer)).toBe(true);
     expect(photo.sha256).toMatch(/^[0-9a-f]{64}$/);
     expect(master.endsWith(masterPath(photo.sha256, 'png'))).toBe(true);
     expect([photo.format, photo.width, photo.height, photo.bytes]).toEqual(['png', 900, 600, buffer.length]);
-    for (const [kind, long] of [['thumb', 320], ['display', 900]] as const) {
+    for (const [kind, long] of [
+      ['thumb', 320],
+      ['display', 900],
+    ] as const) {
       const meta = await sharp(photoFile(photo, kind)).metadata();
       expect([meta.format, Math.max(meta.width!, meta.height!)]).toEqual(['webp', long]);
       expect(meta.exif).toBeUndefined();
     }
-    expect(palette.map((p) => [p.rank, p.variant, p.regionId, p.source])).toEqual(palette.map((_, i) => [i, 'raw', null, 'image-estimate']));
+    expect(palette.map((p) => [p.rank, p.variant, p.regionId, p.source])).toEqual(
+      palette.map((_, i) => [i, 'raw', null, 'image-estimate']),
+    );
     const indigo = palette.find((p) => deltaE00(p, hexToLab('#2e3f66')) < 1.5);
     expect(indigo?.share).toBeCloseTo(cloth.truth[1].share, 1);
     expect(await PaletteColour.count({ where: { photoId: photo.id } })).toBe(palette.length);
@@ -66,13 +89,30 @@ describe('ingestPhoto', () => {
     // Truth: the painted sRGB colours (CIELAB through colorjs.io); the file is the same cloth re-encoded
     // in Adobe RGB at 16 bits by colorjs.io with Debian's 'Compatible with Adobe RGB (1998)' profile.
     const truth = ['#e6d9bf', '#9e2a2b', '#2e3f66'];
-    const cloth = paintCloth({ width: 900, height: 600, ground: truth[0], shapes: [
-      { kind: 'rect', x: 100, y: 100, w: 300, h: 400, colour: truth[1] },
-      { kind: 'rect', x: 500, y: 100, w: 300, h: 400, colour: truth[2] },
-    ], noise: 3, seed: 8 });
-    const { photo, palette } = await ingest(await inProfile(cloth, 'a98rgb', 16, 'tiff'), { originalName: 'adobe16.tif' });
-    for (const hex of truth) expect(Math.min(...palette.map((p) => deltaE00(p, hexToLab(hex)))), hex).toBeLessThanOrEqual(1.5);
-    expect(photo.colour).toEqual({ profile: 'Compatible with Adobe RGB (1998)', assumedSrgb: false, bitDepth: 16, colourSpace: 'RGB', cmykConverted: false, conversion: 'icc-matrix' });
+    const cloth = paintCloth({
+      width: 900,
+      height: 600,
+      ground: truth[0],
+      shapes: [
+        { kind: 'rect', x: 100, y: 100, w: 300, h: 400, colour: truth[1] },
+        { kind: 'rect', x: 500, y: 100, w: 300, h: 400, colour: truth[2] },
+      ],
+      noise: 3,
+      seed: 8,
+    });
+    const { photo, palette } = await ingest(await inProfile(cloth, 'a98rgb', 16, 'tiff'), {
+      originalName: 'adobe16.tif',
+    });
+    for (const hex of truth)
+      expect(Math.min(...palette.map((p) => deltaE00(p, hexToLab(hex)))), hex).toBeLessThanOrEqual(1.5);
+    expect(photo.colour).toEqual({
+      profile: 'Compatible with Adobe RGB (1998)',
+      assumedSrgb: false,
+      bitDepth: 16,
+      colourSpace: 'RGB',
+      cmykConverted: false,
+      conversion: 'icc-matrix',
+    });
     // The display derivative is 8-bit sRGB: the red area's centre pixel is the painted red (noise σ 3 → own tolerance 2).
     const { data, info } = await sharp(photoFile(photo, 'display')).raw().toBuffer({ resolveWithObject: true });
     const i = (300 * info.width + 250) * info.channels;
@@ -81,35 +121,63 @@ describe('ingestPhoto', () => {
 
   it('records a photo without a profile as taken as sRGB', async () => {
     const { photo } = await ingest(await paintJpeg());
-    expect(photo.colour).toMatchObject({ profile: null, assumedSrgb: true, bitDepth: 8, colourSpace: 'RGB', conversion: 'none' });
+    expect(photo.colour).toMatchObject({
+      profile: null,
+      assumedSrgb: true,
+      bitDepth: 8,
+      colourSpace: 'RGB',
+      conversion: 'none',
+    });
   });
 
   it('reads EXIF (dates as written, no time zone) and keeps GPS only in photo.gps', async () => {
     // sharp's withExif takes strings only; GPS rationals as "d/1 m/1 s/1".
-    const buffer = await solid('#9e2a2b').jpeg().withExif({
-      IFD0: { Make: 'Weldfold Optics', Model: 'Copy stand 2' },
-      IFD2: { DateTimeOriginal: '2024:05:06 07:08:09', ExposureTime: '1/125', FNumber: '8/1', LensModel: 'Flat-field 60mm' },
-      IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 0/1', GPSLongitudeRef: 'W', GPSLongitude: '0/1 7/1 30/1' },
-    }).toBuffer();
+    const buffer = await solid('#9e2a2b')
+      .jpeg()
+      .withExif({
+        IFD0: { Make: 'Weldfold Optics', Model: 'Copy stand 2' },
+        IFD2: {
+          DateTimeOriginal: '2024:05:06 07:08:09',
+          ExposureTime: '1/125',
+          FNumber: '8/1',
+          LensModel: 'Flat-field 60mm',
+        },
+        IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 0/1', GPSLongitudeRef: 'W', GPSLongitude: '0/1 7/1 30/1' },
+      })
+      .toBuffer();
     const { photo } = await ingest(buffer);
-    expect(photo.exif).toMatchObject({ make: 'Weldfold Optics', model: 'Copy stand 2', lens: 'Flat-field 60mm', exposureTime: 0.008, fNumber: 8, dateTimeOriginal: '2024:05:06 07:08:09' });
+    expect(photo.exif).toMatchObject({
+      make: 'Weldfold Optics',
+      model: 'Copy stand 2',
+      lens: 'Flat-field 60mm',
+      exposureTime: 0.008,
+      fNumber: 8,
+      dateTimeOriginal: '2024:05:06 07:08:09',
+    });
     expect(photo.capturedAt).toBe('2024-05-06T07:08:09');
     expect(photo.gps).toEqual({ latitude: 51.5, longitude: -0.125 });
     expect(JSON.stringify(photo.exif)).not.toMatch(/51\.5|GPS|latitude/i);
-    for (const kind of ['thumb', 'display'] as const) expect((await sharp(photoFile(photo, kind)).metadata()).exif).toBeUndefined();
+    for (const kind of ['thumb', 'display'] as const)
+      expect((await sharp(photoFile(photo, kind)).metadata()).exif).toBeUndefined();
   });
 
   it('turns an orientation-6 photo upright in its derivatives', async () => {
     // Stored left half red, right half blue; orientation 6 means "rotate 90° clockwise to view",
     // so upright the top is red and the image is portrait.
     const raw = Buffer.alloc(64 * 48 * 3);
-    for (let y = 0; y < 48; y++) for (let x = 0; x < 64; x++) raw.set(x < 32 ? [200, 20, 20] : [20, 20, 200], (y * 64 + x) * 3);
-    const buffer = await sharp(raw, { raw: { width: 64, height: 48, channels: 3 } }).jpeg({ quality: 95 }).withMetadata({ orientation: 6 }).toBuffer();
+    for (let y = 0; y < 48; y++)
+      for (let x = 0; x < 64; x++) raw.set(x < 32 ? [200, 20, 20] : [20, 20, 200], (y * 64 + x) * 3);
+    const buffer = await sharp(raw, { raw: { width: 64, height: 48, channels: 3 } })
+      .jpeg({ quality: 95 })
+      .withMetadata({ orientation: 6 })
+      .toBuffer();
     const { photo } = await ingest(buffer);
     expect([photo.width, photo.height]).toEqual([48, 64]);
     const { data, info } = await sharp(photoFile(photo, 'display')).raw().toBuffer({ resolveWithObject: true });
     expect([info.width, info.height]).toEqual([48, 64]);
-    const px = (x: number, y: number) => [...data.subarray((y * info.width + x) * info.channels, (y * info.width + x) * info.channels + 3)];
+    const px = (x: number, y: number) => [
+      ...data.subarray((y * info.width + x) * info.channels, (y * info.width + x) * info.channels + 3),
+    ];
     expect(px(24, 8)[0]).toBeGreaterThan(150);
     expect(px(24, 56)[2]).toBeGreaterThan(150);
   });
@@ -142,13 +210,50 @@ describe('ingestPhoto', () => {
       return png;
     };
     const cases: Array<[string, () => Promise<Buffer>, number, string]> = [
-      ['a text file renamed .jpg', async () => Buffer.from('These are not the pixels you are looking for.\n'), 415, 'unsupported_type'],
-      ['a truncated JPEG', async () => { const j = await paintJpeg(); return j.subarray(0, Math.floor(j.length / 2)); }, 422, 'corrupt_image'],
+      [
+        'a text file renamed .jpg',
+        async () => Buffer.from('These are not the pixels you are looking for.\n'),
+        415,
+        'unsupported_type',
+      ],
+      [
+        'a truncated JPEG',
+        async () => {
+          const j = await paintJpeg();
+          return j.subarray(0, Math.floor(j.length / 2));
+        },
+        422,
+        'corrupt_image',
+      ],
       ['a pixel bomb', bomb, 422, 'pixel_limit'],
       ['zero bytes', async () => Buffer.alloc(0), 422, 'empty_file'],
-      ['an SVG (not accepted)', async () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"/>'), 415, 'unsupported_type'],
-      ['a CMYK JPEG with its profile', async () => sharp(await paintJpeg()).toColourspace('cmyk').withIccProfile('cmyk').jpeg().toBuffer(), 415, 'cmyk_not_supported'],
-      ['a CMYK TIFF without a profile', async () => sharp(await paintJpeg()).toColourspace('cmyk').tiff().toBuffer(), 415, 'cmyk_not_supported'],
+      [
+        'an SVG (not accepted)',
+        async () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"/>'),
+        415,
+        'unsupported_type',
+      ],
+      [
+        'a CMYK JPEG with its profile',
+        async () =>
+          sharp(await paintJpeg())
+            .toColourspace('cmyk')
+            .withIccProfile('cmyk')
+            .jpeg()
+            .toBuffer(),
+        415,
+        'cmyk_not_supported',
+      ],
+      [
+        'a CMYK TIFF without a profile',
+        async () =>
+          sharp(await paintJpeg())
+            .toColourspace('cmyk')
+            .tiff()
+            .toBuffer(),
+        415,
+        'cmyk_not_supported',
+      ],
     ];
     it.each(cases)('%s', async (_, make, status, code) => {
       const before = filesUnder(env.UPLOADS_DIR).sort();
@@ -169,28 +274,74 @@ describe('ingestPhoto', () => {
 });
 
 async function paintJpeg() {
-  const cloth = paintCloth({ width: 600, height: 400, ground: '#e6d9bf', shapes: [{ kind: 'rect', x: 100, y: 100, w: 200, h: 200, colour: '#9e2a2b' }], noise: 3, seed: 4 });
-  return sharp(cloth.data, { raw: { width: 600, height: 400, channels: 3 } }).jpeg().toBuffer();
+  const cloth = paintCloth({
+    width: 600,
+    height: 400,
+    ground: '#e6d9bf',
+    shapes: [{ kind: 'rect', x: 100, y: 100, w: 200, h: 200, colour: '#9e2a2b' }],
+    noise: 3,
+    seed: 4,
+  });
+  return sharp(cloth.data, { raw: { width: 600, height: 400, channels: 3 } })
+    .jpeg()
+    .toBuffer();
 }
 
 describe('repalette', () => {
   it('adds a palette per colour area, leaves out exclusions, and a corrected palette from a reference patch', async () => {
     const spec = {
-      width: 1200, height: 800, ground: '#e6d9bf', tint: [1.1, 1, 0.8] as [number, number, number], noise: 3, seed: 9,
+      width: 1200,
+      height: 800,
+      ground: '#e6d9bf',
+      tint: [1.1, 1, 0.8] as [number, number, number],
+      noise: 3,
+      seed: 9,
       shapes: [
         { kind: 'rect' as const, x: 100, y: 100, w: 400, h: 400, colour: '#9e2a2b' },
         { kind: 'rect' as const, x: 700, y: 100, w: 300, h: 300, colour: '#2e3f66' },
         { kind: 'rect' as const, x: 950, y: 600, w: 200, h: 150, colour: '#9a9a9a' },
       ],
     };
-    const buffer = await sharp(paintCloth(spec).data, { raw: { width: 1200, height: 800, channels: 3 } }).png().toBuffer();
+    const buffer = await sharp(paintCloth(spec).data, { raw: { width: 1200, height: 800, channels: 3 } })
+      .png()
+      .toBuffer();
     const { photo } = await ingest(buffer);
     const rows = await sequelize.transaction(async (transaction) => {
-      await Region.bulkCreate([
-        { photoId: photo.id, x: 120, y: 120, w: 360, h: 360, purpose: 'colour-area', label: 'red ground', createdById: null },
-        { photoId: photo.id, x: 680, y: 80, w: 340, h: 340, purpose: 'exclusion', label: 'blue patch out', createdById: null },
-        { photoId: photo.id, x: 950, y: 600, w: 200, h: 150, purpose: 'reference-patch', label: 'grey card', createdById: null },
-      ], { transaction });
+      await Region.bulkCreate(
+        [
+          {
+            photoId: photo.id,
+            x: 120,
+            y: 120,
+            w: 360,
+            h: 360,
+            purpose: 'colour-area',
+            label: 'red ground',
+            createdById: null,
+          },
+          {
+            photoId: photo.id,
+            x: 680,
+            y: 80,
+            w: 340,
+            h: 340,
+            purpose: 'exclusion',
+            label: 'blue patch out',
+            createdById: null,
+          },
+          {
+            photoId: photo.id,
+            x: 950,
+            y: 600,
+            w: 200,
+            h: 150,
+            purpose: 'reference-patch',
+            label: 'grey card',
+            createdById: null,
+          },
+        ],
+        { transaction },
+      );
       return repalette({ transaction, photo });
     });
     const region = await Region.findOne({ where: { photoId: photo.id, purpose: 'colour-area' } });
@@ -213,10 +364,24 @@ describe('repalette', () => {
 
 describe('the whole-photo palette at ingest and after a full recompute', () => {
   it('is the same: same rows, same ids, same values (both reduce the photo the same way)', async () => {
-    const cloth = paintCloth({ width: 2400, height: 1600, ground: '#e6d9bf', shapes: [{ kind: 'ellipse', cx: 800, cy: 800, rx: 400, ry: 300, colour: '#9e2a2b' }, { kind: 'rect', x: 1500, y: 300, w: 600, h: 900, colour: '#2e3f66' }], noise: 4, weave: 0.05, seed: 17 });
-    const jpeg = await sharp(cloth.data, { raw: { width: 2400, height: 1600, channels: 3 } }).jpeg({ quality: 90 }).toBuffer();
+    const cloth = paintCloth({
+      width: 2400,
+      height: 1600,
+      ground: '#e6d9bf',
+      shapes: [
+        { kind: 'ellipse', cx: 800, cy: 800, rx: 400, ry: 300, colour: '#9e2a2b' },
+        { kind: 'rect', x: 1500, y: 300, w: 600, h: 900, colour: '#2e3f66' },
+      ],
+      noise: 4,
+      weave: 0.05,
+      seed: 17,
+    });
+    const jpeg = await sharp(cloth.data, { raw: { width: 2400, height: 1600, channels: 3 } })
+      .jpeg({ quality: 90 })
+      .toBuffer();
     const { photo, palette } = await ingest(jpeg);
-    const values = (rows: PaletteColour[]) => rows.map((c) => [c.id, c.rank, c.L, c.a, c.b, c.share, c.background]).sort((x, y) => Number(x[0]) - Number(y[0]));
+    const values = (rows: PaletteColour[]) =>
+      rows.map((c) => [c.id, c.rank, c.L, c.a, c.b, c.share, c.background]).sort((x, y) => Number(x[0]) - Number(y[0]));
     const after = await sequelize.transaction((transaction) => repalette({ transaction, photo, scope: 'all' }));
     expect(values(after)).toEqual(values(palette));
   });
@@ -224,9 +389,9 @@ describe('the whole-photo palette at ingest and after a full recompute', () => {
 
 describe('paths', () => {
   it('refuses paths that leave the uploads folder', () => {
-    for (const bad of ['../x', 'masters/../../x', '/etc/passwd', '', '.']) expect(() => resolveInsideUploads(bad)).toThrow(HttpError);
+    for (const bad of ['../x', 'masters/../../x', '/etc/passwd', '', '.'])
+      expect(() => resolveInsideUploads(bad)).toThrow(HttpError);
     expect(resolveInsideUploads('masters/ab/x.jpg')).toBe(path.join(path.resolve(env.UPLOADS_DIR), 'masters/ab/x.jpg'));
     expect(() => masterPath('../etc', 'jpg')).toThrow();
   });
 });
-

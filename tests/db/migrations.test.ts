@@ -25,7 +25,12 @@ afterAll(async () => {
 });
 
 const tables = async () =>
-  (await db.query<{ t: string }>('SELECT table_name AS t FROM information_schema.tables WHERE table_schema = ?', { replacements: [dbName], type: QueryTypes.SELECT }))
+  (
+    await db.query<{ t: string }>('SELECT table_name AS t FROM information_schema.tables WHERE table_schema = ?', {
+      replacements: [dbName],
+      type: QueryTypes.SELECT,
+    })
+  )
     .map((r) => r.t)
     .sort();
 
@@ -34,7 +39,23 @@ describe('migrations', () => {
     const applied = await createMigrator(db).up();
     expect(applied.map((m) => m.name)).toEqual(migrations.map((m) => m.name));
     const names = await tables();
-    for (const t of ['users', 'pieces', 'photos', 'regions', 'palette_colours', 'colour_measurements', 'dyestuffs', 'chemicals', 'trials', 'recipe_steps', 'substitutions', 'mordant_batches', 'batch_events', 'audit_events', 'sessions']) {
+    for (const t of [
+      'users',
+      'pieces',
+      'photos',
+      'regions',
+      'palette_colours',
+      'colour_measurements',
+      'dyestuffs',
+      'chemicals',
+      'trials',
+      'recipe_steps',
+      'substitutions',
+      'mordant_batches',
+      'batch_events',
+      'audit_events',
+      'sessions',
+    ]) {
       expect(names).toContain(t);
     }
     const info = await db.query<{ t: string; engine: string; coll: string }>(

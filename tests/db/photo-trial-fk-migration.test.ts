@@ -25,8 +25,15 @@ afterAll(async () => {
 });
 
 const trial = async (code: string) => {
-  await db.query("INSERT INTO trials (code, dryMassG, createdAt, updatedAt) VALUES (?, 10, NOW(), NOW())", { replacements: [code] });
-  return (await db.query<{ id: number }>('SELECT id FROM trials WHERE code = ?', { replacements: [code], type: QueryTypes.SELECT }))[0].id;
+  await db.query('INSERT INTO trials (code, dryMassG, createdAt, updatedAt) VALUES (?, 10, NOW(), NOW())', {
+    replacements: [code],
+  });
+  return (
+    await db.query<{ id: number }>('SELECT id FROM trials WHERE code = ?', {
+      replacements: [code],
+      type: QueryTypes.SELECT,
+    })
+  )[0].id;
 };
 const photo = async (trialId: number) => {
   await db.query(
@@ -36,7 +43,12 @@ const photo = async (trialId: number) => {
   return (await db.query<{ id: number }>('SELECT MAX(id) AS id FROM photos', { type: QueryTypes.SELECT }))[0].id;
 };
 const trialOf = async (photoId: number) =>
-  (await db.query<{ trialId: number | null }>('SELECT trialId FROM photos WHERE id = ?', { replacements: [photoId], type: QueryTypes.SELECT }))[0].trialId;
+  (
+    await db.query<{ trialId: number | null }>('SELECT trialId FROM photos WHERE id = ?', {
+      replacements: [photoId],
+      type: QueryTypes.SELECT,
+    })
+  )[0].trialId;
 
 describe('migration 0020: photos.trialId foreign key', () => {
   it('unlinks photos of trials that no longer exist, then refuses to delete a trial that still has photos', async () => {
@@ -48,7 +60,9 @@ describe('migration 0020: photos.trialId foreign key', () => {
     await createMigrator(db).up();
     expect(await trialOf(keptPhoto)).toBe(kept);
     expect(await trialOf(orphan)).toBeNull();
-    await expect(db.query('DELETE FROM trials WHERE id = ?', { replacements: [kept] })).rejects.toMatchObject({ name: 'SequelizeForeignKeyConstraintError' });
+    await expect(db.query('DELETE FROM trials WHERE id = ?', { replacements: [kept] })).rejects.toMatchObject({
+      name: 'SequelizeForeignKeyConstraintError',
+    });
     await expect(photo(999999)).rejects.toMatchObject({ name: 'SequelizeForeignKeyConstraintError' });
   });
 

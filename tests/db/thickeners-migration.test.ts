@@ -17,7 +17,9 @@ beforeAll(async () => {
   url.pathname = `/${dbName}`;
   db = createSequelize(url.toString());
   await createMigrator(db).up({ to: '0016-series-target' });
-  await db.query("INSERT INTO chemicals (name, role, status, hStatements, source, createdAt, updatedAt) VALUES ('guar gum', 'thickener', 'permitted', '[]', 'common practice', NOW(), NOW())");
+  await db.query(
+    "INSERT INTO chemicals (name, role, status, hStatements, source, createdAt, updatedAt) VALUES ('guar gum', 'thickener', 'permitted', '[]', 'common practice', NOW(), NOW())",
+  );
 });
 afterAll(async () => {
   await db?.close();
@@ -26,22 +28,41 @@ afterAll(async () => {
 });
 
 const thickeners = async () =>
-  (await db.query<{ name: string }>("SELECT name FROM chemicals WHERE role = 'thickener' ORDER BY name", { type: QueryTypes.SELECT })).map((r) => r.name);
+  (
+    await db.query<{ name: string }>("SELECT name FROM chemicals WHERE role = 'thickener' ORDER BY name", {
+      type: QueryTypes.SELECT,
+    })
+  ).map((r) => r.name);
 const batch = (code: string, kind: string) =>
-  db.query("INSERT INTO mordant_batches (code, kind, name, ingredients, volumeMl, madeOn, status, uptakePerUse, createdAt, updatedAt) VALUES (?, ?, 'b', '[]', 500, '2024-05-01', 'active', 0, NOW(), NOW())", { replacements: [code, kind] });
+  db.query(
+    "INSERT INTO mordant_batches (code, kind, name, ingredients, volumeMl, madeOn, status, uptakePerUse, createdAt, updatedAt) VALUES (?, ?, 'b', '[]', 500, '2024-05-01', 'active', 0, NOW(), NOW())",
+    { replacements: [code, kind] },
+  );
 
 describe('migration 0018: thickeners and the stock kind', () => {
   it('adds the missing thickeners to an existing install once, and accepts batches of kind stock', async () => {
     await createMigrator(db).up();
     expect(await thickeners()).toEqual(['British gum (dextrin)', 'guar gum', 'gum tragacanth', 'sodium alginate']);
     await batch('ST-1', 'stock');
-    expect((await db.query<{ kind: string }>("SELECT kind FROM mordant_batches WHERE code = 'ST-1'", { type: QueryTypes.SELECT }))[0].kind).toBe('stock');
+    expect(
+      (
+        await db.query<{ kind: string }>("SELECT kind FROM mordant_batches WHERE code = 'ST-1'", {
+          type: QueryTypes.SELECT,
+        })
+      )[0].kind,
+    ).toBe('stock');
   });
 
   it('goes down (a stock becomes a print paste, the added thickeners go) and up again', async () => {
     await createMigrator(db).down({ to: '0018-thickeners-stock-kind' });
     expect(await thickeners()).toEqual(['guar gum']);
-    expect((await db.query<{ kind: string }>("SELECT kind FROM mordant_batches WHERE code = 'ST-1'", { type: QueryTypes.SELECT }))[0].kind).toBe('print-paste');
+    expect(
+      (
+        await db.query<{ kind: string }>("SELECT kind FROM mordant_batches WHERE code = 'ST-1'", {
+          type: QueryTypes.SELECT,
+        })
+      )[0].kind,
+    ).toBe('print-paste');
     await createMigrator(db).up();
     expect(await thickeners()).toHaveLength(4);
   });

@@ -9,6 +9,7 @@ export async function signedInAgent(app: Express, who: DemoRole | { email: strin
   const agent = request.agent(app);
   const creds = typeof who === 'string' ? { email: `${who}@demo.test`, password: 'tinctoria-demo' } : who;
   const res = await agent.post('/api/auth/login').set('Origin', ORIGIN).send(creds);
-  if (res.status !== 200) throw new Error(`sign-in as ${creds.email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  if (res.status !== 200)
+    throw new Error(`sign-in as ${creds.email} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return agent;
 }

@@ -10,7 +10,16 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close:
     executablePath: '/usr/bin/chromium',
     headless: true,
     viewport: { width: 1280, height: 900 },
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
   });
   return {
     context,
@@ -22,7 +31,12 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close:
 }
 
 /** Sign in through the real form as one of the demo accounts. */
-export async function signInAs(page: import('playwright-core').Page, baseUrl: string, email: string, password = 'tinctoria-demo') {
+export async function signInAs(
+  page: import('playwright-core').Page,
+  baseUrl: string,
+  email: string,
+  password = 'tinctoria-demo',
+) {
   await page.goto(`${baseUrl}/sign-in`);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);

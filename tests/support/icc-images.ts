@@ -19,19 +19,26 @@ export const PROFILE_SOURCES: Record<SpaceId, string> = {
 };
 
 const builtIn = async (name: 'srgb' | 'p3' | 'cmyk') => {
-  const out = await sharp({ create: { width: 1, height: 1, channels: 3, background: '#808080' } }).withIccProfile(name).png().toBuffer();
+  const out = await sharp({ create: { width: 1, height: 1, channels: 3, background: '#808080' } })
+    .withIccProfile(name)
+    .png()
+    .toBuffer();
   return (await sharp(out).metadata()).icc!;
 };
 
 let cache: Partial<Record<SpaceId | 'cmyk', Buffer>> = {};
 export async function profileBytes(space: SpaceId | 'cmyk'): Promise<Buffer> {
   cache[space] ??=
-    space === 'a98rgb' ? readFileSync(path.join(import.meta.dirname, '../fixtures/icc/compatibleWithAdobeRGB1998.icc'))
-    : space === 'prophoto' ? rommProfile()
-    : await builtIn(space);
+    space === 'a98rgb'
+      ? readFileSync(path.join(import.meta.dirname, '../fixtures/icc/compatibleWithAdobeRGB1998.icc'))
+      : space === 'prophoto'
+        ? rommProfile()
+        : await builtIn(space);
   return cache[space]!;
 }
-export const clearProfileCache = () => { cache = {}; };
+export const clearProfileCache = () => {
+  cache = {};
+};
 
 // --- A ROMM RGB profile from its published definition -------------------------------------------
 // ISO 22028-2:2013 (ROMM RGB): primaries R (0.7347, 0.2653), G (0.1596, 0.8404), B (0.0366, 0.0001),
@@ -44,21 +51,55 @@ function primariesMatrix(xy: number[][], white: number[]) {
   const W = XYZ(white[0], white[1]);
   // Solve cols · S = W for the per-primary scales S (Cramer's rule).
   const m = [0, 1, 2].map((i) => cols.map((c) => c[i]));
-  const det = (a: number[][]) => a[0][0] * (a[1][1] * a[2][2] - a[1][2] * a[2][1]) - a[0][1] * (a[1][0] * a[2][2] - a[1][2] * a[2][0]) + a[0][2] * (a[1][0] * a[2][1] - a[1][1] * a[2][0]);
+  const det = (a: number[][]) =>
+    a[0][0] * (a[1][1] * a[2][2] - a[1][2] * a[2][1]) -
+    a[0][1] * (a[1][0] * a[2][2] - a[1][2] * a[2][0]) +
+    a[0][2] * (a[1][0] * a[2][1] - a[1][1] * a[2][0]);
   const d = det(m);
   const S = [0, 1, 2].map((k) => det(m.map((row, i) => row.map((v, j) => (j === k ? W[i] : v)))) / d);
   return cols.map((c, k) => c.map((v) => v * S[k])); // colorant XYZ of each primary
 }
 
 function rommProfile(): Buffer {
-  const colorants = primariesMatrix([[0.7347, 0.2653], [0.1596, 0.8404], [0.0366, 0.0001]], [0.3457, 0.3585]);
-  const s15 = (v: number) => { const b = Buffer.alloc(4); b.writeInt32BE(Math.round(v * 65536)); return b; };
+  const colorants = primariesMatrix(
+    [
+      [0.7347, 0.2653],
+      [0.1596, 0.8404],
+      [0.0366, 0.0001],
+    ],
+    [0.3457, 0.3585],
+  );
+  const s15 = (v: number) => {
+    const b = Buffer.alloc(4);
+    b.writeInt32BE(Math.round(v * 65536));
+    return b;
+  };
   const xyzTag = (v: number[]) => Buffer.concat([Buffer.from('XYZ \0\0\0\0', 'latin1'), ...v.map(s15)]);
-  const para = Buffer.concat([Buffer.from('para\0\0\0\0', 'latin1'), Buffer.from([0, 3, 0, 0]), ...[1.8, 1, 0, 1 / 16, 16 / 512].map(s15)]);
+  const para = Buffer.concat([
+    Buffer.from('para\0\0\0\0', 'latin1'),
+    Buffer.from([0, 3, 0, 0]),
+    ...[1.8, 1, 0, 1 / 16, 16 / 512].map(s15),
+  ]);
   const text = 'ROMM RGB (ISO 22028-2), test profile';
   const utf16 = Buffer.from(text, 'utf16le').swap16();
-  const mluc = Buffer.concat([Buffer.from('mluc\0\0\0\0', 'latin1'), u32(1), u32(12), Buffer.from('enUS', 'latin1'), u32(utf16.length), u32(28), utf16]);
-  const tags: Array<[string, Buffer]> = [['desc', mluc], ['cprt', mluc], ['wtpt', xyzTag([0.9642, 1, 0.8249])], ['rXYZ', xyzTag(colorants[0])], ['gXYZ', xyzTag(colorants[1])], ['bXYZ', xyzTag(colorants[2])], ['rTRC', para]];
+  const mluc = Buffer.concat([
+    Buffer.from('mluc\0\0\0\0', 'latin1'),
+    u32(1),
+    u32(12),
+    Buffer.from('enUS', 'latin1'),
+    u32(utf16.length),
+    u32(28),
+    utf16,
+  ]);
+  const tags: Array<[string, Buffer]> = [
+    ['desc', mluc],
+    ['cprt', mluc],
+    ['wtpt', xyzTag([0.9642, 1, 0.8249])],
+    ['rXYZ', xyzTag(colorants[0])],
+    ['gXYZ', xyzTag(colorants[1])],
+    ['bXYZ', xyzTag(colorants[2])],
+    ['rTRC', para],
+  ];
   const all: Array<[string, number]> = [];
   const bodies: Buffer[] = [];
   let offset = 128 + 4 + 12 * (tags.length + 2);
@@ -86,7 +127,11 @@ function rommProfile(): Buffer {
   return Buffer.concat([header, table, ...bodies]);
 }
 
-function u32(v: number) { const b = Buffer.alloc(4); b.writeUInt32BE(v); return b; }
+function u32(v: number) {
+  const b = Buffer.alloc(4);
+  b.writeUInt32BE(v);
+  return b;
+}
 
 // --- Pixels ---------------------------------------------------------------------------------------
 
@@ -106,7 +151,9 @@ export function convertPixels(srgb: Uint8Array, space: SpaceId, bits: 8 | 16): U
       v = c.map((x) => Math.round(Math.min(1, Math.max(0, x)) * max)) as [number, number, number];
       seen.set(key, v);
     }
-    out[i] = v[0]; out[i + 1] = v[1]; out[i + 2] = v[2];
+    out[i] = v[0];
+    out[i + 1] = v[1];
+    out[i + 2] = v[2];
   }
   return out;
 }
@@ -127,7 +174,13 @@ export type Format = 'jpeg' | 'png' | 'tiff';
  * and the pixels untouched: a PNG carries it in iCCP; JPEG and TIFF are written from that PNG with
  * sharp's keepIccProfile(), which copies the profile instead of converting to it.
  */
-export async function encodeWithProfile(px: Uint8Array | Uint16Array, width: number, height: number, icc: Buffer | null, format: Format): Promise<Buffer> {
+export async function encodeWithProfile(
+  px: Uint8Array | Uint16Array,
+  width: number,
+  height: number,
+  icc: Buffer | null,
+  format: Format,
+): Promise<Buffer> {
   const sixteen = px instanceof Uint16Array;
   let img = sharp(px, { raw: { width, height, channels: 3 } });
   if (sixteen) img = img.toColourspace('rgb16');
@@ -140,6 +193,17 @@ export async function encodeWithProfile(px: Uint8Array | Uint16Array, width: num
 }
 
 /** 8-bit sRGB pixels re-encoded in `space` at `bits` and saved as `format` with that space's profile. */
-export async function inProfile(srgb: { data: Uint8Array; width: number; height: number }, space: SpaceId, bits: 8 | 16, format: Format) {
-  return encodeWithProfile(convertPixels(srgb.data, space, bits), srgb.width, srgb.height, await profileBytes(space), format);
+export async function inProfile(
+  srgb: { data: Uint8Array; width: number; height: number },
+  space: SpaceId,
+  bits: 8 | 16,
+  format: Format,
+) {
+  return encodeWithProfile(
+    convertPixels(srgb.data, space, bits),
+    srgb.width,
+    srgb.height,
+    await profileBytes(space),
+    format,
+  );
 }

@@ -1,4 +1,8 @@
-type Layer = { route?: { path: string; methods: Record<string, boolean> }; handle?: { stack?: Layer[] }; rawPath?: string | string[] };
+type Layer = {
+  route?: { path: string; methods: Record<string, boolean> };
+  handle?: { stack?: Layer[] };
+  rawPath?: string | string[];
+};
 
 /** Every METHOD /path the app registers, walked from the app's router through mounted routers. */
 function walk(stack: Layer[], prefix = ''): string[] {
@@ -10,7 +14,10 @@ function walk(stack: Layer[], prefix = ''): string[] {
         .map((m) => `${m.toUpperCase()} ${path}`);
     }
     if (layer.handle?.stack) {
-      if (typeof layer.rawPath !== 'string') throw new Error(`a router is mounted on a non-string path (${String(layer.rawPath)}); the matrix cannot name its routes`);
+      if (typeof layer.rawPath !== 'string')
+        throw new Error(
+          `a router is mounted on a non-string path (${String(layer.rawPath)}); the matrix cannot name its routes`,
+        );
       return walk(layer.handle.stack, prefix + (layer.rawPath === '/' ? '' : layer.rawPath));
     }
     return [];

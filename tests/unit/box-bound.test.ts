@@ -4,7 +4,7 @@ import { boundQuery, boxBounds } from '../../server/search/box-bound.ts';
 import { deltaE00 } from '../../server/search/ciede2000.ts';
 
 let seed = 4242;
-const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
 const gauss = () => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
 
 // Queries biased to where CIEDE2000 is awkward: greys (G large, hue undefined), blues near h = 275° (the rotation
@@ -26,11 +26,21 @@ function box(q: { L: number; a: number; b: number }, i: number) {
   const k = i % 4;
   // Near the query, straddling the origin, mirrored through the origin, or anywhere.
   const c =
-    k === 0 ? { L: q.L + gauss() * 6, a: q.a + gauss() * 12, b: q.b + gauss() * 12 }
-    : k === 1 ? { L: q.L + gauss() * 6, a: gauss() * 3 - size / 2, b: gauss() * 3 - size / 2 }
-    : k === 2 ? { L: q.L + gauss() * 6, a: -q.a + gauss() * 3, b: -q.b + gauss() * 3 }
-    : { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
-  return { L0: c.L, L1: c.L + size * (0.2 + rnd()), a0: c.a, a1: c.a + size * (0.2 + rnd()), b0: c.b, b1: c.b + size * (0.2 + rnd()) };
+    k === 0
+      ? { L: q.L + gauss() * 6, a: q.a + gauss() * 12, b: q.b + gauss() * 12 }
+      : k === 1
+        ? { L: q.L + gauss() * 6, a: gauss() * 3 - size / 2, b: gauss() * 3 - size / 2 }
+        : k === 2
+          ? { L: q.L + gauss() * 6, a: -q.a + gauss() * 3, b: -q.b + gauss() * 3 }
+          : { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
+  return {
+    L0: c.L,
+    L1: c.L + size * (0.2 + rnd()),
+    a0: c.a,
+    a1: c.a + size * (0.2 + rnd()),
+    b0: c.b,
+    b1: c.b + size * (0.2 + rnd()),
+  };
 }
 
 describe('ΔE00 bounds over an L*a*b* box (box-bound.ts)', () => {
@@ -46,8 +56,17 @@ describe('ΔE00 bounds over an L*a*b* box (box-bound.ts)', () => {
       let max = 0;
       for (let k = 0; k < 30; k++) {
         // The 8 corners, then points on faces and edges, then anywhere inside.
-        const t = k < 8 ? [k & 1, (k >> 1) & 1, (k >> 2) & 1] : k < 20 ? [rnd(), rnd() < 0.5 ? 0 : 1, rnd()] : [rnd(), rnd(), rnd()];
-        const p = { L: bx.L0 + t[0] * (bx.L1 - bx.L0), a: bx.a0 + t[1] * (bx.a1 - bx.a0), b: bx.b0 + t[2] * (bx.b1 - bx.b0) };
+        const t =
+          k < 8
+            ? [k & 1, (k >> 1) & 1, (k >> 2) & 1]
+            : k < 20
+              ? [rnd(), rnd() < 0.5 ? 0 : 1, rnd()]
+              : [rnd(), rnd(), rnd()];
+        const p = {
+          L: bx.L0 + t[0] * (bx.L1 - bx.L0),
+          a: bx.a0 + t[1] * (bx.a1 - bx.a0),
+          b: bx.b0 + t[2] * (bx.b1 - bx.b0),
+        };
         const d = deltaE00(q, p);
         min = Math.min(min, d);
         max = Math.max(max, d);

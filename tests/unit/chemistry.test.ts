@@ -2,13 +2,24 @@ import { describe, expect, it } from 'vitest';
 import atomicWeights from '../reference/atomic-weights.json' with { type: 'json' };
 import compounds from '../reference/mordant-compounds.json' with { type: 'json' };
 import { ATOMIC_WEIGHTS } from '../../shared/data/atomic-weights.ts';
-import { compareMetalLoad, FormulaError, metalLoad, metalMassFraction, molarMass, parseFormula, perKgFibre } from '../../shared/compute/chemistry.ts';
+import {
+  compareMetalLoad,
+  FormulaError,
+  metalLoad,
+  metalMassFraction,
+  molarMass,
+  parseFormula,
+  perKgFibre,
+} from '../../shared/compute/chemistry.ts';
 
 describe('atomic weight table', () => {
   // Source: IUPAC 2021 abridged standard atomic weights (Prohaska et al. 2022), tests/reference/atomic-weights.json.
-  it.each(atomicWeights.map((e) => [e.symbol, e.abridged_atomic_weight] as const))('%s = %f g/mol (IUPAC 2021 abridged)', (symbol, w) => {
-    expect(ATOMIC_WEIGHTS[symbol]).toBe(w);
-  });
+  it.each(atomicWeights.map((e) => [e.symbol, e.abridged_atomic_weight] as const))(
+    '%s = %f g/mol (IUPAC 2021 abridged)',
+    (symbol, w) => {
+      expect(ATOMIC_WEIGHTS[symbol]).toBe(w);
+    },
+  );
 });
 
 describe('formula parser', () => {
@@ -24,19 +35,34 @@ describe('formula parser', () => {
   });
 
   it('refuses unknown elements, stray characters and unbalanced brackets', () => {
-    for (const bad of ['Xx2O', 'KAl(SO4', 'KAlSO4)2', 'K2Cr2O7·', 'NaCl!', '', 'H0']) expect(() => parseFormula(bad), bad).toThrow(FormulaError);
+    for (const bad of ['Xx2O', 'KAl(SO4', 'KAlSO4)2', 'K2Cr2O7·', 'NaCl!', '', 'H0'])
+      expect(() => parseFormula(bad), bad).toThrow(FormulaError);
   });
 
   it('reads decimal, vulgar-fraction and a/b hydrate coefficients, with any hydrate dot', () => {
     // Element counts by hand: CaSO4·½H2O = Ca 1, S 1, O 4.5, H 1.
     const hemihydrate = { Ca: 1, S: 1, O: 4.5, H: 1 };
-    for (const f of ['CaSO4·0.5H2O', 'CaSO4.0.5H2O', 'CaSO4·½H2O', 'CaSO4.½H2O', 'CaSO4·1/2H2O', 'CaSO4 · 0.5H2O', 'CaSO4*0.5H2O']) {
+    for (const f of [
+      'CaSO4·0.5H2O',
+      'CaSO4.0.5H2O',
+      'CaSO4·½H2O',
+      'CaSO4.½H2O',
+      'CaSO4·1/2H2O',
+      'CaSO4 · 0.5H2O',
+      'CaSO4*0.5H2O',
+    ]) {
       expect(parseFormula(f), f).toEqual(hemihydrate);
     }
     expect(parseFormula('Al2(SO4)3·14.3H2O')).toEqual({ Al: 2, S: 3, O: 12 + 14.3, H: 28.6 });
     expect(parseFormula('Al2(SO4)3.14.3H2O')).toEqual({ Al: 2, S: 3, O: 12 + 14.3, H: 28.6 });
     expect(parseFormula('CaSO4·1½H2O')).toEqual({ Ca: 1, S: 1, O: 5.5, H: 3 });
-    for (const [ch, v] of [['¼', 0.25], ['¾', 0.75], ['⅓', 1 / 3], ['⅔', 2 / 3], ['⅛', 0.125]] as const) {
+    for (const [ch, v] of [
+      ['¼', 0.25],
+      ['¾', 0.75],
+      ['⅓', 1 / 3],
+      ['⅔', 2 / 3],
+      ['⅛', 0.125],
+    ] as const) {
       expect(parseFormula(`CaSO4·${ch}H2O`).H, ch).toBeCloseTo(2 * v, 12);
     }
     // A full stop as hydrate dot still works after a count or a bracket.
@@ -119,8 +145,14 @@ describe('metal load', () => {
   it('compares historical and modern recipes: the grams of lead not used', () => {
     // A lead-based red liquor (20 g lead acetate + 40 g alum) replaced by 60 g alum with calcium acetate.
     const rows = compareMetalLoad(
-      [{ formula: 'Pb(CH3COO)2·3H2O', grams: 20 }, { formula: 'KAl(SO4)2·12H2O', grams: 40 }],
-      [{ formula: 'KAl(SO4)2·12H2O', grams: 60 }, { formula: 'Ca(CH3COO)2', grams: 30 }],
+      [
+        { formula: 'Pb(CH3COO)2·3H2O', grams: 20 },
+        { formula: 'KAl(SO4)2·12H2O', grams: 40 },
+      ],
+      [
+        { formula: 'KAl(SO4)2·12H2O', grams: 60 },
+        { formula: 'Ca(CH3COO)2', grams: 30 },
+      ],
       250,
     );
     const pb = rows.find((r) => r.metal === 'Pb')!;

@@ -7,13 +7,15 @@ import { deltaE00 as referenceDeltaE00 } from '../../shared/colour/difference.ts
 import { hexToLab as referenceHexToLab, labToHex as referenceLabToHex } from '../../shared/colour/convert.ts';
 
 type Pair = { pair: number; L1: number; a1: number; b1: number; L2: number; a2: number; b2: number; dE00: number };
-const sharma: Pair[] = JSON.parse(readFileSync(new URL('../reference/ciede2000-sharma2005.json', import.meta.url), 'utf8'));
+const sharma: Pair[] = JSON.parse(
+  readFileSync(new URL('../reference/ciede2000-sharma2005.json', import.meta.url), 'utf8'),
+);
 const srgb: Array<{ name: string; hex: string; L: number; a: number; b: number }> = JSON.parse(
   readFileSync(new URL('../reference/srgb-lab.json', import.meta.url), 'utf8'),
 );
 
 let seed = 7;
-const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
 
 describe('hand-written CIEDE2000 used by the shade index', () => {
   it('matches every pair stored from Sharma, Wu & Dalal (2005) Table 1 to 4 decimals, both ways round', () => {
@@ -30,9 +32,15 @@ describe('hand-written CIEDE2000 used by the shade index', () => {
     let worst = 0;
     for (let i = 0; i < 5_000; i++) {
       const grey = i % 5 === 0;
-      const x = { L: rnd() * 100, a: grey ? rnd() * 2 - 1 : rnd() * 200 - 100, b: grey ? rnd() * 2 - 1 : rnd() * 200 - 100 };
+      const x = {
+        L: rnd() * 100,
+        a: grey ? rnd() * 2 - 1 : rnd() * 200 - 100,
+        b: grey ? rnd() * 2 - 1 : rnd() * 200 - 100,
+      };
       const near = i % 3 === 0;
-      const y = near ? { L: x.L + rnd() * 4 - 2, a: x.a + rnd() * 6 - 3, b: x.b + rnd() * 6 - 3 } : { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
+      const y = near
+        ? { L: x.L + rnd() * 4 - 2, a: x.a + rnd() * 6 - 3, b: x.b + rnd() * 6 - 3 }
+        : { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
       const oracle = new Color('lab', [x.L, x.a, x.b]).deltaE2000(new Color('lab', [y.L, y.a, y.b]));
       worst = Math.max(worst, Math.abs(deltaE00(x, y) - oracle));
     }
@@ -41,20 +49,49 @@ describe('hand-written CIEDE2000 used by the shade index', () => {
 
   it('agrees with colorjs.io where the vector form of the hue terms has edge cases: opposite hues, greys, hue means near 0°/360°, 100° and 275°', () => {
     const pairs: Array<[number[], number[]]> = [
-      [[50, 10, 0], [50, -10, 0]], // exactly opposite on the a* axis
-      [[50, 0, 12], [60, 0, -12]], // exactly opposite on the b* axis
-      [[40, 3, 4], [40, -6, -8]], // opposite, different chroma
-      [[50, 0, 0], [50, 20, -5]], // one achromatic
-      [[50, 0, 0], [52, 0, 0]], // both achromatic
-      [[50, 20, 0.5], [50, 20, -0.5]], // hue mean at 0°/360°
-      [[50, 20, 0.01], [50, 20, -0.03]],
-      [[50, -3.4, 19.7], [50, -3.6, 19.6]], // hue mean near 100°
-      [[50, 2, -25], [55, 1, -26]], // near 275°, the rotation term at its strongest
+      [
+        [50, 10, 0],
+        [50, -10, 0],
+      ], // exactly opposite on the a* axis
+      [
+        [50, 0, 12],
+        [60, 0, -12],
+      ], // exactly opposite on the b* axis
+      [
+        [40, 3, 4],
+        [40, -6, -8],
+      ], // opposite, different chroma
+      [
+        [50, 0, 0],
+        [50, 20, -5],
+      ], // one achromatic
+      [
+        [50, 0, 0],
+        [52, 0, 0],
+      ], // both achromatic
+      [
+        [50, 20, 0.5],
+        [50, 20, -0.5],
+      ], // hue mean at 0°/360°
+      [
+        [50, 20, 0.01],
+        [50, 20, -0.03],
+      ],
+      [
+        [50, -3.4, 19.7],
+        [50, -3.6, 19.6],
+      ], // hue mean near 100°
+      [
+        [50, 2, -25],
+        [55, 1, -26],
+      ], // near 275°, the rotation term at its strongest
     ];
     for (const [x, y] of pairs) {
       const a = { L: x[0], a: x[1], b: x[2] };
       const b = { L: y[0], a: y[1], b: y[2] };
-      const oracle = new Color('lab', x as [number, number, number]).deltaE2000(new Color('lab', y as [number, number, number]));
+      const oracle = new Color('lab', x as [number, number, number]).deltaE2000(
+        new Color('lab', y as [number, number, number]),
+      );
       expect(deltaE00(a, b), JSON.stringify([x, y])).toBeCloseTo(oracle, 9);
       expect(deltaE00(b, a), JSON.stringify([y, x])).toBeCloseTo(oracle, 9);
     }
@@ -68,7 +105,10 @@ describe('hand-written CIEDE2000 used by the shade index', () => {
       const x: [number, number, number] = [rnd() * 100, c1 * Math.cos(h1), c1 * Math.sin(h1)];
       const y: [number, number, number] = [x[0] + rnd() * 4 - 2, c2 * Math.cos(h2), c2 * Math.sin(h2)];
       const oracle = new Color('lab', x).deltaE2000(new Color('lab', y));
-      worst = Math.max(worst, Math.abs(deltaE00({ L: x[0], a: x[1], b: x[2] }, { L: y[0], a: y[1], b: y[2] }) - oracle));
+      worst = Math.max(
+        worst,
+        Math.abs(deltaE00({ L: x[0], a: x[1], b: x[2] }, { L: y[0], a: y[1], b: y[2] }) - oracle),
+      );
     }
     expect(worst).toBeLessThan(1e-9);
   });
@@ -84,7 +124,10 @@ describe('the fast kernel and the reference ΔE00 (shared/colour/difference.ts) 
     let worst = 0;
     for (let i = 0; i < 5_000; i++) {
       const x = { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
-      const y = i % 2 ? { L: x.L + rnd() * 4 - 2, a: x.a + rnd() * 6 - 3, b: x.b + rnd() * 6 - 3 } : { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
+      const y =
+        i % 2
+          ? { L: x.L + rnd() * 4 - 2, a: x.a + rnd() * 6 - 3, b: x.b + rnd() * 6 - 3 }
+          : { L: rnd() * 100, a: rnd() * 200 - 100, b: rnd() * 200 - 100 };
       worst = Math.max(worst, Math.abs(deltaE00(x, y) - referenceDeltaE00(x, y)));
     }
     expect(worst).toBeLessThan(1e-9);

@@ -9,7 +9,11 @@ import { deltaE76, differenceReport, labComponents, type Lab } from '../../share
 // ΔE*ab² = ΔL*² + ΔC*ab² + ΔH*ab².
 
 const lch = converter('lch65');
-const fromLch = (L: number, C: number, h: number): Lab => ({ L, a: C * Math.cos((h * Math.PI) / 180), b: C * Math.sin((h * Math.PI) / 180) });
+const fromLch = (L: number, C: number, h: number): Lab => ({
+  L,
+  a: C * Math.cos((h * Math.PI) / 180),
+  b: C * Math.sin((h * Math.PI) / 180),
+});
 const asCulori = (x: Lab) => {
   const c = lch({ mode: 'lab65', l: x.L, a: x.a, b: x.b });
   return { c: c.c, h: c.h ?? 0 };
@@ -90,19 +94,23 @@ describe('difference words follow the direction of the hue change', () => {
 describe('ΔL*, ΔC*ab, ΔH*ab against independent computations', () => {
   // Deterministic pseudo-random pairs spread over the gamut, small and large differences, hue angles across 0°/360°.
   let seed = 12345;
-  const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+  const rand = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
   const pairs: Array<[Lab, Lab]> = [];
   for (let i = 0; i < 400; i++) {
     const s = fromLch(10 + 85 * rand(), 1 + 80 * rand(), 360 * rand());
     const spread = i % 2 ? 3 : 40;
-    pairs.push([s, { L: s.L + spread * (rand() - 0.5), a: s.a + spread * (rand() - 0.5), b: s.b + spread * (rand() - 0.5) }]);
+    pairs.push([
+      s,
+      { L: s.L + spread * (rand() - 0.5), a: s.a + spread * (rand() - 0.5), b: s.b + spread * (rand() - 0.5) },
+    ]);
   }
 
   it('ΔC*ab equals the difference of culori chromas, |ΔH*ab| equals culori differenceHueChroma', () => {
     const dHue = differenceHueChroma;
     for (const [s, t] of pairs) {
       const c = labComponents(s, t);
-      const cs = asCulori(s), ct = asCulori(t);
+      const cs = asCulori(s),
+        ct = asCulori(t);
       expect(c.dL).toBeCloseTo(t.L - s.L, 12);
       expect(c.dC).toBeCloseTo(ct.c - cs.c, 9);
       // culori's sign depends on how the angles are written, so only the magnitude is compared.

@@ -4,12 +4,44 @@ import Color from 'colorjs.io';
 import { converter, differenceCiede2000, differenceCmc } from 'culori';
 import { describe, expect, it } from 'vitest';
 import {
-  bradfordMatrix, DEFAULT_BANDS, deltaE00, deltaECMC, differenceReport, hexToLab, labToHex, shadeName, srgbToLab, tradeShade, verdictFor, type Xyz,
+  bradfordMatrix,
+  DEFAULT_BANDS,
+  deltaE00,
+  deltaECMC,
+  differenceReport,
+  hexToLab,
+  labToHex,
+  shadeName,
+  srgbToLab,
+  tradeShade,
+  verdictFor,
+  type Xyz,
 } from '../../shared/colour/index.ts';
 
 const ref = (name: string) => JSON.parse(readFileSync(path.join(import.meta.dirname, '../reference', name), 'utf8'));
-type SrgbCase = { name: string; R?: number; G?: number; B?: number; hex?: string; L: number; a: number; b: number; decimals: number; provenance: string };
-type SharmaCase = { pair: number; L1: number; a1: number; b1: number; L2: number; a2: number; b2: number; dE00: number; decimals: number };
+type SrgbCase = {
+  name: string;
+  R?: number;
+  G?: number;
+  B?: number;
+  hex?: string;
+  L: number;
+  a: number;
+  b: number;
+  decimals: number;
+  provenance: string;
+};
+type SharmaCase = {
+  pair: number;
+  L1: number;
+  a1: number;
+  b1: number;
+  L2: number;
+  a2: number;
+  b2: number;
+  dE00: number;
+  decimals: number;
+};
 const srgbCases = (ref('srgb-lab.json') as SrgbCase[]).filter((c) => c.R !== undefined);
 const sharma = ref('ciede2000-sharma2005.json') as SharmaCase[];
 const lab65 = converter('lab65');
@@ -28,11 +60,15 @@ describe('sRGB → CIELAB D65', () => {
   });
 
   it('agrees with culori (independent library, lab65) on a grid of colours', () => {
-    for (let r = 0; r <= 255; r += 51) for (let g = 3; g <= 255; g += 63) for (let b = 7; b <= 255; b += 62) {
-      const ours = srgbToLab({ r, g, b });
-      const theirs = lab65({ mode: 'rgb', r: r / 255, g: g / 255, b: b / 255 });
-      expect(Math.abs(ours.L - theirs.l) + Math.abs(ours.a - theirs.a) + Math.abs(ours.b - theirs.b)).toBeLessThan(1e-6);
-    }
+    for (let r = 0; r <= 255; r += 51)
+      for (let g = 3; g <= 255; g += 63)
+        for (let b = 7; b <= 255; b += 62) {
+          const ours = srgbToLab({ r, g, b });
+          const theirs = lab65({ mode: 'rgb', r: r / 255, g: g / 255, b: b / 255 });
+          expect(Math.abs(ours.L - theirs.l) + Math.abs(ours.a - theirs.a) + Math.abs(ours.b - theirs.b)).toBeLessThan(
+            1e-6,
+          );
+        }
   });
 
   it('round-trips through hex', () => {
@@ -43,7 +79,8 @@ describe('sRGB → CIELAB D65', () => {
 describe('CIEDE2000', () => {
   // Source: Sharma, Wu & Dalal (2005), Table 1, even pairs (tests/reference/ciede2000-sharma2005.json).
   it.each(sharma.map((c) => [c.pair, c] as const))('pair %i in both orders', (_, c) => {
-    const x = { L: c.L1, a: c.a1, b: c.b1 }, y = { L: c.L2, a: c.a2, b: c.b2 };
+    const x = { L: c.L1, a: c.a1, b: c.b1 },
+      y = { L: c.L2, a: c.a2, b: c.b2 };
     const tol = 0.5 * 10 ** -c.decimals;
     expect(Math.abs(deltaE00(x, y) - c.dE00)).toBeLessThanOrEqual(tol);
     expect(Math.abs(deltaE00(y, x) - c.dE00)).toBeLessThanOrEqual(tol);
@@ -61,9 +98,18 @@ describe('CIEDE2000', () => {
 describe('CMC(l:c)', () => {
   // Oracle: culori differenceCmc(l, c), whose first argument is the standard; l and c passed explicitly
   // because the libraries' defaults differ (culori 1:1, colorjs.io 2:1).
-  const pairs = sharma.map((c) => [{ L: c.L1, a: c.a1, b: c.b1 }, { L: c.L2, a: c.a2, b: c.b2 }] as const);
+  const pairs = sharma.map(
+    (c) =>
+      [
+        { L: c.L1, a: c.a1, b: c.b1 },
+        { L: c.L2, a: c.a2, b: c.b2 },
+      ] as const,
+  );
   const asCulori = (x: { L: number; a: number; b: number }) => ({ mode: 'lab65' as const, l: x.L, a: x.a, b: x.b });
-  it.each([[2, 1], [1, 1]])('CMC(%i:%i) with the original as the standard', (l, c) => {
+  it.each([
+    [2, 1],
+    [1, 1],
+  ])('CMC(%i:%i) with the original as the standard', (l, c) => {
     const culori = differenceCmc(l, c);
     for (const [x, y] of pairs) {
       expect(deltaECMC(x, y, l, c)).toBeCloseTo(culori(asCulori(x), asCulori(y)), 8);
@@ -80,7 +126,15 @@ describe('CMC(l:c)', () => {
 describe('difference report and verdicts', () => {
   it('uses the default bands (ΔE00 ≤1 match, ≤2 close, ≤4 near; common practice)', () => {
     expect(DEFAULT_BANDS).toEqual({ match: 1, close: 2, near: 4 });
-    expect([0.5, 1, 1.5, 2, 3.9, 4, 4.01].map((d) => verdictFor(d))).toEqual(['match', 'match', 'close', 'close', 'near', 'near', 'different']);
+    expect([0.5, 1, 1.5, 2, 3.9, 4, 4.01].map((d) => verdictFor(d))).toEqual([
+      'match',
+      'match',
+      'close',
+      'close',
+      'near',
+      'near',
+      'different',
+    ]);
     expect(verdictFor(1.5, { match: 2, close: 3, near: 5 })).toBe('match');
   });
 
@@ -120,7 +174,8 @@ describe('shade names', () => {
 
 describe('Bradford chromatic adaptation', () => {
   // Oracle: colorjs.io's own D50→D65 Bradford matrix (src/adapt.js), with its white points.
-  const D50 = Color.WHITES.D50 as Xyz, D65 = Color.WHITES.D65 as Xyz;
+  const D50 = Color.WHITES.D50 as Xyz,
+    D65 = Color.WHITES.D65 as Xyz;
   const libraryD50toD65 = [
     [0.955473421488075, -0.02309845494876471, 0.06325924320057072],
     [-0.0283697093338637, 1.0099953980813041, 0.021041441191917323],
@@ -132,9 +187,14 @@ describe('Bradford chromatic adaptation', () => {
   });
 
   it('is close to the published D50 → D65 Bradford matrix (Lindbloom; recalled from memory, other white-point digits)', () => {
-    const lindbloom = [[0.9555766, -0.0230393, 0.0631636], [-0.0282895, 1.0099416, 0.0210077], [0.0122982, -0.020483, 1.3299098]];
+    const lindbloom = [
+      [0.9555766, -0.0230393, 0.0631636],
+      [-0.0282895, 1.0099416, 0.0210077],
+      [0.0122982, -0.020483, 1.3299098],
+    ];
     const m = bradfordMatrix(D50, D65);
-    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) expect(Math.abs(m[i][j] - lindbloom[i][j])).toBeLessThan(1.5e-3);
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++) expect(Math.abs(m[i][j] - lindbloom[i][j])).toBeLessThan(1.5e-3);
   });
 
   it('maps the source white onto D65 whatever its luminance', () => {

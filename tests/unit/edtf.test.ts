@@ -5,15 +5,27 @@ import examples from '../reference/edtf-examples.json' with { type: 'json' };
 
 // Examples of the Library of Congress EDTF specification (2019; ISO 8601-2:2019 levels 0, 1 and parts of 2), recalled
 // from memory and corroborated where tests/reference/edtf-examples.json says so; the years are Tinctoria's reading.
-type Valid = { edtf: string; valid: true; earliest: number | null; latest: number | null; startQualified: boolean; endQualified: boolean };
+type Valid = {
+  edtf: string;
+  valid: true;
+  earliest: number | null;
+  latest: number | null;
+  startQualified: boolean;
+  endQualified: boolean;
+};
 type Invalid = { edtf: string; valid: false; message_contains: string };
 const valid = (examples as Array<Valid | Invalid>).filter((e): e is Valid => e.valid);
 const invalid = (examples as Array<Valid | Invalid>).filter((e): e is Invalid => !e.valid);
 
-describe('EDTF: the specification\'s examples', () => {
+describe("EDTF: the specification's examples", () => {
   it.each(valid.map((e) => [e.edtf, e] as const))('reads %s', (text, e) => {
     const r = parseEdtf(text);
-    expect(r.ok ? r.value : r.message).toMatchObject({ earliest: e.earliest, latest: e.latest, startQualified: e.startQualified, endQualified: e.endQualified });
+    expect(r.ok ? r.value : r.message).toMatchObject({
+      earliest: e.earliest,
+      latest: e.latest,
+      startQualified: e.startQualified,
+      endQualified: e.endQualified,
+    });
   });
   it.each(invalid.map((e) => [e.edtf, e.message_contains] as const))('refuses %j, saying so', (text, message) => {
     const r = parseEdtf(text);
@@ -33,9 +45,12 @@ describe('EDTF year bounds', () => {
     expect(edtfYears(v)).toEqual({ earliest, latest });
   });
 
-  it.each(['1785/1770', '1770-13', 'about 1770', '17', '1770/1780/1790', '', '1850-02-3X', '1850-4X', 'Y17E400'])('refuses %j', (v) => {
-    expect(edtfYears(v)).toBeNull();
-  });
+  it.each(['1785/1770', '1770-13', 'about 1770', '17', '1770/1780/1790', '', '1850-02-3X', '1850-4X', 'Y17E400'])(
+    'refuses %j',
+    (v) => {
+      expect(edtfYears(v)).toBeNull();
+    },
+  );
 });
 
 describe('piece date rules', () => {
@@ -59,8 +74,12 @@ describe('piece date rules', () => {
     expect(paths({ dateEdtf: '1800/', earliestYear: 1800, latestYear: 1790 })).toEqual(['latestYear']);
   });
   it('refuses invalid calendar dates beside the EDTF field', () => {
-    expect(dateIssues({ dateEdtf: '1850-02-30' })).toEqual([{ path: 'dateEdtf', message: 'February 1850 has 28 days; there is no day 30' }]);
-    expect(dateIssues({ dateEdtf: '1851-02-29' })[0].message).toBe('1851 is not a leap year: February 1851 has 28 days');
+    expect(dateIssues({ dateEdtf: '1850-02-30' })).toEqual([
+      { path: 'dateEdtf', message: 'February 1850 has 28 days; there is no day 30' },
+    ]);
+    expect(dateIssues({ dateEdtf: '1851-02-29' })[0].message).toBe(
+      '1851 is not a leap year: February 1851 has 28 days',
+    );
     expect(dateIssues({ dateEdtf: '1850-13' })[0].message).toMatch(/^There is no month 13/);
   });
   it('refuses dates outside the years the archive searches', () => {
@@ -68,18 +87,32 @@ describe('piece date rules', () => {
   });
   it('runs in the piece schema', () => {
     const base = { accessionNumber: '1931.4.12', objectName: 'panel', title: 't' };
-    expect(pieceCreateSchema.safeParse({ ...base, dateEdtf: '1760~', earliestYear: 1755, latestYear: 1765 }).success).toBe(true);
+    expect(
+      pieceCreateSchema.safeParse({ ...base, dateEdtf: '1760~', earliestYear: 1755, latestYear: 1765 }).success,
+    ).toBe(true);
     const r = pieceCreateSchema.safeParse({ ...base, dateEdtf: '1850-02-30' });
     expect(r.success ? [] : r.error.issues.map((i) => i.path.join('.'))).toEqual(['dateEdtf']);
   });
 });
 
 describe('accession numbers', () => {
-  it.each(['1931.4.12', '1931.4.12a-b', '1931.4.12.a', 'T.12', '2001.15', 'T.14-1950', '1957-94-1', 'L2020.3', 'EX 2021/1', '2008.245a,b', '2008.245a, b', '1931/4/12'])(
-    'accepts %s',
-    (v) => expect(ACCESSION_PATTERN.test(v)).toBe(true),
+  it.each([
+    '1931.4.12',
+    '1931.4.12a-b',
+    '1931.4.12.a',
+    'T.12',
+    '2001.15',
+    'T.14-1950',
+    '1957-94-1',
+    'L2020.3',
+    'EX 2021/1',
+    '2008.245a,b',
+    '2008.245a, b',
+    '1931/4/12',
+  ])('accepts %s', (v) => expect(ACCESSION_PATTERN.test(v)).toBe(true));
+  it.each(['1931..4', ' 1931.4', '1931.4.', '#12', '1931.4.12;a', '12 - 3', ''])('refuses %j', (v) =>
+    expect(ACCESSION_PATTERN.test(v)).toBe(false),
   );
-  it.each(['1931..4', ' 1931.4', '1931.4.', '#12', '1931.4.12;a', '12 - 3', ''])('refuses %j', (v) => expect(ACCESSION_PATTERN.test(v)).toBe(false));
 });
 
 describe('piece schema', () => {

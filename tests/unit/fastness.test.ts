@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import scales from '../reference/fastness-scales.json' with { type: 'json' };
-import { BLUE_WOOL_GRADES, GREY_GRADES, GREY_SCALE_NOMINAL_DE, gradeValue, greyGradeFromValue, nearestGreyGrade } from '../../shared/compute/fastness.ts';
+import {
+  BLUE_WOOL_GRADES,
+  GREY_GRADES,
+  GREY_SCALE_NOMINAL_DE,
+  gradeValue,
+  greyGradeFromValue,
+  nearestGreyGrade,
+} from '../../shared/compute/fastness.ts';
 import { fastnessSchema } from '../../shared/schemas/fastness.ts';
 
 const change = scales.filter((s) => s.scale === 'grey scale for change in colour');
@@ -29,7 +36,11 @@ describe('fastness grades', () => {
 
 describe('fastness schema', () => {
   it('accepts half grades and informal tests, refuses grades off the scales', () => {
-    const ok = fastnessSchema.parse({ light: { blueWool: '5', informal: true }, washing: { change: '4-5', staining: '3-4' }, rubbingDry: { staining: '4' } });
+    const ok = fastnessSchema.parse({
+      light: { blueWool: '5', informal: true },
+      washing: { change: '4-5', staining: '3-4' },
+      rubbingDry: { staining: '4' },
+    });
     expect(ok.washing?.informal).toBe(false);
     expect(fastnessSchema.safeParse({ light: { blueWool: '9' } }).success).toBe(false);
     expect(fastnessSchema.safeParse({ washing: { change: '3.5' } }).success).toBe(false);

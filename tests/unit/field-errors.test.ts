@@ -2,7 +2,14 @@ import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { fieldErrorsOf, fieldKey } from '../../shared/field-errors.ts';
 
-const schema = z.object({ code: z.string().min(1, 'Enter the code').regex(/^[a-z]+$/, 'Letters only'), steps: z.array(z.object({ ph: z.number().max(14, 'At most 14') })) })
+const schema = z
+  .object({
+    code: z
+      .string()
+      .min(1, 'Enter the code')
+      .regex(/^[a-z]+$/, 'Letters only'),
+    steps: z.array(z.object({ ph: z.number().max(14, 'At most 14') })),
+  })
   .refine((v) => v.code !== 'x', { message: 'Not x' });
 
 describe('zod issues → field errors (one function for server and client)', () => {

@@ -16,7 +16,10 @@ function sources(dir: string): string[] {
     return /\.tsx?$/.test(e.name) ? [path] : [];
   });
 }
-const files = sources(root).map((path) => ({ name: relative(root, path).replaceAll('\\', '/'), text: readFileSync(path, 'utf8') }));
+const files = sources(root).map((path) => ({
+  name: relative(root, path).replaceAll('\\', '/'),
+  text: readFileSync(path, 'utf8'),
+}));
 // Comments may name a <form> or zod's issues without being one.
 const code = (text: string) => text.replace(/\/\*[\s\S]*?\*\//g, '').replace(/(^|[^:'"`])\/\/.*$/gm, '$1');
 
@@ -27,12 +30,15 @@ describe('the forms’ convention', () => {
   });
 
   it('every component with a <form> uses useFormErrors()', () => {
-    const without = files.filter((f) => /<form\b/.test(code(f.text)) && !/\buseFormErrors\(\)/.test(code(f.text))).map((f) => f.name);
+    const without = files
+      .filter((f) => /<form\b/.test(code(f.text)) && !/\buseFormErrors\(\)/.test(code(f.text)))
+      .map((f) => f.name);
     expect(without, 'a <form> that does not validate through useFormErrors() from client/lib/form.ts').toEqual([]);
   });
 
   it('only client/lib/form.ts turns zod issues into field messages', () => {
-    const ISSUES = /\.issues\b|\.flatten\(|\bflattenError\(|\btreeifyError\(|\bprettifyError\(|\.format\(\)\s*\._errors|\bfieldErrorsOf\(/;
+    const ISSUES =
+      /\.issues\b|\.flatten\(|\bflattenError\(|\btreeifyError\(|\bprettifyError\(|\.format\(\)\s*\._errors|\bfieldErrorsOf\(/;
     const others = files.filter((f) => f.name !== HELPER && ISSUES.test(code(f.text))).map((f) => f.name);
     expect(others, 'use check(), fromServer() or errorsFor() from client/lib/form.ts').toEqual([]);
   });

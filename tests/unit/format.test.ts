@@ -1,9 +1,17 @@
 import { describe, expect, it } from 'vitest';
-import { exifLines, formatBytes, formatDate, formatDateTime, formatExposure, formatLocalDateTime, formatNumber } from '../../shared/format.ts';
+import {
+  exifLines,
+  formatBytes,
+  formatDate,
+  formatDateTime,
+  formatExposure,
+  formatLocalDateTime,
+  formatNumber,
+} from '../../shared/format.ts';
 import { describeHistory } from '../../shared/history-words.ts';
 
 describe('one format for dates and numbers', () => {
-  it('writes dates as ISO 8601 in the reader\'s time zone', () => {
+  it("writes dates as ISO 8601 in the reader's time zone", () => {
     const d = new Date(2025, 2, 14, 10, 22, 5);
     expect(formatDate(d)).toBe('2025-03-14');
     expect(formatDateTime(d)).toBe('2025-03-14 10:22');
@@ -33,7 +41,15 @@ describe('one format for dates and numbers', () => {
     expect(formatExposure(0.00025)).toBe('1/4000 s');
     expect(formatExposure(2)).toBe('2 s');
     expect(
-      exifLines({ make: 'Canon', model: 'Canon EOS 5D', exposureTime: 1 / 60, fNumber: 8, iso: 200, focalLengthMm: 50, dateTimeOriginal: '2025:03:14 10:22:05' }),
+      exifLines({
+        make: 'Canon',
+        model: 'Canon EOS 5D',
+        exposureTime: 1 / 60,
+        fNumber: 8,
+        iso: 200,
+        focalLengthMm: 50,
+        dateTimeOriginal: '2025:03:14 10:22:05',
+      }),
     ).toEqual([
       { label: 'Camera', value: 'Canon EOS 5D' },
       { label: 'Exposure', value: '1/60 s' },
@@ -51,15 +67,36 @@ describe('one format for dates and numbers', () => {
 
 describe('history in words', () => {
   it('names what changed, never the field names', () => {
-    expect(describeHistory({ action: 'reference-patch-set', changes: { referencePatch: { from: null, to: { x: 1 } } } })).toBe('reference patch set');
-    expect(describeHistory({ action: 'region-added', changes: { region: { from: null, to: { label: 'ground red', purpose: 'colour-area' } } } })).toBe(
-      'colour area ‘ground red’ added',
+    expect(
+      describeHistory({ action: 'reference-patch-set', changes: { referencePatch: { from: null, to: { x: 1 } } } }),
+    ).toBe('reference patch set');
+    expect(
+      describeHistory({
+        action: 'region-added',
+        changes: { region: { from: null, to: { label: 'ground red', purpose: 'colour-area' } } },
+      }),
+    ).toBe('colour area ‘ground red’ added');
+    expect(
+      describeHistory({
+        action: 'region-removed',
+        changes: { region: { from: { label: null, purpose: 'exclusion' }, to: null } },
+      }),
+    ).toBe('exclusion removed');
+    expect(
+      describeHistory({
+        action: 'update',
+        changes: {
+          dateEdtf: { from: null, to: '1770' },
+          historicalMordants: { from: [], to: [] },
+          heightMm: { from: 1, to: 2 },
+        },
+      }),
+    ).toBe('changed the date (EDTF), historical mordants and height (mm)');
+    expect(
+      describeHistory({ action: 'palette-background', changes: { 'colour #f0ede6': { from: false, to: true } } }),
+    ).toBe('colour #f0ede6 marked as background');
+    expect(describeHistory({ action: 'photo-updated', changes: { caption: { from: null, to: 'x' } } })).toBe(
+      'changed a photo’s caption',
     );
-    expect(describeHistory({ action: 'region-removed', changes: { region: { from: { label: null, purpose: 'exclusion' }, to: null } } })).toBe('exclusion removed');
-    expect(describeHistory({ action: 'update', changes: { dateEdtf: { from: null, to: '1770' }, historicalMordants: { from: [], to: [] }, heightMm: { from: 1, to: 2 } } })).toBe(
-      'changed the date (EDTF), historical mordants and height (mm)',
-    );
-    expect(describeHistory({ action: 'palette-background', changes: { 'colour #f0ede6': { from: false, to: true } } })).toBe('colour #f0ede6 marked as background');
-    expect(describeHistory({ action: 'photo-updated', changes: { caption: { from: null, to: 'x' } } })).toBe('changed a photo’s caption');
   });
 });

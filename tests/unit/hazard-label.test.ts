@@ -6,7 +6,14 @@ import { labelStatements } from '../../shared/compute/hazard-label.ts';
 // Chronic 1 (e.g. lead di(acetate), copper sulphate, potassium dichromate) — recalled from memory.
 describe('label precedence: H410 rather than H400 + H410', () => {
   it('leaves H400 off where H410 applies, keeping every other statement in order', () => {
-    expect(labelStatements(['H360Df May damage the unborn child.', 'H373 …', 'H400 Very toxic to aquatic life.', 'H410 Very toxic to aquatic life with long lasting effects.'])).toEqual([
+    expect(
+      labelStatements([
+        'H360Df May damage the unborn child.',
+        'H373 …',
+        'H400 Very toxic to aquatic life.',
+        'H410 Very toxic to aquatic life with long lasting effects.',
+      ]),
+    ).toEqual([
       'H360Df May damage the unborn child.',
       'H373 …',
       'H410 Very toxic to aquatic life with long lasting effects.',
@@ -20,10 +27,12 @@ describe('label precedence: H410 rather than H400 + H410', () => {
 
   it('reads bare codes and leaves other statements (EUH, combined codes) as they are', () => {
     expect(labelStatements(['H410', 'H400'])).toEqual(['H410']);
-    expect(labelStatements(['H302+H332 Harmful if swallowed or if inhaled.', 'EUH031 Contact with acids liberates toxic gas.'])).toEqual([
-      'H302+H332 Harmful if swallowed or if inhaled.',
-      'EUH031 Contact with acids liberates toxic gas.',
-    ]);
+    expect(
+      labelStatements([
+        'H302+H332 Harmful if swallowed or if inhaled.',
+        'EUH031 Contact with acids liberates toxic gas.',
+      ]),
+    ).toEqual(['H302+H332 Harmful if swallowed or if inhaled.', 'EUH031 Contact with acids liberates toxic gas.']);
     expect(labelStatements([])).toEqual([]);
   });
 });

@@ -4,7 +4,14 @@ import seed from '../../server/seed/data/chemicals.json' with { type: 'json' };
 
 // Check values: tests/reference/ghs.json (EU CLP Regulation (EC) No 1272/2008, Annex VI Table 3 entries and typical
 // supplier classifications, all recalled from memory: to be verified against the current Annex VI and the SDS).
-type SeedRow = { name: string; hStatements: string[]; signalWord: string | null; hazardSource: string; hazardBasis?: string; caution: string };
+type SeedRow = {
+  name: string;
+  hStatements: string[];
+  signalWord: string | null;
+  hazardSource: string;
+  hazardBasis?: string;
+  caution: string;
+};
 const rows = seed as SeedRow[];
 const byName = (name: string) => rows.find((r) => r.name === name)!;
 const codes = (hs: string[]) => hs.map((h) => h.split(' ')[0]);
@@ -39,23 +46,32 @@ describe('hazard provenance of the seeded chemicals', () => {
     }
   });
 
-  it.each(ghs.map((g) => [g.chemical, g] as const))('%s: basis and H statements agree with tests/reference/ghs.json', (_name, g) => {
-    const row = byName(SEED_NAME[g.chemical]);
-    expect(row, g.chemical).toBeDefined();
-    const harmonised = g.classification_status.startsWith('harmonised');
-    // Marked 'harmonised' only where ghs.json records an Annex VI entry; its index number is named in the source.
-    expect(row.hazardBasis).toBe(harmonised ? 'harmonised' : 'memory');
-    if (harmonised && 'annex_vi' in g && g.annex_vi) {
-      const annex = g.annex_vi as { index_no: string; h_codes: Array<{ code: string }>; signal_word: string };
-      expect(row.hazardSource).toContain(`Annex VI index ${annex.index_no}`);
-      // Every harmonised H statement is shown (suppliers may add more, e.g. H290 on caustic soda).
-      expect(codes(row.hStatements)).toEqual(expect.arrayContaining(annex.h_codes.map((h) => h.code)));
-      expect(row.signalWord).toBe(annex.signal_word);
-    }
-  });
+  it.each(ghs.map((g) => [g.chemical, g] as const))(
+    '%s: basis and H statements agree with tests/reference/ghs.json',
+    (_name, g) => {
+      const row = byName(SEED_NAME[g.chemical]);
+      expect(row, g.chemical).toBeDefined();
+      const harmonised = g.classification_status.startsWith('harmonised');
+      // Marked 'harmonised' only where ghs.json records an Annex VI entry; its index number is named in the source.
+      expect(row.hazardBasis).toBe(harmonised ? 'harmonised' : 'memory');
+      if (harmonised && 'annex_vi' in g && g.annex_vi) {
+        const annex = g.annex_vi as { index_no: string; h_codes: Array<{ code: string }>; signal_word: string };
+        expect(row.hazardSource).toContain(`Annex VI index ${annex.index_no}`);
+        // Every harmonised H statement is shown (suppliers may add more, e.g. H290 on caustic soda).
+        expect(codes(row.hStatements)).toEqual(expect.arrayContaining(annex.h_codes.map((h) => h.code)));
+        expect(row.signalWord).toBe(annex.signal_word);
+      }
+    },
+  );
 
   it('lead(II) acetate carries its reproductive and lactation statements (Annex VI 082-005-00-8 with Lact. H362, as recalled)', () => {
-    expect(codes(byName('lead(II) acetate (sugar of lead)').hStatements)).toEqual(['H360Df', 'H362', 'H373', 'H400', 'H410']);
+    expect(codes(byName('lead(II) acetate (sugar of lead)').hStatements)).toEqual([
+      'H360Df',
+      'H362',
+      'H373',
+      'H400',
+      'H410',
+    ]);
   });
 
   it('aluminium acetate warns that some grades are stabilised with boric acid (Annex VI: Repr. 1B H360FD, as recalled)', () => {

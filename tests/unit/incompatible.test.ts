@@ -4,7 +4,12 @@ import { INCOMPATIBLE_PAIRS } from '../../shared/data/incompatible-pairs.ts';
 
 // Hazards recalled from memory (each pair names its source in shared/data/incompatible-pairs.ts);
 // the formulas are those of the reference list (server/seed/data/chemicals.json).
-const c = (id: number, name: string, formula: string | null, role: string): MixChemical => ({ id, name, formula, role });
+const c = (id: number, name: string, formula: string | null, role: string): MixChemical => ({
+  id,
+  name,
+  formula,
+  role,
+});
 const dithionite = c(1, 'sodium dithionite (hydrosulfite)', 'Na2S2O4', 'reducer');
 const tud = c(2, 'thiourea dioxide', 'CH4N2O2S', 'reducer');
 const vinegar = c(3, 'acetic acid (vinegar, 5 %)', 'CH3COOH', 'acid');
@@ -51,7 +56,9 @@ describe('dangerous pairs in one step (recalled from memory; sources beside each
 
   it('leaves safe steps alone', () => {
     expect(incompatibleInStep(1, [alum, tartar])).toEqual([]);
-    expect(incompatibleInStep(1, [dithionite, c(11, 'calcium hydroxide (slaked lime)', 'Ca(OH)2', 'alkali')])).toEqual([]);
+    expect(incompatibleInStep(1, [dithionite, c(11, 'calcium hydroxide (slaked lime)', 'Ca(OH)2', 'alkali')])).toEqual(
+      [],
+    );
     expect(incompatibleInStep(1, [bleach])).toEqual([]);
     // Fructose reduces a lime vat but is no sulfur reducer: vinegar with it gives off nothing.
     const fructose = c(12, 'fructose', 'C6H12O6', 'reducer');

@@ -1,7 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import {
-  applyEvent, computeLedger, initialState, keptFraction, LedgerError, referenceLoadG, REFERENCE_LIQUOR_RATIO, suggestTopUp, tryEvent,
-  type LedgerBatch, type LedgerEvent, type TopUpSuggestion,
+  applyEvent,
+  computeLedger,
+  initialState,
+  keptFraction,
+  LedgerError,
+  referenceLoadG,
+  REFERENCE_LIQUOR_RATIO,
+  suggestTopUp,
+  tryEvent,
+  type LedgerBatch,
+  type LedgerEvent,
+  type TopUpSuggestion,
 } from '../../shared/compute/ledger.ts';
 
 // A worked reuse history (common practice, invented figures): a 2000 mL aluminium acetate
@@ -19,7 +29,14 @@ const batch: LedgerBatch = {
 const history: LedgerEvent[] = [
   { type: 'use', volumeMl: 500, fibreMassG: 100 },
   { type: 'use', volumeMl: 500, fibreMassG: 100 },
-  { type: 'top-up', additions: [{ name: 'potash alum', grams: 50 }, { name: 'calcium acetate', grams: 25 }], volumeMl: 1000 },
+  {
+    type: 'top-up',
+    additions: [
+      { name: 'potash alum', grams: 50 },
+      { name: 'calcium acetate', grams: 25 },
+    ],
+    volumeMl: 1000,
+  },
   { type: 'use', volumeMl: 1000 },
   { type: 'test-strip', result: 'full red', deltaE: 0.5 },
   { type: 'top-up', additions: [{ name: 'potash alum', grams: 25 }], volumeMl: 500 },
@@ -29,7 +46,9 @@ const history: LedgerEvent[] = [
 /** The suggestion as a top-up event, to replay it through the ledger. */
 const asEvent = (t: TopUpSuggestion): LedgerEvent => ({
   type: 'top-up',
-  additions: t.ingredients.filter((i) => i.grams > 0).map((i) => ({ name: i.name, refId: i.refId, grams: i.grams, thickener: i.thickener })),
+  additions: t.ingredients
+    .filter((i) => i.grams > 0)
+    .map((i) => ({ name: i.name, refId: i.refId, grams: i.grams, thickener: i.thickener })),
   volumeMl: t.waterMl,
 });
 
@@ -59,7 +78,16 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
       expect(p.remainingMl).toBeCloseTo(expected[i][0], 9);
       expect(p.strength).toBeCloseTo(expected[i][1], 9);
     });
-    expect(l.timeline.map((p) => p.type)).toEqual(['made', 'use', 'use', 'top-up', 'use', 'test-strip', 'top-up', 'use']);
+    expect(l.timeline.map((p) => p.type)).toEqual([
+      'made',
+      'use',
+      'use',
+      'top-up',
+      'use',
+      'test-strip',
+      'top-up',
+      'use',
+    ]);
     expect(l.state).toMatchObject({ remainingMl: 0, uses: 4, fibreMassG: 600, usesSinceTopUp: 1 });
     expect(l.exhaustedEstimate).toBe(true);
     // Grams are followed per ingredient: after two uses 100 × 0.5 × 0.64 = 32 g alum, 16 g calcium acetate.
@@ -84,7 +112,11 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
       history.slice(0, 1),
       history.slice(0, 2),
       history.slice(0, 4),
-      [{ type: 'use', volumeMl: 300, fibreMassG: 250 }, { type: 'use', volumeMl: 120 }, { type: 'use', volumeMl: 700, fibreMassG: 37 }],
+      [
+        { type: 'use', volumeMl: 300, fibreMassG: 250 },
+        { type: 'use', volumeMl: 120 },
+        { type: 'use', volumeMl: 700, fibreMassG: 37 },
+      ],
     ];
     for (const h of cases) {
       const t = computeLedger(batch, h).topUp;
@@ -104,7 +136,10 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
     const t = computeLedger(batch, h).topUp!;
     expect(t.waterMl).toBe(0);
     expect(t.volumeAfterMl).toBe(2500);
-    expect(t.ingredients.map((i) => i.grams)).toEqual([expect.closeTo(0.05 * 2500 - 60, 9), expect.closeTo(0.025 * 2500 - 30, 9)]);
+    expect(t.ingredients.map((i) => i.grams)).toEqual([
+      expect.closeTo(0.05 * 2500 - 60, 9),
+      expect.closeTo(0.025 * 2500 - 30, 9),
+    ]);
     const after = computeLedger(batch, [...h, asEvent(t)]);
     expect(after.state.strength).toBeCloseTo(1, 9);
     expect(after.state.remainingMl).toBe(2500);
@@ -121,9 +156,13 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
     expect(t.waterMl).toBe(500);
     expect(computeLedger(batch, []).topUp).toBeNull();
     // A bath only drawn from (no uptake) is still at the made strength: nothing is due, although its volume fell.
-    expect(computeLedger({ ...batch, uptakePerUse: 0 }, [{ type: 'use', volumeMl: 800, fibreMassG: 200 }]).topUp).toBeNull();
+    expect(
+      computeLedger({ ...batch, uptakePerUse: 0 }, [{ type: 'use', volumeMl: 800, fibreMassG: 200 }]).topUp,
+    ).toBeNull();
     // Just topped up to the made strength: nothing due.
-    expect(computeLedger(batch, [...history.slice(0, 2), asEvent(computeLedger(batch, history.slice(0, 2)).topUp!)]).topUp).toBeNull();
+    expect(
+      computeLedger(batch, [...history.slice(0, 2), asEvent(computeLedger(batch, history.slice(0, 2)).topUp!)]).topUp,
+    ).toBeNull();
   });
 
   it('scales the uptake with the fibre mass treated, against the reference load the made volume serves at 1:20 (common practice, recalled from memory)', () => {
@@ -136,7 +175,10 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
     expect(keptFraction(batch, null)).toBe(1);
     // One use of 200 g takes up what two uses of 100 g do (the draws themselves do not change strength).
     const one = computeLedger(batch, [{ type: 'use', volumeMl: 100, fibreMassG: 200 }]).state.strength;
-    const two = computeLedger(batch, [{ type: 'use', volumeMl: 50, fibreMassG: 100 }, { type: 'use', volumeMl: 50, fibreMassG: 100 }]).state.strength;
+    const two = computeLedger(batch, [
+      { type: 'use', volumeMl: 50, fibreMassG: 100 },
+      { type: 'use', volumeMl: 50, fibreMassG: 100 },
+    ]).state.strength;
     expect(one).toBeCloseTo(0.64, 12);
     expect(two).toBeCloseTo(one, 12);
     // The same 100 g in a bath ten times larger (reference load 1000 g) takes a tenth of the loads: 0.8^0.1.
@@ -146,10 +188,18 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
 
   it('a stock or print paste that is only drawn from loses volume, not strength', () => {
     const paste: LedgerBatch = {
-      volumeMl: 500, uptakePerUse: 0.3, drawOnly: true,
-      ingredients: [{ name: 'aluminium acetate', grams: 20 }, { name: 'guar gum', grams: 10, thickener: true }],
+      volumeMl: 500,
+      uptakePerUse: 0.3,
+      drawOnly: true,
+      ingredients: [
+        { name: 'aluminium acetate', grams: 20 },
+        { name: 'guar gum', grams: 10, thickener: true },
+      ],
     };
-    const l = computeLedger(paste, [{ type: 'use', volumeMl: 120, fibreMassG: 250 }, { type: 'use', volumeMl: 80 }]);
+    const l = computeLedger(paste, [
+      { type: 'use', volumeMl: 120, fibreMassG: 250 },
+      { type: 'use', volumeMl: 80 },
+    ]);
     expect(l.state.remainingMl).toBe(300);
     expect(l.state.strength).toBeCloseTo(1, 12);
     expect(l.state.grams['aluminium acetate']).toBeCloseTo(12, 12);
@@ -157,7 +207,10 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
     expect(l.topUp).toBeNull();
     expect(keptFraction(paste, 1000)).toBe(1);
     // Water does dilute it, and the suggestion then brings mordant and thickener back to their made g/L without water.
-    const wet = computeLedger(paste, [{ type: 'use', volumeMl: 200 }, { type: 'water', volumeMl: 300 }]);
+    const wet = computeLedger(paste, [
+      { type: 'use', volumeMl: 200 },
+      { type: 'water', volumeMl: 300 },
+    ]);
     // 300 mL holding 12 g and 6 g, then 300 mL water: 600 mL at half strength.
     expect(wet.state.strength).toBeCloseTo(0.5, 12);
     const t = suggestTopUp(paste, wet.state);
@@ -170,7 +223,12 @@ describe('bath ledger arithmetic (worked reuse history, common practice)', () =>
   });
 
   it('follows a batch that lists no active ingredient (a child made from its parent liquor) by its made liquor', () => {
-    const child: LedgerBatch = { volumeMl: 500, uptakePerUse: 0.08, ingredients: [{ name: 'guar gum', grams: 10, thickener: true }], drawOnly: true };
+    const child: LedgerBatch = {
+      volumeMl: 500,
+      uptakePerUse: 0.08,
+      ingredients: [{ name: 'guar gum', grams: 10, thickener: true }],
+      drawOnly: true,
+    };
     expect(computeLedger(child, [{ type: 'use', volumeMl: 120, fibreMassG: 250 }]).state.strength).toBeCloseTo(1, 12);
     expect(computeLedger(child, [{ type: 'water', volumeMl: 500 }]).state.strength).toBeCloseTo(0.5, 12);
   });
@@ -203,15 +261,27 @@ describe('bath ledger refusals', () => {
     expect(r.ok).toBe(false);
     if (!r.ok) {
       expect(r.error).toBeInstanceOf(LedgerError);
-      expect(r.error).toMatchObject({ code: 'overdraw', status: 409, details: { remainingMl: 1000, requestedMl: 1000.5 } });
+      expect(r.error).toMatchObject({
+        code: 'overdraw',
+        status: 409,
+        details: { remainingMl: 1000, requestedMl: 1000.5 },
+      });
     }
     const exact = tryEvent(batch, history.slice(0, 2), { type: 'use', volumeMl: 1000 });
     expect(exact.ok && exact.ledger.state.remainingMl).toBe(0);
   });
 
   it('refuses any event after disposal with a 409', () => {
-    const disposed: LedgerEvent[] = [...history, { type: 'disposal', route: 'licensed waste contractor', ruleFollowed: 'local rule' }];
-    for (const e of [{ type: 'use', volumeMl: 1 }, { type: 'water', volumeMl: 100 }, { type: 'ph', ph: 4 }, { type: 'disposal' }] as LedgerEvent[]) {
+    const disposed: LedgerEvent[] = [
+      ...history,
+      { type: 'disposal', route: 'licensed waste contractor', ruleFollowed: 'local rule' },
+    ];
+    for (const e of [
+      { type: 'use', volumeMl: 1 },
+      { type: 'water', volumeMl: 100 },
+      { type: 'ph', ph: 4 },
+      { type: 'disposal' },
+    ] as LedgerEvent[]) {
       const r = tryEvent(batch, disposed, e);
       expect(r.ok ? null : r.error.code).toBe('disposed');
       expect(r.ok ? null : r.error.status).toBe(409);
@@ -228,7 +298,12 @@ describe('bath ledger refusals', () => {
   it('refuses malformed events with a 422 and does not mutate the state', () => {
     const s = initialState(batch);
     const before = structuredClone(s);
-    for (const e of [{ type: 'use', volumeMl: 0 }, { type: 'water', volumeMl: -5 }, { type: 'top-up' }, { type: 'ph', ph: 15 }] as LedgerEvent[]) {
+    for (const e of [
+      { type: 'use', volumeMl: 0 },
+      { type: 'water', volumeMl: -5 },
+      { type: 'top-up' },
+      { type: 'ph', ph: 15 },
+    ] as LedgerEvent[]) {
       expect(() => applyEvent(batch, s, e)).toThrow(LedgerError);
     }
     expect(s).toEqual(before);

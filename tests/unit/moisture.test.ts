@@ -5,7 +5,9 @@ import { airDryFromOvenDry, matchFibre, ovenDryFromAirDry, recipeMass } from '..
 
 // Check values: ASTM D1909 commercial moisture regains, recalled from memory (tests/reference/moisture-regain.json).
 type Regain = { fibre: string; regain_percent: number; source: string; provenance: string };
-const reference = JSON.parse(readFileSync(new URL('../reference/moisture-regain.json', import.meta.url), 'utf8')) as Regain[];
+const reference = JSON.parse(
+  readFileSync(new URL('../reference/moisture-regain.json', import.meta.url), 'utf8'),
+) as Regain[];
 
 describe('commercial moisture regain (ASTM D1909, recalled from memory)', () => {
   it('holds the reference value for every fibre of the check file', () => {
@@ -32,7 +34,12 @@ describe('commercial moisture regain (ASTM D1909, recalled from memory)', () => 
     expect(airDryFromOvenDry(100, 13.6)).toBeCloseTo(113.6, 10);
     expect(ovenDryFromAirDry(113.6, 13.6)).toBeCloseTo(100, 10);
     const oven = recipeMass(100, 'oven-dry', 'wool');
-    expect(oven).toMatchObject({ basis: 'oven-dry', recipeMassG: expect.closeTo(113.6, 10), regainPct: 13.6, problem: null });
+    expect(oven).toMatchObject({
+      basis: 'oven-dry',
+      recipeMassG: expect.closeTo(113.6, 10),
+      regainPct: 13.6,
+      problem: null,
+    });
     const air = recipeMass(108.5, 'air-dry', 'cotton');
     expect(air.recipeMassG).toBe(108.5);
     expect(air.otherG).toBeCloseTo(100, 10);

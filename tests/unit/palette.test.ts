@@ -12,8 +12,16 @@ import { paintCloth, type ClothSpec, type Shape } from '../../server/seed/cloth-
 // balance and a marked grey patch, the corrected palette within ΔE00 ≤ 2. The photos are
 // generated, so the true colours (their sRGB values, converted by colorjs.io) and areas are known.
 
-const W = 3000, H = 2000, LINE = Math.round(W / 300);
-const GROUND = '#e6d9bf', RED = '#9e2a2b', PINK = '#d98c95', PURPLE = '#5b3a55', INDIGO = '#2e3f66', GREEN = '#6b8a3a', PENCIL = '#2a2630';
+const W = 3000,
+  H = 2000,
+  LINE = Math.round(W / 300);
+const GROUND = '#e6d9bf',
+  RED = '#9e2a2b',
+  PINK = '#d98c95',
+  PURPLE = '#5b3a55',
+  INDIGO = '#2e3f66',
+  GREEN = '#6b8a3a',
+  PENCIL = '#2a2630';
 
 /** A repeat of outlined motifs in four colours on a cloth ground, with a green band and gaps of ground 1/300 wide. */
 function printedCloth(extra: Partial<ClothSpec> = {}): ClothSpec {
@@ -21,17 +29,42 @@ function printedCloth(extra: Partial<ClothSpec> = {}): ClothSpec {
   let k = 0;
   for (let ty = 0; ty < 4; ty++) {
     for (let tx = 0; tx < 6; tx++) {
-      const cx = ((tx + 0.5) * W) / 6, cy = ((ty + 0.5) * H) / 4;
-      shapes.push({ kind: 'ellipse', cx, cy, rx: W / 16, ry: H / 10, colour: [RED, PINK, PURPLE, INDIGO][k++ % 4], outline: { colour: PENCIL, width: LINE } });
+      const cx = ((tx + 0.5) * W) / 6,
+        cy = ((ty + 0.5) * H) / 4;
+      shapes.push({
+        kind: 'ellipse',
+        cx,
+        cy,
+        rx: W / 16,
+        ry: H / 10,
+        colour: [RED, PINK, PURPLE, INDIGO][k++ % 4],
+        outline: { colour: PENCIL, width: LINE },
+      });
     }
   }
   // Two green bars with a strip of ground one line wide between them.
-  shapes.push({ kind: 'rect', x: 0, y: H / 2 - 60, w: W, h: 55, colour: GREEN }, { kind: 'rect', x: 0, y: H / 2 - 5 + LINE, w: W, h: 55, colour: GREEN });
-  return { width: W, height: H, ground: GROUND, shapes, noise: 4, weave: 0.05, weavePeriod: 6, gradient: 0.03, seed: 11, ...extra };
+  shapes.push(
+    { kind: 'rect', x: 0, y: H / 2 - 60, w: W, h: 55, colour: GREEN },
+    { kind: 'rect', x: 0, y: H / 2 - 5 + LINE, w: W, h: 55, colour: GREEN },
+  );
+  return {
+    width: W,
+    height: H,
+    ground: GROUND,
+    shapes,
+    noise: 4,
+    weave: 0.05,
+    weavePeriod: 6,
+    gradient: 0.03,
+    seed: 11,
+    ...extra,
+  };
 }
 
 async function asJpeg(img: { data: Uint8Array; width: number; height: number }) {
-  return sharp(img.data, { raw: { width: img.width, height: img.height, channels: 3 } }).jpeg({ quality: 92 }).toBuffer();
+  return sharp(img.data, { raw: { width: img.width, height: img.height, channels: 3 } })
+    .jpeg({ quality: 92 })
+    .toBuffer();
 }
 
 // Painting 6 megapixels takes a while; the plain printed cloth is shared by several tests.
@@ -106,19 +139,28 @@ describe('palette extraction accuracy', () => {
     // 3 percentage points of the painted area (the palette's accuracy target).
     const closeUp = (ground: string, seed: number): ClothSpec => {
       const shapes: Shape[] = [];
-      for (let ty = 0; ty < 5; ty++) for (let tx = 0; tx < 8; tx++) {
-        const cx = ((tx + 0.5) * W) / 8 + (ty % 2 ? 60 : -60), cy = ((ty + 0.5) * H) / 5;
-        shapes.push({ kind: 'ellipse', cx, cy, rx: 70, ry: 55, colour: (tx + ty) % 2 ? RED : INDIGO });
-      }
+      for (let ty = 0; ty < 5; ty++)
+        for (let tx = 0; tx < 8; tx++) {
+          const cx = ((tx + 0.5) * W) / 8 + (ty % 2 ? 60 : -60),
+            cy = ((ty + 0.5) * H) / 5;
+          shapes.push({ kind: 'ellipse', cx, cy, rx: 70, ry: 55, colour: (tx + ty) % 2 ? RED : INDIGO });
+        }
       return { width: W, height: H, ground, shapes, noise: 4, weave: 0.05, weavePeriod: 6, gradient: 0.03, seed };
     };
-    it.each([['drab', '#8f8a80', 31], ['grey', '#808080', 32], ['iron black', '#2b2927', 33]])('%s ground (%s)', async (_, ground, seed) => {
+    it.each([
+      ['drab', '#8f8a80', 31],
+      ['grey', '#808080', 32],
+      ['iron black', '#2b2927', 33],
+    ])('%s ground (%s)', async (_, ground, seed) => {
       const cloth = paintCloth(closeUp(ground, seed));
       const palette = extractPalette(await workingImage(await asJpeg(cloth)));
       expect(palette.filter((c) => c.background)).toEqual([]);
       for (const r of match(cloth.truth, palette)) {
         expect(r.deltaE, `ΔE00 of ${r.hex}`).toBeLessThanOrEqual(1.5);
-        expect(r.shareError, `share of ${r.hex} (true ${cloth.truth.find((t) => t.hex === r.hex)!.share.toFixed(3)})`).toBeLessThanOrEqual(0.03);
+        expect(
+          r.shareError,
+          `share of ${r.hex} (true ${cloth.truth.find((t) => t.hex === r.hex)!.share.toFixed(3)})`,
+        ).toBeLessThanOrEqual(0.03);
       }
     });
 
@@ -127,7 +169,14 @@ describe('palette extraction accuracy', () => {
       const inner = { x: 450, y: 300, w: 2100, h: 1400 };
       spec.shapes = [
         { kind: 'rect', ...inner, colour: '#8f8a80' },
-        ...spec.shapes.filter((m) => m.kind === 'ellipse' && m.cx > inner.x + 80 && m.cx < inner.x + inner.w - 80 && m.cy > inner.y + 70 && m.cy < inner.y + inner.h - 70),
+        ...spec.shapes.filter(
+          (m) =>
+            m.kind === 'ellipse' &&
+            m.cx > inner.x + 80 &&
+            m.cx < inner.x + inner.w - 80 &&
+            m.cy > inner.y + 70 &&
+            m.cy < inner.y + inner.h - 70,
+        ),
       ];
       const cloth = paintCloth({ ...spec, ground: '#7f7f7f' });
       const palette = extractPalette(await workingImage(await asJpeg(cloth)));
@@ -136,7 +185,7 @@ describe('palette extraction accuracy', () => {
       expect(deltaE00(bg[0].lab, hexToLab('#7f7f7f'))).toBeLessThan(1.5);
       const clothArea = inner.w * inner.h;
       const drab = palette.find((c) => !c.background && deltaE00(c.lab, hexToLab('#8f8a80')) < 1.5)!;
-      const drabTruth = cloth.truth.find((t) => t.hex === '#8f8a80')!.share * W * H / clothArea;
+      const drabTruth = (cloth.truth.find((t) => t.hex === '#8f8a80')!.share * W * H) / clothArea;
       expect(Math.abs(drab.share - drabTruth)).toBeLessThanOrEqual(0.03);
     });
   });
@@ -145,7 +194,10 @@ describe('palette extraction accuracy', () => {
     const shapes: Shape[] = [{ kind: 'rect', x: 0, y: 0, w: 1000, h: 2000, colour: RED }];
     const cloth = paintCloth({ width: W, height: H, ground: GROUND, shapes, noise: 3, seed: 5 });
     const img = await workingImage(await asJpeg(cloth));
-    const palette = extractPalette(img, { exclude: [{ x: 0, y: 0, w: img.width / 3 + 4, h: img.height }], detectBackground: false });
+    const palette = extractPalette(img, {
+      exclude: [{ x: 0, y: 0, w: img.width / 3 + 4, h: img.height }],
+      detectBackground: false,
+    });
     expect(palette).toHaveLength(1);
     expect(deltaE00(palette[0].lab, hexToLab(GROUND))).toBeLessThan(1);
   });
@@ -171,16 +223,26 @@ describe('working image', () => {
   it('reads a rectangle in upright pixels, also from an orientation-6 photo', async () => {
     // Stored left half red, right half blue; upright (rotated 90° clockwise) the top is red.
     const raw = Buffer.alloc(400 * 300 * 3);
-    for (let y = 0; y < 300; y++) for (let x = 0; x < 400; x++) raw.set(x < 200 ? [200, 20, 20] : [20, 20, 200], (y * 400 + x) * 3);
-    const plain = await sharp(raw, { raw: { width: 400, height: 300, channels: 3 } }).png().toBuffer();
-    const rotated = await sharp(raw, { raw: { width: 400, height: 300, channels: 3 } }).jpeg({ quality: 95 }).withMetadata({ orientation: 6 }).toBuffer();
+    for (let y = 0; y < 300; y++)
+      for (let x = 0; x < 400; x++) raw.set(x < 200 ? [200, 20, 20] : [20, 20, 200], (y * 400 + x) * 3);
+    const plain = await sharp(raw, { raw: { width: 400, height: 300, channels: 3 } })
+      .png()
+      .toBuffer();
+    const rotated = await sharp(raw, { raw: { width: 400, height: 300, channels: 3 } })
+      .jpeg({ quality: 95 })
+      .withMetadata({ orientation: 6 })
+      .toBuffer();
     const top = await workingImage(rotated, { x: 20, y: 20, w: 260, h: 160 });
     expect([top.width, top.height]).toEqual([260, 160]);
-    expect(deltaE00(extractPalette(top, { detectBackground: false })[0].lab, srgbToLab({ r: 200, g: 20, b: 20 }))).toBeLessThan(2);
+    expect(
+      deltaE00(extractPalette(top, { detectBackground: false })[0].lab, srgbToLab({ r: 200, g: 20, b: 20 })),
+    ).toBeLessThan(2);
     const right = await workingImage(plain, { x: 250, y: 10, w: 500, h: 100 }); // clipped at the edge
     expect(right.width).toBe(150);
     expect(right.scale).toBe(1);
-    expect(deltaE00(extractPalette(right, { detectBackground: false })[0].lab, srgbToLab({ r: 20, g: 20, b: 200 }))).toBeLessThan(1);
+    expect(
+      deltaE00(extractPalette(right, { detectBackground: false })[0].lab, srgbToLab({ r: 20, g: 20, b: 200 })),
+    ).toBeLessThan(1);
   });
 });
 
@@ -188,10 +250,13 @@ describe('fast CIELAB path used inside the palette', () => {
   // Oracle: colorjs.io through shared/colour (srgbToLab); the fast path takes its matrix and
   // transfer curve from the library, so the two must agree closely.
   it('agrees with colorjs.io across the sRGB cube', () => {
-    for (let r = 0; r <= 255; r += 15) for (let g = 0; g <= 255; g += 17) for (let b = 0; b <= 255; b += 51) {
-      const fast = srgbToLabFast(r, g, b), lib = srgbToLab({ r, g, b });
-      expect(Math.abs(fast[0] - lib.L) + Math.abs(fast[1] - lib.a) + Math.abs(fast[2] - lib.b)).toBeLessThan(2e-3);
-    }
+    for (let r = 0; r <= 255; r += 15)
+      for (let g = 0; g <= 255; g += 17)
+        for (let b = 0; b <= 255; b += 51) {
+          const fast = srgbToLabFast(r, g, b),
+            lib = srgbToLab({ r, g, b });
+          expect(Math.abs(fast[0] - lib.L) + Math.abs(fast[1] - lib.a) + Math.abs(fast[2] - lib.b)).toBeLessThan(2e-3);
+        }
   });
 
   it('encodes linear light back to the same 8-bit value', () => {

@@ -20,23 +20,39 @@ describe('print paste make-up', () => {
   });
 
   it('flags a loading outside the usual range of the thickener actually in the paste (guar 20–50 g/L, gum arabic 200–500 g/L: dye-facts.json, common practice)', () => {
-    const thin = pasteMakeUp({ finalVolumeMl: 500, mordants: [{ name: 'alum', gPerL: 60 }], thickener: { name: 'guar gum', gPerL: 5 } });
+    const thin = pasteMakeUp({
+      finalVolumeMl: 500,
+      mordants: [{ name: 'alum', gPerL: 60 }],
+      thickener: { name: 'guar gum', gPerL: 5 },
+    });
     expect(thin.thickener?.outsideUsualRange).toBe(true);
     expect(thin.thickener?.usualRange).toMatchObject({ kind: 'guar', min: 20, max: 50 });
     // 300 g/L is right for gum arabic, far too thick for guar.
-    const arabic = (gPerL: number) => pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'gum arabic', gPerL } }).thickener;
+    const arabic = (gPerL: number) =>
+      pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'gum arabic', gPerL } }).thickener;
     expect(arabic(300)).toMatchObject({ outsideUsualRange: false, usualRange: { kind: 'gum-arabic' } });
     expect(arabic(30)?.outsideUsualRange).toBe(true);
-    expect(pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'guar gum', gPerL: 300 } }).thickener?.outsideUsualRange).toBe(true);
+    expect(
+      pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'guar gum', gPerL: 300 } }).thickener
+        ?.outsideUsualRange,
+    ).toBe(true);
     // A thickener the app has no range for is not flagged.
-    expect(pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'locust bean gum', gPerL: 5 } }).thickener).toMatchObject({ usualRange: null, outsideUsualRange: false });
+    expect(
+      pasteMakeUp({ finalVolumeMl: 500, mordants: [], thickener: { name: 'locust bean gum', gPerL: 5 } }).thickener,
+    ).toMatchObject({ usualRange: null, outsideUsualRange: false });
     expect(thin.mordants[0]).toMatchObject({ grams: 30, stockMl: null });
     expect(thin.waterMl).toBe(500);
   });
 
   it('refuses stock solutions that alone exceed the paste volume', () => {
     expect(() =>
-      pasteMakeUp({ finalVolumeMl: 100, mordants: [{ name: 'a', gPerL: 60, stockGPerL: 75 }, { name: 'b', gPerL: 50, stockGPerL: 75 }] }),
+      pasteMakeUp({
+        finalVolumeMl: 100,
+        mordants: [
+          { name: 'a', gPerL: 60, stockGPerL: 75 },
+          { name: 'b', gPerL: 50, stockGPerL: 75 },
+        ],
+      }),
     ).toThrow(/exceed/);
   });
 });

@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { bathVolumeL, concentrationFromOwf, gramsFromOwf, roundTo, scaleRecipe, stepQuantities, type StepLike } from '../../shared/compute/recipe.ts';
+import {
+  bathVolumeL,
+  concentrationFromOwf,
+  gramsFromOwf,
+  roundTo,
+  scaleRecipe,
+  stepQuantities,
+  type StepLike,
+} from '../../shared/compute/recipe.ts';
 
 describe('recipe arithmetic', () => {
   it('reproduces the worked example of BRIEF §4.1 (common practice): 250 g cotton, alum 15 % owf, 1:30 → 37.5 g in 7.5 L = 5.0 g/L', () => {
@@ -14,7 +22,16 @@ describe('recipe arithmetic', () => {
 
   it('shows every basis on the other two: g/L needs a volume, grams become % owf', () => {
     // Same worked example read backwards (BRIEF §4.1, common practice): 5 g/L in 7.5 L is 37.5 g, which is 15 % owf on 250 g.
-    const q = stepQuantities({ liquorRatio: 30, ingredients: [{ amount: 5, basis: 'g/L' }, { amount: 37.5, basis: 'g' }] }, 250);
+    const q = stepQuantities(
+      {
+        liquorRatio: 30,
+        ingredients: [
+          { amount: 5, basis: 'g/L' },
+          { amount: 37.5, basis: 'g' },
+        ],
+      },
+      250,
+    );
     expect(q.ingredients[0]).toEqual({ grams: 37.5, gPerL: 5, percentOwf: 15 });
     expect(q.ingredients[1].percentOwf).toBeCloseTo(15, 10);
     expect(q.ingredients[1].gPerL).toBeCloseTo(5, 10);
@@ -32,9 +49,27 @@ describe('recipe arithmetic', () => {
 
 describe('scaling a recipe by dry mass', () => {
   const steps: StepLike[] = [
-    { liquorRatio: 30, ingredients: [{ amount: 15, basis: 'owf' }, { amount: 6, basis: 'owf' }] },
-    { volumeL: 0.3, ingredients: [{ amount: 40, basis: 'g/L' }, { amount: 20, basis: 'g/L' }] },
-    { liquorRatio: 40, ingredients: [{ amount: 60, basis: 'owf' }, { amount: 2.5, basis: 'g' }] },
+    {
+      liquorRatio: 30,
+      ingredients: [
+        { amount: 15, basis: 'owf' },
+        { amount: 6, basis: 'owf' },
+      ],
+    },
+    {
+      volumeL: 0.3,
+      ingredients: [
+        { amount: 40, basis: 'g/L' },
+        { amount: 20, basis: 'g/L' },
+      ],
+    },
+    {
+      liquorRatio: 40,
+      ingredients: [
+        { amount: 60, basis: 'owf' },
+        { amount: 2.5, basis: 'g' },
+      ],
+    },
   ];
 
   it('keeps % owf, g/L and liquor ratio; scales fixed grams and fixed volumes by the mass ratio', () => {

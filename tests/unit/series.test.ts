@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { cellKey, expandCells, materialsList, pruneCells, scaleCells, type SeriesStep } from '../../shared/compute/series.ts';
+import {
+  cellKey,
+  expandCells,
+  materialsList,
+  pruneCells,
+  scaleCells,
+  type SeriesStep,
+} from '../../shared/compute/series.ts';
 import { gramsFromOwf } from '../../shared/compute/recipe.ts';
 
 // The series of issue 6: madder 25/50/100 % owf × mordant strong Al / weak Al / Fe / Al+Fe × tannin 0/10 % owf.
@@ -21,7 +28,10 @@ describe('series expansion', () => {
 
   it('prunes cells by value, whatever the key order', () => {
     const cells = expandCells(factors);
-    const kept = pruneCells(cells, [{ tannin: '10', mordant: 'Fe', madder: '25' }, { madder: '100', mordant: 'Al+Fe', tannin: '0' }]);
+    const kept = pruneCells(cells, [
+      { tannin: '10', mordant: 'Fe', madder: '25' },
+      { madder: '100', mordant: 'Al+Fe', tannin: '0' },
+    ]);
     expect(kept).toHaveLength(22);
     expect(kept.map(cellKey)).not.toContain(cellKey({ madder: '25', mordant: 'Fe', tannin: '10' }));
   });
@@ -35,13 +45,24 @@ describe('series expansion', () => {
 
 describe('series materials', () => {
   const recipeFor = (cell: Record<string, string>): SeriesStep[] => [
-    { liquorRatio: 30, ingredients: [{ kind: 'chemical', refId: 1, name: 'potash alum', amount: cell.mordant === 'weak Al' ? 5 : 15, basis: 'owf' }] },
-    { liquorRatio: 30, ingredients: [{ kind: 'dyestuff', refId: 7, name: 'madder', amount: Number(cell.madder), basis: 'owf' }] },
+    {
+      liquorRatio: 30,
+      ingredients: [
+        { kind: 'chemical', refId: 1, name: 'potash alum', amount: cell.mordant === 'weak Al' ? 5 : 15, basis: 'owf' },
+      ],
+    },
+    {
+      liquorRatio: 30,
+      ingredients: [{ kind: 'dyestuff', refId: 7, name: 'madder', amount: Number(cell.madder), basis: 'owf' }],
+    },
   ];
 
   it('scales each cell to its dry mass and sums materials per chemical and dyestuff, with a dead-volume allowance', () => {
     const cells = expandCells([factors[0], { name: 'mordant', levels: ['strong Al', 'weak Al'] }]);
-    const scaled = scaleCells(cells.map((cell) => ({ cell, steps: recipeFor(cell), fromDryMassG: 250 })), 10);
+    const scaled = scaleCells(
+      cells.map((cell) => ({ cell, steps: recipeFor(cell), fromDryMassG: 250 })),
+      10,
+    );
     expect(scaled).toHaveLength(6);
     const m = materialsList(scaled, { deadVolumePct: 15 });
     // Hand sums with BRIEF §4.1 (common practice): madder (25+50+100) % × 2 mordants on 10 g = 35 g;
@@ -57,8 +78,14 @@ describe('series materials', () => {
   });
 
   it('multiplies the per-participant list for a workshop', () => {
-    const cells = expandCells([{ name: 'madder', levels: ['50'] }, { name: 'mordant', levels: ['strong Al', 'weak Al', 'Fe'] }]);
-    const scaled = scaleCells(cells.map((cell) => ({ cell, steps: recipeFor(cell), fromDryMassG: 100 })), () => 10);
+    const cells = expandCells([
+      { name: 'madder', levels: ['50'] },
+      { name: 'mordant', levels: ['strong Al', 'weak Al', 'Fe'] },
+    ]);
+    const scaled = scaleCells(
+      cells.map((cell) => ({ cell, steps: recipeFor(cell), fromDryMassG: 100 })),
+      () => 10,
+    );
     const m = materialsList(scaled, { deadVolumePct: 10, participants: 4 });
     const per = m.perParticipant.lines.find((l) => l.name === 'madder')!;
     const all = m.total.lines.find((l) => l.name === 'madder')!;
@@ -69,7 +96,13 @@ describe('series materials', () => {
   });
 
   it('lists ingredients it cannot resolve instead of guessing', () => {
-    const m = materialsList([{ cell: {}, dryMassG: 10, steps: [{ ingredients: [{ kind: 'chemical', name: 'guar gum', amount: 20, basis: 'g/L' }] }] }]);
+    const m = materialsList([
+      {
+        cell: {},
+        dryMassG: 10,
+        steps: [{ ingredients: [{ kind: 'chemical', name: 'guar gum', amount: 20, basis: 'g/L' }] }],
+      },
+    ]);
     expect(m.unresolved).toEqual(['guar gum']);
     expect(m.perParticipant.lines).toEqual([]);
   });

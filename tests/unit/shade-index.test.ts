@@ -5,7 +5,7 @@ import { inShadeEllipsoid, shadeBox } from '../../server/search/shade-bounds.ts'
 import { ShadeIndex, type ShadeRow } from '../../server/search/shade-index.ts';
 
 let seed = 12345;
-const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
 const gauss = () => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
 
 // Uniform colours, a madder-red and an indigo cluster, and a heap of near-neutral greys.
@@ -19,7 +19,14 @@ function colour(i: number) {
 
 function build(n: number, pieces: number) {
   const rows: ShadeRow[] = [];
-  for (let i = 1; i <= n; i++) rows.push({ id: i, photoId: 1 + (i % (pieces * 2)), ...colour(i), hex: '#808080', share: Math.round(rnd() * 100) / 100 });
+  for (let i = 1; i <= n; i++)
+    rows.push({
+      id: i,
+      photoId: 1 + (i % (pieces * 2)),
+      ...colour(i),
+      hex: '#808080',
+      share: Math.round(rnd() * 100) / 100,
+    });
   const photos = Array.from({ length: pieces * 2 }, (_, p) => ({ id: p + 1, pieceId: 1 + (p % pieces) }));
   const idx = new ShadeIndex();
   idx.load(rows, photos);
@@ -58,7 +65,8 @@ describe('shade prefilter box (shade-bounds.ts)', () => {
       const s = { L: q.L + dir.L * lo, a: q.a + dir.a * lo, b: q.b + dir.b * lo };
       if (deltaE00(q, s) > r) continue;
       const box = shadeBox(q, r);
-      if (Math.abs(s.L - q.L) > box.hwL || Math.abs(s.a - q.a) > box.hwAB || Math.abs(s.b - q.b) > box.hwAB) missed.push({ q, s, r, box });
+      if (Math.abs(s.L - q.L) > box.hwL || Math.abs(s.a - q.a) > box.hwAB || Math.abs(s.b - q.b) > box.hwAB)
+        missed.push({ q, s, r, box });
       if (!inShadeEllipsoid(box, s.L - q.L, s.a - q.a, s.b - q.b)) missed.push({ ellipsoid: true, q, s, r, box });
       if (inShadeEllipsoid(box, box.hwL, box.hwAB, box.hwAB)) cornerInside++;
       if (Math.abs(s.L - q.L) > r || Math.abs(s.a - q.a) > r || Math.abs(s.b - q.b) > r) naiveMissed++;
@@ -119,7 +127,13 @@ describe('shade index = brute-force CIEDE2000 scan', () => {
     const q = { L: 42, a: 45, b: 25, maxDeltaE: 3 };
     same(small, q);
     expect(small.query({ ...q, limit: 1 }).items[0]).toMatchObject({ colourId: 99_001, deltaE00: 0 });
-    const many: ShadeRow[] = Array.from({ length: 25_000 }, (_, i) => ({ id: 100_000 + i, photoId: 11, ...colour(i), hex: '#808080', share: 0.1 }));
+    const many: ShadeRow[] = Array.from({ length: 25_000 }, (_, i) => ({
+      id: 100_000 + i,
+      photoId: 11,
+      ...colour(i),
+      hex: '#808080',
+      share: 0.1,
+    }));
     small.add(many);
     same(small, q);
     same(small, { L: 30, a: -3, b: -35, maxDeltaE: 6 });
@@ -129,10 +143,25 @@ describe('shade index = brute-force CIEDE2000 scan', () => {
 describe('first photo of each piece (thumbnails)', () => {
   it('is the lowest photo id of the piece and follows photo changes', () => {
     const idx = new ShadeIndex();
-    idx.load([], [{ id: 7, pieceId: 3 }, { id: 4, pieceId: 3 }, { id: 9, pieceId: 5 }, { id: 2, pieceId: null }]);
-    expect([...idx.firstPhotoOf([3, 5, 6]).entries()]).toEqual([[3, 4], [5, 9]]);
+    idx.load(
+      [],
+      [
+        { id: 7, pieceId: 3 },
+        { id: 4, pieceId: 3 },
+        { id: 9, pieceId: 5 },
+        { id: 2, pieceId: null },
+      ],
+    );
+    expect([...idx.firstPhotoOf([3, 5, 6]).entries()]).toEqual([
+      [3, 4],
+      [5, 9],
+    ]);
     idx.setPhoto(4, null);
     idx.setPhoto(1, 6);
-    expect([...idx.firstPhotoOf([3, 5, 6]).entries()]).toEqual([[3, 7], [5, 9], [6, 1]]);
+    expect([...idx.firstPhotoOf([3, 5, 6]).entries()]).toEqual([
+      [3, 7],
+      [5, 9],
+      [6, 1],
+    ]);
   });
 });

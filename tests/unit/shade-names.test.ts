@@ -101,9 +101,20 @@ describe('trade shade names', () => {
   it('trade shades get the plain name a dyer would give them', () => {
     const plain = Object.fromEntries(TRADE_SHADES.map((s) => [s.name, shadeName(s.lab)]));
     expect(plain).toMatchObject({
-      'madder brown': 'brown', chocolate: 'dark brown', olive: 'olive', navy: 'dark greyish blue', 'indigo blue': 'dark blue',
-      'madder red': 'vivid red', 'Turkey red': 'vivid red', 'madder pink': 'pink', 'madder purple': 'dark greyish purple', lilac: 'purple',
-      'weld yellow': 'pale vivid yellow', 'weld green': 'green', 'bottle green': 'dark green', 'iron black': 'black',
+      'madder brown': 'brown',
+      chocolate: 'dark brown',
+      olive: 'olive',
+      navy: 'dark greyish blue',
+      'indigo blue': 'dark blue',
+      'madder red': 'vivid red',
+      'Turkey red': 'vivid red',
+      'madder pink': 'pink',
+      'madder purple': 'dark greyish purple',
+      lilac: 'purple',
+      'weld yellow': 'pale vivid yellow',
+      'weld green': 'green',
+      'bottle green': 'dark green',
+      'iron black': 'black',
     });
   });
 

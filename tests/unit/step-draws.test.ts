@@ -20,7 +20,9 @@ describe('bath draws when a recipe is scaled', () => {
     const w = drawWarnings(steps, 250, 1000);
     expect(w).toHaveLength(1);
     expect(w[0]).toMatchObject({ code: 'MB-12', neededMl: 640, heldMl: 500 });
-    expect(w[0].message).toBe('Scaled, this recipe draws 640 mL from MB-12, which holds 500 mL now: make up or top up the bath first.');
+    expect(w[0].message).toBe(
+      'Scaled, this recipe draws 640 mL from MB-12, which holds 500 mL now: make up or top up the bath first.',
+    );
     // At the recorded mass or below, nothing to warn about.
     expect(drawWarnings(steps, 250, 250)).toEqual([]);
     expect(drawWarnings(steps, 250, 100)).toEqual([]);
@@ -28,6 +30,8 @@ describe('bath draws when a recipe is scaled', () => {
 
   it('says when the bath is exhausted', () => {
     const w = drawWarnings([{ batchId: 7, batchVolumeMl: 160, batch: mb('MB-07', 0, 'exhausted') }], 250, 300);
-    expect(w[0].message).toBe('Scaled, this recipe draws 192 mL from MB-07, which holds 0 mL now (exhausted): make up or top up the bath first.');
+    expect(w[0].message).toBe(
+      'Scaled, this recipe draws 192 mL from MB-07, which holds 0 mL now (exhausted): make up or top up the bath first.',
+    );
   });
 });

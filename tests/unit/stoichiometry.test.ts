@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import atomicWeights from '../reference/atomic-weights.json' with { type: 'json' };
-import { bathProduct, imbalance, madeByReaction, matchingReactant, REACTIONS, reactionYield } from '../../shared/compute/stoichiometry.ts';
+import {
+  bathProduct,
+  imbalance,
+  madeByReaction,
+  matchingReactant,
+  REACTIONS,
+  reactionYield,
+} from '../../shared/compute/stoichiometry.ts';
 
 // Molar masses worked by hand here from the IUPAC 2021 abridged atomic weights
 // (Prohaska et al. 2022, tests/reference/atomic-weights.json), independently of the formula parser.
@@ -18,7 +25,13 @@ describe('reactions in the pot', () => {
   });
 
   it('MB-07 (100 g alum + 50 g calcium acetate in 2 L) makes about 34.2 g of basic aluminium acetate, 17.1 g/L, 2.84 g Al/L', () => {
-    const p = bathProduct([{ name: 'potash alum', grams: 100 }, { name: 'calcium acetate', grams: 50 }], 2000)!;
+    const p = bathProduct(
+      [
+        { name: 'potash alum', grams: 100 },
+        { name: 'calcium acetate', grams: 50 },
+      ],
+      2000,
+    )!;
     // By hand: alum 100/474.39 = 0.21080 mol needs 1.5 × that = 0.31620 mol Ca acetate; 50/158.17 = 0.31612 mol
     // is a hair short, so calcium acetate limits. Al acetate = 2/3 × 0.31612 mol.
     const alMol = ((50 / M.caAcetate) * 2) / 3;
@@ -56,7 +69,13 @@ describe('reactions in the pot', () => {
   });
 
   it('reports the aluminium the liquor carries: 2.84 g Al/L for MB-07 (by hand from IUPAC 2021 masses)', () => {
-    const m = madeByReaction([{ name: 'potash alum', grams: 100 }, { name: 'calcium acetate', grams: 50 }], 2000)!;
+    const m = madeByReaction(
+      [
+        { name: 'potash alum', grams: 100 },
+        { name: 'calcium acetate', grams: 50 },
+      ],
+      2000,
+    )!;
     const alMol = ((50 / M.caAcetate) * 2) / 3;
     expect(m.metal).toEqual({ symbol: 'Al', gPerL: expect.closeTo((alMol * w.Al * 1000) / 2000, 9) });
     expect(m.byProducts.map((x) => x.name)).toContain('calcium sulfate (gypsum)');

@@ -3,28 +3,85 @@ import { facetKeys, type PieceDoc, type TrialDoc } from '../../server/search/doc
 import { TextIndex } from '../../server/search/text-index.ts';
 
 let seed = 777;
-const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
 // A skewed vocabulary: a few words in most documents, many rare ones (so prefix and fuzzy neighbours exist).
-const VOCAB = ['madder', 'mader', 'madders', 'indigo', 'indigos', 'weld', 'welds', 'alum', 'alumina', 'iron', 'ironed', 'chintz', 'chints', 'resist', 'calico'];
-for (let i = 0; i < 300; i++) VOCAB.push(['ka', 'lo', 'mer', 'tin', 'va', 'dre'][i % 6] + ['sol', 'pa', 'ri', 'gon'][i % 4] + String.fromCharCode(97 + (i % 26)) + (i > 150 ? 'e' : ''));
+const VOCAB = [
+  'madder',
+  'mader',
+  'madders',
+  'indigo',
+  'indigos',
+  'weld',
+  'welds',
+  'alum',
+  'alumina',
+  'iron',
+  'ironed',
+  'chintz',
+  'chints',
+  'resist',
+  'calico',
+];
+for (let i = 0; i < 300; i++)
+  VOCAB.push(
+    ['ka', 'lo', 'mer', 'tin', 'va', 'dre'][i % 6] +
+      ['sol', 'pa', 'ri', 'gon'][i % 4] +
+      String.fromCharCode(97 + (i % 26)) +
+      (i > 150 ? 'e' : ''),
+  );
 const word = () => VOCAB[Math.min(VOCAB.length - 1, Math.floor(VOCAB.length * rnd() ** 3))];
 const words = (n: number) => Array.from({ length: n }, word).join(' ');
 
 function piece(id: number): PieceDoc {
   const d: Omit<PieceDoc, 'keys'> = {
-    id, accessionNumber: `T.${id}`, title: words(3), objectName: 'panel', description: words(20), provenance: words(3), place: 'market town', dateText: '',
-    techniques: ['resist'], dyestuffs: [word()], historicalMordants: ['potash alum'], modernMordants: [], fibres: ['cotton'], centuries: [18], status: 'published',
+    id,
+    accessionNumber: `T.${id}`,
+    title: words(3),
+    objectName: 'panel',
+    description: words(20),
+    provenance: words(3),
+    place: 'market town',
+    dateText: '',
+    techniques: ['resist'],
+    dyestuffs: [word()],
+    historicalMordants: ['potash alum'],
+    modernMordants: [],
+    fibres: ['cotton'],
+    centuries: [18],
+    status: 'published',
   };
   return { ...d, keys: facetKeys(d) };
 }
-const trial = (id: number, pieceId: number): TrialDoc => ({ id, code: `TR-${id}`, pieceId, notes: words(8), modernMordants: [], dyestuffs: [word()] });
+const trial = (id: number, pieceId: number): TrialDoc => ({
+  id,
+  code: `TR-${id}`,
+  pieceId,
+  notes: words(8),
+  modernMordants: [],
+  dyestuffs: [word()],
+});
 
 describe('text index scorer (text-index.ts) = minisearch search() (the library itself as oracle)', () => {
   it('gives the same documents and scores for exact, prefix, fuzzy and multi-word queries, through edits and removals', () => {
     const idx = new TextIndex();
-    idx.load(Array.from({ length: 600 }, (_, i) => piece(i + 1)), []);
+    idx.load(
+      Array.from({ length: 600 }, (_, i) => piece(i + 1)),
+      [],
+    );
     for (let i = 1; i <= 40; i++) idx.setPiece(i, i % 2 ? piece(i) : null);
-    const queries = ['madder', 'madd', 'maxder', 'indigo weld', 'al', 'chintz iron', 'kasola', 'T.77', 'madder madder', 'zzzz', 'lopa merri'];
+    const queries = [
+      'madder',
+      'madd',
+      'maxder',
+      'indigo weld',
+      'al',
+      'chintz iron',
+      'kasola',
+      'T.77',
+      'madder madder',
+      'zzzz',
+      'lopa merri',
+    ];
     let compared = 0;
     for (const q of queries) {
       const want = idx.searchWithMinisearch(q);
@@ -57,8 +114,24 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
   it('follows edits: cached postings and per-document tables stay exact through changed, removed and added pieces and trials', () => {
     const idx = new TextIndex();
     const trials = Array.from({ length: 60 }, (_, i) => trial(i + 1, (i % 30) + 1));
-    idx.load(Array.from({ length: 300 }, (_, i) => piece(i + 1)), trials);
-    const queries = ['madder', 'madd', 'maxder', 'indigo weld', 'al', 'chintz iron', 'kasola', 'T.77', 'TR-7', 'quercitron', 'lopa merri', 'resist'];
+    idx.load(
+      Array.from({ length: 300 }, (_, i) => piece(i + 1)),
+      trials,
+    );
+    const queries = [
+      'madder',
+      'madd',
+      'maxder',
+      'indigo weld',
+      'al',
+      'chintz iron',
+      'kasola',
+      'T.77',
+      'TR-7',
+      'quercitron',
+      'lopa merri',
+      'resist',
+    ];
     // minisearch answers per document: a piece's own and its trials' scores add up, their words join.
     const same = (q: string) => {
       const want = new Map<number, { score: number; terms: Set<string> }>();

@@ -13,7 +13,10 @@ const fact = (list: Fact[], word: string) => list.find((f) => f.parameter?.inclu
 
 describe('print-paste thickeners by kind', () => {
   it('guar and gum arabic as dye-facts.json gives them (% w/w × 10 = g/L)', () => {
-    for (const [name, word] of [['guar gum', 'guar'], ['gum arabic', 'gum arabic']] as const) {
+    for (const [name, word] of [
+      ['guar gum', 'guar'],
+      ['gum arabic', 'gum arabic'],
+    ] as const) {
       const f = fact(facts, word);
       expect(f.unit).toBe('% w/w');
       expect(thickenerRange(name)).toMatchObject({ min: f.range![0] * 10, max: f.range![1] * 10 });
@@ -26,7 +29,11 @@ describe('print-paste thickeners by kind', () => {
   });
 
   it('tragacanth, wheat starch and British gum as recalled (common practice, from memory)', () => {
-    for (const [name, word] of [['gum tragacanth', 'tragacanth'], ['wheat starch', 'wheat starch'], ['British gum (dextrin)', 'British gum']] as const) {
+    for (const [name, word] of [
+      ['gum tragacanth', 'tragacanth'],
+      ['wheat starch', 'wheat starch'],
+      ['British gum (dextrin)', 'British gum'],
+    ] as const) {
       const f = fact(memory, word);
       expect(thickenerRange(name)).toMatchObject({ min: f.range![0], max: f.range![1] });
       expect(thickenerRange(name)?.source).toMatch(/recalled from memory/);

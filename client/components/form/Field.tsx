@@ -1,6 +1,11 @@
 import { useId, type InputHTMLAttributes, type ReactNode } from 'react';
 
-type Props = InputHTMLAttributes<HTMLInputElement> & { label: string; error?: string[] | string; hint?: ReactNode; unit?: string };
+type Props = InputHTMLAttributes<HTMLInputElement> & {
+  label: string;
+  error?: string[] | string;
+  hint?: ReactNode;
+  unit?: string;
+};
 
 /** A labelled input that says what is wrong right beside it. */
 export function Field({ label, error, hint, unit, className, ...input }: Props) {

@@ -1,6 +1,10 @@
 import { useId, type SelectHTMLAttributes } from 'react';
 
-type Props = SelectHTMLAttributes<HTMLSelectElement> & { label: string; error?: string[]; options: ReadonlyArray<{ value: string; label: string }> };
+type Props = SelectHTMLAttributes<HTMLSelectElement> & {
+  label: string;
+  error?: string[];
+  options: ReadonlyArray<{ value: string; label: string }>;
+};
 
 /** A labelled select that shows its error beside it, like Field. */
 export function Select({ label, error, options, className, ...select }: Props) {

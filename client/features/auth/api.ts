@@ -60,11 +60,21 @@ export function useLogout() {
   });
 }
 
-export const requestPasswordReset = (input: ResetRequestInput) => http<{ message: string }>('/api/auth/password-reset', { method: 'POST', json: input });
-export const resetPassword = (token: string, input: ResetPasswordInput) => http<void>(`/api/auth/password-reset/${encodeURIComponent(token)}`, { method: 'POST', json: input });
+export const requestPasswordReset = (input: ResetRequestInput) =>
+  http<{ message: string }>('/api/auth/password-reset', { method: 'POST', json: input });
+export const resetPassword = (token: string, input: ResetPasswordInput) =>
+  http<void>(`/api/auth/password-reset/${encodeURIComponent(token)}`, { method: 'POST', json: input });
 
 export const useRequestPasswordReset = () => useMutation({ mutationFn: requestPasswordReset });
-export const fetchResetLink = (token: string) => http<ResetLink>(`/api/auth/password-reset/${encodeURIComponent(token)}`);
+export const fetchResetLink = (token: string) =>
+  http<ResetLink>(`/api/auth/password-reset/${encodeURIComponent(token)}`);
 /** The link is checked when the page opens, so a used or expired one says so before anyone types. */
-export const useResetLink = (token: string) => useQuery({ queryKey: ['password-reset', token], queryFn: () => fetchResetLink(token), retry: false, staleTime: Infinity });
-export const useResetPassword = (token: string) => useMutation({ mutationFn: (input: ResetPasswordInput) => resetPassword(token, input) });
+export const useResetLink = (token: string) =>
+  useQuery({
+    queryKey: ['password-reset', token],
+    queryFn: () => fetchResetLink(token),
+    retry: false,
+    staleTime: Infinity,
+  });
+export const useResetPassword = (token: string) =>
+  useMutation({ mutationFn: (input: ResetPasswordInput) => resetPassword(token, input) });

@@ -1,5 +1,12 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { BatchCreateInput, BatchDetail, BatchEventInput, BatchEventOut, BatchList, BatchSummary } from '../../../shared/schemas/batches';
+import type {
+  BatchCreateInput,
+  BatchDetail,
+  BatchEventInput,
+  BatchEventOut,
+  BatchList,
+  BatchSummary,
+} from '../../../shared/schemas/batches';
 import { http } from '../../lib/http';
 
 export type { BatchDetail, BatchSummary };
@@ -20,7 +27,8 @@ const qs = (f: BatchFilters) => {
 };
 
 export const fetchBatches = (f: BatchFilters) => http<BatchList>(`/api/batches?${qs(f)}`);
-export const batchesQuery = (f: BatchFilters = {}) => queryOptions({ queryKey: batchKeys.list(f), queryFn: () => fetchBatches(f) });
+export const batchesQuery = (f: BatchFilters = {}) =>
+  queryOptions({ queryKey: batchKeys.list(f), queryFn: () => fetchBatches(f) });
 export const useBatches = (f: BatchFilters = {}) => useQuery(batchesQuery(f));
 
 export const fetchBatch = (id: number) => http<BatchDetail>(`/api/batches/${id}`);
@@ -42,7 +50,8 @@ export function useAddBatchEvent(id: number) {
 export function useCreateBatch() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: Partial<BatchCreateInput>) => http<BatchDetail>('/api/batches', { method: 'POST', json: input }),
+    mutationFn: (input: Partial<BatchCreateInput>) =>
+      http<BatchDetail>('/api/batches', { method: 'POST', json: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: batchKeys.all }),
   });
 }

@@ -10,12 +10,16 @@ export const fixityLatestQuery = () =>
   queryOptions({
     queryKey: fixityKeys.latest,
     queryFn: fetchFixityLatest,
-    refetchInterval: (q) => (q.state.data?.job && ['queued', 'running'].includes(q.state.data.job.state) ? 1500 : false),
+    refetchInterval: (q) =>
+      q.state.data?.job && ['queued', 'running'].includes(q.state.data.job.state) ? 1500 : false,
   });
 export const useFixityLatest = () => useQuery(fixityLatestQuery());
 
 export const startFixity = () => http<{ job: JobView }>('/api/admin/fixity', { method: 'POST' });
 export function useStartFixity() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: startFixity, onSuccess: () => qc.invalidateQueries({ queryKey: fixityKeys.latest }) });
+  return useMutation({
+    mutationFn: startFixity,
+    onSuccess: () => qc.invalidateQueries({ queryKey: fixityKeys.latest }),
+  });
 }

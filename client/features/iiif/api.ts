@@ -17,8 +17,11 @@ export async function fetchRegions(photoId: number): Promise<RegionBox[]> {
   const page = await http<AnnotationPage>(`/iiif/photos/${photoId}/annotations.json`);
   return page.items.flatMap((a) => {
     const m = /#xywh=(\d+),(\d+),(\d+),(\d+)$/.exec(a.target);
-    return m ? [{ id: a.id, label: a.body.value, x: Number(m[1]), y: Number(m[2]), w: Number(m[3]), h: Number(m[4]) }] : [];
+    return m
+      ? [{ id: a.id, label: a.body.value, x: Number(m[1]), y: Number(m[2]), w: Number(m[3]), h: Number(m[4]) }]
+      : [];
   });
 }
-export const regionsQuery = (photoId: number) => queryOptions({ queryKey: iiifKeys.regions(photoId), queryFn: () => fetchRegions(photoId) });
+export const regionsQuery = (photoId: number) =>
+  queryOptions({ queryKey: iiifKeys.regions(photoId), queryFn: () => fetchRegions(photoId) });
 export const usePhotoRegions = (photoId: number) => useQuery(regionsQuery(photoId));

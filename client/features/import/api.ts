@@ -15,10 +15,13 @@ function form({ file, mapping }: ImportInput) {
   return f;
 }
 
-export const previewImport = (input: ImportInput) => upload<ImportPreview>('/api/import/pieces?dryRun=true', form(input), input.onProgress);
-export const runImport = (input: ImportInput) => upload<ImportResult>('/api/import/pieces', form(input), input.onProgress);
+export const previewImport = (input: ImportInput) =>
+  upload<ImportPreview>('/api/import/pieces?dryRun=true', form(input), input.onProgress);
+export const runImport = (input: ImportInput) =>
+  upload<ImportResult>('/api/import/pieces', form(input), input.onProgress);
 
-export const usePreviewImport = () => useMutation({ mutationKey: [...importKeys.all, 'preview'], mutationFn: previewImport });
+export const usePreviewImport = () =>
+  useMutation({ mutationKey: [...importKeys.all, 'preview'], mutationFn: previewImport });
 
 export function useRunImport() {
   const qc = useQueryClient();

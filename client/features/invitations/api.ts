@@ -6,8 +6,10 @@ import { authKeys, fetchMe, forgetOtherQueries } from '../auth';
 
 export const invitationKeys = { one: (token: string) => ['invitations', token] as const };
 
-export const fetchInvitation = (token: string) => http<InvitationResponse>(`/api/invitations/${encodeURIComponent(token)}`);
-export const invitationQuery = (token: string) => queryOptions({ queryKey: invitationKeys.one(token), queryFn: () => fetchInvitation(token), retry: false });
+export const fetchInvitation = (token: string) =>
+  http<InvitationResponse>(`/api/invitations/${encodeURIComponent(token)}`);
+export const invitationQuery = (token: string) =>
+  queryOptions({ queryKey: invitationKeys.one(token), queryFn: () => fetchInvitation(token), retry: false });
 export const useInvitation = (token: string) => useQuery(invitationQuery(token));
 
 export const acceptInvitation = (token: string, input: AcceptInvitationInput) =>

@@ -28,7 +28,11 @@ export const usePhoto = (id: number, enabled = true) => useQuery({ ...photoQuery
  * One file per request so each gets its own progress bar. XMLHttpRequest because
  * fetch() reports no upload progress; `onUploaded` marks the switch to processing.
  */
-export function uploadPhoto(pieceId: number, file: File, on: { progress: (fraction: number) => void; uploaded: () => void }) {
+export function uploadPhoto(
+  pieceId: number,
+  file: File,
+  on: { progress: (fraction: number) => void; uploaded: () => void },
+) {
   return new Promise<PhotoUploadResponse>((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', `/api/pieces/${pieceId}/photos`);
@@ -40,9 +44,12 @@ export function uploadPhoto(pieceId: number, file: File, on: { progress: (fracti
       const body = xhr.response;
       if (xhr.status >= 200 && xhr.status < 300) return resolve(body);
       const e = body?.error ?? {};
-      reject(new ApiError(xhr.status, e.code ?? 'http_error', e.message ?? `Upload failed (${xhr.status}).`, e.details));
+      reject(
+        new ApiError(xhr.status, e.code ?? 'http_error', e.message ?? `Upload failed (${xhr.status}).`, e.details),
+      );
     };
-    xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload was interrupted; check the connection and try again.'));
+    xhr.onerror = () =>
+      reject(new ApiError(0, 'network', 'The upload was interrupted; check the connection and try again.'));
     const form = new FormData();
     form.append(UPLOAD_FIELD, file, file.name);
     xhr.send(form);
@@ -66,18 +73,26 @@ export function useUploadDone(pieceId: number) {
 
 export function useUpdatePhoto(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
-  return useMutation({ mutationFn: (input: PhotoUpdateInput) => http<PhotoResponse>(`/api/photos/${photo.id}`, { method: 'PATCH', json: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: PhotoUpdateInput) =>
+      http<PhotoResponse>(`/api/photos/${photo.id}`, { method: 'PATCH', json: input }),
+    onSuccess: invalidate,
+  });
 }
 
 export function useDeletePhoto(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
-  return useMutation({ mutationFn: () => http<void>(`/api/photos/${photo.id}`, { method: 'DELETE' }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: () => http<void>(`/api/photos/${photo.id}`, { method: 'DELETE' }),
+    onSuccess: invalidate,
+  });
 }
 
 export function useAddRegion(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
   return useMutation({
-    mutationFn: (input: RegionCreateInput) => http<RegionSavedResponse>(`/api/photos/${photo.id}/regions`, { method: 'POST', json: input }),
+    mutationFn: (input: RegionCreateInput) =>
+      http<RegionSavedResponse>(`/api/photos/${photo.id}/regions`, { method: 'POST', json: input }),
     onSuccess: invalidate,
   });
 }
@@ -103,7 +118,10 @@ export function useReferencePatch(photo: Photo) {
   const invalidate = useInvalidate(photo.pieceId);
   return useMutation({
     mutationFn: (rect: Rect | null) =>
-      http<ReferencePatchResponse>(`/api/photos/${photo.id}/reference-patch`, rect ? { method: 'PUT', json: rect } : { method: 'DELETE' }),
+      http<ReferencePatchResponse>(
+        `/api/photos/${photo.id}/reference-patch`,
+        rect ? { method: 'PUT', json: rect } : { method: 'DELETE' },
+      ),
     onSuccess: invalidate,
   });
 }

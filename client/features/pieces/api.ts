@@ -37,15 +37,18 @@ const queryString = (q: ListParams) => {
 };
 
 export const fetchPieces = (q: ListParams) => http<PieceList>(`/api/pieces?${queryString(q)}`);
-export const piecesQuery = (q: ListParams) => queryOptions({ queryKey: pieceKeys.list(q), queryFn: () => fetchPieces(q), placeholderData: keepPreviousData });
+export const piecesQuery = (q: ListParams) =>
+  queryOptions({ queryKey: pieceKeys.list(q), queryFn: () => fetchPieces(q), placeholderData: keepPreviousData });
 export const usePieces = (q: ListParams) => useQuery(piecesQuery(q));
 
 export const fetchPiece = (id: number) => http<PieceDetail>(`/api/pieces/${id}`);
-export const pieceQuery = (id: number) => queryOptions({ queryKey: pieceKeys.detail(id), queryFn: () => fetchPiece(id) });
+export const pieceQuery = (id: number) =>
+  queryOptions({ queryKey: pieceKeys.detail(id), queryFn: () => fetchPiece(id) });
 export const usePiece = (id: number, enabled = true) => useQuery({ ...pieceQuery(id), enabled });
 
 export const fetchHistory = (id: number) => http<PieceHistoryResponse>(`/api/pieces/${id}/history`);
-export const historyQuery = (id: number) => queryOptions({ queryKey: pieceKeys.history(id), queryFn: () => fetchHistory(id) });
+export const historyQuery = (id: number) =>
+  queryOptions({ queryKey: pieceKeys.history(id), queryFn: () => fetchHistory(id) });
 export const useHistory = (id: number, enabled: boolean) => useQuery({ ...historyQuery(id), enabled });
 
 function useInvalidatePiece() {
@@ -77,10 +80,16 @@ export function useUpdatePiece(id: number) {
 
 export function useDeletePiece(id: number) {
   const invalidate = useInvalidatePiece();
-  return useMutation({ mutationFn: () => http<void>(`/api/pieces/${id}`, { method: 'DELETE' }), onSuccess: () => invalidate(id) });
+  return useMutation({
+    mutationFn: () => http<void>(`/api/pieces/${id}`, { method: 'DELETE' }),
+    onSuccess: () => invalidate(id),
+  });
 }
 
 export function useRestorePiece(id: number) {
   const invalidate = useInvalidatePiece();
-  return useMutation({ mutationFn: () => http<PieceResponse>(`/api/pieces/${id}/restore`, { method: 'POST' }), onSuccess: () => invalidate(id) });
+  return useMutation({
+    mutationFn: () => http<PieceResponse>(`/api/pieces/${id}/restore`, { method: 'POST' }),
+    onSuccess: () => invalidate(id),
+  });
 }

@@ -1,5 +1,13 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { SeriesCreateInput, SeriesDetail, SeriesList, SeriesPreview, SeriesSummary, SeriesTrialsAnswer, SeriesUpdateInput } from '../../../shared/schemas/series';
+import type {
+  SeriesCreateInput,
+  SeriesDetail,
+  SeriesList,
+  SeriesPreview,
+  SeriesSummary,
+  SeriesTrialsAnswer,
+  SeriesUpdateInput,
+} from '../../../shared/schemas/series';
 import { http } from '../../lib/http';
 
 export type { SeriesDetail, SeriesSummary };
@@ -15,7 +23,8 @@ export const seriesListQuery = () => queryOptions({ queryKey: seriesKeys.list(),
 export const useSeriesList = () => useQuery(seriesListQuery());
 
 export const fetchSeries = (id: number) => http<SeriesDetail>(`/api/series/${id}`);
-export const seriesQuery = (id: number) => queryOptions({ queryKey: seriesKeys.one(id), queryFn: () => fetchSeries(id) });
+export const seriesQuery = (id: number) =>
+  queryOptions({ queryKey: seriesKeys.one(id), queryFn: () => fetchSeries(id) });
 export const useSeries = (id: number) => useQuery(seriesQuery(id));
 
 export const previewCells = (factors: SeriesCreateInput['factors']) =>
@@ -24,7 +33,8 @@ export const previewCells = (factors: SeriesCreateInput['factors']) =>
 export function useCreateSeries() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: Partial<SeriesCreateInput>) => http<SeriesDetail>('/api/series', { method: 'POST', json: input }),
+    mutationFn: (input: Partial<SeriesCreateInput>) =>
+      http<SeriesDetail>('/api/series', { method: 'POST', json: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: seriesKeys.all }),
   });
 }

@@ -1,5 +1,17 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { MeasurementInput, MeasurementView, PieceTrials, StepsInput, SubstitutionInput, TrialCreateInput, TrialList, TrialListQuery, TrialSummaryView, TrialUpdateInput, TrialView } from '../../../shared/schemas/trial';
+import type {
+  MeasurementInput,
+  MeasurementView,
+  PieceTrials,
+  StepsInput,
+  SubstitutionInput,
+  TrialCreateInput,
+  TrialList,
+  TrialListQuery,
+  TrialSummaryView,
+  TrialUpdateInput,
+  TrialView,
+} from '../../../shared/schemas/trial';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
 import { http } from '../../lib/http';
 
@@ -27,9 +39,12 @@ export const fetchPieceTrials = (pieceId: number) => http<PieceTrials>(`/api/pie
 /** The printable sample card of one trial (a plain link: the browser opens the PDF). */
 export const trialCardUrl = (id: number) => `/api/trials/${id}/card.pdf`;
 
-export const trialsQuery = (q: TrialListQuery) => queryOptions({ queryKey: trialKeys.list(q), queryFn: () => fetchTrials(q), placeholderData: keepPreviousData });
-export const trialQuery = (id: number) => queryOptions({ queryKey: trialKeys.detail(id), queryFn: () => fetchTrial(id) });
-export const pieceTrialsQuery = (pieceId: number) => queryOptions({ queryKey: trialKeys.ofPiece(pieceId), queryFn: () => fetchPieceTrials(pieceId) });
+export const trialsQuery = (q: TrialListQuery) =>
+  queryOptions({ queryKey: trialKeys.list(q), queryFn: () => fetchTrials(q), placeholderData: keepPreviousData });
+export const trialQuery = (id: number) =>
+  queryOptions({ queryKey: trialKeys.detail(id), queryFn: () => fetchTrial(id) });
+export const pieceTrialsQuery = (pieceId: number) =>
+  queryOptions({ queryKey: trialKeys.ofPiece(pieceId), queryFn: () => fetchPieceTrials(pieceId) });
 
 export const useTrials = (q: TrialListQuery) => useQuery(trialsQuery(q));
 export const useTrial = (id: number) => useQuery(trialQuery(id));
@@ -59,20 +74,25 @@ export function useCreateTrial() {
 export function useUpdateTrial(id: number) {
   const invalidate = useTrialInvalidation();
   return useMutation({
-    mutationFn: (input: TrialUpdateInput) => http<{ trial: TrialView }>(`/api/trials/${id}`, { method: 'PATCH', json: input }),
+    mutationFn: (input: TrialUpdateInput) =>
+      http<{ trial: TrialView }>(`/api/trials/${id}`, { method: 'PATCH', json: input }),
     onSuccess: () => invalidate({ id }),
   });
 }
 
 export function useDeleteTrial(id: number) {
   const invalidate = useTrialInvalidation();
-  return useMutation({ mutationFn: () => http<void>(`/api/trials/${id}`, { method: 'DELETE' }), onSuccess: () => invalidate(null) });
+  return useMutation({
+    mutationFn: () => http<void>(`/api/trials/${id}`, { method: 'DELETE' }),
+    onSuccess: () => invalidate(null),
+  });
 }
 
 export function useReplaceSteps(id: number) {
   const invalidate = useTrialInvalidation();
   return useMutation({
-    mutationFn: (input: StepsInput) => http<{ trial: TrialView; warning: boolean }>(`/api/trials/${id}/steps`, { method: 'PUT', json: input }),
+    mutationFn: (input: StepsInput) =>
+      http<{ trial: TrialView; warning: boolean }>(`/api/trials/${id}/steps`, { method: 'PUT', json: input }),
     onSuccess: () => invalidate({ id }),
   });
 }
@@ -81,33 +101,47 @@ export function useSaveSubstitution(trialId: number) {
   const invalidate = useTrialInvalidation();
   return useMutation({
     mutationFn: ({ id, ...input }: SubstitutionInput & { id?: number }) =>
-      id ? http(`/api/trials/${trialId}/substitutions/${id}`, { method: 'PUT', json: input }) : http(`/api/trials/${trialId}/substitutions`, { method: 'POST', json: input }),
+      id
+        ? http(`/api/trials/${trialId}/substitutions/${id}`, { method: 'PUT', json: input })
+        : http(`/api/trials/${trialId}/substitutions`, { method: 'POST', json: input }),
     onSuccess: () => invalidate({ id: trialId }),
   });
 }
 
 export function useDeleteSubstitution(trialId: number) {
   const invalidate = useTrialInvalidation();
-  return useMutation({ mutationFn: (id: number) => http<void>(`/api/trials/${trialId}/substitutions/${id}`, { method: 'DELETE' }), onSuccess: () => invalidate({ id: trialId }) });
+  return useMutation({
+    mutationFn: (id: number) => http<void>(`/api/trials/${trialId}/substitutions/${id}`, { method: 'DELETE' }),
+    onSuccess: () => invalidate({ id: trialId }),
+  });
 }
 
 export function useAddMeasurement(trialId: number) {
   const invalidate = useTrialInvalidation();
   return useMutation({
-    mutationFn: (input: MeasurementInput) => http<{ measurement: MeasurementView }>(`/api/trials/${trialId}/measurements`, { method: 'POST', json: input }),
+    mutationFn: (input: MeasurementInput) =>
+      http<{ measurement: MeasurementView }>(`/api/trials/${trialId}/measurements`, { method: 'POST', json: input }),
     onSuccess: () => invalidate({ id: trialId }),
   });
 }
 
 export function useDeleteMeasurement(trialId: number) {
   const invalidate = useTrialInvalidation();
-  return useMutation({ mutationFn: (id: number) => http<void>(`/api/trials/${trialId}/measurements/${id}`, { method: 'DELETE' }), onSuccess: () => invalidate({ id: trialId }) });
+  return useMutation({
+    mutationFn: (id: number) => http<void>(`/api/trials/${trialId}/measurements/${id}`, { method: 'DELETE' }),
+    onSuccess: () => invalidate({ id: trialId }),
+  });
 }
 
 export function useImportMeasurements(trialId: number) {
   const invalidate = useTrialInvalidation();
   return useMutation({
-    mutationFn: (csv: string) => http<{ imported: number }>(`/api/trials/${trialId}/measurements/import`, { method: 'POST', body: csv, headers: { 'Content-Type': 'text/csv' } }),
+    mutationFn: (csv: string) =>
+      http<{ imported: number }>(`/api/trials/${trialId}/measurements/import`, {
+        method: 'POST',
+        body: csv,
+        headers: { 'Content-Type': 'text/csv' },
+      }),
     onSuccess: () => invalidate({ id: trialId }),
   });
 }

@@ -6,5 +6,6 @@ export type { Vocabularies };
 
 export const vocabularyKeys = { all: ['vocabularies'] as const };
 export const fetchVocabularies = () => http<Vocabularies>('/api/vocabularies');
-export const vocabulariesQuery = () => queryOptions({ queryKey: vocabularyKeys.all, queryFn: fetchVocabularies, staleTime: 10 * 60_000 });
+export const vocabulariesQuery = () =>
+  queryOptions({ queryKey: vocabularyKeys.all, queryFn: fetchVocabularies, staleTime: 10 * 60_000 });
 export const useVocabularies = () => useQuery(vocabulariesQuery());

@@ -6,7 +6,11 @@ import type { MigrationContext } from '../migrator.ts';
 // and a palette colour whether its background flag was set by hand, so a recompute keeps it.
 export const up: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi } }) => {
   await qi.addColumn('photos', 'colour', { type: DataTypes.JSON, allowNull: true });
-  await qi.addColumn('palette_colours', 'backgroundManual', { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false });
+  await qi.addColumn('palette_colours', 'backgroundManual', {
+    type: DataTypes.BOOLEAN,
+    allowNull: false,
+    defaultValue: false,
+  });
 };
 
 export const down: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi } }) => {

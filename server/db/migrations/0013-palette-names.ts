@@ -10,10 +10,17 @@ const BATCH = 2000;
 
 export const up: MigrationFn<MigrationContext> = async ({ context: { sequelize } }) => {
   for (let after = 0; ;) {
-    const rows = await sequelize.query<{ id: number; L: number; a: number; b: number; name: string; tradeName: string | null }>(
-      'SELECT id, L, a, b, name, tradeName FROM palette_colours WHERE id > ? ORDER BY id LIMIT ?',
-      { replacements: [after, BATCH], type: QueryTypes.SELECT },
-    );
+    const rows = await sequelize.query<{
+      id: number;
+      L: number;
+      a: number;
+      b: number;
+      name: string;
+      tradeName: string | null;
+    }>('SELECT id, L, a, b, name, tradeName FROM palette_colours WHERE id > ? ORDER BY id LIMIT ?', {
+      replacements: [after, BATCH],
+      type: QueryTypes.SELECT,
+    });
     if (!rows.length) return;
     after = rows[rows.length - 1].id;
     const changed = rows
@@ -24,7 +31,9 @@ export const up: MigrationFn<MigrationContext> = async ({ context: { sequelize }
     await sequelize.query(
       `UPDATE palette_colours SET name = CASE id ${changed.map(() => 'WHEN ? THEN ?').join(' ')} END,
          tradeName = CASE id ${changed.map(() => 'WHEN ? THEN ?').join(' ')} END WHERE id IN (?)`,
-      { replacements: [...changed.flatMap((r) => [r.id, r.name]), ...changed.flatMap((r) => [r.id, r.tradeName]), ids] },
+      {
+        replacements: [...changed.flatMap((r) => [r.id, r.name]), ...changed.flatMap((r) => [r.id, r.tradeName]), ids],
+      },
     );
   }
 };

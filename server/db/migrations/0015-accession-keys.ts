@@ -13,10 +13,13 @@ export const up: MigrationFn<MigrationContext> = async ({ context: { sequelize }
   await qi.addColumn('pieces', 'accessionKey', { type: DataTypes.STRING(40), allowNull: true });
   await qi.addColumn('pieces', 'accessionSort', { type: DataTypes.STRING(120, true), allowNull: true });
   for (let after = 0; ;) {
-    const rows = await sequelize.query<{ id: number; accessionNumber: string }>('SELECT id, accessionNumber FROM pieces WHERE id > ? ORDER BY id LIMIT ?', {
-      replacements: [after, BATCH],
-      type: QueryTypes.SELECT,
-    });
+    const rows = await sequelize.query<{ id: number; accessionNumber: string }>(
+      'SELECT id, accessionNumber FROM pieces WHERE id > ? ORDER BY id LIMIT ?',
+      {
+        replacements: [after, BATCH],
+        type: QueryTypes.SELECT,
+      },
+    );
     if (!rows.length) break;
     after = rows[rows.length - 1].id;
     await sequelize.query(
@@ -36,7 +39,10 @@ export const up: MigrationFn<MigrationContext> = async ({ context: { sequelize }
     "SELECT GROUP_CONCAT(accessionNumber SEPARATOR ' / ') AS numbers FROM pieces GROUP BY accessionKey HAVING COUNT(*) > 1",
     { type: QueryTypes.SELECT },
   );
-  if (clashes.length) throw new Error(`These accession numbers differ only in case or spaces; renumber one of each first: ${clashes.map((c) => c.numbers).join('; ')}`);
+  if (clashes.length)
+    throw new Error(
+      `These accession numbers differ only in case or spaces; renumber one of each first: ${clashes.map((c) => c.numbers).join('; ')}`,
+    );
   await qi.changeColumn('pieces', 'accessionKey', { type: DataTypes.STRING(40), allowNull: false });
   await qi.changeColumn('pieces', 'accessionSort', { type: DataTypes.STRING(120, true), allowNull: false });
   await qi.addIndex('pieces', ['accessionKey'], { unique: true, name: 'pieces_accession_key' });

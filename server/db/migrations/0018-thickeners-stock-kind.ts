@@ -8,7 +8,12 @@ import type { MigrationContext } from '../migrator.ts';
 const KINDS = ['mordant-bath', 'print-paste', 'dye-bath', 'vat'] as const;
 
 const common = {
-  role: 'thickener', formula: null, metal: null, status: 'permitted', signalWord: null, hStatements: '[]',
+  role: 'thickener',
+  formula: null,
+  metal: null,
+  status: 'permitted',
+  signalWord: null,
+  hStatements: '[]',
   source: 'formula: IUPAC nomenclature; role and status: common practice',
   hazardSource: 'typical supplier classification: not classified',
   ppe: 'eye protection when handling powders',
@@ -16,17 +21,26 @@ const common = {
 const THICKENERS_0018 = [
   { ...common, name: 'sodium alginate', caution: 'Low hazard.' },
   { ...common, name: 'gum tragacanth', caution: 'Low hazard.' },
-  { ...common, name: 'British gum (dextrin)', caution: 'Low hazard; fine dust can form explosive mixtures in air, as with flour or starch.' },
+  {
+    ...common,
+    name: 'British gum (dextrin)',
+    caution: 'Low hazard; fine dust can form explosive mixtures in air, as with flour or starch.',
+  },
 ];
 
 export const up: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi, sequelize } }) => {
   await qi.changeColumn('mordant_batches', 'kind', { type: DataTypes.ENUM(...KINDS, 'stock'), allowNull: false });
   // Only an install whose reference data is already seeded needs the rows; the seed adds them elsewhere.
-  const [{ n }] = await sequelize.query<{ n: number }>('SELECT COUNT(*) AS n FROM chemicals', { type: QueryTypes.SELECT });
+  const [{ n }] = await sequelize.query<{ n: number }>('SELECT COUNT(*) AS n FROM chemicals', {
+    type: QueryTypes.SELECT,
+  });
   if (!Number(n)) return;
   const now = new Date();
   for (const row of THICKENERS_0018) {
-    const found = await sequelize.query('SELECT id FROM chemicals WHERE name = ?', { replacements: [row.name], type: QueryTypes.SELECT });
+    const found = await sequelize.query('SELECT id FROM chemicals WHERE name = ?', {
+      replacements: [row.name],
+      type: QueryTypes.SELECT,
+    });
     if (found.length) continue;
     await qi.bulkInsert('chemicals', [{ ...row, createdAt: now, updatedAt: now }]);
   }

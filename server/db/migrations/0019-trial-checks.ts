@@ -8,9 +8,16 @@ import type { MigrationContext } from '../migrator.ts';
 const STEP_COLUMNS = ['historicalUseReason', 'historicalUseConfirmedById', 'historicalUseConfirmedAt'] as const;
 
 export const up: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi } }) => {
-  await qi.addColumn('trials', 'dryMassBasis', { type: DataTypes.ENUM('air-dry', 'oven-dry'), allowNull: false, defaultValue: 'air-dry' });
+  await qi.addColumn('trials', 'dryMassBasis', {
+    type: DataTypes.ENUM('air-dry', 'oven-dry'),
+    allowNull: false,
+    defaultValue: 'air-dry',
+  });
   await qi.addColumn('recipe_steps', 'historicalUseReason', { type: DataTypes.TEXT, allowNull: true });
-  await qi.addColumn('recipe_steps', 'historicalUseConfirmedById', { type: DataTypes.INTEGER.UNSIGNED, allowNull: true });
+  await qi.addColumn('recipe_steps', 'historicalUseConfirmedById', {
+    type: DataTypes.INTEGER.UNSIGNED,
+    allowNull: true,
+  });
   await qi.addColumn('recipe_steps', 'historicalUseConfirmedAt', { type: DataTypes.DATE(3), allowNull: true });
 };
 

@@ -9,8 +9,17 @@ import type { MigrationContext } from '../migrator.ts';
 const NAME = 'photos_trial_fk';
 
 export const up: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi, sequelize } }) => {
-  await sequelize.query('UPDATE photos p LEFT JOIN trials t ON t.id = p.trialId SET p.trialId = NULL WHERE p.trialId IS NOT NULL AND t.id IS NULL');
-  await qi.addConstraint('photos', { type: 'foreign key', name: NAME, fields: ['trialId'], references: { table: 'trials', field: 'id' }, onDelete: 'RESTRICT', onUpdate: 'CASCADE' });
+  await sequelize.query(
+    'UPDATE photos p LEFT JOIN trials t ON t.id = p.trialId SET p.trialId = NULL WHERE p.trialId IS NOT NULL AND t.id IS NULL',
+  );
+  await qi.addConstraint('photos', {
+    type: 'foreign key',
+    name: NAME,
+    fields: ['trialId'],
+    references: { table: 'trials', field: 'id' },
+    onDelete: 'RESTRICT',
+    onUpdate: 'CASCADE',
+  });
 };
 
 export const down: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi } }) => {

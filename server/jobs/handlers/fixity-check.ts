@@ -8,7 +8,6 @@ import type { FixityReport } from '../../../shared/schemas/fixity.ts';
 
 export const FIXITY_JOB = 'fixity-check';
 
-
 export async function sha256File(file: string) {
   const hash = createHash('sha256');
   await pipeline(createReadStream(file), hash);

@@ -14,7 +14,8 @@ registerHandler(TILE_JOB, {
     if (!photo) throw new PermanentJobError(`Photo ${photoId} no longer exists.`);
     await photo.update({ tileStatus: 'running' });
     const master = await findMaster(photo);
-    if (!master) throw new PermanentJobError(`The master file of photo ${photoId} is missing (sha256 ${photo.sha256}).`);
+    if (!master)
+      throw new PermanentJobError(`The master file of photo ${photoId} is missing (sha256 ${photo.sha256}).`);
     await ctx.progress(0.1);
     await buildTiles(photoId, master, `${job.id}-${job.attempts}`);
     // Removed while its tiles were being built: take the tiles away too, so no orphan folder stays behind.

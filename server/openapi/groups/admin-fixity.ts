@@ -6,7 +6,8 @@ export default defineRoutes('admin-fixity', [
   {
     method: 'post',
     path: '/api/admin/fixity',
-    summary: 'Queue a check of every master against its recorded sha256 (200 with the open one when a check is already queued or running)',
+    summary:
+      'Queue a check of every master against its recorded sha256 (200 with the open one when a check is already queued or running)',
     roles: 'admin',
     responses: { 200: jobResponse, 202: jobResponse },
   },

@@ -3,9 +3,28 @@ import { loginSchema, resetLinkSchema, resetRequestedSchema, sessionSchema } fro
 import { resetPasswordSchema, resetRequestSchema, tokenParams } from '../../../shared/schemas/team.ts';
 
 export default defineRoutes('auth', [
-  { method: 'post', path: '/api/auth/login', summary: 'Sign in; answers the user and their abilities', roles: 'anyone', body: loginSchema, responses: { 200: sessionSchema } },
-  { method: 'post', path: '/api/auth/logout', summary: 'Sign out and end the session', roles: 'anyone', responses: { 204: null } },
-  { method: 'get', path: '/api/auth/me', summary: 'The signed-in user and their abilities (401 for a visitor)', roles: 'signed in', responses: { 200: sessionSchema } },
+  {
+    method: 'post',
+    path: '/api/auth/login',
+    summary: 'Sign in; answers the user and their abilities',
+    roles: 'anyone',
+    body: loginSchema,
+    responses: { 200: sessionSchema },
+  },
+  {
+    method: 'post',
+    path: '/api/auth/logout',
+    summary: 'Sign out and end the session',
+    roles: 'anyone',
+    responses: { 204: null },
+  },
+  {
+    method: 'get',
+    path: '/api/auth/me',
+    summary: 'The signed-in user and their abilities (401 for a visitor)',
+    roles: 'signed in',
+    responses: { 200: sessionSchema },
+  },
   {
     method: 'post',
     path: '/api/auth/password-reset',

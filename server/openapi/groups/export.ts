@@ -6,8 +6,20 @@ const csv = (description: string) => ({ contentType: 'text/csv', description });
 
 // Whole-archive CSVs under /api/export, then one piece's exports under /api/pieces/:id (pieceExportRouter).
 export default defineRoutes('export', [
-  { method: 'get', path: '/api/export/pieces.csv', summary: 'The catalogue as CSV (re-importable)', roles: 'researcher, curator, admin', responses: { 200: csv('Every piece, one row each, in the import format') } },
-  { method: 'get', path: '/api/export/trials.csv', summary: 'Every trial with its colour and fastness as CSV', roles: 'signed in', responses: { 200: csv('Every trial, one row each') } },
+  {
+    method: 'get',
+    path: '/api/export/pieces.csv',
+    summary: 'The catalogue as CSV (re-importable)',
+    roles: 'researcher, curator, admin',
+    responses: { 200: csv('Every piece, one row each, in the import format') },
+  },
+  {
+    method: 'get',
+    path: '/api/export/trials.csv',
+    summary: 'Every trial with its colour and fastness as CSV',
+    roles: 'signed in',
+    responses: { 200: csv('Every trial, one row each') },
+  },
   {
     method: 'get',
     path: '/api/export/palettes.csv',
@@ -45,6 +57,8 @@ export default defineRoutes('export', [
     summary: "One piece's master files with a sha256 manifest",
     roles: 'researcher, curator, admin',
     params: idParams,
-    responses: { 200: { contentType: 'application/zip', description: 'The masters, stored uncompressed, and manifest-sha256.txt' } },
+    responses: {
+      200: { contentType: 'application/zip', description: 'The masters, stored uncompressed, and manifest-sha256.txt' },
+    },
   },
 ]);

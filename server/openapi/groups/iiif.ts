@@ -1,4 +1,10 @@
-import { annotationPageSchema, iiifPhotoParams, iiifPieceParams, imageInfoSchema, manifestSchema } from '../../../shared/schemas/iiif.ts';
+import {
+  annotationPageSchema,
+  iiifPhotoParams,
+  iiifPieceParams,
+  imageInfoSchema,
+  manifestSchema,
+} from '../../../shared/schemas/iiif.ts';
 import { defineRoutes } from '../registry.ts';
 
 // Mounted at /iiif, outside /api (server/app.ts). JSON answers are sent as application/ld+json with the

@@ -3,7 +3,14 @@ import { acceptInvitationSchema, inviteSchema, tokenParams } from '../../../shar
 import { acceptedResponse, invitationResponse } from '../../../shared/schemas/invitations.ts';
 
 export default defineRoutes('invitations', [
-  { method: 'post', path: '/api/invitations', summary: 'Invite someone by e-mail with a role', roles: 'admin', body: inviteSchema, responses: { 201: invitationResponse } },
+  {
+    method: 'post',
+    path: '/api/invitations',
+    summary: 'Invite someone by e-mail with a role',
+    roles: 'admin',
+    body: inviteSchema,
+    responses: { 201: invitationResponse },
+  },
   {
     method: 'get',
     path: '/api/invitations/:token',

@@ -7,7 +7,8 @@ export default defineRoutes('media', [
     method: 'get',
     path: '/media/photos/:id/:kind',
     summary: 'A photo file: thumb, display or master (the master as an attachment, EXIF untouched)',
-    roles: 'thumb, display: anyone (visitors: published pieces only); master: signed-in users, with GPS only curator, admin',
+    roles:
+      'thumb, display: anyone (visitors: published pieces only); master: signed-in users, with GPS only curator, admin',
     params: mediaParams,
     responses: { 200: { contentType: 'image/*', description: 'The image file (the master in its uploaded format)' } },
   },

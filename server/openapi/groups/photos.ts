@@ -19,10 +19,39 @@ import { defineRoutes } from '../registry.ts';
 const writers = 'curator, admin';
 
 export default defineRoutes('photos', [
-  { method: 'get', path: '/api/photos/:id', summary: 'One photo with its palettes and regions', roles: 'signed-in users', params: photoParams, responses: { 200: photoResponse } },
-  { method: 'patch', path: '/api/photos/:id', summary: "Change a photo's caption or view", roles: writers, params: photoParams, body: photoUpdateSchema, responses: { 200: photoResponse } },
-  { method: 'delete', path: '/api/photos/:id', summary: 'Remove a photo, its palettes, regions and files', roles: writers, params: photoParams, responses: { 204: null } },
-  { method: 'get', path: '/api/photos/:id/regions', summary: "The photo's regions", roles: 'signed-in users', params: photoParams, responses: { 200: regionListResponse } },
+  {
+    method: 'get',
+    path: '/api/photos/:id',
+    summary: 'One photo with its palettes and regions',
+    roles: 'signed-in users',
+    params: photoParams,
+    responses: { 200: photoResponse },
+  },
+  {
+    method: 'patch',
+    path: '/api/photos/:id',
+    summary: "Change a photo's caption or view",
+    roles: writers,
+    params: photoParams,
+    body: photoUpdateSchema,
+    responses: { 200: photoResponse },
+  },
+  {
+    method: 'delete',
+    path: '/api/photos/:id',
+    summary: 'Remove a photo, its palettes, regions and files',
+    roles: writers,
+    params: photoParams,
+    responses: { 204: null },
+  },
+  {
+    method: 'get',
+    path: '/api/photos/:id/regions',
+    summary: "The photo's regions",
+    roles: 'signed-in users',
+    params: photoParams,
+    responses: { 200: regionListResponse },
+  },
   {
     method: 'post',
     path: '/api/photos/:id/regions',
@@ -41,7 +70,14 @@ export default defineRoutes('photos', [
     body: regionUpdateSchema,
     responses: { 200: regionSavedResponse },
   },
-  { method: 'delete', path: '/api/photos/:id/regions/:regionId', summary: 'Remove a region', roles: writers, params: regionParams, responses: { 200: palettesResponse } },
+  {
+    method: 'delete',
+    path: '/api/photos/:id/regions/:regionId',
+    summary: 'Remove a region',
+    roles: writers,
+    params: regionParams,
+    responses: { 200: palettesResponse },
+  },
   {
     method: 'put',
     path: '/api/photos/:id/reference-patch',
@@ -51,7 +87,14 @@ export default defineRoutes('photos', [
     body: rectSchema,
     responses: { 200: referencePatchResponse },
   },
-  { method: 'delete', path: '/api/photos/:id/reference-patch', summary: 'Clear the reference patch and its correction', roles: writers, params: photoParams, responses: { 200: referencePatchResponse } },
+  {
+    method: 'delete',
+    path: '/api/photos/:id/reference-patch',
+    summary: 'Clear the reference patch and its correction',
+    roles: writers,
+    params: photoParams,
+    responses: { 200: referencePatchResponse },
+  },
   {
     method: 'patch',
     path: '/api/photos/:id/palette/:colourId',

@@ -28,7 +28,9 @@ export default defineRoutes('pieces', [
     summary: "The piece's photo palettes as CSV (image estimates, D65/2°)",
     roles: 'anyone (visitors: published pieces only)',
     params: idParams,
-    responses: { 200: { contentType: 'text/csv', description: 'One row per palette colour of every photo of the piece' } },
+    responses: {
+      200: { contentType: 'text/csv', description: 'One row per palette colour of every photo of the piece' },
+    },
   },
   {
     method: 'get',
@@ -36,7 +38,12 @@ export default defineRoutes('pieces', [
     summary: "The piece's master files in a ZIP with a SHA-256 manifest",
     roles: 'researcher, curator, admin',
     params: idParams,
-    responses: { 200: { contentType: 'application/zip', description: 'Masters stored uncompressed, manifest-sha256.txt in sha256sum -c form' } },
+    responses: {
+      200: {
+        contentType: 'application/zip',
+        description: 'Masters stored uncompressed, manifest-sha256.txt in sha256sum -c form',
+      },
+    },
   },
   {
     method: 'get',
@@ -46,7 +53,14 @@ export default defineRoutes('pieces', [
     query: pieceListQuery,
     responses: { 200: pieceListResponse },
   },
-  { method: 'post', path: '/api/pieces', summary: 'Catalogue a new piece', roles: 'curator, admin', body: pieceCreateSchema, responses: { 201: pieceResponse } },
+  {
+    method: 'post',
+    path: '/api/pieces',
+    summary: 'Catalogue a new piece',
+    roles: 'curator, admin',
+    body: pieceCreateSchema,
+    responses: { 201: pieceResponse },
+  },
   {
     method: 'get',
     path: '/api/pieces/:id',
@@ -55,9 +69,31 @@ export default defineRoutes('pieces', [
     params: idParams,
     responses: { 200: pieceDetailResponse },
   },
-  { method: 'patch', path: '/api/pieces/:id', summary: 'Change a piece', roles: 'curator, admin', params: idParams, body: pieceUpdateSchema, responses: { 200: pieceResponse } },
-  { method: 'delete', path: '/api/pieces/:id', summary: 'Delete a piece (soft delete, restorable)', roles: 'curator, admin', params: idParams, responses: { 204: null } },
-  { method: 'post', path: '/api/pieces/:id/restore', summary: 'Restore a deleted piece', roles: 'admin', params: idParams, responses: { 200: pieceResponse } },
+  {
+    method: 'patch',
+    path: '/api/pieces/:id',
+    summary: 'Change a piece',
+    roles: 'curator, admin',
+    params: idParams,
+    body: pieceUpdateSchema,
+    responses: { 200: pieceResponse },
+  },
+  {
+    method: 'delete',
+    path: '/api/pieces/:id',
+    summary: 'Delete a piece (soft delete, restorable)',
+    roles: 'curator, admin',
+    params: idParams,
+    responses: { 204: null },
+  },
+  {
+    method: 'post',
+    path: '/api/pieces/:id/restore',
+    summary: 'Restore a deleted piece',
+    roles: 'admin',
+    params: idParams,
+    responses: { 200: pieceResponse },
+  },
   {
     method: 'get',
     path: '/api/pieces/:id/history',

@@ -10,7 +10,14 @@ import {
 } from '../../../shared/schemas/team.ts';
 
 export default defineRoutes('team', [
-  { method: 'get', path: '/api/team', summary: 'The team, active members first', roles: 'admin', query: teamQuerySchema, responses: { 200: teamPageSchema } },
+  {
+    method: 'get',
+    path: '/api/team',
+    summary: 'The team, active members first',
+    roles: 'admin',
+    query: teamQuerySchema,
+    responses: { 200: teamPageSchema },
+  },
   {
     method: 'patch',
     path: '/api/team/:id',
@@ -20,7 +27,13 @@ export default defineRoutes('team', [
     body: teamPatchSchema,
     responses: { 200: memberResponse },
   },
-  { method: 'get', path: '/api/team/invitations', summary: 'Pending invitations with who sent them', roles: 'admin', responses: { 200: pendingInvitationListSchema } },
+  {
+    method: 'get',
+    path: '/api/team/invitations',
+    summary: 'Pending invitations with who sent them',
+    roles: 'admin',
+    responses: { 200: pendingInvitationListSchema },
+  },
   {
     method: 'post',
     path: '/api/team/invitations/:id/resend',
@@ -29,5 +42,12 @@ export default defineRoutes('team', [
     params: idParams,
     responses: { 201: pendingInvitationResponse },
   },
-  { method: 'delete', path: '/api/team/invitations/:id', summary: 'Withdraw a pending invitation', roles: 'admin', params: idParams, responses: { 204: null } },
+  {
+    method: 'delete',
+    path: '/api/team/invitations/:id',
+    summary: 'Withdraw a pending invitation',
+    roles: 'admin',
+    params: idParams,
+    responses: { 204: null },
+  },
 ]);

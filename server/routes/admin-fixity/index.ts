@@ -17,9 +17,16 @@ const mayRun: RequestHandler = (req, _res, next) => (can(actorOf(req), 'fixity:r
 fixityRouter.post('/', requireUser, mayRun, async (req, res) => {
   const actor = actorOf(req)!;
   const { job, created } = await sequelize.transaction(async (transaction) => {
-    const open = await Job.findOne({ where: { type: FIXITY_JOB, state: { [Op.in]: ['queued', 'running'] } }, transaction, lock: transaction.LOCK.UPDATE });
+    const open = await Job.findOne({
+      where: { type: FIXITY_JOB, state: { [Op.in]: ['queued', 'running'] } },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (open) return { job: open, created: false };
-    return { job: await enqueue({ type: FIXITY_JOB, createdById: actor.id, maxAttempts: 1 }, transaction), created: true };
+    return {
+      job: await enqueue({ type: FIXITY_JOB, createdById: actor.id, maxAttempts: 1 }, transaction),
+      created: true,
+    };
   });
   res.status(created ? 202 : 200).json({ job: presentJob(job, true) });
 });
@@ -30,6 +37,9 @@ fixityRouter.get('/latest', requireUser, mayRun, async (_req, res) => {
     Job.findOne({ where: { type: FIXITY_JOB, state: 'done' }, order: [['id', 'DESC']] }),
   ]);
   // A done fixity job's result is the report its handler returned (server/jobs/handlers/fixity-check.ts).
-  const body: FixityLatest = { job: latest ? presentJob(latest, true) : null, report: (lastDone?.result as FixityReport | undefined) ?? null };
+  const body: FixityLatest = {
+    job: latest ? presentJob(latest, true) : null,
+    report: (lastDone?.result as FixityReport | undefined) ?? null,
+  };
   res.json(body);
 });

@@ -14,12 +14,19 @@ import { presentUser } from '../../presenters/user.ts';
 import { liveResetToken, requestPasswordReset, resetPassword } from '../../services/password-reset.ts';
 
 // The local outbox route does not exist in production, so nobody is offered it there.
-const sessionAbilities = (actor: Actor) => ({ ...abilities(actor, ACTIONS), ...(isProduction ? { 'outbox:read': false } : {}) });
+const sessionAbilities = (actor: Actor) => ({
+  ...abilities(actor, ACTIONS),
+  ...(isProduction ? { 'outbox:read': false } : {}),
+});
 
 /** The answer of /me and /login: who is signed in and what they may do. */
-const session = (req: Request, user: User): Session => ({ user: presentUser(user), abilities: sessionAbilities(actorOf(req)) });
+const session = (req: Request, user: User): Session => ({
+  user: presentUser(user),
+  abilities: sessionAbilities(actorOf(req)),
+});
 
-const badCredentials = () => new HttpError(401, 'bad_credentials', 'That e-mail and password do not match an active account.');
+const badCredentials = () =>
+  new HttpError(401, 'bad_credentials', 'That e-mail and password do not match an active account.');
 
 /** Sign-in, sign-out, the current user and password reset. A factory: each app gets its own rate-limit counters. */
 export function authRouter() {
@@ -54,7 +61,9 @@ export function authRouter() {
   // 202 whatever the address; the lookup and the mail happen after the answer. Limited, as each may send a mail.
   router.post('/password-reset', ...resetRequestRateLimits(), (req, res) => {
     const { email } = parseBody(resetRequestSchema, req);
-    res.status(202).json({ message: 'If that address belongs to an account, a link to set a new password is on its way.' });
+    res
+      .status(202)
+      .json({ message: 'If that address belongs to an account, a link to set a new password is on its way.' });
     requestPasswordReset(email).catch((err) => console.error('[mail] password reset not sent:', err));
   });
 

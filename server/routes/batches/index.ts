@@ -1,5 +1,10 @@
 import { Router, type Request } from 'express';
-import { batchCreateSchema, batchEventSchema, batchListQuery, batchUpdateSchema } from '../../../shared/schemas/batches.ts';
+import {
+  batchCreateSchema,
+  batchEventSchema,
+  batchListQuery,
+  batchUpdateSchema,
+} from '../../../shared/schemas/batches.ts';
 import { idParams, toPaged } from '../../../shared/schemas/common.ts';
 import { abilities, actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
@@ -9,7 +14,15 @@ import { Chemical, MordantBatch, Trial, sequelize } from '../../models/index.ts'
 import { can } from '../../policies/index.ts';
 import { presentChemical } from '../../presenters/reference.ts';
 import { presentBatch, presentBatchEvent, presentBatchSummary } from '../../presenters/batches.ts';
-import { addEvent, createBatch, dueForCheck, figuresFor, loadEvents, thickenerIds, updateBatch } from '../../services/batches/index.ts';
+import {
+  addEvent,
+  createBatch,
+  dueForCheck,
+  figuresFor,
+  loadEvents,
+  thickenerIds,
+  updateBatch,
+} from '../../services/batches/index.ts';
 import { batchLabelPdf } from '../../pdf/labels.ts';
 import { sendPdf } from '../../pdf/send.ts';
 
@@ -30,12 +43,22 @@ async function full(req: Request, batch: MordantBatch) {
   const events = await loadEvents(batch.id);
   const [parent, children] = await Promise.all([
     batch.parentId ? MordantBatch.findByPk(batch.parentId, { attributes: ['id', 'code'] }) : null,
-    MordantBatch.findAll({ where: { parentId: batch.id }, attributes: ['id', 'code', 'name'], order: [['code', 'ASC']] }),
+    MordantBatch.findAll({
+      where: { parentId: batch.id },
+      attributes: ['id', 'code', 'name'],
+      order: [['code', 'ASC']],
+    }),
   ]);
-  const chemIds = [...batch.ingredients, ...events.flatMap((e) => e.additions ?? [])].filter((i) => i.kind === 'chemical').map((i) => i.refId);
-  const chems = chemIds.length ? await Chemical.findAll({ where: { id: { [Op.in]: [...new Set(chemIds)] } }, order: [['name', 'ASC']] }) : [];
+  const chemIds = [...batch.ingredients, ...events.flatMap((e) => e.additions ?? [])]
+    .filter((i) => i.kind === 'chemical')
+    .map((i) => i.refId);
+  const chems = chemIds.length
+    ? await Chemical.findAll({ where: { id: { [Op.in]: [...new Set(chemIds)] } }, order: [['name', 'ASC']] })
+    : [];
   const trialIds = [...new Set(events.flatMap((e) => (e.trialId ? [e.trialId] : [])))];
-  const trials = trialIds.length ? await Trial.findAll({ where: { id: { [Op.in]: trialIds } }, attributes: ['id', 'code'] }) : [];
+  const trials = trialIds.length
+    ? await Trial.findAll({ where: { id: { [Op.in]: trialIds } }, attributes: ['id', 'code'] })
+    : [];
   return presentBatch(batch, figuresFor(batch, events, await thickenerIds()), events, {
     trialCodes: new Map(trials.map((t) => [t.id, t.code])),
     cautions: chems.map(presentChemical),
@@ -48,10 +71,21 @@ async function full(req: Request, batch: MordantBatch) {
 batchesRouter.get('/', async (req, res) => {
   const q = parseQuery(batchListQuery, req);
   if (!can(actorOf(req), 'batch:read')) throw forbidden();
-  const where = { ...(q.status ? { status: q.status } : {}), ...(q.kind ? { kind: q.kind } : {}), ...(q.due ? dueForCheck(today()) : {}) };
-  const { rows, count } = await MordantBatch.findAndCountAll({ where, order: [['code', 'ASC']], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
+  const where = {
+    ...(q.status ? { status: q.status } : {}),
+    ...(q.kind ? { kind: q.kind } : {}),
+    ...(q.due ? dueForCheck(today()) : {}),
+  };
+  const { rows, count } = await MordantBatch.findAndCountAll({
+    where,
+    order: [['code', 'ASC']],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+  });
   const thick = await thickenerIds();
-  const items = await Promise.all(rows.map(async (b) => presentBatchSummary(b, figuresFor(b, await loadEvents(b.id), thick))));
+  const items = await Promise.all(
+    rows.map(async (b) => presentBatchSummary(b, figuresFor(b, await loadEvents(b.id), thick))),
+  );
   res.json(toPaged(items, count, q.page, q.pageSize));
 });
 

@@ -1,5 +1,9 @@
 import { Router } from 'express';
-import { colourDifferenceSchema, verdictBandsInput, type ColourDifferenceAnswer } from '../../../shared/schemas/trial.ts';
+import {
+  colourDifferenceSchema,
+  verdictBandsInput,
+  type ColourDifferenceAnswer,
+} from '../../../shared/schemas/trial.ts';
 import { differenceReport } from '../../../shared/colour/index.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, unprocessable } from '../../http/errors.ts';
@@ -35,7 +39,13 @@ colourRouter.post('/difference', async (req, res) => {
     ? `Observers differ (reference ${reference.observer}°, sample ${sample.observer}°): the figures are given, but part of the difference may come from the observer rather than the colours.`
     : null;
   const { bands, source } = await verdictBands();
-  const answer: ColourDifferenceAnswer = { ...differenceReport(reference, sample, bands), conditions, note, bands, bandsSource: source };
+  const answer: ColourDifferenceAnswer = {
+    ...differenceReport(reference, sample, bands),
+    conditions,
+    note,
+    bands,
+    bandsSource: source,
+  };
   res.json(answer);
 });
 

@@ -27,7 +27,8 @@ exportRouter.get('/pieces.csv', requireUser, mayExport, async (_req, res) => {
 });
 
 // Whoever may read trials may take them away as a spreadsheet: the CSV holds nothing the trial pages do not show.
-const mayReadTrials: RequestHandler = (req, _res, next) => (can(actorOf(req), 'trial:read') ? next() : next(forbidden()));
+const mayReadTrials: RequestHandler = (req, _res, next) =>
+  can(actorOf(req), 'trial:read') ? next() : next(forbidden());
 
 exportRouter.get('/trials.csv', requireUser, mayReadTrials, async (_req, res) => {
   res.type('text/csv; charset=utf-8').attachment(`tinctoria-trials-${stamp()}.csv`);
@@ -47,7 +48,11 @@ exportRouter.get('/shade.csv', async (req, res) => {
   const actor = actorOf(req);
   if (!can(actor, 'search:run')) throw forbidden();
   const onePage = req.query.page !== undefined || req.query.limit !== undefined;
-  res.type('text/csv; charset=utf-8').attachment(`tinctoria-shade-${(input.hex ?? `L${input.L}a${input.a}b${input.b}`).replace('#', '')}-${stamp()}.csv`);
+  res
+    .type('text/csv; charset=utf-8')
+    .attachment(
+      `tinctoria-shade-${(input.hex ?? `L${input.L}a${input.a}b${input.b}`).replace('#', '')}-${stamp()}.csv`,
+    );
   await writeShadeCsv(res, actor, input, onePage);
 });
 

@@ -20,7 +20,10 @@ const cors = { 'Access-Control-Allow-Origin': '*', Vary: 'Accept' };
 
 // JSON-LD with its profile, as the IIIF specifications ask; plain JSON for a client that asks only for that.
 function sendLd(req: Request, res: Response, profile: string, body: unknown) {
-  const type = req.accepts(['application/ld+json', 'application/json']) === 'application/json' ? 'application/json' : `application/ld+json; profile="${profile}"`;
+  const type =
+    req.accepts(['application/ld+json', 'application/json']) === 'application/json'
+      ? 'application/json'
+      : `application/ld+json; profile="${profile}"`;
   res.type(type).send(JSON.stringify(body));
 }
 // What a visitor may see is published and may be cached anywhere; staff views of drafts stay private.
@@ -49,7 +52,8 @@ iiifRouter.get('/photos/:photoId/annotations.json', async (req, res) => {
   const photo = await readablePhoto(actorOf(req), photoId);
   const regions = await Region.findAll({ where: { photoId: photo.id }, order: [['id', 'ASC']] });
   const base = baseUrl(req);
-  const canvasId = photo.pieceId != null ? `${base}/iiif/${photo.pieceId}/canvas/${photo.id}` : `${base}/iiif/photos/${photo.id}`;
+  const canvasId =
+    photo.pieceId != null ? `${base}/iiif/${photo.pieceId}/canvas/${photo.id}` : `${base}/iiif/photos/${photo.id}`;
   const page = regionAnnotationPage(canvasId, regions, `${base}/iiif/photos/${photo.id}/annotations.json`);
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
   sendLd(req, res, 'http://www.w3.org/ns/anno.jsonld', { '@context': 'http://www.w3.org/ns/anno.jsonld', ...page });
@@ -65,7 +69,9 @@ iiifRouter.get('/photos/:photoId/{*tile}', async (req, res) => {
   const photo = await tiledPhoto(req);
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
   await new Promise<void>((resolve, reject) =>
-    res.sendFile(tile, { root: iiifDir(photo.id), dotfiles: 'deny' }, (err) => (err ? reject(notFound('Tile')) : resolve())),
+    res.sendFile(tile, { root: iiifDir(photo.id), dotfiles: 'deny' }, (err) =>
+      err ? reject(notFound('Tile')) : resolve(),
+    ),
   );
 });
 
@@ -75,7 +81,10 @@ iiifRouter.get('/:pieceId/manifest.json', async (req, res) => {
   const photos = await Photo.findAll({
     where: { pieceId: piece.id },
     include: [{ model: Region, as: 'regions' }],
-    order: [['id', 'ASC'], [{ model: Region, as: 'regions' }, 'id', 'ASC']],
+    order: [
+      ['id', 'ASC'],
+      [{ model: Region, as: 'regions' }, 'id', 'ASC'],
+    ],
   });
   const manifest = await buildManifest(baseUrl(req), piece, photos);
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });

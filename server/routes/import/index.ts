@@ -12,9 +12,13 @@ export const importRouter = Router();
 const MAX_BYTES = 50 * 1024 * 1024;
 // multer's own errors (too large, unexpected field) in the API's error shape.
 const receiveFile = receiveUpload({
-  field: 'file', maxFiles: 1, maxBytes: MAX_BYTES, maxFields: 5,
+  field: 'file',
+  maxFiles: 1,
+  maxBytes: MAX_BYTES,
+  maxFields: 5,
   tooLarge: () => `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`,
-  refuse: (err) => badRequest(`The upload could not be read: ${(err as { message?: string }).message ?? 'unknown error'}.`),
+  refuse: (err) =>
+    badRequest(`The upload could not be read: ${(err as { message?: string }).message ?? 'unknown error'}.`),
 });
 
 const mayImport: RequestHandler = (req, _res, next) => (can(actorOf(req), 'import:run') ? next() : next(forbidden()));
@@ -32,7 +36,10 @@ function mappingOf(raw: unknown): ColumnMapping {
 
 importRouter.post('/pieces', requireUser, mayImport, receiveFile, async (req, res) => {
   const { dryRun } = parseQuery(importQuery, req);
-  if (!req.file) throw badRequest('Choose a CSV file to upload (form field "file").', { fields: { file: ['A CSV file is required.'] } });
+  if (!req.file)
+    throw badRequest('Choose a CSV file to upload (form field "file").', {
+      fields: { file: ['A CSV file is required.'] },
+    });
   const mapping = mappingOf((req.body as Record<string, unknown> | undefined)?.mapping);
   if (dryRun) {
     const { checked, fileErrors } = await checkCsv(req.file.buffer, mapping);

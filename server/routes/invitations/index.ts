@@ -28,7 +28,9 @@ invitationsRouter.get('/:token', async (req, res) => {
 invitationsRouter.post('/:token/accept', async (req, res, next) => {
   const { token } = parseParams(tokenParams, req);
   const input = parseBody(acceptInvitationSchema, req);
-  const user = await sequelize.transaction((transaction) => acceptInvitation({ actor: actorOf(req), transaction, input: { ...input, token } }));
+  const user = await sequelize.transaction((transaction) =>
+    acceptInvitation({ actor: actorOf(req), transaction, input: { ...input, token } }),
+  );
   // The new member is signed in straight away (a fresh session id, as at every sign-in).
   req.logIn(user, (e) => (e ? next(e) : res.status(201).json({ user: presentUser(user) })));
 });

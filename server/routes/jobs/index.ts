@@ -16,11 +16,16 @@ import '../../jobs/handlers/index.ts';
 export const jobsRouter = Router();
 
 // Retrying is the right of whoever may change the job's subject.
-const mayRetry = (actor: Actor, job: Job) => (job.type === 'fixity-check' ? can(actor, 'fixity:run') : can(actor, 'photo:update'));
+const mayRetry = (actor: Actor, job: Job) =>
+  job.type === 'fixity-check' ? can(actor, 'fixity:run') : can(actor, 'photo:update');
 // Reading a job: fixity reports are for admins; photo jobs follow the photo.
 async function mayRead(actor: Actor, job: Job) {
   if (job.type === 'fixity-check') return can(actor, 'fixity:run');
-  if (job.subjectType === 'photo' && job.subjectId != null) return readablePhoto(actor, job.subjectId).then(() => true, () => false);
+  if (job.subjectType === 'photo' && job.subjectId != null)
+    return readablePhoto(actor, job.subjectId).then(
+      () => true,
+      () => false,
+    );
   return can(actor, 'fixity:run');
 }
 
@@ -35,8 +40,20 @@ jobsRouter.get('/', requireUser, async (req, res) => {
     throw forbidden('Ask for the jobs of one photo (photoId).');
   }
   if (q.type) Object.assign(where, { type: q.type });
-  const { rows, count } = await Job.findAndCountAll({ where, order: [['id', 'DESC']], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
-  res.json(toPaged(rows.map((j) => presentJob(j, mayRetry(actor, j))), count, q.page, q.pageSize));
+  const { rows, count } = await Job.findAndCountAll({
+    where,
+    order: [['id', 'DESC']],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+  });
+  res.json(
+    toPaged(
+      rows.map((j) => presentJob(j, mayRetry(actor, j))),
+      count,
+      q.page,
+      q.pageSize,
+    ),
+  );
 });
 
 jobsRouter.get('/:id', requireUser, async (req, res) => {

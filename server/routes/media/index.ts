@@ -27,6 +27,8 @@ mediaRouter.get('/photos/:id/:kind', async (req, res) => {
   // Relative to the uploads root, so a dot-folder above it (such as .data/) is not mistaken for a dotfile.
   const root = uploadsDir();
   await new Promise<void>((resolve, reject) =>
-    res.sendFile(path.relative(root, file), { root, dotfiles: 'deny' }, (err) => (err && !res.headersSent ? reject(notFound('Photo file')) : resolve())),
+    res.sendFile(path.relative(root, file), { root, dotfiles: 'deny' }, (err) =>
+      err && !res.headersSent ? reject(notFound('Photo file')) : resolve(),
+    ),
   );
 });

@@ -15,8 +15,17 @@ outboxRouter.get('/', requireUser, async (req, res) => {
   const { page, pageSize } = parseQuery(outboxQuery, req);
   if (!can(actorOf(req), 'outbox:read')) throw forbidden();
   const files = await mailFiles(mailDir());
-  const items = await Promise.all(files.slice((page - 1) * pageSize, page * pageSize).map((f) => readMail(mailDir(), f)));
+  const items = await Promise.all(
+    files.slice((page - 1) * pageSize, page * pageSize).map((f) => readMail(mailDir(), f)),
+  );
   // The HTML part stays out of the list (the page shows the text).
-  const present = ({ id, subject, from, to, date, text }: CaughtMail): OutboxMessage => ({ id, subject, from, to, date, text });
+  const present = ({ id, subject, from, to, date, text }: CaughtMail): OutboxMessage => ({
+    id,
+    subject,
+    from,
+    to,
+    date,
+    text,
+  });
   res.json(toPaged(items.map(present), files.length, page, pageSize));
 });

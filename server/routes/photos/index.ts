@@ -18,7 +18,14 @@ import { can, type Actor } from '../../policies/index.ts';
 import type { Action } from '../../../shared/abilities.ts';
 import { presentPalettes, presentPhoto, presentRegion } from '../../presenters/photo.ts';
 import {
-  addRegion, clearReferencePatch, deletePhoto, removeRegion, setPaletteBackground, setReferencePatch, updatePhoto, updateRegion,
+  addRegion,
+  clearReferencePatch,
+  deletePhoto,
+  removeRegion,
+  setPaletteBackground,
+  setReferencePatch,
+  updatePhoto,
+  updateRegion,
 } from '../../services/photos.ts';
 import { loadReadablePhoto, loadWritablePhoto } from './load.ts';
 
@@ -34,7 +41,10 @@ async function writable(actor: Actor, id: number, action: Action) {
 photosRouter.get('/:id', async (req, res) => {
   const actor = actorOf(req);
   const { photo } = await loadReadablePhoto(actor, parseParams(photoParams, req).id);
-  const [palette, regions] = await Promise.all([PaletteColour.findAll({ where: { photoId: photo.id } }), Region.findAll({ where: { photoId: photo.id } })]);
+  const [palette, regions] = await Promise.all([
+    PaletteColour.findAll({ where: { photoId: photo.id } }),
+    Region.findAll({ where: { photoId: photo.id } }),
+  ]);
   res.json({ photo: presentPhoto(photo, actor, { palette, regions }) });
 });
 
@@ -43,7 +53,10 @@ photosRouter.patch('/:id', async (req, res) => {
   const input = parseBody(photoUpdateSchema, req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'photo:update');
   await sequelize.transaction((transaction) => updatePhoto({ actor, transaction, input: { photo, changes: input } }));
-  const [palette, regions] = await Promise.all([PaletteColour.findAll({ where: { photoId: photo.id } }), Region.findAll({ where: { photoId: photo.id } })]);
+  const [palette, regions] = await Promise.all([
+    PaletteColour.findAll({ where: { photoId: photo.id } }),
+    Region.findAll({ where: { photoId: photo.id } }),
+  ]);
   res.json({ photo: presentPhoto(photo, actor, { palette, regions }) });
 });
 
@@ -72,7 +85,9 @@ photosRouter.post('/:id/regions', async (req, res) => {
   const actor = actorOf(req);
   const input = parseBody(regionCreateSchema, req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:create');
-  const { region, palettes } = await inTransaction((transaction) => addRegion({ actor, transaction, input: { photo, region: input } }));
+  const { region, palettes } = await inTransaction((transaction) =>
+    addRegion({ actor, transaction, input: { photo, region: input } }),
+  );
   res.status(201).json({ region: presentRegion(region), palettes });
 });
 
@@ -88,7 +103,9 @@ photosRouter.patch('/:id/regions/:regionId', async (req, res) => {
   const input = parseBody(regionUpdateSchema, req);
   const { photo } = await writable(actor, id, 'region:update');
   const region = await loadRegion(photo, regionId);
-  const { palettes } = await inTransaction((transaction) => updateRegion({ actor, transaction, input: { photo, region, changes: input } }));
+  const { palettes } = await inTransaction((transaction) =>
+    updateRegion({ actor, transaction, input: { photo, region, changes: input } }),
+  );
   res.json({ region: presentRegion(region), palettes });
 });
 
@@ -97,7 +114,9 @@ photosRouter.delete('/:id/regions/:regionId', async (req, res) => {
   const { id, regionId } = parseParams(regionParams, req);
   const { photo } = await writable(actor, id, 'region:delete');
   const region = await loadRegion(photo, regionId);
-  const { palettes } = await inTransaction((transaction) => removeRegion({ actor, transaction, input: { photo, region } }));
+  const { palettes } = await inTransaction((transaction) =>
+    removeRegion({ actor, transaction, input: { photo, region } }),
+  );
   res.json({ palettes });
 });
 
@@ -105,14 +124,18 @@ photosRouter.put('/:id/reference-patch', async (req, res) => {
   const actor = actorOf(req);
   const rect = parseBody(rectSchema, req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:update');
-  const { palettes } = await inTransaction((transaction) => setReferencePatch({ actor, transaction, input: { photo, rect } }));
+  const { palettes } = await inTransaction((transaction) =>
+    setReferencePatch({ actor, transaction, input: { photo, rect } }),
+  );
   res.json({ referencePatch: photo.referencePatch, palettes });
 });
 
 photosRouter.delete('/:id/reference-patch', async (req, res) => {
   const actor = actorOf(req);
   const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:delete');
-  const { palettes } = await inTransaction((transaction) => clearReferencePatch({ actor, transaction, input: { photo } }));
+  const { palettes } = await inTransaction((transaction) =>
+    clearReferencePatch({ actor, transaction, input: { photo } }),
+  );
   res.json({ referencePatch: null, palettes });
 });
 
@@ -123,6 +146,8 @@ photosRouter.patch('/:id/palette/:colourId', async (req, res) => {
   const { photo } = await writable(actor, id, 'region:update');
   const colour = await PaletteColour.findOne({ where: { id: colourId, photoId: photo.id } });
   if (!colour) throw notFound('Palette colour');
-  const { palettes } = await inTransaction((transaction) => setPaletteBackground({ actor, transaction, input: { photo, colour, background } }));
+  const { palettes } = await inTransaction((transaction) =>
+    setPaletteBackground({ actor, transaction, input: { photo, colour, background } }),
+  );
   res.json({ palettes });
 });

@@ -19,12 +19,17 @@ const MAX_FILES = 20;
 
 /** multer's errors in the API's own words. */
 const receiveFiles = receiveUpload({
-  field: UPLOAD_FIELD, maxFiles: MAX_FILES, maxBytes: MAX_UPLOAD_BYTES, maxFields: 10,
+  field: UPLOAD_FIELD,
+  maxFiles: MAX_FILES,
+  maxBytes: MAX_UPLOAD_BYTES,
+  maxFields: 10,
   tooLarge: (err) => `${err.field ? 'A file' : 'The upload'} is larger than 60 MB.`,
   refuse: (err) => {
     if (!(err instanceof multer.MulterError)) return null;
     if (err.code === 'LIMIT_UNEXPECTED_FILE')
-      return badRequest(`Send photos in the form field "${UPLOAD_FIELD}"; "${err.field}" is not expected.`, { fields: { [err.field ?? '_']: ['Unexpected file field'] } });
+      return badRequest(`Send photos in the form field "${UPLOAD_FIELD}"; "${err.field}" is not expected.`, {
+        fields: { [err.field ?? '_']: ['Unexpected file field'] },
+      });
     if (err.code === 'LIMIT_FILE_COUNT') return badRequest(`Send at most ${MAX_FILES} photos at once.`);
     return badRequest(`The upload could not be read: ${err.message}.`);
   },
@@ -40,19 +45,32 @@ photoUploadRouter.post('/', requireUser, async (req, res, next) => {
     if (err) return next(err);
     try {
       const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-      if (!files.length) throw badRequest(`Attach one or more photos in the form field "${UPLOAD_FIELD}".`, { fields: { [UPLOAD_FIELD]: ['Attach a photo'] } });
+      if (!files.length)
+        throw badRequest(`Attach one or more photos in the form field "${UPLOAD_FIELD}".`, {
+          fields: { [UPLOAD_FIELD]: ['Attach a photo'] },
+        });
       const photos = [];
       for (const [index, file] of files.entries()) {
         try {
           // One photo, all rows in one transaction; any failure removes every file it wrote.
           const { photo, palette } = await sequelize.transaction((transaction) =>
-            addPhoto({ actor, transaction, input: { buffer: file.buffer, originalName: file.originalname, pieceId: piece.id } }));
+            addPhoto({
+              actor,
+              transaction,
+              input: { buffer: file.buffer, originalName: file.originalname, pieceId: piece.id },
+            }),
+          );
           photos.push(presentPhoto(photo, actor, { palette }));
         } catch (e) {
           // Earlier files of the same request stay stored; the answer names the one refused.
           if (e instanceof HttpError) {
             e.message = `${file.originalname || `File ${index + 1}`}: ${e.message}`;
-            e.details = { ...(e.details as object | undefined), file: file.originalname, index, stored: photos.map((p) => p.id) };
+            e.details = {
+              ...(e.details as object | undefined),
+              file: file.originalname,
+              index,
+              stored: photos.map((p) => p.id),
+            };
           }
           throw e;
         }

@@ -18,16 +18,23 @@ piecesRouter.get('/', async (req, res) => {
   const actor = actorOf(req);
   const q = parseQuery(pieceListQuery, req);
   if (q.deleted && !actor) throw unauthorized();
-  if (q.deleted && !can(actor, 'piece:read', { deleted: true })) throw forbidden('Only curators and admins see deleted pieces.');
+  if (q.deleted && !can(actor, 'piece:read', { deleted: true }))
+    throw forbidden('Only curators and admins see deleted pieces.');
   const { rows, total, firstPhoto } = await listPieces(actor, q);
-  res.json({ items: rows.map((p) => presentPieceRow(p, firstPhoto.get(p.id) ?? null)), total, page: q.page, pageSize: q.pageSize });
+  res.json({
+    items: rows.map((p) => presentPieceRow(p, firstPhoto.get(p.id) ?? null)),
+    total,
+    page: q.page,
+    pageSize: q.pageSize,
+  });
 });
 
 piecesRouter.post('/', requireUser, async (req, res) => {
   const actor = actorOf(req);
   const input = parseBody(pieceCreateSchema, req);
   if (!can(actor, 'piece:create')) throw forbidden();
-  if (input.status === 'published' && !can(actor, 'piece:publish')) throw forbidden('Your role may not publish pieces.');
+  if (input.status === 'published' && !can(actor, 'piece:publish'))
+    throw forbidden('Your role may not publish pieces.');
   const piece = await sequelize.transaction((transaction) => createPiece({ actor, transaction, input }));
   res.status(201).json({ piece: presentPiece(piece, actor) });
 });
@@ -47,8 +54,11 @@ piecesRouter.patch('/:id', requireUser, async (req, res) => {
   const piece = await loadReadablePiece(actor, id);
   if (piece.deletedAt) throw notFound('Piece');
   if (!can(actor, 'piece:update', pieceRecord(piece))) throw forbidden();
-  if (changes.status && changes.status !== piece.status && !can(actor, 'piece:publish', pieceRecord(piece))) throw forbidden('Your role may not publish pieces.');
-  const updated = await sequelize.transaction((transaction) => updatePiece({ actor, transaction, input: { piece, changes } }));
+  if (changes.status && changes.status !== piece.status && !can(actor, 'piece:publish', pieceRecord(piece)))
+    throw forbidden('Your role may not publish pieces.');
+  const updated = await sequelize.transaction((transaction) =>
+    updatePiece({ actor, transaction, input: { piece, changes } }),
+  );
   res.json({ piece: presentPiece(updated, actor) });
 });
 

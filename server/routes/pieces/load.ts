@@ -13,9 +13,12 @@ export async function loadReadablePiece(actor: Actor, id: number) {
   return piece;
 }
 
-const jsonHas = (column: string, value: string) => Sequelize.literal(`JSON_CONTAINS(\`Piece\`.\`${column}\`, ${sequelize.escape(JSON.stringify(value))})`);
+const jsonHas = (column: string, value: string) =>
+  Sequelize.literal(`JSON_CONTAINS(\`Piece\`.\`${column}\`, ${sequelize.escape(JSON.stringify(value))})`);
 const jsonNameHas = (column: string, value: string) =>
-  Sequelize.literal(`JSON_SEARCH(\`Piece\`.\`${column}\`, 'one', ${sequelize.escape(value)}, NULL, '$[*].name') IS NOT NULL`);
+  Sequelize.literal(
+    `JSON_SEARCH(\`Piece\`.\`${column}\`, 'one', ${sequelize.escape(value)}, NULL, '$[*].name') IS NOT NULL`,
+  );
 
 export async function listPieces(actor: Actor, q: PieceListQuery) {
   const and: WhereOptions[] = [];
@@ -30,7 +33,13 @@ export async function listPieces(actor: Actor, q: PieceListQuery) {
     const like = `%${escape(q.q)}%`;
     // "ex2021/1" finds EX 2021/1: accession numbers are also matched without case and spaces.
     const key = `%${escape(accessionKey(q.q))}%`;
-    and.push({ [Op.or]: [{ accessionNumber: { [Op.like]: like } }, { accessionKey: { [Op.like]: key } }, { title: { [Op.like]: like } }] });
+    and.push({
+      [Op.or]: [
+        { accessionNumber: { [Op.like]: like } },
+        { accessionKey: { [Op.like]: key } },
+        { title: { [Op.like]: like } },
+      ],
+    });
   }
   const { rows, count } = await Piece.findAndCountAll({
     where: { [Op.and]: and },
@@ -45,7 +54,11 @@ export async function listPieces(actor: Actor, q: PieceListQuery) {
   });
   const firstPhoto = new Map<number, number>();
   if (rows.length) {
-    const photos = await Photo.findAll({ where: { pieceId: rows.map((p) => p.id) }, attributes: ['id', 'pieceId'], order: [['id', 'ASC']] });
+    const photos = await Photo.findAll({
+      where: { pieceId: rows.map((p) => p.id) },
+      attributes: ['id', 'pieceId'],
+      order: [['id', 'ASC']],
+    });
     for (const ph of photos) if (ph.pieceId != null && !firstPhoto.has(ph.pieceId)) firstPhoto.set(ph.pieceId, ph.id);
   }
   return { rows, total: count, firstPhoto };
@@ -55,7 +68,10 @@ export async function loadPhotosOf(pieceId: number) {
   const photos = await Photo.findAll({ where: { pieceId }, order: [['id', 'ASC']] });
   const ids = photos.map((p) => p.id);
   const [palette, regions] = ids.length
-    ? await Promise.all([PaletteColour.findAll({ where: { photoId: ids } }), Region.findAll({ where: { photoId: ids }, order: [['id', 'ASC']] })])
+    ? await Promise.all([
+        PaletteColour.findAll({ where: { photoId: ids } }),
+        Region.findAll({ where: { photoId: ids }, order: [['id', 'ASC']] }),
+      ])
     : [[], []];
   return photos.map((photo) => ({
     photo,

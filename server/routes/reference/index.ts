@@ -1,6 +1,12 @@
 import { Router } from 'express';
 import { Op, type WhereOptions } from 'sequelize';
-import { chemicalCreateSchema, chemicalListQuery, chemicalPatchSchema, dyestuffCreateSchema, dyestuffListQuery } from '../../../shared/schemas/reference.ts';
+import {
+  chemicalCreateSchema,
+  chemicalListQuery,
+  chemicalPatchSchema,
+  dyestuffCreateSchema,
+  dyestuffListQuery,
+} from '../../../shared/schemas/reference.ts';
 import { idParams, toPaged } from '../../../shared/schemas/common.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
@@ -56,14 +62,18 @@ chemicalsRouter.patch('/:id', requireUser, async (req, res) => {
   const chemical = await Chemical.findByPk(id);
   if (!chemical || !can(actor, 'reference:read')) throw notFound('Chemical');
   if (!can(actor, 'reference:manage')) throw forbidden();
-  const updated = await sequelize.transaction((transaction) => updateChemical({ actor, transaction, input: { chemical, patch } }));
+  const updated = await sequelize.transaction((transaction) =>
+    updateChemical({ actor, transaction, input: { chemical, patch } }),
+  );
   res.json(presentChemical(updated));
 });
 
 dyestuffsRouter.get('/', async (req, res) => {
   const query = parseQuery(dyestuffListQuery, req);
   if (!can(actorOf(req), 'reference:read')) throw forbidden();
-  const where: WhereOptions<Dyestuff> = query.q ? { [Op.or]: [{ name: like(query.q) }, { ciName: like(query.q) }] } : {};
+  const where: WhereOptions<Dyestuff> = query.q
+    ? { [Op.or]: [{ name: like(query.q) }, { ciName: like(query.q) }] }
+    : {};
   const { rows, count } = await Dyestuff.findAndCountAll({
     where,
     order: [['name', 'ASC']],

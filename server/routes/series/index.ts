@@ -1,5 +1,10 @@
 import { Router, type Request } from 'express';
-import { seriesCreateSchema, seriesListQuery, seriesPreviewSchema, seriesUpdateSchema } from '../../../shared/schemas/series.ts';
+import {
+  seriesCreateSchema,
+  seriesListQuery,
+  seriesPreviewSchema,
+  seriesUpdateSchema,
+} from '../../../shared/schemas/series.ts';
 import { idParams, toPaged } from '../../../shared/schemas/common.ts';
 import { abilities, actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound, unprocessable } from '../../http/errors.ts';
@@ -32,14 +37,19 @@ const full = async (req: Request, s: TrialSeries) =>
 
 seriesRouter.get('/', async (req, res) => {
   const q = parseQuery(seriesListQuery, req);
-  const { rows, count } = await TrialSeries.findAndCountAll({ order: [['code', 'ASC']], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
+  const { rows, count } = await TrialSeries.findAndCountAll({
+    order: [['code', 'ASC']],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+  });
   res.json(toPaged(rows.map(presentSeriesSummary), count, q.page, q.pageSize));
 });
 
 /** Cells a set of factors would make, before anything is saved. */
 seriesRouter.post('/preview', async (req, res) => {
   const { factors } = parseBody(seriesPreviewSchema, req);
-  if (new Set(factors.map((f) => f.name)).size !== factors.length) throw unprocessable('Each factor needs its own name.', { fields: { factors: ['Two factors share a name'] } });
+  if (new Set(factors.map((f) => f.name)).size !== factors.length)
+    throw unprocessable('Each factor needs its own name.', { fields: { factors: ['Two factors share a name'] } });
   const cells = expand(factors);
   res.json({ count: cells.length, cells: cells.slice(0, 500) });
 });
@@ -68,18 +78,28 @@ seriesRouter.post('/:id/trials', async (req, res) => {
   const actor = actorOf(req)!;
   if (!can(actor, 'series:update', record(s)) || !can(actor, 'trial:create')) throw forbidden();
   const created = await withTrialCode((transaction) => createSeriesTrials({ actor, transaction, series: s }));
-  res.status(201).json({ created: created.map((t) => ({ id: t.id, code: t.code, cell: t.cell })), series: await full(req, s) });
+  res
+    .status(201)
+    .json({ created: created.map((t) => ({ id: t.id, code: t.code, cell: t.cell })), series: await full(req, s) });
 });
 
 seriesRouter.get('/:id/cards.pdf', async (req, res) => {
   const s = await load(req);
   const trials = await trialsOf(s);
-  sendPdf(res, `${s.code}-cards.pdf`, await cardsPdf(`Sample cards ${s.code}`, await loadCards(trials.map((t) => t.id))));
+  sendPdf(
+    res,
+    `${s.code}-cards.pdf`,
+    await cardsPdf(`Sample cards ${s.code}`, await loadCards(trials.map((t) => t.id))),
+  );
 });
 
 seriesRouter.get('/:id/labels.pdf', async (req, res) => {
   const s = await load(req);
-  const trials = await Trial.findAll({ where: { seriesId: s.id }, include: [{ model: RecipeStep, as: 'steps' }], order: [['code', 'ASC']] });
+  const trials = await Trial.findAll({
+    where: { seriesId: s.id },
+    include: [{ model: RecipeStep, as: 'steps' }],
+    order: [['code', 'ASC']],
+  });
   const labels = await Promise.all(
     trials.map(async (t) => {
       const steps = (t as Trial & { steps?: RecipeStep[] }).steps ?? [];
@@ -87,7 +107,9 @@ seriesRouter.get('/:id/labels.pdf', async (req, res) => {
       return {
         title: `${t.code} · ${s.code}`,
         lines: [
-          Object.entries(t.cell ?? {}).map(([k, v]) => `${k}: ${v}`).join(' · '),
+          Object.entries(t.cell ?? {})
+            .map(([k, v]) => `${k}: ${v}`)
+            .join(' · '),
           `${t.dryMassG} g dry${s.heldOn ? `, ${s.heldOn}` : ''}`,
           steps.flatMap((st) => st.ingredients.map((i) => i.name)).join(', '),
         ].filter(Boolean),

@@ -16,7 +16,14 @@ export const teamRouter = Router();
 teamRouter.get('/', requireUser, async (req, res) => {
   const { page, pageSize } = parseQuery(teamQuerySchema, req);
   if (!can(actorOf(req), 'team:manage')) throw forbidden();
-  const { rows, count } = await User.findAndCountAll({ order: [['active', 'DESC'], ['name', 'ASC']], limit: pageSize, offset: (page - 1) * pageSize });
+  const { rows, count } = await User.findAndCountAll({
+    order: [
+      ['active', 'DESC'],
+      ['name', 'ASC'],
+    ],
+    limit: pageSize,
+    offset: (page - 1) * pageSize,
+  });
   res.json(toPaged(rows.map(presentTeamMember), count, page, pageSize));
 });
 
@@ -25,7 +32,9 @@ teamRouter.patch('/:id', requireUser, async (req, res) => {
   const input = parseBody(teamPatchSchema, req);
   const actor = actorOf(req);
   if (!can(actor, 'team:manage')) throw forbidden();
-  const member = await sequelize.transaction((transaction) => updateMember({ actor, transaction, input: { ...input, id } }));
+  const member = await sequelize.transaction((transaction) =>
+    updateMember({ actor, transaction, input: { ...input, id } }),
+  );
   res.json({ member: presentTeamMember(member) });
 });
 

@@ -1,7 +1,15 @@
 import express, { Router } from 'express';
 import { Transaction } from 'sequelize';
 import { idParams } from '../../../shared/schemas/common.ts';
-import { childParams, measurementSchema, stepsSchema, substitutionSchema, trialCreateSchema, trialListQuerySchema, trialUpdateSchema } from '../../../shared/schemas/trial.ts';
+import {
+  childParams,
+  measurementSchema,
+  stepsSchema,
+  substitutionSchema,
+  trialCreateSchema,
+  trialListQuerySchema,
+  trialUpdateSchema,
+} from '../../../shared/schemas/trial.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
@@ -11,7 +19,15 @@ import { presentMeasurement } from '../../presenters/trial.ts';
 import { withTrialCode } from '../../services/trials/code.ts';
 import { addMeasurement, importMeasurements, removeMeasurement } from '../../services/trials/measurements.ts';
 import { notifyCurator } from '../../services/trials/notify.ts';
-import { addSubstitution, createTrial, deleteTrial, removeSubstitution, replaceSteps, updateSubstitution, updateTrial } from '../../services/trials/trials.ts';
+import {
+  addSubstitution,
+  createTrial,
+  deleteTrial,
+  removeSubstitution,
+  replaceSteps,
+  updateSubstitution,
+  updateTrial,
+} from '../../services/trials/trials.ts';
 import { listTrials, loadReadableTrial, loadWritableTrial, presentTrialDetail } from './load.ts';
 import { trialPhotosRouter } from './photos.ts';
 import { pieceTrialsRouter } from './pieces.ts';
@@ -63,7 +79,8 @@ trialsRouter.delete('/:id', async (req, res) => {
   const actor = actorOf(req);
   const { id } = parseParams(idParams, req);
   const trial = await loadReadableTrial(actor, id);
-  if (!can(actor, 'trial:delete', { ownerId: trial.dyerId })) throw forbidden('Only the dyer who keeps this trial may delete it.');
+  if (!can(actor, 'trial:delete', { ownerId: trial.dyerId }))
+    throw forbidden('Only the dyer who keeps this trial may delete it.');
   await sequelize.transaction(drawing, (transaction) => deleteTrial({ actor, transaction, input: { trial } }));
   res.status(204).end();
 });
@@ -74,7 +91,9 @@ trialsRouter.put('/:id/steps', async (req, res) => {
   const { id } = parseParams(idParams, req);
   const input = parseBody(stepsSchema, req);
   const trial = await loadWritableTrial(actor, id);
-  await sequelize.transaction(drawing, (transaction) => replaceSteps({ actor, transaction, input: { ...input, trial } }));
+  await sequelize.transaction(drawing, (transaction) =>
+    replaceSteps({ actor, transaction, input: { ...input, trial } }),
+  );
   const detail = await presentTrialDetail(actor, trial);
   res.json({ trial: detail, warnings: detail.warnings, warning: detail.warnings.length > 0 });
 });
@@ -84,9 +103,13 @@ trialsRouter.post('/:id/substitutions', async (req, res) => {
   const { id } = parseParams(idParams, req);
   const input = parseBody(substitutionSchema, req);
   const trial = await loadWritableTrial(actor, id);
-  const sub = await sequelize.transaction((transaction) => addSubstitution({ actor, transaction, input: { ...input, trial } }));
+  const sub = await sequelize.transaction((transaction) =>
+    addSubstitution({ actor, transaction, input: { ...input, trial } }),
+  );
   const detail = await presentTrialDetail(actor, trial);
-  res.status(201).json({ substitution: detail.substitutions.find((s) => s.id === sub.id), metalLoad: detail.metalLoad });
+  res
+    .status(201)
+    .json({ substitution: detail.substitutions.find((s) => s.id === sub.id), metalLoad: detail.metalLoad });
 });
 
 async function loadSubstitution(trialId: number, id: number) {
@@ -101,7 +124,9 @@ trialsRouter.put('/:id/substitutions/:childId', async (req, res) => {
   const input = parseBody(substitutionSchema, req);
   const trial = await loadWritableTrial(actor, id);
   const substitution = await loadSubstitution(trial.id, childId);
-  await sequelize.transaction((transaction) => updateSubstitution({ actor, transaction, input: { ...input, substitution } }));
+  await sequelize.transaction((transaction) =>
+    updateSubstitution({ actor, transaction, input: { ...input, substitution } }),
+  );
   const detail = await presentTrialDetail(actor, trial);
   res.json({ substitution: detail.substitutions.find((s) => s.id === childId), metalLoad: detail.metalLoad });
 });
@@ -120,7 +145,9 @@ trialsRouter.post('/:id/measurements', async (req, res) => {
   const { id } = parseParams(idParams, req);
   const input = parseBody(measurementSchema, req);
   const trial = await loadWritableTrial(actor, id);
-  const m = await sequelize.transaction((transaction) => addMeasurement({ actor, transaction, input: { ...input, trial } }));
+  const m = await sequelize.transaction((transaction) =>
+    addMeasurement({ actor, transaction, input: { ...input, trial } }),
+  );
   res.status(201).json({ measurement: presentMeasurement(m) });
 });
 
@@ -135,15 +162,24 @@ trialsRouter.delete('/:id/measurements/:childId', async (req, res) => {
 });
 
 /** A CSV of readings: all rows, or none with the bad lines listed. */
-trialsRouter.post('/:id/measurements/import', express.text({ type: ['text/csv', 'text/plain', 'application/csv'], limit: '2mb' }), async (req, res) => {
-  const actor = actorOf(req);
-  const { id } = parseParams(idParams, req);
-  const trial = await loadWritableTrial(actor, id);
-  // The file as the body (text/csv), or { csv: "…" } as JSON.
-  const csv: unknown = typeof req.body === 'string' ? req.body : req.body?.csv;
-  if (typeof csv !== 'string' || !csv.trim()) throw badRequest('Send the CSV file as the request body (Content-Type text/csv) or as { "csv": "…" }.', { fields: { csv: ['Attach a CSV file of readings'] } });
-  const rows = await sequelize.transaction((transaction) => importMeasurements({ actor, transaction, input: { trial, csv } }));
-  res.status(201).json({ imported: rows.length, measurements: rows.map(presentMeasurement) });
-});
+trialsRouter.post(
+  '/:id/measurements/import',
+  express.text({ type: ['text/csv', 'text/plain', 'application/csv'], limit: '2mb' }),
+  async (req, res) => {
+    const actor = actorOf(req);
+    const { id } = parseParams(idParams, req);
+    const trial = await loadWritableTrial(actor, id);
+    // The file as the body (text/csv), or { csv: "…" } as JSON.
+    const csv: unknown = typeof req.body === 'string' ? req.body : req.body?.csv;
+    if (typeof csv !== 'string' || !csv.trim())
+      throw badRequest('Send the CSV file as the request body (Content-Type text/csv) or as { "csv": "…" }.', {
+        fields: { csv: ['Attach a CSV file of readings'] },
+      });
+    const rows = await sequelize.transaction((transaction) =>
+      importMeasurements({ actor, transaction, input: { trial, csv } }),
+    );
+    res.status(201).json({ imported: rows.length, measurements: rows.map(presentMeasurement) });
+  },
+);
 
 trialsRouter.use('/:id/photos', trialPhotosRouter);

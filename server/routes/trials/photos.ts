@@ -14,11 +14,17 @@ import { loadWritableTrial } from './load.ts';
 export const trialPhotosRouter = Router({ mergeParams: true });
 
 const receiveOne = receiveUpload({
-  field: UPLOAD_FIELD, maxFiles: 1, maxBytes: MAX_UPLOAD_BYTES, maxFields: 5,
+  field: UPLOAD_FIELD,
+  maxFiles: 1,
+  maxBytes: MAX_UPLOAD_BYTES,
+  maxFields: 5,
   tooLarge: () => 'The photo is larger than 60 MB.',
-  refuse: (err) => (err instanceof multer.MulterError
-    ? badRequest(`Send one swatch photo in the form field "${UPLOAD_FIELD}".`, { fields: { [UPLOAD_FIELD]: [err.message] } })
-    : null),
+  refuse: (err) =>
+    err instanceof multer.MulterError
+      ? badRequest(`Send one swatch photo in the form field "${UPLOAD_FIELD}".`, {
+          fields: { [UPLOAD_FIELD]: [err.message] },
+        })
+      : null,
 });
 
 trialPhotosRouter.post('/', async (req, res, next) => {
@@ -29,12 +35,36 @@ trialPhotosRouter.post('/', async (req, res, next) => {
     if (err) return next(err);
     try {
       const file = req.file;
-      if (!file) throw badRequest(`Attach the swatch photo in the form field "${UPLOAD_FIELD}".`, { fields: { [UPLOAD_FIELD]: ['Attach a photo'] } });
+      if (!file)
+        throw badRequest(`Attach the swatch photo in the form field "${UPLOAD_FIELD}".`, {
+          fields: { [UPLOAD_FIELD]: ['Attach a photo'] },
+        });
       const { photo, palette } = await sequelize.transaction((transaction) =>
-        addPhoto({ actor, transaction, input: { buffer: file.buffer, originalName: file.originalname, trialId: trial.id, view: 'swatch' } }));
+        addPhoto({
+          actor,
+          transaction,
+          input: { buffer: file.buffer, originalName: file.originalname, trialId: trial.id, view: 'swatch' },
+        }),
+      );
       res.status(201).json({
-        photo: { id: photo.id, width: photo.width, height: photo.height, view: photo.view, originalName: photo.originalName },
-        palette: palette.map((c: PaletteColour) => ({ rank: c.rank, L: c.L, a: c.a, b: c.b, hex: c.hex, share: c.share, name: c.name, variant: c.variant, background: c.background })),
+        photo: {
+          id: photo.id,
+          width: photo.width,
+          height: photo.height,
+          view: photo.view,
+          originalName: photo.originalName,
+        },
+        palette: palette.map((c: PaletteColour) => ({
+          rank: c.rank,
+          L: c.L,
+          a: c.a,
+          b: c.b,
+          hex: c.hex,
+          share: c.share,
+          name: c.name,
+          variant: c.variant,
+          background: c.background,
+        })),
       });
     } catch (e) {
       next(e);

@@ -21,9 +21,16 @@ pieceTrialsRouter.get('/:id/trials', requireUser, async (req, res) => {
   const { id } = parseParams(idParams, req);
   const { page, pageSize } = parseQuery(pieceTrialsQuery, req);
   const piece = await loadReadablePiece(actor, id);
-  const [list, measurements] = await Promise.all([listTrials(actor, { pieceId: piece.id, page, pageSize }), pieceMeasurements(piece.id)]);
+  const [list, measurements] = await Promise.all([
+    listTrials(actor, { pieceId: piece.id, page, pageSize }),
+    pieceMeasurements(piece.id),
+  ]);
   // The instrument readings of the original, offered as trial targets beside its regions and palettes.
-  res.json({ ...list, piece: { id: piece.id, accessionNumber: piece.accessionNumber, title: piece.title }, targets: { measurements: measurements.map(presentMeasurement) } });
+  res.json({
+    ...list,
+    piece: { id: piece.id, accessionNumber: piece.accessionNumber, title: piece.title },
+    targets: { measurements: measurements.map(presentMeasurement) },
+  });
 });
 
 /** Attach a new trial to the piece; the curator who catalogued it is told by e-mail. */
@@ -36,5 +43,7 @@ pieceTrialsRouter.post('/:id/trials', requireUser, async (req, res) => {
   if (!can(actor, 'trial:create')) throw forbidden('Only dyers record trials.');
   const created = await withTrialCode((transaction) => createTrial({ actor, transaction, input }));
   const notified = await notifyCurator(created, actor);
-  res.status(201).json({ trial: await presentTrialDetail(actor, await loadReadableTrial(actor, created.id)), notified });
+  res
+    .status(201)
+    .json({ trial: await presentTrialDetail(actor, await loadReadableTrial(actor, created.id)), notified });
 });

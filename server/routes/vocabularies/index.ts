@@ -17,7 +17,14 @@ vocabulariesRouter.get('/', async (_req, res) => {
     weaves: of('weave'),
     techniques: of('technique'),
     dyestuffs: dyestuffs.map((d) => ({ name: d.name, ciName: d.ciName })),
-    mordants: mordants.map((c) => ({ name: c.name, formula: c.formula, status: c.status, signalWord: c.signalWord, hStatements: c.hStatements, ppe: c.ppe })),
+    mordants: mordants.map((c) => ({
+      name: c.name,
+      formula: c.formula,
+      status: c.status,
+      signalWord: c.signalWord,
+      hStatements: c.hStatements,
+      ppe: c.ppe,
+    })),
   };
   res.json(body);
 });

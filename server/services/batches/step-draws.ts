@@ -5,7 +5,13 @@ import { eventOrder, thickenerIds } from './index.ts';
 import { checkHistory } from './ledger-figures.ts';
 
 /** A step as saved: its draw (bath and volume) and, when it continues a stored step, that step's id. */
-export type StepDraw = { index: number; stepId: number; continues: number | null; batchId: number | null; volumeMl: number | null };
+export type StepDraw = {
+  index: number;
+  stepId: number;
+  continues: number | null;
+  batchId: number | null;
+  volumeMl: number | null;
+};
 type OldDraw = { id: number; batchId: number | null; volumeMl: number | null };
 
 const drawField = (i: number) => `steps.${i}.batchVolumeMl`;
@@ -21,12 +27,27 @@ const drawField = (i: number) => `steps.${i}.batchVolumeMl`;
  * `closing` is for a trial being deleted: a disposed bath's closed ledger keeps the use (unlinked from the
  * step) instead of refusing the deletion.
  */
-export async function syncStepDraws({ transaction, trialId, actorId, fibreMassG, old, steps, closing = false }: {
-  transaction: Transaction; trialId: number; actorId: number | null; fibreMassG: number | null;
-  old: OldDraw[]; steps: StepDraw[]; closing?: boolean;
+export async function syncStepDraws({
+  transaction,
+  trialId,
+  actorId,
+  fibreMassG,
+  old,
+  steps,
+  closing = false,
+}: {
+  transaction: Transaction;
+  trialId: number;
+  actorId: number | null;
+  fibreMassG: number | null;
+  old: OldDraw[];
+  steps: StepDraw[];
+  closing?: boolean;
 }) {
   const oldIds = old.map((o) => o.id);
-  const events = oldIds.length ? await BatchEvent.findAll({ where: { stepId: { [Op.in]: oldIds }, type: 'use' }, transaction }) : [];
+  const events = oldIds.length
+    ? await BatchEvent.findAll({ where: { stepId: { [Op.in]: oldIds }, type: 'use' }, transaction })
+    : [];
   const eventOf = new Map(events.map((e) => [e.stepId!, e]));
   const oldById = new Map(old.map((o) => [o.id, o]));
 
@@ -57,19 +78,29 @@ export async function syncStepDraws({ transaction, trialId, actorId, fibreMassG,
   for (const e of events) if (!kept.has(e.id)) removed.add(e.id);
 
   const byId = new Map(events.map((e) => [e.id, e]));
-  const batchIds = [...new Set([...[...removed, ...changed.keys()].map((id) => byId.get(id)!.batchId), ...added.map((a) => a.batchId)])].sort((a, b) => a - b);
+  const batchIds = [
+    ...new Set([...[...removed, ...changed.keys()].map((id) => byId.get(id)!.batchId), ...added.map((a) => a.batchId)]),
+  ].sort((a, b) => a - b);
   if (!batchIds.length) {
-    for (const r of repoint) if (r.event.stepId !== r.stepId) await r.event.update({ stepId: r.stepId }, { transaction });
+    for (const r of repoint)
+      if (r.event.stepId !== r.stepId) await r.event.update({ stepId: r.stepId }, { transaction });
     return;
   }
   const thick = await thickenerIds(transaction);
   const now = new Date();
   for (const batchId of batchIds) {
-    const batch = await MordantBatch.findByPk(batchId, { transaction, lock: transaction.LOCK.UPDATE, rejectOnEmpty: true });
+    const batch = await MordantBatch.findByPk(batchId, {
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+      rejectOnEmpty: true,
+    });
     const history = await BatchEvent.findAll({ where: { batchId }, order: eventOrder, transaction });
     const adds = added.filter((a) => a.batchId === batchId);
     const touches = history.filter((e) => removed.has(e.id) || changed.has(e.id));
-    const blame = adds[0]?.index ?? touches.map((e) => changed.get(e.id)?.index).find((x) => x != null) ?? steps.find((s) => s.batchId === batchId)?.index;
+    const blame =
+      adds[0]?.index ??
+      touches.map((e) => changed.get(e.id)?.index).find((x) => x != null) ??
+      steps.find((s) => s.batchId === batchId)?.index;
     const fields = (message: string) => (blame != null ? { fields: { [drawField(blame)]: [message] } } : {});
     if (batch.status === 'disposed') {
       // A disposed bath's ledger is closed: its past uses stand as recorded.
@@ -82,32 +113,68 @@ export async function syncStepDraws({ transaction, trialId, actorId, fibreMassG,
       throw conflict(msg, { reason: 'disposed', ...fields(msg) });
     }
     const next = [
-      ...history.filter((e) => !removed.has(e.id)).map((e) => ({ ...e.get({ plain: true }), ...(changed.has(e.id) ? { volumeMl: changed.get(e.id)!.volumeMl } : {}) })),
-      ...adds.map((a) => ({ type: 'use' as const, volumeMl: a.volumeMl, fibreMassG, additions: null, ph: null, result: null, route: null, ruleFollowed: null })),
+      ...history
+        .filter((e) => !removed.has(e.id))
+        .map((e) => ({
+          ...e.get({ plain: true }),
+          ...(changed.has(e.id) ? { volumeMl: changed.get(e.id)!.volumeMl } : {}),
+        })),
+      ...adds.map((a) => ({
+        type: 'use' as const,
+        volumeMl: a.volumeMl,
+        fibreMassG,
+        additions: null,
+        ph: null,
+        result: null,
+        route: null,
+        ruleFollowed: null,
+      })),
     ];
     let ledger;
     try {
       ledger = checkHistory(batch, next, thick);
     } catch (err) {
-      if (err instanceof HttpError) throw new HttpError(err.status, err.code, `${batch.code}: ${err.message}`, { ...(err.details as object), ...fields(err.message) });
+      if (err instanceof HttpError)
+        throw new HttpError(err.status, err.code, `${batch.code}: ${err.message}`, {
+          ...(err.details as object),
+          ...fields(err.message),
+        });
       throw err;
     }
     for (const e of touches) {
       if (removed.has(e.id)) await e.destroy({ transaction });
-      else await e.update({ volumeMl: changed.get(e.id)!.volumeMl, stepId: changed.get(e.id)!.stepId, fibreMassG }, { transaction });
+      else
+        await e.update(
+          { volumeMl: changed.get(e.id)!.volumeMl, stepId: changed.get(e.id)!.stepId, fibreMassG },
+          { transaction },
+        );
     }
     for (const a of adds) {
       await BatchEvent.create(
         {
-          batchId, type: 'use', volumeMl: a.volumeMl, fibreMassG, trialId, stepId: a.stepId, additions: null, ph: null, result: null,
-          route: null, ruleFollowed: null, notes: null, occurredAt: now, createdById: actorId,
+          batchId,
+          type: 'use',
+          volumeMl: a.volumeMl,
+          fibreMassG,
+          trialId,
+          stepId: a.stepId,
+          additions: null,
+          ph: null,
+          result: null,
+          route: null,
+          ruleFollowed: null,
+          notes: null,
+          occurredAt: now,
+          createdById: actorId,
         },
         { transaction },
       );
     }
     await batch.update({ status: ledger.state.remainingMl <= 0 ? 'exhausted' : 'active' }, { transaction });
   }
-  for (const r of repoint) if (!removed.has(r.event.id) && r.event.stepId !== r.stepId) await r.event.update({ stepId: r.stepId }, { transaction });
+  for (const r of repoint)
+    if (!removed.has(r.event.id) && r.event.stepId !== r.stepId)
+      await r.event.update({ stepId: r.stepId }, { transaction });
 }
 
 /**
@@ -117,7 +184,15 @@ export async function syncStepDraws({ transaction, trialId, actorId, fibreMassG,
  */
 export async function lockBaths(ids: Array<number | null | undefined>, transaction: Transaction) {
   const wanted = [...new Set(ids.filter((x): x is number => x != null))].sort((a, b) => a - b);
-  if (wanted.length) await MordantBatch.findAll({ where: { id: { [Op.in]: wanted } }, order: [['id', 'ASC']], transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
+  if (wanted.length)
+    await MordantBatch.findAll({
+      where: { id: { [Op.in]: wanted } },
+      order: [['id', 'ASC']],
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+      attributes: ['id'],
+    });
 }
 
-export const oldDraws = (steps: RecipeStep[]): OldDraw[] => steps.map((s) => ({ id: s.id, batchId: s.batchId, volumeMl: s.batchVolumeMl }));
+export const oldDraws = (steps: RecipeStep[]): OldDraw[] =>
+  steps.map((s) => ({ id: s.id, batchId: s.batchId, volumeMl: s.batchVolumeMl }));

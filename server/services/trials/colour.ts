@@ -1,6 +1,13 @@
 import { Op } from 'sequelize';
 import { differenceReport } from '../../../shared/colour/index.ts';
-import { conditionsText, IMAGE_ESTIMATE_CONDITIONS, type ColourSource, type Illuminant, type Observer, type ViewingConditions } from '../../../shared/colour/conditions.ts';
+import {
+  conditionsText,
+  IMAGE_ESTIMATE_CONDITIONS,
+  type ColourSource,
+  type Illuminant,
+  type Observer,
+  type ViewingConditions,
+} from '../../../shared/colour/conditions.ts';
 import { ILLUMINANTS } from '../../../shared/schemas/trial.ts';
 import { ColourMeasurement, PaletteColour, Photo, Region, type Trial } from '../../models/index.ts';
 import { verdictBands } from '../settings.ts';
@@ -10,15 +17,16 @@ type Lab = { L: number; a: number; b: number };
 type Estimate = Lab & ViewingConditions & { source: 'image-estimate' };
 
 /** A colour with the conditions it was measured or estimated under. */
-export type ResolvedColour = Lab & ViewingConditions & {
-  source: ColourSource;
-  /** What the colour is, in words, e.g. "region 'ground red', measured". */
-  label: string;
-  /** How many instrument readings under these conditions were averaged (null for an image estimate). */
-  readings: number | null;
-  /** When an instrument reading replaced an image estimate of the same place, the estimate that was set aside. */
-  setAside: Estimate | null;
-};
+export type ResolvedColour = Lab &
+  ViewingConditions & {
+    source: ColourSource;
+    /** What the colour is, in words, e.g. "region 'ground red', measured". */
+    label: string;
+    /** How many instrument readings under these conditions were averaged (null for an image estimate). */
+    readings: number | null;
+    /** When an instrument reading replaced an image estimate of the same place, the estimate that was set aside. */
+    setAside: Estimate | null;
+  };
 
 export type Difference = ReturnType<typeof differenceReport>;
 /** One comparison: a target and a result under the same illuminant. */
@@ -34,19 +42,43 @@ export type Comparison = {
 export type Missing = ViewingConditions & { message: string };
 
 const lab = (x: Lab) => ({ L: x.L, a: x.a, b: x.b });
-const conditionsOf = (m: ColourMeasurement): ViewingConditions => ({ illuminant: m.illuminant as Illuminant, observer: m.observer as Observer });
+const conditionsOf = (m: ColourMeasurement): ViewingConditions => ({
+  illuminant: m.illuminant as Illuminant,
+  observer: m.observer as Observer,
+});
 const key = (c: ViewingConditions) => `${c.illuminant}/${c.observer}`;
-const estimateOf = (pc: PaletteColour): Estimate => ({ ...lab(pc), ...IMAGE_ESTIMATE_CONDITIONS, source: 'image-estimate' });
-const byConditions = (x: ViewingConditions, y: ViewingConditions) => ILLUMINANTS.indexOf(x.illuminant) - ILLUMINANTS.indexOf(y.illuminant) || Number(y.observer) - Number(x.observer);
+const estimateOf = (pc: PaletteColour): Estimate => ({
+  ...lab(pc),
+  ...IMAGE_ESTIMATE_CONDITIONS,
+  source: 'image-estimate',
+});
+const byConditions = (x: ViewingConditions, y: ViewingConditions) =>
+  ILLUMINANTS.indexOf(x.illuminant) - ILLUMINANTS.indexOf(y.illuminant) || Number(y.observer) - Number(x.observer);
 
 const reading = (m: ColourMeasurement, label: string, setAside: Estimate | null = null): ResolvedColour => ({
-  ...lab(m), ...conditionsOf(m), source: 'instrument', label: m.label ?? label, readings: 1, setAside,
+  ...lab(m),
+  ...conditionsOf(m),
+  source: 'instrument',
+  label: m.label ?? label,
+  readings: 1,
+  setAside,
 });
-const estimated = (pc: PaletteColour, label: string): ResolvedColour => ({ ...estimateOf(pc), label, readings: null, setAside: null });
+const estimated = (pc: PaletteColour, label: string): ResolvedColour => ({
+  ...estimateOf(pc),
+  label,
+  readings: null,
+  setAside: null,
+});
 
 /** Readings of one place of the original, newest first (an undated reading counts as oldest). */
 const readingsOf = (where: Record<string, unknown>) =>
-  ColourMeasurement.findAll({ where: { ...where, trialId: { [Op.is]: null } }, order: [['takenOn', 'DESC'], ['id', 'DESC']] });
+  ColourMeasurement.findAll({
+    where: { ...where, trialId: { [Op.is]: null } },
+    order: [
+      ['takenOn', 'DESC'],
+      ['id', 'DESC'],
+    ],
+  });
 
 /** The newest reading under each set of conditions, leaving out the one already chosen. */
 function newestPerConditions(rows: ColourMeasurement[], chosen: ColourMeasurement | null) {
@@ -75,7 +107,12 @@ export async function targetCandidates(trial: Trial): Promise<ResolvedColour[]> 
     const m = await ColourMeasurement.findByPk(trial.targetMeasurementId);
     if (!m) return [];
     // The same place: the same region, or on the piece itself a reading with the same label.
-    const place = m.regionId != null ? { regionId: m.regionId } : m.pieceId != null && m.label != null ? { pieceId: m.pieceId, regionId: { [Op.is]: null }, label: m.label } : null;
+    const place =
+      m.regionId != null
+        ? { regionId: m.regionId }
+        : m.pieceId != null && m.label != null
+          ? { pieceId: m.pieceId, regionId: { [Op.is]: null }, label: m.label }
+          : null;
     const others = place ? newestPerConditions(await readingsOf(place), m) : [];
     const pc = m.regionId != null ? await estimate({ regionId: m.regionId }) : null;
     return [
@@ -85,11 +122,18 @@ export async function targetCandidates(trial: Trial): Promise<ResolvedColour[]> 
     ];
   }
   if (trial.targetRegionId != null) {
-    const [rows, pc] = await Promise.all([readingsOf({ regionId: trial.targetRegionId }), estimate({ regionId: trial.targetRegionId })]);
+    const [rows, pc] = await Promise.all([
+      readingsOf({ regionId: trial.targetRegionId }),
+      estimate({ regionId: trial.targetRegionId }),
+    ]);
     const est = pc ? estimated(pc, `palette of the target region (${pc.name})`) : null;
     if (!rows.length) return est ? [est] : [];
     const label = 'instrument measurement of the target region';
-    return [reading(rows[0], label, pc ? estimateOf(pc) : null), ...newestPerConditions(rows, rows[0]).map((o) => reading(o, label)), ...(est ? [est] : [])];
+    return [
+      reading(rows[0], label, pc ? estimateOf(pc) : null),
+      ...newestPerConditions(rows, rows[0]).map((o) => reading(o, label)),
+      ...(est ? [est] : []),
+    ];
   }
   if (trial.targetPaletteColourId != null) {
     const pc = await PaletteColour.findByPk(trial.targetPaletteColourId);
@@ -98,14 +142,18 @@ export async function targetCandidates(trial: Trial): Promise<ResolvedColour[]> 
     const rows = pc.regionId != null ? await readingsOf({ regionId: pc.regionId }) : [];
     if (!rows.length) return [est];
     const label = 'instrument measurement of the region this palette colour comes from';
-    return [reading(rows[0], label, estimateOf(pc)), ...newestPerConditions(rows, rows[0]).map((o) => reading(o, label)), est];
+    return [
+      reading(rows[0], label, estimateOf(pc)),
+      ...newestPerConditions(rows, rows[0]).map((o) => reading(o, label)),
+      est,
+    ];
   }
   return [];
 }
 
 /** The chosen target: the first candidate. */
 export async function resolveTarget(trial: Trial): Promise<ResolvedColour | null> {
-  return (await targetCandidates(trial))[0] as ResolvedColour | undefined ?? null;
+  return ((await targetCandidates(trial))[0] as ResolvedColour | undefined) ?? null;
 }
 
 /**
@@ -124,8 +172,14 @@ export async function resultCandidates(trial: Trial): Promise<ResolvedColour[]> 
   const measured = [...groups.values()].map((g): ResolvedColour => {
     const mean = (k: 'L' | 'a' | 'b') => g.reduce((s, r) => s + r[k], 0) / g.length;
     return {
-      L: mean('L'), a: mean('a'), b: mean('b'), ...conditionsOf(g[0]), source: 'instrument', readings: g.length,
-      label: g.length === 1 ? 'instrument reading of the swatch' : `mean of ${g.length} instrument readings of the swatch`,
+      L: mean('L'),
+      a: mean('a'),
+      b: mean('b'),
+      ...conditionsOf(g[0]),
+      source: 'instrument',
+      readings: g.length,
+      label:
+        g.length === 1 ? 'instrument reading of the swatch' : `mean of ${g.length} instrument readings of the swatch`,
       setAside: pc ? estimateOf(pc) : null,
     };
   });
@@ -145,7 +199,7 @@ export function matchResult(target: ViewingConditions, results: ResolvedColour[]
 /** The result chosen for the trial's comparison. */
 export async function resolveResult(trial: Trial): Promise<ResolvedColour | null> {
   const [target, results] = await Promise.all([resolveTarget(trial), resultCandidates(trial)]);
-  return target ? matchResult(target, results) : (results[0] as ResolvedColour | undefined) ?? null;
+  return target ? matchResult(target, results) : ((results[0] as ResolvedColour | undefined) ?? null);
 }
 
 const sideWords = (c: ResolvedColour) => (c.source === 'instrument' ? 'reading' : 'image estimate');
@@ -160,7 +214,9 @@ export function observerNote(target: ResolvedColour, result: ResolvedColour) {
 export function missingReading(target: ResolvedColour, results: ResolvedColour[]): Missing {
   const want = conditionsText(target);
   const elsewhere = results.filter((r) => r.source === 'instrument').map((r) => conditionsText(r));
-  const why = elsewhere.length ? ` Its readings under ${elsewhere.join(', ')} are not compared with a colour under ${target.illuminant}.` : '';
+  const why = elsewhere.length
+    ? ` Its readings under ${elsewhere.join(', ')} are not compared with a colour under ${target.illuminant}.`
+    : '';
   const message =
     target.source === 'instrument'
       ? `No reading of the swatch under ${want}: measure it under ${target.illuminant} to compare with the original's reading.${why}`
@@ -174,12 +230,24 @@ export function missingReading(target: ResolvedColour, results: ResolvedColour[]
  * other illuminant both sides were read under (useful for judging metamerism).
  */
 export async function trialColour(trial: Trial) {
-  const [targets, results, { bands, source }] = await Promise.all([targetCandidates(trial), resultCandidates(trial), verdictBands()]);
+  const [targets, results, { bands, source }] = await Promise.all([
+    targetCandidates(trial),
+    resultCandidates(trial),
+    verdictBands(),
+  ]);
   const target = (targets[0] as ResolvedColour | undefined) ?? null;
   const compare = (t: ResolvedColour, primary: boolean): Comparison | null => {
     const r = matchResult(t, results);
     if (!r) return null;
-    return { illuminant: t.illuminant, target: t, result: r, difference: differenceReport(lab(t), lab(r), bands), observersDiffer: t.observer !== r.observer, note: observerNote(t, r), primary };
+    return {
+      illuminant: t.illuminant,
+      target: t,
+      result: r,
+      difference: differenceReport(lab(t), lab(r), bands),
+      observersDiffer: t.observer !== r.observer,
+      note: observerNote(t, r),
+      primary,
+    };
   };
   const primary = target ? compare(target, true) : null;
   const comparisons: Comparison[] = primary ? [primary] : [];
@@ -194,9 +262,16 @@ export async function trialColour(trial: Trial) {
   }
   return {
     target,
-    result: primary?.result ?? (target ? null : (results[0] as ResolvedColour | undefined) ?? null),
+    result: primary?.result ?? (target ? null : ((results[0] as ResolvedColour | undefined) ?? null)),
     difference: primary?.difference ?? null,
-    conditions: primary ? { illuminant: primary.illuminant, targetObserver: primary.target.observer, resultObserver: primary.result.observer, observersDiffer: primary.observersDiffer } : null,
+    conditions: primary
+      ? {
+          illuminant: primary.illuminant,
+          targetObserver: primary.target.observer,
+          resultObserver: primary.result.observer,
+          observersDiffer: primary.observersDiffer,
+        }
+      : null,
     note: primary?.note ?? null,
     missing: target && !primary ? missingReading(target, results) : null,
     /** Every colour of the trial: each group of readings under one set of conditions, then the swatch-photo estimate. */
@@ -211,9 +286,14 @@ export type TrialColour = Awaited<ReturnType<typeof trialColour>>;
 /** Instrument readings of a piece's original: on the piece itself or on a region of one of its photos. */
 export async function pieceMeasurements(pieceId: number) {
   const photoIds = (await Photo.findAll({ where: { pieceId }, attributes: ['id'] })).map((p) => p.id);
-  const regionIds = photoIds.length ? (await Region.findAll({ where: { photoId: photoIds }, attributes: ['id'] })).map((r) => r.id) : [];
+  const regionIds = photoIds.length
+    ? (await Region.findAll({ where: { photoId: photoIds }, attributes: ['id'] })).map((r) => r.id)
+    : [];
   return ColourMeasurement.findAll({
-    where: { trialId: { [Op.is]: null }, [Op.or]: [{ pieceId }, ...(regionIds.length ? [{ regionId: regionIds }] : [])] },
+    where: {
+      trialId: { [Op.is]: null },
+      [Op.or]: [{ pieceId }, ...(regionIds.length ? [{ regionId: regionIds }] : [])],
+    },
     order: [['id', 'ASC']],
   });
 }

@@ -13,7 +13,10 @@ export function RequireAbility({ action, children }: { action: Action; children?
   const me = useMe();
   const location = useLocation();
   if (me.isPending) return <p className="py-10 text-ink-soft">Checking your access…</p>;
-  if (me.isError) return <NotFound title="The server is not answering" text="Your access could not be checked. Try again in a moment." />;
+  if (me.isError)
+    return (
+      <NotFound title="The server is not answering" text="Your access could not be checked. Try again in a moment." />
+    );
   if (!me.data) return <SignInNeeded next={location.pathname + location.search} />;
   if (!me.data.abilities[action]) return <Forbidden />;
   return children ?? <Outlet />;
@@ -24,8 +27,8 @@ function SignInNeeded({ next }: { next: string }) {
     <div className="py-16 max-w-xl" data-testid="sign-in-needed">
       <h1 className="text-3xl font-semibold">Sign in to open this page</h1>
       <p className="mt-2 text-ink-soft">
-        This part of Tinctoria is for members of the team. Visitors can browse the published pieces in the archive, search them and read the reference
-        tables without an account.
+        This part of Tinctoria is for members of the team. Visitors can browse the published pieces in the archive,
+        search them and read the reference tables without an account.
       </p>
       <p className="mt-6 flex flex-wrap gap-x-6 gap-y-2">
         <Link className="text-action underline" to={paths.signIn(next)}>

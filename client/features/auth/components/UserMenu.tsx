@@ -20,7 +20,16 @@ export function UserMenu() {
   const here = location.pathname + location.search;
   if (!me.data)
     return (
-      <Link to={location.pathname === paths.signIn() ? here : location.pathname === paths.home() ? paths.signIn() : paths.signIn(here)} className="rounded-md border border-rule-strong px-3 py-1.5 text-sm hover:bg-paper">
+      <Link
+        to={
+          location.pathname === paths.signIn()
+            ? here
+            : location.pathname === paths.home()
+              ? paths.signIn()
+              : paths.signIn(here)
+        }
+        className="rounded-md border border-rule-strong px-3 py-1.5 text-sm hover:bg-paper"
+      >
         Sign in
       </Link>
     );

@@ -4,14 +4,26 @@ import { useChemicals, useDyestuffs } from '../../reference';
 type Row = { key: string; grams: string };
 
 /** The chemicals and dyestuffs a bath is made from, each with its amount in g. */
-export function IngredientRows({ rows, onChange, errors = {}, field = 'ingredients' }: { rows: Row[]; onChange: (rows: Row[]) => void; errors?: Record<string, string[]>; field?: string }) {
+export function IngredientRows({
+  rows,
+  onChange,
+  errors = {},
+  field = 'ingredients',
+}: {
+  rows: Row[];
+  onChange: (rows: Row[]) => void;
+  errors?: Record<string, string[]>;
+  field?: string;
+}) {
   const chemicals = useChemicals().data?.items ?? [];
   const dyestuffs = useDyestuffs().data?.items ?? [];
   const set = (i: number, patch: Partial<Row>) => onChange(rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
   // ingredientsFrom() leaves out rows without a choice, so the server's index counts chosen rows only.
   const sent = rows.map((_, i) => rows.slice(0, i).filter((r) => r.key).length);
   const rowErrors = (i: number, key: string) => (rows[i].key ? errors[`${field}.${sent[i]}.${key}`] : undefined);
-  const listError = Object.entries(errors).filter(([k]) => k === field || (k.startsWith(`${field}.`) && !/\.\d+\.grams$/.test(k))).flatMap(([, v]) => v);
+  const listError = Object.entries(errors)
+    .filter(([k]) => k === field || (k.startsWith(`${field}.`) && !/\.\d+\.grams$/.test(k)))
+    .flatMap(([, v]) => v);
   return (
     <fieldset className="sm:col-span-3">
       <legend className="text-sm font-medium">Ingredients</legend>
@@ -56,18 +68,32 @@ export function IngredientRows({ rows, onChange, errors = {}, field = 'ingredien
                 onChange={(e) => set(i, { grams: e.target.value })}
                 className={`mt-1 block w-28 rounded-md border bg-sheet px-3 py-2 text-sm text-ink num ${rowErrors(i, 'grams') ? 'border-danger' : 'border-rule-strong'}`}
               />
-              {rowErrors(i, 'grams') ? <span className="mt-1 block text-sm text-danger">{rowErrors(i, 'grams')!.join(' ')}</span> : null}
+              {rowErrors(i, 'grams') ? (
+                <span className="mt-1 block text-sm text-danger">{rowErrors(i, 'grams')!.join(' ')}</span>
+              ) : null}
             </label>
-            <button type="button" className="pb-2 text-sm text-action hover:underline" onClick={() => onChange(rows.filter((_, j) => j !== i))}>
+            <button
+              type="button"
+              className="pb-2 text-sm text-action hover:underline"
+              onClick={() => onChange(rows.filter((_, j) => j !== i))}
+            >
               Remove
             </button>
           </li>
         ))}
       </ul>
-      <button type="button" className="mt-2 text-sm text-action hover:underline" onClick={() => onChange([...rows, { key: '', grams: '' }])}>
+      <button
+        type="button"
+        className="mt-2 text-sm text-action hover:underline"
+        onClick={() => onChange([...rows, { key: '', grams: '' }])}
+      >
         Add an ingredient
       </button>
-      {listError.length ? <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>{[...new Set(listError)].join(' ')}</p> : null}
+      {listError.length ? (
+        <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>
+          {[...new Set(listError)].join(' ')}
+        </p>
+      ) : null}
     </fieldset>
   );
 }
@@ -78,6 +104,11 @@ export function ingredientsFrom(rows: Row[]): BatchIngredientInput[] {
     .filter((r) => r.key)
     .map((r) => {
       const [kind, id, ...name] = r.key.split(':');
-      return { kind: kind as 'chemical' | 'dyestuff', refId: Number(id), name: name.join(':'), grams: r.grams === '' ? Number.NaN : Number(r.grams) };
+      return {
+        kind: kind as 'chemical' | 'dyestuff',
+        refId: Number(id),
+        name: name.join(':'),
+        grams: r.grams === '' ? Number.NaN : Number(r.grams),
+      };
     });
 }

@@ -44,9 +44,19 @@ export function LedgerTable({ batch }: { batch: BatchDetail }) {
             <tr key={e.id} className="border-b border-rule align-top">
               <td className="py-1.5 pr-3">{e.occurredAt.slice(0, 10)}</td>
               <td className="pr-3">{EVENT_LABELS[e.type as keyof typeof EVENT_LABELS] ?? e.type}</td>
-              <td className="pr-3 text-right">{e.volumeMl == null ? '' : e.type === 'use' ? `−${e.volumeMl}` : `+${e.volumeMl}`}</td>
+              <td className="pr-3 text-right">
+                {e.volumeMl == null ? '' : e.type === 'use' ? `−${e.volumeMl}` : `+${e.volumeMl}`}
+              </td>
               <td className="pr-3 text-right">{e.fibreMassG ?? ''}</td>
-              <td className="pr-3">{e.trialId ? <Link className="text-action underline" to={paths.trial(e.trialId)}>{e.trialCode ?? `trial ${e.trialId}`}</Link> : ''}</td>
+              <td className="pr-3">
+                {e.trialId ? (
+                  <Link className="text-action underline" to={paths.trial(e.trialId)}>
+                    {e.trialCode ?? `trial ${e.trialId}`}
+                  </Link>
+                ) : (
+                  ''
+                )}
+              </td>
               <td className="pr-3 text-right">{after.get(e.id)?.remainingMl ?? ''}</td>
               <td className="font-sans">{describe(e)}</td>
             </tr>

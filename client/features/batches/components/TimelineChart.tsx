@@ -12,15 +12,29 @@ export function TimelineChart({ points, volumeMl }: { points: BatchDetail['timel
   const x = (i: number) => PAD.l + (i * (W - PAD.l - PAD.r)) / (points.length - 1);
   const yMl = (v: number) => PAD.t + (1 - v / maxMl) * (H - PAD.t - PAD.b);
   const yS = (v: number) => PAD.t + (1 - v / maxS) * (H - PAD.t - PAD.b);
-  const line = (f: (p: BatchDetail['timeline'][number]) => number) => points.map((p, i) => `${i ? 'L' : 'M'}${x(i).toFixed(1)},${f(p).toFixed(1)}`).join(' ');
+  const line = (f: (p: BatchDetail['timeline'][number]) => number) =>
+    points.map((p, i) => `${i ? 'L' : 'M'}${x(i).toFixed(1)},${f(p).toFixed(1)}`).join(' ');
   return (
     <figure>
-      <svg viewBox={`0 0 ${W} ${H}`} className="w-full max-w-xl" role="img" aria-label="Remaining volume and estimated strength over the batch's events">
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        className="w-full max-w-xl"
+        role="img"
+        aria-label="Remaining volume and estimated strength over the batch's events"
+      >
         <line x1={PAD.l} x2={W - PAD.r} y1={H - PAD.b} y2={H - PAD.b} stroke="#b9b9b6" />
-        <text x={PAD.l - 6} y={yMl(maxMl) + 4} textAnchor="end" fontSize="10" fill="#4b4e52">{Math.round(maxMl)} mL</text>
-        <text x={PAD.l - 6} y={yMl(0)} textAnchor="end" fontSize="10" fill="#4b4e52">0</text>
-        <text x={W - PAD.r + 6} y={yS(maxS) + 4} fontSize="10" fill="#4b4e52">{maxS.toFixed(1)}×</text>
-        <text x={W - PAD.r + 6} y={yS(0)} fontSize="10" fill="#4b4e52">0</text>
+        <text x={PAD.l - 6} y={yMl(maxMl) + 4} textAnchor="end" fontSize="10" fill="#4b4e52">
+          {Math.round(maxMl)} mL
+        </text>
+        <text x={PAD.l - 6} y={yMl(0)} textAnchor="end" fontSize="10" fill="#4b4e52">
+          0
+        </text>
+        <text x={W - PAD.r + 6} y={yS(maxS) + 4} fontSize="10" fill="#4b4e52">
+          {maxS.toFixed(1)}×
+        </text>
+        <text x={W - PAD.r + 6} y={yS(0)} fontSize="10" fill="#4b4e52">
+          0
+        </text>
         <path d={line((p) => yMl(p.remainingMl))} fill="none" stroke="#2c4a63" strokeWidth="2" />
         <path d={line((p) => yS(p.strength))} fill="none" stroke="#8a5a00" strokeWidth="1.5" strokeDasharray="4 3" />
         {points.map((p, i) => (
@@ -30,7 +44,8 @@ export function TimelineChart({ points, volumeMl }: { points: BatchDetail['timel
         ))}
       </svg>
       <figcaption className="text-xs text-ink-faint">
-        <span className="text-action">━</span> remaining volume (mL) · <span className="text-warn">╌</span> estimated strength (1 = as made; an estimate)
+        <span className="text-action">━</span> remaining volume (mL) · <span className="text-warn">╌</span> estimated
+        strength (1 = as made; an estimate)
       </figcaption>
     </figure>
   );

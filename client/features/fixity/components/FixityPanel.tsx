@@ -47,7 +47,8 @@ export function FixityPanel() {
         <div className="space-y-2 text-sm" data-testid="fixity-report">
           <p>
             Last check {formatDateTime(report.checkedAt)}: <span className="num">{report.masters}</span> masters,{' '}
-            <span className="num text-ok">{report.ok}</span> intact, <span className="num">{report.mismatches.length}</span> changed,{' '}
+            <span className="num text-ok">{report.ok}</span> intact,{' '}
+            <span className="num">{report.mismatches.length}</span> changed,{' '}
             <span className="num">{report.missing.length}</span> missing.
           </p>
           <Problems title="Changed since upload (SHA-256 differs)" list={report.mismatches} />

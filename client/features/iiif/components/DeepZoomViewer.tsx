@@ -10,7 +10,15 @@ type Viewer = OpenSeadragonNS.Viewer;
  * with the photo's regions drawn as outlined rectangles. Own buttons instead of
  * OpenSeadragon's image buttons, so the controls are keyboard-usable and need no icon files.
  */
-export function DeepZoomViewer({ photoId, regions = [], label }: { photoId: number; regions?: RegionBox[]; label: string }) {
+export function DeepZoomViewer({
+  photoId,
+  regions = [],
+  label,
+}: {
+  photoId: number;
+  regions?: RegionBox[];
+  label: string;
+}) {
   const host = useRef<HTMLDivElement>(null);
   const viewer = useRef<Viewer | null>(null);
   const [zoom, setZoom] = useState<number | null>(null);
@@ -37,7 +45,9 @@ export function DeepZoomViewer({ photoId, regions = [], label }: { photoId: numb
         setOpened(true);
       });
       v.addHandler('zoom', (e) => setZoom((e as unknown as { zoom: number }).zoom));
-      v.addHandler('open-failed', () => setError('The deep-zoom tiles could not be opened. They may still be building.'));
+      v.addHandler('open-failed', () =>
+        setError('The deep-zoom tiles could not be opened. They may still be building.'),
+      );
       viewer.current = v;
     });
     return () => {
@@ -73,10 +83,18 @@ export function DeepZoomViewer({ photoId, regions = [], label }: { photoId: numb
   return (
     <figure className="rounded-lg border border-rule bg-neutral-light">
       <div className="flex flex-wrap items-center gap-2 border-b border-rule bg-sheet px-3 py-2 text-sm">
-        <Button variant="secondary" onClick={act((v) => v.viewport.zoomBy(1.6).applyConstraints())} aria-label="Zoom in">
+        <Button
+          variant="secondary"
+          onClick={act((v) => v.viewport.zoomBy(1.6).applyConstraints())}
+          aria-label="Zoom in"
+        >
           +
         </Button>
-        <Button variant="secondary" onClick={act((v) => v.viewport.zoomBy(1 / 1.6).applyConstraints())} aria-label="Zoom out">
+        <Button
+          variant="secondary"
+          onClick={act((v) => v.viewport.zoomBy(1 / 1.6).applyConstraints())}
+          aria-label="Zoom out"
+        >
           −
         </Button>
         <Button variant="secondary" onClick={act((v) => v.viewport.goHome())}>
@@ -91,7 +109,13 @@ export function DeepZoomViewer({ photoId, regions = [], label }: { photoId: numb
         </span>
       </div>
       {/* Mid-grey ground: colour judgements are biased by tinted surroundings. */}
-      <div ref={host} className="h-[70vh] min-h-80 w-full bg-neutral-ground" role="img" aria-label={label} data-testid="deep-zoom" />
+      <div
+        ref={host}
+        className="h-[70vh] min-h-80 w-full bg-neutral-ground"
+        role="img"
+        aria-label={label}
+        data-testid="deep-zoom"
+      />
       {error ? (
         <figcaption className="px-3 py-2 text-sm text-danger" role="alert">
           {error}

@@ -28,7 +28,10 @@ export function JobStatus({ job, title }: { job: JobView; title: string }) {
       {job.state === 'failed' ? (
         <div className="mt-2 space-y-2">
           <p className="text-danger" role="alert">
-            {job.error ?? 'The job failed.'} <span className="text-ink-faint num">(attempt {job.attempts} of {job.maxAttempts})</span>
+            {job.error ?? 'The job failed.'}{' '}
+            <span className="text-ink-faint num">
+              (attempt {job.attempts} of {job.maxAttempts})
+            </span>
           </p>
           {job.abilities.retry ? (
             <Button variant="secondary" disabled={retry.isPending} onClick={() => retry.mutate(job.id)}>

@@ -15,7 +15,10 @@ export function PhotoTiles({ photoId }: { photoId: number }) {
   return (
     <div className="flex flex-wrap items-start gap-3">
       {ready ? (
-        <Link to={paths.photoZoom(photoId)} className="rounded-md border border-rule-strong bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+        <Link
+          to={paths.photoZoom(photoId)}
+          className="rounded-md border border-rule-strong bg-sheet px-3 py-1.5 text-sm hover:bg-paper"
+        >
           Zoom in (deep zoom with regions)
         </Link>
       ) : (

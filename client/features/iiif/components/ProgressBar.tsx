@@ -15,7 +15,10 @@ export function ProgressBar({ value, label }: { value: number | null; label: str
         aria-valuenow={pct ?? undefined}
         className="mt-1 h-2 w-full overflow-hidden rounded-full bg-neutral-light"
       >
-        <div className={`h-full bg-action transition-[width] ${pct === null ? 'w-1/3 animate-pulse' : ''}`} style={pct === null ? undefined : { width: `${pct}%` }} />
+        <div
+          className={`h-full bg-action transition-[width] ${pct === null ? 'w-1/3 animate-pulse' : ''}`}
+          style={pct === null ? undefined : { width: `${pct}%` }}
+        />
       </div>
     </div>
   );

@@ -42,25 +42,38 @@ export function ImportPieces() {
       <section className="rounded-lg border border-rule bg-sheet p-4">
         <h2 className="text-lg font-semibold">1. Choose the file</h2>
         <p className="mt-1 text-sm text-ink-soft">
-          A CSV saved as UTF-8, one piece per row, a header row first. Lists in one cell are separated by semicolons; evidence follows a name in
-          brackets, e.g. <span className="font-mono">madder (identified); weld (attributed)</span>. Dates in EDTF, e.g.{' '}
+          A CSV saved as UTF-8, one piece per row, a header row first. Lists in one cell are separated by semicolons;
+          evidence follows a name in brackets, e.g.{' '}
+          <span className="font-mono">madder (identified); weld (attributed)</span>. Dates in EDTF, e.g.{' '}
           <span className="font-mono">1770/1785</span> or <span className="font-mono">18XX</span>.
         </p>
         <label className="mt-3 block text-sm font-medium">
           CSV file (UTF-8)
-          <input type="file" accept=".csv,text/csv" className="mt-1 block text-sm" onChange={(e) => void choose(e.target.files?.[0] ?? null)} />
+          <input
+            type="file"
+            accept=".csv,text/csv"
+            className="mt-1 block text-sm"
+            onChange={(e) => void choose(e.target.files?.[0] ?? null)}
+          />
         </label>
-        {file ? <p className="mt-1 text-xs text-ink-faint num">{file.name} · {(file.size / 1024).toFixed(1)} kB</p> : null}
+        {file ? (
+          <p className="mt-1 text-xs text-ink-faint num">
+            {file.name} · {(file.size / 1024).toFixed(1)} kB
+          </p>
+        ) : null}
       </section>
 
       {file ? (
         <section className="rounded-lg border border-rule bg-sheet p-4">
           <h2 className="text-lg font-semibold">2. Match the columns</h2>
           <div className="mt-3">
-            <MappingTable mapping={mapping} onChange={(m) => {
+            <MappingTable
+              mapping={mapping}
+              onChange={(m) => {
                 setMapping(m);
                 setChecked(null);
-              }} />
+              }}
+            />
           </div>
           <Button
             className="mt-4"
@@ -75,7 +88,12 @@ export function ImportPieces() {
         </section>
       ) : null}
 
-      {busy ? <ProgressBar value={progress !== null && progress < 1 ? progress : null} label={progress !== null && progress < 1 ? 'Uploading' : 'Checking on the server'} /> : null}
+      {busy ? (
+        <ProgressBar
+          value={progress !== null && progress < 1 ? progress : null}
+          label={progress !== null && progress < 1 ? 'Uploading' : 'Checking on the server'}
+        />
+      ) : null}
 
       {failure ? (
         <section className="rounded-lg border border-danger bg-danger-tint p-4" role="alert">
@@ -90,15 +108,28 @@ export function ImportPieces() {
         <section className="rounded-lg border border-rule bg-sheet p-4 space-y-3">
           <h2 className="text-lg font-semibold">3. Review and import</h2>
           <p className="text-sm" data-testid="import-summary">
-            <span className="num">{checked.rows}</span> rows: <span className="num text-ok">{checked.valid}</span> ready,{' '}
-            <span className={`num ${checked.invalid ? 'text-danger' : ''}`}>{checked.invalid}</span> with errors.
-            {checked.invalid ? ' Nothing is imported until every row is right: correct the file and check it again.' : ''}
+            <span className="num">{checked.rows}</span> rows: <span className="num text-ok">{checked.valid}</span>{' '}
+            ready, <span className={`num ${checked.invalid ? 'text-danger' : ''}`}>{checked.invalid}</span> with errors.
+            {checked.invalid
+              ? ' Nothing is imported until every row is right: correct the file and check it again.'
+              : ''}
           </p>
           <label className="inline-flex items-center gap-2 text-sm">
-            <input type="checkbox" checked={onlyErrors} onChange={(e) => setOnlyErrors(e.target.checked)} /> Show only rows with errors
+            <input type="checkbox" checked={onlyErrors} onChange={(e) => setOnlyErrors(e.target.checked)} /> Show only
+            rows with errors
           </label>
-          <PreviewTable preview={{ ...checked, items: (onlyErrors && checked.invalid ? checked.items.filter((r) => r.errors.length) : checked.items).slice(0, SHOWN_ROWS) }} />
-          {checked.items.length > SHOWN_ROWS ? <p className="text-xs text-ink-faint">The first {SHOWN_ROWS} rows are shown.</p> : null}
+          <PreviewTable
+            preview={{
+              ...checked,
+              items: (onlyErrors && checked.invalid
+                ? checked.items.filter((r) => r.errors.length)
+                : checked.items
+              ).slice(0, SHOWN_ROWS),
+            }}
+          />
+          {checked.items.length > SHOWN_ROWS ? (
+            <p className="text-xs text-ink-faint">The first {SHOWN_ROWS} rows are shown.</p>
+          ) : null}
           <Button
             disabled={checked.invalid > 0 || busy}
             onClick={() => {
@@ -113,7 +144,10 @@ export function ImportPieces() {
 
       {run.data ? (
         <p className="rounded-lg border border-ok bg-ok-tint p-4 text-ok" role="status">
-          Imported <span className="num">{run.data.imported}</span> pieces as one batch. <Link className="underline" to={paths.archive()}>Open the archive</Link>
+          Imported <span className="num">{run.data.imported}</span> pieces as one batch.{' '}
+          <Link className="underline" to={paths.archive()}>
+            Open the archive
+          </Link>
         </p>
       ) : null}
     </div>

@@ -1,4 +1,10 @@
-import { FIELD_LABELS, PIECE_CSV_FIELDS, REQUIRED_PIECE_FIELDS, type ColumnMapping, type PieceCsvField } from '../../../../shared/schemas/piece-import';
+import {
+  FIELD_LABELS,
+  PIECE_CSV_FIELDS,
+  REQUIRED_PIECE_FIELDS,
+  type ColumnMapping,
+  type PieceCsvField,
+} from '../../../../shared/schemas/piece-import';
 
 /** A first guess: a header that names a field or its label maps to it; anything else is ignored. */
 export function guessMapping(headers: string[]): ColumnMapping {

@@ -31,7 +31,10 @@ export function PreviewTable({ preview }: { preview: ImportPreview }) {
         </thead>
         <tbody>
           {preview.items.map((row) => (
-            <tr key={row.line} className={`border-t border-rule align-top ${row.errors.length ? 'bg-danger-tint' : ''}`}>
+            <tr
+              key={row.line}
+              className={`border-t border-rule align-top ${row.errors.length ? 'bg-danger-tint' : ''}`}
+            >
               <td className="px-3 py-1.5 num">{row.line}</td>
               <td className="px-3 py-1.5 font-mono">{row.accessionNumber}</td>
               <td className="px-3 py-1.5">{row.title}</td>

@@ -12,23 +12,49 @@ const fix = (x: number) => formatNumber(x);
  * enough to judge, all on neutral grey so no tinted surround biases the eye. Text on the grey sits on a white
  * chip (white text on it is 3.9:1); background colours are dimmed to 80 %, where links and grey text keep 4.5:1 (WCAG 2.1 AA).
  */
-export function PaletteBar({ title, colours, onToggleBackground }: { title: string; colours: Colour[]; onToggleBackground?: (c: Colour) => void }) {
+export function PaletteBar({
+  title,
+  colours,
+  onToggleBackground,
+}: {
+  title: string;
+  colours: Colour[];
+  onToggleBackground?: (c: Colour) => void;
+}) {
   const counted = colours.filter((c) => !c.background);
   return (
     <figure className="rounded-lg bg-neutral-ground p-3" aria-label={title}>
       <figcaption className="mb-2 flex flex-wrap justify-between gap-2 text-sm">
         <span className="rounded bg-sheet/90 px-1.5 py-0.5 font-medium text-ink">{title}</span>
-        <span className="rounded bg-sheet/90 px-1.5 py-0.5 text-xs text-ink-soft">CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} /></span>
+        <span className="rounded bg-sheet/90 px-1.5 py-0.5 text-xs text-ink-soft">
+          CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} />
+        </span>
       </figcaption>
-      <div className="flex h-10 w-full overflow-hidden rounded" role="img" aria-label={counted.map((c) => `${c.name} ${pct(c.share)}`).join(', ')}>
+      <div
+        className="flex h-10 w-full overflow-hidden rounded"
+        role="img"
+        aria-label={counted.map((c) => `${c.name} ${pct(c.share)}`).join(', ')}
+      >
         {counted.map((c) => (
-          <div key={c.id} style={{ width: `${c.share * 100}%`, background: c.hex }} title={`${c.name} · ${c.hex} · ${pct(c.share)}`} />
+          <div
+            key={c.id}
+            style={{ width: `${c.share * 100}%`, background: c.hex }}
+            title={`${c.name} · ${c.hex} · ${pct(c.share)}`}
+          />
         ))}
       </div>
       <ul className="mt-3 grid gap-2 grid-cols-1 sm:grid-cols-2 lg:grid-cols-4">
         {colours.map((c) => (
-          <li key={c.id} className={`flex gap-3 rounded bg-neutral-light p-2 ${c.background ? 'opacity-80' : ''}`} data-testid="palette-colour">
-            <div className="h-16 w-16 shrink-0 rounded border border-rule-strong" style={{ background: c.hex }} aria-hidden="true" />
+          <li
+            key={c.id}
+            className={`flex gap-3 rounded bg-neutral-light p-2 ${c.background ? 'opacity-80' : ''}`}
+            data-testid="palette-colour"
+          >
+            <div
+              className="h-16 w-16 shrink-0 rounded border border-rule-strong"
+              style={{ background: c.hex }}
+              aria-hidden="true"
+            />
             <div className="min-w-0 text-xs leading-5">
               <div className="font-medium text-sm truncate">{c.tradeName ?? c.name}</div>
               {c.tradeName ? <div className="text-ink-soft truncate">{c.name}</div> : null}
@@ -43,7 +69,12 @@ export function PaletteBar({ title, colours, onToggleBackground }: { title: stri
                 </ShadeSearchLink>
               </div>
               {onToggleBackground ? (
-                <button type="button" className="text-action hover:underline" onClick={() => onToggleBackground(c)} aria-pressed={c.background}>
+                <button
+                  type="button"
+                  className="text-action hover:underline"
+                  onClick={() => onToggleBackground(c)}
+                  aria-pressed={c.background}
+                >
                   {c.background ? 'Count this colour' : 'Mark as background'}
                 </button>
               ) : null}

@@ -6,7 +6,6 @@ import { PhotoTiles } from '../../iiif';
 import { PaletteBar } from './PaletteBar';
 import { PURPOSE_LABELS, RegionEditor } from './RegionEditor';
 
-
 /** One photo: the image with its regions, its palettes (raw and corrected, labelled), and its facts. */
 export function PhotoPanel({ photo }: { photo: Photo }) {
   const canEdit = photo.abilities['region:create'];
@@ -24,7 +23,10 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
     <article className="space-y-4 rounded-lg border border-rule bg-sheet p-4" data-testid="photo-panel">
       <header className="flex flex-wrap items-baseline justify-between gap-2">
         <h3 className="font-serif text-lg">
-          {photo.view} · <span className="num">{photo.width} × {photo.height} px</span>
+          {photo.view} ·{' '}
+          <span className="num">
+            {photo.width} × {photo.height} px
+          </span>
         </h3>
         <div className="flex gap-3 text-sm">
           {photo.urls.master ? (
@@ -33,7 +35,11 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
             </a>
           ) : null}
           {photo.abilities['photo:delete'] ? (
-            <button type="button" className="text-danger hover:underline" onClick={() => confirm('Remove this photo and its palettes?') && removePhoto.mutate()}>
+            <button
+              type="button"
+              className="text-danger hover:underline"
+              onClick={() => confirm('Remove this photo and its palettes?') && removePhoto.mutate()}
+            >
               Remove photo
             </button>
           ) : null}
@@ -49,7 +55,9 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
             key={`${p.regionId}-${p.variant}`}
             title={`${regionName(p.regionId)} — ${p.variant === 'raw' ? 'raw (as photographed)' : 'corrected to D65 from the reference patch'}`}
             colours={p.colours}
-            onToggleBackground={canEdit ? (c) => toggle.mutate({ colourId: c.id, background: !c.background }) : undefined}
+            onToggleBackground={
+              canEdit ? (c) => toggle.mutate({ colourId: c.id, background: !c.background }) : undefined
+            }
           />
         ))}
       </div>
@@ -74,7 +82,8 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
             <li className="flex flex-wrap gap-2">
               <span>grey reference patch</span>
               <span className="font-mono text-xs text-ink-soft">
-                xywh=pixel:{photo.referencePatch.x},{photo.referencePatch.y},{photo.referencePatch.w},{photo.referencePatch.h}
+                xywh=pixel:{photo.referencePatch.x},{photo.referencePatch.y},{photo.referencePatch.w},
+                {photo.referencePatch.h}
               </span>
               {canEdit ? (
                 <button type="button" className="text-action hover:underline" onClick={() => clearPatch.mutate(null)}>
@@ -90,7 +99,8 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
         <summary className="cursor-pointer">File facts</summary>
         <p className="mt-1 font-mono break-all">SHA-256 (fixity) {photo.sha256}</p>
         <p className="num">
-          {photo.format} · {formatBytes(photo.bytes)}{photo.capturedAt ? ` · taken ${formatLocalDateTime(photo.capturedAt)}` : ''}
+          {photo.format} · {formatBytes(photo.bytes)}
+          {photo.capturedAt ? ` · taken ${formatLocalDateTime(photo.capturedAt)}` : ''}
         </p>
         <ul data-testid="colour-facts">
           {colourFactsLines(photo.colour).map((l) => (

@@ -1,7 +1,14 @@
 import { useRef, useState, type DragEvent } from 'react';
 import { uploadPhoto, useUploadDone } from '../api';
 
-type Item = { key: string; name: string; bytes: number; phase: 'uploading' | 'processing' | 'done' | 'failed'; progress: number; message?: string };
+type Item = {
+  key: string;
+  name: string;
+  bytes: number;
+  phase: 'uploading' | 'processing' | 'done' | 'failed';
+  progress: number;
+  message?: string;
+};
 
 const MB = 1024 * 1024;
 
@@ -11,13 +18,17 @@ export function UploadPanel({ pieceId }: { pieceId: number }) {
   const [over, setOver] = useState(false);
   const input = useRef<HTMLInputElement>(null);
   const done = useUploadDone(pieceId);
-  const patch = (key: string, p: Partial<Item>) => setItems((all) => all.map((i) => (i.key === key ? { ...i, ...p } : i)));
+  const patch = (key: string, p: Partial<Item>) =>
+    setItems((all) => all.map((i) => (i.key === key ? { ...i, ...p } : i)));
 
   function start(files: FileList | File[]) {
     for (const file of Array.from(files)) {
       const key = `${file.name}-${file.size}-${Math.random()}`;
       setItems((all) => [...all, { key, name: file.name, bytes: file.size, phase: 'uploading', progress: 0 }]);
-      uploadPhoto(pieceId, file, { progress: (f) => patch(key, { progress: f }), uploaded: () => patch(key, { phase: 'processing', progress: 1 }) })
+      uploadPhoto(pieceId, file, {
+        progress: (f) => patch(key, { progress: f }),
+        uploaded: () => patch(key, { phase: 'processing', progress: 1 }),
+      })
         .then(() => {
           patch(key, { phase: 'done' });
           done();
@@ -44,7 +55,11 @@ export function UploadPanel({ pieceId }: { pieceId: number }) {
         className={`rounded-lg border-2 border-dashed p-6 text-center text-sm ${over ? 'border-action bg-action-tint' : 'border-rule-strong bg-sheet'}`}
       >
         <p>Drop photos here (JPEG, PNG, TIFF, WebP, HEIF/AVIF; up to 60 MB and 100 megapixels each), or</p>
-        <button type="button" className="mt-2 rounded-md border border-rule-strong bg-sheet px-4 py-2 font-medium hover:bg-paper" onClick={() => input.current?.click()}>
+        <button
+          type="button"
+          className="mt-2 rounded-md border border-rule-strong bg-sheet px-4 py-2 font-medium hover:bg-paper"
+          onClick={() => input.current?.click()}
+        >
           Choose photos…
         </button>
         <input

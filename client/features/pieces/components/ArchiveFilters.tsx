@@ -18,7 +18,16 @@ export function ArchiveFilters({ value, onChange, canSeeDrafts, canSeeDeleted }:
     onChange(next);
   };
   return (
-    <form ref={formRef} noValidate role="search" className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6 items-end" onSubmit={(e) => { e.preventDefault(); check(pieceListQuery, value); }}>
+    <form
+      ref={formRef}
+      noValidate
+      role="search"
+      className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6 items-end"
+      onSubmit={(e) => {
+        e.preventDefault();
+        check(pieceListQuery, value);
+      }}
+    >
       <div className="sm:col-span-3 lg:col-span-2">
         <label className="text-sm font-medium">
           Accession number or title
@@ -32,7 +41,11 @@ export function ArchiveFilters({ value, onChange, canSeeDrafts, canSeeDeleted }:
             aria-describedby={errors.q ? 'archive-q-err' : undefined}
           />
         </label>
-        {errors.q ? <p id="archive-q-err" className="mt-1 text-sm text-danger">{errors.q.join(' ')}</p> : null}
+        {errors.q ? (
+          <p id="archive-q-err" className="mt-1 text-sm text-danger">
+            {errors.q.join(' ')}
+          </p>
+        ) : null}
       </div>
       {canSeeDrafts ? (
         <label className="text-sm font-medium">
@@ -48,26 +61,36 @@ export function ArchiveFilters({ value, onChange, canSeeDrafts, canSeeDeleted }:
         Fibre
         <select className={select} value={value.fibre ?? ''} onChange={(e) => set('fibre', e.target.value)}>
           <option value="">any</option>
-          {vocab?.fibres.map((t) => <option key={t.term}>{t.term}</option>)}
+          {vocab?.fibres.map((t) => (
+            <option key={t.term}>{t.term}</option>
+          ))}
         </select>
       </label>
       <label className="text-sm font-medium">
         Technique
         <select className={select} value={value.technique ?? ''} onChange={(e) => set('technique', e.target.value)}>
           <option value="">any</option>
-          {vocab?.techniques.map((t) => <option key={t.term}>{t.term}</option>)}
+          {vocab?.techniques.map((t) => (
+            <option key={t.term}>{t.term}</option>
+          ))}
         </select>
       </label>
       <label className="text-sm font-medium">
         Dyestuff
         <select className={select} value={value.dyestuff ?? ''} onChange={(e) => set('dyestuff', e.target.value)}>
           <option value="">any</option>
-          {vocab?.dyestuffs.map((d) => <option key={d.name}>{d.name}</option>)}
+          {vocab?.dyestuffs.map((d) => (
+            <option key={d.name}>{d.name}</option>
+          ))}
         </select>
       </label>
       {canSeeDeleted ? (
         <label className="text-sm flex items-center gap-2 sm:col-span-3 lg:col-span-6">
-          <input type="checkbox" checked={value.deleted === 'only'} onChange={(e) => set('deleted', e.target.checked ? 'only' : '')} />
+          <input
+            type="checkbox"
+            checked={value.deleted === 'only'}
+            onChange={(e) => set('deleted', e.target.checked ? 'only' : '')}
+          />
           Show deleted pieces only
         </label>
       ) : null}

@@ -17,7 +17,12 @@ const columns: { key: Sort | null; label: string; wide?: boolean }[] = [
 ];
 
 export const yearsOf = (p: { dateText: string | null; earliestYear: number | null; latestYear: number | null }) =>
-  p.dateText ?? (p.earliestYear != null ? (p.latestYear != null && p.latestYear !== p.earliestYear ? `${p.earliestYear}–${p.latestYear}` : `${p.earliestYear}`) : '—');
+  p.dateText ??
+  (p.earliestYear != null
+    ? p.latestYear != null && p.latestYear !== p.earliestYear
+      ? `${p.earliestYear}–${p.latestYear}`
+      : `${p.earliestYear}`
+    : '—');
 
 export function StatusBadge({ status, deleted }: { status: string; deleted?: boolean }) {
   if (deleted) return <span className="rounded bg-danger-tint px-2 py-0.5 text-xs text-danger">deleted</span>;
@@ -28,7 +33,15 @@ export function StatusBadge({ status, deleted }: { status: string; deleted?: boo
   );
 }
 
-export function ArchiveTable({ rows, params, onSort }: { rows: PieceRow[]; params: ListParams; onSort: (sort: Sort, dir: 'asc' | 'desc') => void }) {
+export function ArchiveTable({
+  rows,
+  params,
+  onSort,
+}: {
+  rows: PieceRow[];
+  params: ListParams;
+  onSort: (sort: Sort, dir: 'asc' | 'desc') => void;
+}) {
   const sort = params.sort ?? 'accessionNumber';
   const dir = params.dir ?? 'asc';
   return (
@@ -44,7 +57,11 @@ export function ArchiveTable({ rows, params, onSort }: { rows: PieceRow[]; param
                 aria-sort={c.key === sort ? (dir === 'asc' ? 'ascending' : 'descending') : undefined}
               >
                 {c.key ? (
-                  <button type="button" className="hover:underline" onClick={() => onSort(c.key!, c.key === sort && dir === 'asc' ? 'desc' : 'asc')}>
+                  <button
+                    type="button"
+                    className="hover:underline"
+                    onClick={() => onSort(c.key!, c.key === sort && dir === 'asc' ? 'desc' : 'asc')}
+                  >
                     {c.label} {c.key === sort ? (dir === 'asc' ? '▲' : '▼') : ''}
                   </button>
                 ) : (
@@ -83,10 +100,18 @@ export function ArchiveGrid({ rows }: { rows: PieceRow[] }) {
     <ul className="grid gap-4 grid-cols-2 sm:grid-cols-3 lg:grid-cols-5">
       {rows.map((p) => (
         <li key={p.id}>
-          <Link to={paths.piece(p.id)} className="block rounded-lg border border-rule bg-sheet overflow-hidden hover:border-rule-strong">
+          <Link
+            to={paths.piece(p.id)}
+            className="block rounded-lg border border-rule bg-sheet overflow-hidden hover:border-rule-strong"
+          >
             <div className="aspect-square bg-neutral-light flex items-center justify-center">
               {p.thumbUrl ? (
-                <img src={p.thumbUrl} alt={`${p.accessionNumber}, ${p.title}`} className="max-h-full max-w-full object-contain" loading="lazy" />
+                <img
+                  src={p.thumbUrl}
+                  alt={`${p.accessionNumber}, ${p.title}`}
+                  className="max-h-full max-w-full object-contain"
+                  loading="lazy"
+                />
               ) : (
                 <span className="text-xs text-ink-faint">no photo yet</span>
               )}

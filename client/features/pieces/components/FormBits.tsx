@@ -2,7 +2,11 @@ import { useId, type ReactNode, type TextareaHTMLAttributes } from 'react';
 
 export const errorText = (e?: string[]) => (e?.length ? e.join(' ') : undefined);
 
-export function TextAreaField({ label, error, ...rest }: TextareaHTMLAttributes<HTMLTextAreaElement> & { label: string; error?: string[] }) {
+export function TextAreaField({
+  label,
+  error,
+  ...rest
+}: TextareaHTMLAttributes<HTMLTextAreaElement> & { label: string; error?: string[] }) {
   const id = useId();
   return (
     <div>
@@ -27,7 +31,19 @@ export function TextAreaField({ label, error, ...rest }: TextareaHTMLAttributes<
 }
 
 /** A group of checkboxes for terms from a vocabulary. */
-export function TermChecklist({ legend, terms, value, onChange, error }: { legend: string; terms: string[]; value: string[]; onChange: (v: string[]) => void; error?: string[] }) {
+export function TermChecklist({
+  legend,
+  terms,
+  value,
+  onChange,
+  error,
+}: {
+  legend: string;
+  terms: string[];
+  value: string[];
+  onChange: (v: string[]) => void;
+  error?: string[];
+}) {
   const id = useId();
   return (
     <fieldset aria-describedby={error?.length ? `${id}-err` : undefined}>
@@ -35,7 +51,11 @@ export function TermChecklist({ legend, terms, value, onChange, error }: { legen
       <div className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
         {terms.map((t) => (
           <label key={t} className="flex items-center gap-1.5 text-sm">
-            <input type="checkbox" checked={value.includes(t)} onChange={(e) => onChange(e.target.checked ? [...value, t] : value.filter((x) => x !== t))} />
+            <input
+              type="checkbox"
+              checked={value.includes(t)}
+              onChange={(e) => onChange(e.target.checked ? [...value, t] : value.filter((x) => x !== t))}
+            />
             {t}
           </label>
         ))}
@@ -70,7 +90,8 @@ export function EvidencedList({
   hint?: ReactNode;
 }) {
   const listId = useId();
-  const set = (i: number, patch: Partial<Evidenced>) => onChange(value.map((row, j) => (j === i ? { ...row, ...patch } : row)));
+  const set = (i: number, patch: Partial<Evidenced>) =>
+    onChange(value.map((row, j) => (j === i ? { ...row, ...patch } : row)));
   return (
     <fieldset>
       <legend className="text-sm font-medium">{legend}</legend>
@@ -95,7 +116,11 @@ export function EvidencedList({
                 aria-describedby={errors[`${field}.${i}.name`] ? `${listId}-${i}-err` : undefined}
                 className="block w-full rounded-md border border-rule-strong bg-sheet px-3 py-2 text-sm"
               />
-              {errors[`${field}.${i}.name`] ? <span id={`${listId}-${i}-err`} className="text-danger">{errorText(errors[`${field}.${i}.name`])}</span> : null}
+              {errors[`${field}.${i}.name`] ? (
+                <span id={`${listId}-${i}-err`} className="text-danger">
+                  {errorText(errors[`${field}.${i}.name`])}
+                </span>
+              ) : null}
             </label>
             <label className="text-sm">
               <span className="sr-only">
@@ -110,16 +135,28 @@ export function EvidencedList({
                 <option value="identified">identified (by analysis)</option>
               </select>
             </label>
-            <button type="button" className="px-2 py-2 text-sm text-action hover:underline" onClick={() => onChange(value.filter((_, j) => j !== i))}>
+            <button
+              type="button"
+              className="px-2 py-2 text-sm text-action hover:underline"
+              onClick={() => onChange(value.filter((_, j) => j !== i))}
+            >
               Remove
             </button>
           </li>
         ))}
       </ul>
-      <button type="button" className="mt-2 text-sm text-action hover:underline" onClick={() => onChange([...value, { name: '', evidence: 'attributed' }])}>
+      <button
+        type="button"
+        className="mt-2 text-sm text-action hover:underline"
+        onClick={() => onChange([...value, { name: '', evidence: 'attributed' }])}
+      >
         Add a line
       </button>
-      {errors[field] ? <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>{errorText(errors[field])}</p> : null}
+      {errors[field] ? (
+        <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>
+          {errorText(errors[field])}
+        </p>
+      ) : null}
     </fieldset>
   );
 }

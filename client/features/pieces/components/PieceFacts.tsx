@@ -15,11 +15,21 @@ export function PieceFacts({ piece }: { piece: Piece }) {
     ['Fibres', piece.fibres.join(', ') || null],
     ['Weave', piece.weave],
     ['Thread count', piece.threadCount],
-    ['Height × width', piece.heightMm != null || piece.widthMm != null ? <span className="num">{`${mm(piece.heightMm) ?? '—'} × ${mm(piece.widthMm) ?? '—'}`}</span> : null],
+    [
+      'Height × width',
+      piece.heightMm != null || piece.widthMm != null ? (
+        <span className="num">{`${mm(piece.heightMm) ?? '—'} × ${mm(piece.widthMm) ?? '—'}`}</span>
+      ) : null,
+    ],
     ['Pattern repeat', piece.repeatMm != null ? <span className="num">{mm(piece.repeatMm)}</span> : null],
     ['Techniques', piece.techniques.join(', ') || null],
     ['Dyestuffs', piece.dyestuffs.length ? piece.dyestuffs.map((d) => `${d.name} (${d.evidence})`).join('; ') : null],
-    ['Historical mordants', piece.historicalMordants.length ? piece.historicalMordants.map((d) => `${d.name} (${d.evidence})`).join('; ') : null],
+    [
+      'Historical mordants',
+      piece.historicalMordants.length
+        ? piece.historicalMordants.map((d) => `${d.name} (${d.evidence})`).join('; ')
+        : null,
+    ],
     ['Description', piece.description],
     ['Provenance', piece.provenance],
     ['Condition', piece.condition],

@@ -11,7 +11,10 @@ export function PieceHistory({ pieceId }: { pieceId: number }) {
     <ol className="space-y-2 text-sm" data-testid="history">
       {history.data.items.map((e) => (
         <li key={e.id} className="border-l-2 border-rule pl-3">
-          <time className="num text-ink-soft" dateTime={e.at}>{formatDateTime(e.at)}</time> · {e.actor?.name ?? 'The system'}: {describeHistory(e)}
+          <time className="num text-ink-soft" dateTime={e.at}>
+            {formatDateTime(e.at)}
+          </time>{' '}
+          · {e.actor?.name ?? 'The system'}: {describeHistory(e)}
         </li>
       ))}
     </ol>

@@ -1,5 +1,12 @@
 import { type FormEvent } from 'react';
-import { CHEMICAL_ROLES, CHEMICAL_STATUSES, chemicalCreateSchema, HAZARD_BASES, HAZARD_BASIS_LABELS, SIGNAL_WORDS } from '../../../../shared/schemas/reference';
+import {
+  CHEMICAL_ROLES,
+  CHEMICAL_STATUSES,
+  chemicalCreateSchema,
+  HAZARD_BASES,
+  HAZARD_BASIS_LABELS,
+  SIGNAL_WORDS,
+} from '../../../../shared/schemas/reference';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { FormAlert } from '../../../components/form/FormAlert';
@@ -34,14 +41,26 @@ export function AddChemicalForm() {
   }
 
   return (
-    <form ref={formRef} onSubmit={onSubmit} noValidate className="rounded-lg border border-rule bg-sheet p-4 space-y-3" aria-labelledby="add-chemical-heading">
+    <form
+      ref={formRef}
+      onSubmit={onSubmit}
+      noValidate
+      className="rounded-lg border border-rule bg-sheet p-4 space-y-3"
+      aria-labelledby="add-chemical-heading"
+    >
       <h3 id="add-chemical-heading" className="text-lg font-semibold">
         Add chemical
       </h3>
       <div className="grid gap-3 sm:grid-cols-3">
         <Field label="Name" name="name" required error={errors.name} />
         <Select label="Role" name="role" defaultValue="mordant" options={options(CHEMICAL_ROLES)} error={errors.role} />
-        <Select label="Status" name="status" defaultValue="permitted" options={options(CHEMICAL_STATUSES)} error={errors.status} />
+        <Select
+          label="Status"
+          name="status"
+          defaultValue="permitted"
+          options={options(CHEMICAL_STATUSES)}
+          error={errors.status}
+        />
         <Field
           label="Formula"
           name="formula"
@@ -55,7 +74,13 @@ export function AddChemicalForm() {
       <fieldset className="space-y-3">
         <legend className="text-sm font-semibold">Hazard data</legend>
         <div className="grid gap-3 sm:grid-cols-3">
-          <Select label="Signal word" name="signalWord" defaultValue="" options={[{ value: '', label: 'none' }, ...options(SIGNAL_WORDS)]} error={errors.signalWord} />
+          <Select
+            label="Signal word"
+            name="signalWord"
+            defaultValue=""
+            options={[{ value: '', label: 'none' }, ...options(SIGNAL_WORDS)]}
+            error={errors.signalWord}
+          />
           <Select
             label="Hazard data from"
             name="hazardBasis"
@@ -63,7 +88,12 @@ export function AddChemicalForm() {
             options={HAZARD_BASES.map((b) => ({ value: b, label: HAZARD_BASIS_LABELS[b] }))}
             error={errors.hazardBasis}
           />
-          <Field label="Source of the hazard data" name="hazardSource" error={errors.hazardSource} hint="e.g. the Annex VI index number or the supplier's SDS and its date" />
+          <Field
+            label="Source of the hazard data"
+            name="hazardSource"
+            error={errors.hazardSource}
+            hint="e.g. the Annex VI index number or the supplier's SDS and its date"
+          />
         </div>
         <TextArea label="H statements, one a line" name="hStatements" rows={3} error={under('hStatements')} />
         <div className="grid gap-3 sm:grid-cols-2">
@@ -75,7 +105,9 @@ export function AddChemicalForm() {
         {create.isPending ? 'Adding…' : 'Add chemical'}
       </Button>
       <FormAlert message={formMessage(create.error)} />
-      {create.data && !create.error ? <FormAlert tone="ok" message={`${create.data.name} added to the reference.`} /> : null}
+      {create.data && !create.error ? (
+        <FormAlert tone="ok" message={`${create.data.name} added to the reference.`} />
+      ) : null}
     </form>
   );
 }

@@ -25,7 +25,13 @@ export function AddDyestuffForm() {
   }
 
   return (
-    <form ref={formRef} onSubmit={onSubmit} noValidate className="rounded-lg border border-rule bg-sheet p-4 space-y-3" aria-labelledby="add-dyestuff-heading">
+    <form
+      ref={formRef}
+      onSubmit={onSubmit}
+      noValidate
+      className="rounded-lg border border-rule bg-sheet p-4 space-y-3"
+      aria-labelledby="add-dyestuff-heading"
+    >
       <h3 id="add-dyestuff-heading" className="text-lg font-semibold">
         Add dyestuff
       </h3>
@@ -41,7 +47,9 @@ export function AddDyestuffForm() {
         {create.isPending ? 'Adding…' : 'Add dyestuff'}
       </Button>
       <FormAlert message={formMessage(create.error)} />
-      {create.data && !create.error ? <FormAlert tone="ok" message={`${create.data.name} added to the reference.`} /> : null}
+      {create.data && !create.error ? (
+        <FormAlert tone="ok" message={`${create.data.name} added to the reference.`} />
+      ) : null}
     </form>
   );
 }

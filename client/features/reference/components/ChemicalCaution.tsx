@@ -17,12 +17,25 @@ export function hazardSourceLine(ghs: ChemicalView['ghs']): string | null {
  * come from, and the deferral to the SDS. `modernUse` marks a modern trial step, where a historical-only
  * chemical gets a prominent warning instead of a quiet note.
  */
-export function ChemicalCaution({ chemical, modernUse = false, compact = false }: { chemical: CautionChemical; modernUse?: boolean; compact?: boolean }) {
+export function ChemicalCaution({
+  chemical,
+  modernUse = false,
+  compact = false,
+}: {
+  chemical: CautionChemical;
+  modernUse?: boolean;
+  compact?: boolean;
+}) {
   const { ghs, status } = chemical;
   const statements = ghs.labelStatements;
   const hazardous = ghs.signalWord !== null || ghs.hStatements.length > 0 || status !== 'permitted';
   const alarm = status === 'historical-only' && modernUse;
-  const tone = alarm || ghs.signalWord === 'Danger' ? 'border-danger bg-danger-tint' : hazardous ? 'border-warn bg-warn-tint' : 'border-rule bg-paper';
+  const tone =
+    alarm || ghs.signalWord === 'Danger'
+      ? 'border-danger bg-danger-tint'
+      : hazardous
+        ? 'border-warn bg-warn-tint'
+        : 'border-rule bg-paper';
   const source = hazardSourceLine(ghs);
   return (
     <aside
@@ -37,7 +50,9 @@ export function ChemicalCaution({ chemical, modernUse = false, compact = false }
       ) : null}
       <p>
         <span className="font-semibold text-ink">{chemical.name}: </span>
-        <span className={`font-semibold ${ghs.signalWord === 'Danger' ? 'text-danger' : ghs.signalWord === 'Warning' ? 'text-warn' : 'text-ink-soft'}`}>
+        <span
+          className={`font-semibold ${ghs.signalWord === 'Danger' ? 'text-danger' : ghs.signalWord === 'Warning' ? 'text-warn' : 'text-ink-soft'}`}
+        >
           {ghs.signalWord ?? 'No GHS signal word'}
         </span>
         {ghs.caution ? <span className="text-ink"> — {ghs.caution}</span> : null}

@@ -24,7 +24,11 @@ export function ColourChooser({
   onClear: () => void;
 }) {
   const [hex, setHex] = useState(value?.hex ?? '');
-  const [lab, setLab] = useState({ L: value?.L?.toString() ?? '', a: value?.a?.toString() ?? '', b: value?.b?.toString() ?? '' });
+  const [lab, setLab] = useState({
+    L: value?.L?.toString() ?? '',
+    a: value?.a?.toString() ?? '',
+    b: value?.b?.toString() ?? '',
+  });
   const [radius, setRadius] = useState(String(value?.maxDeltaE ?? 5));
   const local = useFormErrors();
   // What is wrong with the shade in the URL (checked with the shared schema, or the server's 400), focused like any form's errors.
@@ -39,7 +43,11 @@ export function ColourChooser({
     setRadius(String(value?.maxDeltaE ?? 5));
   }, [value?.hex, value?.L, value?.a, value?.b, value?.maxDeltaE]);
 
-  const pickerHex = HEX_RE.test(hex) ? `#${hex.replace('#', '')}` : lab.L !== '' && lab.a !== '' && lab.b !== '' ? labToHex({ L: +lab.L, a: +lab.a, b: +lab.b }) : '#9b2f2f';
+  const pickerHex = HEX_RE.test(hex)
+    ? `#${hex.replace('#', '')}`
+    : lab.L !== '' && lab.a !== '' && lab.b !== ''
+      ? labToHex({ L: +lab.L, a: +lab.a, b: +lab.b })
+      : '#9b2f2f';
   const fromHex = (h: string) => {
     setHex(h.replace('#', ''));
     if (HEX_RE.test(h)) {
@@ -67,19 +75,62 @@ export function ColourChooser({
       <div className="flex items-end gap-3">
         <label className="block text-sm font-medium">
           Picker
-          <input type="color" className="mt-1 block h-10 w-14 rounded border border-rule-strong bg-neutral-ground p-1" value={pickerHex} onChange={(e) => fromHex(e.target.value)} />
+          <input
+            type="color"
+            className="mt-1 block h-10 w-14 rounded border border-rule-strong bg-neutral-ground p-1"
+            value={pickerHex}
+            onChange={(e) => fromHex(e.target.value)}
+          />
         </label>
-        <Field label="Hex" value={hex} onChange={(e) => setHex(e.target.value)} placeholder="9b2f2f" className="flex-1 font-mono" error={err('hex')} />
+        <Field
+          label="Hex"
+          value={hex}
+          onChange={(e) => setHex(e.target.value)}
+          placeholder="9b2f2f"
+          className="flex-1 font-mono"
+          error={err('hex')}
+        />
       </div>
       <p className="text-xs text-ink-soft">
-        CIELAB under {conditionsText(IMAGE_ESTIMATE_CONDITIONS)}, the conditions of the palettes searched (image estimates); a hex is read as sRGB.
+        CIELAB under {conditionsText(IMAGE_ESTIMATE_CONDITIONS)}, the conditions of the palettes searched (image
+        estimates); a hex is read as sRGB.
       </p>
       <div className="grid grid-cols-3 gap-2">
-        <Field label="L*" inputMode="decimal" className="num" value={lab.L} onChange={(e) => setLab({ ...lab, L: e.target.value })} error={err('L')} />
-        <Field label="a*" inputMode="decimal" className="num" value={lab.a} onChange={(e) => setLab({ ...lab, a: e.target.value })} error={err('a')} />
-        <Field label="b*" inputMode="decimal" className="num" value={lab.b} onChange={(e) => setLab({ ...lab, b: e.target.value })} error={err('b')} />
+        <Field
+          label="L*"
+          inputMode="decimal"
+          className="num"
+          value={lab.L}
+          onChange={(e) => setLab({ ...lab, L: e.target.value })}
+          error={err('L')}
+        />
+        <Field
+          label="a*"
+          inputMode="decimal"
+          className="num"
+          value={lab.a}
+          onChange={(e) => setLab({ ...lab, a: e.target.value })}
+          error={err('a')}
+        />
+        <Field
+          label="b*"
+          inputMode="decimal"
+          className="num"
+          value={lab.b}
+          onChange={(e) => setLab({ ...lab, b: e.target.value })}
+          error={err('b')}
+        />
       </div>
-      <Field label="Radius" unit="ΔE00" inputMode="decimal" className="num" value={radius} onChange={(e) => setRadius(e.target.value)} error={err('maxDeltaE')} hint="Default 5; 1 is barely visible, above 5 a clearly different shade (common practice)." />
+      <Field
+        label="Radius"
+        unit="ΔE00"
+        inputMode="decimal"
+        className="num"
+        value={radius}
+        onChange={(e) => setRadius(e.target.value)}
+        error={err('maxDeltaE')}
+        hint="Default 5; 1 is barely visible, above 5 a clearly different shade (common practice)."
+      />
       <div className="flex flex-wrap gap-2">
         <Button type="submit">Find this hex</Button>
         <Button type="button" variant="secondary" onClick={submitLab}>

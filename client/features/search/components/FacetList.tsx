@@ -10,7 +10,16 @@ const TITLES: Record<FacetName, string> = {
   place: 'Place',
   status: 'Status',
 };
-const ORDER: FacetName[] = ['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique', 'century', 'place', 'status'];
+const ORDER: FacetName[] = [
+  'dyestuff',
+  'historicalMordant',
+  'modernMordant',
+  'fibre',
+  'technique',
+  'century',
+  'place',
+  'status',
+];
 
 /** Facet checkboxes with their counts; counts already combine the text query and the other choices. */
 export function FacetList({
@@ -29,7 +38,12 @@ export function FacetList({
     <div aria-label="Facets" role="region">
       <div className="flex items-center justify-between mb-2">
         <h2 className="text-sm font-semibold uppercase tracking-wide text-ink-soft">Narrow by</h2>
-        <button type="button" className="text-sm text-action hover:underline disabled:opacity-50" onClick={onClear} disabled={!any}>
+        <button
+          type="button"
+          className="text-sm text-action hover:underline disabled:opacity-50"
+          onClick={onClear}
+          disabled={!any}
+        >
           Clear all
         </button>
       </div>

@@ -13,15 +13,27 @@ export function ShadeResults({ items }: { items: ShadeItem[] }) {
   const [view, setView] = useState<'table' | 'grid'>('table');
   return (
     <div>
-      <div role="group" aria-label="Show results as" className="mb-3 inline-flex rounded-md border border-rule-strong text-sm">
+      <div
+        role="group"
+        aria-label="Show results as"
+        className="mb-3 inline-flex rounded-md border border-rule-strong text-sm"
+      >
         {(['table', 'grid'] as const).map((v) => (
-          <button key={v} type="button" aria-pressed={view === v} onClick={() => setView(v)} className={`px-3 py-1.5 ${view === v ? 'bg-neutral-light font-medium' : ''}`}>
+          <button
+            key={v}
+            type="button"
+            aria-pressed={view === v}
+            onClick={() => setView(v)}
+            className={`px-3 py-1.5 ${view === v ? 'bg-neutral-light font-medium' : ''}`}
+          >
             {v === 'table' ? 'Table' : 'Swatches'}
           </button>
         ))}
       </div>
       {/* Every match is a photo palette colour, so all the figures share one set of conditions. */}
-      <p className="mb-2 text-xs text-ink-soft">Colours of the matches: CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} /></p>
+      <p className="mb-2 text-xs text-ink-soft">
+        Colours of the matches: CIELAB, <ViewingConditions colour={IMAGE_ESTIMATE} />
+      </p>
       {view === 'table' ? (
         // Eight columns of figures do not fit a phone: the table scrolls inside its own box, never the page.
         <div className="relative overflow-x-auto">
@@ -69,13 +81,20 @@ export function ShadeResults({ items }: { items: ShadeItem[] }) {
             <li key={`${i.pieceId}-${i.photoId}`} className="rounded-lg border border-rule bg-sheet overflow-hidden">
               <Link to={paths.piece(i.pieceId)} className="block">
                 <div className="bg-neutral-ground p-2 flex gap-2">
-                  <img src={thumb(i.photoId)} alt={`Photo of ${i.accessionNumber}`} loading="lazy" className="h-20 w-20 object-cover bg-neutral-light" />
+                  <img
+                    src={thumb(i.photoId)}
+                    alt={`Photo of ${i.accessionNumber}`}
+                    loading="lazy"
+                    className="h-20 w-20 object-cover bg-neutral-light"
+                  />
                   <span className="flex-1 rounded-sm" style={{ background: i.colour.hex }} aria-hidden="true" />
                 </div>
                 <div className="p-2 text-xs">
                   <div className="font-mono">{i.accessionNumber}</div>
                   <div className="truncate">{i.title}</div>
-                  <div className="num text-ink-soft">ΔE00 {i.deltaE00.toFixed(2)} · {pct(i.colour.share)} of photo</div>
+                  <div className="num text-ink-soft">
+                    ΔE00 {i.deltaE00.toFixed(2)} · {pct(i.colour.share)} of photo
+                  </div>
                 </div>
               </Link>
             </li>

@@ -3,8 +3,16 @@ import type { SearchHighlight, SearchItem } from '../../../../shared/schemas/sea
 import { paths } from '../../../paths';
 
 const FIELD_NAMES: Record<string, string> = {
-  accessionNumber: 'Accession number', title: 'Title', objectName: 'Object', description: 'Description', provenance: 'Provenance', place: 'Place',
-  techniques: 'Techniques', dyestuffs: 'Dyestuffs', historicalMordants: 'Historical mordants', modernMordants: 'Modern mordants',
+  accessionNumber: 'Accession number',
+  title: 'Title',
+  objectName: 'Object',
+  description: 'Description',
+  provenance: 'Provenance',
+  place: 'Place',
+  techniques: 'Techniques',
+  dyestuffs: 'Dyestuffs',
+  historicalMordants: 'Historical mordants',
+  modernMordants: 'Modern mordants',
 };
 
 function Marked({ h }: { h: SearchHighlight }) {
@@ -16,7 +24,19 @@ function Marked({ h }: { h: SearchHighlight }) {
     at = e;
   }
   parts.push({ text: h.text.slice(at), mark: false });
-  return <>{parts.map((p, i) => (p.mark ? <mark key={i} className="bg-warn-tint text-ink rounded-sm">{p.text}</mark> : <span key={i}>{p.text}</span>))}</>;
+  return (
+    <>
+      {parts.map((p, i) =>
+        p.mark ? (
+          <mark key={i} className="bg-warn-tint text-ink rounded-sm">
+            {p.text}
+          </mark>
+        ) : (
+          <span key={i}>{p.text}</span>
+        ),
+      )}
+    </>
+  );
 }
 
 /** Text matches: the piece, a thumbnail, and where the words were found. */
@@ -26,7 +46,14 @@ export function TextResults({ items }: { items: SearchItem[] }) {
       {items.map((i) => (
         <li key={i.id} className="flex gap-3 rounded-lg border border-rule bg-sheet p-3">
           <div className="h-16 w-16 shrink-0 rounded bg-neutral-ground overflow-hidden">
-            {i.photoId ? <img src={`/media/photos/${i.photoId}/thumb`} alt="" loading="lazy" className="h-full w-full object-cover" /> : null}
+            {i.photoId ? (
+              <img
+                src={`/media/photos/${i.photoId}/thumb`}
+                alt=""
+                loading="lazy"
+                className="h-full w-full object-cover"
+              />
+            ) : null}
           </div>
           <div className="min-w-0">
             <Link to={paths.piece(i.id)} className="text-action hover:underline font-medium">
@@ -42,7 +69,9 @@ export function TextResults({ items }: { items: SearchItem[] }) {
                 <Marked h={h} />
               </p>
             ))}
-            {i.viaTrials.length ? <p className="text-xs text-ink-soft mt-1">Found in trial {i.viaTrials.join(', ')}</p> : null}
+            {i.viaTrials.length ? (
+              <p className="text-xs text-ink-soft mt-1">Found in trial {i.viaTrials.join(', ')}</p>
+            ) : null}
           </div>
         </li>
       ))}

@@ -28,7 +28,13 @@ export function InviteForm() {
 
   const sent = invite.data?.invitation;
   return (
-    <form ref={formRef} onSubmit={onSubmit} noValidate className="rounded-lg border border-rule bg-sheet p-4 space-y-3" aria-labelledby="invite-heading">
+    <form
+      ref={formRef}
+      onSubmit={onSubmit}
+      noValidate
+      className="rounded-lg border border-rule bg-sheet p-4 space-y-3"
+      aria-labelledby="invite-heading"
+    >
       <h2 id="invite-heading" className="text-lg font-semibold">
         Invite someone
       </h2>
@@ -41,7 +47,10 @@ export function InviteForm() {
       </div>
       <FormAlert message={formMessage(invite.error)} />
       {sent && !invite.error ? (
-        <FormAlert tone="ok" message={`Invitation sent to ${sent.email} as ${roleLabel[sent.role]}; the link works once until ${formatDate(sent.expiresAt)}.`} />
+        <FormAlert
+          tone="ok"
+          message={`Invitation sent to ${sent.email} as ${roleLabel[sent.role]}; the link works once until ${formatDate(sent.expiresAt)}.`}
+        />
       ) : null}
     </form>
   );

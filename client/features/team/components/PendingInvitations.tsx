@@ -13,7 +13,12 @@ export function PendingInvitations() {
   const revoke = useRevokeInvitation();
   const [done, setDone] = useState<string | null>(null);
   if (list.isPending) return <p className="text-ink-soft">Loading the invitations…</p>;
-  if (list.error) return <p role="alert" className="text-danger">{list.error.message}</p>;
+  if (list.error)
+    return (
+      <p role="alert" className="text-danger">
+        {list.error.message}
+      </p>
+    );
   const items = list.data.items;
   return (
     <section className="space-y-3" aria-labelledby="pending-heading">
@@ -27,20 +32,33 @@ export function PendingInvitations() {
       ) : (
         <ul className="divide-y divide-rule rounded-lg border border-rule bg-sheet text-sm">
           {items.map((i) => (
-            <li key={i.id} className="flex flex-wrap items-center justify-between gap-3 px-3 py-2" data-testid={`invitation-${i.email}`}>
+            <li
+              key={i.id}
+              className="flex flex-wrap items-center justify-between gap-3 px-3 py-2"
+              data-testid={`invitation-${i.email}`}
+            >
               <div>
                 <span className="font-mono">{i.email}</span> as {roleLabel[i.role]}
                 <div className="text-xs text-ink-soft">
                   Sent {formatDate(i.sentAt)}
                   {i.invitedBy ? ` by ${i.invitedBy}` : ''} ·{' '}
-                  {i.expired ? <strong className="text-danger">link expired {formatDate(i.expiresAt)}</strong> : `link works until ${formatDate(i.expiresAt)}`}
+                  {i.expired ? (
+                    <strong className="text-danger">link expired {formatDate(i.expiresAt)}</strong>
+                  ) : (
+                    `link works until ${formatDate(i.expiresAt)}`
+                  )}
                 </div>
               </div>
               <div className="flex gap-2">
                 <Button
                   variant="secondary"
                   disabled={resend.isPending}
-                  onClick={() => resend.mutate(i.id, { onSuccess: () => setDone(`A new link is on its way to ${i.email}; the earlier link no longer works.`) })}
+                  onClick={() =>
+                    resend.mutate(i.id, {
+                      onSuccess: () =>
+                        setDone(`A new link is on its way to ${i.email}; the earlier link no longer works.`),
+                    })
+                  }
                 >
                   Resend
                 </Button>

@@ -17,17 +17,33 @@ export function TeamTable({ members, meId }: { members: TeamMember[]; meId: numb
         <table className="w-full text-sm">
           <thead className="bg-paper text-left text-ink-soft">
             <tr>
-              <th scope="col" className="px-3 py-2 font-medium">Name</th>
-              <th scope="col" className="px-3 py-2 font-medium">E-mail</th>
-              <th scope="col" className="px-3 py-2 font-medium">Role</th>
-              <th scope="col" className="px-3 py-2 font-medium">Status</th>
-              <th scope="col" className="px-3 py-2 font-medium">Joined</th>
-              <th scope="col" className="px-3 py-2 font-medium"><span className="sr-only">Actions</span></th>
+              <th scope="col" className="px-3 py-2 font-medium">
+                Name
+              </th>
+              <th scope="col" className="px-3 py-2 font-medium">
+                E-mail
+              </th>
+              <th scope="col" className="px-3 py-2 font-medium">
+                Role
+              </th>
+              <th scope="col" className="px-3 py-2 font-medium">
+                Status
+              </th>
+              <th scope="col" className="px-3 py-2 font-medium">
+                Joined
+              </th>
+              <th scope="col" className="px-3 py-2 font-medium">
+                <span className="sr-only">Actions</span>
+              </th>
             </tr>
           </thead>
           <tbody>
             {members.map((m) => (
-              <tr key={m.id} className={`border-t border-rule ${m.active ? '' : 'text-ink-faint'}`} data-testid={`member-${m.email}`}>
+              <tr
+                key={m.id}
+                className={`border-t border-rule ${m.active ? '' : 'text-ink-faint'}`}
+                data-testid={`member-${m.email}`}
+              >
                 <th scope="row" className="px-3 py-2 text-left font-medium">
                   {m.name}
                   {m.id === meId ? <span className="ml-1 text-xs text-ink-faint">(you)</span> : null}

@@ -10,13 +10,18 @@ export function MetalLoad({ load }: { load: TrialView['metalLoad'] }) {
         <ul className="space-y-1" aria-label="What this reproduction avoided">
           {avoided.map((r) => (
             <li key={r.metal} className="text-lg">
-              <span className="font-mono font-semibold">{grams(r.avoidedG)}</span> of {METAL_NAMES[r.metal] ?? r.metal} not used
-              <span className="ml-2 text-sm text-ink-soft">(<span className="font-mono">{fmt(r.beforeGPerKgFibre, 2)} g</span> per kg fibre)</span>
+              <span className="font-mono font-semibold">{grams(r.avoidedG)}</span> of {METAL_NAMES[r.metal] ?? r.metal}{' '}
+              not used
+              <span className="ml-2 text-sm text-ink-soft">
+                (<span className="font-mono">{fmt(r.beforeGPerKgFibre, 2)} g</span> per kg fibre)
+              </span>
             </li>
           ))}
         </ul>
       ) : (
-        <p className="text-ink-soft">No heavy metal avoided yet: record the historical amount of each substitution to see it.</p>
+        <p className="text-ink-soft">
+          No heavy metal avoided yet: record the historical amount of each substitution to see it.
+        </p>
       )}
       {load.rows.length ? (
         <div className="overflow-x-auto rounded-lg border border-rule bg-sheet">
@@ -34,7 +39,10 @@ export function MetalLoad({ load }: { load: TrialView['metalLoad'] }) {
             <tbody>
               {load.rows.map((r) => (
                 <tr key={r.metal} className="border-t border-rule">
-                  <td className="px-3 py-2">{METAL_NAMES[r.metal] ?? r.metal} <span className="font-mono text-ink-faint">{r.metal}</span>{r.heavy ? <span className="ml-1 text-xs text-danger">heavy metal</span> : null}</td>
+                  <td className="px-3 py-2">
+                    {METAL_NAMES[r.metal] ?? r.metal} <span className="font-mono text-ink-faint">{r.metal}</span>
+                    {r.heavy ? <span className="ml-1 text-xs text-danger">heavy metal</span> : null}
+                  </td>
                   <td className="px-3 py-2 text-right font-mono">{grams(r.beforeG)}</td>
                   <td className="px-3 py-2 text-right font-mono">{grams(r.afterG)}</td>
                   <td className="px-3 py-2 text-right font-mono">{fmt(r.beforeGPerKgFibre, 3)} g/kg</td>
@@ -46,8 +54,11 @@ export function MetalLoad({ load }: { load: TrialView['metalLoad'] }) {
         </div>
       ) : null}
       <p className="text-xs text-ink-faint">
-        Metal mass = chemical mass × metal mass fraction from the formula (IUPAC 2021 abridged atomic weights), for <span className="font-mono">{fmt(load.fibreMassG, 1)} g</span> dry fibre.
-        {load.incomplete ? ` ${load.incomplete} substitution${load.incomplete === 1 ? ' has' : 's have'} no amount and ${load.incomplete === 1 ? 'is' : 'are'} left out.` : ''}
+        Metal mass = chemical mass × metal mass fraction from the formula (IUPAC 2021 abridged atomic weights), for{' '}
+        <span className="font-mono">{fmt(load.fibreMassG, 1)} g</span> dry fibre.
+        {load.incomplete
+          ? ` ${load.incomplete} substitution${load.incomplete === 1 ? ' has' : 's have'} no amount and ${load.incomplete === 1 ? 'is' : 'are'} left out.`
+          : ''}
       </p>
     </div>
   );

@@ -19,7 +19,17 @@ export function TrialNewPage() {
   const navigate = useNavigate();
   const create = useCreateTrial();
   const [kind, setKind] = useState<'modern' | 'historical'>('modern');
-  const [values, setValues] = useState<TrialFormValues>({ status: 'planned', fibre: 'cotton', weave: '', gsm: '', dryMassG: '', dryMassBasis: 'air-dry', startedOn: '', notes: '', target: '' });
+  const [values, setValues] = useState<TrialFormValues>({
+    status: 'planned',
+    fibre: 'cotton',
+    weave: '',
+    gsm: '',
+    dryMassG: '',
+    dryMassBasis: 'air-dry',
+    startedOn: '',
+    notes: '',
+    target: '',
+  });
   const { formRef, errors, check, fromServer } = useFormErrors();
 
   return (
@@ -28,7 +38,11 @@ export function TrialNewPage() {
       lead={
         pieceId && piece.data ? (
           <>
-            Reproducing <Link className="underline" to={paths.piece(pieceId)}><span className="font-mono">{piece.data.piece.accessionNumber}</span> {piece.data.piece.title}</Link>. The server gives the trial its code; the curator who catalogued the piece is told by e-mail.
+            Reproducing{' '}
+            <Link className="underline" to={paths.piece(pieceId)}>
+              <span className="font-mono">{piece.data.piece.accessionNumber}</span> {piece.data.piece.title}
+            </Link>
+            . The server gives the trial its code; the curator who catalogued the piece is told by e-mail.
           </>
         ) : (
           'The server gives the trial its code. Attach it to a piece from the piece page to aim at one of its colours.'
@@ -42,21 +56,32 @@ export function TrialNewPage() {
         onSubmit={(e) => {
           e.preventDefault();
           const data = check(trialCreateSchema, { ...toTrialInput(values), kind, pieceId });
-          if (data) create.mutate(data, { onSuccess: ({ trial }) => navigate(paths.trial(trial.id)), onError: fromServer });
+          if (data)
+            create.mutate(data, { onSuccess: ({ trial }) => navigate(paths.trial(trial.id)), onError: fromServer });
         }}
       >
         <fieldset>
           <legend className="text-sm font-medium">Kind of trial</legend>
           <div className="mt-1 flex flex-wrap gap-4 text-sm">
-            <label className="flex items-center gap-2"><input type="radio" name="kind" checked={kind === 'modern'} onChange={() => setKind('modern')} /> Modern reproduction (to be dyed)</label>
-            <label className="flex items-center gap-2"><input type="radio" name="kind" checked={kind === 'historical'} onChange={() => setKind('historical')} /> Historical recipe, recorded for scholarship only</label>
+            <label className="flex items-center gap-2">
+              <input type="radio" name="kind" checked={kind === 'modern'} onChange={() => setKind('modern')} /> Modern
+              reproduction (to be dyed)
+            </label>
+            <label className="flex items-center gap-2">
+              <input type="radio" name="kind" checked={kind === 'historical'} onChange={() => setKind('historical')} />{' '}
+              Historical recipe, recorded for scholarship only
+            </label>
           </div>
         </fieldset>
         <TrialFields values={values} onChange={setValues} errors={errors} pieceId={pieceId} />
         <FormAlert message={formMessage(create.error) ?? errors._?.join(' ') ?? null} />
         <div className="flex gap-3">
-          <Button type="submit" disabled={create.isPending}>{create.isPending ? 'Saving…' : 'Create trial'}</Button>
-          <Link className="px-4 py-2 text-sm underline" to={pieceId ? paths.piece(pieceId) : paths.trials()}>Cancel</Link>
+          <Button type="submit" disabled={create.isPending}>
+            {create.isPending ? 'Saving…' : 'Create trial'}
+          </Button>
+          <Link className="px-4 py-2 text-sm underline" to={pieceId ? paths.piece(pieceId) : paths.trials()}>
+            Cancel
+          </Link>
         </div>
       </form>
     </Page>

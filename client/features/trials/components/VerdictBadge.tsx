@@ -8,5 +8,9 @@ const tone: Record<string, string> = {
 };
 
 export function VerdictBadge({ verdict }: { verdict: string }) {
-  return <span className={`inline-block rounded px-2 py-0.5 text-xs font-semibold ${tone[verdict] ?? 'bg-neutral-light'}`}>{VERDICT_WORDS[verdict] ?? verdict}</span>;
+  return (
+    <span className={`inline-block rounded px-2 py-0.5 text-xs font-semibold ${tone[verdict] ?? 'bg-neutral-light'}`}>
+      {VERDICT_WORDS[verdict] ?? verdict}
+    </span>
+  );
 }
