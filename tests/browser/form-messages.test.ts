@@ -231,9 +231,9 @@ describe('every named form, empty and wrong, in people’s words under the field
     await grades.getByLabel('Washing: staining').selectOption('4-5');
     await grades.getByRole('button', { name: 'Save grades' }).click();
     await grades.waitFor({ state: 'detached' });
-    const shown = await page.getByRole('region', { name: 'Fastness' }).innerText();
-    expect(shown).toMatch(/blue wool\)\s*5/);
-    expect(shown).toMatch(/change —, staining 4-5/);
+    const fastness = page.getByRole('region', { name: 'Fastness' });
+    await expect.poll(() => fastness.innerText()).toMatch(/blue wool\)\s*5/);
+    expect(await fastness.innerText()).toMatch(/change —, staining 4-5/);
   });
 
   it('the new-region form', async () => {

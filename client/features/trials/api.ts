@@ -59,11 +59,13 @@ export const createTrial = (input: TrialCreateInput) =>
 /** After any change to one trial: its page, the lists and its piece's side-by-side view. */
 function useTrialInvalidation() {
   const qc = useQueryClient();
-  return (trial?: Pick<TrialView, 'id'> | null) => {
-    if (trial) qc.invalidateQueries({ queryKey: trialKeys.detail(trial.id) });
-    qc.invalidateQueries({ queryKey: trialKeys.lists() });
-    qc.invalidateQueries({ queryKey: [...trialKeys.all, 'piece'] });
-  };
+  // Returned so the mutation waits for the refetch: a form that closes on success then shows the saved values.
+  return (trial?: Pick<TrialView, 'id'> | null) =>
+    Promise.all([
+      trial ? qc.invalidateQueries({ queryKey: trialKeys.detail(trial.id) }) : null,
+      qc.invalidateQueries({ queryKey: trialKeys.lists() }),
+      qc.invalidateQueries({ queryKey: [...trialKeys.all, 'piece'] }),
+    ]);
 }
 
 export function useCreateTrial() {
