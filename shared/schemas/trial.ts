@@ -6,6 +6,7 @@ import { LOAD_METALS } from '../compute/chemistry.ts';
 import { pageQuery, paged } from './common.ts';
 import { PHOTO_VIEWS } from './photo.ts';
 import { chemicalSchema } from './reference.ts';
+import { ILLUMINANTS, OBSERVERS } from '../colour/conditions.ts';
 
 // Shared by the server's validation and the client's forms; types come from z.infer.
 
@@ -25,8 +26,7 @@ export const OPERATIONS = [
 export const BASES = ['owf', 'g/L', 'g'] as const;
 export const REASONS = ['toxicity', 'regulation', 'availability', 'waste'] as const;
 export const GEOMETRIES = ['d:8°', '45°a:0°'] as const;
-export const ILLUMINANTS = ['D65', 'D50', 'A', 'F2', 'F11'] as const;
-export const OBSERVERS = ['2', '10'] as const;
+export { ILLUMINANTS, OBSERVERS };
 
 export const operationLabels: Record<(typeof OPERATIONS)[number], string> = {
   scour: 'Scour',
