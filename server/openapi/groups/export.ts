@@ -35,30 +35,5 @@ export default defineRoutes('export', [
     query: shadeQuerySchema,
     responses: { 200: csv('One row per match, nearest first') },
   },
-  {
-    method: 'get',
-    path: '/api/pieces/:id/dublin-core.jsonld',
-    summary: "One piece's Dublin Core record as JSON-LD",
-    roles: 'researcher, curator, admin',
-    params: idParams,
-    responses: { 200: { contentType: 'application/ld+json', description: 'Dublin Core terms of the piece' } },
-  },
-  {
-    method: 'get',
-    path: '/api/pieces/:id/palettes.csv',
-    summary: "One piece's palettes as CSV",
-    roles: 'anyone who may read the piece',
-    params: idParams,
-    responses: { 200: csv('One row per palette colour') },
-  },
-  {
-    method: 'get',
-    path: '/api/pieces/:id/masters.zip',
-    summary: "One piece's master files with a sha256 manifest",
-    roles: 'researcher, curator, admin',
-    params: idParams,
-    responses: {
-      200: { contentType: 'application/zip', description: 'The masters, stored uncompressed, and manifest-sha256.txt' },
-    },
-  },
+  // The per-piece exports (/api/pieces/:id/…) are declared with the pieces group, where they are mounted.
 ]);
