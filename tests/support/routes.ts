@@ -27,3 +27,9 @@ function walk(stack: Layer[], prefix = ''): string[] {
 /** The app's registered /api routes as 'METHOD /api/path/:param' (express app from createApp()). */
 export const registeredApiRoutes = (app: unknown) =>
   walk((app as { router: { stack: Layer[] } }).router.stack).filter((r) => r.split(' ')[1].startsWith('/api/'));
+
+/** Every registered route under the given prefixes (the API and, outside it, the IIIF and media routes). */
+export const registeredRoutes = (app: unknown, prefixes: readonly string[]) =>
+  walk((app as { router: { stack: Layer[] } }).router.stack).filter((r) =>
+    prefixes.some((p) => r.split(' ')[1].startsWith(p)),
+  );
