@@ -1,5 +1,4 @@
 import { defineRoutes } from '../registry.ts';
-import { idParams } from '../../../shared/schemas/common.ts';
 import { shadeQuerySchema } from '../../../shared/schemas/search.ts';
 
 const csv = (description: string) => ({ contentType: 'text/csv', description });
