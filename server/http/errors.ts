@@ -41,6 +41,17 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
     });
     return;
   }
+  // Express's router decodes each path parameter with decodeURIComponent: a malformed escape
+  // ("%E0%A4%A", "%FF") throws URIError (status 400 set by the router) — the sender's fault, not ours.
+  if (err instanceof URIError) {
+    res.status(400).json({
+      error: {
+        code: 'invalid_input',
+        message: 'The address has a malformed part (a broken %-escape) and was refused.',
+      },
+    });
+    return;
+  }
   if (err?.type === 'entity.parse.failed') {
     res.status(400).json({ error: { code: 'invalid_json', message: 'The request body is not valid JSON.' } });
     return;
