@@ -4,10 +4,11 @@ import path from 'node:path';
 import express from 'express';
 import helmet from 'helmet';
 import '../shared/messages.ts'; // zod speaks in people's words (details.fields of every 400)
-import { ROOT_DIR, env, isTest, publicUrl } from './env.ts';
+import { ROOT_DIR, env, isProduction, isTest, publicUrl } from './env.ts';
 import { contractCheck } from './http/contract.ts';
 import { apiNotFound, errorHandler } from './http/errors.ts';
-import { originCheck } from './http/origin-check.ts';
+import { allowedHostnames, hostCheck } from './http/host-check.ts';
+import { appOrigins, originCheck } from './http/origin-check.ts';
 import { apiRouter } from './routes/index.ts';
 import { iiifRouter } from './routes/iiif/index.ts';
 import { mediaRouter } from './routes/media/index.ts';
@@ -15,7 +16,11 @@ import { sessionMiddleware } from './auth/session.ts';
 import { passport } from './auth/passport.ts';
 import { installSearchHooks } from './search/hooks.ts';
 
-export type AppOptions = { clientDir?: string };
+export type AppOptions = {
+  clientDir?: string;
+  /** Overrides TRUST_PROXY (server/env.ts), for tests of the proxy setting. */
+  trustProxy?: boolean | number | string;
+};
 
 /** The Express app, without listening: tests drive it with supertest. */
 export function createApp(options: AppOptions = {}) {
@@ -23,7 +28,9 @@ export function createApp(options: AppOptions = {}) {
   installSearchHooks();
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // Off unless configured (TRUST_PROXY): otherwise any client's X-Forwarded-For would pick its own req.ip.
+  app.set('trust proxy', options.trustProxy ?? env.TRUST_PROXY);
+  app.use(hostCheck(allowedHostnames({ publicUrl, extra: env.ALLOWED_HOSTS, production: isProduction })));
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -40,7 +47,7 @@ export function createApp(options: AppOptions = {}) {
     }),
   );
   app.use(express.json({ limit: '1mb' }));
-  app.use(originCheck([new URL(publicUrl).origin, 'http://127.0.0.1:5173', 'http://localhost:5173']));
+  app.use(originCheck(appOrigins(publicUrl, isProduction)));
 
   app.use(sessionMiddleware());
   app.use(passport.initialize());

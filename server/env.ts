@@ -22,6 +22,27 @@ const schema = z
     APP_DEV: z.enum(['0', '1']).default('0'),
     SEED: z.enum(['demo', 'reference', 'none']).default('demo'),
     DB_LOG: z.enum(['0', '1']).default('0'),
+    // Express's `trust proxy`: off by default, so X-Forwarded-For from any client cannot choose its own IP
+    // (the per-IP sign-in limit). Behind a reverse proxy: its address/CIDR list ("10.0.0.5, 10.0.1.0/24",
+    // "loopback") or the number of proxy hops ("1").
+    TRUST_PROXY: z
+      .string()
+      .trim()
+      .default('')
+      .transform((v): boolean | number | string =>
+        v === '' || v === '0' || v === 'false' ? false : /^\d+$/.test(v) ? Number(v) : v,
+      ),
+    // Host names this server answers to (comma-separated), besides PUBLIC_URL's; any other Host header is
+    // refused with 400 (DNS rebinding). Outside production 127.0.0.1, localhost and ::1 are allowed too.
+    ALLOWED_HOSTS: z
+      .string()
+      .default('')
+      .transform((v) =>
+        v
+          .split(',')
+          .map((h) => h.trim().toLowerCase())
+          .filter(Boolean),
+      ),
   })
   .superRefine((v, ctx) => {
     if (v.NODE_ENV === 'production' && !v.SESSION_SECRET) {

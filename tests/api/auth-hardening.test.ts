@@ -27,7 +27,8 @@ describe('sign-in hardening', () => {
   });
 
   it('limits failed sign-ins per IP address across e-mails; successful sign-ins do not count', async () => {
-    const app = createApp();
+    // Behind a trusted proxy (here: loopback), the client address comes from X-Forwarded-For.
+    const app = createApp({ trustProxy: 'loopback' });
     for (let i = 0; i < 5; i++) await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.7').expect(200);
     for (let i = 0; i < LOGIN_LIMITS.perIp; i++)
       await login(app, `spray-${i}@nowhere.test`, 'guess', '10.9.8.7').expect(401);

@@ -1,6 +1,11 @@
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
+import { LOGIN_LIMITS } from '../../server/auth/rate-limit.ts';
+import { allowedHostnames } from '../../server/http/host-check.ts';
+import { DEV_ORIGINS, appOrigins } from '../../server/http/origin-check.ts';
 import { sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
@@ -99,5 +104,74 @@ describe('file names are kept exactly as sent', () => {
       `filename*=UTF-8''${encodeURIComponent(name).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`)}`,
     );
     expect(header).toMatch(/^attachment; filename="[\x20-\x7e]+"; filename\*=/);
+  });
+});
+
+describe('the Host header is checked (DNS rebinding)', () => {
+  it('answers 400 to a foreign Host and serves the public and loopback names', async () => {
+    const res = await request(app).get('/api/health').set('Host', 'rebind.attacker.example');
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('bad_host');
+    await request(app).get('/api/health').set('Host', 'rebind.attacker.example:3000').expect(400);
+    await request(app).get('/api/health').set('Host', new URL(ORIGIN).host).expect(200);
+    await request(app).get('/api/health').set('Host', 'localhost:5173').expect(200);
+  });
+
+  it('allows only PUBLIC_URL and ALLOWED_HOSTS in production, loopback besides outside it', () => {
+    const publicUrl = 'https://dyes.example.org';
+    expect(allowedHostnames({ publicUrl, extra: ['app-2.internal'], production: true })).toEqual([
+      'dyes.example.org',
+      'app-2.internal',
+    ]);
+    expect(allowedHostnames({ publicUrl, extra: [], production: false })).toContain('localhost');
+  });
+
+  it('refuses the Vite dev origins in production', () => {
+    expect(appOrigins('https://dyes.example.org', true)).toEqual(['https://dyes.example.org']);
+    expect(appOrigins('https://dyes.example.org', false)).toEqual(['https://dyes.example.org', ...DEV_ORIGINS]);
+  });
+});
+
+/** A sign-in sent from a loopback address of its own (Linux answers all of 127/8), so its per-IP counter is its own. */
+function loginFrom(port: number, localAddress: string, forwardedFor: string) {
+  const body = JSON.stringify({ email: `nobody-${forwardedFor}@nowhere.test`, password: 'guess' });
+  return new Promise<number>((resolve, reject) => {
+    const req = http.request(
+      {
+        host: '127.0.0.1',
+        port,
+        localAddress,
+        method: 'POST',
+        path: '/api/auth/login',
+        headers: {
+          'Content-Type': 'application/json',
+          'Content-Length': Buffer.byteLength(body),
+          Origin: ORIGIN,
+          'X-Forwarded-For': forwardedFor,
+        },
+      },
+      (res) => {
+        res.resume();
+        res.on('end', () => resolve(res.statusCode ?? 0));
+      },
+    );
+    req.on('error', reject);
+    req.end(body);
+  });
+}
+
+describe('trust proxy is off by default', () => {
+  it('a spoofed X-Forwarded-For does not give a fresh sign-in allowance', async () => {
+    const server = createApp().listen(0, '127.0.0.1');
+    await new Promise((resolve) => server.once('listening', resolve));
+    const { port } = server.address() as AddressInfo;
+    try {
+      const client = '127.0.0.77';
+      for (let i = 0; i < LOGIN_LIMITS.perIp; i++) expect(await loginFrom(port, client, `10.20.0.${i}`)).toBe(401);
+      // A new forwarded address every time, yet the same client: refused.
+      expect(await loginFrom(port, client, '10.20.1.1')).toBe(429);
+    } finally {
+      await new Promise((resolve) => server.close(resolve));
+    }
   });
 });
