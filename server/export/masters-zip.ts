@@ -8,8 +8,16 @@ import { findMaster } from '../iiif/files.ts';
  * A hand-over ZIP of a piece's master files, untouched, with their recorded SHA-256
  * values in manifest-sha256.txt (the `sha256sum -c` format, as BagIt manifests use)
  * and a manifest.json naming each photo. A master missing on disk is listed, not hidden.
+ * Masters are the camera's bytes, EXIF GPS included, and are not rewritten (their SHA-256 must hold): a master
+ * the reader may not download (`mayTake`, the policy's photo:master — GPS is for curators and admins) is left
+ * out and listed in manifest.json with `withheld` saying why.
  */
-export async function writeMastersZip(out: Writable, piece: Piece, photos: Photo[]) {
+export async function writeMastersZip(
+  out: Writable,
+  piece: Piece,
+  photos: Photo[],
+  mayTake: (photo: Photo) => boolean = () => true,
+) {
   const zip = new yazl.ZipFile();
   zip.outputStream.pipe(out);
   const lines: string[] = [];
@@ -21,8 +29,21 @@ export async function writeMastersZip(out: Writable, piece: Piece, photos: Photo
     bytes: number;
     originalName: string | null;
     missing?: true;
+    withheld?: string;
   }> = [];
   for (const photo of photos) {
+    if (!mayTake(photo)) {
+      files.push({
+        photoId: photo.id,
+        view: photo.view,
+        file: null,
+        sha256: photo.sha256,
+        bytes: Number(photo.bytes),
+        originalName: photo.originalName,
+        withheld: 'The master holds a GPS location, which only curators and administrators may download.',
+      });
+      continue;
+    }
     const master = await findMaster(photo);
     const name = master ? `masters/${photo.id}-${photo.view}${path.extname(master)}` : null;
     if (master && name) {

@@ -1,6 +1,6 @@
 import type { Writable } from 'node:stream';
 import { Op, type WhereOptions } from 'sequelize';
-import { stringify } from 'csv-stringify';
+import { csvStringifier } from './csv.ts';
 import { IMAGE_ESTIMATE_CONDITIONS } from '../../shared/colour/conditions.ts';
 import { PaletteColour, Photo, Piece, Region } from '../models/index.ts';
 
@@ -33,7 +33,7 @@ const n = (x: number, d: number) => x.toFixed(d);
 
 /** Writes the palettes of the given pieces (in accession order) as CSV, a batch of pieces at a time. */
 export async function writePalettesCsv(out: Writable, where: WhereOptions<Piece>) {
-  const csv = stringify({ header: true, columns: [...COLUMNS] });
+  const csv = csvStringifier({ header: true, columns: [...COLUMNS] });
   csv.pipe(out);
   const pieces = await Piece.findAll({
     where,

@@ -1,5 +1,5 @@
 import type { Writable } from 'node:stream';
-import { stringify } from 'csv-stringify';
+import { csvStringifier } from './csv.ts';
 import { Op } from 'sequelize';
 import { Piece } from '../models/index.ts';
 import {
@@ -42,7 +42,7 @@ export function pieceCells(p: Piece): Record<PieceCsvField, string> {
 
 /** Stream every (not deleted) piece, a page at a time, as UTF-8 CSV with a header row of field names. */
 export async function writePiecesCsv(out: Writable) {
-  const csv = stringify({ header: true, columns: [...PIECE_CSV_FIELDS], bom: false });
+  const csv = csvStringifier({ header: true, columns: [...PIECE_CSV_FIELDS], bom: false });
   csv.pipe(out);
   let lastId = 0;
   for (;;) {

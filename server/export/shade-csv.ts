@@ -1,5 +1,5 @@
 import type { Writable } from 'node:stream';
-import { stringify } from 'csv-stringify';
+import { csvStringifier } from './csv.ts';
 import type { ShadeQuery } from '../../shared/schemas/search.ts';
 import type { Actor } from '../policies/index.ts';
 import { runShade } from '../search/service.ts';
@@ -31,7 +31,7 @@ const PAGE = 200;
  * only that page is written; otherwise every matching piece, fetched a page of 200 at a time.
  */
 export async function writeShadeCsv(out: Writable, actor: Actor, input: ShadeQuery, onePage: boolean) {
-  const csv = stringify({ header: true, columns: [...COLUMNS] });
+  const csv = csvStringifier({ header: true, columns: [...COLUMNS] });
   csv.pipe(out);
   let rank = onePage ? (input.page - 1) * input.limit : 0;
   for (let page = onePage ? input.page : 1; ; page++) {

@@ -1,5 +1,5 @@
 import type { Writable } from 'node:stream';
-import { stringify } from 'csv-stringify';
+import { csvStringifier } from './csv.ts';
 import { Chemical, Piece, RecipeStep, Substitution, Trial, TrialSeries, User } from '../models/index.ts';
 import type { Fastness } from '../../shared/schemas/fastness.ts';
 import { trialColour, type ResolvedColour } from '../services/trials/colour.ts';
@@ -152,7 +152,7 @@ function massCells(t: Trial) {
 }
 
 export async function writeTrialsCsv(out: Writable) {
-  const csv = stringify({ header: true, columns: [...COLUMNS] });
+  const csv = csvStringifier({ header: true, columns: [...COLUMNS] });
   csv.pipe(out);
   const trials = (await Trial.findAll({
     include: [

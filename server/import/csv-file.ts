@@ -1,4 +1,5 @@
 import { parse } from 'csv-parse/sync';
+import { restoreCell } from '../export/csv.ts';
 import { HttpError } from '../http/errors.ts';
 import {
   PIECE_CSV_FIELDS,
@@ -137,7 +138,7 @@ export function readPieceCsv(text: string, mapping: ColumnMapping = {}): { rows:
       });
     record.forEach((value, i) => {
       const f = fieldAt[i];
-      if (f) cells[f] = value;
+      if (f) cells[f] = restoreCell(value);
     });
     rows.push({ line, cells, errors });
   }

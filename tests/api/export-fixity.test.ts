@@ -9,6 +9,7 @@ import { Job, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { drain } from '../../server/jobs/worker.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
+import { clothJpeg } from '../support/images.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
 
 const app = createApp();
@@ -81,6 +82,30 @@ describe('exports', () => {
     for (const m of masters) expect(manifest.some((l) => l.startsWith(m.photo.sha256))).toBe(true);
     const json = JSON.parse(files.get('manifest.json')!.toString());
     expect(json).toMatchObject({ accessionNumber: piece.accessionNumber, algorithm: 'SHA-256' });
+  });
+
+  it("leaves masters with GPS out of a researcher's ZIP and says so in the manifest; curators get them", async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const withGps = await makePiece({ status: 'published' });
+    const photo = (
+      await curator
+        .post(`/api/pieces/${withGps.id}/photos`)
+        .set('Origin', ORIGIN)
+        .attach('photo', await clothJpeg({ gps: true }), 'site.jpg')
+        .expect(201)
+    ).body.photos[0];
+    const researcher = await signedInAgent(app, 'researcher');
+    const zip = (agent: typeof curator) =>
+      agent.get(`/api/pieces/${withGps.id}/masters.zip`).buffer(true).parse(binary).expect(200);
+    const theirs = await unzip((await zip(researcher)).body);
+    expect([...theirs.keys()].some((n) => n.startsWith('masters/'))).toBe(false);
+    expect(theirs.get('manifest-sha256.txt')!.toString()).toBe('');
+    const listed = JSON.parse(theirs.get('manifest.json')!.toString()).files;
+    expect(listed).toEqual([
+      expect.objectContaining({ photoId: photo.id, file: null, withheld: expect.stringMatching(/GPS/) }),
+    ]);
+    const ours = await unzip((await zip(curator)).body);
+    expect([...ours.keys()].filter((n) => n.startsWith('masters/'))).toHaveLength(1);
   });
 
   it('gives a piece as Dublin Core terms in JSON-LD', async () => {

@@ -90,7 +90,12 @@ describe('CSV import of pieces', () => {
       await makePiece({
         accessionNumber: `${p}.2`,
         objectName: 'panel',
-        title: 'Plain panel',
+        // CSV injection (OWASP): formula-like text leaves as text ('=…), and numbers, even negative, as numbers.
+        title: '=HYPERLINK("http://attacker.example","open")',
+        provenance: '@SUM(1+1)',
+        condition: '-torn at the hem',
+        earliestYear: -200,
+        latestYear: -100,
         fibres: [],
         status: 'draft',
       }),
@@ -101,6 +106,13 @@ describe('CSV import of pieces', () => {
     const rows: Record<string, string>[] = parse(exported.text, { columns: true });
     const mine = rows.filter((r) => r.accessionNumber.startsWith(p));
     expect(mine).toHaveLength(2);
+    expect(mine[1]).toMatchObject({
+      title: `'=HYPERLINK("http://attacker.example","open")`,
+      provenance: "'@SUM(1+1)",
+      condition: "'-torn at the hem",
+      earliestYear: '-200',
+      latestYear: '-100',
+    });
 
     const before = originals.map((o) => o.get({ plain: true }));
     await Piece.destroy({ where: { id: originals.map((o) => o.id) }, force: true });

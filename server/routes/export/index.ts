@@ -76,5 +76,7 @@ pieceExportRouter.get('/:id/masters.zip', requireUser, async (req, res) => {
   if (!can(actorOf(req), 'export:run')) throw forbidden();
   const photos = await Photo.findAll({ where: { pieceId: piece.id }, order: [['id', 'ASC']] });
   res.type('application/zip').attachment(`${safeName(piece.accessionNumber)}-masters.zip`);
-  await writeMastersZip(res, piece, photos);
+  // Masters with GPS only for those the policy lets see it (photo:master); the manifest lists the rest as withheld.
+  const actor = actorOf(req);
+  await writeMastersZip(res, piece, photos, (photo) => can(actor, 'photo:master', { hasGps: photo.gps != null }));
 });
