@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import { HttpError } from '../http/errors.ts';
+import { DatabaseRateLimitStore } from './rate-limit-store.ts';
 
 /** Failed sign-ins allowed per e-mail address and per IP address in 15 minutes. */
 export const LOGIN_LIMITS = { perEmail: 10, perIp: 30 } as const;
@@ -11,15 +12,21 @@ type PairOptions = {
   windowMs: number;
   limits: { perEmail: number; perIp: number };
   keyPrefix: string;
+  /** Names this pair's counters in the shared table: `<storePrefix>-ip` and `<storePrefix>-email`. */
+  storePrefix: string;
   skipSuccessfulRequests?: boolean;
   error: () => HttpError;
 };
 
-/** One limiter per IP address and one per e-mail address in the body, created per app instance (counters in memory). */
+/**
+ * One limiter per IP address and one per e-mail address in the body. The counters live in MariaDB
+ * (rate-limit-store.ts), so every app server on the same database counts together and a restart forgets nothing.
+ */
 function perIpAndEmail({
   windowMs,
   limits,
   keyPrefix,
+  storePrefix,
   skipSuccessfulRequests = false,
   error,
 }: PairOptions): RequestHandler[] {
@@ -35,10 +42,11 @@ function perIpAndEmail({
     ) => next(error()),
   };
   return [
-    rateLimit({ ...common, limit: limits.perIp }),
+    rateLimit({ ...common, limit: limits.perIp, store: new DatabaseRateLimitStore(`${storePrefix}-ip`) }),
     rateLimit({
       ...common,
       limit: limits.perEmail,
+      store: new DatabaseRateLimitStore(`${storePrefix}-email`),
       keyGenerator: (req) =>
         `${keyPrefix}:${String((req.body as { email?: unknown } | undefined)?.email ?? '')
           .trim()
@@ -57,6 +65,7 @@ export const loginRateLimits = () =>
     windowMs: LOGIN_WINDOW_MS,
     limits: LOGIN_LIMITS,
     keyPrefix: 'email',
+    storePrefix: 'login',
     skipSuccessfulRequests: true,
     error: () =>
       new HttpError(
@@ -79,6 +88,7 @@ export const resetRequestRateLimits = () =>
     windowMs: RESET_WINDOW_MS,
     limits: RESET_LIMITS,
     keyPrefix: 'reset',
+    storePrefix: 'reset',
     error: () =>
       new HttpError(
         429,

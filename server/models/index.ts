@@ -9,6 +9,7 @@ import { Session } from './session.ts';
 import { AuthToken } from './auth-token.ts';
 import { initJobModel, Job } from './job.ts';
 import { AppSetting } from './settings.ts';
+import { RateLimit } from './rate-limit.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -20,6 +21,7 @@ Session.initModel(sequelize);
 AuthToken.initModel(sequelize);
 initJobModel(sequelize);
 AppSetting.initModel(sequelize);
+RateLimit.initModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -77,4 +79,5 @@ export {
   AuthToken,
   Job,
   AppSetting,
+  RateLimit,
 };

@@ -2,7 +2,8 @@ import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { LOGIN_LIMITS } from '../../server/auth/rate-limit.ts';
-import { sequelize } from '../../server/models/index.ts';
+import { hashPassword } from '../../server/auth/passwords.ts';
+import { sequelize, User } from '../../server/models/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 
 afterAll(() => sequelize.close());
@@ -10,30 +11,46 @@ afterAll(() => sequelize.close());
 const login = (app: ReturnType<typeof createApp>, email: string, password: string, ip = '127.0.0.1') =>
   request(app).post('/api/auth/login').set('Origin', ORIGIN).set('X-Forwarded-For', ip).send({ email, password });
 
+// The counters live in the shared test database (and outlive an app instance), so each test uses its own account and
+// its own client address; a random one so a re-run on the same database within the window starts from nothing.
+const unique = () => `${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}`;
+const randomIp = () => `10.${[0, 0, 0].map(() => Math.floor(Math.random() * 250) + 1).join('.')}`;
+async function member(password: string) {
+  const email = `limits-${unique()}@limits.test`;
+  await User.create({ email, name: 'Orla Penn', role: 'researcher', passwordHash: await hashPassword(password) });
+  return email;
+}
+
 describe('sign-in hardening', () => {
   it('limits failed sign-ins per e-mail: the 11th try in 15 minutes answers 429, even with the right password', async () => {
-    const app = createApp();
-    for (let i = 0; i < LOGIN_LIMITS.perEmail; i++)
-      await login(app, 'researcher@demo.test', 'wrong password').expect(401);
-    const res = await login(app, 'researcher@demo.test', 'tinctoria-demo').expect(429);
+    // Failures are keyed by the forwarded address (trusted from loopback here), never by 127.0.0.1: the counters
+    // are shared in MariaDB, and a test must not lock the loopback address out for every other test file.
+    const app = createApp({ trustProxy: 'loopback' });
+    const email = await member('the-right-password');
+    const ip = randomIp();
+    for (let i = 0; i < LOGIN_LIMITS.perEmail; i++) await login(app, email, 'wrong password', ip).expect(401);
+    const res = await login(app, email, 'the-right-password', ip).expect(429);
     expect(res.body.error).toMatchObject({
       code: 'too_many_attempts',
       message: expect.stringMatching(/Too many failed sign-in attempts/),
     });
     expect(res.headers['ratelimit-policy']).toBeDefined();
-    // Another address from the same IP is not affected; a fresh app has fresh counters.
-    await login(app, 'curator@demo.test', 'tinctoria-demo').expect(200);
-    await login(createApp(), 'researcher@demo.test', 'tinctoria-demo').expect(200);
+    // Another address from the same IP is not affected; a fresh app (another server, or a restart) on the same
+    // database still refuses, from any IP address: the counters are in MariaDB, not in the process.
+    await login(app, 'curator@demo.test', 'tinctoria-demo', ip).expect(200);
+    await login(createApp({ trustProxy: 'loopback' }), email, 'the-right-password', randomIp()).expect(429);
   });
 
   it('limits failed sign-ins per IP address across e-mails; successful sign-ins do not count', async () => {
     // Behind a trusted proxy (here: loopback), the client address comes from X-Forwarded-For.
     const app = createApp({ trustProxy: 'loopback' });
-    for (let i = 0; i < 5; i++) await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.7').expect(200);
+    const [ip, otherIp] = [randomIp(), randomIp()];
+    for (let i = 0; i < 5; i++) await login(app, 'dyer@demo.test', 'tinctoria-demo', ip).expect(200);
     for (let i = 0; i < LOGIN_LIMITS.perIp; i++)
-      await login(app, `spray-${i}@nowhere.test`, 'guess', '10.9.8.7').expect(401);
-    await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.7').expect(429);
-    await login(app, 'dyer@demo.test', 'tinctoria-demo', '10.9.8.8').expect(200);
+      await login(app, `spray-${i}-${unique()}@nowhere.test`, 'guess', ip).expect(401);
+    await login(app, 'dyer@demo.test', 'tinctoria-demo', ip).expect(429);
+    await login(createApp({ trustProxy: 'loopback' }), 'dyer@demo.test', 'tinctoria-demo', ip).expect(429);
+    await login(app, 'dyer@demo.test', 'tinctoria-demo', otherIp).expect(200);
   });
 
   it('refuses state-changing requests with a foreign or missing Origin on every new route', async () => {

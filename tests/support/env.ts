@@ -8,3 +8,6 @@ export const testEnv = {
   benchSize: Number(process.env.BENCH_SIZE ?? 1),
   benchParts: (process.env.BENCH_PARTS ?? 'uniform,clustered,text').split(','),
 };
+
+/** The environment for an app server started as a child process by a test (tests/support/server.ts), with overrides. */
+export const childEnv = (overrides: Record<string, string>): NodeJS.ProcessEnv => ({ ...process.env, ...overrides });

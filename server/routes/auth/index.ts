@@ -28,7 +28,7 @@ const session = (req: Request, user: User): Session => ({
 const badCredentials = () =>
   new HttpError(401, 'bad_credentials', 'That e-mail and password do not match an active account.');
 
-/** Sign-in, sign-out, the current user and password reset. A factory: each app gets its own rate-limit counters. */
+/** Sign-in, sign-out, the current user and password reset. Rate-limit counters live in MariaDB, shared by every app server. */
 export function authRouter() {
   const router = Router();
 
