@@ -22,6 +22,9 @@ const schema = z
     APP_DEV: z.enum(['0', '1']).default('0'),
     SEED: z.enum(['demo', 'reference', 'none']).default('demo'),
     DB_LOG: z.enum(['0', '1']).default('0'),
+    // How long a running job's lease lasts; the worker renews it every third of this while the handler runs, and a
+    // job whose lease ran out (its worker died) is queued again. 30 s: common practice for lease/heartbeat queues.
+    JOB_LEASE_MS: z.coerce.number().int().min(500).max(600_000).default(30_000),
   })
   .superRefine((v, ctx) => {
     if (v.NODE_ENV === 'production' && !v.SESSION_SECRET) {
