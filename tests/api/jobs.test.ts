@@ -16,6 +16,11 @@ import {
 } from '../../server/jobs/queue.ts';
 import { checkPayload, registerHandler } from '../../server/jobs/registry.ts';
 import { drain, runOnce, startWorker, stopWorker } from '../../server/jobs/worker.ts';
+import { TILE_JOB } from '../../server/jobs/handlers/tile-photo.ts';
+import { enqueueTiles } from '../../server/iiif/enqueue.ts';
+import { Photo } from '../../server/models/index.ts';
+import { removePhotoRows } from '../../server/services/photos.ts';
+import { makePhotoWithMaster } from '../support/photos.ts';
 
 // Two separate connection pools stand for two app servers sharing the jobs table.
 const serverA = createSequelize();
@@ -172,6 +177,25 @@ describe('job queue', () => {
     expect(last.state).toBe('failed');
     expect(last.error).toMatch(/lease ran out/);
     expect(hooks.sort()).toEqual([expect.stringMatching(/^failed: Interrupted/), 'retry']);
+  });
+
+  it("puts a photo's tile status back to queued when its tiling worker died, and to failed on the last attempt", async () => {
+    const { photo } = await makePhotoWithMaster(null, { width: 60, height: 40 });
+    // Only this photo's job is due, claimed by a worker that then died (a lease of 1 ms).
+    await Job.update({ runAfter: new Date(Date.now() + 3600_000) }, { where: { type: TILE_JOB, state: 'queued' } });
+    const job = await enqueueTiles(photo.id);
+    await Job.update({ runAfter: new Date(0), maxAttempts: 2 }, { where: { id: job!.id } });
+    for (const expected of ['queued', 'failed']) {
+      expect((await claim('dead-tiler', { types: [TILE_JOB], leaseMs: 1 }))?.id).toBe(job!.id);
+      await Photo.update({ tileStatus: 'running' }, { where: { id: photo.id } });
+      await new Promise((r) => setTimeout(r, 20));
+      expect(await requeueExpired({ types: [TILE_JOB] })).toBe(1);
+      expect((await Photo.findByPk(photo.id))!.tileStatus).toBe(expected);
+      expect((await job!.reload()).state).toBe(expected);
+    }
+    await Job.update({ runAfter: new Date() }, { where: { type: TILE_JOB, state: 'queued' } });
+    await Job.destroy({ where: { id: job!.id } });
+    await sequelize.transaction((transaction) => removePhotoRows([photo], transaction));
   });
 
   it('retries a failing job with back-off, then marks it failed with the reason', async () => {
