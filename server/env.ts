@@ -43,6 +43,9 @@ const schema = z
           .map((h) => h.trim().toLowerCase())
           .filter(Boolean),
       ),
+    // How long a running job's lease lasts; the worker renews it every third of this while the handler runs, and a
+    // job whose lease ran out (its worker died) is queued again. 30 s: common practice for lease/heartbeat queues.
+    JOB_LEASE_MS: z.coerce.number().int().min(500).max(600_000).default(30_000),
   })
   .superRefine((v, ctx) => {
     if (v.NODE_ENV === 'production' && !v.SESSION_SECRET) {

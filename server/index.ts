@@ -5,6 +5,7 @@ import { sequelize } from './models/index.ts';
 import { startLocalMail } from './mail/index.ts';
 import { startWorker, stopWorker } from './jobs/worker.ts';
 import { enqueueMissingTiles } from './iiif/enqueue.ts';
+import { reconcileOrphans } from './media/reconcile.ts';
 
 // The running server: migrate, seed an empty database, then listen. SIGINT/SIGTERM close cleanly.
 const applied = await migrate();
@@ -17,6 +18,9 @@ const catcher = env.SMTP_URL || env.NODE_ENV === 'production' ? null : await sta
 if (catcher) console.log(`[tinctoria] local mail catcher on 127.0.0.1:${catcher.port}, messages in ${catcher.dir}`);
 else if (!env.SMTP_URL)
   console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
+// Masters and temp files left by a process killed mid-upload (no photo points at them, older than an hour).
+const orphans = await reconcileOrphans().catch((e) => (console.error('[tinctoria] orphan sweep', e), []));
+if (orphans.length) console.log(`[tinctoria] removed ${orphans.length} orphan file(s) under uploads/`);
 const queuedTiles = await enqueueMissingTiles();
 if (queuedTiles) console.log(`[tinctoria] deep-zoom tiles queued for ${queuedTiles} photo(s)`);
 // The worker runs beside the web server; any number of servers may share the jobs table.

@@ -1,5 +1,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sequelize as defaultDb, Job } from '../models/index.ts';
+import { env } from '../env.ts';
+import { handlerFor } from './registry.ts';
 import { isJobType, jobPayloads, type JobPayload, type JobType } from '../../shared/schemas/jobs.ts';
 
 /** A claimed job. The worker hands it to its handler only once the payload has passed the kind's schema. */
@@ -57,6 +59,7 @@ async function insertJob(input: { type: string; payload?: object } & EnqueueOpti
       result: null,
       lockedBy: null,
       lockedAt: null,
+      leaseUntil: null,
       runAfter: input.runAfter ?? new Date(),
       startedAt: null,
       finishedAt: null,
@@ -73,11 +76,13 @@ async function insertJob(input: { type: string; payload?: object } & EnqueueOpti
  */
 export async function claim(
   workerId: string,
-  opts: { db?: Sequelize; types?: string[] } = {},
+  opts: { db?: Sequelize; types?: string[]; leaseMs?: number } = {},
 ): Promise<ClaimedJob | null> {
   const db = opts.db ?? defaultDb;
+  const leaseMs = opts.leaseMs ?? env.JOB_LEASE_MS;
   return db.transaction(async (transaction) => {
     const now = new Date();
+    const leaseUntil = new Date(now.getTime() + leaseMs);
     const typeFilter = opts.types?.length ? 'AND type IN (:types)' : '';
     const rows = await db.query<{ id: number }>(
       `SELECT id FROM jobs WHERE state = 'queued' AND runAfter <= :now ${typeFilter} ORDER BY runAfter, id LIMIT 1 FOR UPDATE SKIP LOCKED`,
@@ -86,9 +91,9 @@ export async function claim(
     if (!rows.length) return null;
     const id = Number(rows[0].id);
     await db.query(
-      `UPDATE jobs SET state = 'running', lockedBy = :workerId, lockedAt = :now, startedAt = :now, finishedAt = NULL,
-         attempts = attempts + 1, progress = 0, error = NULL, updatedAt = :now WHERE id = :id`,
-      { type: QueryTypes.UPDATE, transaction, replacements: { workerId, now, id } },
+      `UPDATE jobs SET state = 'running', lockedBy = :workerId, lockedAt = :now, leaseUntil = :leaseUntil, startedAt = :now,
+         finishedAt = NULL, attempts = attempts + 1, progress = 0, error = NULL, updatedAt = :now WHERE id = :id`,
+      { type: QueryTypes.UPDATE, transaction, replacements: { workerId, now, leaseUntil, id } },
     );
     const [job] = await db.query<{ id: number; type: string; payload: unknown; attempts: number; maxAttempts: number }>(
       'SELECT id, type, payload, attempts, maxAttempts FROM jobs WHERE id = :id',
@@ -105,12 +110,41 @@ export async function claim(
   });
 }
 
-/** Record progress (0–1); it doubles as the worker's heartbeat. False when the lock was lost. */
-export async function reportProgress(jobId: number, workerId: string, progress: number, db: Sequelize = defaultDb) {
+/** Record progress (0–1); it also renews the lease. False when the lock was lost. */
+export async function reportProgress(
+  jobId: number,
+  workerId: string,
+  progress: number,
+  db: Sequelize = defaultDb,
+  leaseMs: number = env.JOB_LEASE_MS,
+) {
+  const now = new Date();
+  const leaseUntil = new Date(now.getTime() + leaseMs);
+  const [, affected] = await db.query(
+    `UPDATE jobs SET progress = :progress, lockedAt = :now, leaseUntil = :leaseUntil, updatedAt = :now
+       WHERE id = :jobId AND state = 'running' AND lockedBy = :workerId`,
+    {
+      type: QueryTypes.UPDATE,
+      replacements: { progress: Math.max(0, Math.min(1, progress)), now, leaseUntil, jobId, workerId },
+    },
+  );
+  return Number(affected) > 0;
+}
+
+/**
+ * The worker's heartbeat while a handler runs: push the lease forward (lockedAt records the beat).
+ * False when the job is no longer this worker's (its lease ran out and it was queued again).
+ */
+export async function renewLease(
+  jobId: number,
+  workerId: string,
+  db: Sequelize = defaultDb,
+  leaseMs: number = env.JOB_LEASE_MS,
+) {
   const now = new Date();
   const [, affected] = await db.query(
-    `UPDATE jobs SET progress = :progress, lockedAt = :now, updatedAt = :now WHERE id = :jobId AND state = 'running' AND lockedBy = :workerId`,
-    { type: QueryTypes.UPDATE, replacements: { progress: Math.max(0, Math.min(1, progress)), now, jobId, workerId } },
+    `UPDATE jobs SET lockedAt = :now, leaseUntil = :leaseUntil WHERE id = :jobId AND state = 'running' AND lockedBy = :workerId`,
+    { type: QueryTypes.UPDATE, replacements: { now, leaseUntil: new Date(now.getTime() + leaseMs), jobId, workerId } },
   );
   return Number(affected) > 0;
 }
@@ -123,8 +157,8 @@ export async function complete(
 ) {
   const now = new Date();
   await db.query(
-    `UPDATE jobs SET state = 'done', progress = 1, result = :result, lockedBy = NULL, lockedAt = NULL, finishedAt = :now, updatedAt = :now
-       WHERE id = :jobId AND state = 'running' AND lockedBy = :workerId`,
+    `UPDATE jobs SET state = 'done', progress = 1, result = :result, lockedBy = NULL, lockedAt = NULL, leaseUntil = NULL, finishedAt = :now,
+       updatedAt = :now WHERE id = :jobId AND state = 'running' AND lockedBy = :workerId`,
     { type: QueryTypes.UPDATE, replacements: { result: result ? JSON.stringify(result) : null, now, jobId, workerId } },
   );
 }
@@ -141,7 +175,7 @@ export async function fail(
   const final = permanent || job.attempts >= job.maxAttempts;
   const runAfter = new Date(now.getTime() + 5_000 * job.attempts ** 2);
   await db.query(
-    `UPDATE jobs SET state = :state, error = :reason, lockedBy = NULL, lockedAt = NULL, runAfter = :runAfter,
+    `UPDATE jobs SET state = :state, error = :reason, lockedBy = NULL, lockedAt = NULL, leaseUntil = NULL, runAfter = :runAfter,
        finishedAt = :finishedAt, updatedAt = :now WHERE id = :id AND state = 'running' AND lockedBy = :workerId`,
     {
       type: QueryTypes.UPDATE,
@@ -159,24 +193,67 @@ export async function fail(
   return final;
 }
 
+export const INTERRUPTED_REASON = 'Interrupted: the worker running it stopped (its lease ran out), on every attempt.';
+
 /**
- * After a crash or restart, jobs still marked running keep a lock nobody holds.
- * A lock older than staleMs (no heartbeat) is released: the job is queued again,
- * or failed when it has already used all its attempts.
+ * A job still marked running whose lease ran out belongs to a worker that died (or lost the database):
+ * it is queued again, or failed with the reason when it has used all its attempts. Its subject follows through the
+ * handler's hooks (a photo's tile status goes back to queued, or to failed). Rows from before leases (NULL
+ * leaseUntil) are judged by their last heartbeat, lockedAt, against staleMs. Several servers may sweep at once:
+ * FOR UPDATE SKIP LOCKED hands each expired row to one of them. Returns how many jobs were released.
  */
+export async function requeueExpired(opts: { db?: Sequelize; staleMs?: number; types?: string[] } = {}) {
+  const db = opts.db ?? defaultDb;
+  const staleMs = opts.staleMs ?? 10 * 60_000;
+  const typeFilter = opts.types?.length ? 'AND type IN (:types)' : '';
+  const released = await db.transaction(async (transaction) => {
+    const now = new Date();
+    const cutoff = new Date(now.getTime() - staleMs);
+    const rows = await db.query<{ id: number; type: string; payload: unknown; attempts: number; maxAttempts: number }>(
+      `SELECT id, type, payload, attempts, maxAttempts FROM jobs WHERE state = 'running'
+         AND (leaseUntil < :now OR (leaseUntil IS NULL AND lockedAt < :cutoff)) ${typeFilter}
+         ORDER BY id LIMIT 100 FOR UPDATE SKIP LOCKED`,
+      { type: QueryTypes.SELECT, transaction, replacements: { now, cutoff, types: opts.types ?? [] } },
+    );
+    if (!rows.length) return [];
+    await db.query(
+      `UPDATE jobs SET
+         state = IF(attempts >= maxAttempts, 'failed', 'queued'),
+         error = IF(attempts >= maxAttempts, :reason, error),
+         finishedAt = IF(attempts >= maxAttempts, :now, NULL),
+         lockedBy = NULL, lockedAt = NULL, leaseUntil = NULL, runAfter = :now, updatedAt = :now
+       WHERE id IN (:ids)`,
+      {
+        type: QueryTypes.UPDATE,
+        transaction,
+        replacements: { now, reason: INTERRUPTED_REASON, ids: rows.map((r) => Number(r.id)) },
+      },
+    );
+    return rows;
+  });
+  for (const row of released) {
+    const raw = typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload;
+    const job: ClaimedJob = {
+      id: Number(row.id),
+      type: row.type,
+      payload: (raw ?? {}) as Record<string, unknown>,
+      attempts: Number(row.attempts),
+      maxAttempts: Number(row.maxAttempts),
+    };
+    const handler = handlerFor(row.type);
+    try {
+      if (job.attempts >= job.maxAttempts) await handler?.onFailed?.(job, INTERRUPTED_REASON);
+      else await handler?.onRetry?.(job.payload);
+    } catch (err) {
+      console.error('[jobs] subject update after a lost lease', err);
+    }
+  }
+  return released.length;
+}
+
+/** Kept for callers that sweep by age only: releases expired leases, and lease-less locks older than staleMs. */
 export async function requeueStale(staleMs: number, db: Sequelize = defaultDb) {
-  const now = new Date();
-  const cutoff = new Date(now.getTime() - staleMs);
-  const [, affected] = await db.query(
-    `UPDATE jobs SET
-       state = IF(attempts >= maxAttempts, 'failed', 'queued'),
-       error = IF(attempts >= maxAttempts, 'Interrupted: the server stopped while the job ran, on every attempt.', error),
-       finishedAt = IF(attempts >= maxAttempts, :now, NULL),
-       lockedBy = NULL, lockedAt = NULL, runAfter = :now, updatedAt = :now
-     WHERE state = 'running' AND lockedAt < :cutoff`,
-    { type: QueryTypes.UPDATE, replacements: { now, cutoff } },
-  );
-  return Number(affected);
+  return requeueExpired({ db, staleMs });
 }
 
 /** A failed job starts again with fresh attempts. */
@@ -189,6 +266,7 @@ export async function retry(job: Job, transaction?: Transaction) {
       error: null,
       lockedBy: null,
       lockedAt: null,
+      leaseUntil: null,
       runAfter: new Date(),
       startedAt: null,
       finishedAt: null,

@@ -14,9 +14,9 @@ export type PayloadOf<K extends string> = K extends JobType ? JobPayload<K> : Re
 
 export type JobHandler<P = Record<string, unknown>> = {
   run: (job: ClaimedJob<P>, ctx: JobContext) => Promise<Record<string, unknown> | void>;
-  /** Called once a job has finally failed (no attempts left), to mark its subject. Not called when its payload was malformed. */
+  /** Called once a job has finally failed (no attempts left, also when its last worker died), to mark its subject. Not called when its payload was malformed. */
   onFailed?: (job: ClaimedJob<P>, reason: string) => Promise<void>;
-  /** Called when a failed job is queued again by hand. */
+  /** Called when a job is queued again: by hand after failing, or by the sweep after its worker's lease ran out. */
   onRetry?: (payload: P) => Promise<void>;
 };
 

@@ -2,7 +2,9 @@ import os from 'node:os';
 import { randomBytes } from 'node:crypto';
 import type { Sequelize } from 'sequelize';
 import { sequelize as defaultDb } from '../models/index.ts';
-import { claim, complete, fail, PermanentJobError, reportProgress, requeueStale } from './queue.ts';
+import { env } from '../env.ts';
+import { claim, complete, fail, PermanentJobError, renewLease, reportProgress, requeueExpired } from './queue.ts';
+import type { ClaimedJob } from './queue.ts';
 import { checkPayload, handlerFor } from './registry.ts';
 import './handlers/index.ts';
 
@@ -11,6 +13,8 @@ export type WorkerOptions = {
   workerId?: string;
   /** Only these job types (tests use this to stay clear of other suites' jobs). */
   types?: string[];
+  /** Lease length; the heartbeat renews it every third of this while a handler runs (default env JOB_LEASE_MS). */
+  leaseMs?: number;
 };
 
 // Unique per process, so a lock names the server and process that holds it.
@@ -21,8 +25,24 @@ const processWorkerId = newWorkerId();
 export async function runOnce(options: WorkerOptions = {}): Promise<number | null> {
   const db = options.db ?? defaultDb;
   const workerId = options.workerId ?? processWorkerId;
-  const job = await claim(workerId, { db, types: options.types });
+  const leaseMs = options.leaseMs ?? env.JOB_LEASE_MS;
+  const job = await claim(workerId, { db, types: options.types, leaseMs });
   if (!job) return null;
+  // Heartbeat: keep the lease while this process is alive; if the process dies the lease runs out and another
+  // worker's sweep queues the job again (requeueExpired).
+  const heartbeat = setInterval(
+    () => void renewLease(job.id, workerId, db, leaseMs).catch((e) => console.error('[jobs] heartbeat', e)),
+    Math.max(100, Math.floor(leaseMs / 3)),
+  );
+  heartbeat.unref();
+  try {
+    return await runClaimed(job, db, workerId, leaseMs);
+  } finally {
+    clearInterval(heartbeat);
+  }
+}
+
+async function runClaimed(job: ClaimedJob, db: Sequelize, workerId: string, leaseMs: number) {
   const handler = handlerFor(job.type);
   // A malformed payload fails the job at once with the reason; the handler never sees it (nor its onFailed).
   const checked = checkPayload(job.type, job.payload);
@@ -37,7 +57,7 @@ export async function runOnce(options: WorkerOptions = {}): Promise<number | nul
       db,
       workerId,
       progress: async (value) => {
-        await reportProgress(job.id, workerId, value, db);
+        await reportProgress(job.id, workerId, value, db, leaseMs);
       },
     });
     await complete(job.id, workerId, result ?? null, db);
@@ -56,22 +76,25 @@ export async function drain(options: WorkerOptions = {}) {
   return ids;
 }
 
-export type LoopOptions = WorkerOptions & { pollMs?: number; staleMs?: number };
+export type LoopOptions = WorkerOptions & { pollMs?: number; staleMs?: number; sweepMs?: number };
 let loop: { stop: boolean; done: Promise<void> } | null = null;
 
-/** The background loop started by server/index.ts: sweep stale locks, claim, run, sleep when idle. */
+/** The background loop started by server/index.ts: sweep expired leases, claim, run, sleep when idle. */
 export function startWorker(options: LoopOptions = {}) {
   if (loop) return;
   const pollMs = options.pollMs ?? 1000;
   const staleMs = options.staleMs ?? 10 * 60_000;
+  // Sweep for expired leases every half lease (at most every 15 s): a dead worker's job is queued again
+  // within lease + sweep interval, under a minute with the default 30 s lease.
+  const sweepMs = options.sweepMs ?? Math.min(15_000, Math.floor((options.leaseMs ?? env.JOB_LEASE_MS) / 2));
   const state = { stop: false, done: Promise.resolve() };
   let lastSweep = 0;
   state.done = (async () => {
     while (!state.stop) {
       try {
-        if (Date.now() - lastSweep > Math.min(staleMs, 60_000)) {
+        if (Date.now() - lastSweep > sweepMs) {
           lastSweep = Date.now();
-          const n = await requeueStale(staleMs, options.db);
+          const n = await requeueExpired({ db: options.db, staleMs, types: options.types });
           if (n) console.log(`[jobs] re-queued ${n} interrupted job(s)`);
         }
         const id = await runOnce(options);

@@ -8,7 +8,7 @@ import { PaletteColour, Photo } from '../models/index.ts';
 import type { PhotoView } from '../models/catalogue.ts';
 import { colourSource, decodeForIngest, type ColourSource } from './decode.ts';
 import { readExif } from './exif.ts';
-import { exists, WrittenFiles } from './files.ts';
+import { exists, moveIntoPlace, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
 import { paletteRows } from './rows.ts';
 import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
@@ -106,7 +106,15 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     // 1. Store the master byte for byte; an identical file already stored is shared.
     const sha256 = createHash('sha256').update(buffer).digest('hex');
     const master = masterPath(sha256, info.ext);
-    if (!(await exists(master))) await files.write(master, buffer);
+    if (!(await exists(master))) {
+      // Under a temporary name until the rows commit: a process killed before the commit leaves no master that no
+      // row points at (the reconciler clears the temp file), and a rolled-back transaction never moves it into place.
+      const tmp = await files.writeTemp(sha256, info.ext, buffer);
+      transaction.afterCommit(async () => {
+        // A failed move must not turn a committed upload into an error; the reconciler finishes it later.
+        await moveIntoPlace(tmp, master).catch((e) => console.error('[media] moving a master into place', e));
+      });
+    }
 
     // 2. EXIF (GPS kept apart, on the row only).
     const { exif, gps, capturedAt } = await readExif(buffer);

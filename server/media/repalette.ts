@@ -1,4 +1,3 @@
-import { readFile } from 'node:fs/promises';
 import type { Transaction } from 'sequelize';
 import { PaletteColour, Region, type Photo } from '../models/index.ts';
 import { correctImage, patchWhite } from './correction.ts';
@@ -6,7 +5,7 @@ import { workingImage } from './decode.ts';
 import { extractPalette, type ExtractedColour, type RawImage, type Rect } from './palette.ts';
 import { paletteRows } from './rows.ts';
 import { bradfordMatrix, deltaE00 } from '../../shared/colour/index.ts';
-import { resolveInsideUploads } from './paths.ts';
+import { readMasterFile } from './files.ts';
 
 /** Regions that get a palette of their own. */
 export const PALETTE_PURPOSES = new Set(['colour-area', 'motif']);
@@ -106,7 +105,7 @@ export async function repalette({
 }) {
   const master = photo.derivatives.master?.path;
   if (!master) throw new Error(`Photo ${photo.id} has no master file`);
-  const buffer = await readFile(resolveInsideUploads(master));
+  const buffer = await readMasterFile(master, photo.sha256);
   const regions = await Region.findAll({ where: { photoId: photo.id }, order: [['id', 'ASC']], transaction });
   const patchRegion = regions.find((r) => r.purpose === 'reference-patch');
   const patch: Rect | null =

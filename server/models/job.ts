@@ -23,6 +23,8 @@ export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job
   declare result: Record<string, unknown> | null;
   declare lockedBy: string | null;
   declare lockedAt: Date | null;
+  /** Until when the worker in lockedBy holds the job; its heartbeat pushes this forward (migration 0022). */
+  declare leaseUntil: CreationOptional<Date | null>;
   declare runAfter: Date;
   declare startedAt: Date | null;
   declare finishedAt: Date | null;
@@ -47,6 +49,7 @@ export function initJobModel(sequelize: Sequelize) {
       result: DataTypes.JSON,
       lockedBy: DataTypes.STRING(80),
       lockedAt: DataTypes.DATE(3),
+      leaseUntil: DataTypes.DATE(3),
       runAfter: { type: DataTypes.DATE(3), allowNull: false },
       startedAt: DataTypes.DATE(3),
       finishedAt: DataTypes.DATE(3),

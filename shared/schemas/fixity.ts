@@ -11,6 +11,18 @@ export const fixityProblemSchema = z.object({
 });
 export type FixityProblem = z.infer<typeof fixityProblemSchema>;
 
+/**
+ * A file under uploads/ that no photo points at, removed by the check once older than an hour (a master left by a
+ * process killed before its upload committed, or a temp file); `file` is relative to uploads/.
+ */
+export const fixityOrphanSchema = z.object({
+  file: z.string(),
+  kind: z.enum(['master', 'temp']),
+  bytes: z.number().int().min(0),
+  modifiedAt: z.iso.datetime(),
+});
+export type FixityOrphan = z.infer<typeof fixityOrphanSchema>;
+
 /** What the fixity-check job (server/jobs/handlers/fixity-check.ts) records as its result. */
 export const fixityReportSchema = z.object({
   checkedAt: z.iso.datetime(),
@@ -18,6 +30,8 @@ export const fixityReportSchema = z.object({
   ok: z.number().int().min(0),
   mismatches: z.array(fixityProblemSchema),
   missing: z.array(fixityProblemSchema),
+  /** Orphan files removed by this check (reports from before this field have none). */
+  orphans: z.array(fixityOrphanSchema).default([]),
 });
 export type FixityReport = z.infer<typeof fixityReportSchema>;
 

@@ -1,6 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
-import { writeFile } from 'node:fs/promises';
+import { mkdir, utimes, writeFile } from 'node:fs/promises';
+import { randomBytes } from 'node:crypto';
+import path from 'node:path';
 import request from 'supertest';
 import yauzl from 'yauzl';
 import { parse } from 'csv-parse/sync';
@@ -11,6 +13,7 @@ import { drain } from '../../server/jobs/worker.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
+import { masterPath, resolveInsideUploads } from '../../server/media/paths.ts';
 
 const app = createApp();
 afterAll(() => sequelize.close());
@@ -171,6 +174,12 @@ describe('fixity check', () => {
     bytes[Math.floor(bytes.length / 2)] ^= 0xff;
     await writeFile(file, bytes);
     await rm(goneFile);
+    // A master no photo points at, written two hours ago (a process killed before its upload committed).
+    const orphan = masterPath(randomBytes(32).toString('hex'), 'jpg');
+    await mkdir(path.dirname(resolveInsideUploads(orphan)), { recursive: true });
+    await writeFile(resolveInsideUploads(orphan), 'orphan');
+    const twoHoursAgo = new Date(Date.now() - 2 * 3600_000);
+    await utimes(resolveInsideUploads(orphan), twoHoursAgo, twoHoursAgo);
 
     for (const role of ['curator', 'researcher', 'dyer'] as const) {
       const agent = await signedInAgent(app, role);
@@ -204,6 +213,10 @@ describe('fixity check', () => {
       expect(report.missing.some((x: { sha256: string }) => x.sha256 === m.photo.sha256)).toBe(false);
     }
     expect(report.ok).toBeGreaterThanOrEqual(2);
+    // The orphan is removed and listed; the photos' masters are not.
+    expect(report.orphans).toContainEqual(expect.objectContaining({ file: orphan, kind: 'master', bytes: 6 }));
+    expect(report.orphans.some((o: { file: string }) => o.file.includes(bad.sha256))).toBe(false);
+    await expect(utimes(resolveInsideUploads(orphan), new Date(), new Date())).rejects.toThrow();
     expect(await Job.count({ where: { type: 'fixity-check', state: 'queued' } })).toBe(0);
   });
 });

@@ -1,5 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
+import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
+import path from 'node:path';
 import { Op } from 'sequelize';
 import { createSequelize } from '../../server/db/sequelize.ts';
 import { Job, sequelize } from '../../server/models/index.ts';
@@ -8,11 +10,17 @@ import {
   claim,
   enqueue as enqueueTyped,
   enqueueUntyped as enqueue,
+  requeueExpired,
   requeueStale,
   PermanentJobError,
 } from '../../server/jobs/queue.ts';
 import { checkPayload, registerHandler } from '../../server/jobs/registry.ts';
-import { drain, runOnce } from '../../server/jobs/worker.ts';
+import { drain, runOnce, startWorker, stopWorker } from '../../server/jobs/worker.ts';
+import { TILE_JOB } from '../../server/jobs/handlers/tile-photo.ts';
+import { enqueueTiles } from '../../server/iiif/enqueue.ts';
+import { Photo } from '../../server/models/index.ts';
+import { removePhotoRows } from '../../server/services/photos.ts';
+import { makePhotoWithMaster } from '../support/photos.ts';
 
 // Two separate connection pools stand for two app servers sharing the jobs table.
 const serverA = createSequelize();
@@ -69,8 +77,9 @@ describe('job queue', () => {
     const job = await enqueue({ type });
     const claimed = await claim('server-that-died', { types: [type] });
     expect(claimed?.id).toBe(job.id);
-    // The dead server's last heartbeat was an hour ago.
-    await Job.update({ lockedAt: new Date(Date.now() - 3600_000) }, { where: { id: job.id } });
+    // The dead server's last heartbeat was an hour ago, and its lease ran out then.
+    const hourAgo = new Date(Date.now() - 3600_000);
+    await Job.update({ lockedAt: hourAgo, leaseUntil: hourAgo }, { where: { id: job.id } });
     expect(await runOnce({ types: [type] })).toBeNull();
     expect(await requeueStale(10 * 60_000)).toBeGreaterThanOrEqual(1);
     await job.reload();
@@ -91,6 +100,102 @@ describe('job queue', () => {
     await job.reload();
     expect(job.state).toBe('running');
     expect(job.lockedBy).toBe('busy-server');
+  });
+
+  it('gives a running job a lease that the heartbeat renews while its handler runs', async () => {
+    const type = uniqueType('lease');
+    let release!: () => void;
+    const gate = new Promise<void>((r) => (release = r));
+    let seen: Date | null = null;
+    registerHandler(type, { run: () => gate });
+    const job = await enqueue({ type });
+    const running = runOnce({ types: [type], leaseMs: 600 });
+    await expect.poll(async () => (await job.reload()).state).toBe('running');
+    seen = job.leaseUntil;
+    expect(seen!.getTime()).toBeGreaterThan(Date.now() - 600);
+    // Well past the first lease: the heartbeat (every lease/3) has pushed it forward, so no sweep takes the job.
+    await new Promise((r) => setTimeout(r, 1000));
+    await requeueExpired({ types: [type] });
+    await job.reload();
+    expect(job.state).toBe('running');
+    expect(job.leaseUntil!.getTime()).toBeGreaterThan(seen!.getTime());
+    release();
+    await running;
+    await job.reload();
+    expect(job.state).toBe('done');
+    expect(job.leaseUntil).toBeNull();
+  });
+
+  it('re-queues the job of a worker process killed with SIGKILL, and another worker finishes it within a minute', async () => {
+    const type = uniqueType('killed');
+    let ranBy: string | null = null;
+    registerHandler(type, { run: async (_job, ctx) => void (ranBy = ctx.workerId) });
+    const job = await enqueue({ type });
+    const child = spawn(
+      process.execPath,
+      ['--import', 'tsx', path.resolve('tests/support/job-worker-child.ts'), type, '1500'],
+      { stdio: ['ignore', 'pipe', 'inherit'] },
+    );
+    let out = '';
+    child.stdout.on('data', (d) => (out += String(d)));
+    const exited = new Promise((r) => child.on('exit', r));
+    await expect.poll(() => out, { timeout: 30_000 }).toContain(`claimed ${job.id}`);
+    await job.reload();
+    expect(job.state).toBe('running');
+    expect(job.lockedBy).toBe(`child:${child.pid}`);
+    child.kill('SIGKILL');
+    await exited;
+    const killedAt = Date.now();
+    startWorker({ types: [type], leaseMs: 1500, pollMs: 100 });
+    try {
+      await expect.poll(async () => (await job.reload()).state, { timeout: 60_000, interval: 200 }).toBe('done');
+    } finally {
+      await stopWorker();
+    }
+    expect(Date.now() - killedAt).toBeLessThan(60_000);
+    expect(job.attempts).toBe(2);
+    expect(ranBy).not.toBeNull();
+  });
+
+  it("fails a job whose worker died on its last attempt with the reason, and tells its subject's hooks", async () => {
+    const type = uniqueType('lastlease');
+    const hooks: string[] = [];
+    registerHandler(type, {
+      run: async () => {},
+      onFailed: async (_job, reason) => void hooks.push(`failed: ${reason}`),
+      onRetry: async () => void hooks.push('retry'),
+    });
+    const first = await enqueue({ type, maxAttempts: 2 });
+    const last = await enqueue({ type, maxAttempts: 1 });
+    await claim('dead-1', { types: [type], leaseMs: 1 });
+    await claim('dead-2', { types: [type], leaseMs: 1 });
+    await new Promise((r) => setTimeout(r, 20));
+    expect(await requeueExpired({ types: [type] })).toBe(2);
+    await first.reload();
+    await last.reload();
+    expect(first.state).toBe('queued');
+    expect(last.state).toBe('failed');
+    expect(last.error).toMatch(/lease ran out/);
+    expect(hooks.sort()).toEqual([expect.stringMatching(/^failed: Interrupted/), 'retry']);
+  });
+
+  it("puts a photo's tile status back to queued when its tiling worker died, and to failed on the last attempt", async () => {
+    const { photo } = await makePhotoWithMaster(null, { width: 60, height: 40 });
+    // Only this photo's job is due, claimed by a worker that then died (a lease of 1 ms).
+    await Job.update({ runAfter: new Date(Date.now() + 3600_000) }, { where: { type: TILE_JOB, state: 'queued' } });
+    const job = await enqueueTiles(photo.id);
+    await Job.update({ runAfter: new Date(0), maxAttempts: 2 }, { where: { id: job!.id } });
+    for (const expected of ['queued', 'failed']) {
+      expect((await claim('dead-tiler', { types: [TILE_JOB], leaseMs: 1 }))?.id).toBe(job!.id);
+      await Photo.update({ tileStatus: 'running' }, { where: { id: photo.id } });
+      await new Promise((r) => setTimeout(r, 20));
+      expect(await requeueExpired({ types: [TILE_JOB] })).toBe(1);
+      expect((await Photo.findByPk(photo.id))!.tileStatus).toBe(expected);
+      expect((await job!.reload()).state).toBe(expected);
+    }
+    await Job.update({ runAfter: new Date() }, { where: { type: TILE_JOB, state: 'queued' } });
+    await Job.destroy({ where: { id: job!.id } });
+    await sequelize.transaction((transaction) => removePhotoRows([photo], transaction));
   });
 
   it('retries a failing job with back-off, then marks it failed with the reason', async () => {

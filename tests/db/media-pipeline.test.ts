@@ -1,4 +1,5 @@
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, statSync, utimesSync, writeFileSync } from 'node:fs';
+import { createHash, randomBytes } from 'node:crypto';
 import path from 'node:path';
 import { crc32 } from 'node:zlib';
 import sharp from 'sharp';
@@ -7,6 +8,7 @@ import { env } from '../../server/env.ts';
 import { HttpError } from '../../server/http/errors.ts';
 import { ingestPhoto, photoFile, removePhotoFiles, repalette } from '../../server/media/pipeline.ts';
 import { masterPath, resolveInsideUploads } from '../../server/media/paths.ts';
+import { ORPHAN_AGE_MS, reconcileOrphans } from '../../server/media/reconcile.ts';
 import { PaletteColour, Photo, Region, sequelize, type Piece } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { paintCloth } from '../../server/seed/cloth-image.ts';
@@ -395,3 +397,99 @@ describe('paths', () => {
     expect(() => masterPath('../etc', 'jpg')).toThrow();
   });
 });
+
+describe('no orphan masters (a master goes into place only after its transaction commits)', () => {
+  const pngOf = (colour: string) => solid(colour, 40, 30).png().toBuffer();
+  const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+  const tmpNames = (hash: string) =>
+    readdirSync(resolveInsideUploads('tmp')).filter((n) => n.startsWith(`master-${hash}.`));
+  // Files written "long ago": mtime pushed back past the reconciler's hour (ORPHAN_AGE_MS).
+  const age = (abs: string, ms = ORPHAN_AGE_MS + 60_000) => {
+    const t = new Date(Date.now() - ms);
+    utimesSync(abs, t, t);
+  };
+  const put = (relative: string, data: Buffer) => {
+    const abs = resolveInsideUploads(relative);
+    mkdirSync(path.dirname(abs), { recursive: true });
+    writeFileSync(abs, data);
+    return abs;
+  };
+
+  it('leaves no master when the transaction fails after the pipeline ran, only a fresh temp file the reconciler keeps', async () => {
+    const buffer = await pngOf('#7a3b1f');
+    const hash = sha(buffer);
+    await expect(
+      sequelize.transaction(async (transaction) => {
+        await ingestPhoto({ actor: null, transaction, input: { buffer, pieceId: piece.id, originalName: 'x.png' } });
+        throw new Error('a later step of the same upload fails');
+      }),
+    ).rejects.toThrow('a later step');
+    expect(existsSync(resolveInsideUploads(masterPath(hash, 'png')))).toBe(false);
+    expect(await Photo.count({ where: { sha256: hash } })).toBe(0);
+    const temps = tmpNames(hash);
+    expect(temps).toHaveLength(1);
+    // A fresh temp file may belong to an upload still running: left alone.
+    const removed = await reconcileOrphans();
+    expect(removed.some((o) => o.file.includes(hash))).toBe(false);
+    expect(tmpNames(hash)).toEqual(temps);
+    // An hour later it is an orphan and goes.
+    age(resolveInsideUploads(`tmp/${temps[0]}`));
+    const later = await reconcileOrphans();
+    expect(later).toContainEqual(expect.objectContaining({ file: `tmp/${temps[0]}`, kind: 'temp' }));
+    expect(tmpNames(hash)).toHaveLength(0);
+  });
+
+  it('moves the master into place once the transaction commits, with no temp file left', async () => {
+    const buffer = await pngOf('#1f5a7a');
+    const { photo } = await ingest(buffer);
+    expect(readFileSync(photoFile(photo, 'master')).equals(buffer)).toBe(true);
+    expect(tmpNames(photo.sha256)).toHaveLength(0);
+  });
+
+  it('removes and reports an unreferenced master older than an hour; keeps referenced and fresh ones', async () => {
+    const orphanHash = randomBytes(32).toString('hex');
+    const orphan = masterPath(orphanHash, 'jpg');
+    age(put(orphan, Buffer.from('left by a killed process')));
+    const freshHash = randomBytes(32).toString('hex');
+    const fresh = masterPath(freshHash, 'jpg');
+    put(fresh, Buffer.from('an upload committing right now'));
+    const { photo } = await ingest(await pngOf('#5a7a1f'));
+    age(photoFile(photo, 'master'));
+    const oldTemp = `tmp/${randomBytes(8).toString('hex')}.part`;
+    age(put(oldTemp, Buffer.from('half a derivative')));
+
+    const removed = await reconcileOrphans();
+    expect(removed).toContainEqual({
+      file: orphan,
+      kind: 'master',
+      bytes: 24,
+      modifiedAt: expect.stringMatching(/^\d{4}-/),
+    });
+    expect(removed).toContainEqual(expect.objectContaining({ file: oldTemp, kind: 'temp' }));
+    expect(existsSync(resolveInsideUploads(orphan))).toBe(false);
+    expect(existsSync(resolveInsideUploads(oldTemp))).toBe(false);
+    expect(existsSync(resolveInsideUploads(fresh))).toBe(true);
+    expect(existsSync(photoFile(photo, 'master'))).toBe(true);
+    expect(removed.some((o) => o.file.includes(photo.sha256) || o.file === fresh)).toBe(false);
+    await removeFile(fresh);
+  });
+
+  it('finishes the move of a committed photo whose process died before moving its master', async () => {
+    const buffer = await pngOf('#7a1f5a');
+    const { photo } = await ingest(buffer);
+    const master = photoFile(photo, 'master');
+    // As if the process died between the commit and the move: the master is still under tmp/.
+    const temp = `tmp/master-${photo.sha256}.png.${randomBytes(8).toString('hex')}.part`;
+    age(put(temp, readFileSync(master)));
+    await removeFile(path.relative(path.resolve(env.UPLOADS_DIR), master));
+    const removed = await reconcileOrphans();
+    expect(removed.some((o) => o.file === temp)).toBe(false);
+    expect(readFileSync(master).equals(buffer)).toBe(true);
+    expect(existsSync(resolveInsideUploads(temp))).toBe(false);
+  });
+});
+
+async function removeFile(relative: string) {
+  const { rm } = await import('node:fs/promises');
+  await rm(resolveInsideUploads(relative), { force: true });
+}

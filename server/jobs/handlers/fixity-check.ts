@@ -4,6 +4,7 @@ import { pipeline } from 'node:stream/promises';
 import { Photo } from '../../models/index.ts';
 import { findMaster } from '../../iiif/files.ts';
 import { registerHandler } from '../registry.ts';
+import { reconcileOrphans } from '../../media/reconcile.ts';
 import type { FixityReport } from '../../../shared/schemas/fixity.ts';
 
 export const FIXITY_JOB = 'fixity-check';
@@ -14,14 +15,24 @@ export async function sha256File(file: string) {
   return hash.digest('hex');
 }
 
-/** Re-hash every master and compare with the sha256 recorded at upload (the file's name and the photo rows). */
+/**
+ * Re-hash every master and compare with the sha256 recorded at upload (the file's name and the photo rows); then
+ * remove orphan files (no photo points at them, older than an hour) and list them in the report.
+ */
 registerHandler(FIXITY_JOB, {
   async run(_job, ctx) {
     const rows = await Photo.findAll({ attributes: ['id', 'sha256', 'format', 'derivatives'], order: [['id', 'ASC']] });
     // Photos sharing a sha256 share one stored master: check each master once.
     const bySha = new Map<string, Photo[]>();
     for (const r of rows) (bySha.get(r.sha256) ?? bySha.set(r.sha256, []).get(r.sha256)!).push(r);
-    const report: FixityReport = { checkedAt: '', masters: bySha.size, ok: 0, mismatches: [], missing: [] };
+    const report: FixityReport = {
+      checkedAt: '',
+      masters: bySha.size,
+      ok: 0,
+      mismatches: [],
+      missing: [],
+      orphans: [],
+    };
     let done = 0;
     for (const [sha256, photos] of bySha) {
       const photoIds = photos.map((p) => p.id);
@@ -37,6 +48,7 @@ registerHandler(FIXITY_JOB, {
       done += 1;
       if (done % 10 === 0 || done === bySha.size) await ctx.progress(done / bySha.size);
     }
+    report.orphans = await reconcileOrphans();
     report.checkedAt = new Date().toISOString();
     return report;
   },

@@ -4,6 +4,7 @@ import { findMaster, tilesDir } from '../../iiif/files.ts';
 import { buildTiles } from '../../iiif/tiles.ts';
 import { PermanentJobError } from '../queue.ts';
 import { registerHandler } from '../registry.ts';
+import { hasPendingMaster } from '../../media/files.ts';
 
 export const TILE_JOB = 'tile-photo';
 
@@ -14,8 +15,12 @@ registerHandler(TILE_JOB, {
     if (!photo) throw new PermanentJobError(`Photo ${photoId} no longer exists.`);
     await photo.update({ tileStatus: 'running' });
     const master = await findMaster(photo);
-    if (!master)
-      throw new PermanentJobError(`The master file of photo ${photoId} is missing (sha256 ${photo.sha256}).`);
+    if (!master) {
+      // A new upload's master is moved into place just after its transaction commits (server/media/pipeline.ts):
+      // a worker on another server may claim the job in that instant, while the file is still under tmp/.
+      const reason = `The master file of photo ${photoId} is missing (sha256 ${photo.sha256}).`;
+      throw (await hasPendingMaster(photo.sha256)) ? new Error(reason) : new PermanentJobError(reason);
+    }
     await ctx.progress(0.1);
     await buildTiles(photoId, master, `${job.id}-${job.attempts}`);
     // Removed while its tiles were being built: take the tiles away too, so no orphan folder stays behind.

@@ -7,7 +7,7 @@ import { can } from '../../policies/index.ts';
 import { enqueue } from '../../jobs/queue.ts';
 import { FIXITY_JOB } from '../../jobs/handlers/fixity-check.ts';
 import { presentJob } from '../../presenters/job.ts';
-import type { FixityLatest, FixityReport } from '../../../shared/schemas/fixity.ts';
+import { fixityReportSchema, type FixityLatest } from '../../../shared/schemas/fixity.ts';
 
 export const fixityRouter = Router();
 
@@ -36,10 +36,12 @@ fixityRouter.get('/latest', requireUser, mayRun, async (_req, res) => {
     Job.findOne({ where: { type: FIXITY_JOB }, order: [['id', 'DESC']] }),
     Job.findOne({ where: { type: FIXITY_JOB, state: 'done' }, order: [['id', 'DESC']] }),
   ]);
-  // A done fixity job's result is the report its handler returned (server/jobs/handlers/fixity-check.ts).
+  // A done fixity job's result is the report its handler returned (server/jobs/handlers/fixity-check.ts); parsed so
+  // reports stored before a field existed get its default (orphans: []).
+  const parsed = lastDone?.result ? fixityReportSchema.safeParse(lastDone.result) : null;
   const body: FixityLatest = {
     job: latest ? presentJob(latest, true) : null,
-    report: (lastDone?.result as FixityReport | undefined) ?? null,
+    report: parsed?.success ? parsed.data : null,
   };
   res.json(body);
 });

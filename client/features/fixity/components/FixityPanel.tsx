@@ -49,10 +49,24 @@ export function FixityPanel() {
             Last check {formatDateTime(report.checkedAt)}: <span className="num">{report.masters}</span> masters,{' '}
             <span className="num text-ok">{report.ok}</span> intact,{' '}
             <span className="num">{report.mismatches.length}</span> changed,{' '}
-            <span className="num">{report.missing.length}</span> missing.
+            <span className="num">{report.missing.length}</span> missing,{' '}
+            <span className="num">{report.orphans.length}</span> orphan files removed.
           </p>
           <Problems title="Changed since upload (SHA-256 differs)" list={report.mismatches} />
           <Problems title="Missing" list={report.missing} />
+          {report.orphans.length ? (
+            <div>
+              <h3 className="font-semibold">Orphan files removed (no photo pointed at them, older than an hour)</h3>
+              <ul className="list-disc pl-5">
+                {report.orphans.map((o) => (
+                  <li key={o.file}>
+                    <code>{o.file}</code> ({o.kind}, <span className="num">{o.bytes}</span> bytes, last written{' '}
+                    {formatDateTime(o.modifiedAt)})
+                  </li>
+                ))}
+              </ul>
+            </div>
+          ) : null}
         </div>
       ) : latest.isSuccess ? (
         <p className="text-sm text-ink-soft">No check has run yet.</p>
