@@ -14,6 +14,7 @@ import { mediaRouter } from './routes/media/index.ts';
 import { sessionMiddleware } from './auth/session.ts';
 import { passport } from './auth/passport.ts';
 import { installSearchHooks } from './search/hooks.ts';
+import { requestLogger } from './log/index.ts';
 
 export type AppOptions = { clientDir?: string };
 
@@ -24,6 +25,8 @@ export function createApp(options: AppOptions = {}) {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  // First: every request gets an id (X-Request-Id) and one JSON log line when it finishes.
+  app.use(requestLogger());
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -22,6 +22,12 @@ const schema = z
     APP_DEV: z.enum(['0', '1']).default('0'),
     SEED: z.enum(['demo', 'reference', 'none']).default('demo'),
     DB_LOG: z.enum(['0', '1']).default('0'),
+    /** pino level of the request and job logs; 'silent' by default in tests. */
+    LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+    /** How long a request waits for a free database connection before a 503 (ms). */
+    DB_ACQUIRE_TIMEOUT_MS: z.coerce.number().int().min(100).default(5_000),
+    /** How long one query may run before it is abandoned with a 503 (ms); 0 disables. */
+    DB_QUERY_TIMEOUT_MS: z.coerce.number().int().min(0).default(10_000),
   })
   .superRefine((v, ctx) => {
     if (v.NODE_ENV === 'production' && !v.SESSION_SECRET) {
@@ -48,4 +54,5 @@ function load(): Env {
 export const env = load();
 export const isProduction = env.NODE_ENV === 'production';
 export const isTest = env.NODE_ENV === 'test';
+export const logLevel = env.LOG_LEVEL ?? (isTest ? 'silent' : 'info');
 export const publicUrl = env.PUBLIC_URL ?? `http://127.0.0.1:${env.PORT}`;

@@ -5,6 +5,7 @@ import { sequelize as defaultDb } from '../models/index.ts';
 import { claim, complete, fail, PermanentJobError, reportProgress, requeueStale } from './queue.ts';
 import { checkPayload, handlerFor } from './registry.ts';
 import './handlers/index.ts';
+import { logger } from '../log/index.ts';
 
 export type WorkerOptions = {
   db?: Sequelize;
@@ -44,7 +45,10 @@ export async function runOnce(options: WorkerOptions = {}): Promise<number | nul
   } catch (err) {
     const reason = err instanceof Error ? err.message : String(err);
     const final = await fail(job, workerId, reason, err instanceof PermanentJobError, db);
-    if (final) await handler?.onFailed?.(job, reason).catch((e) => console.error('[jobs] onFailed', e));
+    if (final)
+      await handler
+        ?.onFailed?.(job, reason)
+        .catch((e) => logger.error({ err: e, jobId: job.id, type: job.type }, '[jobs] onFailed'));
   }
   return job.id;
 }
@@ -72,12 +76,12 @@ export function startWorker(options: LoopOptions = {}) {
         if (Date.now() - lastSweep > Math.min(staleMs, 60_000)) {
           lastSweep = Date.now();
           const n = await requeueStale(staleMs, options.db);
-          if (n) console.log(`[jobs] re-queued ${n} interrupted job(s)`);
+          if (n) logger.warn({ requeued: n }, `[jobs] re-queued ${n} interrupted job(s)`);
         }
         const id = await runOnce(options);
         if (id !== null) continue;
       } catch (err) {
-        console.error('[jobs] worker error', err);
+        logger.error({ err }, '[jobs] worker error');
       }
       await new Promise((r) => setTimeout(r, pollMs));
     }
