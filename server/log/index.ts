@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { IncomingMessage, ServerResponse } from 'node:http';
-import { pino } from 'pino';
+import { pino, type Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
 import { logLevel } from '../env.ts';
 
@@ -27,9 +27,9 @@ export function redactUrl(url: string | undefined): string {
 type WithUser = IncomingMessage & { user?: { id?: number } };
 
 /** One JSON line per request: method, url (secrets redacted), status, time, request id, user id when signed in. */
-export const requestLogger = () =>
+export const requestLogger = (log: Logger = logger) =>
   pinoHttp({
-    logger,
+    logger: log,
     genReqId: (req: IncomingMessage, res: ServerResponse) => {
       const id = requestIdFrom(req.headers['x-request-id']);
       res.setHeader('X-Request-Id', id);
