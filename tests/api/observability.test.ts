@@ -8,6 +8,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { createSequelize } from '../../server/db/sequelize.ts';
 import { errorHandler, isDatabaseUnavailable } from '../../server/http/errors.ts';
 import { redactUrl, requestIdFrom, requestLogger } from '../../server/log/index.ts';
+import { env } from '../../server/env.ts';
 import { sequelize } from '../../server/models/index.ts';
 
 afterAll(() => sequelize.close());
@@ -113,4 +114,39 @@ describe('database timeouts answer 503 database_unavailable', () => {
     expect(isDatabaseUnavailable(err)).toBe(true);
     expect(took).toBeLessThan(9_000);
   }, 20_000);
+
+  it('abandons a query on a connection whose database froze mid-session (socket timeout)', async () => {
+    // A TCP relay to the test MariaDB that can stop passing bytes: a SIGSTOPped server, seen from the pool.
+    const target = new URL(env.DATABASE_URL);
+    let frozen = false;
+    const pairs: net.Socket[] = [];
+    const relay = net.createServer((client) => {
+      const upstream = net.connect(Number(target.port || 3306), target.hostname);
+      pairs.push(client, upstream);
+      client.on('data', (d) => frozen || upstream.write(d));
+      upstream.on('data', (d) => frozen || client.write(d));
+      client.on('error', () => upstream.destroy());
+      upstream.on('error', () => client.destroy());
+      client.on('close', () => upstream.destroy());
+      upstream.on('close', () => client.destroy());
+    });
+    await new Promise<void>((r) => relay.listen(0, '127.0.0.1', r));
+    const url = new URL(env.DATABASE_URL);
+    url.hostname = '127.0.0.1';
+    url.port = String((relay.address() as net.AddressInfo).port);
+    const db = createSequelize(url.toString());
+    try {
+      await db.query('SELECT 1');
+      frozen = true;
+      const t0 = Date.now();
+      const err = await db.query('SELECT 1').catch((e: unknown) => e);
+      const took = Date.now() - t0;
+      expect(isDatabaseUnavailable(err)).toBe(true);
+      expect(took).toBeLessThan(env.DB_QUERY_TIMEOUT_MS + 3_000);
+    } finally {
+      for (const s of pairs) s.destroy();
+      relay.close();
+      await db.close().catch(() => {});
+    }
+  }, 30_000);
 });
