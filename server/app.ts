@@ -15,6 +15,7 @@ import { mediaRouter } from './routes/media/index.ts';
 import { sessionMiddleware } from './auth/session.ts';
 import { passport } from './auth/passport.ts';
 import { installSearchHooks } from './search/hooks.ts';
+import { requestLogger } from './log/index.ts';
 
 export type AppOptions = {
   clientDir?: string;
@@ -28,6 +29,8 @@ export function createApp(options: AppOptions = {}) {
   installSearchHooks();
   const app = express();
   app.disable('x-powered-by');
+  // First: every request gets an id (X-Request-Id) and one JSON log line when it finishes.
+  app.use(requestLogger());
   // Off unless configured (TRUST_PROXY): otherwise any client's X-Forwarded-For would pick its own req.ip.
   app.set('trust proxy', options.trustProxy ?? env.TRUST_PROXY);
   app.use(hostCheck(allowedHostnames({ publicUrl, extra: env.ALLOWED_HOSTS, production: isProduction })));

@@ -46,6 +46,12 @@ const schema = z
     // How long a running job's lease lasts; the worker renews it every third of this while the handler runs, and a
     // job whose lease ran out (its worker died) is queued again. 30 s: common practice for lease/heartbeat queues.
     JOB_LEASE_MS: z.coerce.number().int().min(500).max(600_000).default(30_000),
+    /** pino level of the request and job logs; 'silent' by default in tests. */
+    LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+    /** How long a request waits for a free database connection before a 503 (ms). */
+    DB_ACQUIRE_TIMEOUT_MS: z.coerce.number().int().min(100).default(5_000),
+    /** How long one query may run before it is abandoned with a 503 (ms); 0 disables. */
+    DB_QUERY_TIMEOUT_MS: z.coerce.number().int().min(0).default(10_000),
   })
   .superRefine((v, ctx) => {
     if (v.NODE_ENV === 'production' && !v.SESSION_SECRET) {
@@ -72,4 +78,5 @@ function load(): Env {
 export const env = load();
 export const isProduction = env.NODE_ENV === 'production';
 export const isTest = env.NODE_ENV === 'test';
+export const logLevel = env.LOG_LEVEL ?? (isTest ? 'silent' : 'info');
 export const publicUrl = env.PUBLIC_URL ?? `http://127.0.0.1:${env.PORT}`;

@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { fieldErrorsOf } from '../../shared/field-errors.ts';
+import { logger } from '../log/index.ts';
 
 /** An error with an HTTP status and a stable code, rendered as { error: { code, message, details? } }. */
 export class HttpError extends Error {
@@ -28,7 +29,44 @@ export const zodDetails = (err: ZodError) => ({ fields: fieldErrorsOf(err.issues
 export const apiNotFound: RequestHandler = (req, _res, next) =>
   next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`));
 
-export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
+/** Sequelize's names for a database that cannot be reached or did not answer in time (acquire, connect, socket). */
+const DB_DOWN_NAMES = new Set([
+  'SequelizeConnectionError',
+  'SequelizeConnectionAcquireTimeoutError',
+  'SequelizeConnectionRefusedError',
+  'SequelizeConnectionTimedOutError',
+  'SequelizeHostNotFoundError',
+  'SequelizeHostNotReachableError',
+]);
+/** MariaDB connector codes of a lost or silent connection, and MariaDB's statement timeout (max_statement_time). */
+const DB_DOWN_CODES = new Set([
+  'ER_SOCKET_TIMEOUT',
+  'ER_CONNECTION_TIMEOUT',
+  'ER_GET_CONNECTION_TIMEOUT',
+  'ER_SOCKET_UNEXPECTED_CLOSE',
+  'ER_CONNECTION_ALREADY_CLOSED',
+  'ER_CMD_CONNECTION_CLOSED',
+  'ER_STATEMENT_TIMEOUT',
+  'ECONNRESET',
+  'ECONNREFUSED',
+  'ETIMEDOUT',
+]);
+export const isDatabaseUnavailable = (err: unknown): boolean => {
+  const e = err as { name?: string; code?: string; parent?: { code?: string }; original?: { code?: string } } | null;
+  if (!e) return false;
+  if (e.name && DB_DOWN_NAMES.has(e.name)) return true;
+  const code = e.parent?.code ?? e.original?.code ?? (e.name?.startsWith('Sequelize') ? undefined : e.code);
+  return e.name === 'SequelizeDatabaseError' && code !== undefined && DB_DOWN_CODES.has(code);
+};
+/** Seconds a client should wait before retrying after a database_unavailable 503 (common practice: a few seconds). */
+export const DB_RETRY_AFTER_S = 5;
+
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  // Every error body carries the request id (set by the request logger, server/log/index.ts).
+  const requestId = typeof req.id === 'string' ? req.id : undefined;
+  const json = res.json.bind(res);
+  res.json = (body: { error?: Record<string, unknown> }) =>
+    json(requestId && body?.error ? { error: { ...body.error, requestId } } : body);
   if (err instanceof ZodError) {
     res
       .status(400)
@@ -66,6 +104,15 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
       .json({ error: { code: 'conflict', message: 'A record with that value already exists.', details: err.fields } });
     return;
   }
-  console.error(err);
+  if (isDatabaseUnavailable(err)) {
+    res
+      .status(503)
+      .set('Retry-After', String(DB_RETRY_AFTER_S))
+      .json({
+        error: { code: 'database_unavailable', message: 'The database is not answering. Try again in a few seconds.' },
+      });
+    return;
+  }
+  (req.log ?? logger).error({ err }, 'unhandled error');
   res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server.' } });
 };

@@ -7,6 +7,7 @@ import { claim, complete, fail, PermanentJobError, renewLease, reportProgress, r
 import type { ClaimedJob } from './queue.ts';
 import { checkPayload, handlerFor } from './registry.ts';
 import './handlers/index.ts';
+import { logger } from '../log/index.ts';
 
 export type WorkerOptions = {
   db?: Sequelize;
@@ -64,7 +65,10 @@ async function runClaimed(job: ClaimedJob, db: Sequelize, workerId: string, leas
   } catch (err) {
     const reason = err instanceof Error ? err.message : String(err);
     const final = await fail(job, workerId, reason, err instanceof PermanentJobError, db);
-    if (final) await handler?.onFailed?.(job, reason).catch((e) => console.error('[jobs] onFailed', e));
+    if (final)
+      await handler
+        ?.onFailed?.(job, reason)
+        .catch((e) => logger.error({ err: e, jobId: job.id, type: job.type }, '[jobs] onFailed'));
   }
   return job.id;
 }
@@ -95,12 +99,12 @@ export function startWorker(options: LoopOptions = {}) {
         if (Date.now() - lastSweep > sweepMs) {
           lastSweep = Date.now();
           const n = await requeueExpired({ db: options.db, staleMs, types: options.types });
-          if (n) console.log(`[jobs] re-queued ${n} interrupted job(s)`);
+          if (n) logger.warn({ requeued: n }, `[jobs] re-queued ${n} interrupted job(s)`);
         }
         const id = await runOnce(options);
         if (id !== null) continue;
       } catch (err) {
-        console.error('[jobs] worker error', err);
+        logger.error({ err }, '[jobs] worker error');
       }
       await new Promise((r) => setTimeout(r, pollMs));
     }

@@ -4,6 +4,7 @@ import { loadAll, loadPiece, loadTrial } from './docs.ts';
 import { facetTableFor } from './facet-table.ts';
 import { ShadeIndex, type ShadeRow } from './shade-index.ts';
 import { TextIndex } from './text-index.ts';
+import { logger } from '../log/index.ts';
 
 /**
  * The search engine: the text index and the shade index, loaded from MariaDB
@@ -21,6 +22,14 @@ class SearchEngine {
   private flushing: Promise<void> = Promise.resolve();
   /** Bumped on every change to the piece documents; caches key on it. */
   version = 0;
+  /** When each index was last loaded or changed (ms since epoch; null before its first load), for /api/health. */
+  textUpdatedAt: number | null = null;
+  shadeUpdatedAt: number | null = null;
+
+  /** What /api/health reports: whether each index is loaded, when it last changed, and changes not yet applied. */
+  status() {
+    return { textUpdatedAt: this.textUpdatedAt, shadeUpdatedAt: this.shadeUpdatedAt, pending: this.pending.length };
+  }
 
   /** Load both indexes (once); later calls wait for the same load. */
   ready(): Promise<void> {
@@ -50,6 +59,7 @@ class SearchEngine {
     this.version++;
     // Built here rather than by the first search after start-up (about a second at 170,000 pieces).
     facetTableFor(this.text, this.version);
+    this.textUpdatedAt = Date.now();
   }
 
   private async reloadShade() {
@@ -68,6 +78,7 @@ class SearchEngine {
       after = chunk[chunk.length - 1].id;
     }
     this.shade.load(rows, photos);
+    this.shadeUpdatedAt = Date.now();
   }
 
   /** A committed change; applied in order, off the request path. */
@@ -76,7 +87,7 @@ class SearchEngine {
     this.pending.push(change);
     this.flushing = this.flushing
       .then(() => this.flush())
-      .catch((err) => console.error('[search] index update failed', err));
+      .catch((err) => logger.error({ err }, '[search] index update failed'));
   }
 
   /** Resolves once every change enqueued so far is in the indexes. */
@@ -104,6 +115,7 @@ class SearchEngine {
         const { piece } = await loadPiece(c.id);
         this.text.setPiece(c.id, piece);
         this.version++;
+        this.textUpdatedAt = Date.now();
       } else if (c.kind === 'trial') {
         const before = this.text.trials.get(c.id)?.pieceId ?? null;
         const trial = await loadTrial(c.id);
@@ -112,6 +124,7 @@ class SearchEngine {
         for (const pid of new Set([before, trial?.pieceId ?? null]))
           if (pid != null) this.text.setPiece(pid, (await loadPiece(pid)).piece);
         this.version++;
+        this.textUpdatedAt = Date.now();
       } else if (c.kind === 'photo-palette') {
         const rows = await sequelize.query<ShadeRow>(
           'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE photoId = ? AND background = 0',
@@ -122,6 +135,7 @@ class SearchEngine {
         );
         this.shade.removePhoto(c.id);
         this.shade.add(rows);
+        this.shadeUpdatedAt = Date.now();
       }
     }
   }

@@ -3,6 +3,7 @@ import type { AcceptInvitationInput, InviteInput } from '../../shared/schemas/te
 import { hashPassword } from '../auth/passwords.ts';
 import { findLiveToken, hashToken, issueToken } from '../auth/tokens.ts';
 import { publicUrl } from '../env.ts';
+import { logger } from '../log/index.ts';
 import { conflict, HttpError, notFound } from '../http/errors.ts';
 import { sendMail } from '../mail/index.ts';
 import { invitationLetter } from '../mail/letters.ts';
@@ -41,7 +42,7 @@ export async function inviteMember({ actor, transaction, input }: ServiceCtx<Inv
       }),
     );
   } catch (err) {
-    console.error('[mail] invitation not sent:', err);
+    logger.error({ err }, '[mail] invitation not sent');
     throw new HttpError(
       502,
       'mail_failed',

@@ -35,11 +35,13 @@ export const toPaged = <T>(items: T[], total: number, page: number, pageSize: nu
   pageSize,
 });
 
-/** Every refusal: `{ error: { code, message, details? } }`; a 400 carries `details.fields` keyed by dotted path. */
+/** Every refusal: `{ error: { code, message, details?, requestId? } }`; a 400 carries `details.fields` keyed by dotted path. */
 export const errorSchema = z.object({
   error: z.object({
     code: z.string(),
     message: z.string(),
     details: z.record(z.string(), z.unknown()).optional(),
+    /** The request's id (also the X-Request-Id response header), to find its line in the server log. */
+    requestId: z.string().optional(),
   }),
 });

@@ -64,7 +64,7 @@ export function authRouter() {
     res
       .status(202)
       .json({ message: 'If that address belongs to an account, a link to set a new password is on its way.' });
-    requestPasswordReset(email).catch((err) => console.error('[mail] password reset not sent:', err));
+    requestPasswordReset(email).catch((err) => req.log.error({ err }, '[mail] password reset not sent'));
   });
 
   // Checked when the page opens, so a used or expired link says so before anyone types a password.

@@ -1,4 +1,5 @@
 import { publicUrl } from '../../env.ts';
+import { logger } from '../../log/index.ts';
 import { sendMail } from '../../mail/index.ts';
 import { letter } from '../../mail/templates.ts';
 import { Piece, User, type Trial } from '../../models/index.ts';
@@ -31,7 +32,7 @@ export async function notifyCurator(trial: Trial, actor: Actor): Promise<boolean
     );
     return true;
   } catch (err) {
-    console.error(`[mail] notice for trial ${trial.code} not sent:`, err);
+    logger.error({ err, trial: trial.code }, '[mail] trial notice not sent');
     return false;
   }
 }
