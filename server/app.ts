@@ -21,6 +21,8 @@ export type AppOptions = {
   clientDir?: string;
   /** Overrides TRUST_PROXY (server/env.ts), for tests of the proxy setting. */
   trustProxy?: boolean | number | string;
+  /** Host names allowed besides PUBLIC_URL's and ALLOWED_HOSTS (server/env.ts), for tests that serve other hosts. */
+  allowedHosts?: string[];
 };
 
 /** The Express app, without listening: tests drive it with supertest. */
@@ -33,7 +35,15 @@ export function createApp(options: AppOptions = {}) {
   app.use(requestLogger());
   // Off unless configured (TRUST_PROXY): otherwise any client's X-Forwarded-For would pick its own req.ip.
   app.set('trust proxy', options.trustProxy ?? env.TRUST_PROXY);
-  app.use(hostCheck(allowedHostnames({ publicUrl, extra: env.ALLOWED_HOSTS, production: isProduction })));
+  app.use(
+    hostCheck(
+      allowedHostnames({
+        publicUrl,
+        extra: [...env.ALLOWED_HOSTS, ...(options.allowedHosts ?? [])],
+        production: isProduction,
+      }),
+    ),
+  );
   app.use(
     helmet({
       contentSecurityPolicy: {

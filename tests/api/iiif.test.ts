@@ -10,7 +10,8 @@ import { drain } from '../../server/jobs/worker.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
 
-const app = createApp();
+// The manifests name the host they were asked on: two public names stand in for a real deployment's.
+const app = createApp({ allowedHosts: ['archive.example'] });
 afterAll(() => sequelize.close());
 
 let published: Awaited<ReturnType<typeof makePiece>>;
