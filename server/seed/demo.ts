@@ -240,6 +240,21 @@ export async function seedDemo(t: Transaction) {
     return trial;
   };
 
+  // Cotton takes tannin before alum (common practice for cellulose): the same two steps on every alum trial.
+  const tannin8: StepSpec = {
+    operation: 'tannin',
+    ingredients: [['chemical', 'tannic acid', 8, 'owf']],
+    liquorRatio: 30,
+    temperatureC: 50,
+    minutes: 60,
+  };
+  const alum15: StepSpec = {
+    operation: 'mordant-bath',
+    ingredients: [['chemical', 'potash alum', 15, 'owf']],
+    liquorRatio: 30,
+    temperatureC: 45,
+    minutes: 60,
+  };
   const p12 = pieces['1931.4.12'];
   // The red paste is MB-07's liquor thickened as drawn; the pink uses MB-08 as it is; the purple thins MB-09 with guar.
   const redDrawMl = 300;
@@ -274,13 +289,7 @@ export async function seedDemo(t: Transaction) {
         temperatureC: 95,
         minutes: 60,
       },
-      {
-        operation: 'tannin',
-        ingredients: [['chemical', 'tannic acid', 8, 'owf']],
-        liquorRatio: 30,
-        temperatureC: 50,
-        minutes: 60,
-      },
+      tannin8,
       {
         operation: 'print-paste',
         ingredients: [
@@ -382,20 +391,8 @@ export async function seedDemo(t: Transaction) {
     },
   ]);
   await makeTrial({ pieceId: p12.id, status: 'in-progress', notes: 'Green: weld over pencilled indigo.' }, [
-    {
-      operation: 'tannin',
-      ingredients: [['chemical', 'tannic acid', 8, 'owf']],
-      liquorRatio: 30,
-      temperatureC: 50,
-      minutes: 60,
-    },
-    {
-      operation: 'mordant-bath',
-      ingredients: [['chemical', 'potash alum', 15, 'owf']],
-      liquorRatio: 30,
-      temperatureC: 45,
-      minutes: 60,
-    },
+    tannin8,
+    alum15,
     {
       operation: 'overdye',
       ingredients: [
@@ -430,20 +427,8 @@ export async function seedDemo(t: Transaction) {
     },
     [
       vat(2, 'Fructose-lime vat; two dips.'),
-      {
-        operation: 'tannin',
-        ingredients: [['chemical', 'tannic acid', 8, 'owf']],
-        liquorRatio: 30,
-        temperatureC: 50,
-        minutes: 60,
-      },
-      {
-        operation: 'mordant-bath',
-        ingredients: [['chemical', 'potash alum', 15, 'owf']],
-        liquorRatio: 30,
-        temperatureC: 45,
-        minutes: 60,
-      },
+      tannin8,
+      alum15,
       {
         operation: 'overdye',
         ingredients: [['dyestuff', 'weld', 60, 'owf']],

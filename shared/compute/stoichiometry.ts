@@ -1,5 +1,4 @@
-import { ATOMIC_WEIGHTS as ATOMIC_MASS } from '../data/atomic-weights.ts';
-import { molarMass, parseFormula, type Composition } from './chemistry.ts';
+import { LOAD_METALS, metalMassFraction, molarMass, parseFormula, type Composition } from './chemistry.ts';
 
 /**
  * What a bath's charge can make when its chemicals react in the pot (BRIEF §4.3): aluminium
@@ -171,8 +170,6 @@ export type MadeByReaction = {
   source: string;
 };
 
-const MORDANT_METALS = ['Al', 'Fe', 'Cu', 'Sn', 'Cr', 'Pb'];
-
 /** What a reacting bath makes, for display: the active product's grams and g/L, its metal, the by-products. */
 export function madeByReaction(
   ingredients: ReadonlyArray<{ name: string; grams: number }>,
@@ -181,10 +178,9 @@ export function madeByReaction(
   const p = bathProduct(ingredients, volumeMl);
   if (!p) return null;
   const comp = parseFormula(p.active.formula);
-  const metal = MORDANT_METALS.find((m) => comp[m]);
-  const metalGPerL = metal
-    ? (p.activeGPerL * comp[metal] * (ATOMIC_MASS[metal] ?? 0)) / molarMass(p.active.formula)
-    : 0;
+  // The mordant metal the product carries, by the same mass fractions as every metal load (chemistry.ts).
+  const metal = LOAD_METALS.find((m) => comp[m]);
+  const metalGPerL = metal ? p.activeGPerL * metalMassFraction(p.active.formula, metal) : 0;
   return {
     reaction: p.reaction.name,
     active: { name: p.active.name, formula: p.active.formula, grams: p.active.grams, gPerL: p.activeGPerL },

@@ -13,7 +13,7 @@ import { FormAlert } from '../../../components/form/FormAlert';
 import { Select } from '../../../components/form/Select';
 import { formMessage, useFormErrors } from '../../../lib/form';
 import { useCreateChemical } from '../api';
-import { TextArea } from './TextArea';
+import { TextArea } from '../../../components/form/TextArea';
 
 const options = (values: readonly string[]) => values.map((v) => ({ value: v, label: v.replace('-', ' ') }));
 
