@@ -41,7 +41,11 @@ export type ServerProcess = { url: string; port: number; child: ChildProcess; st
  * database and data directory as the tests. Resolves once it is serving with its search indexes loaded; stop() sends
  * SIGTERM and waits.
  */
-export async function startServerProcess(port: number, timeoutMs = 90_000): Promise<ServerProcess> {
+export async function startServerProcess(
+  port: number,
+  timeoutMs = 90_000,
+  extraEnv: Record<string, string> = {},
+): Promise<ServerProcess> {
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     cwd: ROOT_DIR,
     // The tests name each client by X-Forwarded-For from loopback, as a proxy would (TRUST_PROXY is off by default).
@@ -50,6 +54,7 @@ export async function startServerProcess(port: number, timeoutMs = 90_000): Prom
       HOST: '127.0.0.1',
       PUBLIC_URL: `http://127.0.0.1:${port}`,
       TRUST_PROXY: 'loopback',
+      ...extraEnv,
     }),
     stdio: ['ignore', 'pipe', 'pipe'],
   });
