@@ -1,9 +1,18 @@
+import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
 
 // Configuration is parsed once, here; nothing else reads process.env.
-export const ROOT_DIR = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+// The project folder: the nearest folder above this file with package.json and server/ (this file runs from
+// server/env.ts under tsx, and from dist/server/index.mjs once bundled for `npm start`).
+function projectRoot(from: string) {
+  for (let d = from; ; d = path.dirname(d)) {
+    if (existsSync(path.join(d, 'package.json')) && existsSync(path.join(d, 'server'))) return d;
+    if (path.dirname(d) === d) return path.resolve(from, '..');
+  }
+}
+export const ROOT_DIR = projectRoot(path.dirname(fileURLToPath(import.meta.url)));
 
 const schema = z
   .object({
