@@ -265,10 +265,10 @@ describe('CSV import of pieces', () => {
   it('answers a dry run with its counts and first page, and serves the further pages of rows and errors', async () => {
     const p = prefix();
     const lines = [HEADER];
-    // 250 rows; every tenth has an unknown dyestuff (one error), every 50th also a bad date (a second error).
+    // 250 rows; every tenth has an unknown dyestuff (one error), every 50th also an extra cell (a second error).
     for (let i = 1; i <= 250; i++)
       lines.push(
-        `${p}.${i},panel,Row ${i},${i % 50 === 0 ? 'around 1780' : '1780'},${i % 10 === 0 ? 'unobtainium' : 'madder'},`,
+        `${p}.${i},panel,Row ${i},1780,${i % 10 === 0 ? 'unobtainium' : 'madder'},${i % 50 === 0 ? ',extra' : ''}`,
       );
     const dry = await upload(`${lines.join('\n')}\n`, { dryRun: true }).expect(200);
     expect(dry.body).toMatchObject({ dryRun: true, rows: 250, valid: 225, invalid: 25, errorCount: 30, pageSize: 100 });
