@@ -25,8 +25,9 @@ async function list(relative: string) {
 
 /**
  * Remove files under uploads/ that no photo row points at and that are older than ORPHAN_AGE_MS: masters
- * (masters/<xx>/<sha256>.<ext> with no photo of that sha256), temp files (tmp/), and the derivatives and tiles
- * folders of photos that do not exist (reconcileOrphanFolders). A temp master whose photo row
+ * (masters/<xx>/<sha256>.<ext> with no photo of that sha256), temp files (tmp/: masters waiting for their commit, and
+ * uploads streamed to disk, tmp/upload-<random>.part, left by a process that died mid-request), and the derivatives
+ * and tiles folders of photos that do not exist (reconcileOrphanFolders). A temp master whose photo row
  * did commit but whose move was cut short is moved into place instead of removed. Run at start
  * (server/index.ts) and by the fixity check, which reports what was removed. Safe on several servers at once: a
  * file another server removed first is simply gone.

@@ -81,7 +81,7 @@ export async function startServerProcess(
     });
   });
   // The server listens before its search indexes are in (search answers 503 until then): wait for them too.
-  for (const until = Date.now() + timeoutMs; ;) {
+  for (const until = Date.now() + timeoutMs; waitForSearch;) {
     const h = await fetch(`http://127.0.0.1:${port}/api/health`)
       .then((r) => r.json() as Promise<{ search?: { text: { loaded: boolean }; shade: { loaded: boolean } } }>)
       .catch(() => null);
