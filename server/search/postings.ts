@@ -349,6 +349,8 @@ export function bulkLoad(
   fields: readonly string[],
   storeFields: readonly string[],
   tokenize: (text: string) => string[],
+  /** Optional: the same tokens as ranges of the text (two numbers each; the count, or -1 to fall back to `tokenize`). */
+  scan?: (text: string, out: Int32Array) => number,
 ) {
   if (ms._documentCount || ms._nextId) throw new Error('bulkLoad needs an empty index');
   const nf = fields.length;
@@ -364,11 +366,63 @@ export function bulkLoad(
   let tfOf = new Int32Array(1 << 16);
   const touched: number[] = [];
   // Each distinct token as written, numbered once: its term (lower-cased; -1 when empty) and a stamp for counting the
-  // distinct tokens of a field, so the common case per token is one Map lookup.
-  const rawIds = new Map<string, number>();
+  // distinct tokens of a field. Tokens are looked up by their range in the field's text (open addressing over a
+  // hash of the characters), so the common case makes no string at all.
   let rawTerm = new Int32Array(1 << 16);
   let rawStamp = new Int32Array(1 << 16);
+  let rawHash = new Int32Array(1 << 16);
+  const rawStr: string[] = [];
+  let table = new Int32Array(1 << 17); // token id + 1; 0 is empty
   let stamp = 0;
+  let ranges = new Int32Array(1024);
+  const rawId = (str: string, from: number, to: number): number => {
+    let h = 0x811c9dc5 | 0;
+    for (let i = from; i < to; i++) h = Math.imul(h ^ str.charCodeAt(i), 0x01000193);
+    const mask = table.length - 1;
+    for (let at = h & mask; ; at = (at + 1) & mask) {
+      const slot = table[at];
+      if (slot === 0) break;
+      const id = slot - 1;
+      if (rawHash[id] !== h) continue;
+      const cand = rawStr[id];
+      if (cand.length !== to - from) continue;
+      let same = true;
+      for (let i = 0; i < cand.length && same; i++) same = cand.charCodeAt(i) === str.charCodeAt(from + i);
+      if (same) return id;
+    }
+    const id = rawStr.length;
+    const tok = from === 0 && to === str.length ? str : str.slice(from, to);
+    rawStr.push(tok);
+    if (id >= rawTerm.length) {
+      rawTerm = grown(rawTerm);
+      rawStamp = grown(rawStamp);
+      rawHash = grown(rawHash);
+    }
+    rawHash[id] = h;
+    // A new term can only come with a new token: terms are numbered in the order add() first meets them.
+    const term = tok.toLowerCase();
+    let t = term ? termIds.get(term) : -1;
+    if (t === undefined) {
+      termIds.set(term, (t = terms.length));
+      terms.push(term);
+      if (t >= tfOf.length) tfOf = grown(tfOf);
+    }
+    rawTerm[id] = t;
+    if (rawStr.length * 2 > table.length) {
+      table = new Int32Array(table.length * 2);
+      const m = table.length - 1;
+      for (let j = 0; j < rawStr.length; j++) {
+        let at = rawHash[j] & m;
+        while (table[at] !== 0) at = (at + 1) & m;
+        table[at] = j + 1;
+      }
+    } else {
+      let at = h & mask;
+      while (table[at] !== 0) at = (at + 1) & mask;
+      table[at] = id + 1;
+    }
+    return id;
+  };
   const avg = ms._avgFieldLength;
   for (const d of docs) {
     // addDocumentId
@@ -386,27 +440,15 @@ export function bulkLoad(
     for (let f = 0; f < nf; f++) {
       const value = d[fields[f]];
       if (value == null) continue;
-      const tokens = tokenize(String(value));
+      const text = String(value);
+      if (ranges.length < 2 * text.length + 2) ranges = new Int32Array(2 * text.length + 2);
+      let nTok = scan ? scan(text, ranges) : -1;
+      const tokens = nTok < 0 ? tokenize(text) : null;
+      if (tokens) nTok = tokens.length;
       stamp++;
       let distinct = 0;
-      for (const tok of tokens) {
-        let r = rawIds.get(tok);
-        if (r === undefined) {
-          rawIds.set(tok, (r = rawIds.size));
-          if (r >= rawTerm.length) {
-            rawTerm = grown(rawTerm);
-            rawStamp = grown(rawStamp);
-          }
-          // A new term can only come with a new token: terms are numbered in the order add() first meets them.
-          const term = tok.toLowerCase();
-          let t = term ? termIds.get(term) : -1;
-          if (t === undefined) {
-            termIds.set(term, (t = terms.length));
-            terms.push(term);
-            if (t >= tfOf.length) tfOf = grown(tfOf);
-          }
-          rawTerm[r] = t;
-        }
+      for (let k = 0; k < nTok; k++) {
+        const r = tokens ? rawId(tokens[k], 0, tokens[k].length) : rawId(text, ranges[2 * k], ranges[2 * k + 1]);
         if (rawStamp[r] !== stamp) {
           rawStamp[r] = stamp;
           distinct++;

@@ -73,6 +73,52 @@ export function tokenize(text: string): string[] {
   }
   return out;
 }
+
+// ASCII character classes as tokenize's regular expressions see them: 1 = whitespace (\s), 2 = punctuation or symbol
+// (\p{P}, \p{S}: every printable ASCII character that is not a letter or digit), 0 = anything else (letters, digits
+// and control characters, which are neither).
+const ASCII_CLASS = new Uint8Array(128);
+for (const c of [9, 10, 11, 12, 13, 32]) ASCII_CLASS[c] = 1;
+for (let c = 33; c < 127; c++) if (!/[A-Za-z0-9]/.test(String.fromCharCode(c))) ASCII_CLASS[c] = 2;
+
+/**
+ * `tokenize` for all-ASCII text without regular expressions or substrings: writes each token as a [start, end) range
+ * of `text` into `out` (two numbers a token, in tokenize's order) and returns how many tokens, or -1 when `text` is
+ * not all ASCII (then use `tokenize`). The bulk load (postings.ts) looks tokens up by range. Checked against
+ * `tokenize` in tests/unit/text-index.test.ts.
+ */
+export function scanAscii(text: string, out: Int32Array): number {
+  const n = text.length;
+  for (let i = 0; i < n; i++) if (text.charCodeAt(i) > 127) return -1;
+  let k = 0;
+  let i = 0;
+  while (i < n) {
+    while (i < n && ASCII_CLASS[text.charCodeAt(i)] === 1) i++;
+    if (i >= n) break;
+    let s = i;
+    while (i < n && ASCII_CLASS[text.charCodeAt(i)] !== 1) i++;
+    let e = i;
+    while (s < e && ASCII_CLASS[text.charCodeAt(s)] === 2) s++;
+    while (e > s && ASCII_CLASS[text.charCodeAt(e - 1)] === 2) e--;
+    if (s === e) continue;
+    out[k++] = s;
+    out[k++] = e;
+    let inner = false;
+    for (let j = s + 1; j < e - 1 && !inner; j++) inner = ASCII_CLASS[text.charCodeAt(j)] === 2;
+    if (!inner) continue;
+    // The whole word's parts between punctuation (at least two, as its ends are not punctuation).
+    for (let j = s; j < e;) {
+      const ps = j;
+      while (j < e && ASCII_CLASS[text.charCodeAt(j)] !== 2) j++;
+      if (j > ps) {
+        out[k++] = ps;
+        out[k++] = j;
+      }
+      while (j < e && ASCII_CLASS[text.charCodeAt(j)] === 2) j++;
+    }
+  }
+  return k / 2;
+}
 const queryTokens = (text: string) =>
   text
     .split(/\s+/)
@@ -138,7 +184,7 @@ export class TextIndex {
     // What addAll would build, with the postings left flat (postings.ts, bulkLoad; about 25 s less at full size).
     const entries = [...pieces.map(pieceEntry), ...trials.map(trialEntry)];
     if (viaAddAll) this.ms.addAll(entries);
-    else bulkLoad(this.ms as unknown as MsInternals, entries, TEXT_FIELDS, STORE_FIELDS, tokenize);
+    else bulkLoad(this.ms as unknown as MsInternals, entries, TEXT_FIELDS, STORE_FIELDS, tokenize, scanAscii);
     this.store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
     this.store.rebuild();
   }

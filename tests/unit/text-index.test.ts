@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { facetKeys, type PieceDoc, type TrialDoc } from '../../server/search/docs.ts';
-import { TextIndex } from '../../server/search/text-index.ts';
+import { scanAscii, TextIndex, tokenize } from '../../server/search/text-index.ts';
 
 let seed = 777;
 const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
@@ -111,6 +111,25 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     expect([...idx.search('quercitron', true).ids]).toEqual([77]);
     // The removed pieces match nothing.
     expect(idx.search('T.2', true).score(2)).toBeUndefined();
+  });
+
+  it('scans ASCII text into the same tokens as tokenize (the bulk load reads them as ranges)', () => {
+    const alphabet = 'ab Z9 .,;:-()[]"\'$+<=>^`|~_!?@#%&*/\\{}\t\n\r\v\f\x00\x01\x1f\x7f';
+    const out = new Int32Array(2000);
+    for (let n = 0; n < 3000; n++) {
+      const len = Math.floor(rnd() * 40);
+      let text = '';
+      for (let i = 0; i < len; i++) text += alphabet[Math.floor(rnd() * alphabet.length)];
+      const k = scanAscii(text, out);
+      const got = Array.from({ length: k }, (_, i) => text.slice(out[2 * i], out[2 * i + 1]));
+      expect(got, JSON.stringify(text)).toEqual(tokenize(text));
+    }
+    for (const text of ['1931.4.12 iron(II) acetate', '  --a--  b.c.d ', 'iron(II)', 'x']) {
+      const k = scanAscii(text, out);
+      expect(Array.from({ length: k }, (_, i) => text.slice(out[2 * i], out[2 * i + 1]))).toEqual(tokenize(text));
+    }
+    // Not ASCII: the caller falls back to tokenize.
+    expect(scanAscii('Zürich', out)).toBe(-1);
   });
 
   it('loads exactly what minisearch addAll builds (postings.ts, bulkLoad): same ids, field lengths, averages, stored fields, terms in the same order', () => {
