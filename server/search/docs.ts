@@ -1,7 +1,7 @@
 import type { Connection } from 'mariadb';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../models/index.ts';
-import { eachPage, withConnection } from './read.ts';
+import { eachPage, readFirst, withConnection } from './read.ts';
 
 /** What search knows about a piece: the indexed text and the facet values. */
 export type PieceDoc = {
@@ -254,24 +254,26 @@ function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
 
 /** Every live (not soft-deleted) piece and every trial, read once at start (on one connection: read.ts). */
 export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[] }> {
-  return withConnection(async (conn) => {
-    const rows: PieceRow[] = [];
-    const cols = PIECE_COLS.split(', ');
-    await eachPage(
-      conn,
-      `SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT ?`,
-      20_000,
-      (page) => {
-        for (const r of page) {
-          const row: PieceRow = { id: r[0] as number };
-          for (let k = 1; k < cols.length; k++) row[cols[k]] = r[k];
-          rows.push(row);
-        }
-      },
-    );
-    const trials = await allTrialDocs(conn);
-    return { pieces: attachModern(rows, trials), trials };
-  });
+  const { rows, trials } = await readFirst(() =>
+    withConnection(async (conn) => {
+      const rows: PieceRow[] = [];
+      const cols = PIECE_COLS.split(', ');
+      await eachPage(
+        conn,
+        `SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT ?`,
+        20_000,
+        (page) => {
+          for (const r of page) {
+            const row: PieceRow = { id: r[0] as number };
+            for (let k = 1; k < cols.length; k++) row[cols[k]] = r[k];
+            rows.push(row);
+          }
+        },
+      );
+      return { rows, trials: await allTrialDocs(conn) };
+    }),
+  );
+  return { pieces: attachModern(rows, trials), trials };
 }
 
 /** One piece as it stands now (null when deleted or gone), with its trials. */

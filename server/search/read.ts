@@ -14,6 +14,28 @@ type Pool = {
   releaseConnection(c: Connection): Promise<void>;
 };
 
+// The bulk reads in flight (loadAll's and readShade's), so that each load's build waits for the other's reads.
+const reading = new Set<Promise<unknown>>();
+
+/**
+ * Runs `read` (a load's database reads), then waits until every other load's reads in flight have finished too
+ * before answering. The engine loads the text and shade indexes side by side, and each build is seconds of
+ * synchronous work: had one index started building while the other's keyset pages were still arriving, that read
+ * would stall (at full size the shade read once failed on the 10 s socket timeout, DB_QUERY_TIMEOUT_MS) and the
+ * database would sit idle meanwhile. So both read first, overlapped, and then build.
+ */
+export async function readFirst<T>(read: () => Promise<T>): Promise<T> {
+  const mine = read();
+  reading.add(mine);
+  try {
+    const out = await mine;
+    for (const other of [...reading]) if (other !== mine) await other.catch(() => undefined);
+    return out;
+  } finally {
+    reading.delete(mine);
+  }
+}
+
 export async function withConnection<T>(fn: (conn: Connection) => Promise<T>): Promise<T> {
   const pool = sequelize.connectionManager as unknown as Pool;
   const conn = await pool.getConnection({ type: 'read' });
@@ -48,29 +70,31 @@ export async function readShade(): Promise<{
   colours: ShadeColours;
   photos: Array<{ id: number; pieceId: number | null }>;
 }> {
-  return withConnection(async (conn) => {
-    const photos: Array<{ id: number; pieceId: number | null }> = [];
-    await eachPage(conn, 'SELECT id, pieceId FROM photos WHERE id > ? ORDER BY id LIMIT ?', 100_000, (rows) => {
-      for (const r of rows) photos.push({ id: r[0] as number, pieceId: r[1] as number | null });
-    });
-    const colours = new ShadeColours();
-    await eachPage(
-      conn,
-      'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT ?',
-      50_000,
-      (rows) => {
-        for (const r of rows)
-          colours.add(
-            r[0] as number,
-            r[1] as number,
-            r[2] as number,
-            r[3] as number,
-            r[4] as number,
-            r[5] as string,
-            r[6] as number,
-          );
-      },
-    );
-    return { colours, photos };
-  });
+  return readFirst(() =>
+    withConnection(async (conn) => {
+      const photos: Array<{ id: number; pieceId: number | null }> = [];
+      await eachPage(conn, 'SELECT id, pieceId FROM photos WHERE id > ? ORDER BY id LIMIT ?', 100_000, (rows) => {
+        for (const r of rows) photos.push({ id: r[0] as number, pieceId: r[1] as number | null });
+      });
+      const colours = new ShadeColours();
+      await eachPage(
+        conn,
+        'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT ?',
+        50_000,
+        (rows) => {
+          for (const r of rows)
+            colours.add(
+              r[0] as number,
+              r[1] as number,
+              r[2] as number,
+              r[3] as number,
+              r[4] as number,
+              r[5] as string,
+              r[6] as number,
+            );
+        },
+      );
+      return { colours, photos };
+    }),
+  );
 }

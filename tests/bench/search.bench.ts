@@ -253,7 +253,7 @@ async function indexLoad(): Promise<BenchResult[]> {
     {
       metric: 'heap after load',
       value: held,
-      unit: `MB held by the two indexes after a full GC (process heap ${heap.toFixed(0)} MB with the engine's own indexes)`,
+      unit: `MB held by the two indexes after a full GC (whole process heap ${heap.toFixed(0)} MB)`,
     },
   ];
 }
