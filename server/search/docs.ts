@@ -2,6 +2,7 @@ import type { Connection } from 'mariadb';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../models/index.ts';
 import { eachPage, readFirst, withConnection } from './read.ts';
+import { prepareLoad } from './text-index.ts';
 
 /** What search knows about a piece: the indexed text and the facet values. */
 export type PieceDoc = {
@@ -273,7 +274,10 @@ export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[
       return { rows, trials: await allTrialDocs(conn) };
     }),
   );
-  return { pieces: attachModern(rows, trials), trials };
+  const pieces = attachModern(rows, trials);
+  // Tokenised here, in slices that let other requests through, rather than all at once inside TextIndex.load.
+  await prepareLoad(pieces, trials);
+  return { pieces, trials };
 }
 
 /** One piece as it stands now (null when deleted or gone), with its trials. */

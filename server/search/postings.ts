@@ -334,29 +334,32 @@ function grown(a: Int32Array) {
   return b;
 }
 
+/** The minisearch-independent part of a bulk load: every document tokenised into flat postings (see `bulkLoad`). */
+export type Tokenised = {
+  docs: readonly BulkDoc[];
+  terms: string[];
+  /** Per document and field (d · nf + f): the field's length as add() counts it, -1 when the field is absent. */
+  lengths: Int32Array;
+  src: FlatIndex;
+};
+
 /**
- * Fills a fresh minisearch index with `docs` exactly as `addAll(docs)` would (same short ids, stored fields, field
- * lengths, average field lengths computed with add()'s arithmetic in add()'s order, and terms entered into the radix
- * tree in the order add() first meets them, so its shape and iteration order are the same), but with each term's
- * postings in flat arrays behind a `TermPostings` rather than nested Maps. Assumes minisearch's default
- * `extractField` (document[field]) and `stringifyField` (toString), `tokenize` as given and `processTerm` lower-casing,
- * as `TextIndex` configures it. `tests/unit/text-index.test.ts` compares the result with addAll's (`toJSON()`).
- * Reads and writes minisearch's private fields (README.md, invariant 3).
+ * Tokenises `docs` as minisearch's add() would (`tokenize`, then lower case), numbering terms in the order add() first
+ * meets them, and gathers each term's postings field by field into flat arrays. A generator so it can run in slices
+ * (`tokeniseInSlices`): it yields every `slice` documents and returns the result.
  */
-export function bulkLoad(
-  ms: MsInternals,
+function* tokenise(
   docs: readonly BulkDoc[],
   fields: readonly string[],
-  storeFields: readonly string[],
+  fids: readonly number[],
   tokenize: (text: string) => string[],
-  /** Optional: the same tokens as ranges of the text (two numbers each; the count, or -1 to fall back to `tokenize`). */
-  scan?: (text: string, out: Int32Array) => number,
-) {
-  if (ms._documentCount || ms._nextId) throw new Error('bulkLoad needs an empty index');
+  scan: ((text: string, out: Int32Array) => number) | undefined,
+  slice: number,
+): Generator<void, Tokenised> {
   const nf = fields.length;
-  const fids = fields.map((f) => ms._fieldIds[f]);
   const termIds = new Map<string, number>();
   const terms: string[] = [];
+  const lengths = new Int32Array(docs.length * nf).fill(-1);
   // One row per (term, field, document): key = term · nf + field.
   let cap = 1 << 20;
   let key = new Int32Array(cap);
@@ -423,20 +426,9 @@ export function bulkLoad(
     }
     return id;
   };
-  const avg = ms._avgFieldLength;
-  for (const d of docs) {
-    // addDocumentId
-    const short = ms._nextId;
-    ms._idToShortId.set(d.id, short);
-    ms._documentIds.set(short, d.id);
-    ms._documentCount += 1;
-    ms._nextId += 1;
-    // saveStoredFields
-    const stored: Record<string, unknown> = {};
-    for (const f of storeFields) if (d[f] !== undefined) stored[f] = d[f];
-    ms._storedFields.set(short, stored as never);
-    const count = ms._documentCount - 1;
-    let lengths: number[] | undefined;
+  for (let short = 0; short < docs.length; short++) {
+    if (short % slice === slice - 1) yield;
+    const d = docs[short];
     for (let f = 0; f < nf; f++) {
       const value = d[fields[f]];
       if (value == null) continue;
@@ -456,10 +448,8 @@ export function bulkLoad(
         const t = rawTerm[r];
         if (t >= 0 && tfOf[t]++ === 0) touched.push(t);
       }
-      // addFieldLength: the length is the number of distinct tokens (before lower-casing), as add() counts it.
-      if (!lengths) ms._fieldLength.set(short, (lengths = []));
-      lengths[fids[f]] = distinct;
-      avg[fids[f]] = ((avg[fids[f]] || 0) * count + distinct) / (count + 1);
+      // add() counts a field's length as its distinct tokens (before lower-casing).
+      lengths[short * nf + f] = distinct;
       if (n + touched.length > cap) {
         cap = Math.max(cap * 2, n + touched.length);
         const grow = (a: Int32Array) => {
@@ -480,6 +470,7 @@ export function bulkLoad(
       touched.length = 0;
     }
   }
+  yield;
   // Counting sort by (term, field); rows were made in document order, so each run's documents stay in order.
   const start = new Int32Array(terms.length * nf + 1);
   for (let i = 0; i < n; i++) start[key[i] + 1]++;
@@ -492,7 +483,91 @@ export function bulkLoad(
     docsOut[at] = doc[i];
     tfOut[at] = freq[i];
   }
-  const src: FlatIndex = { nf, fids, docs: docsOut, tf: tfOut, start };
+  return { docs, terms, lengths, src: { nf, fids: [...fids], docs: docsOut, tf: tfOut, start } };
+}
+
+type TokeniseArgs = {
+  fields: readonly string[];
+  tokenize: (text: string) => string[];
+  /** Optional: the same tokens as ranges of the text (two numbers each; the count, or -1 to fall back to `tokenize`). */
+  scan?: (text: string, out: Int32Array) => number;
+};
+
+/** minisearch gives field i the id i (`addFields`): the ids `tokenise` records before any index exists. */
+const fieldIdsOf = (fields: readonly string[]) => fields.map((_, i) => i);
+
+/**
+ * `tokenise` in slices of about `ms` milliseconds, yielding to the event loop in between, so a load of 166,667
+ * pieces (about 4 s of tokenising) does not stop the process answering other requests meanwhile.
+ */
+export async function tokeniseInSlices(docs: readonly BulkDoc[], a: TokeniseArgs, ms = 40): Promise<Tokenised> {
+  const steps = tokenise(docs, a.fields, fieldIdsOf(a.fields), a.tokenize, a.scan, 256);
+  let until = performance.now() + ms;
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+    if (performance.now() >= until) {
+      await new Promise((resolve) => setImmediate(resolve));
+      until = performance.now() + ms;
+    }
+  }
+}
+
+/**
+ * Fills a fresh minisearch index with `docs` exactly as `addAll(docs)` would (same short ids, stored fields, field
+ * lengths, average field lengths computed with add()'s arithmetic in add()'s order, and terms entered into the radix
+ * tree in the order add() first meets them, so its shape and iteration order are the same), but with each term's
+ * postings in flat arrays behind a `TermPostings` rather than nested Maps. Assumes minisearch's default
+ * `extractField` (document[field]) and `stringifyField` (toString), `tokenize` as given and `processTerm` lower-casing,
+ * as `TextIndex` configures it, and that field i has id i. Give `tokenised` (from `tokeniseInSlices` over the same
+ * `docs` and fields) to skip the tokenising. `tests/unit/text-index.test.ts` compares the result with addAll's
+ * (`toJSON()`). Reads and writes minisearch's private fields (README.md, invariant 3).
+ */
+export function bulkLoad(
+  ms: MsInternals,
+  docs: readonly BulkDoc[],
+  storeFields: readonly string[],
+  a: TokeniseArgs,
+  tokenised?: Tokenised,
+) {
+  if (ms._documentCount || ms._nextId) throw new Error('bulkLoad needs an empty index');
+  const { fields } = a;
+  const nf = fields.length;
+  const fids = fields.map((f) => ms._fieldIds[f]);
+  if (fids.some((id, i) => id !== i)) throw new Error('bulkLoad expects field i to have id i');
+  let tk = tokenised;
+  if (!tk || tk.docs !== docs) {
+    const steps = tokenise(docs, fields, fids, a.tokenize, a.scan, 1 << 30);
+    for (let r = steps.next(); ; r = steps.next())
+      if (r.done) {
+        tk = r.value;
+        break;
+      }
+  }
+  const { terms, lengths, src } = tk;
+  const avg = ms._avgFieldLength;
+  for (const d of docs) {
+    // addDocumentId
+    const short = ms._nextId;
+    ms._idToShortId.set(d.id, short);
+    ms._documentIds.set(short, d.id);
+    ms._documentCount += 1;
+    ms._nextId += 1;
+    // saveStoredFields
+    const stored: Record<string, unknown> = {};
+    for (const f of storeFields) if (d[f] !== undefined) stored[f] = d[f];
+    ms._storedFields.set(short, stored as never);
+    // addFieldLength, with its arithmetic
+    const count = ms._documentCount - 1;
+    let fieldLengths: number[] | undefined;
+    for (let f = 0; f < nf; f++) {
+      const len = lengths[short * nf + f];
+      if (len < 0) continue;
+      if (!fieldLengths) ms._fieldLength.set(short, (fieldLengths = []));
+      fieldLengths[fids[f]] = len;
+      avg[fids[f]] = ((avg[fids[f]] || 0) * count + len) / (count + 1);
+    }
+  }
   const index = ms._index as unknown as { set(term: string, data: Postings): void };
   for (let t = 0; t < terms.length; t++) index.set(terms[t], new TermPostings(src, t));
 }

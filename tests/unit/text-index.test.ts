@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { facetKeys, type PieceDoc, type TrialDoc } from '../../server/search/docs.ts';
-import { scanAscii, TextIndex, tokenize } from '../../server/search/text-index.ts';
+import { prepareLoad, scanAscii, TextIndex, tokenize } from '../../server/search/text-index.ts';
 
 let seed = 777;
 const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
@@ -132,7 +132,7 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     expect(scanAscii('Zürich', out)).toBe(-1);
   });
 
-  it('loads exactly what minisearch addAll builds (postings.ts, bulkLoad): same ids, field lengths, averages, stored fields, terms in the same order', () => {
+  it('loads exactly what minisearch addAll builds (postings.ts, bulkLoad): same ids, field lengths, averages, stored fields, terms in the same order', async () => {
     const pieces = Array.from({ length: 400 }, (_, i) => piece(i + 1));
     // Mixed case (field lengths count distinct tokens before lower-casing), punctuation, non-ASCII, empty fields.
     pieces[3] = {
@@ -151,6 +151,11 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     slow.load(pieces, trials, { viaAddAll: true });
     // toJSON lists every term (in the radix tree's order) with its postings, so it also turns every flat term into Maps.
     expect(JSON.stringify(fast.toJSON())).toBe(JSON.stringify(slow.toJSON()));
+    // Tokenised ahead in slices (as docs.ts loadAll does), then loaded: the same again.
+    await prepareLoad(pieces, trials);
+    const sliced = new TextIndex();
+    sliced.load(pieces, trials);
+    expect(JSON.stringify(sliced.toJSON())).toBe(JSON.stringify(slow.toJSON()));
     // And both then answer and change alike.
     const edited = { ...piece(7), description: 'quercitron madder' };
     fast.setPiece(7, edited);
