@@ -244,20 +244,29 @@ async function allTrialDocs(conn: Connection): Promise<TrialDoc[]> {
   return buildTrials(trials, subs, steps, new Set(mordants.map((r) => r[0] as number)));
 }
 
-function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
+/** Each piece's modern mordants, from its trials (in trial order). */
+function modernOf(trials: TrialDoc[]): Map<number, Set<string>> {
   const modern = new Map<number, Set<string>>();
   for (const t of trials)
     if (t.pieceId != null)
       for (const m of t.modernMordants)
         (modern.get(t.pieceId) ?? modern.set(t.pieceId, new Set()).get(t.pieceId)!).add(m);
+  return modern;
+}
+
+function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
+  const modern = modernOf(trials);
   return rows.map((r) => pieceDoc(r, [...(modern.get(r.id) ?? [])]));
 }
 
 /** Every live (not soft-deleted) piece and every trial, read once at start (on one connection: read.ts). */
 export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[] }> {
-  const { rows, trials } = await readFirst(() =>
+  const { pieces, trials } = await readFirst(() =>
     withConnection(async (conn) => {
-      const rows: PieceRow[] = [];
+      // Trials first: each page of pieces then becomes documents as it arrives, between the reads.
+      const trials = await allTrialDocs(conn);
+      const modern = modernOf(trials);
+      const pieces: PieceDoc[] = [];
       const cols = PIECE_COLS.split(', ');
       await eachPage(
         conn,
@@ -267,14 +276,13 @@ export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[
           for (const r of page) {
             const row: PieceRow = { id: r[0] as number };
             for (let k = 1; k < cols.length; k++) row[cols[k]] = r[k];
-            rows.push(row);
+            pieces.push(pieceDoc(row, [...(modern.get(row.id) ?? [])]));
           }
         },
       );
-      return { rows, trials: await allTrialDocs(conn) };
+      return { pieces, trials };
     }),
   );
-  const pieces = attachModern(rows, trials);
   // Tokenised here, in slices that let other requests through, rather than all at once inside TextIndex.load.
   await prepareLoad(pieces, trials);
   return { pieces, trials };
