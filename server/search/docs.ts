@@ -271,7 +271,7 @@ export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[
       await eachPage(
         conn,
         `SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT ?`,
-        20_000,
+        5_000,
         (page) => {
           for (const r of page) {
             const row: PieceRow = { id: r[0] as number };

@@ -29,7 +29,7 @@ export async function readFirst<T>(read: () => Promise<T>): Promise<T> {
   reading.add(mine);
   try {
     const out = await mine;
-    for (const other of [...reading]) if (other !== mine) await other.catch(() => undefined);
+    for (const other of reading) if (other !== mine) await other.catch(() => undefined);
     return out;
   } finally {
     reading.delete(mine);
@@ -80,7 +80,7 @@ export async function readShade(): Promise<{
       await eachPage(
         conn,
         'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT ?',
-        50_000,
+        10_000,
         (rows) => {
           for (const r of rows)
             colours.add(
