@@ -32,7 +32,8 @@ export type FacetKey =
 // documents' heap, and so garbage-collection work, smaller (about 120 MB at 170,000 pieces). Never mutate them.
 const pool = new Map<string, unknown[]>();
 function shared<T>(list: T[]): T[] {
-  const key = JSON.stringify(list);
+  // Most lists hold one string: keyed without JSON (no clash: JSON keys start with "[").
+  const key = list.length === 1 && typeof list[0] === 'string' ? `s${list[0]}` : JSON.stringify(list);
   const hit = pool.get(key);
   if (hit) return hit as T[];
   // Bounded: free-text values (places) could otherwise grow it for ever; documents keep the arrays they have.
