@@ -335,7 +335,7 @@ function grown(a: Int32Array) {
 }
 
 /** The minisearch-independent part of a bulk load: every document tokenised into flat postings (see `bulkLoad`). */
-export type Tokenised = {
+type Tokenised = {
   docs: readonly BulkDoc[];
   terms: string[];
   /** Per document and field (d · nf + f): the field's length as add() counts it, -1 when the field is absent. */
@@ -346,7 +346,7 @@ export type Tokenised = {
 /**
  * Tokenises `docs` as minisearch's add() would (`tokenize`, then lower case), numbering terms in the order add() first
  * meets them, and gathers each term's postings field by field into flat arrays. A generator so it can run in slices
- * (`tokeniseInSlices`): it yields every `slice` documents and returns the result.
+ * (`bulkLoadInSlices`): it yields every `slice` documents and returns the result.
  */
 function* tokenise(
   docs: readonly BulkDoc[],
@@ -493,62 +493,59 @@ type TokeniseArgs = {
   scan?: (text: string, out: Int32Array) => number;
 };
 
-/** minisearch gives field i the id i (`addFields`): the ids `tokenise` records before any index exists. */
-const fieldIdsOf = (fields: readonly string[]) => fields.map((_, i) => i);
-
-/**
- * `tokenise` in slices of about `ms` milliseconds, yielding to the event loop in between, so a load of 166,667
- * pieces (about 4 s of tokenising) does not stop the process answering other requests meanwhile.
- */
-export async function tokeniseInSlices(docs: readonly BulkDoc[], a: TokeniseArgs, ms = 40): Promise<Tokenised> {
-  const steps = tokenise(docs, a.fields, fieldIdsOf(a.fields), a.tokenize, a.scan, 256);
-  let until = performance.now() + ms;
-  for (;;) {
-    const r = steps.next();
-    if (r.done) return r.value;
-    if (performance.now() >= until) {
-      await new Promise((resolve) => setImmediate(resolve));
-      until = performance.now() + ms;
-    }
-  }
-}
-
 /**
  * Fills a fresh minisearch index with `docs` exactly as `addAll(docs)` would (same short ids, stored fields, field
  * lengths, average field lengths computed with add()'s arithmetic in add()'s order, and terms entered into the radix
  * tree in the order add() first meets them, so its shape and iteration order are the same), but with each term's
  * postings in flat arrays behind a `TermPostings` rather than nested Maps. Assumes minisearch's default
  * `extractField` (document[field]) and `stringifyField` (toString), `tokenize` as given and `processTerm` lower-casing,
- * as `TextIndex` configures it, and that field i has id i. Give `tokenised` (from `tokeniseInSlices` over the same
- * `docs` and fields) to skip the tokenising. `tests/unit/text-index.test.ts` compares the result with addAll's
- * (`toJSON()`). Reads and writes minisearch's private fields (README.md, invariant 3).
+ * as `TextIndex` configures it, and that field i has id i. `tests/unit/text-index.test.ts` compares the result with
+ * addAll's (`toJSON()`). Reads and writes minisearch's private fields (README.md, invariant 3).
  */
-export function bulkLoad(
+export function bulkLoad(ms: MsInternals, docs: readonly BulkDoc[], storeFields: readonly string[], a: TokeniseArgs) {
+  const steps = bulkSteps(ms, docs, storeFields, a);
+  while (!steps.next().done);
+}
+
+/**
+ * `bulkLoad` in slices of about `budgetMs` milliseconds, yielding to the event loop in between, so a load of 166,667
+ * pieces (seconds of work) does not stop the process answering other requests meanwhile. The index must not be
+ * used until this resolves.
+ */
+export async function bulkLoadInSlices(
   ms: MsInternals,
   docs: readonly BulkDoc[],
   storeFields: readonly string[],
   a: TokeniseArgs,
-  tokenised?: Tokenised,
-) {
+  budgetMs = 40,
+): Promise<void> {
+  const steps = bulkSteps(ms, docs, storeFields, a);
+  let until = performance.now() + budgetMs;
+  while (!steps.next().done)
+    if (performance.now() >= until) {
+      await new Promise((resolve) => setImmediate(resolve));
+      until = performance.now() + budgetMs;
+    }
+}
+
+/** bulkLoad's work, yielding every few thousand documents or terms. */
+function* bulkSteps(
+  ms: MsInternals,
+  docs: readonly BulkDoc[],
+  storeFields: readonly string[],
+  a: TokeniseArgs,
+): Generator<void, void> {
   if (ms._documentCount || ms._nextId) throw new Error('bulkLoad needs an empty index');
   const { fields } = a;
   const nf = fields.length;
   const fids = fields.map((f) => ms._fieldIds[f]);
   if (fids.some((id, i) => id !== i)) throw new Error('bulkLoad expects field i to have id i');
-  let tk = tokenised;
-  if (!tk || tk.docs !== docs) {
-    const steps = tokenise(docs, fields, fids, a.tokenize, a.scan, 1 << 30);
-    for (let r = steps.next(); ; r = steps.next())
-      if (r.done) {
-        tk = r.value;
-        break;
-      }
-  }
-  const { terms, lengths, src } = tk;
+  const { terms, lengths, src } = yield* tokenise(docs, fields, fids, a.tokenize, a.scan, 256);
   const avg = ms._avgFieldLength;
   for (const d of docs) {
     // addDocumentId
     const short = ms._nextId;
+    if (short % 4096 === 4095) yield;
     ms._idToShortId.set(d.id, short);
     ms._documentIds.set(short, d.id);
     ms._documentCount += 1;
@@ -569,5 +566,8 @@ export function bulkLoad(
     }
   }
   const index = ms._index as unknown as { set(term: string, data: Postings): void };
-  for (let t = 0; t < terms.length; t++) index.set(terms[t], new TermPostings(src, t));
+  for (let t = 0; t < terms.length; t++) {
+    if (t % 8192 === 8191) yield;
+    index.set(terms[t], new TermPostings(src, t));
+  }
 }

@@ -1,13 +1,6 @@
 import MiniSearch from 'minisearch';
 import type { PieceDoc, TrialDoc } from './docs.ts';
-import {
-  bulkLoad,
-  type MsInternals,
-  type Postings,
-  PostingStore,
-  type Tokenised,
-  tokeniseInSlices,
-} from './postings.ts';
+import { bulkLoad, bulkLoadInSlices, type MsInternals, type Postings, PostingStore } from './postings.ts';
 
 /**
  * Full-text index over pieces and trials (minisearch), plus the documents
@@ -156,18 +149,31 @@ type Expansion = { term: string; weight: number; data: Postings };
 
 const TOKENISE = { fields: TEXT_FIELDS, tokenize, scan: scanAscii };
 
-// Loads tokenised ahead by prepareLoad, keyed by the pieces array handed to load() next.
-const prepared = new WeakMap<PieceDoc[], { trials: TrialDoc[]; entries: IndexedDoc[]; tokenised: Tokenised }>();
+// Indexes built ahead by prepareLoad, keyed by the pieces array handed to load() next.
+const prepared = new WeakMap<PieceDoc[], { trials: TrialDoc[]; count: number; ms: MiniSearch<IndexedDoc> }>();
 
 /**
- * The tokenising part of `TextIndex.load(pieces, trials)` (about 4 s at 166,667 pieces), done ahead in slices that
- * yield to the event loop; `docs.ts` `loadAll` calls it, so the engine's `load` with the same two arrays then only
- * fills minisearch's tables (about a second) and the process keeps answering meanwhile. The documents must not
- * change in between (they never do: PieceDoc and TrialDoc are not mutated).
+ * The work of `TextIndex.load(pieces, trials)` (seconds at 166,667 pieces: tokenising, minisearch's tables), done
+ * ahead into a new minisearch index in slices that yield to the event loop; `docs.ts` `loadAll` calls it, so the
+ * engine's `load` with the same two arrays then only swaps that index in and builds the scorer's per-document tables,
+ * and the process keeps answering meanwhile. The documents must not change in between (they never do: PieceDoc and
+ * TrialDoc are not mutated).
  */
 export async function prepareLoad(pieces: PieceDoc[], trials: TrialDoc[]): Promise<void> {
+  const ms = freshMiniSearch();
   const entries = [...pieces.map(pieceEntry), ...trials.map(trialEntry)];
-  prepared.set(pieces, { trials, entries, tokenised: await tokeniseInSlices(entries, TOKENISE) });
+  await bulkLoadInSlices(ms as unknown as MsInternals, entries, STORE_FIELDS, TOKENISE);
+  prepared.set(pieces, { trials, count: entries.length, ms });
+}
+
+function freshMiniSearch() {
+  return new MiniSearch<IndexedDoc>({
+    fields: [...TEXT_FIELDS],
+    storeFields: [...STORE_FIELDS],
+    tokenize,
+    processTerm: (t) => t.toLowerCase(),
+    searchOptions: { tokenize: queryTokens, processTerm: (t) => t.toLowerCase() },
+  });
 }
 
 export class TextIndex {
@@ -175,7 +181,7 @@ export class TextIndex {
   /** The same documents in an array indexed by piece id, for lookups over tens of thousands of hits. */
   readonly byId: Array<PieceDoc | undefined> = [];
   readonly trials = new Map<number, TrialDoc>();
-  private ms = this.fresh();
+  private ms = freshMiniSearch();
   /**
    * Flat postings and per-document tables for the scorer, kept in step with minisearch by load/setPiece/setTrial.
    * This class reads minisearch's private fields through `MsInternals` (README.md, invariant 3).
@@ -183,19 +189,11 @@ export class TextIndex {
   private store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
   private scratch: Scratch | null = null;
 
-  private fresh() {
-    return new MiniSearch<IndexedDoc>({
-      fields: [...TEXT_FIELDS],
-      storeFields: [...STORE_FIELDS],
-      tokenize,
-      processTerm: (t) => t.toLowerCase(),
-      searchOptions: { tokenize: queryTokens, processTerm: (t) => t.toLowerCase() },
-    });
-  }
-
   /** Replace everything (start-up). `viaAddAll`: build it with minisearch's own addAll instead (the tests' oracle). */
   load(pieces: PieceDoc[], trials: TrialDoc[], { viaAddAll = false } = {}) {
-    this.ms = this.fresh();
+    const pre = prepared.get(pieces);
+    prepared.delete(pieces);
+    const ready = !viaAddAll && pre?.trials === trials && pre.count === pieces.length + trials.length ? pre : null;
     this.pieces.clear();
     this.byId.length = 0;
     this.trials.clear();
@@ -204,13 +202,14 @@ export class TextIndex {
       this.byId[p.id] = p;
     }
     for (const t of trials) this.trials.set(t.id, t);
-    // What addAll would build, with the postings left flat (postings.ts, bulkLoad; about 25 s less at full size).
-    const pre = prepared.get(pieces);
-    prepared.delete(pieces);
-    const ready = pre && pre.trials === trials && pre.entries.length === pieces.length + trials.length ? pre : null;
-    const entries = ready?.entries ?? [...pieces.map(pieceEntry), ...trials.map(trialEntry)];
-    if (viaAddAll) this.ms.addAll(entries);
-    else bulkLoad(this.ms as unknown as MsInternals, entries, STORE_FIELDS, TOKENISE, ready?.tokenised);
+    if (ready) this.ms = ready.ms;
+    else {
+      this.ms = freshMiniSearch();
+      const entries = [...pieces.map(pieceEntry), ...trials.map(trialEntry)];
+      // What addAll would build, with the postings left flat (postings.ts, bulkLoad; about 25 s less at full size).
+      if (viaAddAll) this.ms.addAll(entries);
+      else bulkLoad(this.ms as unknown as MsInternals, entries, STORE_FIELDS, TOKENISE);
+    }
     this.store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
     this.store.rebuild();
   }
