@@ -1,5 +1,8 @@
+import type { Connection } from 'mariadb';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../models/index.ts';
+import { eachPage, readFirst, withConnection } from './read.ts';
+import { prepareLoad } from './text-index.ts';
 
 /** What search knows about a piece: the indexed text and the facet values. */
 export type PieceDoc = {
@@ -29,7 +32,8 @@ export type FacetKey =
 // documents' heap, and so garbage-collection work, smaller (about 120 MB at 170,000 pieces). Never mutate them.
 const pool = new Map<string, unknown[]>();
 function shared<T>(list: T[]): T[] {
-  const key = JSON.stringify(list);
+  // Most lists hold one string: keyed without JSON (no clash: JSON keys start with "[").
+  const key = list.length === 1 && typeof list[0] === 'string' ? `s${list[0]}` : JSON.stringify(list);
   const hit = pool.get(key);
   if (hit) return hit as T[];
   // Bounded: free-text values (places) could otherwise grow it for ever; documents keep the arrays they have.
@@ -120,28 +124,28 @@ function pieceDoc(r: PieceRow, modern: string[]): PieceDoc {
 const PIECE_COLS =
   'id, accessionNumber, title, objectName, description, provenance, place, dateText, techniques, dyestuffs, historicalMordants, fibres, earliestYear, latestYear, status';
 
+type TrialRow = { id: number; code: string; pieceId: number | null; notes: string | null };
+type SubRow = { trialId: number; name: string | null };
+type StepRow = { trialId: number; operation: string; ingredients: unknown; notes: string | null };
+
 /** Modern mordants and dyestuffs per trial, from substitutions and recipe ingredients. */
 async function trialDocs(where: string, params: unknown[], transaction?: Transaction): Promise<TrialDoc[]> {
-  const trials = await sequelize.query<{ id: number; code: string; pieceId: number | null; notes: string | null }>(
-    `SELECT id, code, pieceId, notes FROM trials ${where}`,
-    { replacements: params, type: QueryTypes.SELECT, transaction },
-  );
-  if (!trials.length) return [];
-  const ids = trials.map((t) => t.id);
-  const subs = await sequelize.query<{ trialId: number; name: string | null; practice: string | null }>(
-    `SELECT s.trialId, c.name, s.modernPractice AS practice FROM substitutions s LEFT JOIN chemicals c ON c.id = s.modernChemicalId WHERE s.trialId IN (?)`,
-    { replacements: [ids], type: QueryTypes.SELECT, transaction },
-  );
-  const steps = await sequelize.query<{
-    trialId: number;
-    operation: string;
-    ingredients: unknown;
-    notes: string | null;
-  }>(`SELECT trialId, operation, ingredients, notes FROM recipe_steps WHERE trialId IN (?)`, {
-    replacements: [ids],
+  const trials = await sequelize.query<TrialRow>(`SELECT id, code, pieceId, notes FROM trials ${where} ORDER BY id`, {
+    replacements: params,
     type: QueryTypes.SELECT,
     transaction,
   });
+  if (!trials.length) return [];
+  const ids = trials.map((t) => t.id);
+  const subs = await sequelize.query<SubRow>(
+    `SELECT s.trialId, c.name FROM substitutions s LEFT JOIN chemicals c ON c.id = s.modernChemicalId WHERE s.trialId IN (?) ORDER BY s.trialId, s.id`,
+    { replacements: [ids], type: QueryTypes.SELECT, transaction },
+  );
+  // In recipe order (a trial's notes are its own, then each step's).
+  const steps = await sequelize.query<StepRow>(
+    `SELECT trialId, operation, ingredients, notes FROM recipe_steps WHERE trialId IN (?) ORDER BY trialId, position, id`,
+    { replacements: [ids], type: QueryTypes.SELECT, transaction },
+  );
   const mordantIds = new Set(
     (
       await sequelize.query<{ id: number }>(`SELECT id FROM chemicals WHERE role = 'mordant'`, {
@@ -150,6 +154,10 @@ async function trialDocs(where: string, params: unknown[], transaction?: Transac
       })
     ).map((c) => c.id),
   );
+  return buildTrials(trials, subs, steps, mordantIds);
+}
+
+function buildTrials(trials: TrialRow[], subs: SubRow[], steps: StepRow[], mordantIds: Set<number>): TrialDoc[] {
   const byId = new Map(
     trials.map((t) => [
       t.id,
@@ -164,11 +172,12 @@ async function trialDocs(where: string, params: unknown[], transaction?: Transac
     ]),
   );
   for (const s of subs) {
-    const d = byId.get(s.trialId)!;
-    if (s.name) d.modernMordants.add(s.name);
+    const d = byId.get(s.trialId);
+    if (d && s.name) d.modernMordants.add(s.name);
   }
   for (const s of steps) {
-    const d = byId.get(s.trialId)!;
+    const d = byId.get(s.trialId);
+    if (!d) continue;
     for (const ing of json<Array<{ kind: string; refId: number; name: string }>>(s.ingredients, [])) {
       if (ing.kind === 'dyestuff') d.dyestuffs.add(ing.name);
       else if (ing.kind === 'chemical' && (mordantIds.has(ing.refId) || s.operation === 'mordant-bath'))
@@ -179,33 +188,105 @@ async function trialDocs(where: string, params: unknown[], transaction?: Transac
   return [...byId.values()].map((d) => ({ ...d, modernMordants: [...d.modernMordants], dyestuffs: [...d.dyestuffs] }));
 }
 
-function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
+/**
+ * Every trial, read for a full load: each table once, in keyset-paged chunks over one connection (read.ts), with no
+ * list of ids; the same rows, in the same order per trial, as `trialDocs`.
+ */
+async function allTrialDocs(conn: Connection): Promise<TrialDoc[]> {
+  const trials: TrialRow[] = [];
+  await eachPage(
+    conn,
+    'SELECT id, code, pieceId, notes FROM trials WHERE id > ? ORDER BY id LIMIT ?',
+    50_000,
+    (rows) => {
+      for (const r of rows)
+        trials.push({
+          id: r[0] as number,
+          code: r[1] as string,
+          pieceId: r[2] as number | null,
+          notes: r[3] as string | null,
+        });
+    },
+  );
+  if (!trials.length) return [];
+  const subs: Array<SubRow & { id: number }> = [];
+  await eachPage(
+    conn,
+    'SELECT s.id, s.trialId, c.name FROM substitutions s LEFT JOIN chemicals c ON c.id = s.modernChemicalId WHERE s.id > ? ORDER BY s.id LIMIT ?',
+    50_000,
+    (rows) => {
+      for (const r of rows) subs.push({ id: r[0] as number, trialId: r[1] as number, name: r[2] as string | null });
+    },
+  );
+  subs.sort((x, y) => x.trialId - y.trialId || x.id - y.id);
+  const steps: Array<StepRow & { id: number; position: number }> = [];
+  await eachPage(
+    conn,
+    'SELECT id, trialId, position, operation, ingredients, notes FROM recipe_steps WHERE id > ? ORDER BY id LIMIT ?',
+    20_000,
+    (rows) => {
+      for (const r of rows)
+        steps.push({
+          id: r[0] as number,
+          trialId: r[1] as number,
+          position: r[2] as number,
+          operation: r[3] as string,
+          ingredients: r[4],
+          notes: r[5] as string | null,
+        });
+    },
+  );
+  steps.sort((x, y) => x.trialId - y.trialId || x.position - y.position || x.id - y.id);
+  const mordants: unknown[][] = await conn.execute({
+    sql: `SELECT id FROM chemicals WHERE role = 'mordant'`,
+    rowsAsArray: true,
+    typeCast: undefined,
+  });
+  return buildTrials(trials, subs, steps, new Set(mordants.map((r) => r[0] as number)));
+}
+
+/** Each piece's modern mordants, from its trials (in trial order). */
+function modernOf(trials: TrialDoc[]): Map<number, Set<string>> {
   const modern = new Map<number, Set<string>>();
   for (const t of trials)
     if (t.pieceId != null)
       for (const m of t.modernMordants)
         (modern.get(t.pieceId) ?? modern.set(t.pieceId, new Set()).get(t.pieceId)!).add(m);
+  return modern;
+}
+
+function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
+  const modern = modernOf(trials);
   return rows.map((r) => pieceDoc(r, [...(modern.get(r.id) ?? [])]));
 }
 
-/** Every live (not soft-deleted) piece and every trial, read once at start. */
+/** Every live (not soft-deleted) piece and every trial, read once at start (on one connection: read.ts). */
 export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[] }> {
-  // Keyset-paged: one huge result set can stall past the server's net_write_timeout.
-  const rows: PieceRow[] = [];
-  for (let after = 0; ;) {
-    const chunk = await sequelize.query<PieceRow>(
-      `SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT 20000`,
-      {
-        replacements: [after],
-        type: QueryTypes.SELECT,
-      },
-    );
-    for (const r of chunk) rows.push(r);
-    if (chunk.length < 20_000) break;
-    after = chunk[chunk.length - 1].id;
-  }
-  const trials = await trialDocs('', []);
-  return { pieces: attachModern(rows, trials), trials };
+  const { pieces, trials } = await readFirst(() =>
+    withConnection(async (conn) => {
+      // Trials first: each page of pieces then becomes documents as it arrives, between the reads.
+      const trials = await allTrialDocs(conn);
+      const modern = modernOf(trials);
+      const pieces: PieceDoc[] = [];
+      const cols = PIECE_COLS.split(', ');
+      await eachPage(
+        conn,
+        `SELECT ${PIECE_COLS} FROM pieces WHERE deletedAt IS NULL AND id > ? ORDER BY id LIMIT ?`,
+        5_000,
+        (page) => {
+          for (const r of page) {
+            const row: PieceRow = { id: r[0] as number };
+            for (let k = 1; k < cols.length; k++) row[cols[k]] = r[k];
+            pieces.push(pieceDoc(row, [...(modern.get(row.id) ?? [])]));
+          }
+        },
+      );
+      return { pieces, trials };
+    }),
+  );
+  // Tokenised here, in slices that let other requests through, rather than all at once inside TextIndex.load.
+  await prepareLoad(pieces, trials);
+  return { pieces, trials };
 }
 
 /** One piece as it stands now (null when deleted or gone), with its trials. */

@@ -153,6 +153,30 @@ class Columns {
   }
 }
 
+/** Colours gathered for a load (read.ts, `readShade`), straight into the index's columns: no object per colour. */
+export class ShadeColours {
+  /** @internal */
+  readonly cols = new Columns(1 << 16);
+  get size() {
+    return this.cols.n;
+  }
+  add(id: number, photoId: number, L: number, a: number, b: number, hex: string, share: number) {
+    // The same as Columns.push; the piece is filled in by ShadeIndex.load, once the photos are known.
+    const c = this.cols;
+    c.grow(c.n + 1);
+    const j = c.n++;
+    c.L[j] = L;
+    c.A[j] = a;
+    c.B[j] = b;
+    c.C[j] = Math.sqrt(a * a + b * b);
+    c.share[j] = share;
+    c.photo[j] = photoId;
+    c.id[j] = id;
+    c.rgb[j] = hexToInt(hex);
+    c.alive[j] = 1;
+  }
+}
+
 export class ShadeIndex {
   private main = new Columns(0);
   /** Grid cell i holds main[start[i] .. start[i + 1]); cells run L* fastest, so a column's slices are one run. */
@@ -182,12 +206,16 @@ export class ShadeIndex {
   }
 
   /** Replace every colour and the photo → piece map (start-up). */
-  load(rows: Iterable<ShadeRow>, photos: Iterable<{ id: number; pieceId: number | null }>) {
+  load(rows: Iterable<ShadeRow> | ShadeColours, photos: Iterable<{ id: number; pieceId: number | null }>) {
     this.main = new Columns(0);
     this.tail = new Columns(1024);
     this.photoPiece = new Int32Array(1024);
     for (const p of photos) this.setPhoto(p.id, p.pieceId);
-    for (const r of rows) this.tail.push(r, this.pieceOf(r.photoId));
+    if (rows instanceof ShadeColours) {
+      const c = rows.cols;
+      for (let j = 0; j < c.n; j++) c.piece[j] = this.pieceOf(c.photo[j]);
+      this.tail = c;
+    } else for (const r of rows) this.tail.push(r, this.pieceOf(r.photoId));
     this.dead = 0;
     this.compact();
   }

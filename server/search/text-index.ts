@@ -1,6 +1,6 @@
 import MiniSearch from 'minisearch';
 import type { PieceDoc, TrialDoc } from './docs.ts';
-import { type MsInternals, type Postings, PostingStore } from './postings.ts';
+import { bulkLoad, bulkLoadInSlices, type MsInternals, type Postings, PostingStore } from './postings.ts';
 
 /**
  * Full-text index over pieces and trials (minisearch), plus the documents
@@ -41,6 +41,7 @@ export const TEXT_FIELDS = [
   'notes',
 ] as const;
 export type TextField = (typeof TEXT_FIELDS)[number];
+const STORE_FIELDS = ['kind', 'refId', 'pieceId'] as const;
 
 // Accession numbers and trial codes first, then titles; then what the object is made of.
 const BOOST: Partial<Record<TextField, number>> = {
@@ -72,6 +73,52 @@ export function tokenize(text: string): string[] {
   }
   return out;
 }
+
+// ASCII character classes as tokenize's regular expressions see them: 1 = whitespace (\s), 2 = punctuation or symbol
+// (\p{P}, \p{S}: every printable ASCII character that is not a letter or digit), 0 = anything else (letters, digits
+// and control characters, which are neither).
+const ASCII_CLASS = new Uint8Array(128);
+for (const c of [9, 10, 11, 12, 13, 32]) ASCII_CLASS[c] = 1;
+for (let c = 33; c < 127; c++) if (!/[A-Za-z0-9]/.test(String.fromCharCode(c))) ASCII_CLASS[c] = 2;
+
+/**
+ * `tokenize` for all-ASCII text without regular expressions or substrings: writes each token as a [start, end) range
+ * of `text` into `out` (two numbers a token, in tokenize's order) and returns how many tokens, or -1 when `text` is
+ * not all ASCII (then use `tokenize`). The bulk load (postings.ts) looks tokens up by range. Checked against
+ * `tokenize` in tests/unit/text-index.test.ts.
+ */
+export function scanAscii(text: string, out: Int32Array): number {
+  const n = text.length;
+  for (let i = 0; i < n; i++) if (text.charCodeAt(i) > 127) return -1;
+  let k = 0;
+  let i = 0;
+  while (i < n) {
+    while (i < n && ASCII_CLASS[text.charCodeAt(i)] === 1) i++;
+    if (i >= n) break;
+    let s = i;
+    while (i < n && ASCII_CLASS[text.charCodeAt(i)] !== 1) i++;
+    let e = i;
+    while (s < e && ASCII_CLASS[text.charCodeAt(s)] === 2) s++;
+    while (e > s && ASCII_CLASS[text.charCodeAt(e - 1)] === 2) e--;
+    if (s === e) continue;
+    out[k++] = s;
+    out[k++] = e;
+    let inner = false;
+    for (let j = s + 1; j < e - 1 && !inner; j++) inner = ASCII_CLASS[text.charCodeAt(j)] === 2;
+    if (!inner) continue;
+    // The whole word's parts between punctuation (at least two, as its ends are not punctuation).
+    for (let j = s; j < e;) {
+      const ps = j;
+      while (j < e && ASCII_CLASS[text.charCodeAt(j)] !== 2) j++;
+      if (j > ps) {
+        out[k++] = ps;
+        out[k++] = j;
+      }
+      while (j < e && ASCII_CLASS[text.charCodeAt(j)] === 2) j++;
+    }
+  }
+  return k / 2;
+}
 const queryTokens = (text: string) =>
   text
     .split(/\s+/)
@@ -100,12 +147,41 @@ const fuzzyEdits = (term: string) =>
 
 type Expansion = { term: string; weight: number; data: Postings };
 
+const TOKENISE = { fields: TEXT_FIELDS, tokenize, scan: scanAscii };
+
+// Indexes built ahead by prepareLoad, keyed by the pieces array handed to load() next.
+const prepared = new WeakMap<PieceDoc[], { trials: TrialDoc[]; count: number; ms: MiniSearch<IndexedDoc> }>();
+
+/**
+ * The work of `TextIndex.load(pieces, trials)` (seconds at 166,667 pieces: tokenising, minisearch's tables), done
+ * ahead into a new minisearch index in slices that yield to the event loop; `docs.ts` `loadAll` calls it, so the
+ * engine's `load` with the same two arrays then only swaps that index in and builds the scorer's per-document tables,
+ * and the process keeps answering meanwhile. The documents must not change in between (they never do: PieceDoc and
+ * TrialDoc are not mutated).
+ */
+export async function prepareLoad(pieces: PieceDoc[], trials: TrialDoc[]): Promise<void> {
+  const ms = freshMiniSearch();
+  const entries = [...pieces.map(pieceEntry), ...trials.map(trialEntry)];
+  await bulkLoadInSlices(ms as unknown as MsInternals, entries, STORE_FIELDS, TOKENISE);
+  prepared.set(pieces, { trials, count: entries.length, ms });
+}
+
+function freshMiniSearch() {
+  return new MiniSearch<IndexedDoc>({
+    fields: [...TEXT_FIELDS],
+    storeFields: [...STORE_FIELDS],
+    tokenize,
+    processTerm: (t) => t.toLowerCase(),
+    searchOptions: { tokenize: queryTokens, processTerm: (t) => t.toLowerCase() },
+  });
+}
+
 export class TextIndex {
   readonly pieces = new Map<number, PieceDoc>();
   /** The same documents in an array indexed by piece id, for lookups over tens of thousands of hits. */
   readonly byId: Array<PieceDoc | undefined> = [];
   readonly trials = new Map<number, TrialDoc>();
-  private ms = this.fresh();
+  private ms = freshMiniSearch();
   /**
    * Flat postings and per-document tables for the scorer, kept in step with minisearch by load/setPiece/setTrial.
    * This class reads minisearch's private fields through `MsInternals` (README.md, invariant 3).
@@ -113,19 +189,11 @@ export class TextIndex {
   private store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
   private scratch: Scratch | null = null;
 
-  private fresh() {
-    return new MiniSearch<IndexedDoc>({
-      fields: [...TEXT_FIELDS],
-      storeFields: ['kind', 'refId', 'pieceId'],
-      tokenize,
-      processTerm: (t) => t.toLowerCase(),
-      searchOptions: { tokenize: queryTokens, processTerm: (t) => t.toLowerCase() },
-    });
-  }
-
-  /** Replace everything (start-up). */
-  load(pieces: PieceDoc[], trials: TrialDoc[]) {
-    this.ms = this.fresh();
+  /** Replace everything (start-up). `viaAddAll`: build it with minisearch's own addAll instead (the tests' oracle). */
+  load(pieces: PieceDoc[], trials: TrialDoc[], { viaAddAll = false } = {}) {
+    const pre = prepared.get(pieces);
+    prepared.delete(pieces);
+    const ready = !viaAddAll && pre?.trials === trials && pre.count === pieces.length + trials.length ? pre : null;
     this.pieces.clear();
     this.byId.length = 0;
     this.trials.clear();
@@ -134,7 +202,14 @@ export class TextIndex {
       this.byId[p.id] = p;
     }
     for (const t of trials) this.trials.set(t.id, t);
-    this.ms.addAll([...pieces.map(pieceEntry), ...trials.map(trialEntry)]);
+    if (ready) this.ms = ready.ms;
+    else {
+      this.ms = freshMiniSearch();
+      const entries = [...pieces.map(pieceEntry), ...trials.map(trialEntry)];
+      // What addAll would build, with the postings left flat (postings.ts, bulkLoad; about 25 s less at full size).
+      if (viaAddAll) this.ms.addAll(entries);
+      else bulkLoad(this.ms as unknown as MsInternals, entries, STORE_FIELDS, TOKENISE);
+    }
     this.store = new PostingStore(this.ms as unknown as MsInternals, TEXT_FIELDS, BOOST);
     this.store.rebuild();
   }
@@ -172,6 +247,11 @@ export class TextIndex {
     this.ms.remove(e);
     if (doc !== undefined) this.store.dropDoc(doc);
     this.store.forget(termsOf(e));
+  }
+
+  /** minisearch's own serialisation of the index (tests compare a bulk load with addAll's). */
+  toJSON() {
+    return this.ms.toJSON();
   }
 
   /** The same query through minisearch's own search(): the oracle the fast scorer is tested against. */

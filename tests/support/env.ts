@@ -6,7 +6,7 @@ export const testEnv = {
   screenshotDir: process.env.SCREENSHOT_DIR || null,
   screensDir: `${env.DATA_DIR}/screens`,
   benchSize: Number(process.env.BENCH_SIZE ?? 1),
-  benchParts: (process.env.BENCH_PARTS ?? 'uniform,clustered,text').split(','),
+  benchParts: (process.env.BENCH_PARTS ?? 'uniform,clustered,load,text').split(','),
 };
 
 /** The environment for an app server started as a child process by a test (tests/support/server.ts), with overrides. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { facetKeys, type PieceDoc, type TrialDoc } from '../../server/search/docs.ts';
-import { TextIndex } from '../../server/search/text-index.ts';
+import { prepareLoad, scanAscii, TextIndex, tokenize } from '../../server/search/text-index.ts';
 
 let seed = 777;
 const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
@@ -84,8 +84,10 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     ];
     let compared = 0;
     for (const q of queries) {
-      const want = idx.searchWithMinisearch(q);
+      // The fast scorer first: minisearch's search() turns the terms it reads into minisearch's own Maps
+      // (postings.ts, TermPostings), so asking it first would test only that path.
       const got = idx.search(q, true);
+      const want = idx.searchWithMinisearch(q);
       expect(got.ids.length, q).toBe(want.length);
       for (const r of want) {
         expect(got.score(r.pieceId as number), `${q} piece ${r.pieceId}`).toBeCloseTo(r.score, 9);
@@ -111,6 +113,58 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     expect(idx.search('T.2', true).score(2)).toBeUndefined();
   });
 
+  it('scans ASCII text into the same tokens as tokenize (the bulk load reads them as ranges)', () => {
+    const alphabet = 'ab Z9 .,;:-()[]"\'$+<=>^`|~_!?@#%&*/\\{}\t\n\r\v\f\x00\x01\x1f\x7f';
+    const out = new Int32Array(2000);
+    for (let n = 0; n < 3000; n++) {
+      const len = Math.floor(rnd() * 40);
+      let text = '';
+      for (let i = 0; i < len; i++) text += alphabet[Math.floor(rnd() * alphabet.length)];
+      const k = scanAscii(text, out);
+      const got = Array.from({ length: k }, (_, i) => text.slice(out[2 * i], out[2 * i + 1]));
+      expect(got, JSON.stringify(text)).toEqual(tokenize(text));
+    }
+    for (const text of ['1931.4.12 iron(II) acetate', '  --a--  b.c.d ', 'iron(II)', 'x']) {
+      const k = scanAscii(text, out);
+      expect(Array.from({ length: k }, (_, i) => text.slice(out[2 * i], out[2 * i + 1]))).toEqual(tokenize(text));
+    }
+    // Not ASCII: the caller falls back to tokenize.
+    expect(scanAscii('Zürich', out)).toBe(-1);
+  });
+
+  it('loads exactly what minisearch addAll builds (postings.ts, bulkLoad): same ids, field lengths, averages, stored fields, terms in the same order', async () => {
+    const pieces = Array.from({ length: 400 }, (_, i) => piece(i + 1));
+    // Mixed case (field lengths count distinct tokens before lower-casing), punctuation, non-ASCII, empty fields.
+    pieces[3] = {
+      ...pieces[3],
+      title: 'Madder madder MADDER',
+      description: 'iron(II) "alum," 1931.4.12 -- Zürich ÉCRU écru ς',
+    };
+    pieces[4] = { ...pieces[4], description: '', provenance: '  ' };
+    const trials = [
+      ...Array.from({ length: 50 }, (_, i) => trial(i + 1, (i % 40) + 1)),
+      { ...trial(51, 0), pieceId: null },
+    ];
+    const fast = new TextIndex();
+    fast.load(pieces, trials);
+    const slow = new TextIndex();
+    slow.load(pieces, trials, { viaAddAll: true });
+    // toJSON lists every term (in the radix tree's order) with its postings, so it also turns every flat term into Maps.
+    expect(JSON.stringify(fast.toJSON())).toBe(JSON.stringify(slow.toJSON()));
+    // Tokenised ahead in slices (as docs.ts loadAll does), then loaded: the same again.
+    await prepareLoad(pieces, trials);
+    const sliced = new TextIndex();
+    sliced.load(pieces, trials);
+    expect(JSON.stringify(sliced.toJSON())).toBe(JSON.stringify(slow.toJSON()));
+    // And both then answer and change alike.
+    const edited = { ...piece(7), description: 'quercitron madder' };
+    fast.setPiece(7, edited);
+    slow.setPiece(7, edited);
+    fast.setPiece(8, null);
+    slow.setPiece(8, null);
+    expect(JSON.stringify(fast.toJSON())).toBe(JSON.stringify(slow.toJSON()));
+  });
+
   it('follows edits: cached postings and per-document tables stay exact through changed, removed and added pieces and trials', () => {
     const idx = new TextIndex();
     const trials = Array.from({ length: 60 }, (_, i) => trial(i + 1, (i % 30) + 1));
@@ -134,6 +188,8 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
     ];
     // minisearch answers per document: a piece's own and its trials' scores add up, their words join.
     const same = (q: string) => {
+      // The fast scorer first (see above); its answer stays valid until the next idx.search.
+      const got = idx.search(q, true);
       const want = new Map<number, { score: number; terms: Set<string> }>();
       for (const r of idx.searchWithMinisearch(q)) {
         const w = want.get(r.pieceId as number) ?? { score: 0, terms: new Set<string>() };
@@ -141,7 +197,6 @@ describe('text index scorer (text-index.ts) = minisearch search() (the library i
         for (const t of Object.keys(r.match)) w.terms.add(t);
         want.set(r.pieceId as number, w);
       }
-      const got = idx.search(q, true);
       expect(got.ids.length, q).toBe(want.size);
       for (const [pid, w] of want) {
         expect(got.score(pid), `${q} piece ${pid}`).toBeCloseTo(w.score, 9);
