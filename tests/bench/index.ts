@@ -1,5 +1,6 @@
 import { healthBench } from './health.bench.ts';
 import { importBench } from './import.bench.ts';
+import { loadBench } from './load.bench.ts';
 import { paletteBench } from './palette.bench.ts';
 import { searchBench } from './search.bench.ts';
 
@@ -7,4 +8,4 @@ export type BenchResult = { metric: string; value: number; unit: string; target?
 export type Bench = { name: string; run: () => Promise<BenchResult[]> };
 
 // Each benchmark registers here.
-export const benches: Bench[] = [healthBench, importBench, paletteBench, searchBench];
+export const benches: Bench[] = [healthBench, importBench, paletteBench, searchBench, loadBench];

@@ -40,7 +40,11 @@ export type ServerProcess = { url: string; port: number; child: ChildProcess; st
  * Start a separate app server process (server/index.ts, as `npm start` runs it) on the given port, against the same
  * database and data directory as the tests. Resolves once it says it is serving; stop() sends SIGTERM and waits.
  */
-export async function startServerProcess(port: number, timeoutMs = 90_000): Promise<ServerProcess> {
+export async function startServerProcess(
+  port: number,
+  timeoutMs = 90_000,
+  extraEnv: Record<string, string> = {},
+): Promise<ServerProcess> {
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     cwd: ROOT_DIR,
     // The tests name each client by X-Forwarded-For from loopback, as a proxy would (TRUST_PROXY is off by default).
@@ -49,6 +53,7 @@ export async function startServerProcess(port: number, timeoutMs = 90_000): Prom
       HOST: '127.0.0.1',
       PUBLIC_URL: `http://127.0.0.1:${port}`,
       TRUST_PROXY: 'loopback',
+      ...extraEnv,
     }),
     stdio: ['ignore', 'pipe', 'pipe'],
   });
