@@ -46,6 +46,17 @@ const schema = z
     // How long a running job's lease lasts; the worker renews it every third of this while the handler runs, and a
     // job whose lease ran out (its worker died) is queued again. 30 s: common practice for lease/heartbeat queues.
     JOB_LEASE_MS: z.coerce.number().int().min(500).max(600_000).default(30_000),
+    /** How often each app server reads the search change log (ms); a search also catches up before it answers. */
+    SEARCH_POLL_MS: z.coerce.number().int().min(50).max(60_000).default(500),
+    /** The longest a search waits to catch up with the change log before answering from the index as it is (ms;
+     *  unset: 1 s, or 60 s under NODE_ENV=test, where exactness matters more than latency on a loaded machine). */
+    SEARCH_SYNC_WAIT_MS: z.coerce.number().int().min(0).optional(),
+    /** Hours the search change log is kept; a server that fell further behind reloads its indexes. */
+    SEARCH_LOG_KEEP_HOURS: z.coerce
+      .number()
+      .min(1)
+      .max(24 * 30)
+      .default(24),
     /** pino level of the request and job logs; 'silent' by default in tests. */
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
     /** How long a request waits for a free database connection before a 503 (ms). */

@@ -18,22 +18,24 @@ const catcher = env.SMTP_URL || env.NODE_ENV === 'production' ? null : await sta
 if (catcher) console.log(`[tinctoria] local mail catcher on 127.0.0.1:${catcher.port}, messages in ${catcher.dir}`);
 else if (!env.SMTP_URL)
   console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
-// Masters and temp files left by a process killed mid-upload (no photo points at them, older than an hour).
-const orphans = await reconcileOrphans().catch((e) => (console.error('[tinctoria] orphan sweep', e), []));
-if (orphans.length) console.log(`[tinctoria] removed ${orphans.length} orphan file(s) under uploads/`);
 const queuedTiles = await enqueueMissingTiles();
 if (queuedTiles) console.log(`[tinctoria] deep-zoom tiles queued for ${queuedTiles} photo(s)`);
 // The worker runs beside the web server; any number of servers may share the jobs table.
 startWorker();
 
+// Listen at once: the search indexes load in the background (search answers 503 search_warming with Retry-After
+// until they are in), then follow the change log that every server writes to (server/search/README.md).
 const app = createApp();
 const { searchEngine } = await import('./search/engine.ts');
-const t0 = Date.now();
-await searchEngine.ready();
-console.log(`[tinctoria] search indexes loaded in ${Date.now() - t0} ms`);
+searchEngine.startFollowing();
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`[tinctoria] serving at ${publicUrl}`);
 });
+// Masters and temp files left by a process killed mid-upload (no photo points at them, older than an hour).
+void reconcileOrphans().then(
+  (orphans) => orphans.length && console.log(`[tinctoria] removed ${orphans.length} orphan file(s) under uploads/`),
+  (e) => console.error('[tinctoria] orphan sweep', e),
+);
 
 let closing = false;
 async function shutdown(signal: string) {
@@ -43,6 +45,7 @@ async function shutdown(signal: string) {
   server.close();
   server.closeAllConnections();
   await catcher?.close().catch(() => {});
+  searchEngine.stopFollowing();
   await stopWorker().catch(() => {});
   await sequelize.close().catch(() => {});
   process.exit(0);

@@ -10,6 +10,8 @@ export class HttpError extends Error {
     public code: string,
     message: string,
     public details?: unknown,
+    /** Sent as Retry-After (seconds) with a 503 or 429. */
+    public retryAfterS?: number,
   ) {
     super(message);
   }
@@ -74,6 +76,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return;
   }
   if (err instanceof HttpError) {
+    if (err.retryAfterS !== undefined) res.set('Retry-After', String(err.retryAfterS));
     res.status(err.status).json({
       error: { code: err.code, message: err.message, ...(err.details === undefined ? {} : { details: err.details }) },
     });

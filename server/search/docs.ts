@@ -222,3 +222,23 @@ export async function loadPiece(id: number): Promise<{ piece: PieceDoc | null; t
 export async function loadTrial(id: number): Promise<TrialDoc | null> {
   return (await trialDocs('WHERE id = ?', [id]))[0] ?? null;
 }
+
+/** Several pieces as they stand now (absent from the map when deleted or gone), for applying the change log. */
+export async function loadPieces(ids: number[]): Promise<Map<number, PieceDoc>> {
+  const out = new Map<number, PieceDoc>();
+  if (!ids.length) return out;
+  const rows = await sequelize.query<PieceRow>(
+    `SELECT ${PIECE_COLS} FROM pieces WHERE id IN (?) AND deletedAt IS NULL`,
+    { replacements: [ids], type: QueryTypes.SELECT },
+  );
+  const trials = rows.length ? await trialDocs('WHERE pieceId IN (?)', [rows.map((r) => r.id)]) : [];
+  for (const d of attachModern(rows, trials)) out.set(d.id, d);
+  return out;
+}
+
+/** Several trials as they stand now (absent when gone). */
+export async function loadTrials(ids: number[]): Promise<Map<number, TrialDoc>> {
+  const out = new Map<number, TrialDoc>();
+  if (ids.length) for (const t of await trialDocs('WHERE id IN (?)', [ids])) out.set(t.id, t);
+  return out;
+}

@@ -1,29 +1,89 @@
-import type { Model, Transaction } from 'sequelize';
+import type { Model, ModelStatic, Transaction } from 'sequelize';
 import { PaletteColour, Photo, Piece, RecipeStep, Substitution, Trial } from '../models/index.ts';
-import { searchEngine, type Change } from './engine.ts';
+import { appendChanges, type ChangeKind } from './change-log.ts';
+import { searchEngine } from './engine.ts';
 
 /**
- * Keeps the search indexes current from Sequelize model hooks, so routes written
- * by anyone need not call search. Inside a transaction the change is applied
- * after commit (a rolled-back write never reaches the index).
+ * Keeps search current from Sequelize model hooks, so routes written by anyone need not call search: every
+ * write to a model search reads appends a row to the search change log *in the same transaction* (a
+ * rolled-back write is never logged), and every app server applies the log (engine.ts).
+ * Bulk writes (`Model.update(…, { where })`, `Model.destroy({ where })`, `restore`) first read which rows their
+ * `where` names, in the same transaction, so the log always names rows and never asks for a whole reload.
  */
-type Opts = { transaction?: Transaction | null; where?: unknown };
+type Opts = {
+  transaction?: Transaction | null;
+  where?: unknown;
+  attributes?: Record<string, unknown>;
+  fields?: readonly PropertyKey[];
+};
 
-function later(options: Opts | undefined, fn: () => void) {
-  const t = options?.transaction;
-  if (t) t.afterCommit(fn);
-  else fn();
+async function log(options: Opts | undefined, kind: ChangeKind, ids: Iterable<number | null | undefined>) {
+  const t = options?.transaction ?? null;
+  const n = await appendChanges(
+    kind,
+    [...ids].filter((x): x is number => typeof x === 'number'),
+    t,
+  );
+  if (!n) return;
+  if (t) t.afterCommit(() => searchEngine.poke());
+  else searchEngine.poke();
 }
-const send = (options: Opts | undefined, ...changes: Change[]) =>
-  later(options, () => changes.forEach((c) => searchEngine.enqueue(c)));
 
-// Ids named in a bulk call's where clause ({ photoId: 3 } or { photoId: [3, 4] }); null when it says something else,
-// and then the whole index is reloaded: bulk writes must name ids (README.md, invariant 2).
-function idsFrom(where: unknown, key: string): number[] | null {
-  const v = (where as Record<string, unknown> | undefined)?.[key];
-  if (typeof v === 'number') return [v];
-  if (Array.isArray(v) && v.every((x) => typeof x === 'number')) return v;
-  return null;
+// The keys a bulk call's `where` names, read before the write (WeakMap: the options object is the same for the
+// before and after hooks of one call).
+const bulkKeys = new WeakMap<object, number[]>();
+
+function followBulk(model: ModelStatic<Model>, kind: ChangeKind, keyAttr: string, matters?: (o: Opts) => boolean) {
+  const before = async (o: Opts) => {
+    if (matters && !matters(o)) return;
+    const rows = (await model.findAll({
+      where: o.where as never,
+      attributes: [keyAttr],
+      transaction: o.transaction ?? undefined,
+      paranoid: false,
+      raw: true,
+    })) as unknown as Record<string, number | null>[];
+    const keys = rows.map((r) => r[keyAttr]).filter((x): x is number => typeof x === 'number');
+    // An update that moves rows to another parent names the new parent too.
+    const moved = o.attributes?.[keyAttr];
+    if (typeof moved === 'number') keys.push(moved);
+    bulkKeys.set(o, keys);
+  };
+  const after = async (o: Opts) => {
+    const keys = bulkKeys.get(o);
+    bulkKeys.delete(o);
+    if (keys) await log(o, kind, keys);
+  };
+  model.addHook('beforeBulkUpdate', 'search', before);
+  model.addHook('beforeBulkDestroy', 'search', before);
+  model.addHook('afterBulkUpdate', 'search', after);
+  model.addHook('afterBulkDestroy', 'search', after);
+  if ((model.options as { paranoid?: boolean }).paranoid) {
+    model.addHook('beforeBulkRestore', 'search', before);
+    model.addHook('afterBulkRestore', 'search', after);
+  }
+}
+
+function followRows(
+  model: ModelStatic<Model>,
+  kind: ChangeKind,
+  keyAttr: string,
+  matters?: (m: Model, o: Opts) => boolean,
+) {
+  // The key now and, for an update that moved the row, the key it had before.
+  const keysOf = (m: Model) => [m.get(keyAttr) as number, m.previous(keyAttr) as number | undefined];
+  const one = async (m: Model, o?: Opts) => {
+    if (!matters || matters(m, o ?? {})) await log(o, kind, keysOf(m));
+  };
+  for (const h of ['afterCreate', 'afterUpdate', 'afterDestroy'] as const) model.addHook(h, 'search', one);
+  if ((model.options as { paranoid?: boolean }).paranoid) model.addHook('afterRestore', 'search', one);
+  model.addHook('afterBulkCreate', 'search', async (ms: Model[], o: Opts) =>
+    log(
+      o,
+      kind,
+      ms.map((m) => m.get(keyAttr) as number),
+    ),
+  );
 }
 
 let installed = false;
@@ -31,68 +91,20 @@ let installed = false;
 export function installSearchHooks() {
   if (installed) return;
   installed = true;
+  const M = (m: unknown) => m as ModelStatic<Model>;
 
-  const piece = (p: Piece, o?: Opts) => send(o, { kind: 'piece', id: p.id });
-  Piece.addHook('afterCreate', 'search', piece);
-  Piece.addHook('afterUpdate', 'search', piece);
-  Piece.addHook('afterDestroy', 'search', piece);
-  Piece.addHook('afterRestore', 'search', piece);
-  Piece.addHook('afterBulkCreate', 'search', (ps: Piece[], o: Opts) =>
-    send(o, ...ps.map((p) => ({ kind: 'piece' as const, id: p.id }))),
-  );
-  for (const h of ['afterBulkUpdate', 'afterBulkDestroy', 'afterBulkRestore'] as const)
-    Piece.addHook(h, 'search', (o: Opts) => send(o, { kind: 'all-text' }));
-
-  const trialId = (m: Model & { trialId?: number; id?: number }, isTrial: boolean) => (isTrial ? m.id! : m.trialId!);
-  for (const [m, isTrial] of [
-    [Trial, true],
-    [RecipeStep, false],
-    [Substitution, false],
-  ] as const) {
-    // The three models share the hook shapes used here; one loose type keeps the loop readable.
-    const model = m as unknown as typeof Trial;
-    const one = (m: Model, o?: Opts) => send(o, { kind: 'trial', id: trialId(m as never, isTrial) });
-    model.addHook('afterCreate', 'search', one);
-    model.addHook('afterUpdate', 'search', one);
-    model.addHook('afterDestroy', 'search', one);
-    model.addHook('afterBulkCreate', 'search', (ms: Model[], o: Opts) =>
-      send(o, ...ms.map((m) => ({ kind: 'trial' as const, id: trialId(m as never, isTrial) }))),
-    );
-    for (const h of ['afterBulkUpdate', 'afterBulkDestroy'] as const) {
-      model.addHook(h, 'search', (o: Opts) => {
-        const ids = idsFrom(o.where, isTrial ? 'id' : 'trialId');
-        if (ids) send(o, ...ids.map((id) => ({ kind: 'trial' as const, id })));
-        else send(o, { kind: 'all-text' });
-      });
-    }
+  followRows(M(Piece), 'piece', 'id');
+  followBulk(M(Piece), 'piece', 'id');
+  followRows(M(Trial), 'trial', 'id');
+  followBulk(M(Trial), 'trial', 'id');
+  for (const child of [RecipeStep, Substitution]) {
+    followRows(M(child), 'trial', 'trialId');
+    followBulk(M(child), 'trial', 'trialId');
   }
-
-  // Photo → piece links change the shade index directly; the palette follows the photo.
-  const photo = (p: Photo, o?: Opts) => later(o, () => searchEngine.setPhoto(p.id, p.pieceId));
-  Photo.addHook('afterCreate', 'search', photo);
-  Photo.addHook('afterUpdate', 'search', photo);
-  Photo.addHook('afterDestroy', 'search', (p: Photo, o: Opts) => later(o, () => searchEngine.setPhoto(p.id, null)));
-  Photo.addHook('afterBulkCreate', 'search', (ps: Photo[], o: Opts) => ps.forEach((p) => photo(p, o)));
-  for (const h of ['afterBulkUpdate', 'afterBulkDestroy'] as const)
-    Photo.addHook(h, 'search', (o: Opts) => send(o, { kind: 'all-shade' }));
-
-  const palette = (c: PaletteColour, o?: Opts) => {
-    const ids = new Set(
-      [c.photoId, c.previous('photoId') as number | undefined].filter((x): x is number => typeof x === 'number'),
-    );
-    send(o, ...[...ids].map((id) => ({ kind: 'photo-palette' as const, id })));
-  };
-  PaletteColour.addHook('afterCreate', 'search', palette);
-  PaletteColour.addHook('afterUpdate', 'search', palette);
-  PaletteColour.addHook('afterDestroy', 'search', palette);
-  PaletteColour.addHook('afterBulkCreate', 'search', (cs: PaletteColour[], o: Opts) =>
-    send(o, ...[...new Set(cs.map((c) => c.photoId))].map((id) => ({ kind: 'photo-palette' as const, id }))),
-  );
-  for (const h of ['afterBulkUpdate', 'afterBulkDestroy'] as const) {
-    PaletteColour.addHook(h, 'search', (o: Opts) => {
-      const ids = idsFrom(o.where, 'photoId');
-      if (ids) send(o, ...ids.map((id) => ({ kind: 'photo-palette' as const, id })));
-      else send(o, { kind: 'all-shade' });
-    });
-  }
+  // A photo matters to search only through the piece it belongs to (tile status, names… do not).
+  const photoLinkChanged = (fields?: readonly PropertyKey[]) => !fields || fields.includes('pieceId');
+  followRows(M(Photo), 'photo', 'id', (_m, o) => photoLinkChanged(o.fields));
+  followBulk(M(Photo), 'photo', 'id', (o) => !o.attributes || 'pieceId' in o.attributes);
+  followRows(M(PaletteColour), 'photo', 'photoId');
+  followBulk(M(PaletteColour), 'photo', 'photoId');
 }

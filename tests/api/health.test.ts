@@ -23,6 +23,9 @@ describe('GET /api/health', () => {
         text: { loaded: expect.any(Boolean), sinceUpdateMs: res.body.search.text.sinceUpdateMs },
         shade: { loaded: expect.any(Boolean), sinceUpdateMs: res.body.search.shade.sinceUpdateMs },
         pendingChanges: expect.any(Number),
+        logPosition: expect.any(Number),
+        sinceSyncMs: res.body.search.sinceSyncMs,
+        lastError: null,
       },
     });
     // null, or a number of milliseconds.

@@ -38,7 +38,8 @@ export type ServerProcess = { url: string; port: number; child: ChildProcess; st
 
 /**
  * Start a separate app server process (server/index.ts, as `npm start` runs it) on the given port, against the same
- * database and data directory as the tests. Resolves once it says it is serving; stop() sends SIGTERM and waits.
+ * database and data directory as the tests. Resolves once it is serving with its search indexes loaded; stop() sends
+ * SIGTERM and waits.
  */
 export async function startServerProcess(
   port: number,
@@ -77,6 +78,18 @@ export async function startServerProcess(
       reject(new Error(`server on port ${port} exited with ${code}:\n${output}`));
     });
   });
+  // The server listens before its search indexes are in (search answers 503 until then): wait for them too.
+  for (const until = Date.now() + timeoutMs; ;) {
+    const h = await fetch(`http://127.0.0.1:${port}/api/health`)
+      .then((r) => r.json() as Promise<{ search?: { text: { loaded: boolean }; shade: { loaded: boolean } } }>)
+      .catch(() => null);
+    if (h?.search?.text.loaded && h.search.shade.loaded) break;
+    if (Date.now() > until) {
+      child.kill('SIGKILL');
+      throw new Error(`server on port ${port} did not load its search indexes in ${timeoutMs} ms:\n${output}`);
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
   const exited = new Promise<void>((resolve) => {
     if (child.exitCode !== null) resolve();
     else child.once('exit', () => resolve());

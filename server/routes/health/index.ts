@@ -56,6 +56,9 @@ healthRouter.get('/', async (_req, res) => {
       text: { loaded: s.textUpdatedAt !== null, sinceUpdateMs: since(s.textUpdatedAt) },
       shade: { loaded: s.shadeUpdatedAt !== null, sinceUpdateMs: since(s.shadeUpdatedAt) },
       pendingChanges: s.pending,
+      logPosition: s.logPosition,
+      sinceSyncMs: s.sinceSyncMs,
+      lastError: s.lastError,
     },
   };
   res.status(db === 'up' ? 200 : 503).json(body);
