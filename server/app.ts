@@ -16,6 +16,7 @@ import { sessionMiddleware } from './auth/session.ts';
 import { passport } from './auth/passport.ts';
 import { installSearchHooks } from './search/hooks.ts';
 import { requestLogger } from './log/index.ts';
+import { applyServerTimeouts } from './http/server-timeouts.ts';
 
 export type AppOptions = {
   clientDir?: string;
@@ -88,5 +89,8 @@ export function createApp(options: AppOptions = {}) {
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
   }
   app.use(errorHandler);
+  // The server that app.listen() creates (server/index.ts, tests/support/server.ts) gets its keep-alive timeouts here.
+  const listen = app.listen.bind(app);
+  app.listen = ((...args: Parameters<typeof listen>) => applyServerTimeouts(listen(...args))) as typeof app.listen;
   return app;
 }

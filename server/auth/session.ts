@@ -22,17 +22,23 @@ function sessionSecret(): string {
 export const SESSION_COOKIE = 'tinctoria.sid';
 
 export function sessionMiddleware() {
-  const store = new SequelizeStore({
+  // disableTouch is an option of connect-session-sequelize 7 that its type definitions leave out.
+  const options: ConstructorParameters<typeof SequelizeStore>[0] & { disableTouch: boolean } = {
     db: sequelize,
     table: 'Session',
     checkExpirationInterval: 0,
+    // No UPDATE of the session row on every signed-in request (the store's touch()): with rolling off the browser's
+    // cookie keeps the expiry it got at sign-in, so moving the row's `expires` bought nothing, and under load every
+    // request of one user queued on that one row's lock and on the connection pool (issue 16, point 7).
+    disableTouch: true,
     expiration: 14 * 24 * 60 * 60 * 1000,
     extendDefaultFields: (defaults: { data: string; expires: Date }, sess: { passport?: { user?: number } }) => ({
       data: defaults.data,
       expires: defaults.expires,
       userId: sess.passport?.user ?? null,
     }),
-  });
+  };
+  const store = new SequelizeStore(options);
   return session({
     name: SESSION_COOKIE,
     secret: sessionSecret(),

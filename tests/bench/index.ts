@@ -1,5 +1,6 @@
 import { healthBench } from './health.bench.ts';
 import { importBench } from './import.bench.ts';
+import { loadBench } from './load.bench.ts';
 import { paletteBench } from './palette.bench.ts';
 import { searchBench } from './search.bench.ts';
 import { startupBench } from './startup.bench.ts';
@@ -17,4 +18,5 @@ export const benches: Bench[] = [
   paletteBench,
   searchBench,
   startupBench,
+  loadBench,
 ];

@@ -7,6 +7,10 @@ export const testEnv = {
   screensDir: `${env.DATA_DIR}/screens`,
   benchSize: Number(process.env.BENCH_SIZE ?? 1),
   benchParts: (process.env.BENCH_PARTS ?? 'uniform,clustered,load,text').split(','),
+  /** Seconds each load run lasts (tests/bench/load.bench.ts); the issue's figures are for 60 s. */
+  benchLoadSeconds: Number(process.env.BENCH_LOAD_SECONDS ?? 60),
+  /** Which load runs to do (comma-separated labels, e.g. "search-visitor,list-researcher"); all by default. */
+  benchLoadRuns: process.env.BENCH_LOAD_RUNS ? process.env.BENCH_LOAD_RUNS.split(',') : null,
 };
 
 /** The environment for an app server started as a child process by a test (tests/support/server.ts), with overrides. */
