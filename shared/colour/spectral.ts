@@ -221,4 +221,8 @@ export function whiteChromaticity(illuminant: SpectralIlluminant, observer: Spec
   return { x: white.X / sum, y: white.Y / sum };
 }
 
+/** The method in one line, for answers and screens. */
+export const SPECTRAL_METHOD =
+  'CIE 015:2018 tables; ASTM E308 (weights by the ASTM E2022 method for 10 and 20 nm data, direct summation for 1 and 5 nm)';
+
 export const CIE_TABLES_SOURCE = `${cmfsData.source}; ${illuminantData.source}`;

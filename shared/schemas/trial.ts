@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import '../messages.ts';
 import { fastnessSchema } from './fastness.ts';
+import { GREY_GRADES } from '../compute/fastness.ts';
 import { DRY_MASS_BASES } from '../compute/moisture.ts';
 import { LOAD_METALS } from '../compute/chemistry.ts';
 import { pageQuery, paged } from './common.ts';
@@ -71,6 +72,16 @@ export const conditionedLabSchema = labSchema.extend({
   observer: z.enum(OBSERVERS).optional(),
 });
 export const colourDifferenceSchema = z.object({ reference: conditionedLabSchema, sample: conditionedLabSchema });
+
+/** Instrumental grey-scale grades (shared/compute/grey-scale.ts): the reference is the original or the undyed fabric. */
+export const greyScaleRequest = z.object({ reference: labSchema, sample: labSchema });
+const gradeResult = z.object({ grade: z.number(), step: z.enum(GREY_GRADES), difference: z.number() });
+export const greyScaleAnswer = z.object({
+  change: gradeResult,
+  staining: gradeResult,
+  sources: z.object({ change: z.string(), staining: z.string() }),
+});
+export type GreyScaleAnswer = z.infer<typeof greyScaleAnswer>;
 
 export { fastnessSchema };
 
