@@ -10,7 +10,11 @@ export const up: MigrationFn<MigrationContext> = async ({ context: { queryInterf
     id: { type: DataTypes.BIGINT.UNSIGNED, autoIncrement: true, primaryKey: true },
     kind: { type: DataTypes.STRING(16), allowNull: false },
     entityId: { type: DataTypes.INTEGER, allowNull: false },
-    createdAt: { type: DataTypes.DATE(3), allowNull: false, defaultValue: qi.sequelize.literal('CURRENT_TIMESTAMP(3)') },
+    createdAt: {
+      type: DataTypes.DATE(3),
+      allowNull: false,
+      defaultValue: qi.sequelize.literal('CURRENT_TIMESTAMP(3)'),
+    },
   });
   await qi.addIndex('search_changes', ['createdAt'], { name: 'search_changes_created' });
 };
