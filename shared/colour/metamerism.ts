@@ -29,7 +29,7 @@ export const UNDER_WORDS: Record<SpectralIlluminant, string> = {
   A: 'under warm tungsten museum lighting (A)',
   F2: 'under cool white fluorescent light (F2)',
   F11: 'under three-band fluorescent light (F11)',
-  'LED-B3': 'under white LED lighting (LED-B3)',
+  'LED-B3': 'under neutral white LED lighting (LED-B3)',
 };
 
 export type MetamerismRow = {

@@ -21,21 +21,8 @@ import cmfsData from '../data/cie/cmfs.json' with { type: 'json' };
 import illuminantData from '../data/cie/illuminants.json' with { type: 'json' };
 import type { Lab } from './convert.ts';
 
-export const SPECTRAL_ILLUMINANTS = ['D65', 'D50', 'A', 'F2', 'F11', 'LED-B3'] as const;
-export type SpectralIlluminant = (typeof SPECTRAL_ILLUMINANTS)[number];
-export const SPECTRAL_OBSERVERS = ['2', '10'] as const;
-export type SpectralObserver = (typeof SPECTRAL_OBSERVERS)[number];
-export const SPECTRAL_INTERVALS = [1, 5, 10, 20] as const;
-
-/** Words for each illuminant, for tables and sentences. */
-export const ILLUMINANT_WORDS: Record<SpectralIlluminant, string> = {
-  D65: 'daylight (D65)',
-  D50: 'print-viewing daylight (D50)',
-  A: 'tungsten lamp (A)',
-  F2: 'cool white fluorescent (F2)',
-  F11: 'narrow-band fluorescent (F11)',
-  'LED-B3': 'warm white LED (LED-B3)',
-};
+import type { SpectralIlluminant, SpectralObserver } from './spectral-words.ts';
+export * from './spectral-words.ts';
 
 /** A reflectance spectrum as fractions 0–1 at startNm, startNm + intervalNm, …. */
 export type Spectrum = { startNm: number; intervalNm: number; values: number[] };

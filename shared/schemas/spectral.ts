@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import '../messages.ts';
-import { SPECTRAL_ILLUMINANTS, SPECTRAL_OBSERVERS, SPECTRAL_INTERVALS } from '../colour/spectral.ts';
+import { SPECTRAL_ILLUMINANTS, SPECTRAL_OBSERVERS, SPECTRAL_INTERVALS } from '../colour/spectral-words.ts';
 
 // Reflectance spectra and what is computed from them (shared/colour/spectral.ts, metamerism.ts,
 // shared/compute/grey-scale.ts). A spectrum runs from 360–400 nm to 700–780 nm in steps of 1, 5,
