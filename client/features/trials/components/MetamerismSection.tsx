@@ -28,21 +28,22 @@ export function MetamerismSection({ m }: { m: Metamerism }) {
       <div className="max-w-2xl overflow-x-auto">
         <table className="w-full rounded-lg border border-rule bg-sheet text-sm" aria-describedby="metamerism-note">
           <caption className="mb-1 text-left text-sm text-ink-soft">
-            The pair under each illuminant ({m.observer}° observer); worst: {ILLUMINANT_WORDS[m.worst.illuminant]}
+            The pair under each illuminant ({m.observer}° observer): ΔE00 as seen, the index with the daylight
+            difference taken out, and how the reproduction looks. Worst: {ILLUMINANT_WORDS[m.worst.illuminant]}
           </caption>
           <thead className="bg-paper text-left text-ink-soft">
             <tr>
-              <th scope="col" className="px-3 py-1.5">
+              <th scope="col" className="px-2 py-1.5 sm:px-3">
                 Illuminant
               </th>
-              <th scope="col" className="px-3 py-1.5 text-right">
-                ΔE00 as seen
+              <th scope="col" className="px-2 py-1.5 sm:px-3 text-right">
+                ΔE00
               </th>
-              <th scope="col" className="px-3 py-1.5 text-right">
-                Daylight difference taken out
+              <th scope="col" className="px-2 py-1.5 sm:px-3 text-right">
+                Index
               </th>
-              <th scope="col" className="px-3 py-1.5">
-                The reproduction is
+              <th scope="col" className="px-2 py-1.5 sm:px-3">
+                Looks
               </th>
             </tr>
           </thead>
@@ -51,15 +52,15 @@ export function MetamerismSection({ m }: { m: Metamerism }) {
               const worst = r.illuminant === m.worst.illuminant;
               return (
                 <tr key={r.illuminant} className={`border-t border-rule ${worst ? 'bg-warn-tint' : ''}`}>
-                  <th scope="row" className="px-3 py-1.5 text-left font-normal">
+                  <th scope="row" className="px-2 py-1.5 sm:px-3 text-left font-normal">
                     {ILLUMINANT_WORDS[r.illuminant]}
                     {worst ? <strong className="ml-1 text-warn">worst</strong> : null}
                   </th>
-                  <td className="px-3 py-1.5 text-right font-mono">{fmt(r.deltaE00, 2)}</td>
-                  <td className="px-3 py-1.5 text-right font-mono">
+                  <td className="px-2 py-1.5 sm:px-3 text-right font-mono">{fmt(r.deltaE00, 2)}</td>
+                  <td className="px-2 py-1.5 sm:px-3 text-right font-mono">
                     {r.illuminant === m.referenceIlluminant ? 'reference' : fmt(r.corrected, 2)}
                   </td>
-                  <td className="px-3 py-1.5">{r.words.length ? r.words.join(', ') : '—'}</td>
+                  <td className="px-2 py-1.5 sm:px-3">{r.words.length ? r.words.join(', ') : '—'}</td>
                 </tr>
               );
             })}

@@ -14,9 +14,9 @@ const STYLES = [
   { stroke: 'var(--color-danger)', dash: '8 3 2 3' },
   { stroke: 'var(--color-ok)', dash: '1 2' },
 ];
-const W = 560,
-  H = 260,
-  M = { left: 48, right: 12, top: 12, bottom: 40 };
+const W = 480,
+  H = 270,
+  M = { left: 50, right: 12, top: 12, bottom: 44 };
 
 const points = (s: SpectrumSeries['spectrum']) =>
   s.values.map((v, i) => ({ nm: s.startNm + i * s.intervalNm, pct: v * 100 }));
@@ -41,7 +41,7 @@ export function SpectrumChart({ series, title }: { series: SpectrumSeries[]; tit
   const range = (s: SpectrumSeries['spectrum']) =>
     `${s.startNm}–${s.startNm + s.intervalNm * (s.values.length - 1)} nm every ${s.intervalNm} nm`;
   return (
-    <figure className="max-w-2xl">
+    <figure className="max-w-xl">
       <svg
         viewBox={`0 0 ${W} ${H}`}
         className="h-auto w-full rounded-lg border border-rule bg-sheet"
@@ -54,7 +54,7 @@ export function SpectrumChart({ series, title }: { series: SpectrumSeries[]; tit
           Reflectance in percent against wavelength in nanometres:{' '}
           {series.map((s) => `${s.label}, ${range(s.spectrum)}`).join('; ')}.
         </desc>
-        <g fontSize="11" fill="var(--color-ink-soft)">
+        <g fontSize="13" fill="var(--color-ink-soft)">
           {yTicks.map((t) => (
             <g key={`y${t}`}>
               <line
@@ -73,7 +73,7 @@ export function SpectrumChart({ series, title }: { series: SpectrumSeries[]; tit
           {xTicks.map((t) => (
             <g key={`x${t}`}>
               <line x1={x(t)} x2={x(t)} y1={H - M.bottom} y2={H - M.bottom + 4} stroke="var(--color-ink-soft)" />
-              <text x={x(t)} y={H - M.bottom + 16} textAnchor="middle">
+              <text x={x(t)} y={H - M.bottom + 18} textAnchor="middle">
                 {t}
               </text>
             </g>
@@ -82,7 +82,7 @@ export function SpectrumChart({ series, title }: { series: SpectrumSeries[]; tit
           <text x={(M.left + W - M.right) / 2} y={H - 6} textAnchor="middle">
             Wavelength (nm)
           </text>
-          <text transform={`translate(12 ${(M.top + H - M.bottom) / 2}) rotate(-90)`} textAnchor="middle">
+          <text transform={`translate(14 ${(M.top + H - M.bottom) / 2}) rotate(-90)`} textAnchor="middle">
             Reflectance (%)
           </text>
         </g>
