@@ -91,3 +91,34 @@ describe('spectral readings on the trial page', () => {
     await page.close();
   });
 });
+
+describe('fastness grades computed from readings', () => {
+  it('shows the grade computed from before/after readings beside the assessor’s', async () => {
+    const dyer = await User.findOne({ where: { email: 'dyer@demo.test' }, rejectOnEmpty: true });
+    const trial = await withTrialCode((transaction) =>
+      createTrial({ actor: dyer, transaction, input: { dryMassG: 10 } }),
+    );
+    const page = await suite.browser.context.newPage();
+    await signInAs(page, suite.server.url, 'dyer@demo.test');
+    await page.goto(`${suite.server.url}/trials/${trial.id}`);
+    await page.getByRole('button', { name: 'Record grades' }).click();
+    const grades = page.getByRole('form', { name: 'Fastness grades' });
+    await grades.getByLabel('Washing: change in colour', { exact: true }).selectOption('3-4');
+    // A neutral pair 3.4 apart: grade 3 by ISO 105-A05 (formula recalled from memory), at the
+    // ISO 105-A02 nominal difference of grade 3 (tests/reference/fastness-scales.json).
+    await grades.getByLabel('Before the test (washing, change in colour)').fill('60 0 0');
+    await grades.getByLabel('After the test (washing, change in colour)').fill('56.6 0');
+    await grades.getByRole('button', { name: 'Save grades' }).click();
+    const after = grades.getByLabel('After the test (washing, change in colour)');
+    await expect.poll(() => after.getAttribute('aria-invalid')).toBe('true');
+    expect(await grades.innerText()).toMatch(/Enter b\* as a number from −200 to 200/);
+    await after.fill('56.6 0 0');
+    await grades.getByRole('button', { name: 'Save grades' }).click();
+    await grades.waitFor({ state: 'detached' });
+    const computed = page.getByTestId('computed-grade').first();
+    await computed.waitFor();
+    expect(await computed.textContent()).toMatch(/computed 3, 3\.00, ISO 105-A05/);
+    expect(await page.getByRole('region', { name: 'Fastness' }).innerText()).toMatch(/change 3-4/);
+    await page.close();
+  });
+});
