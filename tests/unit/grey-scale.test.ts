@@ -56,3 +56,22 @@ describe('grey-scale formulas', () => {
     expect(g.staining).toEqual({ grade: 5, step: '5', difference: 0 });
   });
 });
+
+describe('fastness records with readings', () => {
+  it('take before/after readings alone or beside the grade, and name a bad reading beside its field', async () => {
+    const { fastnessSchema } = await import('../../shared/schemas/fastness.ts');
+    const pair = { before: grey(60), after: grey(56.6) };
+    expect(fastnessSchema.safeParse({ washing: { readings: { change: pair } } }).success).toBe(true);
+    expect(fastnessSchema.safeParse({ rubbingDry: { staining: '4', readings: { staining: pair } } }).success).toBe(
+      true,
+    );
+    const bad = fastnessSchema.safeParse({
+      washing: { change: '4', readings: { change: { ...pair, after: { L: 120, a: 0, b: 0 } } } },
+    });
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues[0]).toMatchObject({
+      path: ['washing', 'readings', 'change', 'after', 'L'],
+      message: 'L* is 0–100',
+    });
+  });
+});
