@@ -36,8 +36,8 @@ export type MetamerismRow = {
   illuminant: SpectralIlluminant;
   /** ΔE00 of the pair as they are under this illuminant. */
   deltaE00: number;
-  /** The same with the reference-illuminant difference taken out (0 under the reference). */
-  corrected: number;
+  /** The same with the reference-illuminant difference taken out (0 under the reference; null when it cannot be). */
+  corrected: number | null;
   /** How the sample differs under this illuminant ("darker", "redder"). */
   words: string[];
 };
@@ -51,11 +51,10 @@ export function metamerism(
   const ref = SPECTRAL_ILLUMINANTS.map((i) => spectrumToXyz(reference, i, observer));
   const smp = SPECTRAL_ILLUMINANTS.map((i) => spectrumToXyz(sample, i, observer));
   const r0 = SPECTRAL_ILLUMINANTS.indexOf(REFERENCE_ILLUMINANT);
-  const factor = {
-    X: ref[r0].XYZ.X / smp[r0].XYZ.X,
-    Y: ref[r0].XYZ.Y / smp[r0].XYZ.Y,
-    Z: ref[r0].XYZ.Z / smp[r0].XYZ.Z,
-  };
+  // A sample with a zero tristimulus value under the reference (a perfect black) cannot be corrected: no index then.
+  const s0 = smp[r0].XYZ;
+  const correctable = s0.X > 0 && s0.Y > 0 && s0.Z > 0;
+  const factor = { X: ref[r0].XYZ.X / s0.X, Y: ref[r0].XYZ.Y / s0.Y, Z: ref[r0].XYZ.Z / s0.Z };
   const rows: MetamerismRow[] = SPECTRAL_ILLUMINANTS.map((illuminant, i) => {
     const white = ref[i].white;
     const a = xyzToLabWith(ref[i].XYZ, white);
@@ -66,21 +65,21 @@ export function metamerism(
     return {
       illuminant,
       deltaE00: report.deltaE00,
-      corrected: i === r0 ? 0 : differenceReport(a, corrected, bands).deltaE00,
+      corrected: i === r0 ? 0 : correctable ? differenceReport(a, corrected, bands).deltaE00 : null,
       words: report.words,
     };
   });
   const worst = rows.reduce((w, r) => (r.deltaE00 > w.deltaE00 ? r : w));
   const tests = rows.filter((r) => r.illuminant !== REFERENCE_ILLUMINANT);
-  const indexRow = tests.reduce((w, r) => (r.corrected > w.corrected ? r : w));
+  const indexRow = correctable ? tests.reduce((w, r) => (r.corrected! > w.corrected! ? r : w)) : null;
   return {
     observer,
     referenceIlluminant: REFERENCE_ILLUMINANT,
     byIlluminant: rows,
     worst: { illuminant: worst.illuminant, deltaE00: worst.deltaE00 },
     /** The largest corrected difference over the test illuminants, and where. */
-    index: indexRow.corrected,
-    indexIlluminant: indexRow.illuminant,
+    index: indexRow ? indexRow.corrected! : null,
+    indexIlluminant: indexRow ? indexRow.illuminant : null,
     summary: metamerismWords(rows, bands),
   };
 }

@@ -97,7 +97,7 @@ export type SpectrumAnswer = z.infer<typeof spectrumAnswer>;
 export const metamerismRow = z.object({
   illuminant: spectralIlluminant,
   deltaE00: z.number(),
-  corrected: z.number(),
+  corrected: z.number().nullable(),
   words: z.array(z.string()),
 });
 export const metamerismAnswer = z.object({
@@ -105,8 +105,8 @@ export const metamerismAnswer = z.object({
   referenceIlluminant: spectralIlluminant,
   byIlluminant: z.array(metamerismRow),
   worst: z.object({ illuminant: spectralIlluminant, deltaE00: z.number() }),
-  index: z.number(),
-  indexIlluminant: spectralIlluminant,
+  index: z.number().nullable(),
+  indexIlluminant: spectralIlluminant.nullable(),
   summary: z.string(),
 });
 export type MetamerismAnswer = z.infer<typeof metamerismAnswer>;

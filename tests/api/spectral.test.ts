@@ -107,6 +107,13 @@ describe('POST /api/colour/metamerism', () => {
     expect(res.body.index).toBeGreaterThan(0);
     expect(res.body.summary).toMatch(/daylight/);
   });
+  it('answers a perfect black sample without an index rather than failing', async () => {
+    const black = { startNm: 400, intervalNm: 10, values: Array(31).fill(0) };
+    const res = await post('/api/colour/metamerism', { reference: rose, sample: black }).expect(200);
+    expect(res.body.index).toBeNull();
+    expect(res.body.byIlluminant[1].corrected).toBeNull();
+    expect(res.body.worst.deltaE00).toBeGreaterThan(10);
+  });
   it('refuses a bad sample spectrum beside its field', async () => {
     const res = await post('/api/colour/metamerism', { reference: rose, sample: { ...rose, startNm: 300 } }).expect(
       400,

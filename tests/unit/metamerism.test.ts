@@ -55,7 +55,7 @@ describe('metamerism', () => {
     const m = metamerism(rose, metamericPair(), '10');
     const day = m.byIlluminant.find((r) => r.illuminant === 'D65')!;
     expect(day.deltaE00).toBeLessThan(1e-6);
-    for (const r of m.byIlluminant) expect(Math.abs(r.corrected - r.deltaE00)).toBeLessThan(1e-6);
+    for (const r of m.byIlluminant) expect(Math.abs(r.corrected! - r.deltaE00)).toBeLessThan(1e-6);
     expect(m.worst.illuminant).not.toBe('D65');
     expect(m.worst.deltaE00).toBeGreaterThan(1);
     expect(m.index).toBeCloseTo(m.worst.deltaE00, 6);

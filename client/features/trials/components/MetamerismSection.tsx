@@ -68,10 +68,13 @@ export function MetamerismSection({ m }: { m: Metamerism }) {
         </table>
       </div>
       <p id="metamerism-note" className="text-xs text-ink-faint">
-        Metamerism index {fmt(m.index, 2)} (ΔE00, under {ILLUMINANT_WORDS[m.indexIlluminant]}): the difference under a
-        test light after the pair's difference in daylight ({m.referenceIlluminant}) is taken out by the multiplicative
-        correction of the tristimulus values (CIE 015; the correction recalled from memory). XYZ from the spectra by the
-        ASTM E308 method with the CIE 015:2018 tables.
+        Metamerism index{' '}
+        {m.index != null && m.indexIlluminant
+          ? `${fmt(m.index, 2)} (ΔE00, under ${ILLUMINANT_WORDS[m.indexIlluminant]})`
+          : '— (the reproduction reflects nothing in part of the spectrum, so it cannot be corrected)'}
+        : the difference under a test light after the pair's difference in daylight ({m.referenceIlluminant}) is taken
+        out by the multiplicative correction of the tristimulus values (CIE 015; the correction recalled from memory).
+        XYZ from the spectra by the ASTM E308 method with the CIE 015:2018 tables.
       </p>
     </section>
   );
