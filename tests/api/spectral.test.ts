@@ -77,6 +77,14 @@ describe('POST /api/colour/spectrum', () => {
     expect(res.body.error.details.fields[field][0]).toMatch(message);
   });
 
+  it('takes the unit when given: a black at 1 % is not a white at 1.0', async () => {
+    const ones = { startNm: 400, intervalNm: 10, values: Array(31).fill(1) };
+    const white = await post('/api/colour/spectrum', { spectrum: ones }).expect(200);
+    const black = await post('/api/colour/spectrum', { spectrum: { ...ones, unit: 'percent' } }).expect(200);
+    expect(white.body.XYZ.Y).toBeCloseTo(100, 9);
+    expect(black.body.XYZ.Y).toBeCloseTo(1, 9);
+  });
+
   it('never answers 5xx on malformed bodies', async () => {
     for (const body of [
       null,

@@ -40,6 +40,7 @@ function MeasurementForm({ trialId }: { trialId: number }) {
     spectrum: '',
     startNm: '',
     intervalNm: '',
+    unit: '',
   });
   const add = useAddMeasurement(trialId);
   const { formRef, errors, check, fromServer, show, under } = useFormErrors();
@@ -62,7 +63,7 @@ function MeasurementForm({ trialId }: { trialId: number }) {
             intervalNm: d.intervalNm.trim() ? Number(d.intervalNm) : undefined,
           });
           if (!read.ok) return show({ spectrum: [read.message] });
-          spectrum = read.spectrum;
+          spectrum = { ...read.spectrum, unit: (d.unit || undefined) as 'fraction' | 'percent' | undefined };
         }
         const body: MeasurementInput = {
           spectrum,
@@ -137,6 +138,18 @@ function MeasurementForm({ trialId }: { trialId: number }) {
           }}
         />
       </label>
+      <Select
+        className="sm:col-span-2"
+        label="Values in"
+        value={d.unit}
+        onChange={set('unit')}
+        options={[
+          { value: '', label: 'fractions or % (read from the values)' },
+          { value: 'fraction', label: 'fractions 0–1' },
+          { value: 'percent', label: 'percent' },
+        ]}
+        error={errors['spectrum.unit']}
+      />
       <Field
         label="First wavelength"
         unit="nm"
