@@ -1,5 +1,6 @@
 import { accessionKey, accessionSortKey } from '../../shared/accession.ts';
 import type { PhotoColourFacts } from '../../shared/schemas/photo.ts';
+import type { Spectrum as StoredSpectrum } from '../../shared/colour/spectral.ts';
 import {
   DataTypes,
   Model,
@@ -131,6 +132,8 @@ export class ColourMeasurement extends Model<
   declare label: string | null;
   declare source: CreationOptional<string>;
   declare takenOn: string | null;
+  /** The reflectance spectrum, values as fractions 0–1 (migration 0026); L, a, b are then computed from it. */
+  declare spectrum: CreationOptional<StoredSpectrum | null>;
   declare createdById: number | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -279,6 +282,7 @@ export function initCatalogueModels(sequelize: Sequelize) {
       label: DataTypes.STRING(160),
       source: { type: DataTypes.STRING(20), allowNull: false, defaultValue: 'instrument' },
       takenOn: DataTypes.DATEONLY,
+      spectrum: { type: DataTypes.JSON, allowNull: true },
       createdById: fk(),
       ...stamps(),
     },

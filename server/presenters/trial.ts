@@ -265,4 +265,5 @@ export const presentMeasurement = (m: ColourMeasurement): MeasurementView => ({
   label: m.label,
   takenOn: m.takenOn,
   source: m.source,
+  spectrum: m.spectrum ?? null,
 });

@@ -27,6 +27,24 @@ import {
   type PieceInput,
 } from './factories.ts';
 import { seedDemoPhotos } from './demo-photos.ts';
+import { spectrumToLab, type Spectrum } from '../../shared/colour/spectral.ts';
+
+// Invented reflectance spectra (400–700 nm every 10 nm, fractions) of the purple ground and its reproduction.
+const PURPLE_GROUND = [
+  0.1041, 0.1145, 0.1225, 0.1255, 0.1225, 0.1145, 0.1041, 0.094, 0.0861, 0.0809, 0.078, 0.0766, 0.076, 0.0758, 0.0758,
+  0.076, 0.0762, 0.0767, 0.0777, 0.0796, 0.0834, 0.0905, 0.1041, 0.1291, 0.1732, 0.2451, 0.3483, 0.4725, 0.5935, 0.6896,
+  0.7543,
+];
+const PURPLE_SWATCH = [
+  0.0839, 0.0914, 0.101, 0.1109, 0.1186, 0.1215, 0.1186, 0.111, 0.101, 0.0915, 0.0841, 0.0793, 0.0768, 0.0761, 0.0767,
+  0.0787, 0.0825, 0.089, 0.0986, 0.1106, 0.1228, 0.1328, 0.1397, 0.144, 0.1464, 0.1477, 0.1484, 0.1487, 0.1489, 0.149,
+  0.1491,
+];
+/** A reading taken as a spectrum: the spectrum and its L*a*b* for D65/10° (the demo readings' conditions). */
+const spectral = (values: number[]) => {
+  const spectrum: Spectrum = { startNm: 400, intervalNm: 10, values };
+  return { ...spectrumToLab(spectrum, 'D65', '10').lab, spectrum };
+};
 
 /** The invented demo scenario: the Calderwick museum and the Weldfold dye studio. */
 export const DEMO_PASSWORD = 'tinctoria-demo';
@@ -465,8 +483,17 @@ export async function seedDemo(t: Transaction) {
     b: number;
     label: string;
     illuminant?: string;
+    spectrum?: Spectrum | null;
   }) => makeMeasurement({ takenOn: '2024-04-02', createdById: users.researcher.id, ...attrs }, t);
-  const grounds = [
+  type Ground = {
+    label: string;
+    L: number;
+    a: number;
+    b: number;
+    spectrum?: Spectrum;
+    result: Array<{ L: number; a: number; b: number; spectrum?: Spectrum }>;
+  };
+  const grounds: Ground[] = [
     {
       label: 'madder red ground',
       L: 42.5,
@@ -478,10 +505,12 @@ export async function seedDemo(t: Transaction) {
       ],
     },
     { label: 'madder pink ground', L: 68.2, a: 24.5, b: 10.1, result: [{ L: 66.9, a: 26.0, b: 11.2 }] },
-    { label: 'madder purple ground', L: 35.4, a: 14.2, b: -6.8, result: [{ L: 37.0, a: 12.5, b: -4.9 }] },
+    // The purple ground and its swatch were read as reflectance spectra (invented smooth curves: a blue bump
+    // and a red rise at different places), their L*a*b* computed from them: close in daylight, apart under F11 and A.
+    { label: 'madder purple ground', ...spectral(PURPLE_GROUND), result: [spectral(PURPLE_SWATCH)] },
   ];
   for (const [i, g] of grounds.entries()) {
-    const target = await reading({ pieceId: p12.id, L: g.L, a: g.a, b: g.b, label: g.label });
+    const target = await reading({ pieceId: p12.id, L: g.L, a: g.a, b: g.b, label: g.label, spectrum: g.spectrum });
     await trials[i].update({ targetMeasurementId: target.id }, { transaction: t });
     for (const r of g.result) await reading({ trialId: trials[i].id, ...r, label: `${trials[i].code} swatch` });
   }

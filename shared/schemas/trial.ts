@@ -1,12 +1,14 @@
 import { z } from 'zod';
 import '../messages.ts';
 import { fastnessSchema } from './fastness.ts';
+import { GREY_GRADES } from '../compute/fastness.ts';
 import { DRY_MASS_BASES } from '../compute/moisture.ts';
 import { LOAD_METALS } from '../compute/chemistry.ts';
 import { pageQuery, paged } from './common.ts';
 import { PHOTO_VIEWS } from './photo.ts';
 import { chemicalSchema } from './reference.ts';
 import { ILLUMINANTS, OBSERVERS } from '../colour/conditions.ts';
+import { metamerismAnswer, spectrumSchema } from './spectral.ts';
 
 // Shared by the server's validation and the client's forms; types come from z.infer.
 
@@ -71,6 +73,16 @@ export const conditionedLabSchema = labSchema.extend({
   observer: z.enum(OBSERVERS).optional(),
 });
 export const colourDifferenceSchema = z.object({ reference: conditionedLabSchema, sample: conditionedLabSchema });
+
+/** Instrumental grey-scale grades (shared/compute/grey-scale.ts): the reference is the original or the undyed fabric. */
+export const greyScaleRequest = z.object({ reference: labSchema, sample: labSchema });
+const gradeResult = z.object({ grade: z.number(), step: z.enum(GREY_GRADES), difference: z.number() });
+export const greyScaleAnswer = z.object({
+  change: gradeResult,
+  staining: gradeResult,
+  sources: z.object({ change: z.string(), staining: z.string() }),
+});
+export type GreyScaleAnswer = z.infer<typeof greyScaleAnswer>;
 
 export { fastnessSchema };
 
@@ -196,15 +208,30 @@ export const substitutionSchema = substitutionFields
   });
 export type SubstitutionInput = z.input<typeof substitutionSchema>;
 
-export const measurementSchema = labSchema.extend({
-  illuminant: z.enum(ILLUMINANTS).default('D65'),
-  observer: z.enum(OBSERVERS).default('10'),
-  geometry: z.enum(GEOMETRIES).nullable().optional(),
-  specular: z.enum(['SCI', 'SCE']).nullable().optional(),
-  instrument: text(120),
-  label: text(160),
-  takenOn: z.iso.date({ error: 'Enter a date such as 2024-03-12' }).nullable().optional(),
-});
+/**
+ * A reading: L*a*b* typed in, or a reflectance spectrum from which the server computes them for
+ * the reading's illuminant and observer (any L*a*b* sent beside a spectrum are not used).
+ */
+export const measurementSchema = z
+  .object({
+    L: labSchema.shape.L.optional(),
+    a: labSchema.shape.a.optional(),
+    b: labSchema.shape.b.optional(),
+    spectrum: spectrumSchema.nullable().optional(),
+    illuminant: z.enum(ILLUMINANTS).default('D65'),
+    observer: z.enum(OBSERVERS).default('10'),
+    geometry: z.enum(GEOMETRIES).nullable().optional(),
+    specular: z.enum(['SCI', 'SCE']).nullable().optional(),
+    instrument: text(120),
+    label: text(160),
+    takenOn: z.iso.date({ error: 'Enter a date such as 2024-03-12' }).nullable().optional(),
+  })
+  .superRefine((m, ctx) => {
+    if (m.spectrum != null) return;
+    if (m.L == null) ctx.addIssue({ code: 'custom', path: ['L'], message: 'Enter L* as a number from 0 to 100' });
+    if (m.a == null) ctx.addIssue({ code: 'custom', path: ['a'], message: 'Enter a* as a number from −200 to 200' });
+    if (m.b == null) ctx.addIssue({ code: 'custom', path: ['b'], message: 'Enter b* as a number from −200 to 200' });
+  });
 export type MeasurementInput = z.input<typeof measurementSchema>;
 
 export const childParams = z.object({ id, childId: id });
@@ -267,6 +294,13 @@ export const resolvedColourSchema = z.object({
   readings: nnum,
   setAside: z.object({ ...lab, ...conditions, source: z.literal('image-estimate') }).nullable(),
 });
+const storedSpectrumSchema = z.object({ startNm: num, intervalNm: num, values: z.array(num) });
+const trialMetamerismSchema = metamerismAnswer.extend({
+  reference: z.object({ label: z.string(), spectrum: storedSpectrumSchema }),
+  sample: z.object({ label: z.string(), readings: num, spectrum: storedSpectrumSchema }),
+});
+export type TrialMetamerism = z.infer<typeof trialMetamerismSchema>;
+export type StoredSpectrum = z.infer<typeof storedSpectrumSchema>;
 /** trialColour (server/services/trials/colour.ts): target, result, their difference and the other comparisons. */
 export const trialColourSchema = z.object({
   target: resolvedColourSchema.nullable(),
@@ -295,6 +329,8 @@ export const trialColourSchema = z.object({
     }),
   ),
   bandsSource: z.string(),
+  /** Both sides measured as spectra: the pair under every illuminant (shared/colour/metamerism.ts). */
+  metamerism: trialMetamerismSchema.nullable(),
 });
 
 export const measurementOutSchema = z.object({
@@ -308,6 +344,7 @@ export const measurementOutSchema = z.object({
   label: nstr,
   takenOn: nstr,
   source: z.string(),
+  spectrum: storedSpectrumSchema.nullable(),
 });
 
 export const trialSummarySchema = z.object({

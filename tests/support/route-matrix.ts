@@ -451,6 +451,18 @@ export const routeMatrix: MatrixRow[] = [
     body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } },
   }),
   row('GET /api/colour/verdict-bands', everyone('2xx')),
+  row('POST /api/colour/spectrum', everyone('2xx'), {
+    body: { spectrum: { startNm: 400, intervalNm: 20, values: Array(16).fill(0.5) }, illuminant: 'A', observer: '10' },
+  }),
+  row('POST /api/colour/metamerism', everyone('2xx'), {
+    body: {
+      reference: { startNm: 400, intervalNm: 20, values: Array(16).fill(0.5) },
+      sample: { startNm: 400, intervalNm: 20, values: Array(16).fill(0.4) },
+    },
+  }),
+  row('POST /api/colour/grey-scale', everyone('2xx'), {
+    body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } },
+  }),
   row('PUT /api/colour/verdict-bands', adminOnly, {
     body: { bands: { match: 1, close: 2, near: 4 }, source: DEFAULT_BANDS_SOURCE },
   }),

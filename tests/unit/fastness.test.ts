@@ -15,7 +15,7 @@ const staining = scales.filter((s) => s.scale === 'grey scale for staining');
 const blue = scales.filter((s) => s.scale.startsWith('blue wool'));
 
 describe('fastness grades', () => {
-  // Source: tests/reference/fastness-scales.json (ISO 105-A02, ISO 105-A03, ISO 105-B02; recalled from memory).
+  // Source: tests/reference/fastness-scales.json (ISO 105-A02 read in a stored preview of the standard; ISO 105-A03 and ISO 105-B02 recalled from memory).
   it('has the grey-scale steps 5 … 1 with half grades and their numeric values', () => {
     expect([...GREY_GRADES]).toEqual(change.map((s) => s.grade));
     for (const s of change) expect(gradeValue(s.grade as (typeof GREY_GRADES)[number])).toBe(s.grade_numeric);

@@ -19,6 +19,7 @@ import * as m0022jobLease from './0022-job-lease.ts';
 import * as m0023searchChanges from './0023-search-changes.ts';
 import * as m0024importPreviews from './0024-import-previews.ts';
 import * as m0025pieceListLoad from './0025-piece-list-load.ts';
+import * as m0026spectrum from './0026-measurement-spectrum.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -43,4 +44,5 @@ export const migrations: Migration[] = [
   { name: '0023-search-changes', ...m0023searchChanges },
   { name: '0024-import-previews', ...m0024importPreviews },
   { name: '0025-piece-list-load', ...m0025pieceListLoad },
+  { name: '0026-measurement-spectrum', ...m0026spectrum },
 ];

@@ -12,6 +12,7 @@ import exportGroup from './export.ts';
 import reference from './reference.ts';
 import vocabularies from './vocabularies.ts';
 import trials from './trials.ts';
+import spectral from './spectral.ts';
 import batches from './batches.ts';
 import series from './series.ts';
 import pieces from './pieces.ts';
@@ -37,6 +38,7 @@ export const groups: RouteGroup[] = [
   reference,
   vocabularies,
   trials,
+  spectral,
   batches,
   series,
   search,

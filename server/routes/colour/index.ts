@@ -1,10 +1,21 @@
 import { Router } from 'express';
 import {
   colourDifferenceSchema,
+  greyScaleRequest,
   verdictBandsInput,
   type ColourDifferenceAnswer,
+  type GreyScaleAnswer,
 } from '../../../shared/schemas/trial.ts';
+import {
+  metamerismRequest,
+  spectrumRequest,
+  type MetamerismAnswer,
+  type SpectrumAnswer,
+} from '../../../shared/schemas/spectral.ts';
 import { differenceReport } from '../../../shared/colour/index.ts';
+import { metamerism } from '../../../shared/colour/metamerism.ts';
+import { SPECTRAL_METHOD, spectrumToLab, toFractions } from '../../../shared/colour/spectral.ts';
+import { GREY_SCALE_SOURCES, greyScaleGrades } from '../../../shared/compute/grey-scale.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, unprocessable } from '../../http/errors.ts';
 import { parseBody } from '../../http/validate.ts';
@@ -58,4 +69,32 @@ colourRouter.put('/verdict-bands', requireUser, async (req, res) => {
   const input = parseBody(verdictBandsInput, req);
   if (!can(actorOf(req), 'reference:manage')) throw forbidden('Only admins change the verdict bands.');
   res.json(await sequelize.transaction((transaction) => setVerdictBands(input.bands, input.source, transaction)));
+});
+
+/** XYZ and L*a*b* of a reflectance spectrum under one illuminant and observer (a check tool: anyone may ask). */
+colourRouter.post('/spectrum', (req, res) => {
+  const { spectrum, illuminant, observer } = parseBody(spectrumRequest, req);
+  const { XYZ, white, lab } = spectrumToLab(
+    { ...spectrum, values: toFractions(spectrum.values, spectrum.unit) },
+    illuminant,
+    observer,
+  );
+  const answer: SpectrumAnswer = { illuminant, observer, XYZ, white, lab, method: SPECTRAL_METHOD };
+  res.json(answer);
+});
+
+/** ΔE00 of a pair of spectra under each illuminant, the worst, and the metamerism index. */
+colourRouter.post('/metamerism', async (req, res) => {
+  const { reference, sample, observer } = parseBody(metamerismRequest, req);
+  const { bands } = await verdictBands();
+  const fractions = (s: typeof reference) => ({ ...s, values: toFractions(s.values, s.unit) });
+  const answer: MetamerismAnswer = metamerism(fractions(reference), fractions(sample), observer, bands);
+  res.json(answer);
+});
+
+/** Instrumental grey-scale grades for change in colour (ISO 105-A05) and staining (ISO 105-A04). */
+colourRouter.post('/grey-scale', (req, res) => {
+  const { reference, sample } = parseBody(greyScaleRequest, req);
+  const answer: GreyScaleAnswer = { ...greyScaleGrades(reference, sample), sources: GREY_SCALE_SOURCES };
+  res.json(answer);
 });

@@ -1,5 +1,7 @@
 import { Op } from 'sequelize';
 import { differenceReport } from '../../../shared/colour/index.ts';
+import { metamerism } from '../../../shared/colour/metamerism.ts';
+import { spectrumToLab, type Spectrum } from '../../../shared/colour/spectral.ts';
 import {
   conditionsText,
   IMAGE_ESTIMATE_CONDITIONS,
@@ -11,6 +13,7 @@ import {
 import { ILLUMINANTS } from '../../../shared/schemas/trial.ts';
 import { ColourMeasurement, PaletteColour, Photo, Region, type Trial } from '../../models/index.ts';
 import { verdictBands } from '../settings.ts';
+import type { Bands } from '../../../shared/colour/difference.ts';
 
 export type { ColourSource };
 type Lab = { L: number; a: number; b: number };
@@ -55,14 +58,21 @@ const estimateOf = (pc: PaletteColour): Estimate => ({
 const byConditions = (x: ViewingConditions, y: ViewingConditions) =>
   ILLUMINANTS.indexOf(x.illuminant) - ILLUMINANTS.indexOf(y.illuminant) || Number(y.observer) - Number(x.observer);
 
-const reading = (m: ColourMeasurement, label: string, setAside: Estimate | null = null): ResolvedColour => ({
-  ...lab(m),
-  ...conditionsOf(m),
-  source: 'instrument',
-  label: m.label ?? label,
-  readings: 1,
-  setAside,
-});
+/** The spectrum behind a resolved reading of the original, kept beside it (never sent as such). */
+const spectrumOf = new WeakMap<ResolvedColour, Spectrum>();
+
+const reading = (m: ColourMeasurement, label: string, setAside: Estimate | null = null): ResolvedColour => {
+  const r: ResolvedColour = {
+    ...lab(m),
+    ...conditionsOf(m),
+    source: 'instrument',
+    label: m.label ?? label,
+    readings: 1,
+    setAside,
+  };
+  if (m.spectrum) spectrumOf.set(r, m.spectrum);
+  return r;
+};
 const estimated = (pc: PaletteColour, label: string): ResolvedColour => ({
   ...estimateOf(pc),
   label,
@@ -224,20 +234,93 @@ export function missingReading(target: ResolvedColour, results: ResolvedColour[]
   return { illuminant: target.illuminant, observer: target.observer, message };
 }
 
+/** A reading of the original measured as a spectrum, computed for other conditions. */
+function underConditions(t: ResolvedColour, spectrum: Spectrum, c: ViewingConditions): ResolvedColour {
+  const computed: ResolvedColour = {
+    ...t,
+    ...spectrumToLab(spectrum, c.illuminant, c.observer).lab,
+    illuminant: c.illuminant,
+    observer: c.observer,
+    label: `${t.label}, computed from its spectrum for ${conditionsText(c)}`,
+  };
+  spectrumOf.set(computed, spectrum);
+  return computed;
+}
+
+/**
+ * The swatch under exactly the target's conditions when any of its readings is a spectrum: the
+ * mean of its spectral readings computed for those conditions and of its plain readings taken
+ * under them. Null when it has no spectral reading (the plain matching then applies).
+ */
+function fromSpectra(t: ViewingConditions, rows: ColourMeasurement[]): ResolvedColour | null {
+  const spectral = rows.filter((r) => r.spectrum);
+  if (!spectral.length) return null;
+  const plain = rows.filter((r) => !r.spectrum && r.illuminant === t.illuminant && r.observer === t.observer);
+  const labs = [...spectral.map((r) => spectrumToLab(r.spectrum!, t.illuminant, t.observer).lab), ...plain.map(lab)];
+  const mean = (k: 'L' | 'a' | 'b') => labs.reduce((s, x) => s + x[k], 0) / labs.length;
+  const n = labs.length;
+  const from = `${spectral.length === 1 ? 'a spectrum' : `${spectral.length} spectra`} computed for ${conditionsText(t)}`;
+  return {
+    L: mean('L'),
+    a: mean('a'),
+    b: mean('b'),
+    illuminant: t.illuminant,
+    observer: t.observer,
+    source: 'instrument',
+    readings: n,
+    label:
+      n === 1
+        ? `instrument reading of the swatch (${from})`
+        : `mean of ${n} instrument readings of the swatch (${from})`,
+    setAside: null,
+  };
+}
+
+/**
+ * The original's spectrum against the swatch's under every illuminant: the swatch's newest
+ * spectral reading, averaged with the others on the same wavelengths.
+ */
+function pairMetamerism(target: ResolvedColour, reference: Spectrum, rows: ColourMeasurement[], bands: Bands) {
+  const spectral = rows.filter((r) => r.spectrum);
+  if (!spectral.length) return null;
+  const newest = spectral[spectral.length - 1].spectrum!;
+  const same = spectral
+    .map((r) => r.spectrum!)
+    .filter(
+      (s) =>
+        s.startNm === newest.startNm && s.intervalNm === newest.intervalNm && s.values.length === newest.values.length,
+    );
+  const sample: Spectrum = {
+    ...newest,
+    values: newest.values.map((_, i) => same.reduce((sum, s) => sum + s.values[i], 0) / same.length),
+  };
+  return {
+    ...metamerism(reference, sample, target.observer, bands),
+    reference: { label: target.label, spectrum: reference },
+    sample: {
+      label:
+        same.length === 1 ? 'spectral reading of the swatch' : `mean of ${same.length} spectral readings of the swatch`,
+      readings: same.length,
+      spectrum: sample,
+    },
+  };
+}
+
 /**
  * Target, result and their difference with the verdict from the bands in force. The primary
  * comparison is under the chosen target's illuminant; `comparisons` also gives one under every
  * other illuminant both sides were read under (useful for judging metamerism).
  */
 export async function trialColour(trial: Trial) {
-  const [targets, results, { bands, source }] = await Promise.all([
+  const [targets, results, { bands, source }, readings] = await Promise.all([
     targetCandidates(trial),
     resultCandidates(trial),
     verdictBands(),
+    ColourMeasurement.findAll({ where: { trialId: trial.id }, order: [['id', 'ASC']] }),
   ]);
   const target = (targets[0] as ResolvedColour | undefined) ?? null;
   const compare = (t: ResolvedColour, primary: boolean): Comparison | null => {
-    const r = matchResult(t, results);
+    const r = fromSpectra(t, readings) ?? matchResult(t, results);
     if (!r) return null;
     return {
       illuminant: t.illuminant,
@@ -260,24 +343,38 @@ export async function trialColour(trial: Trial) {
       comparisons.push(c);
     }
   }
+  // An original measured as a spectrum answers under the conditions of every reading of the swatch.
+  const targetSpectrum = target ? spectrumOf.get(target) : undefined;
+  if (target && targetSpectrum)
+    for (const r of results) {
+      if (r.source !== 'instrument' || illuminants.has(r.illuminant)) continue;
+      const c = compare(underConditions(target, targetSpectrum, r), !comparisons.some((x) => x.primary));
+      if (c) {
+        illuminants.add(r.illuminant);
+        comparisons.push(c);
+      }
+    }
+  const primaryComparison = comparisons.find((c) => c.primary) ?? null;
+  const main = primaryComparison;
   return {
-    target,
-    result: primary?.result ?? (target ? null : ((results[0] as ResolvedColour | undefined) ?? null)),
-    difference: primary?.difference ?? null,
-    conditions: primary
+    target: main?.target ?? target,
+    result: main?.result ?? (target ? null : ((results[0] as ResolvedColour | undefined) ?? null)),
+    difference: main?.difference ?? null,
+    conditions: main
       ? {
-          illuminant: primary.illuminant,
-          targetObserver: primary.target.observer,
-          resultObserver: primary.result.observer,
-          observersDiffer: primary.observersDiffer,
+          illuminant: main.illuminant,
+          targetObserver: main.target.observer,
+          resultObserver: main.result.observer,
+          observersDiffer: main.observersDiffer,
         }
       : null,
-    note: primary?.note ?? null,
-    missing: target && !primary ? missingReading(target, results) : null,
+    note: main?.note ?? null,
+    missing: target && !main ? missingReading(target, results) : null,
     /** Every colour of the trial: each group of readings under one set of conditions, then the swatch-photo estimate. */
     results,
     comparisons,
     bandsSource: source,
+    metamerism: target && targetSpectrum ? pairMetamerism(target, targetSpectrum, readings, bands) : null,
   };
 }
 

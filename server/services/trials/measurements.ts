@@ -1,12 +1,22 @@
 import { parse } from 'csv-parse/sync';
 import { measurementSchema, type MeasurementInput } from '../../../shared/schemas/trial.ts';
+import { spectrumToLab, toFractions } from '../../../shared/colour/spectral.ts';
 import { unprocessable } from '../../http/errors.ts';
 import { ColourMeasurement, type Trial } from '../../models/index.ts';
 import type { Actor } from '../../policies/index.ts';
 import type { ServiceCtx } from '../context.ts';
 import { audit } from '../audit.ts';
 
+/** The stored spectrum (fractions 0–1) and the L*a*b* for the reading's own illuminant and observer. */
+function labOf(m: ReturnType<typeof measurementSchema.parse>) {
+  if (!m.spectrum) return { L: m.L!, a: m.a!, b: m.b!, spectrum: null };
+  const { startNm, intervalNm, values, unit } = m.spectrum;
+  const spectrum = { startNm, intervalNm, values: toFractions(values, unit) };
+  return { ...spectrumToLab(spectrum, m.illuminant, m.observer).lab, spectrum };
+}
+
 const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
+  ...labOf(m),
   pieceId: null,
   regionId: null,
   trialId: trial.id,
@@ -15,9 +25,6 @@ const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.
   specular: m.specular ?? null,
   illuminant: m.illuminant,
   observer: m.observer,
-  L: m.L,
-  a: m.a,
-  b: m.b,
   label: m.label ?? null,
   source: 'instrument',
   takenOn: m.takenOn ?? null,

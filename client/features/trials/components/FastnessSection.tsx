@@ -1,6 +1,8 @@
 import { useState } from 'react';
 import { BLUE_WOOL_GRADES, FASTNESS_TESTS, GREY_GRADES } from '../../../../shared/compute/fastness';
-import type { Fastness } from '../../../../shared/schemas/fastness';
+import type { Fastness, ReadingPair } from '../../../../shared/schemas/fastness';
+import { greyScaleGrades } from '../../../../shared/compute/grey-scale';
+import { Field } from '../../../components/form/Field';
 import { trialUpdateSchema, type TrialUpdateInput } from '../../../../shared/schemas/trial';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
@@ -18,7 +20,48 @@ type Draft = {
   dryInformal: boolean;
   wet: string;
   wetInformal: boolean;
+  /** Readings typed as "L* a* b*", before and after, per grade that can be computed. */
+  readings: Record<PairKey, { before: string; after: string }>;
 };
+
+// The grades that can be computed from readings, and where each pair lives in the stored grades.
+const PAIRS = {
+  washChange: { scale: 'change', label: 'Washing: change in colour', path: 'fastness.washing.readings.change' },
+  washStaining: { scale: 'staining', label: 'Washing: staining', path: 'fastness.washing.readings.staining' },
+  dry: { scale: 'staining', label: 'Rubbing dry', path: 'fastness.rubbingDry.readings.staining' },
+  wet: { scale: 'staining', label: 'Rubbing wet', path: 'fastness.rubbingWet.readings.staining' },
+} as const;
+type PairKey = keyof typeof PAIRS;
+const storedPair = (f: Fastness | null, k: PairKey): ReadingPair | null | undefined =>
+  k === 'washChange'
+    ? f?.washing?.readings?.change
+    : k === 'washStaining'
+      ? f?.washing?.readings?.staining
+      : k === 'dry'
+        ? f?.rubbingDry?.readings?.staining
+        : f?.rubbingWet?.readings?.staining;
+const labWords = (c?: { L: number; a: number; b: number }) => (c ? `${c.L} ${c.a} ${c.b}` : '');
+/** "52.1 31 18.2" → { L, a, b }; what is missing or not a number is passed on for the schema to name. */
+const parseLab = (text: string) => {
+  const [L, a, b] = text
+    .trim()
+    .split(/[\s,;]+/)
+    .map((x) => (x === '' ? undefined : Number(x)));
+  return { L, a, b } as unknown as ReadingPair['before'];
+};
+const pairOf = (p: { before: string; after: string }) =>
+  p.before.trim() || p.after.trim() ? { before: parseLab(p.before), after: parseLab(p.after) } : null;
+
+/** The grade computed from a stored pair: number and step (ISO 105-A05 / A04, formulas recalled from memory). */
+function Computed({ pair, scale }: { pair?: ReadingPair | null; scale: 'change' | 'staining' }) {
+  if (!pair) return null;
+  const g = greyScaleGrades(pair.before, pair.after)[scale];
+  return (
+    <span className="ml-1 font-sans text-xs text-ink-soft" data-testid="computed-grade">
+      (computed {g.step}, {g.grade.toFixed(2)}, {scale === 'change' ? 'ISO 105-A05' : 'ISO 105-A04'})
+    </span>
+  );
+}
 
 const fromFastness = (f: Fastness | null): Draft => ({
   light: f?.light?.blueWool ?? '',
@@ -30,16 +73,34 @@ const fromFastness = (f: Fastness | null): Draft => ({
   dryInformal: f?.rubbingDry?.informal ?? false,
   wet: f?.rubbingWet?.staining ?? '',
   wetInformal: f?.rubbingWet?.informal ?? false,
+  readings: Object.fromEntries(
+    (Object.keys(PAIRS) as PairKey[]).map((k) => {
+      const p = storedPair(f, k);
+      return [k, { before: labWords(p?.before), after: labWords(p?.after) }];
+    }),
+  ) as Draft['readings'],
 });
-const toFastness = (d: Draft) => ({
-  light: d.light ? { blueWool: d.light, informal: d.lightInformal } : null,
-  washing:
-    d.washChange || d.washStaining
-      ? { change: d.washChange || null, staining: d.washStaining || null, informal: d.washInformal }
-      : null,
-  rubbingDry: d.dry ? { staining: d.dry, informal: d.dryInformal } : null,
-  rubbingWet: d.wet ? { staining: d.wet, informal: d.wetInformal } : null,
-});
+const toFastness = (d: Draft) => {
+  const r = (k: PairKey) => pairOf(d.readings[k]);
+  const washReadings =
+    r('washChange') || r('washStaining') ? { change: r('washChange'), staining: r('washStaining') } : null;
+  return {
+    light: d.light ? { blueWool: d.light, informal: d.lightInformal } : null,
+    washing:
+      d.washChange || d.washStaining || washReadings
+        ? {
+            change: d.washChange || null,
+            staining: d.washStaining || null,
+            readings: washReadings,
+            informal: d.washInformal,
+          }
+        : null,
+    rubbingDry:
+      d.dry || r('dry') ? { staining: d.dry, readings: { staining: r('dry') }, informal: d.dryInformal } : null,
+    rubbingWet:
+      d.wet || r('wet') ? { staining: d.wet, readings: { staining: r('wet') }, informal: d.wetInformal } : null,
+  };
+};
 
 // The grade fields and the dotted path of each in PATCH /api/trials/:id, where the shared schema and the server put their messages.
 const GRADE_FIELDS = {
@@ -79,7 +140,7 @@ const Grade = ({
 const otherMessages = (errors: FieldErrors) => {
   const shown = new Set<string>(Object.values(GRADE_FIELDS));
   const rest = Object.entries(errors)
-    .filter(([k]) => !shown.has(k))
+    .filter(([k]) => !shown.has(k) && !Object.values(PAIRS).some((p) => k.startsWith(`${p.path}.`)))
     .flatMap(([, v]) => v);
   return rest.length ? [...new Set(rest)].join(' ') : null;
 };
@@ -106,7 +167,9 @@ function Shown({ f }: { f: Fastness | null }) {
       `Washing, ${FASTNESS_TESTS.washing.standard}`,
       f?.washing ? (
         <>
-          change {f.washing.change ?? '—'}, staining {f.washing.staining ?? '—'}
+          change {f.washing.change ?? '—'}
+          <Computed pair={f.washing.readings?.change} scale="change" />, staining {f.washing.staining ?? '—'}
+          <Computed pair={f.washing.readings?.staining} scale="staining" />
           {informal(f.washing)}
         </>
       ) : null,
@@ -116,6 +179,7 @@ function Shown({ f }: { f: Fastness | null }) {
       f?.rubbingDry ? (
         <>
           {f.rubbingDry.staining}
+          <Computed pair={f.rubbingDry.readings?.staining} scale="staining" />
           {informal(f.rubbingDry)}
         </>
       ) : null,
@@ -125,6 +189,7 @@ function Shown({ f }: { f: Fastness | null }) {
       f?.rubbingWet ? (
         <>
           {f.rubbingWet.staining}
+          <Computed pair={f.rubbingWet.readings?.staining} scale="staining" />
           {informal(f.rubbingWet)}
         </>
       ) : null,
@@ -148,7 +213,9 @@ export function FastnessSection({ trial }: { trial: TrialView }) {
   const [editing, setEditing] = useState(false);
   const [d, setD] = useState<Draft>(fromFastness(current));
   const update = useUpdateTrial(trial.id);
-  const { formRef, errors, check, fromServer, clear } = useFormErrors();
+  const { formRef, errors, check, fromServer, clear, under } = useFormErrors();
+  const setPair = (k: PairKey, side: 'before' | 'after') => (e: { target: { value: string } }) =>
+    setD({ ...d, readings: { ...d.readings, [k]: { ...d.readings[k], [side]: e.target.value } } });
   const err = (k: keyof typeof GRADE_FIELDS) => errors[GRADE_FIELDS[k]];
   const save = () => {
     // Checked with the route's own schema, so the messages carry the same paths as the server's 400.
@@ -234,6 +301,37 @@ export function FastnessSection({ trial }: { trial: TrialView }) {
             />
             <Informal checked={d.wetInformal} onChange={(wetInformal) => setD({ ...d, wetInformal })} />
           </div>
+          <fieldset className="grid gap-3 sm:col-span-4 sm:grid-cols-4">
+            <legend className="text-sm font-medium">
+              Instrument readings (optional): L* a* b* under D65/10°, the grade is computed beside yours
+            </legend>
+            {(Object.keys(PAIRS) as PairKey[]).map((k) => {
+              const p = PAIRS[k];
+              const words =
+                p.scale === 'change' ? ['Before the test', 'After the test'] : ['Cloth unstained', 'Cloth stained'];
+              const what = p.label.toLowerCase().replace(':', ',');
+              return (
+                <div key={k} className="space-y-1">
+                  <Field
+                    label={`${words[0]} (${what})`}
+                    className="font-mono"
+                    placeholder="L* a* b*"
+                    value={d.readings[k].before}
+                    onChange={setPair(k, 'before')}
+                    error={under(`${p.path}.before`)}
+                  />
+                  <Field
+                    label={`${words[1]} (${what})`}
+                    className="font-mono"
+                    placeholder="L* a* b*"
+                    value={d.readings[k].after}
+                    onChange={setPair(k, 'after')}
+                    error={under(`${p.path}.after`)}
+                  />
+                </div>
+              );
+            })}
+          </fieldset>
           <div className="sm:col-span-4">
             <FormAlert message={formMessage(update.error) ?? otherMessages(errors)} />
           </div>

@@ -22,6 +22,10 @@ import {
 import { conditionsText } from '../../../../shared/colour/conditions';
 import { fmt } from '../format';
 import { ColourComparison } from './ColourComparison';
+import { MetamerismSection } from './MetamerismSection';
+import { SpectrumChart } from './SpectrumChart';
+import { TextArea } from '../../../components/form/TextArea';
+import { parseSpectrumText } from '../../../../shared/colour/spectrum-text';
 
 function MeasurementForm({ trialId }: { trialId: number }) {
   const [d, setD] = useState({
@@ -33,9 +37,13 @@ function MeasurementForm({ trialId }: { trialId: number }) {
     geometry: 'd:8°',
     specular: 'SCI',
     instrument: '',
+    spectrum: '',
+    startNm: '',
+    intervalNm: '',
+    unit: '',
   });
   const add = useAddMeasurement(trialId);
-  const { formRef, errors, check, fromServer } = useFormErrors();
+  const { formRef, errors, check, fromServer, show, under } = useFormErrors();
   const set = (k: keyof typeof d) => (e: { target: { value: string } }) => setD({ ...d, [k]: e.target.value });
   const num = (x: string) => (x.trim() === '' ? (undefined as unknown as number) : Number(x));
   const opts = (xs: readonly string[], label = (x: string) => x) => xs.map((x) => ({ value: x, label: label(x) }));
@@ -47,10 +55,21 @@ function MeasurementForm({ trialId }: { trialId: number }) {
       className="grid gap-3 sm:grid-cols-4"
       onSubmit={(e) => {
         e.preventDefault();
+        // A pasted or loaded spectrum replaces L*a*b*: the server computes them for the conditions below.
+        let spectrum: MeasurementInput['spectrum'] = null;
+        if (d.spectrum.trim()) {
+          const read = parseSpectrumText(d.spectrum, {
+            startNm: d.startNm.trim() ? Number(d.startNm) : undefined,
+            intervalNm: d.intervalNm.trim() ? Number(d.intervalNm) : undefined,
+          });
+          if (!read.ok) return show({ spectrum: [read.message] });
+          spectrum = { ...read.spectrum, unit: (d.unit || undefined) as 'fraction' | 'percent' | undefined };
+        }
         const body: MeasurementInput = {
-          L: num(d.L),
-          a: num(d.a),
-          b: num(d.b),
+          spectrum,
+          L: spectrum ? undefined : num(d.L),
+          a: spectrum ? undefined : num(d.a),
+          b: spectrum ? undefined : num(d.b),
           illuminant: d.illuminant as MeasurementInput['illuminant'],
           observer: d.observer as MeasurementInput['observer'],
           geometry: d.geometry as MeasurementInput['geometry'],
@@ -58,7 +77,10 @@ function MeasurementForm({ trialId }: { trialId: number }) {
           instrument: d.instrument || null,
         };
         if (check(measurementSchema, body))
-          add.mutate(body, { onSuccess: () => setD({ ...d, L: '', a: '', b: '' }), onError: fromServer });
+          add.mutate(body, {
+            onSuccess: () => setD({ ...d, L: '', a: '', b: '', spectrum: '', startNm: '', intervalNm: '' }),
+            onError: fromServer,
+          });
       }}
     >
       <Field label="L*" className="font-mono" inputMode="decimal" value={d.L} onChange={set('L')} error={errors.L} />
@@ -92,6 +114,57 @@ function MeasurementForm({ trialId }: { trialId: number }) {
         onChange={set('specular')}
         options={opts(['SCI', 'SCE'])}
         error={errors.specular}
+      />
+      <TextArea
+        className="sm:col-span-4"
+        label="Reflectance spectrum (optional, instead of L*a*b*)"
+        rows={4}
+        spellCheck={false}
+        value={d.spectrum}
+        onChange={set('spectrum')}
+        error={under('spectrum')}
+        hint="Paste a wavelength and a value on each line (400, 12.3), a row of wavelengths over a row of values, or the values alone with the first wavelength and step below. Fractions 0–1 or %; 360–400 nm to 700–780 nm in steps of 1, 5, 10 or 20 nm."
+      />
+      <label className="block text-sm font-medium sm:col-span-2">
+        Or load the spectrum from a CSV file
+        <input
+          className="mt-1 block text-sm"
+          type="file"
+          accept=".csv,.txt,text/csv,text/plain"
+          onChange={async (e) => {
+            const f = e.target.files?.[0];
+            if (f) setD({ ...d, spectrum: await f.text() });
+            e.target.value = '';
+          }}
+        />
+      </label>
+      <Select
+        className="sm:col-span-2"
+        label="Values in"
+        value={d.unit}
+        onChange={set('unit')}
+        options={[
+          { value: '', label: 'fractions or % (read from the values)' },
+          { value: 'fraction', label: 'fractions 0–1' },
+          { value: 'percent', label: 'percent' },
+        ]}
+        error={errors['spectrum.unit']}
+      />
+      <Field
+        label="First wavelength"
+        unit="nm"
+        inputMode="numeric"
+        value={d.startNm}
+        onChange={set('startNm')}
+        hint="for values alone"
+      />
+      <Field
+        label="Step"
+        unit="nm"
+        inputMode="numeric"
+        value={d.intervalNm}
+        onChange={set('intervalNm')}
+        hint="for values alone"
       />
       <div className="sm:col-span-4">
         <FormAlert message={formMessage(add.error)} />
@@ -162,6 +235,7 @@ export function ResultSection({ trial }: { trial: TrialView }) {
         Result and colour difference
       </h2>
       {trial.colour ? <ColourComparison colour={trial.colour} /> : null}
+      {trial.colour?.metamerism ? <MetamerismSection m={trial.colour.metamerism} /> : null}
       <h3 className="font-semibold">Instrument readings</h3>
       <p className="text-xs text-ink-soft">
         Readings are averaged only with others under the same illuminant and observer; the comparison uses those under
@@ -177,6 +251,7 @@ export function ResultSection({ trial }: { trial: TrialView }) {
                 <th className="px-3 py-1.5 text-right">b*</th>
                 <th className="px-3 py-1.5">Illuminant/observer</th>
                 <th className="px-3 py-1.5">Geometry</th>
+                <th className="px-3 py-1.5">Spectrum</th>
                 <th />
               </tr>
             </thead>
@@ -189,6 +264,11 @@ export function ResultSection({ trial }: { trial: TrialView }) {
                   <td className="px-3 py-1.5">{conditionsText(m)}</td>
                   <td className="px-3 py-1.5">
                     {m.geometry ?? '—'} {m.specular ?? ''}
+                  </td>
+                  <td className="px-3 py-1.5">
+                    {m.spectrum
+                      ? `${m.spectrum.startNm}–${m.spectrum.startNm + m.spectrum.intervalNm * (m.spectrum.values.length - 1)} nm`
+                      : '—'}
                   </td>
                   <td className="px-3 py-1.5">
                     {canEdit ? (
@@ -205,6 +285,14 @@ export function ResultSection({ trial }: { trial: TrialView }) {
       ) : (
         <p className="text-ink-soft">No readings yet.</p>
       )}
+      {trial.measurements.some((m) => m.spectrum) ? (
+        <SpectrumChart
+          title="Reflectance spectra of the swatch readings"
+          series={trial.measurements.flatMap((m, i) =>
+            m.spectrum ? [{ label: `Reading ${i + 1} (${m.label ?? conditionsText(m)})`, spectrum: m.spectrum }] : [],
+          )}
+        />
+      ) : null}
       {canEdit ? (
         <div className="grid gap-6 lg:grid-cols-2">
           <MeasurementForm trialId={trial.id} />
