@@ -25,6 +25,27 @@ export const WARMING_RETRY_AFTER_S = 5;
 
 const key = (c: { kind: string; entityId: number }) => `${c.kind}:${c.entityId}`;
 
+/**
+ * Palette variants from most to least trustworthy: shade search indexes only each photo's best one (a photo with a
+ * grey-patch correction is found by its corrected colours, not also by the raw ones it replaces).
+ */
+export const VARIANT_TRUST = ['calibrated', 'corrected', 'raw'] as const;
+const trustRank = (v: string) => {
+  const i = (VARIANT_TRUST as readonly string[]).indexOf(v);
+  return i < 0 ? VARIANT_TRUST.length : i;
+};
+type VariantRow = ShadeRow & { variant: string };
+
+/** Keep each photo's colours of its most trustworthy variant only. */
+export function bestVariantOnly(rows: VariantRow[]): ShadeRow[] {
+  const best = new Map<number, number>();
+  for (const r of rows) {
+    const k = trustRank(r.variant);
+    if (k < (best.get(r.photoId) ?? Infinity)) best.set(r.photoId, k);
+  }
+  return rows.filter((r) => trustRank(r.variant) === best.get(r.photoId));
+}
+
 export class SearchEngine {
   readonly text = new TextIndex();
   readonly shade = new ShadeIndex();
@@ -127,17 +148,17 @@ export class SearchEngine {
       type: QueryTypes.SELECT,
     });
     // In keyset-paged chunks: one 1M-row result set can stall past the server's net_write_timeout.
-    const rows: ShadeRow[] = [];
+    const rows: VariantRow[] = [];
     for (let after = 0; ;) {
-      const chunk = await sequelize.query<ShadeRow>(
-        'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT 50000',
+      const chunk = await sequelize.query<VariantRow>(
+        'SELECT id, photoId, L, a, b, hex, share, variant FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT 50000',
         { replacements: [after], type: QueryTypes.SELECT },
       );
       for (const r of chunk) rows.push(r);
       if (chunk.length < 50_000) break;
       after = chunk[chunk.length - 1].id;
     }
-    this.shade.load(rows, photos);
+    this.shade.load(bestVariantOnly(rows), photos);
     this.shadeUpdatedAt = Date.now();
   }
 
@@ -244,8 +265,8 @@ export class SearchEngine {
         'SELECT id, pieceId FROM photos WHERE id IN (?)',
         { replacements: [photos], type: QueryTypes.SELECT },
       );
-      const colours = await sequelize.query<ShadeRow>(
-        'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE photoId IN (?) AND background = 0',
+      const colours = await sequelize.query<VariantRow>(
+        'SELECT id, photoId, L, a, b, hex, share, variant FROM palette_colours WHERE photoId IN (?) AND background = 0',
         { replacements: [photos], type: QueryTypes.SELECT },
       );
       const pieceOf = new Map(links.map((l) => [l.id, l.pieceId]));
@@ -253,7 +274,7 @@ export class SearchEngine {
         this.shade.setPhoto(id, pieceOf.get(id) ?? null);
         this.shade.removePhoto(id);
       }
-      this.shade.add(colours);
+      this.shade.add(bestVariantOnly(colours));
       done('photo', photos);
       this.shadeUpdatedAt = Date.now();
     }

@@ -1,11 +1,11 @@
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { sequelize } from '../../server/models/index.ts';
-import { makePiece } from '../../server/seed/factories.ts';
+import { makePaletteColour, makePhoto, makePiece } from '../../server/seed/factories.ts';
 import { appendChanges, ChangeCursor } from '../../server/search/change-log.ts';
 import { SearchEngine, searchEngine } from '../../server/search/engine.ts';
 import { installSearchHooks } from '../../server/search/hooks.ts';
-import { runSearch } from '../../server/search/service.ts';
-import { searchQuerySchema } from '../../shared/schemas/search.ts';
+import { runSearch, runShade } from '../../server/search/service.ts';
+import { searchQuerySchema, shadeQuerySchema } from '../../shared/schemas/search.ts';
 
 // Issue 16: the search change log. AUTO_INCREMENT ids are handed out at insert, not at commit, so a reader must not
 // skip an id that a slower transaction commits later; and a change that fails to apply must be retried.
@@ -100,5 +100,20 @@ describe('search change log', () => {
     } finally {
       engine.stopFollowing();
     }
+  });
+
+  it("indexes each photo's most trustworthy palette only: corrected colours replace the raw ones", async () => {
+    installSearchHooks();
+    await searchEngine.ready();
+    const piece = await makePiece({ status: 'published' });
+    const { photo } = await makePhoto({ pieceId: piece.id, hex: '#5d7a3c' });
+    const shade = async (hex: string) =>
+      (await runShade({ actor: null, input: shadeQuerySchema.parse({ hex, maxDeltaE: 0.5 }) })).items.map(
+        (i) => i.pieceId,
+      );
+    expect(await shade('#5d7a3c')).toContain(piece.id);
+    await makePaletteColour({ photoId: photo.id, variant: 'corrected', hex: '#3c5d7a' });
+    expect(await shade('#3c5d7a')).toContain(piece.id);
+    expect(await shade('#5d7a3c')).not.toContain(piece.id);
   });
 });
