@@ -7,6 +7,9 @@ import { enqueue } from '../../server/jobs/queue.ts';
 import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
+import { DEFAULT_TOLERANCES } from '../../shared/compute/chart.ts';
+import { CHART_1976 } from '../../shared/data/colour-chart-1976.ts';
+import { chartPhoto } from './chart-image.ts';
 
 /**
  * The role × route matrix: one row per API route, with the status class each
@@ -259,6 +262,17 @@ async function realPhoto() {
   return (await factories.makePhoto({ pieceId: piece.id, buffer })).photo;
 }
 const photoParams = async () => ({ params: { id: (await realPhoto()).id } });
+let chartBuffer: Promise<{ buffer: Buffer; corners: Array<{ x: number; y: number }> }> | null = null;
+async function chartPhotoBody() {
+  chartBuffer ??= chartPhoto(CHART_1976.map((p) => p.lab)).then(({ buffer, scene }) => ({
+    buffer,
+    corners: scene.corners,
+  }));
+  const { buffer, corners } = await chartBuffer;
+  const piece = await makePiece({ status: 'draft' });
+  const { photo } = await factories.makePhoto({ pieceId: piece.id, buffer });
+  return { params: { id: photo.id }, body: { corners, reference: 'published-1976' } };
+}
 async function photoWithRegion() {
   const photo = await realPhoto();
   const region = await factories.makeRegion({ photoId: photo.id, w: 20, h: 20 });
@@ -467,6 +481,12 @@ export const routeMatrix: MatrixRow[] = [
   }),
   row('DELETE /api/photos/:id/reference-patch', curatorWrites, { setup: photoParams }),
   row('PATCH /api/photos/:id/palette/:colourId', curatorWrites, { setup: photoWithColour }),
+  row('PUT /api/photos/:id/chart', curatorWrites, { setup: chartPhotoBody }),
+  row('DELETE /api/photos/:id/chart', curatorWrites, { setup: photoParams }),
+  row('GET /api/photos/chart-tolerances', signedIn),
+  row('PUT /api/photos/chart-tolerances', adminOnly, {
+    body: DEFAULT_TOLERANCES,
+  }),
   row('GET /api/vocabularies', everyone('2xx')),
   row('GET /api/batches', signedIn),
   row('POST /api/batches', dyersCreate, { setup: async () => ({ body: batchBody() }) }),
