@@ -68,6 +68,10 @@ export function describeHistory(e: HistoryEntry): string {
       return 'reference patch cleared';
     case 'chart-set':
       return c.chart?.from ? 'colour chart marked again' : 'colour chart marked';
+    case 'fading-pair-added':
+      return 'fading pair added';
+    case 'fading-pair-removed':
+      return 'fading pair removed';
     case 'chart-cleared':
       return 'colour chart removed';
     case 'chart-tolerances-set':

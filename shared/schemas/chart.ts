@@ -107,7 +107,7 @@ export const toleranceLevelsInput = z
       .string({ error: 'Name the source of the levels' })
       .trim()
       .min(3, 'Name the source of the levels')
-      .max(400, 'Use at most 400 characters'),
+      .max(255, 'Use at most 255 characters'),
   })
   .strict();
 export const toleranceLevelsAnswer = z.object({

@@ -4,7 +4,7 @@ import sharp from 'sharp';
 import * as factories from '../../server/seed/factories.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
-import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
+import { Chemical, Dyestuff, FadingPair, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 import { DEFAULT_TOLERANCES } from '../../shared/compute/chart.ts';
@@ -262,6 +262,29 @@ async function realPhoto() {
   return (await factories.makePhoto({ pieceId: piece.id, buffer })).photo;
 }
 const photoParams = async () => ({ params: { id: (await realPhoto()).id } });
+async function fadingPairBody() {
+  const piece = await makePiece({ status: 'draft' });
+  const [a, b] = await Promise.all(
+    [10, 20].map((L) => factories.makeMeasurement({ pieceId: piece.id, L, a: 5, b: 5 })),
+  );
+  return {
+    params: { id: piece.id },
+    body: { faded: { measurementId: a.id }, protected: { measurementId: b.id } },
+  };
+}
+async function fadingPairParams() {
+  const { params, body } = await fadingPairBody();
+  const pair = await FadingPair.create({
+    pieceId: params.id,
+    label: null,
+    fadedRegionId: null,
+    fadedMeasurementId: body.faded.measurementId,
+    protectedRegionId: null,
+    protectedMeasurementId: body.protected.measurementId,
+    createdById: null,
+  });
+  return { params: { id: params.id, pairId: pair.id } };
+}
 let chartBuffer: Promise<{ buffer: Buffer; corners: Array<{ x: number; y: number }> }> | null = null;
 async function chartPhotoBody() {
   chartBuffer ??= chartPhoto(CHART_1976.map((p) => p.lab)).then(({ buffer, scene }) => ({
@@ -481,6 +504,11 @@ export const routeMatrix: MatrixRow[] = [
   }),
   row('DELETE /api/photos/:id/reference-patch', curatorWrites, { setup: photoParams }),
   row('PATCH /api/photos/:id/palette/:colourId', curatorWrites, { setup: photoWithColour }),
+  row('GET /api/pieces/:id/fading-pairs', signedIn, {
+    setup: async () => ({ params: { id: (await makePiece()).id } }),
+  }),
+  row('POST /api/pieces/:id/fading-pairs', curatorWrites, { setup: fadingPairBody }),
+  row('DELETE /api/pieces/:id/fading-pairs/:pairId', curatorWrites, { setup: fadingPairParams }),
   row('PUT /api/photos/:id/chart', curatorWrites, { setup: chartPhotoBody }),
   row('DELETE /api/photos/:id/chart', curatorWrites, { setup: photoParams }),
   row('GET /api/photos/chart-tolerances', signedIn),
