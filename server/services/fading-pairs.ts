@@ -121,3 +121,21 @@ export async function presentFadingPair(p: FadingPair): Promise<FadingPairOut> {
   }
   return { id: p.id, pieceId: p.pieceId, label: p.label, faded, protected: prot, difference, note };
 }
+
+/** What a new pair's sides may be: regions of the piece's photos (not exclusions or patches) and its readings. */
+export async function fadingCandidates(pieceId: number) {
+  const photos = await Photo.findAll({ where: { pieceId }, attributes: ['id'] });
+  const regions = photos.length
+    ? await Region.findAll({ where: { photoId: photos.map((p) => p.id) }, order: [['id', 'ASC']] })
+    : [];
+  const readings = await ColourMeasurement.findAll({ where: { pieceId }, order: [['id', 'ASC']] });
+  return {
+    regions: regions
+      .filter((r) => r.purpose !== 'exclusion' && r.purpose !== 'reference-patch')
+      .map((r) => ({ id: r.id, label: `${r.label ?? PURPOSE_WORDS[r.purpose]} (photo ${r.photoId})` })),
+    readings: readings.map((m) => ({
+      id: m.id,
+      label: `${m.label ?? `reading ${m.id}`} (${conditionsText(m)})`,
+    })),
+  };
+}

@@ -63,5 +63,13 @@ export const fadingPairSchema = z.object({
   note: z.string().nullable(),
 });
 export type FadingPairOut = z.infer<typeof fadingPairSchema>;
-export const fadingPairListResponse = z.object({ items: z.array(fadingPairSchema) });
+/** The pairs, and what a new pair's sides may be: the regions of the piece's photos and the piece's readings. */
+export const fadingPairListResponse = z.object({
+  items: z.array(fadingPairSchema),
+  candidates: z.object({
+    regions: z.array(z.object({ id: z.number(), label: z.string() })),
+    readings: z.array(z.object({ id: z.number(), label: z.string() })),
+  }),
+});
+export type FadingPairList = z.infer<typeof fadingPairListResponse>;
 export const fadingPairResponse = z.object({ pair: fadingPairSchema });

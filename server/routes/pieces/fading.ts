@@ -7,7 +7,7 @@ import { parseBody, parseParams } from '../../http/validate.ts';
 import { FadingPair, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
-import { addFadingPair, presentFadingPair, removeFadingPair } from '../../services/fading-pairs.ts';
+import { addFadingPair, fadingCandidates, presentFadingPair, removeFadingPair } from '../../services/fading-pairs.ts';
 import { loadReadablePiece } from './load.ts';
 
 /** Fading pairs of a piece: a faded area beside a protected one (issue 17, point 5). */
@@ -17,7 +17,7 @@ fadingRouter.use(requireUser);
 fadingRouter.get('/', async (req, res) => {
   const piece = await loadReadablePiece(actorOf(req), parseParams(idParams, req).id);
   const pairs = await FadingPair.findAll({ where: { pieceId: piece.id }, order: [['id', 'ASC']] });
-  res.json({ items: await Promise.all(pairs.map(presentFadingPair)) });
+  res.json({ items: await Promise.all(pairs.map(presentFadingPair)), candidates: await fadingCandidates(piece.id) });
 });
 
 fadingRouter.post('/', async (req, res) => {
