@@ -1,6 +1,6 @@
 import { useRef, useState, type KeyboardEvent, type MouseEvent } from 'react';
 import { CORNER_NAMES, patchGeometry, isConvexQuad, type Point } from '../../../../shared/compute/chart';
-import { chartInputSchema, cornerIssues, VARIANT_WORDS, type PhotoChart } from '../../../../shared/schemas/chart';
+import { chartInputSchema, cornerIssues, type PhotoChart } from '../../../../shared/schemas/chart';
 import { formatNumber } from '../../../../shared/format';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
@@ -116,10 +116,6 @@ export function ChartPanel({ photo, canEdit }: { photo: Photo; canEdit: boolean 
 
   return (
     <section className="space-y-4" aria-label="Colour chart" data-testid="chart-panel">
-      <p className="text-sm text-ink-soft">
-        Palette in use for shade search and trials:{' '}
-        <strong data-testid="trusted-variant">{VARIANT_WORDS[photo.trustedVariant]}</strong>.
-      </p>
       <div className="grid gap-4 lg:grid-cols-[2fr_1fr]">
         <div className="relative select-none bg-neutral-ground" onClick={onClick} data-testid="chart-photo">
           <img
@@ -197,7 +193,7 @@ export function ChartPanel({ photo, canEdit }: { photo: Photo; canEdit: boolean 
                 <div key={i} className="grid grid-cols-[auto_1fr_1fr] items-end gap-2">
                   <button
                     type="button"
-                    className={`mb-2 rounded border px-2 py-1 text-xs ${i === selected ? 'border-action text-action' : 'border-rule-strong'}`}
+                    className={`mb-2 w-20 rounded border px-2 py-1 text-xs ${i === selected ? 'border-action text-action' : 'border-rule-strong'}`}
                     aria-pressed={i === selected}
                     onClick={() => {
                       setSelected(i);

@@ -67,7 +67,7 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
           Colour chart
         </button>
         <span className="self-center text-ink-soft" data-testid="variant-in-use">
-          Palette in use: {VARIANT_WORDS[photo.trustedVariant]}
+          Palette in use for shade search and trials: <strong>{VARIANT_WORDS[photo.trustedVariant]}</strong>
         </span>
       </div>
       {chartMode ? <ChartPanel photo={photo} canEdit={canEdit} /> : <RegionEditor photo={photo} canEdit={canEdit} />}
