@@ -131,6 +131,21 @@ describe('a colour chart in a photo', () => {
     expect(res.body.error.message).toMatch(/corners/);
   });
 
+  it('a colour area added after the chart gets its own calibrated palette', async () => {
+    await put({ corners, reference: 'published-1976' }).expect(200);
+    const madder = TEXTILES[0];
+    const res = await curator
+      .post(`/api/photos/${photo.id}/regions`)
+      .set('Origin', ORIGIN)
+      .send({ ...madder.rect, purpose: 'colour-area', label: 'madder' })
+      .expect(201);
+    const own: Palette | undefined = res.body.palettes.find(
+      (p: Palette) => p.regionId === res.body.region.id && p.variant === 'calibrated',
+    );
+    expect(own).toBeTruthy();
+    expect(deltaE00(madder.lab, own!.colours[0].lab)).toBeLessThanOrEqual(2);
+  }, 60_000);
+
   it('DELETE removes the chart and its calibrated palettes; raw stays', async () => {
     const res = await curator.delete(`/api/photos/${photo.id}/chart`).set('Origin', ORIGIN).expect(200);
     expect(res.body.chart).toBeNull();
