@@ -24,7 +24,7 @@ type Palette = { regionId: number | null; variant: string; colours: { lab: Lab; 
 
 beforeAll(async () => {
   curator = await signedInAgent(app, 'curator');
-  pieceId = (await makePiece()).id;
+  pieceId = (await makePiece({ title: 'Chartcloth sampler' })).id;
   const shot = await chartPhoto(PUBLISHED);
   corners = shot.scene.corners;
   const res = await curator
@@ -95,6 +95,20 @@ describe('a colour chart in a photo', () => {
     expect(got.body.photo.trustedVariant).toBe('calibrated');
     const audit = await AuditEvent.findOne({ where: { entity: 'piece', entityId: pieceId, action: 'chart-set' } });
     expect(audit).toBeTruthy();
+
+    // Shade search indexes the calibrated colours (the most trustworthy variant): the madder is found by its truth,
+    // and what it answers is the calibrated colour, not the raw one.
+    const madder = TEXTILES[0].lab;
+    const found = await curator
+      .get('/api/search/shade')
+      .query({ L: madder.L, a: madder.a, b: madder.b, maxDeltaE: 2, q: 'chartcloth' })
+      .expect(200);
+    const hit = found.body.items.find((i: { photoId: number }) => i.photoId === photo.id);
+    expect(hit).toBeTruthy();
+    const calibratedLabs = calibrated.colours.map((c) => c.lab);
+    const nearest = Math.min(...calibratedLabs.map((l) => deltaE00(l, hit.colour.lab)));
+    // (the index keeps single-precision L*a*b*, hence the small tolerance)
+    expect(nearest).toBeLessThan(0.01);
   }, 60_000);
 
   it("takes the institution's own 24 measured values", async () => {
