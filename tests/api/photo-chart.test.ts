@@ -158,6 +158,19 @@ describe('a colour chart in a photo', () => {
     );
     expect(own).toBeTruthy();
     expect(deltaE00(madder.lab, own!.colours[0].lab)).toBeLessThanOrEqual(2);
+
+    // A trial aimed at that region compares against its calibrated colour, and says so.
+    const dyer = await signedInAgent(app, 'dyer');
+    const trial = (
+      await dyer
+        .post(`/api/pieces/${pieceId}/trials`)
+        .set('Origin', ORIGIN)
+        .send({ dryMassG: 20, targetRegionId: res.body.region.id })
+        .expect(201)
+    ).body.trial;
+    const got = (await dyer.get(`/api/trials/${trial.id}`).expect(200)).body.trial;
+    expect(got.colour.target.label).toMatch(/calibrated from the colour chart/);
+    expect(deltaE00(madder.lab, got.colour.target)).toBeLessThanOrEqual(2);
   }, 60_000);
 
   it('DELETE removes the chart and its calibrated palettes; raw stays', async () => {

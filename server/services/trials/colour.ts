@@ -11,7 +11,7 @@ import {
 import { ILLUMINANTS } from '../../../shared/schemas/trial.ts';
 import { ColourMeasurement, PaletteColour, Photo, Region, type Trial } from '../../models/index.ts';
 import { verdictBands } from '../settings.ts';
-import { VARIANT_TRUST } from '../../../shared/schemas/chart.ts';
+import { VARIANT_TRUST, VARIANT_WORDS } from '../../../shared/schemas/chart.ts';
 
 export type { ColourSource };
 type Lab = { L: number; a: number; b: number };
@@ -64,9 +64,10 @@ const reading = (m: ColourMeasurement, label: string, setAside: Estimate | null 
   readings: 1,
   setAside,
 });
+// The label says which palette variant the estimate comes from (calibrated, corrected or raw).
 const estimated = (pc: PaletteColour, label: string): ResolvedColour => ({
   ...estimateOf(pc),
-  label,
+  label: `${label}, ${VARIANT_WORDS[pc.variant]}`,
   readings: null,
   setAside: null,
 });
