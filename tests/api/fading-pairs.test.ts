@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import Color from 'colorjs.io';
 import { createApp } from '../../server/app.ts';
 import { AuditEvent, sequelize } from '../../server/models/index.ts';
-import { makeMeasurement, makePiece } from '../../server/seed/factories.ts';
+import { makeMeasurement, makePaletteColour, makePhoto, makePiece, makeRegion } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 
 // ΔE00 checked against colorjs.io's own deltaE2000 on the same L*a*b* numbers (its 'lab' space, so no adaptation), the
@@ -45,6 +45,30 @@ describe('fading pairs (issue 17, point 5)', () => {
     await dyer.delete(`/api/pieces/${piece.id}/fading-pairs/${pair.id}`).set('Origin', ORIGIN).expect(403);
     await curator.delete(`/api/pieces/${piece.id}/fading-pairs/${pair.id}`).set('Origin', ORIGIN).expect(204);
     expect((await curator.get(`/api/pieces/${piece.id}/fading-pairs`).expect(200)).body.items).toHaveLength(0);
+  });
+
+  it('a region side takes its most trustworthy palette variant (calibrated before corrected before raw) and says which', async () => {
+    const piece = await makePiece();
+    const { photo } = await makePhoto({ pieceId: piece.id });
+    const faded = await makeRegion({ photoId: photo.id, label: 'sunlit fold' });
+    const prot = await makeRegion({ photoId: photo.id, label: 'hem, turned in' });
+    await makePaletteColour({ photoId: photo.id, regionId: faded.id, variant: 'raw', hex: '#b0605a' });
+    await makePaletteColour({ photoId: photo.id, regionId: faded.id, variant: 'calibrated', hex: '#a85a50' });
+    await makePaletteColour({ photoId: photo.id, regionId: prot.id, variant: 'corrected', hex: '#8a2f2b' });
+    const res = await curator
+      .post(`/api/pieces/${piece.id}/fading-pairs`)
+      .set('Origin', ORIGIN)
+      .send({ faded: { regionId: faded.id }, protected: { regionId: prot.id } })
+      .expect(201);
+    const pair = res.body.pair;
+    expect(pair.faded).toMatchObject({ kind: 'region', variant: 'calibrated', illuminant: 'D65', observer: '2' });
+    expect(pair.protected.variant).toBe('corrected');
+    expect(pair.faded.label).toMatch(/sunlit fold/);
+    expect(pair.difference.deltaE00).toBeGreaterThan(0);
+    const list = (await curator.get(`/api/pieces/${piece.id}/fading-pairs`).expect(200)).body;
+    expect(list.candidates.regions.map((r: { id: number }) => r.id)).toEqual(
+      expect.arrayContaining([faded.id, prot.id]),
+    );
   });
 
   it('gives no difference for readings under different illuminants', async () => {

@@ -4,7 +4,7 @@ import sharp from 'sharp';
 import * as factories from '../../server/seed/factories.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
-import { Chemical, Dyestuff, FadingPair, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
+import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 import { DEFAULT_TOLERANCES } from '../../shared/compute/chart.ts';
@@ -274,14 +274,10 @@ async function fadingPairBody() {
 }
 async function fadingPairParams() {
   const { params, body } = await fadingPairBody();
-  const pair = await FadingPair.create({
+  const pair = await factories.makeFadingPair({
     pieceId: params.id,
-    label: null,
-    fadedRegionId: null,
     fadedMeasurementId: body.faded.measurementId,
-    protectedRegionId: null,
     protectedMeasurementId: body.protected.measurementId,
-    createdById: null,
   });
   return { params: { id: params.id, pairId: pair.id } };
 }
