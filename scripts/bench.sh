@@ -11,6 +11,7 @@ if [ -z "${DATABASE_URL:-}" ]; then bash scripts/db.sh stop 2>/dev/null || true;
 mkdir -p "$DATA_DIR"
 ensure_deps
 ensure_db
+build_server
 trap stop_db EXIT
 trap 'exit 130' INT TERM
 node --import tsx tests/bench/run.ts "$@"

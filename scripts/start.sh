@@ -23,8 +23,9 @@ if [ "$DEV" = 1 ]; then
   node --import tsx --watch-path=server --watch-path=shared server/index.ts & PIDS+=($!)
   node_modules/.bin/vite --host 127.0.0.1 & PIDS+=($!)
 else
-  say "building the client"
+  say "building the client and the server"
   node_modules/.bin/vite build --logLevel warn >&2
-  node --import tsx server/index.ts & PIDS+=($!)
+  build_server
+  node --enable-source-maps dist/server/index.mjs & PIDS+=($!)
 fi
 wait -n "${PIDS[@]}"

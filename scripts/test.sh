@@ -15,8 +15,9 @@ ensure_chromium
 ensure_db
 trap stop_db EXIT
 trap 'exit 130' INT TERM
-say "building the client"
+say "building the client and the server"
 node_modules/.bin/vite build --logLevel warn >&2
+build_server
 set +e
 node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json="$DATA_DIR/vitest-report.json" "$@"
 status=$?

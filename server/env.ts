@@ -1,9 +1,18 @@
+import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
 
 // Configuration is parsed once, here; nothing else reads process.env.
-export const ROOT_DIR = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+// The project folder: the nearest folder above this file with package.json and server/ (this file runs from
+// server/env.ts under tsx, and from dist/server/index.mjs once bundled for `npm start`).
+function projectRoot(from: string) {
+  for (let d = from; ; d = path.dirname(d)) {
+    if (existsSync(path.join(d, 'package.json')) && existsSync(path.join(d, 'server'))) return d;
+    if (path.dirname(d) === d) return path.resolve(from, '..');
+  }
+}
+export const ROOT_DIR = projectRoot(path.dirname(fileURLToPath(import.meta.url)));
 
 const schema = z
   .object({
@@ -59,6 +68,21 @@ const schema = z
       .default(24),
     /** pino level of the request and job logs; 'silent' by default in tests. */
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+    // Uploads stream to files under UPLOADS_DIR/tmp (server/http/upload.ts), never whole in memory. One request may
+    // carry at most UPLOAD_MAX_REQUEST_BYTES (413 beyond); one process receives at most UPLOAD_MAX_CONCURRENT uploads
+    // and UPLOAD_MAX_PROCESS_BYTES declared bytes at once (503 with Retry-After beyond). Defaults: 1 GiB per request
+    // (twenty 50 MB photos), 2 GiB and 8 uploads per process: common practice (sized to the disk, not to memory).
+    UPLOAD_MAX_REQUEST_BYTES: z.coerce
+      .number()
+      .int()
+      .min(1024)
+      .default(1024 * 1024 * 1024),
+    UPLOAD_MAX_PROCESS_BYTES: z.coerce
+      .number()
+      .int()
+      .min(1024)
+      .default(2 * 1024 * 1024 * 1024),
+    UPLOAD_MAX_CONCURRENT: z.coerce.number().int().min(1).default(8),
     /** How long a request waits for a free database connection before a 503 (ms). */
     DB_ACQUIRE_TIMEOUT_MS: z.coerce.number().int().min(100).default(5_000),
     /** How long one query may run before it is abandoned with a 503 (ms); 0 disables. */

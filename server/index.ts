@@ -18,8 +18,6 @@ const catcher = env.SMTP_URL || env.NODE_ENV === 'production' ? null : await sta
 if (catcher) console.log(`[tinctoria] local mail catcher on 127.0.0.1:${catcher.port}, messages in ${catcher.dir}`);
 else if (!env.SMTP_URL)
   console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
-const queuedTiles = await enqueueMissingTiles();
-if (queuedTiles) console.log(`[tinctoria] deep-zoom tiles queued for ${queuedTiles} photo(s)`);
 // The worker runs beside the web server; any number of servers may share the jobs table.
 startWorker();
 
@@ -31,6 +29,11 @@ searchEngine.startFollowing();
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`[tinctoria] serving at ${publicUrl}`);
 });
+// Photos without deep-zoom tiles (from before tiling, or the demo) are queued in the background, in batches.
+void enqueueMissingTiles().then(
+  (n) => n && console.log(`[tinctoria] deep-zoom tiles queued for ${n} photo(s)`),
+  (e) => console.error('[tinctoria] queueing missing tiles', e),
+);
 // Masters and temp files left by a process killed mid-upload (no photo points at them, older than an hour).
 void reconcileOrphans().then(
   (orphans) => orphans.length && console.log(`[tinctoria] removed ${orphans.length} orphan file(s) under uploads/`),

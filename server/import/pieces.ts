@@ -7,14 +7,13 @@ import {
   pieceImportRow,
   type ColumnMapping,
   type ImportError,
-  type ImportPreview,
   type ImportResult,
   type PieceImportRow,
 } from '../../shared/schemas/piece-import.ts';
-import { decodeUtf8, readPieceCsv } from './csv-file.ts';
+import { checkUtf8File, CsvFileErrors, readPieceCsv } from './csv-file.ts';
 
 const CHUNK = 1000;
-type Checked = {
+export type Checked = {
   line: number;
   value: PieceImportRow | null;
   accessionNumber: string;
@@ -53,119 +52,186 @@ async function existingAccessions(numbers: string[], transaction?: Transaction) 
   return found;
 }
 
-/** Check every row: shape and dates (shared schema), vocabularies, and accession numbers unique in the file and the archive. */
-export async function checkCsv(buffer: Buffer, mapping: ColumnMapping, transaction?: Transaction) {
-  const text = decodeUtf8(buffer);
-  const { rows, fileErrors } = readPieceCsv(text, mapping);
-  if (fileErrors.length) return { checked: [] as Checked[], fileErrors };
+/** Rows checked together: one query for their accession numbers, one write of their results. */
+export const BATCH = 500;
+
+export type CheckSummary = {
+  rows: number;
+  valid: number;
+  invalid: number;
+  errorCount: number;
+  fileErrors: ImportError[];
+};
+
+/**
+ * Check every row as the file streams (never the whole file in memory): shape and dates (shared schema),
+ * vocabularies, and accession numbers unique in the file and the archive. Rows are handed to `onBatch` BATCH at a
+ * time, in file order, each with all its errors. A problem with the file as a whole answers `fileErrors` (rows
+ * already handed over are then to be discarded by the caller); a file that is not UTF-8 throws 422 not_utf8.
+ * Memory grows only with the accession numbers seen (for the duplicate check).
+ */
+export async function checkCsv(
+  file: string,
+  mapping: ColumnMapping,
+  onBatch: (batch: Checked[]) => Promise<void>,
+  transaction?: Transaction,
+): Promise<CheckSummary> {
+  await checkUtf8File(file);
   const vocab = await vocabularies(transaction);
-  const firstLine = new Map<string, number>();
-  const checked: Checked[] = rows.map((row) => {
-    const errors = [...row.errors];
-    const parsed = pieceImportRow.safeParse(row.cells);
-    if (!parsed.success) {
-      for (const issue of parsed.error.issues)
-        errors.push({ line: row.line, field: String(issue.path[0] ?? '') || null, message: issue.message });
-    }
-    const value = parsed.success ? parsed.data : null;
-    if (value) {
-      const known = (list: string[], map: Map<string, string>, field: string, what: string) =>
-        list.map((name) => {
-          const hit = map.get(name.toLowerCase());
-          if (!hit) errors.push({ line: row.line, field, message: `Unknown ${what} "${name}".` });
-          return hit ?? name;
-        });
-      value.fibres = known(value.fibres, vocab.fibre, 'fibres', 'fibre');
-      value.techniques = known(value.techniques, vocab.technique, 'techniques', 'technique');
-      const names = known(
-        value.dyestuffs.map((d) => d.name),
-        vocab.dyestuff,
-        'dyestuffs',
-        'dyestuff',
-      );
-      value.dyestuffs = value.dyestuffs.map((d, i) => ({ ...d, name: names[i] }));
-      const mordants = known(
-        value.historicalMordants.map((d) => d.name),
-        vocab.mordant,
-        'historicalMordants',
-        'mordant (chemical)',
-      );
-      value.historicalMordants = value.historicalMordants.map((d, i) => ({ ...d, name: mordants[i] }));
-      const key = accessionKey(value.accessionNumber);
-      const first = firstLine.get(key);
-      if (first !== undefined)
-        errors.push({
-          line: row.line,
+  // Per accession key: the first line it is on, and whether the archive held it before this file (null: not asked yet).
+  const seen = new Map<string, { line: number; inArchive: boolean | null }>();
+  const summary: CheckSummary = { rows: 0, valid: 0, invalid: 0, errorCount: 0, fileErrors: [] };
+  let batch: Checked[] = [];
+  let ask: string[] = []; // keys first seen in this batch
+  const flush = async () => {
+    if (!batch.length) return;
+    const inArchive = await existingAccessions(ask, transaction);
+    for (const k of ask) seen.get(k)!.inArchive = inArchive.has(k);
+    ask = [];
+    for (const c of batch) {
+      if (c.value && seen.get(accessionKey(c.value.accessionNumber))?.inArchive)
+        c.errors.push({
+          line: c.line,
           field: 'accessionNumber',
-          message: `Accession number ${value.accessionNumber} is also on line ${first} of this file.`,
+          message: `Accession number ${c.value.accessionNumber} is already in the archive.`,
         });
-      else firstLine.set(key, row.line);
+      summary.rows += 1;
+      if (c.errors.length) summary.invalid += 1;
+      else summary.valid += 1;
+      summary.errorCount += c.errors.length;
     }
-    return {
-      line: row.line,
-      value,
-      accessionNumber: row.cells.accessionNumber.trim(),
-      title: row.cells.title.trim(),
-      errors,
-    };
-  });
-  const inArchive = await existingAccessions([...firstLine.keys()], transaction);
-  for (const c of checked) {
-    if (c.value && inArchive.has(accessionKey(c.value.accessionNumber)))
-      c.errors.push({
-        line: c.line,
-        field: 'accessionNumber',
-        message: `Accession number ${c.value.accessionNumber} is already in the archive.`,
-      });
+    const done = batch;
+    batch = [];
+    await onBatch(done);
+  };
+  try {
+    for await (const row of readPieceCsv(file, mapping)) {
+      batch.push(checkRow(row, vocab, seen, ask));
+      if (batch.length >= BATCH) await flush();
+    }
+    await flush();
+  } catch (err) {
+    if (!(err instanceof CsvFileErrors)) throw err;
+    return { rows: 0, valid: 0, invalid: 0, errorCount: err.errors.length, fileErrors: err.errors };
   }
-  if (!checked.length) fileErrors.push({ line: 2, field: null, message: 'The file has a header but no pieces.' });
-  return { checked, fileErrors };
+  if (!summary.rows) {
+    const fileErrors = [{ line: 2, field: null, message: 'The file has a header but no pieces.' }];
+    return { ...summary, errorCount: 1, fileErrors };
+  }
+  return summary;
 }
 
-const allErrors = (checked: Checked[], fileErrors: ImportError[]) => [
-  ...fileErrors,
-  ...checked.flatMap((c) => c.errors),
-];
-
-export function preview(checked: Checked[], fileErrors: ImportError[]): ImportPreview {
-  const invalid = checked.filter((c) => c.errors.length).length;
+function checkRow(
+  row: { line: number; cells: Record<string, string>; errors: ImportError[] },
+  vocab: Awaited<ReturnType<typeof vocabularies>>,
+  seen: Map<string, { line: number; inArchive: boolean | null }>,
+  ask: string[],
+): Checked {
+  const errors = [...row.errors];
+  const parsed = pieceImportRow.safeParse(row.cells);
+  if (!parsed.success) {
+    for (const issue of parsed.error.issues)
+      errors.push({ line: row.line, field: String(issue.path[0] ?? '') || null, message: issue.message });
+  }
+  const value = parsed.success ? parsed.data : null;
+  if (value) {
+    const known = (list: string[], map: Map<string, string>, field: string, what: string) =>
+      list.map((name) => {
+        const hit = map.get(name.toLowerCase());
+        if (!hit) errors.push({ line: row.line, field, message: `Unknown ${what} "${name}".` });
+        return hit ?? name;
+      });
+    value.fibres = known(value.fibres, vocab.fibre, 'fibres', 'fibre');
+    value.techniques = known(value.techniques, vocab.technique, 'techniques', 'technique');
+    const names = known(
+      value.dyestuffs.map((d) => d.name),
+      vocab.dyestuff,
+      'dyestuffs',
+      'dyestuff',
+    );
+    value.dyestuffs = value.dyestuffs.map((d, i) => ({ ...d, name: names[i] }));
+    const mordants = known(
+      value.historicalMordants.map((d) => d.name),
+      vocab.mordant,
+      'historicalMordants',
+      'mordant (chemical)',
+    );
+    value.historicalMordants = value.historicalMordants.map((d, i) => ({ ...d, name: mordants[i] }));
+    const key = accessionKey(value.accessionNumber);
+    const first = seen.get(key);
+    if (first !== undefined)
+      errors.push({
+        line: row.line,
+        field: 'accessionNumber',
+        message: `Accession number ${value.accessionNumber} is also on line ${first.line} of this file.`,
+      });
+    else {
+      seen.set(key, { line: row.line, inArchive: null });
+      ask.push(key);
+    }
+  }
   return {
-    dryRun: true,
-    rows: checked.length,
-    valid: checked.length - invalid,
-    invalid,
-    items: checked.map((c) => ({ line: c.line, accessionNumber: c.accessionNumber, title: c.title, errors: c.errors })),
-    errors: allErrors(checked, fileErrors),
+    line: row.line,
+    value,
+    accessionNumber: (row.cells.accessionNumber ?? '').trim(),
+    title: (row.cells.title ?? '').trim(),
+    errors,
   };
 }
 
-/** All rows or none: every piece is created in one transaction, in chunks so 10,000 rows stay quick. */
+/** At most this many errors are listed in a refused import's answer (the message gives the total); the dry run pages them all. */
+export const MAX_LISTED_ERRORS = 1000;
+
+/**
+ * All rows or none: every piece is created in one transaction, BATCH rows at a time as the file streams. Once any
+ * row has an error nothing more is written (the rest is still checked, to list every error) and the transaction
+ * is rolled back.
+ */
 export async function importPieces({
   actor,
   input,
 }: {
   actor: NonNullable<Actor>;
-  input: { buffer: Buffer; mapping: ColumnMapping };
+  input: { file: string; mapping: ColumnMapping };
 }): Promise<ImportResult> {
   return sequelize.transaction(async (transaction) => {
-    const { checked, fileErrors } = await checkCsv(input.buffer, input.mapping, transaction);
-    const errors = allErrors(checked, fileErrors);
-    if (errors.length) {
-      const lines = new Set(errors.map((e) => e.line)).size;
+    const ids: number[] = [];
+    const errors: ImportError[] = [];
+    const lines = new Set<number>();
+    const summary = await checkCsv(
+      input.file,
+      input.mapping,
+      async (batch) => {
+        for (const c of batch)
+          for (const e of c.errors) {
+            lines.add(e.line);
+            if (errors.length < MAX_LISTED_ERRORS) errors.push(e);
+          }
+        if (lines.size) return;
+        const created = await Piece.bulkCreate(
+          batch.map((c) => ({ ...c.value!, createdById: actor.id })),
+          { transaction, validate: false, returning: ['id'] },
+        );
+        ids.push(...created.map((p) => p.id));
+      },
+      transaction,
+    );
+    if (summary.fileErrors.length) {
+      // A file that cannot be read as a whole: only that is reported, as before any row.
+      errors.splice(0, errors.length, ...summary.fileErrors);
+      lines.clear();
+      for (const e of summary.fileErrors) lines.add(e.line);
+    }
+    if (summary.errorCount) {
+      const listed = errors.slice(0, MAX_LISTED_ERRORS);
       throw new HttpError(
         422,
         'import_invalid',
-        `${errors.length} error(s) on ${lines} line(s); nothing was imported.`,
-        { errors },
+        `${summary.errorCount} error(s) on ${lines.size} line(s); nothing was imported.${
+          summary.errorCount > listed.length ? ` The first ${listed.length} are listed; a dry run lists them all.` : ''
+        }`,
+        { errors: listed },
       );
-    }
-    const ids: number[] = [];
-    for (let i = 0; i < checked.length; i += CHUNK) {
-      const created = await Piece.bulkCreate(
-        checked.slice(i, i + CHUNK).map((c) => ({ ...c.value!, createdById: actor.id })),
-        { transaction, validate: false, returning: ['id'] },
-      );
-      ids.push(...created.map((p) => p.id));
     }
     return { dryRun: false, imported: ids.length, ids };
   });

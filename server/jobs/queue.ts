@@ -44,6 +44,31 @@ export async function enqueueUntyped(
   return insertJob(input, transaction);
 }
 
+/** Queue many jobs of known kinds in one statement (a start-up backlog); the same checks as enqueue(). */
+export async function enqueueMany<K extends JobType>(inputs: EnqueueInput<K>[], transaction?: Transaction) {
+  if (!inputs.length) return [];
+  const now = new Date();
+  return Job.bulkCreate(
+    inputs.map((input) => ({
+      type: input.type,
+      payload: jobPayloads[input.type].parse(input.payload ?? {}) as Record<string, unknown>,
+      subjectType: input.subject?.type ?? null,
+      subjectId: input.subject?.id ?? null,
+      maxAttempts: input.maxAttempts ?? 3,
+      error: null,
+      result: null,
+      lockedBy: null,
+      lockedAt: null,
+      leaseUntil: null,
+      runAfter: input.runAfter ?? now,
+      startedAt: null,
+      finishedAt: null,
+      createdById: input.createdById ?? null,
+    })),
+    { transaction },
+  );
+}
+
 async function insertJob(input: { type: string; payload?: object } & EnqueueOptions, transaction?: Transaction) {
   const raw = input.payload ?? {};
   // A programming error (a payload its kind does not take) stops here rather than failing later in the worker.

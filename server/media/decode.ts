@@ -43,6 +43,9 @@ type Device = {
   plainSrgb: boolean;
 };
 type Managed = { kind: 'lcms'; sixteen: boolean };
+/** An image as sharp reads it: the bytes, or the path of a file (an upload streamed to disk). */
+export type ImageInput = Buffer | string;
+
 export type ColourSource = { mode: Device | Managed; facts: PhotoColourFacts };
 
 const IDENTITY: M3 = [
@@ -166,7 +169,7 @@ export function colourSource(meta: Metadata): ColourSource {
   };
 }
 
-export const open = (input: Buffer, device: boolean) =>
+export const open = (input: ImageInput, device: boolean) =>
   sharp(input, { limitInputPixels: MAX_PIXELS, failOn: 'error', ignoreIcc: device });
 
 /** The upright device pixels as decoded, at their own depth (or 8-bit sRGB through lcms). */
@@ -228,12 +231,12 @@ export function toDisplay(img: RawImage): Uint8Array {
   return out;
 }
 
-export async function readSource(input: Buffer): Promise<ColourSource> {
+export async function readSource(input: ImageInput): Promise<ColourSource> {
   return colourSource(await sharp(input, { limitInputPixels: false }).metadata());
 }
 
 /** The upright photo at display size: the one decode that derivatives and the whole-photo palette share. */
-async function decodeAtDisplaySize(input: Buffer, source: ColourSource) {
+async function decodeAtDisplaySize(input: ImageInput, source: ColourSource) {
   const { width, height } = await uprightSize(input);
   const size = displaySize(Math.max(width, height));
   const img = open(input, source.mode.kind === 'device')
@@ -248,7 +251,7 @@ async function decodeAtDisplaySize(input: Buffer, source: ColourSource) {
  * colours. The two decodes run side by side on libvips' threads; each uses JPEG shrink-on-load,
  * which is cheaper than decoding once at display size and reducing that again.
  */
-export async function decodeForIngest(input: Buffer, source?: ColourSource) {
+export async function decodeForIngest(input: ImageInput, source?: ColourSource) {
   const src = source ?? (await readSource(input));
   const [shown, work] = await Promise.all([
     decodeAtDisplaySize(input, src),
@@ -263,7 +266,7 @@ export async function decodeForIngest(input: Buffer, source?: ColourSource) {
 }
 
 /** The whole upright photo reduced to the working size in one pipeline. */
-async function wholeWorkingImage(input: Buffer, src: ColourSource, size: number) {
+async function wholeWorkingImage(input: ImageInput, src: ColourSource, size: number) {
   const img = open(input, src.mode.kind === 'device')
     .rotate()
     .resize({ width: size, height: size, fit: 'inside', withoutEnlargement: true, kernel: 'linear' });
@@ -277,7 +280,7 @@ async function wholeWorkingImage(input: Buffer, src: ColourSource, size: number)
  * at edges that would invent colours.
  */
 export async function workingImage(
-  input: Buffer,
+  input: ImageInput,
   region?: Rect,
   size = WORKING_SIZE,
 ): Promise<RawImage & { scale: number }> {
@@ -330,7 +333,7 @@ function finishRaw(img: Sharp, like: Decoded) {
     .raw({ depth: sixteen ? 'ushort' : 'uchar' });
 }
 
-export async function uprightSize(input: Buffer) {
+export async function uprightSize(input: ImageInput) {
   const m = await sharp(input, { limitInputPixels: false }).metadata();
   const swap = (m.orientation ?? 1) >= 5;
   return { width: swap ? m.height! : m.width!, height: swap ? m.width! : m.height! };

@@ -20,15 +20,16 @@ const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : u
 
 /**
  * EXIF of interest to a curator, and GPS apart (it is kept on the photo row only, for
- * curators and admins). reviveValues:false keeps dates as the camera wrote them
+ * curators and admins). A path is read from the file in chunks (exifr's
+ * chunked reader), not whole. reviveValues:false keeps dates as the camera wrote them
  * ("2024:05:06 07:08:09", no time zone) instead of guessing one from the server's.
  */
 export async function readExif(
-  buffer: Buffer,
+  input: Buffer | string,
 ): Promise<{ exif: ExifSummary; gps: Gps | null; capturedAt: string | null }> {
   let tags: Record<string, unknown> | undefined;
   try {
-    tags = await exifr.parse(buffer, {
+    tags = await exifr.parse(input, {
       tiff: true,
       exif: true,
       gps: true,

@@ -32,6 +32,15 @@ export class WrittenFiles {
     return tmp;
   }
 
+  /** Like writeTemp, for an upload already on disk (absolute path under tmp/): renamed, not rewritten. */
+  async moveTemp(sha256: string, ext: string, from: string) {
+    const tmp = tempMasterPath(sha256, ext);
+    await ensureParent(tmp);
+    await rename(from, resolveInsideUploads(tmp));
+    this.paths.push(tmp);
+    return tmp;
+  }
+
   async removeAll() {
     for (const p of this.paths.reverse()) await rm(resolveInsideUploads(p), { force: true });
     this.paths = [];

@@ -1,12 +1,13 @@
 import { createHash } from 'node:crypto';
-import { readFile, rm } from 'node:fs/promises';
+import { createReadStream } from 'node:fs';
+import { readFile, rm, stat } from 'node:fs/promises';
 import sharp, { type Metadata } from 'sharp';
 import { MAX_PIXELS } from './decode.ts';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
 import { PaletteColour, Photo } from '../models/index.ts';
 import type { PhotoView } from '../models/catalogue.ts';
-import { colourSource, decodeForIngest, type ColourSource } from './decode.ts';
+import { colourSource, decodeForIngest, type ColourSource, type ImageInput } from './decode.ts';
 import { readExif } from './exif.ts';
 import { exists, moveIntoPlace, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
@@ -20,8 +21,12 @@ export const DERIVATIVES = { thumb: 320, display: 1600 } as const;
 
 const FORMATS: Record<string, string> = { jpeg: 'jpg', png: 'png', tiff: 'tif', webp: 'webp', heif: 'heic' };
 
-export type IngestInput = {
-  buffer: Buffer;
+/**
+ * The photo's bytes, or (an upload streamed to disk, server/http/upload.ts) the absolute path of its temp file,
+ * which the pipeline reads from and then renames into place as the master: never read whole into memory.
+ */
+export type IngestSource = { buffer: Buffer; path?: undefined } | { path: string; buffer?: undefined };
+export type IngestInput = IngestSource & {
   originalName?: string | null;
   pieceId?: number | null;
   trialId?: number | null;
@@ -29,13 +34,13 @@ export type IngestInput = {
 };
 
 /** Format and upright size, decided by content; refuses what is not a supported image. */
-async function probe(buffer: Buffer) {
-  if (buffer.length === 0) throw new HttpError(422, 'empty_file', 'The file is empty.');
-  if (buffer.length > MAX_BYTES)
+async function probe(input: ImageInput, bytes: number) {
+  if (bytes === 0) throw new HttpError(422, 'empty_file', 'The file is empty.');
+  if (bytes > MAX_BYTES)
     throw new HttpError(413, 'too_large', `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`);
   let meta: Metadata;
   try {
-    meta = await sharp(buffer, { limitInputPixels: false }).metadata();
+    meta = await sharp(input, { limitInputPixels: false }).metadata();
   } catch (err) {
     if (/unsupported image format/i.test(String(err)))
       throw new HttpError(
@@ -78,47 +83,63 @@ async function probe(buffer: Buffer) {
  * reduced to the display size; the whole-photo working image is reduced from it exactly as
  * repalette() reduces it, so both give the same palette.
  */
-async function decodeDisplay(buffer: Buffer, colour: ColourSource) {
+async function decodeDisplay(input: ImageInput, colour: ColourSource) {
   try {
-    return await decodeForIngest(buffer, colour);
+    return await decodeForIngest(input, colour);
   } catch {
     throw new HttpError(422, 'corrupt_image', 'The image is truncated or damaged and cannot be decoded.');
   }
 }
 
+/** SHA-256 of the bytes, or of a file read as a stream (never whole in memory). */
+async function sha256Of(input: ImageInput) {
+  const hash = createHash('sha256');
+  if (typeof input === 'string') for await (const chunk of createReadStream(input)) hash.update(chunk as Buffer);
+  else hash.update(input);
+  return hash.digest('hex');
+}
+
 const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { raw: { width, height, channels: 3 } });
 
 /**
- * The media pipeline, in this order: check → store the master (by SHA-256) → EXIF →
+ * The media pipeline, in this order: check → SHA-256 and EXIF → store the master (by SHA-256) →
  * derivatives → palette (the decode and the WebP encodes overlap with the work on this
- * thread). All rows go into the caller's transaction; on any failure every
+ * thread). An upload on disk (`input.path`) is read from its file, never whole into memory (sharp, exifr and the
+ * hash all read the file), and renamed into place as the master. All rows go into the caller's transaction; on any failure every
  * file written here is removed again and an HttpError is thrown.
  */
 export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<IngestInput>) {
-  const { buffer } = input;
-  const info = await probe(buffer);
+  const source: ImageInput = input.path ?? input.buffer;
+  const bytes = input.path !== undefined ? (await stat(input.path)).size : input.buffer.length;
+  const info = await probe(source, bytes);
   const files = new WrittenFiles();
   let photoId: number | null = null;
   // libvips decodes on its own threads while this thread hashes, stores and reads EXIF.
-  const decoding = decodeDisplay(buffer, info.colour);
+  const decoding = decodeDisplay(source, info.colour);
   decoding.catch(() => undefined);
   try {
-    // 1. Store the master byte for byte; an identical file already stored is shared.
-    const sha256 = createHash('sha256').update(buffer).digest('hex');
+    // 1. The master's name is its SHA-256 (a file is hashed as it streams from disk); 2. EXIF (GPS kept apart, on
+    // the row only), read from the file in chunks by exifr.
+    const sha256 = await sha256Of(source);
+    const { exif, gps, capturedAt } = await readExif(source);
+    const { display: shown, work, facts } = await decoding;
+
+    // 3. Store the master byte for byte; an identical file already stored is shared. Once every read of the upload
+    // is done, an uploaded file is renamed (not copied) to the master's temporary name.
     const master = masterPath(sha256, info.ext);
     if (!(await exists(master))) {
       // Under a temporary name until the rows commit: a process killed before the commit leaves no master that no
       // row points at (the reconciler clears the temp file), and a rolled-back transaction never moves it into place.
-      const tmp = await files.writeTemp(sha256, info.ext, buffer);
+      const tmp =
+        input.path !== undefined
+          ? await files.moveTemp(sha256, info.ext, input.path)
+          : await files.writeTemp(sha256, info.ext, input.buffer);
       transaction.afterCommit(async () => {
         // A failed move must not turn a committed upload into an error; the reconciler finishes it later.
         await moveIntoPlace(tmp, master).catch((e) => console.error('[media] moving a master into place', e));
       });
     }
 
-    // 2. EXIF (GPS kept apart, on the row only).
-    const { exif, gps, capturedAt } = await readExif(buffer);
-    const { display: shown, work, facts } = await decoding;
     const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
     const d = { width: shown.width, height: shown.height };
     const photo = await Photo.create(
@@ -127,7 +148,7 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
         trialId: input.trialId ?? null,
         sha256,
         format: info.format,
-        bytes: buffer.length,
+        bytes,
         width: info.width,
         height: info.height,
         view: input.view ?? 'recto',
@@ -146,8 +167,8 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     );
     photoId = photo.id;
 
-    // 3. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
-    // threads while 4. the palette of the whole photo is computed here on a working-size copy.
+    // 4. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
+    // threads while 5. the palette of the whole photo is computed here on a working-size copy.
     const encoding = Promise.all([
       fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
       fromRaw(data, d.width, d.height)

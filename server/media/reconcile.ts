@@ -25,12 +25,18 @@ async function list(relative: string) {
 
 /**
  * Remove files under uploads/ that no photo row points at and that are older than ORPHAN_AGE_MS: masters
- * (masters/<xx>/<sha256>.<ext> with no photo of that sha256) and temp files (tmp/). A temp master whose photo row
+ * (masters/<xx>/<sha256>.<ext> with no photo of that sha256), temp files (tmp/: masters waiting for their commit, and
+ * uploads streamed to disk, tmp/upload-<random>.part, left by a process that died mid-request), and the derivatives
+ * and tiles folders of photos that do not exist (reconcileOrphanFolders). A temp master whose photo row
  * did commit but whose move was cut short is moved into place instead of removed. Run at start
  * (server/index.ts) and by the fixity check, which reports what was removed. Safe on several servers at once: a
  * file another server removed first is simply gone.
  */
 export async function reconcileOrphans(opts: { olderThanMs?: number; now?: Date } = {}): Promise<FixityOrphan[]> {
+  return [...(await reconcileOrphanFiles(opts)), ...(await reconcileOrphanFolders(opts))];
+}
+
+async function reconcileOrphanFiles(opts: { olderThanMs?: number; now?: Date }): Promise<FixityOrphan[]> {
   const cutoff = (opts.now ?? new Date()).getTime() - (opts.olderThanMs ?? ORPHAN_AGE_MS);
   const candidates: Array<{ file: string; kind: 'master' | 'temp'; sha256: string | null; ext: string | null }> = [];
   for (const dir of await list('masters')) {
@@ -80,6 +86,58 @@ export async function reconcileOrphans(opts: { olderThanMs?: number; now?: Date 
     }
     await rm(resolveInsideUploads(c.file), { force: true });
     removed.push({ file: c.file, kind: c.kind, bytes: c.bytes, modifiedAt: c.modifiedAt.toISOString() });
+  }
+  return removed;
+}
+
+/** Bytes and newest change time of everything under a folder. */
+async function folderStat(relative: string): Promise<{ bytes: number; newest: number }> {
+  let bytes = 0;
+  let newest = 0;
+  const s = await stat(resolveInsideUploads(relative)).catch(() => null);
+  if (s) newest = s.mtimeMs;
+  for (const e of await list(relative)) {
+    const child = path.posix.join(relative, e.name);
+    if (e.isDirectory()) {
+      const sub = await folderStat(child);
+      bytes += sub.bytes;
+      newest = Math.max(newest, sub.newest);
+    } else {
+      const f = await stat(resolveInsideUploads(child)).catch(() => null);
+      if (f) {
+        bytes += f.size;
+        newest = Math.max(newest, f.mtimeMs);
+      }
+    }
+  }
+  return { bytes, newest };
+}
+
+/**
+ * Derivatives and tiles folders (derivatives/<photoId>, tiles/<photoId>) of photos that do not exist: written by an
+ * upload whose transaction never committed (the process died, or the write failed after the pipeline ran), or left
+ * behind by a delete cut short. Removed once nothing in them changed for ORPHAN_AGE_MS, so an upload still running
+ * (its row not yet committed) keeps its folder.
+ */
+export async function reconcileOrphanFolders(opts: { olderThanMs?: number; now?: Date } = {}): Promise<FixityOrphan[]> {
+  const cutoff = (opts.now ?? new Date()).getTime() - (opts.olderThanMs ?? ORPHAN_AGE_MS);
+  const found: Array<{ kind: 'derivatives' | 'tiles'; id: number; file: string }> = [];
+  for (const kind of ['derivatives', 'tiles'] as const)
+    for (const e of await list(kind))
+      if (e.isDirectory() && /^[1-9][0-9]{0,9}$/.test(e.name))
+        found.push({ kind, id: Number(e.name), file: path.posix.join(kind, e.name) });
+  if (!found.length) return [];
+  const ids = [...new Set(found.map((f) => f.id))];
+  const existing = new Set(
+    (await Photo.findAll({ attributes: ['id'], where: { id: { [Op.in]: ids } }, raw: true })).map((p) => p.id),
+  );
+  const removed: FixityOrphan[] = [];
+  for (const f of found) {
+    if (existing.has(f.id)) continue;
+    const { bytes, newest } = await folderStat(f.file);
+    if (newest >= cutoff) continue;
+    await rm(resolveInsideUploads(f.file), { recursive: true, force: true });
+    removed.push({ file: f.file, kind: f.kind, bytes, modifiedAt: new Date(newest).toISOString() });
   }
   return removed;
 }

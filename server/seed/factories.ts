@@ -241,7 +241,7 @@ export async function makePhoto(
   input: Partial<IngestInput> & { hex?: string; width?: number; height?: number } = {},
   transaction?: Transaction,
 ) {
-  const { hex = '#8a3b2f', width = 240, height = 160, ...rest } = input;
+  const { hex = '#8a3b2f', width = 240, height = 160, path: _path, ...rest } = input;
   const buffer =
     rest.buffer ??
     (await sharp({ create: { width, height, channels: 3, background: hex } })

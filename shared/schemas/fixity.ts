@@ -13,11 +13,12 @@ export type FixityProblem = z.infer<typeof fixityProblemSchema>;
 
 /**
  * A file under uploads/ that no photo points at, removed by the check once older than an hour (a master left by a
- * process killed before its upload committed, or a temp file); `file` is relative to uploads/.
+ * process killed before its upload committed, a temp file, or a photo's derivatives or tiles folder whose photo row
+ * never committed or is gone); `file` is relative to uploads/ (for a folder, its size in bytes is its files' sum).
  */
 export const fixityOrphanSchema = z.object({
   file: z.string(),
-  kind: z.enum(['master', 'temp']),
+  kind: z.enum(['master', 'temp', 'derivatives', 'tiles']),
   bytes: z.number().int().min(0),
   modifiedAt: z.iso.datetime(),
 });

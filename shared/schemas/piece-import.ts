@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } from '../accession.ts';
 import '../messages.ts';
 import { dateIssues, edtfYears, YEAR_MAX, YEAR_MIN } from '../edtf.ts';
+import { pageQuery, paged } from './common.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).
 export const PIECE_CSV_FIELDS = [
@@ -190,15 +191,36 @@ export const importPreviewRowSchema = z.object({
   errors: z.array(importErrorSchema),
 });
 export type ImportPreviewRow = z.infer<typeof importPreviewRowSchema>;
-/** `?dryRun=true` (200): every row checked, nothing written. */
+/** Rows and errors of a dry run are answered a page at a time (the first page with the dry run itself). */
+export const IMPORT_PREVIEW_PAGE = 100;
+/**
+ * `?dryRun=true` (200): every row checked, nothing written. The counts cover the whole file; `items` and `errors`
+ * are their first pages (IMPORT_PREVIEW_PAGE each); further pages come from GET /api/import/previews/:id/rows and
+ * /errors until `expiresAt`.
+ */
 export const importPreviewSchema = z.object({
   dryRun: z.literal(true),
+  id: z.string(),
   rows: z.number().int().min(0),
   valid: z.number().int().min(0),
   invalid: z.number().int().min(0),
+  errorCount: z.number().int().min(0),
+  pageSize: z.number().int().min(1),
+  expiresAt: z.string(),
   items: z.array(importPreviewRowSchema),
   errors: z.array(importErrorSchema),
 });
+/** A dry run's id (32 hex digits). */
+export const importPreviewParams = z.object({
+  id: z.string().regex(/^[0-9a-f]{32}$/, 'Not the id of an import preview.'),
+});
+/** Paging through a dry run's rows: every row, or only those with errors. */
+export const importPreviewRowsQuery = pageQuery(IMPORT_PREVIEW_PAGE, 500).extend({
+  only: z.enum(['all', 'invalid']).default('all'),
+});
+export const importPreviewErrorsQuery = pageQuery(IMPORT_PREVIEW_PAGE, 500);
+export const importPreviewRowsPage = paged(importPreviewRowSchema);
+export const importPreviewErrorsPage = paged(importErrorSchema);
 export type ImportPreview = z.infer<typeof importPreviewSchema>;
 /** The import itself (201): the new pieces' ids. */
 export const importResultSchema = z.object({

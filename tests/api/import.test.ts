@@ -262,6 +262,52 @@ describe('CSV import of pieces', () => {
     expect(await countWith(p)).toBe(0);
   });
 
+  it('answers a dry run with its counts and first page, and serves the further pages of rows and errors', async () => {
+    const p = prefix();
+    const lines = [HEADER];
+    // 250 rows; every tenth has an unknown dyestuff (one error), every 50th also an extra cell (a second error).
+    for (let i = 1; i <= 250; i++)
+      lines.push(
+        `${p}.${i},panel,Row ${i},1780,${i % 10 === 0 ? 'unobtainium' : 'madder'},${i % 50 === 0 ? ',extra' : ''}`,
+      );
+    const dry = await upload(`${lines.join('\n')}\n`, { dryRun: true }).expect(200);
+    expect(dry.body).toMatchObject({ dryRun: true, rows: 250, valid: 225, invalid: 25, errorCount: 30, pageSize: 100 });
+    expect(dry.body.id).toMatch(/^[0-9a-f]{32}$/);
+    expect(dry.body.items).toHaveLength(100);
+    expect(dry.body.items[0].line).toBe(2);
+    expect(dry.body.errors).toHaveLength(30);
+
+    const curator = await signedInAgent(app, 'curator');
+    const rows = (q: string) => curator.get(`/api/import/previews/${dry.body.id}/rows?${q}`);
+    const third = await rows('page=3').expect(200);
+    expect(third.body).toMatchObject({ total: 250, page: 3, pageSize: 100 });
+    expect(third.body.items.map((r: { line: number }) => r.line)).toEqual(
+      Array.from({ length: 50 }, (_, i) => 202 + i),
+    );
+    const invalid = await rows('only=invalid&page=2&pageSize=10').expect(200);
+    expect(invalid.body.total).toBe(25);
+    // Rows 110…200 (lines 111…201) are the 11th…20th rows with errors.
+    expect(invalid.body.items.map((r: { line: number }) => r.line)).toEqual(
+      Array.from({ length: 10 }, (_, i) => 111 + 10 * i),
+    );
+    // Errors in file order, a page at a time: the page boundary may fall inside a row's errors.
+    const all = (await curator.get(`/api/import/previews/${dry.body.id}/errors?pageSize=500`).expect(200)).body;
+    expect(all.items).toEqual(dry.body.errors);
+    const pieces = [];
+    for (let page = 1; page <= 6; page++)
+      pieces.push(
+        ...(await curator.get(`/api/import/previews/${dry.body.id}/errors?page=${page}&pageSize=7`).expect(200)).body
+          .items,
+      );
+    expect(pieces).toEqual(all.items);
+
+    // Another user's preview is not found; a malformed id is a 400; nothing was written.
+    await (await signedInAgent(app, 'admin')).get(`/api/import/previews/${dry.body.id}/rows`).expect(404);
+    await curator.get('/api/import/previews/not-an-id/rows').expect(400);
+    await curator.get(`/api/import/previews/${dry.body.id}/rows?pageSize=501`).expect(400);
+    expect(await countWith(p)).toBe(0);
+  });
+
   it('refuses a file missing a required column (422, line 1) and imports nothing', async () => {
     const p = prefix();
     const res = await upload(`accessionNumber,objectName\n${p}.1,panel\n`).expect(422);

@@ -54,4 +54,30 @@ describe('importing a spreadsheet catalogue in Chromium', () => {
     await expect.poll(() => page.getByRole('alert').first().textContent()).toMatch(/not UTF-8: line 2/);
     await page.close();
   }, 60_000);
+
+  it('pages through a large preview, a hundred rows at a time, asked of the server', async () => {
+    const tag = `BP.${Date.now().toString(36)}`;
+    const lines = ['accessionNumber,objectName,title,dyestuffs'];
+    for (let i = 1; i <= 250; i++) lines.push(`${tag}.${i},panel,Row ${i},${i % 10 === 0 ? 'unobtainium' : 'madder'}`);
+    const page = await suite.browser.context.newPage();
+    await signInAs(page, suite.server.url, 'curator@demo.test');
+    await page.goto(`${suite.server.url}/import`);
+    await page
+      .getByLabel('CSV file (UTF-8)')
+      .setInputFiles({ name: 'big.csv', mimeType: 'text/csv', buffer: Buffer.from(`${lines.join('\n')}\n`) });
+    await page.getByRole('button', { name: 'Check every row' }).click();
+    await expect
+      .poll(() => page.getByTestId('import-summary').textContent())
+      .toMatch(/250 rows: 225 ready, 25 with errors/);
+    // Only the 25 rows with errors: one page.
+    await expect.poll(() => page.getByRole('table').last().locator('tbody tr').count()).toBe(25);
+    await page.getByLabel('Show only rows with errors').uncheck();
+    const pager = page.getByRole('navigation', { name: 'Pages of the preview' });
+    await expect.poll(() => pager.textContent()).toMatch(/Page 1 of 3/);
+    await expect.poll(() => page.getByRole('table').last().locator('tbody tr').count()).toBe(100);
+    await pager.getByRole('button', { name: 'Next' }).click();
+    await expect.poll(() => pager.textContent()).toMatch(/Page 2 of 3/);
+    await expect.poll(() => page.getByRole('table').last().locator('tbody tr').first().textContent()).toMatch(/^102/);
+    await page.close();
+  }, 60_000);
 });

@@ -1,4 +1,4 @@
-import { existsSync, mkdirSync, readdirSync, readFileSync, statSync, utimesSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
 import { createHash, randomBytes } from 'node:crypto';
 import path from 'node:path';
 import { crc32 } from 'node:zlib';
@@ -472,6 +472,31 @@ describe('no orphan masters (a master goes into place only after its transaction
     expect(existsSync(photoFile(photo, 'master'))).toBe(true);
     expect(removed.some((o) => o.file.includes(photo.sha256) || o.file === fresh)).toBe(false);
     await removeFile(fresh);
+  });
+
+  it('removes derivatives and tiles folders of photos that never committed, once untouched for an hour', async () => {
+    const ghost = 2_000_000_000 + Math.floor(Math.random() * 100_000_000);
+    const oldDerivative = put(`derivatives/${ghost}/display.webp`, Buffer.from('a derivative of a rolled-back photo'));
+    age(oldDerivative);
+    age(path.dirname(oldDerivative));
+    const freshGhost = ghost + 1;
+    put(`tiles/${freshGhost}/info.json`, Buffer.from('{}')); // an upload still running: kept
+    const { photo } = await ingest(await pngOf('#1f5a7a'));
+    const kept = put(`tiles/${photo.id}/iiif/info.json`, Buffer.from('{}'));
+    age(kept);
+    age(path.dirname(kept));
+
+    const removed = await reconcileOrphans();
+    expect(removed).toContainEqual({
+      file: `derivatives/${ghost}`,
+      kind: 'derivatives',
+      bytes: 35,
+      modifiedAt: expect.stringMatching(/^\d{4}-/),
+    });
+    expect(existsSync(resolveInsideUploads(`derivatives/${ghost}`))).toBe(false);
+    expect(existsSync(resolveInsideUploads(`tiles/${freshGhost}/info.json`))).toBe(true);
+    expect(existsSync(kept)).toBe(true);
+    rmSync(resolveInsideUploads(`tiles/${freshGhost}`), { recursive: true, force: true });
   });
 
   it('finishes the move of a committed photo whose process died before moving its master', async () => {

@@ -4,6 +4,10 @@ import sharp from 'sharp';
 import * as factories from '../../server/seed/factories.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { enqueue } from '../../server/jobs/queue.ts';
+import { dryRunImport } from '../../server/import/preview-store.ts';
+import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
@@ -143,6 +147,19 @@ async function failedJob() {
 }
 const importCsv = () =>
   Buffer.from(`accessionNumber,objectName,title\nMATRIX.${uniqueEmail('x').replace(/\W/g, '')},panel,Matrix import\n`);
+/** A dry run made by the actor (its own preview); for a visitor or a role that may not import, by a new curator. */
+async function importPreview(ctx: SetupContext) {
+  const ownerId =
+    ctx.user && ['curator', 'admin'].includes(ctx.user.role) ? ctx.user.id : (await makeUser('curator')).id;
+  const dir = await mkdtemp(path.join(tmpdir(), 'matrix-import-'));
+  try {
+    const file = path.join(dir, 'pieces.csv');
+    await writeFile(file, importCsv());
+    return await dryRunImport({ actor: { id: ownerId }, input: { file, mapping: {} } });
+  } finally {
+    await rm(dir, { recursive: true, force: true });
+  }
+}
 const exporter: Record<Who, Expected> = { visitor: 401, admin: '2xx', curator: '2xx', researcher: '2xx', dyer: 403 };
 
 // Trials: a fresh trial per request, owned by the actor for `:own` and by another dyer otherwise.
@@ -394,6 +411,18 @@ export const routeMatrix: MatrixRow[] = [
         attach: [{ field: 'file', buffer: importCsv(), filename: 'pieces.csv' }],
       }),
     },
+  ),
+  row(
+    'GET /api/import/previews/:id/rows',
+    { visitor: 401, admin: '2xx', curator: '2xx', researcher: 403, dyer: 403 },
+    {
+      setup: async (ctx) => ({ params: { id: (await importPreview(ctx)).id }, query: { only: 'invalid' } }),
+    },
+  ),
+  row(
+    'GET /api/import/previews/:id/errors',
+    { visitor: 401, admin: '2xx', curator: '2xx', researcher: 403, dyer: 403 },
+    { setup: async (ctx) => ({ params: { id: (await importPreview(ctx)).id } }) },
   ),
   row('GET /api/export/pieces.csv', exporter),
   row('GET /api/export/trials.csv', signedIn),

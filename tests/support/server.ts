@@ -37,12 +37,18 @@ export async function freePort(): Promise<number> {
 export type ServerProcess = { url: string; port: number; child: ChildProcess; stop: () => Promise<void> };
 
 /**
- * Start a separate app server process (server/index.ts, as `npm start` runs it) on the given port, against the same
+ * Start a separate app server process (dist/server/index.mjs, built from server/index.ts, as `npm start` runs it) on the given port, against the same
  * database and data directory as the tests. Resolves once it is serving with its search indexes loaded; stop() sends
  * SIGTERM and waits.
  */
-export async function startServerProcess(port: number, timeoutMs = 90_000): Promise<ServerProcess> {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+export async function startServerProcess(
+  port: number,
+  timeoutMs = 90_000,
+  extraEnv: Record<string, string> = {},
+  { waitForSearch = true }: { waitForSearch?: boolean } = {},
+): Promise<ServerProcess> {
+  // The bundled server that `npm start` runs (scripts/lib.sh build_server; npm test and npm run bench build it first).
+  const child = spawn(process.execPath, ['--enable-source-maps', 'dist/server/index.mjs'], {
     cwd: ROOT_DIR,
     // The tests name each client by X-Forwarded-For from loopback, as a proxy would (TRUST_PROXY is off by default).
     env: childEnv({
@@ -50,6 +56,7 @@ export async function startServerProcess(port: number, timeoutMs = 90_000): Prom
       HOST: '127.0.0.1',
       PUBLIC_URL: `http://127.0.0.1:${port}`,
       TRUST_PROXY: 'loopback',
+      ...extraEnv,
     }),
     stdio: ['ignore', 'pipe', 'pipe'],
   });
@@ -74,7 +81,7 @@ export async function startServerProcess(port: number, timeoutMs = 90_000): Prom
     });
   });
   // The server listens before its search indexes are in (search answers 503 until then): wait for them too.
-  for (const until = Date.now() + timeoutMs; ;) {
+  for (const until = Date.now() + timeoutMs; waitForSearch;) {
     const h = await fetch(`http://127.0.0.1:${port}/api/health`)
       .then((r) => r.json() as Promise<{ search?: { text: { loaded: boolean }; shade: { loaded: boolean } } }>)
       .catch(() => null);

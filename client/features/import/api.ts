@@ -1,6 +1,13 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { http } from '../../lib/http';
 import { upload } from '../../lib/upload';
-import type { ColumnMapping, ImportPreview, ImportResult } from '../../../shared/schemas/piece-import';
+import type { Paged } from '../../../shared/schemas/common';
+import type {
+  ColumnMapping,
+  ImportPreview,
+  ImportPreviewRow,
+  ImportResult,
+} from '../../../shared/schemas/piece-import';
 
 export const importKeys = { all: ['import'] as const };
 // The archive's lists live under this key prefix (owned by the catalogue feature).
@@ -22,6 +29,27 @@ export const runImport = (input: ImportInput) =>
 
 export const usePreviewImport = () =>
   useMutation({ mutationKey: [...importKeys.all, 'preview'], mutationFn: previewImport });
+
+/**
+ * One page of a dry run's rows (all, or only those with errors) read from the server (the
+ * preview is kept there for a day); page 1 comes with the dry run's own answer and is not asked again.
+ */
+export function usePreviewRows(preview: ImportPreview | null, page: number, only: 'all' | 'invalid') {
+  const first: Paged<ImportPreviewRow> | undefined =
+    preview && only === 'all'
+      ? { items: preview.items, total: preview.rows, page: 1, pageSize: preview.pageSize }
+      : undefined;
+  return useQuery({
+    queryKey: [...importKeys.all, 'preview', preview?.id, 'rows', only, page],
+    queryFn: () =>
+      http<Paged<ImportPreviewRow>>(
+        `/api/import/previews/${preview!.id}/rows?${new URLSearchParams({ page: String(page), pageSize: String(preview!.pageSize), only })}`,
+      ),
+    enabled: preview !== null && !(page === 1 && first),
+    initialData: page === 1 ? first : undefined,
+    placeholderData: keepPreviousData,
+  });
+}
 
 export function useRunImport() {
   const qc = useQueryClient();

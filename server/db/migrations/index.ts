@@ -17,6 +17,7 @@ import * as m0020photoTrialFk from './0020-photo-trial-fk.ts';
 import * as m0021rateLimits from './0021-rate-limits.ts';
 import * as m0022jobLease from './0022-job-lease.ts';
 import * as m0023searchChanges from './0023-search-changes.ts';
+import * as m0024importPreviews from './0024-import-previews.ts';
 import * as m0027photoChart from './0027-photo-chart.ts';
 import * as m0029fadingPairs from './0029-fading-pairs.ts';
 
@@ -41,6 +42,7 @@ export const migrations: Migration[] = [
   { name: '0021-rate-limits', ...m0021rateLimits },
   { name: '0022-job-lease', ...m0022jobLease },
   { name: '0023-search-changes', ...m0023searchChanges },
+  { name: '0024-import-previews', ...m0024importPreviews },
   { name: '0027-photo-chart', ...m0027photoChart },
   { name: '0029-fading-pairs', ...m0029fadingPairs },
 ];

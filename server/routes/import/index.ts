@@ -1,16 +1,25 @@
 import { Router, type RequestHandler } from 'express';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { badRequest, forbidden } from '../../http/errors.ts';
-import { receiveUpload } from '../../http/upload.ts';
-import { parseQuery } from '../../http/validate.ts';
+import { discardUploads, receiveUpload } from '../../http/upload.ts';
+import { parseParams, parseQuery } from '../../http/validate.ts';
 import { can } from '../../policies/index.ts';
-import { checkCsv, importPieces, preview } from '../../import/pieces.ts';
-import { columnMapping, importQuery, type ColumnMapping } from '../../../shared/schemas/piece-import.ts';
+import { importPieces } from '../../import/pieces.ts';
+import { dryRunImport, loadPreview, previewErrors, previewRows } from '../../import/preview-store.ts';
+import {
+  columnMapping,
+  importPreviewErrorsQuery,
+  importPreviewParams,
+  importPreviewRowsQuery,
+  importQuery,
+  type ColumnMapping,
+} from '../../../shared/schemas/piece-import.ts';
 
 export const importRouter = Router();
 
 const MAX_BYTES = 50 * 1024 * 1024;
-// multer's own errors (too large, unexpected field) in the API's error shape.
+// The file streams to a temp file (server/http/upload.ts); multer's own errors (too large, unexpected field) in
+// the API's error shape.
 const receiveFile = receiveUpload({
   field: 'file',
   maxFiles: 1,
@@ -34,18 +43,35 @@ function mappingOf(raw: unknown): ColumnMapping {
   return columnMapping.parse(json);
 }
 
+// The CSV is read from its temp file as a stream, checked row by row, and the temp file removed before answering.
 importRouter.post('/pieces', requireUser, mayImport, receiveFile, async (req, res) => {
-  const { dryRun } = parseQuery(importQuery, req);
-  if (!req.file)
-    throw badRequest('Choose a CSV file to upload (form field "file").', {
-      fields: { file: ['A CSV file is required.'] },
-    });
-  const mapping = mappingOf((req.body as Record<string, unknown> | undefined)?.mapping);
-  if (dryRun) {
-    const { checked, fileErrors } = await checkCsv(req.file.buffer, mapping);
-    res.json(preview(checked, fileErrors));
-    return;
+  let answer: { status: number; body: unknown };
+  try {
+    const { dryRun } = parseQuery(importQuery, req);
+    if (!req.file)
+      throw badRequest('Choose a CSV file to upload (form field "file").', {
+        fields: { file: ['A CSV file is required.'] },
+      });
+    const mapping = mappingOf((req.body as Record<string, unknown> | undefined)?.mapping);
+    const input = { file: req.file.path, mapping };
+    answer = dryRun
+      ? { status: 200, body: await dryRunImport({ actor: actorOf(req)!, input }) }
+      : { status: 201, body: await importPieces({ actor: actorOf(req)!, input }) };
+  } finally {
+    await discardUploads(req);
   }
-  const result = await importPieces({ actor: actorOf(req)!, input: { buffer: req.file.buffer, mapping } });
-  res.status(201).json(result);
+  res.status(answer.status).json(answer.body);
+});
+
+// Further pages of a dry run's rows and errors, from any app server (the preview is in MariaDB).
+importRouter.get('/previews/:id/rows', requireUser, mayImport, async (req, res) => {
+  const { id } = parseParams(importPreviewParams, req);
+  const { page, pageSize, only } = parseQuery(importPreviewRowsQuery, req);
+  res.json(await previewRows(await loadPreview(id, actorOf(req)!.id), page, pageSize, only));
+});
+
+importRouter.get('/previews/:id/errors', requireUser, mayImport, async (req, res) => {
+  const { id } = parseParams(importPreviewParams, req);
+  const { page, pageSize } = parseQuery(importPreviewErrorsQuery, req);
+  res.json(await previewErrors(await loadPreview(id, actorOf(req)!.id), page, pageSize));
 });

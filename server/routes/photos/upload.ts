@@ -5,7 +5,7 @@ import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { HttpError, badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
-import { receiveUpload } from '../../http/upload.ts';
+import { discardUploads, receiveUpload } from '../../http/upload.ts';
 import { sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
@@ -57,7 +57,7 @@ photoUploadRouter.post('/', requireUser, async (req, res, next) => {
             addPhoto({
               actor,
               transaction,
-              input: { buffer: file.buffer, originalName: file.originalname, pieceId: piece.id },
+              input: { path: file.path, originalName: file.originalname, pieceId: piece.id },
             }),
           );
           photos.push(presentPhoto(photo, actor, { palette }));
@@ -75,8 +75,10 @@ photoUploadRouter.post('/', requireUser, async (req, res, next) => {
           throw e;
         }
       }
+      await discardUploads(req);
       res.status(201).json({ photos });
     } catch (e) {
+      await discardUploads(req);
       next(e);
     }
   });

@@ -4,7 +4,7 @@ import { idParams } from '../../../shared/schemas/common.ts';
 import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
 import { actorOf } from '../../http/auth.ts';
 import { badRequest } from '../../http/errors.ts';
-import { receiveUpload } from '../../http/upload.ts';
+import { discardUploads, receiveUpload } from '../../http/upload.ts';
 import { parseParams } from '../../http/validate.ts';
 import { sequelize, type PaletteColour } from '../../models/index.ts';
 import { addPhoto } from '../../services/photos.ts';
@@ -43,9 +43,10 @@ trialPhotosRouter.post('/', async (req, res, next) => {
         addPhoto({
           actor,
           transaction,
-          input: { buffer: file.buffer, originalName: file.originalname, trialId: trial.id, view: 'swatch' },
+          input: { path: file.path, originalName: file.originalname, trialId: trial.id, view: 'swatch' },
         }),
       );
+      await discardUploads(req);
       res.status(201).json({
         photo: {
           id: photo.id,
@@ -67,6 +68,7 @@ trialPhotosRouter.post('/', async (req, res, next) => {
         })),
       });
     } catch (e) {
+      await discardUploads(req);
       next(e);
     }
   });

@@ -6,11 +6,10 @@ import type { ColumnMapping, ImportError, ImportPreview } from '../../../../shar
 import { REQUIRED_PIECE_FIELDS } from '../../../../shared/schemas/piece-import';
 import { ProgressBar } from '../../iiif';
 import { paths } from '../../../paths';
-import { readHeader, usePreviewImport, useRunImport } from '../api';
+import { readHeader, usePreviewImport, usePreviewRows, useRunImport } from '../api';
 import { guessMapping, MappingTable } from './MappingTable';
-import { ErrorList, PreviewTable } from './PreviewTable';
+import { ErrorList, Pager, PreviewTable } from './PreviewTable';
 
-const SHOWN_ROWS = 500;
 const errorsOf = (e: unknown): ImportError[] =>
   e instanceof ApiError && Array.isArray(e.details?.errors) ? (e.details.errors as ImportError[]) : [];
 
@@ -20,8 +19,19 @@ export function ImportPieces() {
   const [mapping, setMapping] = useState<ColumnMapping>({});
   const [progress, setProgress] = useState<number | null>(null);
   const [onlyErrors, setOnlyErrors] = useState(true);
-  const [checked, setChecked] = useState<ImportPreview | null>(null);
+  const [checked, setCheckedState] = useState<ImportPreview | null>(null);
+  const [page, setPage] = useState(1);
+  const setChecked = (p: ImportPreview | null) => {
+    setCheckedState(p);
+    setPage(1);
+  };
   const check = usePreviewImport();
+  // The preview is read a page at a time from the server (a large file's rows are never all sent at once).
+  const only = onlyErrors && checked?.invalid ? 'invalid' : 'all';
+  const shown = usePreviewRows(checked, page, only);
+  const pages = checked
+    ? Math.max(1, Math.ceil((only === 'invalid' ? checked.invalid : checked.rows) / checked.pageSize))
+    : 1;
   const run = useRunImport();
 
   async function choose(f: File | null) {
@@ -115,21 +125,23 @@ export function ImportPieces() {
               : ''}
           </p>
           <label className="inline-flex items-center gap-2 text-sm">
-            <input type="checkbox" checked={onlyErrors} onChange={(e) => setOnlyErrors(e.target.checked)} /> Show only
-            rows with errors
+            <input
+              type="checkbox"
+              checked={onlyErrors}
+              onChange={(e) => {
+                setOnlyErrors(e.target.checked);
+                setPage(1);
+              }}
+            />{' '}
+            Show only rows with errors
           </label>
-          <PreviewTable
-            preview={{
-              ...checked,
-              items: (onlyErrors && checked.invalid
-                ? checked.items.filter((r) => r.errors.length)
-                : checked.items
-              ).slice(0, SHOWN_ROWS),
-            }}
-          />
-          {checked.items.length > SHOWN_ROWS ? (
-            <p className="text-xs text-ink-faint">The first {SHOWN_ROWS} rows are shown.</p>
+          {shown.error ? (
+            <p className="text-sm text-danger" role="alert">
+              {shown.error.message}
+            </p>
           ) : null}
+          <PreviewTable items={shown.data?.items ?? []} />
+          <Pager page={page} pages={pages} onPage={setPage} />
           <Button
             disabled={checked.invalid > 0 || busy}
             onClick={() => {

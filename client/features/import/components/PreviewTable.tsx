@@ -1,4 +1,4 @@
-import type { ImportError, ImportPreview } from '../../../../shared/schemas/piece-import';
+import type { ImportError, ImportPreviewRow } from '../../../../shared/schemas/piece-import';
 import { FIELD_LABELS, type PieceCsvField } from '../../../../shared/schemas/piece-import';
 
 const fieldName = (f: string | null) => (f && f in FIELD_LABELS ? FIELD_LABELS[f as PieceCsvField] : f);
@@ -16,8 +16,8 @@ export function ErrorList({ errors }: { errors: ImportError[] }) {
   );
 }
 
-/** Every row of the file with its errors beside it; rows with errors stand out. */
-export function PreviewTable({ preview }: { preview: ImportPreview }) {
+/** A page of the file's rows with their errors beside them; rows with errors stand out. */
+export function PreviewTable({ items }: { items: ImportPreviewRow[] }) {
   return (
     <div className="overflow-x-auto rounded-md border border-rule">
       <table className="w-full text-sm">
@@ -30,7 +30,7 @@ export function PreviewTable({ preview }: { preview: ImportPreview }) {
           </tr>
         </thead>
         <tbody>
-          {preview.items.map((row) => (
+          {items.map((row) => (
             <tr
               key={row.line}
               className={`border-t border-rule align-top ${row.errors.length ? 'bg-danger-tint' : ''}`}
@@ -57,5 +57,23 @@ export function PreviewTable({ preview }: { preview: ImportPreview }) {
         </tbody>
       </table>
     </div>
+  );
+}
+
+/** Previous / next through the pages of the preview. */
+export function Pager({ page, pages, onPage }: { page: number; pages: number; onPage: (page: number) => void }) {
+  if (pages <= 1) return null;
+  return (
+    <nav aria-label="Pages of the preview" className="flex items-center gap-3 text-sm">
+      <button disabled={page <= 1} className="underline disabled:opacity-40" onClick={() => onPage(page - 1)}>
+        Previous
+      </button>
+      <span>
+        Page <span className="num">{page}</span> of <span className="num">{pages}</span>
+      </span>
+      <button disabled={page >= pages} className="underline disabled:opacity-40" onClick={() => onPage(page + 1)}>
+        Next
+      </button>
+    </nav>
   );
 }
