@@ -101,10 +101,13 @@ export async function repalette({
   transaction,
   photo,
   scope = 'all',
+  decoded,
 }: {
   transaction: Transaction;
   photo: Photo;
   scope?: RepaletteScope;
+  /** The whole photo's working image when the caller has already decoded it (the chart service), to save a decode. */
+  decoded?: RawImage & { scale: number };
 }) {
   const master = photo.derivatives.master?.path;
   if (!master) throw new Error(`Photo ${photo.id} has no master file`);
@@ -127,7 +130,7 @@ export async function repalette({
 
   const full: Rect = { x: 0, y: 0, w: photo.width, h: photo.height };
   // The patch's white is read from the whole photo, so a region's corrected palette matches the photo's.
-  const whole = scope === 'all' || patch ? await workingImage(buffer) : null;
+  const whole = scope === 'all' || patch ? (decoded ?? (await workingImage(buffer))) : null;
   const white = patch && whole ? patchWhite(whole, into(patch, full, whole.scale)) : null;
 
   const compute = async (img: RawImage, frame: Rect, scale: number, regionId: number | null) => {

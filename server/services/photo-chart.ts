@@ -86,7 +86,7 @@ export async function setChart({ actor, transaction, input }: ServiceCtx<{ photo
   };
   await photo.update({ chart: stored }, { transaction });
   await auditPhoto({ actor, transaction }, photo, 'chart-set', summary(before), summary(stored));
-  return { chart: stored, palette: await repalette({ transaction, photo, scope: 'all' }) };
+  return { chart: stored, palette: await repalette({ transaction, photo, scope: 'all', decoded: work }) };
 }
 
 export async function clearChart({ actor, transaction, input }: ServiceCtx<{ photo: Photo }>) {
