@@ -13,7 +13,11 @@ export const paths = {
   shadeSearch: (hex: string, maxDeltaE?: number) => `/search?hex=${hex}${maxDeltaE ? `&maxDeltaE=${maxDeltaE}` : ''}`,
   trials: () => '/trials',
   trial: (id: number | string) => `/trials/${id}`,
-  trialNew: (pieceId?: number | string) => (pieceId != null ? `/trials/new?pieceId=${pieceId}` : '/trials/new'),
+  /** `target` preselects what the trial aims at ("region:4", "measurement:9"), e.g. one side of a fading pair. */
+  trialNew: (pieceId?: number | string, target?: string) =>
+    pieceId != null
+      ? `/trials/new?pieceId=${pieceId}${target ? `&target=${encodeURIComponent(target)}` : ''}`
+      : '/trials/new',
   sideBySide: (pieceId: number | string) => `/archive/${pieceId}/side-by-side`,
   baths: () => '/baths',
   bath: (id: number | string) => `/baths/${id}`,

@@ -66,6 +66,16 @@ export function describeHistory(e: HistoryEntry): string {
       return 'reference patch set';
     case 'reference-patch-cleared':
       return 'reference patch cleared';
+    case 'chart-set':
+      return c.chart?.from ? 'colour chart marked again' : 'colour chart marked';
+    case 'fading-pair-added':
+      return 'fading pair added';
+    case 'fading-pair-removed':
+      return 'fading pair removed';
+    case 'chart-cleared':
+      return 'colour chart removed';
+    case 'chart-tolerances-set':
+      return 'imaging tolerance levels changed';
     case 'palette-background': {
       const [key, change] = Object.entries(c)[0] ?? [];
       const colour = key?.replace(/^colour /, '') ?? 'a colour';

@@ -11,6 +11,7 @@ import { PieceShareLinks } from '../features/export/components/PieceShareLinks';
 import { PhotoPanel } from '../features/photos/components/PhotoPanel';
 import { UploadPanel } from '../features/photos/components/UploadPanel';
 import { paths } from '../paths';
+import { FadingPairs } from '../features/fading';
 
 export function PieceDetailPage() {
   const id = Number(useParams().id);
@@ -91,6 +92,7 @@ export function PieceDetailPage() {
             <PhotoPanel key={p.id} photo={p} />
           ))}
         </section>
+        {can['piece:history'] ? <FadingPairs pieceId={id} canEdit={can['piece:update'] && !deleted} /> : null}
         {can['piece:history'] ? (
           <section>
             <h2 className="font-serif text-2xl">Edit history</h2>

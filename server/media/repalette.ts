@@ -1,11 +1,13 @@
 import type { Transaction } from 'sequelize';
 import { PaletteColour, Region, type Photo } from '../models/index.ts';
+import { calibrateImage } from './chart.ts';
 import { correctImage, patchWhite } from './correction.ts';
 import { workingImage } from './decode.ts';
 import { extractPalette, type ExtractedColour, type RawImage, type Rect } from './palette.ts';
 import { paletteRows } from './rows.ts';
 import { bradfordMatrix, deltaE00 } from '../../shared/colour/index.ts';
 import { readMasterFile } from './files.ts';
+import type { PaletteVariant } from '../../shared/schemas/chart.ts';
 
 /** Regions that get a palette of their own. */
 export const PALETTE_PURPOSES = new Set(['colour-area', 'motif']);
@@ -36,7 +38,7 @@ function into(rect: Rect, frame: Rect, scale: number): Rect {
 async function reconcile(
   photoId: number,
   regionId: number | null,
-  variant: 'raw' | 'corrected',
+  variant: PaletteVariant,
   colours: ExtractedColour[],
   stored: PaletteColour[],
   transaction: Transaction,
@@ -91,17 +93,21 @@ async function reconcile(
  * Recomputes the palettes of a photo that `scope` touches and writes them over the stored rows
  * (see reconcile): the whole photo and each colour-area or motif region, with exclusions and
  * reference patches left out of all of them. With a reference patch, each palette is also computed
- * after a Bradford adaptation of the patch's white to D65 ('corrected'); the master file is never
- * altered. Returns every palette row of the photo.
+ * after a Bradford adaptation of the patch's white to D65 ('corrected'); with a colour chart
+ * (photo.chart, fitted by services/photo-chart.ts), through the chart's 3×3 correction ('calibrated'),
+ * and the chart's area is left out of every palette. The master file is never altered. Returns every palette row of the photo.
  */
 export async function repalette({
   transaction,
   photo,
   scope = 'all',
+  decoded,
 }: {
   transaction: Transaction;
   photo: Photo;
   scope?: RepaletteScope;
+  /** The whole photo's working image when the caller has already decoded it (the chart service), to save a decode. */
+  decoded?: RawImage & { scale: number };
 }) {
   const master = photo.derivatives.master?.path;
   if (!master) throw new Error(`Photo ${photo.id} has no master file`);
@@ -115,13 +121,16 @@ export async function repalette({
     .filter((r) => EXCLUDING_PURPOSES.has(r.purpose))
     .map(({ x, y, w, h }) => ({ x, y, w, h }));
   if (patch) excluded.push(patch);
+  // A colour chart is never part of the cloth's palette; its correction gives the 'calibrated' set.
+  const chart = photo.chart ?? null;
+  if (chart) excluded.push(chart.excluded);
   const stored = await PaletteColour.findAll({ where: { photoId: photo.id }, transaction });
-  const storedOf = (regionId: number | null, variant: 'raw' | 'corrected') =>
+  const storedOf = (regionId: number | null, variant: PaletteVariant) =>
     stored.filter((c) => (c.regionId ?? null) === regionId && c.variant === variant);
 
   const full: Rect = { x: 0, y: 0, w: photo.width, h: photo.height };
   // The patch's white is read from the whole photo, so a region's corrected palette matches the photo's.
-  const whole = scope === 'all' || patch ? await workingImage(buffer) : null;
+  const whole = scope === 'all' || patch ? (decoded ?? (await workingImage(buffer))) : null;
   const white = patch && whole ? patchWhite(whole, into(patch, full, whole.scale)) : null;
 
   const compute = async (img: RawImage, frame: Rect, scale: number, regionId: number | null) => {
@@ -129,6 +138,8 @@ export async function repalette({
     await reconcile(photo.id, regionId, 'raw', extractPalette(img, options), storedOf(regionId, 'raw'), transaction);
     const corrected = white ? extractPalette(correctImage(img, white).image, options) : [];
     await reconcile(photo.id, regionId, 'corrected', corrected, storedOf(regionId, 'corrected'), transaction);
+    const calibrated = chart ? extractPalette(calibrateImage(img, chart.matrix), options) : [];
+    await reconcile(photo.id, regionId, 'calibrated', calibrated, storedOf(regionId, 'calibrated'), transaction);
   };
   if (scope === 'all') await compute(whole!, full, whole!.scale, null);
   for (const r of regions.filter(

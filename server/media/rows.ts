@@ -1,10 +1,11 @@
+import type { PaletteVariant } from '../../shared/schemas/chart.ts';
 import type { ExtractedColour } from './palette.ts';
 
 /** Palette rows as stored: ranked in the order given (by share, background last). */
 export function paletteRows(
   photoId: number,
   regionId: number | null,
-  variant: 'raw' | 'corrected',
+  variant: PaletteVariant,
   colours: ExtractedColour[],
 ) {
   return colours.map((c, rank) => ({

@@ -1,6 +1,7 @@
 import { accessionKey, accessionSortKey } from '../../shared/accession.ts';
 import type { PhotoColourFacts } from '../../shared/schemas/photo.ts';
 import type { Spectrum as StoredSpectrum } from '../../shared/colour/spectral.ts';
+import { PALETTE_VARIANTS, type PaletteVariant, type PhotoChart } from '../../shared/schemas/chart.ts';
 import {
   DataTypes,
   Model,
@@ -67,6 +68,8 @@ export class Photo extends Model<InferAttributes<Photo>, InferCreationAttributes
   declare derivatives: Record<string, { path: string; width: number; height: number }>;
   declare referencePatch: { x: number; y: number; w: number; h: number } | null;
   declare correction: Record<string, unknown> | null;
+  /** The colour chart marked in the photo and its fitted correction (migration 0027), or null. */
+  declare chart: CreationOptional<PhotoChart | null>;
   /** How the colours were read (profile, bit depth, colour space); null for photos uploaded before it was recorded. */
   declare colour: CreationOptional<PhotoColourFacts | null>;
   declare tileStatus: CreationOptional<'none' | 'queued' | 'running' | 'done' | 'failed'>;
@@ -95,7 +98,7 @@ export class PaletteColour extends Model<InferAttributes<PaletteColour>, InferCr
   declare id: CreationOptional<number>;
   declare photoId: number;
   declare regionId: number | null;
-  declare variant: 'raw' | 'corrected';
+  declare variant: PaletteVariant;
   declare rank: number;
   declare L: number;
   declare a: number;
@@ -214,6 +217,7 @@ export function initCatalogueModels(sequelize: Sequelize) {
       derivatives: json({}),
       referencePatch: DataTypes.JSON,
       correction: DataTypes.JSON,
+      chart: DataTypes.JSON,
       colour: DataTypes.JSON,
       tileStatus: {
         type: DataTypes.ENUM('none', 'queued', 'running', 'done', 'failed'),
@@ -248,7 +252,7 @@ export function initCatalogueModels(sequelize: Sequelize) {
       id: pk(),
       photoId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
       regionId: fk(),
-      variant: { type: DataTypes.ENUM('raw', 'corrected'), allowNull: false, defaultValue: 'raw' },
+      variant: { type: DataTypes.ENUM(...PALETTE_VARIANTS), allowNull: false, defaultValue: 'raw' },
       rank: { type: DataTypes.TINYINT.UNSIGNED, allowNull: false },
       L: num(),
       a: num(),

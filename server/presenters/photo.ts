@@ -7,6 +7,7 @@ import {
   type RegionOut,
 } from '../../shared/schemas/photo.ts';
 import type { PaletteColour, Photo, Region } from '../models/index.ts';
+import { PALETTE_VARIANTS, VARIANT_TRUST, type PaletteVariant } from '../../shared/schemas/chart.ts';
 import { abilities, can, type Actor } from '../policies/index.ts';
 
 export const mediaUrl = (id: number, kind: 'thumb' | 'display' | 'master') => `/media/photos/${id}/${kind}`;
@@ -32,13 +33,17 @@ export function presentRegion(r: Region): RegionOut {
   return { id: r.id, x: r.x, y: r.y, w: r.w, h: r.h, purpose: r.purpose, label: r.label, selector: xywhSelector(r) };
 }
 
-/** Palettes of one photo grouped as { regionId, variant, colours }, whole photo first, raw before corrected. */
+/** The most trustworthy variant among a photo's palette rows (calibrated, then corrected, then raw). */
+export const trustedVariant = (rows: PaletteColour[]): PaletteVariant =>
+  VARIANT_TRUST.find((v) => rows.some((r) => r.variant === v)) ?? 'raw';
+
+/** Palettes of one photo grouped as { regionId, variant, colours }, whole photo first, then raw, corrected, calibrated. */
 export function presentPalettes(rows: PaletteColour[]): Palettes {
   const groups = new Map<string, Palettes[number]>();
   const sorted = [...rows].sort(
     (x, y) =>
       (x.regionId ?? 0) - (y.regionId ?? 0) ||
-      (x.variant === y.variant ? 0 : x.variant === 'raw' ? -1 : 1) ||
+      PALETTE_VARIANTS.indexOf(x.variant) - PALETTE_VARIANTS.indexOf(y.variant) ||
       x.rank - y.rank,
   );
   for (const c of sorted) {
@@ -80,6 +85,8 @@ export function presentPhoto(
     exif: presentExif(p.exif, seeGps),
     ...(seeGps ? { gps: p.gps } : {}),
     referencePatch: p.referencePatch,
+    chart: p.chart ?? null,
+    trustedVariant: trustedVariant(extra.palette),
     colour: p.colour ?? null,
     palette: wholeRaw.map(presentColour),
     palettes: presentPalettes(extra.palette),

@@ -8,6 +8,7 @@ import { loadAll, loadPieces, loadTrials } from './docs.ts';
 import { facetTableFor } from './facet-table.ts';
 import { ShadeIndex, type ShadeRow } from './shade-index.ts';
 import { TextIndex } from './text-index.ts';
+import { VARIANT_TRUST } from '../../shared/schemas/chart.ts';
 
 /**
  * The search engine: the text index and the shade index, loaded from MariaDB and then kept current by the
@@ -29,7 +30,6 @@ const key = (c: { kind: string; entityId: number }) => `${c.kind}:${c.entityId}`
  * Palette variants from most to least trustworthy: shade search indexes only each photo's best one (a photo with a
  * grey-patch correction is found by its corrected colours, not also by the raw ones it replaces).
  */
-export const VARIANT_TRUST = ['calibrated', 'corrected', 'raw'] as const;
 const trustRank = (v: string) => {
   const i = (VARIANT_TRUST as readonly string[]).indexOf(v);
   return i < 0 ? VARIANT_TRUST.length : i;

@@ -3,6 +3,7 @@ import type { Transaction } from 'sequelize';
 import {
   BatchEvent,
   ColourMeasurement,
+  FadingPair,
   MordantBatch,
   PaletteColour,
   Piece,
@@ -248,6 +249,22 @@ export async function makePhoto(
       .toBuffer());
   const run = (t: Transaction) => ingestPhoto({ actor: null, transaction: t, input: { ...rest, buffer } });
   return transaction ? run(transaction) : sequelize.transaction(run);
+}
+
+/** A fading pair of a piece (issue 17): a faded side and a protected side, each a region or a reading. */
+export function makeFadingPair(attrs: Attrs<FadingPair> & { pieceId: number }, transaction?: Transaction) {
+  return FadingPair.create(
+    {
+      label: null,
+      fadedRegionId: null,
+      fadedMeasurementId: null,
+      protectedRegionId: null,
+      protectedMeasurementId: null,
+      createdById: null,
+      ...attrs,
+    },
+    { transaction },
+  );
 }
 
 /** A colour area on a photo (no palette re-extraction: the region row alone). */

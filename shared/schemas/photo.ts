@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import '../messages.ts';
 import { IMAGE_ESTIMATE_CONDITIONS } from '../colour/conditions.ts';
+import { PALETTE_VARIANTS, photoChartSchema } from './chart.ts';
 import { id, idParams } from './common.ts';
 
 export const PHOTO_VIEWS = ['recto', 'verso', 'detail', 'raking', 'transmitted', 'uv', 'swatch'] as const;
@@ -131,10 +132,10 @@ export const paletteColourSchema = z.object({
 });
 export type PaletteColourOut = z.infer<typeof paletteColourSchema>;
 
-/** A photo's palettes grouped as { regionId, variant, colours }: whole photo first, raw before corrected. */
+/** A photo's palettes grouped as { regionId, variant, colours }: whole photo first, then raw, corrected, calibrated. */
 export const paletteGroupSchema = z.object({
   regionId: z.number().nullable(),
-  variant: z.enum(['raw', 'corrected']),
+  variant: z.enum(PALETTE_VARIANTS),
   colours: z.array(paletteColourSchema),
 });
 export const palettesSchema = z.array(paletteGroupSchema);
@@ -178,6 +179,10 @@ export const photoSchema = z.object({
   /** Only for roles that may see GPS (photo:see-gps). */
   gps: z.object({ latitude: z.number(), longitude: z.number(), altitude: z.number().optional() }).nullable().optional(),
   referencePatch: rectOut.nullable(),
+  /** The colour chart marked in the photo and its correction, or null. */
+  chart: photoChartSchema.nullable(),
+  /** The most trustworthy palette variant the photo has: the one shade search indexes and trials compare against. */
+  trustedVariant: z.enum(PALETTE_VARIANTS),
   colour: photoColourFactsSchema.nullable(),
   /** The whole photo's raw palette, by rank. */
   palette: z.array(paletteColourSchema),
@@ -195,6 +200,8 @@ export const regionListResponse = z.object({ items: z.array(regionSchema) });
 export const regionSavedResponse = z.object({ region: regionSchema, palettes: palettesSchema });
 export const palettesResponse = z.object({ palettes: palettesSchema });
 export const referencePatchResponse = z.object({ referencePatch: rectOut.nullable(), palettes: palettesSchema });
+export const chartResponse = z.object({ chart: photoChartSchema.nullable(), palettes: palettesSchema });
+export type ChartResponse = z.infer<typeof chartResponse>;
 export type PhotoResponse = z.infer<typeof photoResponse>;
 export type PhotoUploadResponse = z.infer<typeof photoUploadResponse>;
 export type RegionSavedResponse = z.infer<typeof regionSavedResponse>;

@@ -6,6 +6,7 @@ import { DRY_MASS_BASES } from '../compute/moisture.ts';
 import { LOAD_METALS } from '../compute/chemistry.ts';
 import { pageQuery, paged } from './common.ts';
 import { PHOTO_VIEWS } from './photo.ts';
+import { PALETTE_VARIANTS } from './chart.ts';
 import { chemicalSchema } from './reference.ts';
 import { ILLUMINANTS, OBSERVERS } from '../colour/conditions.ts';
 import { metamerismAnswer, spectrumSchema } from './spectral.ts';
@@ -565,7 +566,7 @@ export const trialPhotoAnswer = z.object({
       hex: z.string(),
       share: num,
       name: z.string(),
-      variant: z.enum(['raw', 'corrected']),
+      variant: z.enum(PALETTE_VARIANTS),
       background: z.boolean(),
     }),
   ),

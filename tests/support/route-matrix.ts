@@ -11,6 +11,9 @@ import path from 'node:path';
 import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
+import { DEFAULT_TOLERANCES } from '../../shared/compute/chart.ts';
+import { CHART_1976 } from '../../shared/data/colour-chart-1976.ts';
+import { chartPhoto } from './chart-image.ts';
 
 /**
  * The role × route matrix: one row per API route, with the status class each
@@ -276,6 +279,36 @@ async function realPhoto() {
   return (await factories.makePhoto({ pieceId: piece.id, buffer })).photo;
 }
 const photoParams = async () => ({ params: { id: (await realPhoto()).id } });
+async function fadingPairBody() {
+  const piece = await makePiece({ status: 'draft' });
+  const [a, b] = await Promise.all(
+    [10, 20].map((L) => factories.makeMeasurement({ pieceId: piece.id, L, a: 5, b: 5 })),
+  );
+  return {
+    params: { id: piece.id },
+    body: { faded: { measurementId: a.id }, protected: { measurementId: b.id } },
+  };
+}
+async function fadingPairParams() {
+  const { params, body } = await fadingPairBody();
+  const pair = await factories.makeFadingPair({
+    pieceId: params.id,
+    fadedMeasurementId: body.faded.measurementId,
+    protectedMeasurementId: body.protected.measurementId,
+  });
+  return { params: { id: params.id, pairId: pair.id } };
+}
+let chartBuffer: Promise<{ buffer: Buffer; corners: Array<{ x: number; y: number }> }> | null = null;
+async function chartPhotoBody() {
+  chartBuffer ??= chartPhoto(CHART_1976.map((p) => p.lab)).then(({ buffer, scene }) => ({
+    buffer,
+    corners: scene.corners,
+  }));
+  const { buffer, corners } = await chartBuffer;
+  const piece = await makePiece({ status: 'draft' });
+  const { photo } = await factories.makePhoto({ pieceId: piece.id, buffer });
+  return { params: { id: photo.id }, body: { corners, reference: 'published-1976' } };
+}
 async function photoWithRegion() {
   const photo = await realPhoto();
   const region = await factories.makeRegion({ photoId: photo.id, w: 20, h: 20 });
@@ -508,6 +541,17 @@ export const routeMatrix: MatrixRow[] = [
   }),
   row('DELETE /api/photos/:id/reference-patch', curatorWrites, { setup: photoParams }),
   row('PATCH /api/photos/:id/palette/:colourId', curatorWrites, { setup: photoWithColour }),
+  row('GET /api/pieces/:id/fading-pairs', signedIn, {
+    setup: async () => ({ params: { id: (await makePiece()).id } }),
+  }),
+  row('POST /api/pieces/:id/fading-pairs', curatorWrites, { setup: fadingPairBody }),
+  row('DELETE /api/pieces/:id/fading-pairs/:pairId', curatorWrites, { setup: fadingPairParams }),
+  row('PUT /api/photos/:id/chart', curatorWrites, { setup: chartPhotoBody }),
+  row('DELETE /api/photos/:id/chart', curatorWrites, { setup: photoParams }),
+  row('GET /api/photos/chart-tolerances', signedIn),
+  row('PUT /api/photos/chart-tolerances', adminOnly, {
+    body: DEFAULT_TOLERANCES,
+  }),
   row('GET /api/vocabularies', everyone('2xx')),
   row('GET /api/batches', signedIn),
   row('POST /api/batches', dyersCreate, { setup: async () => ({ body: batchBody() }) }),

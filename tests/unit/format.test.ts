@@ -70,6 +70,13 @@ describe('history in words', () => {
     expect(
       describeHistory({ action: 'reference-patch-set', changes: { referencePatch: { from: null, to: { x: 1 } } } }),
     ).toBe('reference patch set');
+    expect(describeHistory({ action: 'chart-set', changes: { chart: { from: null, to: { corners: [] } } } })).toBe(
+      'colour chart marked',
+    );
+    expect(describeHistory({ action: 'chart-set', changes: { chart: { from: { corners: [] }, to: {} } } })).toBe(
+      'colour chart marked again',
+    );
+    expect(describeHistory({ action: 'fading-pair-added', changes: {} })).toBe('fading pair added');
     expect(
       describeHistory({
         action: 'region-added',

@@ -6,12 +6,14 @@ import type {
   PhotoUploadResponse,
   Rect,
   ReferencePatchResponse,
+  ChartResponse,
   RegionCreateInput,
   RegionOut,
   RegionSavedResponse,
   RegionUpdateInput,
 } from '../../../shared/schemas/photo';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
+import type { ChartInput } from '../../../shared/schemas/chart';
 import { ApiError, http } from '../../lib/http';
 import { pieceKeys, type Photo } from '../pieces';
 
@@ -131,6 +133,19 @@ export function useToggleBackground(photo: Photo) {
   return useMutation({
     mutationFn: ({ colourId, background }: { colourId: number; background: boolean }) =>
       http<PalettesResponse>(`/api/photos/${photo.id}/palette/${colourId}`, { method: 'PATCH', json: { background } }),
+    onSuccess: invalidate,
+  });
+}
+
+/** Mark (or remove, with null) the photo's colour chart: every palette is recomputed, a calibrated one added. */
+export function useChart(photo: Photo) {
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({
+    mutationFn: (input: ChartInput | null) =>
+      http<ChartResponse>(
+        `/api/photos/${photo.id}/chart`,
+        input ? { method: 'PUT', json: input } : { method: 'DELETE' },
+      ),
     onSuccess: invalidate,
   });
 }

@@ -12,7 +12,9 @@ import {
   regionParams,
   regionSavedResponse,
   regionUpdateSchema,
+  chartResponse,
 } from '../../../shared/schemas/photo.ts';
+import { chartInputSchema, toleranceLevelsAnswer, toleranceLevelsInput } from '../../../shared/schemas/chart.ts';
 import { defineRoutes } from '../registry.ts';
 
 // Every photo route is for signed-in users; changes are the curators' (and admins').
@@ -94,6 +96,39 @@ export default defineRoutes('photos', [
     roles: writers,
     params: photoParams,
     responses: { 200: referencePatchResponse },
+  },
+  {
+    method: 'put',
+    path: '/api/photos/:id/chart',
+    summary:
+      'Mark a 24-patch colour chart by the centres of patches 1, 6, 24 and 19: per-patch ΔE00 before and after a fitted 3×3 correction, the grade, and a calibrated palette',
+    roles: writers,
+    params: photoParams,
+    body: chartInputSchema,
+    responses: { 200: chartResponse },
+  },
+  {
+    method: 'delete',
+    path: '/api/photos/:id/chart',
+    summary: 'Remove the colour chart and its calibrated palettes',
+    roles: writers,
+    params: photoParams,
+    responses: { 200: chartResponse },
+  },
+  {
+    method: 'get',
+    path: '/api/photos/chart-tolerances',
+    summary: "The imaging tolerance levels a chart's capture is graded against, and their source",
+    roles: 'signed-in users',
+    responses: { 200: toleranceLevelsAnswer },
+  },
+  {
+    method: 'put',
+    path: '/api/photos/chart-tolerances',
+    summary: 'Set the imaging tolerance levels (mean and optional maximum ΔE00), naming their source',
+    roles: 'admin',
+    body: toleranceLevelsInput,
+    responses: { 200: toleranceLevelsAnswer },
   },
   {
     method: 'patch',

@@ -10,6 +10,12 @@ import {
   pieceResponse,
   pieceUpdateSchema,
 } from '../../../shared/schemas/piece.ts';
+import {
+  fadingPairCreateSchema,
+  fadingPairListResponse,
+  fadingPairParams,
+  fadingPairResponse,
+} from '../../../shared/schemas/fading.ts';
 import { defineRoutes } from '../registry.ts';
 
 // Everything mounted on /api/pieces, in mount order: the per-piece exports, the catalogue, the piece's trials.
@@ -101,6 +107,32 @@ export default defineRoutes('pieces', [
     roles: 'researcher, curator, admin',
     params: idParams,
     responses: { 200: pieceHistoryResponse },
+  },
+  {
+    method: 'get',
+    path: '/api/pieces/:id/fading-pairs',
+    summary:
+      "The piece's fading pairs: each faded area beside a protected one, with ΔE00, its components and the ISO 105-A05 grade",
+    roles: 'signed-in users who may read the piece',
+    params: idParams,
+    responses: { 200: fadingPairListResponse },
+  },
+  {
+    method: 'post',
+    path: '/api/pieces/:id/fading-pairs',
+    summary: 'Pair a faded area with a protected one (each a region of a photo of the piece, or a reading)',
+    roles: 'curator, admin',
+    params: idParams,
+    body: fadingPairCreateSchema,
+    responses: { 201: fadingPairResponse },
+  },
+  {
+    method: 'delete',
+    path: '/api/pieces/:id/fading-pairs/:pairId',
+    summary: 'Remove a fading pair',
+    roles: 'curator, admin',
+    params: fadingPairParams,
+    responses: { 204: null },
   },
   {
     method: 'post',

@@ -28,6 +28,8 @@ import {
   updateRegion,
 } from '../../services/photos.ts';
 import { loadReadablePhoto, loadWritablePhoto } from './load.ts';
+import { chartInputSchema, toleranceLevelsInput } from '../../../shared/schemas/chart.ts';
+import { chartTolerances, clearChart, setChart, setChartTolerances } from '../../services/photo-chart.ts';
 
 export const photosRouter = Router();
 photosRouter.use(requireUser);
@@ -37,6 +39,18 @@ async function writable(actor: Actor, id: number, action: Action) {
   if (!can(actor, action)) throw forbidden();
   return loaded;
 }
+
+/** The imaging tolerance levels a chart's capture is graded against (admins change them, naming their source). */
+photosRouter.get('/chart-tolerances', async (_req, res) => {
+  res.json(await chartTolerances());
+});
+
+photosRouter.put('/chart-tolerances', async (req, res) => {
+  const actor = actorOf(req);
+  const input = parseBody(toleranceLevelsInput, req);
+  if (!can(actor, 'reference:manage')) throw forbidden('Only admins change the imaging tolerance levels.');
+  res.json(await sequelize.transaction((transaction) => setChartTolerances({ actor, transaction, input })));
+});
 
 photosRouter.get('/:id', async (req, res) => {
   const actor = actorOf(req);
@@ -150,4 +164,20 @@ photosRouter.patch('/:id/palette/:colourId', async (req, res) => {
     setPaletteBackground({ actor, transaction, input: { photo, colour, background } }),
   );
   res.json({ palettes });
+});
+
+/** Mark the photo's colour chart by its four corner patches: fit, grade and a calibrated palette. */
+photosRouter.put('/:id/chart', async (req, res) => {
+  const actor = actorOf(req);
+  const chart = parseBody(chartInputSchema, req);
+  const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:update');
+  const result = await inTransaction((transaction) => setChart({ actor, transaction, input: { photo, chart } }));
+  res.json({ chart: result.chart, palettes: result.palettes });
+});
+
+photosRouter.delete('/:id/chart', async (req, res) => {
+  const actor = actorOf(req);
+  const { photo } = await writable(actor, parseParams(photoParams, req).id, 'region:delete');
+  const { palettes } = await inTransaction((transaction) => clearChart({ actor, transaction, input: { photo } }));
+  res.json({ chart: null, palettes });
 });

@@ -11,6 +11,7 @@ import { presentPhoto } from '../../presenters/photo.ts';
 import { createPiece, deletePiece, restorePiece, updatePiece } from '../../services/pieces.ts';
 import { listPieces, loadPhotosOf, loadReadablePiece } from './load.ts';
 import { photoUploadRouter } from '../photos/upload.ts';
+import { fadingRouter } from './fading.ts';
 
 export const piecesRouter = Router();
 
@@ -98,3 +99,4 @@ piecesRouter.get('/:id/history', requireUser, async (req, res) => {
 });
 
 piecesRouter.use('/:id/photos', photoUploadRouter);
+piecesRouter.use('/:id/fading-pairs', fadingRouter);

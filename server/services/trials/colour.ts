@@ -14,6 +14,7 @@ import { ILLUMINANTS } from '../../../shared/schemas/trial.ts';
 import { ColourMeasurement, PaletteColour, Photo, Region, type Trial } from '../../models/index.ts';
 import { verdictBands } from '../settings.ts';
 import type { Bands } from '../../../shared/colour/difference.ts';
+import { VARIANT_TRUST, VARIANT_WORDS } from '../../../shared/schemas/chart.ts';
 
 export type { ColourSource };
 type Lab = { L: number; a: number; b: number };
@@ -73,9 +74,10 @@ const reading = (m: ColourMeasurement, label: string, setAside: Estimate | null 
   if (m.spectrum) spectrumOf.set(r, m.spectrum);
   return r;
 };
+// The label says which palette variant the estimate comes from (calibrated, corrected or raw).
 const estimated = (pc: PaletteColour, label: string): ResolvedColour => ({
   ...estimateOf(pc),
-  label,
+  label: `${label}, ${VARIANT_WORDS[pc.variant]}`,
   readings: null,
   setAside: null,
 });
@@ -101,10 +103,17 @@ function newestPerConditions(rows: ColourMeasurement[], chosen: ColourMeasuremen
   });
 }
 
-/** The estimate of a region (or of a whole photo): the leading non-background colour, corrected variant first. */
+/**
+ * The estimate of a region (or of a whole photo): the leading non-background colour of its most trustworthy
+ * variant (calibrated from a colour chart, then corrected from a grey patch, then raw).
+ */
 async function estimate(where: Record<string, unknown>) {
   const rows = await PaletteColour.findAll({ where: { ...where, background: false }, order: [['rank', 'ASC']] });
-  return rows.find((r) => r.variant === 'corrected') ?? rows[0] ?? null;
+  for (const v of VARIANT_TRUST) {
+    const row = rows.find((r) => r.variant === v);
+    if (row) return row;
+  }
+  return null;
 }
 
 /**

@@ -1,18 +1,22 @@
 import { exifLines, formatBytes, formatLocalDateTime, type ExifFacts } from '../../../../shared/format';
+import { useState } from 'react';
 import { colourFactsLines } from '../../../../shared/schemas/photo';
+import { VARIANT_WORDS } from '../../../../shared/schemas/chart';
+import { ChartPanel } from './ChartPanel';
 import type { Photo } from '../../pieces';
 import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
 import { PhotoTiles } from '../../iiif';
 import { PaletteBar } from './PaletteBar';
 import { PURPOSE_LABELS, RegionEditor } from './RegionEditor';
 
-/** One photo: the image with its regions, its palettes (raw and corrected, labelled), and its facts. */
+/** One photo: the image with its regions or its colour chart, its palettes (raw, corrected, calibrated, labelled), and its facts. */
 export function PhotoPanel({ photo }: { photo: Photo }) {
   const canEdit = photo.abilities['region:create'];
   const toggle = useToggleBackground(photo);
   const removeRegion = useDeleteRegion(photo);
   const clearPatch = useReferencePatch(photo);
   const removePhoto = useDeletePhoto(photo);
+  const [chartMode, setChartMode] = useState(photo.chart != null);
   const regionName = (id: number | null) => {
     if (id == null) return 'Whole photo';
     const r = photo.regions.find((x) => x.id === id);
@@ -45,7 +49,28 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
           ) : null}
         </div>
       </header>
-      <RegionEditor photo={photo} canEdit={canEdit} />
+      <div className="flex flex-wrap gap-2 text-sm" role="group" aria-label="Photo mode">
+        <button
+          type="button"
+          aria-pressed={!chartMode}
+          className={`rounded border px-3 py-1 ${!chartMode ? 'border-action text-action' : 'border-rule-strong'}`}
+          onClick={() => setChartMode(false)}
+        >
+          Regions
+        </button>
+        <button
+          type="button"
+          aria-pressed={chartMode}
+          className={`rounded border px-3 py-1 ${chartMode ? 'border-action text-action' : 'border-rule-strong'}`}
+          onClick={() => setChartMode(true)}
+        >
+          Colour chart
+        </button>
+        <span className="self-center text-ink-soft" data-testid="variant-in-use">
+          Palette in use for shade search and trials: <strong>{VARIANT_WORDS[photo.trustedVariant]}</strong>
+        </span>
+      </div>
+      {chartMode ? <ChartPanel photo={photo} canEdit={canEdit} /> : <RegionEditor photo={photo} canEdit={canEdit} />}
       <PhotoTiles photoId={photo.id} />
 
       <div className="space-y-3">
@@ -53,7 +78,7 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
         {photo.palettes.map((p) => (
           <PaletteBar
             key={`${p.regionId}-${p.variant}`}
-            title={`${regionName(p.regionId)} — ${p.variant === 'raw' ? 'raw (as photographed)' : 'corrected to D65 from the reference patch'}`}
+            title={`${regionName(p.regionId)} — ${VARIANT_WORDS[p.variant]}${p.variant === photo.trustedVariant ? ' (in use)' : ''}`}
             colours={p.colours}
             onToggleBackground={
               canEdit ? (c) => toggle.mutate({ colourId: c.id, background: !c.background }) : undefined

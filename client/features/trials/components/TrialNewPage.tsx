@@ -11,7 +11,7 @@ import { pieceQuery } from '../../pieces';
 import { useCreateTrial } from '../api';
 import { TrialFields, toTrialInput, type TrialFormValues } from './TrialFields';
 
-/** /trials/new?pieceId=…: attach a new trial to a piece, or start one on its own. */
+/** /trials/new?pieceId=…[&target=region:4]: attach a new trial to a piece (aimed at a target), or start one on its own. */
 export function TrialNewPage() {
   const [params] = useSearchParams();
   const pieceId = params.get('pieceId') ? Number(params.get('pieceId')) : null;
@@ -28,7 +28,8 @@ export function TrialNewPage() {
     dryMassBasis: 'air-dry',
     startedOn: '',
     notes: '',
-    target: '',
+    // From a link such as a fading pair's "aim a trial at it"; anything else in the address is ignored.
+    target: /^(region|measurement|palette):\d+$/.test(params.get('target') ?? '') ? params.get('target')! : '',
   });
   const { formRef, errors, check, fromServer } = useFormErrors();
 
