@@ -10,6 +10,7 @@ import { AuthToken } from './auth-token.ts';
 import { initJobModel, Job } from './job.ts';
 import { AppSetting } from './settings.ts';
 import { RateLimit } from './rate-limit.ts';
+import { initRecordModels, Analysis, ConditionReport, DisplayPeriod } from './records.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -22,6 +23,7 @@ AuthToken.initModel(sequelize);
 initJobModel(sequelize);
 AppSetting.initModel(sequelize);
 RateLimit.initModel(sequelize);
+initRecordModels(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -56,6 +58,9 @@ AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId' });
 AuthToken.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 AuthToken.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
 Job.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById', constraints: false });
+Analysis.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
+ConditionReport.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
+DisplayPeriod.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
 
 export {
   sequelize,
@@ -80,4 +85,7 @@ export {
   Job,
   AppSetting,
   RateLimit,
+  Analysis,
+  ConditionReport,
+  DisplayPeriod,
 };

@@ -31,10 +31,20 @@ const year = z
   .nullable()
   .optional();
 
-export const evidencedTerm = z.object({
-  name: text(120).min(1, 'Enter a name'),
-  evidence: z.enum(EVIDENCE, { error: 'Choose attributed or identified' }),
-});
+/** "identified" stands on a recorded analysis of this piece (issue 19): the entry carries its analysisId. */
+export const IDENTIFIED_NEEDS_ANALYSIS = 'Choose the analysis that identified it (record the analysis first)';
+export const evidencedTerm = z
+  .object({
+    name: text(120).min(1, 'Enter a name'),
+    evidence: z.enum(EVIDENCE, { error: 'Choose attributed or identified' }),
+    analysisId: z.number({ error: 'Choose an analysis' }).int().positive().nullable().optional(),
+  })
+  .superRefine((t, ctx) => {
+    if (t.evidence === 'identified' && t.analysisId == null)
+      ctx.addIssue({ code: 'custom', path: ['analysisId'], message: IDENTIFIED_NEEDS_ANALYSIS });
+  })
+  // An attributed entry points at no analysis.
+  .transform((t) => ({ ...t, analysisId: t.evidence === 'identified' ? (t.analysisId ?? null) : null }));
 export type EvidencedTermInput = z.infer<typeof evidencedTerm>;
 
 const termList = (what: string) =>
@@ -118,7 +128,11 @@ export type PieceListQuery = z.infer<typeof pieceListQuery>;
 
 // ---- Responses (server/presenters/piece.ts returns these types; tsc checks the presenter against them) ----
 
-const evidencedTermOut = z.object({ name: z.string(), evidence: z.enum(EVIDENCE) });
+const evidencedTermOut = z.object({
+  name: z.string(),
+  evidence: z.enum(EVIDENCE),
+  analysisId: z.number().nullable().optional(),
+});
 
 const pieceAbilities = z.object({
   'piece:update': z.boolean(),
