@@ -11,6 +11,7 @@ import path from 'node:path';
 import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
+import { recordRows } from './route-matrix-records.ts';
 
 /**
  * The role × route matrix: one row per API route, with the status class each
@@ -521,4 +522,5 @@ export const routeMatrix: MatrixRow[] = [
 
   row('GET /api/search', everyone('2xx'), { setup: async () => ({ query: { q: 'madder' } }) }),
   row('GET /api/search/shade', everyone('2xx'), { setup: async () => ({ query: { hex: '9b2f2f', maxDeltaE: '5' } }) }),
+  ...recordRows,
 ];
