@@ -11,6 +11,8 @@ import { PieceShareLinks } from '../features/export/components/PieceShareLinks';
 import { PhotoPanel } from '../features/photos/components/PhotoPanel';
 import { UploadPanel } from '../features/photos/components/UploadPanel';
 import { paths } from '../paths';
+import { AnalysesPanel, ConditionPanel, LightPanel } from '../features/records';
+import { useCan } from '../features/auth';
 
 export function PieceDetailPage() {
   const id = Number(useParams().id);
@@ -20,6 +22,7 @@ export function PieceDetailPage() {
   const restore = useRestorePiece(id);
   const navigate = useNavigate();
   const [showHistory, setShowHistory] = useState(false);
+  const signedIn = useCan()('condition:read');
   if (detail.isPending) return <p>Loading…</p>;
   if (detail.isError)
     return <Page title="Piece not found" lead="There is no such piece, or it is not published yet." />;
@@ -91,6 +94,20 @@ export function PieceDetailPage() {
             <PhotoPanel key={p.id} photo={p} />
           ))}
         </section>
+        <AnalysesPanel
+          pieceId={id}
+          terms={[...piece.dyestuffs, ...piece.historicalMordants]}
+          regions={photos.flatMap((p, i) =>
+            p.regions.map((r) => ({ id: r.id, label: `photo ${i + 1}: ${r.label ?? r.purpose.replace('-', ' ')}` })),
+          )}
+        />
+        {signedIn ? (
+          <ConditionPanel
+            pieceId={id}
+            photos={photos.map((p, i) => ({ id: p.id, label: p.caption ?? `photo ${i + 1}` }))}
+          />
+        ) : null}
+        {signedIn ? <LightPanel pieceId={id} /> : null}
         {can['piece:history'] ? (
           <section>
             <h2 className="font-serif text-2xl">Edit history</h2>

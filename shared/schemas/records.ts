@@ -56,7 +56,11 @@ const analysisFields = {
     .default([]),
 };
 export const analysisCreateSchema = z
-  .object(analysisFields)
+  .object({
+    ...analysisFields,
+    /** Names of the piece's dyestuffs and mordants this analysis identifies: they become "identified" and point at it. */
+    identifies: z.array(text(120).min(1)).max(40).default([]),
+  })
   .strict()
   .refine((a) => a.regionId != null || !!a.site, {
     path: ['site'],

@@ -49,6 +49,8 @@ export async function createAnalysis({
   await audit({ actor, transaction }, 'piece', piece.id, 'analysis-added', {
     analysis: { from: null, to: { id: analysis.id, ...summary(analysis) } },
   });
+  if (values.identifies.length)
+    await markIdentified({ actor, transaction, input: { piece, analysis, names: values.identifies } });
   return analysis;
 }
 
@@ -107,4 +109,31 @@ export async function deleteAnalysis({ actor, transaction, input }: SignedInCtx<
   await audit({ actor, transaction }, 'piece', analysis.pieceId, 'analysis-removed', {
     analysis: { from: { id: analysis.id, ...summary(analysis) }, to: null },
   });
+}
+
+/**
+ * The analysis's own claim: the named dyestuffs and mordants of the piece become "identified" and point at it.
+ * A name that is not on the piece is refused (the cataloguer adds it first), so an analysis never invents a term.
+ */
+async function markIdentified({
+  actor,
+  transaction,
+  input,
+}: SignedInCtx<{ piece: Piece; analysis: Analysis; names: string[] }>) {
+  const { piece, analysis, names } = input;
+  const onPiece = new Set([...piece.dyestuffs, ...piece.historicalMordants].map((t) => t.name));
+  const missing = names.filter((n) => !onPiece.has(n));
+  if (missing.length)
+    throw badRequest('Some fields are not valid.', {
+      fields: { identifies: [`Not a dyestuff or mordant of this piece: ${missing.join(', ')}`] },
+    });
+  const mark = (list: Piece['dyestuffs']) =>
+    list.map((t) => (names.includes(t.name) ? { ...t, evidence: 'identified' as const, analysisId: analysis.id } : t));
+  const before = { dyestuffs: piece.dyestuffs, historicalMordants: piece.historicalMordants };
+  const after = { dyestuffs: mark(piece.dyestuffs), historicalMordants: mark(piece.historicalMordants) };
+  const changed = diff(before, after);
+  if (!Object.keys(changed).length) return;
+  // Through the model, so the search index hears of the change.
+  await piece.update(after, { transaction });
+  await audit({ actor, transaction }, 'piece', piece.id, 'update', changed);
 }
