@@ -168,7 +168,15 @@ describe('CSV import of pieces', () => {
     const mine = rows.filter((r) => byNumber.has(r.accessionNumber));
     expect(mine).toHaveLength(originals.length);
     const p = prefix();
-    const copies = mine.map((r) => ({ ...r, accessionNumber: `${p}.${r.accessionNumber}` }));
+    // "identified" stands on an analysis of the piece (issue 19), which a CSV cannot carry: the import refuses it
+    // (tested below), so the copies come in as attributed; every other cell re-imports unchanged.
+    const attributed = (cell: string) => cell.replace(/\(identified\)/g, '(attributed)');
+    const copies = mine.map((r) => ({
+      ...r,
+      accessionNumber: `${p}.${r.accessionNumber}`,
+      dyestuffs: attributed(r.dyestuffs),
+      historicalMordants: attributed(r.historicalMordants),
+    }));
     const csv = stringify(copies, { header: true, columns: Object.keys(rows[0]) });
     const dry = await upload(csv, { dryRun: true }).expect(200);
     expect(dry.body.errors).toEqual([]);

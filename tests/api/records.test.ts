@@ -100,7 +100,7 @@ describe('analyses', () => {
     const notPdf = await researcher
       .post(`/api/analyses/${id}/report`)
       .set('Origin', ORIGIN)
-      .attach('report', Buffer.from('<html>not a report</html>'), 'report.pdf')
+      .attach('report', Buffer.from('<html><body>This is a web page, not a lab report.</body></html>'), 'report.pdf')
       .expect(400);
     expect(notPdf.body.error.details.fields.report[0]).toMatch(
       /Attach a PDF \(it does not start with the PDF header\)/,
@@ -336,5 +336,34 @@ describe('display periods and the light dose', () => {
       .send({ from: '2024-05-01', to: '2024-05-02', lux: 50, hoursPerDay: 8 })
       .expect(403);
     await request(app).get(`/api/pieces/${piece.id}/displays`).expect(401);
+  });
+});
+
+describe('an analysis marks the entries it identifies', () => {
+  it('turns the named dyestuffs identified, pointing at it, and refuses a name not on the piece', async () => {
+    const piece = await makePiece({
+      status: 'published',
+      dyestuffs: [
+        { name: 'madder', evidence: 'attributed' },
+        { name: 'weld', evidence: 'attributed' },
+      ],
+    });
+    const researcher = await signedInAgent(app, 'researcher');
+    const res = await researcher
+      .post(`/api/pieces/${piece.id}/analyses`)
+      .set('Origin', ORIGIN)
+      .send({ ...hplc, identifies: ['madder'] })
+      .expect(201);
+    const detail = await request(app).get(`/api/pieces/${piece.id}`).expect(200);
+    expect(detail.body.piece.dyestuffs).toEqual([
+      { name: 'madder', evidence: 'identified', analysisId: res.body.analysis.id },
+      { name: 'weld', evidence: 'attributed' },
+    ]);
+    const bad = await researcher
+      .post(`/api/pieces/${piece.id}/analyses`)
+      .set('Origin', ORIGIN)
+      .send({ ...hplc, identifies: ['cochineal'] })
+      .expect(400);
+    expect(bad.body.error.details.fields.identifies[0]).toBe('Not a dyestuff or mordant of this piece: cochineal');
   });
 });
