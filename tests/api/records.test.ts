@@ -367,3 +367,31 @@ describe('an analysis marks the entries it identifies', () => {
     expect(bad.body.error.details.fields.identifies[0]).toBe('Not a dyestuff or mordant of this piece: cochineal');
   });
 });
+
+describe('"identified by" facet values (for the search index)', () => {
+  it('gives the methods of the analyses that identified entries of each piece', async () => {
+    const { identifiedByMethods } = await import('../../server/services/records/identified-by.ts');
+    const { makeAnalysis } = await import('../../server/seed/factories.ts');
+    const piece = await makePiece({
+      dyestuffs: [
+        { name: 'madder', evidence: 'attributed' },
+        { name: 'indigo', evidence: 'attributed' },
+      ],
+      historicalMordants: [{ name: 'potash alum', evidence: 'attributed' }],
+    });
+    const hplcA = await makeAnalysis({ pieceId: piece.id, method: 'HPLC-DAD' });
+    const xrf = await makeAnalysis({ pieceId: piece.id, method: 'XRF' });
+    await makeAnalysis({ pieceId: piece.id, method: 'FORS' }); // cited by nothing
+    await piece.update({
+      dyestuffs: [
+        { name: 'madder', evidence: 'identified', analysisId: hplcA.id },
+        { name: 'indigo', evidence: 'identified', analysisId: hplcA.id },
+      ],
+      historicalMordants: [{ name: 'potash alum', evidence: 'identified', analysisId: xrf.id }],
+    });
+    const bare = await makePiece({ dyestuffs: [{ name: 'weld', evidence: 'attributed' }] });
+    const methods = await identifiedByMethods([piece.id, bare.id]);
+    expect(methods.get(piece.id)).toEqual(['HPLC-DAD', 'XRF']);
+    expect(methods.has(bare.id)).toBe(false);
+  });
+});

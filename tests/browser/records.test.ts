@@ -46,12 +46,12 @@ describe('the records behind a piece, in Chromium', () => {
     await page.getByLabel('Date analysed').fill('');
     await page.getByRole('button', { name: 'Save analysis' }).click();
     await page.getByText('Choose a method').waitFor();
-    await page.getByText('Describe the sample or site, or choose a region of a photo').waitFor();
     // Keyboard: the first field in error has the focus.
     expect(await page.evaluate(() => document.activeElement?.tagName)).toBe('SELECT');
-
     await page.getByLabel('Method').selectOption('HPLC-DAD');
     await page.getByLabel('Date analysed').fill('2024-05-02');
+    await page.getByRole('button', { name: 'Save analysis' }).click();
+    await page.getByText('Describe the sample or site, or choose a region of a photo').waitFor();
     await page.getByLabel('Sample or site, described').fill('red ground, loose warp thread');
     await page.getByLabel('Laboratory').fill('Test bench');
     await page.getByLabel('Colorant or element 1').fill('alizarin');
