@@ -4,6 +4,7 @@ import '../messages.ts';
 import { dateIssues, YEAR_MAX, YEAR_MIN, type DateFields } from '../edtf.ts';
 import { paged, pageQuery } from './common.ts';
 import { photoSchema } from './photo.ts';
+import { lightDoseSchema } from './records.ts';
 
 export { ACCESSION_PATTERN } from '../accession.ts';
 
@@ -205,7 +206,12 @@ export type AuditEventOut = z.infer<typeof auditEventSchema>;
 
 export const pieceListResponse = paged(pieceSummarySchema);
 export const pieceResponse = z.object({ piece: pieceSchema });
-export const pieceDetailResponse = z.object({ piece: pieceSchema, photos: z.array(photoSchema) });
+export const pieceDetailResponse = z.object({
+  piece: pieceSchema,
+  photos: z.array(photoSchema),
+  /** Cumulative light exposure and allowance used (shared/compute/light-dose.ts); null for visitors. */
+  lightDose: lightDoseSchema.nullable().optional(),
+});
 export const pieceHistoryResponse = z.object({ items: z.array(auditEventSchema) });
 export type PieceListResponse = z.infer<typeof pieceListResponse>;
 export type PieceResponse = z.infer<typeof pieceResponse>;

@@ -288,6 +288,11 @@ describe('display periods and the light dose', () => {
     const list = await curator.get(`/api/pieces/${piece.id}/displays`).expect(200);
     expect(list.body.items.map((d: { from: string }) => d.from)).toEqual(['2024-04-01', '2024-03-01']);
     expect(list.body.lightDose.luxHours).toBe(232_400);
+    // The piece itself answers its light dose (signed in; visitors get null).
+    const detail = await curator.get(`/api/pieces/${piece.id}`).expect(200);
+    expect(detail.body.lightDose).toMatchObject({ luxHours: 232_400, category: 'medium' });
+    await piece.update({ status: 'published' });
+    expect((await request(app).get(`/api/pieces/${piece.id}`).expect(200)).body.lightDose).toBeNull();
     const history = await AuditEvent.findAll({
       where: { entity: 'piece', entityId: piece.id, action: 'display-logged' },
     });

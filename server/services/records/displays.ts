@@ -101,3 +101,8 @@ export async function createDisplay({
   });
   return { display, dose: doseOf(piece, [...existing, next]) };
 }
+
+/** The piece's light dose from all its display periods (the piece detail answers it as lightDose). */
+export async function lightDoseOf(piece: Piece) {
+  return doseOf(piece, (await periodsOf(piece.id)).map(asInput));
+}
