@@ -25,6 +25,9 @@ export const asInput = (d: DisplayPeriod): DisplayPeriodInput => ({
   hoursPerDay: d.hoursPerDay,
 });
 
+/** 246400 → "246 400" (thin grouping, as on the page). */
+const grouped = (n: number) => formatNumber(Math.round(n), 0).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
+
 export const todayIso = () => new Date().toISOString().slice(0, 10);
 
 export function categoryOf(piece: Piece) {
@@ -58,9 +61,7 @@ export function excessMessage(piece: Piece, periods: DisplayPeriodInput[], next:
   const { category } = categoryOf(piece);
   const exceeds = exceedsAllowance(periods, next, category);
   if (!exceeds.length) return { exceeds, message: null };
-  const years = exceeds
-    .map((e) => `${e.year}: ${formatNumber(Math.round(e.luxHours), 0)} of ${formatNumber(e.limitLuxHours, 0)} lx·h`)
-    .join('; ');
+  const years = exceeds.map((e) => `${e.year}: ${grouped(e.luxHours)} of ${grouped(e.limitLuxHours)} lx·h`).join('; ');
   return {
     exceeds,
     message: `This display would take the piece over its annual light allowance (${LIGHT_LIMITS[category].label}) — ${years}.`,
