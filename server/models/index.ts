@@ -10,6 +10,7 @@ import { AuthToken } from './auth-token.ts';
 import { initJobModel, Job } from './job.ts';
 import { AppSetting } from './settings.ts';
 import { RateLimit } from './rate-limit.ts';
+import { initSavedSearchModel, SavedSearch } from './saved-search.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -22,6 +23,7 @@ AuthToken.initModel(sequelize);
 initJobModel(sequelize);
 AppSetting.initModel(sequelize);
 RateLimit.initModel(sequelize);
+initSavedSearchModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -56,6 +58,7 @@ AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId' });
 AuthToken.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 AuthToken.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
 Job.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById', constraints: false });
+SavedSearch.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 
 export {
   sequelize,
@@ -78,6 +81,7 @@ export {
   Session,
   AuthToken,
   Job,
+  SavedSearch,
   AppSetting,
   RateLimit,
 };

@@ -18,6 +18,8 @@ import * as m0021rateLimits from './0021-rate-limits.ts';
 import * as m0022jobLease from './0022-job-lease.ts';
 import * as m0023searchChanges from './0023-search-changes.ts';
 import * as m0024importPreviews from './0024-import-previews.ts';
+import * as m0032pieceCuratorial from './0032-piece-curatorial.ts';
+import * as m0033savedSearches from './0033-saved-searches.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -41,4 +43,6 @@ export const migrations: Migration[] = [
   { name: '0022-job-lease', ...m0022jobLease },
   { name: '0023-search-changes', ...m0023searchChanges },
   { name: '0024-import-previews', ...m0024importPreviews },
+  { name: '0032-piece-curatorial', ...m0032pieceCuratorial },
+  { name: '0033-saved-searches', ...m0033savedSearches },
 ];
