@@ -67,7 +67,9 @@ export async function buildManifest(
     ...(piece.patternName ? [entry('Pattern name', piece.patternName)] : []),
     ...(piece.makers?.length ? [entry('Makers', makerList(piece))] : []),
     ...(piece.marks?.length ? [entry('Marks and inscriptions', markList(piece))] : []),
-    ...(piece.objectRights ? [entry('Object rights', `${rightsLabel(piece.objectRights)} (${piece.objectRights})`)] : []),
+    ...(piece.objectRights
+      ? [entry('Object rights', `${rightsLabel(piece.objectRights)} (${piece.objectRights})`)]
+      : []),
     // storageLocation is never here: the manifest is public.
   ];
   const items: Manifest['items'] = [];
