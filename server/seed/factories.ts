@@ -13,6 +13,7 @@ import {
   TrialSeries,
   User,
   sequelize,
+  SavedSearch,
 } from '../models/index.ts';
 import type { Role } from '../../shared/roles.ts';
 import { hashPassword } from '../auth/passwords.ts';
@@ -277,4 +278,10 @@ export function makePaletteColour(attrs: Attrs<PaletteColour> & { photoId: numbe
     },
     { transaction },
   );
+}
+
+/** A saved search of one person (words only unless told). */
+export function makeSavedSearch(attrs: Attrs<SavedSearch> & { userId: number }, transaction?: Transaction) {
+  const n = next();
+  return SavedSearch.create({ name: `Saved search ${n}`, query: 'q=madder', ...attrs }, { transaction });
 }
