@@ -75,6 +75,7 @@ export const homeJobsSchema = z.object({
     z.object({
       id: z.number(),
       type: z.string(),
+      subject: z.object({ type: z.string(), id: z.number() }).nullable(),
       error: z.string().nullable(),
       finishedAt: z.iso.datetime().nullable(),
     }),

@@ -208,7 +208,7 @@ async function adminHome(me: Me): Promise<AdminHome> {
     }),
     Job.findAll({
       where: { state: 'failed' },
-      attributes: ['id', 'type', 'error', 'finishedAt'],
+      attributes: ['id', 'type', 'subjectType', 'subjectId', 'error', 'finishedAt'],
       order: [['id', 'DESC']],
       limit: N,
     }),
@@ -244,6 +244,7 @@ async function adminHome(me: Me): Promise<AdminHome> {
       recentFailures: failures.map((j) => ({
         id: j.id,
         type: j.type,
+        subject: j.subjectType && j.subjectId != null ? { type: j.subjectType, id: j.subjectId } : null,
         error: j.error,
         finishedAt: j.finishedAt ? iso(j.finishedAt) : null,
       })),
