@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import type { Piece } from '../api';
 import { yearsOf } from './ArchiveTable';
+import { curatorialFacts } from './curatorialFacts';
 
 const mm = (v: number | null) => (v == null ? null : `${v} mm`);
 
@@ -34,6 +35,7 @@ export function PieceFacts({ piece }: { piece: Piece }) {
     ['Provenance', piece.provenance],
     ['Condition', piece.condition],
     ['Credit line', piece.creditLine],
+    ...curatorialFacts(piece),
   ];
   return (
     <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[12rem_1fr] text-sm">
