@@ -6,7 +6,8 @@
  * the extension mechanism"). The lists below are recalled from memory of the two publishers' pages
  * (https://creativecommons.org/licenses/ and https://rightsstatements.org/page/1.0/): the six CC licences (1.0 to 4.0,
  * optionally a jurisdiction port), CC0 1.0 and the Public Domain Mark 1.0, and the twelve RightsStatements.org 1.0
- * statements. IIIF's own examples write these with http://; https:// is accepted too and kept as written.
+ * statements. Both publishers' canonical URIs are http:// (IIIF's discussion of `rights`, IIIF/api issues #1874 and
+ * #2010, and the @base of RightsStatements.org's data model); https:// is accepted and stored as the http:// form.
  */
 const CC_LICENCES = 'by|by-sa|by-nd|by-nc|by-nc-sa|by-nc-nd';
 const RS_STATEMENTS = 'InC|InC-OW-EU|InC-EDU|InC-NC|InC-RUU|NoC-CR|NoC-NC|NoC-OKLR|NoC-US|CNE|UND|NKC';
@@ -21,6 +22,9 @@ export const RIGHTS_URI_PATTERN = new RegExp(
 
 export const RIGHTS_MESSAGE =
   'Use a Creative Commons or RightsStatements.org URI, e.g. http://creativecommons.org/licenses/by/4.0/ or http://rightsstatements.org/vocab/InC/1.0/';
+
+/** The canonical (http://) form of an accepted rights URI. */
+export const canonicalRights = (uri: string) => uri.replace(/^https:\/\//, 'http://');
 
 /** The choices the piece form offers (any other URI of the two families may be typed). */
 export const RIGHTS_CHOICES = [

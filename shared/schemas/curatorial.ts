@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import '../messages.ts';
 import { parseEdtf } from '../edtf.ts';
-import { RIGHTS_MESSAGE, RIGHTS_URI_PATTERN } from '../rights.ts';
+import { RIGHTS_MESSAGE, RIGHTS_URI_PATTERN, canonicalRights } from '../rights.ts';
 
 // The curatorial fields of a piece (issue 19): makers with their role and dates, pattern name, marks and
 // inscriptions, storage location (staff only: the presenter leaves it out for visitors, IIIF and Dublin Core),
@@ -42,7 +42,8 @@ export const rightsUri = z
   .union([z.string().trim().max(255, 'Use at most 255 characters'), z.null()])
   .optional()
   .transform((v) => (v === '' || v === undefined ? null : v))
-  .refine((v) => v === null || RIGHTS_URI_PATTERN.test(v), RIGHTS_MESSAGE);
+  .refine((v) => v === null || RIGHTS_URI_PATTERN.test(v), RIGHTS_MESSAGE)
+  .transform((v) => (v === null ? null : canonicalRights(v)));
 
 /** Spread into the piece's create and update fields (shared/schemas/piece.ts). */
 export const curatorialFields = {
