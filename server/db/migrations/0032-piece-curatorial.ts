@@ -14,12 +14,10 @@ const LIST_COLUMNS = ['makers', 'marks'] as const;
 
 export const up: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi } }) => {
   for (const [c, n] of TEXT_COLUMNS) await qi.addColumn('pieces', c, { type: DataTypes.STRING(n), allowNull: true });
-  // A JSON column cannot take NOT NULL on a filled table without a value: add it open, fill it, then close it.
-  for (const c of LIST_COLUMNS) {
-    await qi.addColumn('pieces', c, { type: DataTypes.JSON, allowNull: true });
-    await qi.sequelize.query(`UPDATE pieces SET \`${c}\` = '[]' WHERE \`${c}\` IS NULL`);
-    await qi.changeColumn('pieces', c, { type: DataTypes.JSON, allowNull: false });
-  }
+  // The lists default to an empty list in the database too (MariaDB takes a literal default on JSON since 10.2), so
+  // existing rows get one and a write that names only the older columns still works.
+  for (const c of LIST_COLUMNS)
+    await qi.sequelize.query(`ALTER TABLE pieces ADD COLUMN \`${c}\` JSON NOT NULL DEFAULT '[]'`);
 };
 
 export const down: MigrationFn<MigrationContext> = async ({ context: { queryInterface: qi } }) => {
