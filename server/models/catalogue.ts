@@ -12,8 +12,7 @@ import {
 } from 'sequelize';
 
 export type Evidence = 'attributed' | 'identified';
-/** An identified term carries the analysis behind it (older rows may lack it). */
-export type EvidencedTerm = { name: string; evidence: Evidence; analysisId?: number | null };
+export type EvidencedTerm = { name: string; evidence: Evidence };
 export type PieceStatus = 'draft' | 'published';
 
 export class Piece extends Model<InferAttributes<Piece>, InferCreationAttributes<Piece>> {
