@@ -5,7 +5,7 @@
  * - Change in colour, ISO 105-A05: GS = 5 − ΔE_F/1.7 for ΔE_F ≤ 3.4, else 5 − log₂(ΔE_F/0.85).
  * - Staining, ISO 105-A04: GS = 5 − 0.23·ΔE_GS for ΔE_GS ≤ 4, else 6.1 − 1.45·ln ΔE_GS.
  *
- * RECALLED FROM MEMORY, not read in the standards (team note /work/shared/reference/grey-scale-grades.md):
+ * RECALLED FROM MEMORY, not read in the standards (the team's reference note on grey-scale grades, kept outside this repository):
  * both grade formulas and their break points; the weighted difference ΔE_F of ISO 105-A05 (its
  * chroma and hue weights and the blue-region term D below); ΔE_GS = ΔE*ab − 0.4·√(ΔE*ab² − ΔL*²)
  * of ISO 105-A04. What is checked (tests/unit/grey-scale.test.ts): on neutral pairs, where every
