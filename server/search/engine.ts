@@ -5,6 +5,7 @@ import { HttpError } from '../http/errors.ts';
 import { logger } from '../log/index.ts';
 import { ChangeCursor, pruneChanges, type ChangeRow } from './change-log.ts';
 import { loadAll, loadPieces, loadTrials } from './docs.ts';
+import { readShade } from './read.ts';
 import { facetTableFor } from './facet-table.ts';
 import { ShadeIndex, type ShadeRow } from './shade-index.ts';
 import { TextIndex } from './text-index.ts';
@@ -144,21 +145,8 @@ export class SearchEngine {
   }
 
   private async reloadShade() {
-    const photos = await sequelize.query<{ id: number; pieceId: number | null }>('SELECT id, pieceId FROM photos', {
-      type: QueryTypes.SELECT,
-    });
-    // In keyset-paged chunks: one 1M-row result set can stall past the server's net_write_timeout.
-    const rows: VariantRow[] = [];
-    for (let after = 0; ;) {
-      const chunk = await sequelize.query<VariantRow>(
-        'SELECT id, photoId, L, a, b, hex, share, variant FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT 50000',
-        { replacements: [after], type: QueryTypes.SELECT },
-      );
-      for (const r of chunk) rows.push(r);
-      if (chunk.length < 50_000) break;
-      after = chunk[chunk.length - 1].id;
-    }
-    this.shade.load(bestVariantOnly(rows), photos);
+    const { colours, photos } = await readShade();
+    this.shade.load(colours, photos);
     this.shadeUpdatedAt = Date.now();
   }
 

@@ -1,6 +1,7 @@
 import type { Connection } from 'mariadb';
 import { sequelize } from '../models/index.ts';
 import { ShadeColours } from './shade-index.ts';
+import { VARIANT_TRUST } from '../../shared/schemas/chart.ts';
 
 /**
  * The bulk reads of an index load, on one of Sequelize's pooled connections used directly: the binary protocol
@@ -65,7 +66,17 @@ export async function eachPage(
   }
 }
 
-/** Every palette colour the shade index holds (not background ones) and every photo's piece. */
+/** Trust rank by FIELD(): 1 for the most trustworthy variant; 0 (a variant not in the list) ranks last. */
+const RANK_SQL = `FIELD(variant, ${VARIANT_TRUST.map((v) => `'${v}'`).join(', ')})`;
+const LAST_RANK = VARIANT_TRUST.length + 1;
+
+/**
+ * Every palette colour the shade index holds (not background ones) and every photo's piece. Of a photo's palette
+ * variants only the most trustworthy one is kept (VARIANT_TRUST: calibrated, then corrected, then raw), as
+ * `bestVariantOnly` does for the engine's per-photo updates: a photo with a chart correction is found by its
+ * calibrated colours, not also by the raw ones they replace. The rank comes with each row; the columns are compacted
+ * once at the end, and only when some photo has more than one variant.
+ */
 export async function readShade(): Promise<{
   colours: ShadeColours;
   photos: Array<{ id: number; pieceId: number | null }>;
@@ -77,23 +88,45 @@ export async function readShade(): Promise<{
         for (const r of rows) photos.push({ id: r[0] as number, pieceId: r[1] as number | null });
       });
       const colours = new ShadeColours();
+      let ranks = new Uint8Array(1 << 16);
+      const best = new Map<number, number>();
+      let mixed = false;
       await eachPage(
         conn,
-        'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT ?',
+        `SELECT id, photoId, L, a, b, hex, share, ${RANK_SQL} FROM palette_colours WHERE background = 0 AND id > ? ORDER BY id LIMIT ?`,
         10_000,
         (rows) => {
-          for (const r of rows)
+          for (const r of rows) {
+            const photoId = r[1] as number;
+            const rank = Number(r[7]) || LAST_RANK;
+            if (colours.size >= ranks.length) {
+              const next = new Uint8Array(ranks.length * 2);
+              next.set(ranks);
+              ranks = next;
+            }
+            ranks[colours.size] = rank;
+            const b = best.get(photoId);
+            if (b === undefined) best.set(photoId, rank);
+            else if (b !== rank) {
+              mixed = true;
+              if (rank < b) best.set(photoId, rank);
+            }
             colours.add(
               r[0] as number,
-              r[1] as number,
+              photoId,
               r[2] as number,
               r[3] as number,
               r[4] as number,
               r[5] as string,
               r[6] as number,
             );
+          }
         },
       );
+      if (mixed) {
+        const photo = colours.cols.photo;
+        colours.retain((j) => ranks[j] === best.get(photo[j]));
+      }
       return { colours, photos };
     }),
   );

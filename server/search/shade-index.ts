@@ -175,6 +175,13 @@ export class ShadeColours {
     c.rgb[j] = hexToInt(hex);
     c.alive[j] = 1;
   }
+  /** Keep only the colours for which `keep(j)` holds, in their order (in place: copying within one set of columns). */
+  retain(keep: (j: number) => boolean) {
+    const c = this.cols;
+    let n = 0;
+    for (let j = 0; j < c.n; j++) if (keep(j)) c.copyFrom(c, j, n++);
+    c.n = n;
+  }
 }
 
 export class ShadeIndex {

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Chemical, sequelize } from '../../server/models/index.ts';
 import { loadAll, loadPiece, loadTrial } from '../../server/search/docs.ts';
 import { readShade } from '../../server/search/read.ts';
+import { bestVariantOnly } from '../../server/search/engine.ts';
 import { ShadeIndex, type ShadeRow } from '../../server/search/shade-index.ts';
 import {
   makePaletteColour,
@@ -81,9 +82,11 @@ describe('the full index load (read.ts, docs.ts loadAll)', () => {
 
   it('reads every palette colour and photo with the same values as a Sequelize query, and the shade index answers alike', async () => {
     const { colours, photos } = await readShade();
-    const rows = await sequelize.query<ShadeRow>(
-      'SELECT id, photoId, L, a, b, hex, share FROM palette_colours WHERE background = 0 ORDER BY id',
-      { type: QueryTypes.SELECT },
+    const rows = bestVariantOnly(
+      await sequelize.query<ShadeRow & { variant: string }>(
+        'SELECT id, photoId, L, a, b, hex, share, variant FROM palette_colours WHERE background = 0 ORDER BY id',
+        { type: QueryTypes.SELECT },
+      ),
     );
     const c = colours.cols;
     expect(colours.size).toBe(rows.length);
@@ -114,5 +117,27 @@ describe('the full index load (read.ts, docs.ts loadAll)', () => {
       { L: 40, a: 40, b: 20, maxDeltaE: 30, limit: 50 },
     ])
       expect(fromColumns.query(q).items).toEqual(fromRows.query(q).items);
+  });
+
+  it("keeps each photo's most trustworthy palette variant only: calibrated, then corrected, then raw", async () => {
+    const { photo } = await makePhoto({ pieceId });
+    const raw = await makePaletteColour({ photoId: photo.id, variant: 'raw', L: 50, a: 40, b: 20, hex: '#a05050' });
+    const corrected = await makePaletteColour({ photoId: photo.id, variant: 'corrected', L: 51, a: 39, b: 21 });
+    const { photo: other } = await makePhoto({ pieceId });
+    const otherRaw = await makePaletteColour({ photoId: other.id, variant: 'raw', L: 30, a: 10, b: -20 });
+    let { colours } = await readShade();
+    let ids = Array.from(colours.cols.id.subarray(0, colours.size));
+    expect(ids).toContain(corrected.id);
+    expect(ids).not.toContain(raw.id);
+    expect(ids).toContain(otherRaw.id);
+    const calibrated = await makePaletteColour({ photoId: photo.id, variant: 'calibrated', L: 52, a: 38, b: 22 });
+    ({ colours } = await readShade());
+    ids = Array.from(colours.cols.id.subarray(0, colours.size));
+    expect(ids).toContain(calibrated.id);
+    expect(ids).not.toContain(corrected.id);
+    expect(ids).not.toContain(raw.id);
+    expect(ids).toContain(otherRaw.id);
+    // The columns stay in id order after the compaction (ShadeIndex.load relies on nothing else).
+    expect(ids).toEqual([...ids].sort((x, y) => x - y));
   });
 });
