@@ -44,6 +44,12 @@ export class ChangeCursor {
   /** Highest id read so far. */
   high = 0;
   gaps: Gap[] = [];
+  /**
+   * How many log rows have been read (any kind, gaps filled included), bumped also by every start: a count that
+   * changes whenever a write affecting search has been seen. Answer caches keyed on it (the archive list) are valid
+   * for as long as it stands still.
+   */
+  seen = 0;
 
   /**
    * Position at the log's end before an index load: everything committed now is in the load; ids below the end
@@ -65,6 +71,7 @@ export class ChangeCursor {
     const [{ now }] = await sequelize.query<{ now: Date }>('SELECT NOW(3) AS now', { type: QueryTypes.SELECT });
     this.high = from;
     this.gaps = [];
+    this.seen++;
     for (const r of ids) this.see(Number(r.id), new Date(now).getTime());
     if (end > this.high) this.gaps.push({ from: this.high + 1, to: end, seenAt: new Date(now).getTime() });
     this.high = end;
@@ -117,6 +124,7 @@ export class ChangeCursor {
       { replacements: params, type: QueryTypes.SELECT },
     );
     const out: ChangeRow[] = [];
+    this.seen += rows.length;
     for (const r of rows) {
       const id = Number(r.id);
       this.see(id, new Date(r.now).getTime());

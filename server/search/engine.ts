@@ -2,6 +2,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '../models/index.ts';
 import { env, isTest } from '../env.ts';
 import { HttpError } from '../http/errors.ts';
+import { fairTurn } from '../http/fair-turns.ts';
 import { logger } from '../log/index.ts';
 import { ChangeCursor, pruneChanges, type ChangeRow } from './change-log.ts';
 import { loadAll, loadPieces, loadTrials } from './docs.ts';
@@ -285,16 +286,43 @@ export class SearchEngine {
         );
       await this.ready();
     }
+    if ((await this.catchUpBounded()) === 'late')
+      logger.warn({ waitMs: SYNC_WAIT_MS }, '[search] answered before catching up with the log');
+    // Every search waiting on that catch-up continues now: take turns rather than all in one go (fair-turns.ts).
+    await fairTurn();
+  }
+
+  /** One catch-up that started after this call, waited for at most SYNC_WAIT_MS. */
+  private async catchUpBounded(): Promise<'done' | 'failed' | 'late'> {
     let timer: NodeJS.Timeout | undefined;
     const late = new Promise<'late'>((resolve) => {
       timer = setTimeout(() => resolve('late'), SYNC_WAIT_MS);
     });
     try {
-      const r = await Promise.race([this.sync().catch(() => 'failed' as const), late]);
-      if (r === 'late') logger.warn({ waitMs: SYNC_WAIT_MS }, '[search] answered before catching up with the log');
+      return await Promise.race([
+        this.sync().then(
+          () => 'done' as const,
+          () => 'failed' as const,
+        ),
+        late,
+      ]);
     } finally {
       clearTimeout(timer);
     }
+  }
+
+  /**
+   * For answers cached outside the indexes (the archive list, server/routes/pieces/list-cache.ts): after a catch-up
+   * with the log that started after this call, the count of log rows read so far (`ChangeCursor.seen`). Every write
+   * that affects a piece, its photos or its publication appends to the log in its own transaction, so while the
+   * count stands still nothing such has been committed since an answer cached under it was read. Null when the
+   * indexes are not loaded or the catch-up failed or was late: then answer from MariaDB, uncached.
+   */
+  async logMark(): Promise<number | null> {
+    if (!this.loaded) return null;
+    const r = await this.catchUpBounded();
+    await fairTurn();
+    return r === 'done' ? this.cursor.seen : null;
   }
 }
 

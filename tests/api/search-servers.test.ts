@@ -133,6 +133,62 @@ describe('search on one server sees every write made through another', () => {
       expect((await request(server.url).get('/api/search').query({ q: word }).expect(200)).body.items).toEqual([]);
   }, 60_000);
 
+  it('the archive list on B, cached there, shows every write made on A at once (issue 16, point 9)', async () => {
+    const curatorA = await signIn(a, 'curator');
+    const researcherB = await signIn(b, 'researcher');
+    const newest = { sort: 'createdAt', dir: 'desc', pageSize: 5 };
+    type Row = { id: number; title: string; status: string; thumbUrl: string | null };
+    const staffList = async () =>
+      (await researcherB.get('/api/pieces').query(newest).expect(200)).body as {
+        items: Row[];
+        total: number;
+      };
+    const publicList = async () =>
+      (await request(b.url).get('/api/pieces').query(newest).expect(200)).body as {
+        items: Row[];
+        total: number;
+      };
+    // Read twice on B first, so that what follows is answered from B's cache unless a write shows up in the log.
+    await staffList();
+    const before = await staffList();
+    const beforePublic = await publicList();
+
+    const word = unique();
+    const created = await curatorA
+      .post('/api/pieces')
+      .set('Origin', a.url)
+      .send({ accessionNumber: `LST.${word}`, objectName: 'fragment', title: `Listed ${word}`, dateEdtf: '1800' })
+      .expect(201);
+    const id = created.body.piece.id as number;
+    const staff = await staffList();
+    expect(staff.items[0]).toMatchObject({ id, title: `Listed ${word}`, status: 'draft', thumbUrl: null });
+    expect(staff.total).toBe(before.total + 1);
+    expect((await publicList()).items.map((r) => r.id)).not.toContain(id);
+
+    await curatorA.patch(`/api/pieces/${id}`).set('Origin', a.url).send({ status: 'published' }).expect(200);
+    const published = await publicList();
+    expect(published.items[0]).toMatchObject({ id, status: 'published' });
+    expect(published.total).toBe(beforePublic.total + 1);
+
+    await curatorA
+      .post(`/api/pieces/${id}/photos`)
+      .set('Origin', a.url)
+      .attach('photo', await clothJpeg({ seed: 5 }), 'recto.jpg')
+      .expect(201);
+    expect((await publicList()).items[0].thumbUrl).toMatch(/^\/media\/photos\/\d+\/thumb$/);
+
+    // Cached indeed: a change written behind the app's back (raw SQL, no log row) is not seen on B ...
+    await sequelize.query('UPDATE pieces SET title = ? WHERE id = ?', { replacements: [`Unlogged ${word}`, id] });
+    expect((await publicList()).items[0].title).toBe(`Listed ${word}`);
+    // ... until a logged write shows up: then the list is read again, with both.
+    await curatorA.patch(`/api/pieces/${id}`).set('Origin', a.url).send({ status: 'draft' }).expect(200);
+    expect((await publicList()).items.map((r) => r.id)).not.toContain(id);
+    expect((await staffList()).items[0]).toMatchObject({ id, title: `Unlogged ${word}`, status: 'draft' });
+
+    await curatorA.delete(`/api/pieces/${id}`).set('Origin', a.url).expect(204);
+    expect((await staffList()).items.map((r) => r.id)).not.toContain(id);
+  }, 60_000);
+
   it('each server reports how far it is behind the change log', async () => {
     const health = await request(b.url).get('/api/health').expect(200);
     expect(health.body.search).toMatchObject({ pendingChanges: 0, lastError: null });

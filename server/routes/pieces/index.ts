@@ -10,6 +10,7 @@ import { presentAuditEvent, presentPiece, presentPieceRow, pieceRecord } from '.
 import { presentPhoto } from '../../presenters/photo.ts';
 import { createPiece, deletePiece, restorePiece, updatePiece } from '../../services/pieces.ts';
 import { listPieces, loadPhotosOf, loadReadablePiece } from './load.ts';
+import { cachedList } from './list-cache.ts';
 import { photoUploadRouter } from '../photos/upload.ts';
 import { fadingRouter } from './fading.ts';
 
@@ -21,13 +22,18 @@ piecesRouter.get('/', async (req, res) => {
   if (q.deleted && !actor) throw unauthorized();
   if (q.deleted && !can(actor, 'piece:read', { deleted: true }))
     throw forbidden('Only curators and admins see deleted pieces.');
-  const { rows, total, firstPhoto } = await listPieces(actor, q);
-  res.json({
-    items: rows.map((p) => presentPieceRow(p, firstPhoto.get(p.id) ?? null)),
-    total,
-    page: q.page,
-    pageSize: q.pageSize,
-  });
+  const audience = can(actor, 'piece:list-drafts') ? 'staff' : 'public';
+  res.json(
+    await cachedList(audience, q, async () => {
+      const { rows, total, firstPhoto } = await listPieces(actor, q);
+      return {
+        items: rows.map((p) => presentPieceRow(p, firstPhoto.get(p.id) ?? null)),
+        total,
+        page: q.page,
+        pageSize: q.pageSize,
+      };
+    }),
+  );
 });
 
 piecesRouter.post('/', requireUser, async (req, res) => {
