@@ -3,10 +3,31 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import session from 'express-session';
 import connectSessionSequelize from 'connect-session-sequelize';
+import { QueryTypes } from 'sequelize';
 import { env, isProduction } from '../env.ts';
 import { sequelize } from '../models/index.ts';
 
 const SequelizeStore = connectSessionSequelize(session.Store);
+
+/**
+ * The store's read, on every signed-in request: one plain query instead of a model instance per request
+ * (connect-session-sequelize's `findOne`), and a session past its expiry is no session at all (the store's own read
+ * does not look at `expires`, and its sweep is off: checkExpirationInterval 0), so a copied cookie does not outlive
+ * the 14 days a browser keeps it.
+ */
+class SessionStore extends SequelizeStore {
+  get(sid: string, fn: (err: unknown, session?: session.SessionData | null) => void) {
+    sequelize
+      .query<{ data: string | null; expires: Date | string | null }>(
+        'SELECT data, expires FROM sessions WHERE sid = ?',
+        { replacements: [sid], type: QueryTypes.SELECT },
+      )
+      .then(([row]) => {
+        const live = row?.data && (row.expires === null || new Date(row.expires).getTime() > Date.now());
+        fn(null, live ? (JSON.parse(row.data!) as session.SessionData) : null);
+      }, fn);
+  }
+}
 
 /** Outside production a generated secret is kept in the runtime folder, so sessions survive restarts. */
 function sessionSecret(): string {
@@ -38,7 +59,7 @@ export function sessionMiddleware() {
       userId: sess.passport?.user ?? null,
     }),
   };
-  const store = new SequelizeStore(options);
+  const store = new SessionStore(options);
   return session({
     name: SESSION_COOKIE,
     secret: sessionSecret(),

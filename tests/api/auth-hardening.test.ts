@@ -3,7 +3,7 @@ import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { LOGIN_LIMITS } from '../../server/auth/rate-limit.ts';
 import { hashPassword } from '../../server/auth/passwords.ts';
-import { sequelize, User } from '../../server/models/index.ts';
+import { Session, sequelize, User } from '../../server/models/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 
 afterAll(() => sequelize.close());
@@ -92,5 +92,16 @@ describe('sign-in hardening', () => {
     const second = createApp();
     const me = await request(second).get('/api/auth/me').set('Cookie', cookie).expect(200);
     expect(me.body.user.email).toBe('curator@demo.test');
+  });
+
+  it('refuses a session past its expiry on the server, whatever the cookie says', async () => {
+    const app = createApp();
+    const res = await login(app, 'researcher@demo.test', 'tinctoria-demo').expect(200);
+    const cookie = res.headers['set-cookie'][0].split(';')[0];
+    await request(app).get('/api/auth/me').set('Cookie', cookie).expect(200);
+    const sid = decodeURIComponent(cookie.split('=')[1]).slice(2).split('.')[0];
+    const [changed] = await Session.update({ expires: new Date(Date.now() - 1000) }, { where: { sid } });
+    expect(changed).toBe(1);
+    await request(app).get('/api/auth/me').set('Cookie', cookie).expect(401);
   });
 });
