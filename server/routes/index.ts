@@ -20,6 +20,7 @@ import { batchesRouter } from './batches/index.ts';
 import { seriesRouter } from './series/index.ts';
 import { trialCardsRouter } from './trial-cards/index.ts';
 import { searchRouter } from './search/index.ts';
+import { suggestionsRouter } from './suggestions/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -49,5 +50,6 @@ export function apiRouter() {
   router.use('/series', seriesRouter);
   router.use('/trials', trialCardsRouter);
   router.use('/search', searchRouter);
+  router.use('/suggestions', suggestionsRouter);
   return router;
 }

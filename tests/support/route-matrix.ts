@@ -480,6 +480,21 @@ export const routeMatrix: MatrixRow[] = [
   row('POST /api/pieces/:id/trials', dyersCreate, {
     setup: async () => ({ params: { id: (await makePiece()).id }, body: { dryMassG: 40 } }),
   }),
+  row('GET /api/suggestions/recipes', signedIn, { setup: async () => ({ query: { L: '45', a: '40', b: '22' } }) }),
+  row('POST /api/suggestions/recipes/trials', dyersCreate, {
+    setup: async () => ({
+      body: {
+        dryMassG: 20,
+        steps: [
+          {
+            operation: 'dye-bath',
+            ingredients: [{ kind: 'dyestuff', refId: await anyId(Dyestuff), amount: 10, basis: 'owf' }],
+          },
+        ],
+        evidence: 'matrix: a ladder of madder on alum',
+      },
+    }),
+  }),
   row('POST /api/colour/difference', everyone('2xx'), {
     body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } },
   }),

@@ -18,6 +18,7 @@ import series from './series.ts';
 import pieces from './pieces.ts';
 import photos from './photos.ts';
 import search from './search.ts';
+import suggestions from './suggestions.ts';
 import iiif from './iiif.ts';
 import media from './media.ts';
 
@@ -42,6 +43,7 @@ export const groups: RouteGroup[] = [
   batches,
   series,
   search,
+  suggestions,
   iiif,
   media,
 ];

@@ -62,6 +62,9 @@ const byConditions = (x: ViewingConditions, y: ViewingConditions) =>
 /** The spectrum behind a resolved reading of the original, kept beside it (never sent as such). */
 const spectrumOf = new WeakMap<ResolvedColour, Spectrum>();
 
+/** The reflectance spectrum behind a resolved reading, when it was read as one (recipe suggestions use it). */
+export const spectrumBehind = (c: ResolvedColour): Spectrum | null => spectrumOf.get(c) ?? null;
+
 const reading = (m: ColourMeasurement, label: string, setAside: Estimate | null = null): ResolvedColour => {
   const r: ResolvedColour = {
     ...lab(m),
