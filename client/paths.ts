@@ -19,6 +19,12 @@ export const paths = {
       ? `/trials/new?pieceId=${pieceId}${target ? `&target=${encodeURIComponent(target)}` : ''}`
       : '/trials/new',
   sideBySide: (pieceId: number | string) => `/archive/${pieceId}/side-by-side`,
+  /** Recipes to try for one colour of a piece (a palette colour, a region or a reading). */
+  suggest: (t: { pieceId?: number | null; paletteColourId?: number; regionId?: number; measurementId?: number }) =>
+    `/suggest?${Object.entries(t)
+      .filter(([, v]) => v != null)
+      .map(([k, v]) => `${k}=${v}`)
+      .join('&')}`,
   baths: () => '/baths',
   bath: (id: number | string) => `/baths/${id}`,
   series: () => '/series',

@@ -25,6 +25,7 @@ import { TrialNewPage } from './features/trials/components/TrialNewPage';
 import { TrialPage } from './features/trials/components/TrialPage';
 import { SideBySidePage } from './features/trials/components/SideBySidePage';
 import { Search } from './routes/Search';
+import { SuggestionsPage } from './features/suggestions';
 
 export const router = createBrowserRouter([
   {
@@ -75,6 +76,7 @@ export const router = createBrowserRouter([
           { path: 'trials', element: <TrialsPage /> },
           { path: 'trials/:id', element: <TrialPage /> },
           { path: 'archive/:id/side-by-side', element: <SideBySidePage /> },
+          { path: 'suggest', element: <SuggestionsPage /> },
         ],
       },
       {

@@ -27,6 +27,7 @@ import {
   type PieceInput,
 } from './factories.ts';
 import { seedDemoPhotos } from './demo-photos.ts';
+import { ladderSpectrum } from './ladders.ts';
 import { spectrumToLab, type Spectrum } from '../../shared/colour/spectral.ts';
 
 // Invented reflectance spectra (400–700 nm every 10 nm, fractions) of the purple ground and its reproduction.
@@ -671,6 +672,34 @@ export async function seedDemo(t: Transaction) {
       ],
     );
   }
+  // Strength ladders, made before the workshop to choose its madder strength: madder and weld at 5, 10, 20 and 40 %
+  // owf on tannin-and-alum mordanted cotton, everything else the same, each swatch read as a spectrum. They are what
+  // recipe suggestions interpolate (server/services/suggestions/); the readings are invented (server/seed/ladders.ts).
+  for (const dye of ['madder', 'weld'] as const)
+    for (const owf of [5, 10, 20, 40]) {
+      const trial = await makeTrial(
+        {
+          dyerId: tamsin.id,
+          dryMassG: 10,
+          gsm: 140,
+          status: 'finished',
+          startedOn: '2024-03-28',
+          notes: `Strength ladder: ${dye} ${owf} % owf on tannin and alum, the workshop's preparation.`,
+        },
+        [
+          tannin8,
+          alum15,
+          {
+            operation: 'dye-bath',
+            ingredients: [['dyestuff', dye, owf, 'owf']],
+            liquorRatio: 30,
+            temperatureC: 70,
+            minutes: 60,
+          },
+        ],
+      );
+      await reading({ trialId: trial.id, ...spectral(ladderSpectrum(dye, owf).values), label: `${trial.code} swatch` });
+    }
   await seedDemoPhotos(t, { pieces, trials, curator: users.curator, dyer: users.dyer });
   return { users, pieces, trials, batches: { mb07, mb08, mb09 }, series };
 }

@@ -14,6 +14,13 @@ const coord = (label: string, min: number, max: number) =>
     .max(max, `${label} is ${min} to ${max}`)
     .optional();
 
+const dryMassG = z.coerce
+  .number({ error: 'Enter the dry fibre mass in g' })
+  .positive('The dry fibre mass must be more than 0 g')
+  .max(100_000, 'A dry fibre mass above 100 kg (100,000 g) is not a trial');
+/** The suggestions page's own small form: the dry fibre mass the recipes are scaled to. */
+export const suggestionScaleSchema = z.object({ dryMassG });
+
 export const recipeSuggestionQuery = z
   .object({
     L: coord('L*', 0, 100),
@@ -26,11 +33,7 @@ export const recipeSuggestionQuery = z
     regionId: optionalId,
     measurementId: optionalId,
     /** The dry fibre mass the recipe is scaled to, in g. */
-    dryMassG: z.coerce
-      .number({ error: 'Enter the dry fibre mass in g' })
-      .positive('The dry fibre mass must be more than 0 g')
-      .max(100_000, 'A dry fibre mass above 100 kg (100,000 g) is not a trial')
-      .default(10),
+    dryMassG: dryMassG.default(10),
     limit: z.coerce.number().int().min(1).max(20).default(5),
   })
   .superRefine((q, ctx) => {
@@ -92,7 +95,12 @@ export const recipeSuggestionSchema = z.object({
 export type RecipeSuggestion = z.infer<typeof recipeSuggestionSchema>;
 
 export const recipeSuggestionsResponse = z.object({
-  target: labOut.extend({ illuminant: z.string(), observer: z.string(), label: z.string() }),
+  target: labOut.extend({
+    illuminant: z.string(),
+    observer: z.string(),
+    source: z.enum(['instrument', 'image-estimate']),
+    label: z.string(),
+  }),
   items: z.array(recipeSuggestionSchema),
   /** How many finished trials were weighed, and how many ladders they form. */
   considered: z.object({ trials: z.number(), ladders: z.number() }),

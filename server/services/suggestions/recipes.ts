@@ -34,7 +34,7 @@ import { resultCandidates, spectrumBehind, targetCandidates, type ResolvedColour
  */
 
 type Lab = { L: number; a: number; b: number };
-type Target = Lab & Conditions & { label: string; spectrum: Spectrum | null };
+type Target = Lab & Conditions & { label: string; spectrum: Spectrum | null; source: 'instrument' | 'image-estimate' };
 export type SuggestionTargetInput = {
   L?: number;
   a?: number;
@@ -57,6 +57,7 @@ export async function resolveSuggestionTarget(q: SuggestionTargetInput): Promise
       observer: q.observer ?? '10',
       label: 'the colour typed in',
       spectrum: null,
+      source: 'instrument',
     };
   const [first] = await targetCandidates({
     targetPaletteColourId: q.paletteColourId ?? null,
@@ -67,7 +68,7 @@ export async function resolveSuggestionTarget(q: SuggestionTargetInput): Promise
     if (q.regionId != null) throw badRequest('This region has no palette colour or reading yet.');
     throw notFound(q.paletteColourId != null ? 'Palette colour' : q.measurementId != null ? 'Reading' : 'Region');
   }
-  return { ...resolvedLab(first), label: first.label, spectrum: spectrumBehind(first) };
+  return { ...resolvedLab(first), label: first.label, spectrum: spectrumBehind(first), source: first.source };
 }
 
 const resolvedLab = (c: ResolvedColour) => ({
@@ -329,6 +330,7 @@ export async function suggestRecipes(
       b: target.b,
       illuminant: target.illuminant,
       observer: target.observer,
+      source: target.source,
       label: target.label,
     },
     items: items.slice(0, q.limit),

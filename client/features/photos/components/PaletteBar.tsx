@@ -1,6 +1,7 @@
 import { formatNumber } from '../../../../shared/format';
 import { IMAGE_ESTIMATE, ViewingConditions } from '../../../components/ViewingConditions';
 import { ShadeSearchLink } from '../../search';
+import { SuggestRecipeLink } from '../../suggestions';
 import type { Palettes } from '../api';
 
 type Colour = Palettes[number]['colours'][number];
@@ -16,10 +17,13 @@ export function PaletteBar({
   title,
   colours,
   onToggleBackground,
+  pieceId = null,
 }: {
   title: string;
   colours: Colour[];
   onToggleBackground?: (c: Colour) => void;
+  /** The piece the photo belongs to: its colours get "Suggest a recipe" (a trial's swatch photo has none). */
+  pieceId?: number | null;
 }) {
   const counted = colours.filter((c) => !c.background);
   return (
@@ -68,6 +72,11 @@ export function PaletteBar({
                   Pieces with this shade
                 </ShadeSearchLink>
               </div>
+              {pieceId != null && !c.background ? (
+                <div>
+                  <SuggestRecipeLink pieceId={pieceId} paletteColourId={c.id} />
+                </div>
+              ) : null}
               {onToggleBackground ? (
                 <button
                   type="button"

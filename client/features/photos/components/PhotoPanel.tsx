@@ -80,6 +80,7 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
             key={`${p.regionId}-${p.variant}`}
             title={`${regionName(p.regionId)} — ${VARIANT_WORDS[p.variant]}${p.variant === photo.trustedVariant ? ' (in use)' : ''}`}
             colours={p.colours}
+            pieceId={photo.pieceId}
             onToggleBackground={
               canEdit ? (c) => toggle.mutate({ colourId: c.id, background: !c.background }) : undefined
             }
