@@ -4,7 +4,8 @@ import type { Spectrum } from '../../shared/colour/spectral.ts';
 /**
  * The demo's strength ladders (madder and weld, 5–40 % owf on alum-mordanted cotton) need readings, and the demo has
  * no instrument: their reflectance spectra are made here by single-constant Kubelka–Munk from invented unit K/S
- * curves (one broad absorption band each, where madder's aluminium lake and weld's absorb), an uptake that fills up
+ * curves (broad absorption bands where madder's aluminium lake and weld's absorb, madder's with a little all-round
+ * absorption that dulls it towards a Turkey red), an uptake that fills up
  * at high strengths, and a small fixed wobble standing in for a real reading's scatter. Invented demo data, shaped to
  * look like such readings; not measurements.
  */
@@ -17,7 +18,7 @@ const band = (nm: number, centre: number, width: number, height: number) =>
 const substrateKs = (nm: number) => ksFromR(0.86) + band(nm, 400, 60, 0.05);
 
 export const LADDER_DYES = {
-  madder: { unitKs: (nm: number) => band(nm, 520, 55, 0.5) + band(nm, 455, 45, 0.32), halfSaturation: 35 },
+  madder: { unitKs: (nm: number) => band(nm, 520, 55, 0.45) + band(nm, 470, 45, 0.8) + 0.015, halfSaturation: 50 },
   weld: { unitKs: (nm: number) => band(nm, 405, 55, 0.3) + band(nm, 465, 25, 0.04), halfSaturation: 30 },
 } as const;
 export type LadderDye = keyof typeof LADDER_DYES;

@@ -4,6 +4,7 @@ import { loadBench } from './load.bench.ts';
 import { paletteBench } from './palette.bench.ts';
 import { searchBench } from './search.bench.ts';
 import { startupBench } from './startup.bench.ts';
+import { suggestBench } from './suggest.bench.ts';
 import { importStreamBench, uploadStreamBench } from './streaming.bench.ts';
 
 export type BenchResult = { metric: string; value: number; unit: string; target?: string; pass?: boolean };
@@ -19,4 +20,5 @@ export const benches: Bench[] = [
   searchBench,
   startupBench,
   loadBench,
+  suggestBench,
 ];

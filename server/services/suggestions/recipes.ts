@@ -362,3 +362,16 @@ export async function createSuggestedTrial({ actor, transaction, input }: Signed
   });
   return trial;
 }
+
+/**
+ * Leave-one-out on every ladder the finished trials form (`npm run bench -- suggest`): per ladder, what it varies and
+ * the ΔE00 of each inner rung predicted from the others, under the given conditions.
+ */
+export async function ladderEvaluation(conditions: Conditions) {
+  const ladders = findLadders(await gatherEvidence(conditions));
+  return ladders.map((l) => ({
+    what: `${l.what.name} (${l.rungs.map((r) => r.strength).join(', ')} ${basisWords[l.what.basis]})`,
+    method: l.rungs.every((r) => r.spectrum) ? ('kubelka-munk' as const) : ('lab-path' as const),
+    errors: leaveOneOut(rungsOf(l), conditions),
+  }));
+}
