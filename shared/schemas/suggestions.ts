@@ -73,6 +73,8 @@ export const suggestedStepSchema = z.object({
   minutes: z.number().nullable(),
   ph: z.number().nullable(),
   notes: z.string().nullable(),
+  /** Active baths holding one of the step's chemicals, to draw from instead of making the bath up. */
+  baths: z.array(z.object({ id: z.number(), code: z.string(), name: z.string() })),
 });
 
 export const recipeSuggestionSchema = z.object({

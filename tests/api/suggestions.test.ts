@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Chemical, Dyestuff, RecipeStep, sequelize, Trial } from '../../server/models/index.ts';
-import { makeMeasurement, makePiece, makeRecipeStep, makeTrial } from '../../server/seed/factories.ts';
+import { makeBatch, makeMeasurement, makePiece, makeRecipeStep, makeTrial } from '../../server/seed/factories.ts';
 import { ksFromR, rFromKs } from '../../shared/compute/kubelka-munk.ts';
 import { deltaE00 } from '../../shared/colour/difference.ts';
 import { spectrumToLab, type Spectrum } from '../../shared/colour/spectral.ts';
@@ -67,6 +67,14 @@ beforeAll(async () => {
 
 describe('recipe suggestions', () => {
   it('interpolates the ladder to the strength that gives the target, with its expected error and a scaled recipe', async () => {
+    const bath = await makeBatch({
+      status: 'active',
+      ingredients: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 100 }],
+    });
+    const spent = await makeBatch({
+      status: 'exhausted',
+      ingredients: [{ kind: 'chemical', refId: alum.id, name: alum.name, grams: 100 }],
+    });
     const agent = await signedInAgent(app, 'dyer');
     const target = labOf(dyed(15));
     const res = await agent
@@ -99,6 +107,11 @@ describe('recipe suggestions', () => {
       interpolated: false,
     });
     expect(ladder.explanation).toMatch(/ladder of 4 trials/);
+    // The mordant bath is offered from the active baths that hold its alum; a spent one is not.
+    const offered = ladder.recipe.steps[0].baths.map((b: { id: number }) => b.id);
+    expect(offered).toContain(bath.id);
+    expect(offered).not.toContain(spent.id);
+    expect(ladder.recipe.steps[1].baths).toEqual([]);
     expect(deltaE00(ladder.predicted.lab, target)).toBeCloseTo(ladder.predicted.deltaE00, 6);
 
     // Historical-only chemicals are never suggested, even when that trial matches the target exactly.

@@ -20,7 +20,7 @@ import { audit } from '../audit.ts';
 import type { SignedInCtx } from '../context.ts';
 import { createTrial, replaceSteps } from '../trials/trials.ts';
 import { badRequest, notFound } from '../../http/errors.ts';
-import { Chemical, ColourMeasurement, RecipeStep, Trial } from '../../models/index.ts';
+import { Chemical, ColourMeasurement, MordantBatch, RecipeStep, Trial } from '../../models/index.ts';
 import type { Ingredient } from '../../models/trials.ts';
 import { resultCandidates, spectrumBehind, targetCandidates, type ResolvedColour } from '../trials/colour.ts';
 
@@ -197,12 +197,29 @@ const rungsOf = (l: Ladder): Rung[] => l.rungs.map((r) => ({ strength: r.strengt
 
 const round = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
 
+type BathOffer = { id: number; code: string; name: string };
+/** Active baths by the chemicals they hold. */
+async function activeBaths(): Promise<Map<number, BathOffer[]>> {
+  const out = new Map<number, BathOffer[]>();
+  for (const b of await MordantBatch.findAll({ where: { status: 'active' }, order: [['code', 'ASC']] }))
+    for (const i of b.ingredients)
+      if (i.kind === 'chemical')
+        out.set(i.refId, [...(out.get(i.refId) ?? []), { id: b.id, code: b.code, name: b.name }]);
+  return out;
+}
+
 function scaledSteps(
   steps: RecipeStep[],
   dryMassG: number,
+  baths: Map<number, BathOffer[]>,
   set?: { step: number; ingredient: number; amount: number },
 ) {
   return steps.map((s, si) => ({
+    baths: [
+      ...new Map(
+        s.ingredients.flatMap((i) => (i.kind === 'chemical' ? (baths.get(i.refId) ?? []) : [])).map((b) => [b.id, b]),
+      ).values(),
+    ],
     operation: s.operation,
     liquorRatio: s.liquorRatio,
     temperatureC: s.temperatureC,
@@ -251,7 +268,7 @@ export async function suggestRecipes(
   const target = await resolveSuggestionTarget(q);
   const conditions: Conditions = { illuminant: target.illuminant, observer: target.observer };
   const where = conditionsText(conditions);
-  const evidence = await gatherEvidence(conditions);
+  const [evidence, baths] = await Promise.all([gatherEvidence(conditions), activeBaths()]);
   const ladders = findLadders(evidence);
   const items: RecipeSuggestion[] = [];
 
@@ -264,7 +281,7 @@ export async function suggestRecipes(
     const near = ladder.rungs.reduce((x, y) =>
       Math.abs(Math.log(y.strength / found.strength)) < Math.abs(Math.log(x.strength / found.strength)) ? y : x,
     );
-    const steps = scaledSteps(near.steps, q.dryMassG, {
+    const steps = scaledSteps(near.steps, q.dryMassG, baths, {
       step: ladder.step,
       ingredient: ladder.ingredient,
       amount: found.strength,
@@ -311,7 +328,7 @@ export async function suggestRecipes(
     items.push({
       basis: [{ id: e.trial.id, code: e.trial.code, strength: null }],
       source: 'nearest-trial',
-      recipe: { dryMassG: q.dryMassG, steps: scaledSteps(e.steps, q.dryMassG) },
+      recipe: { dryMassG: q.dryMassG, steps: scaledSteps(e.steps, q.dryMassG, baths) },
       predicted: { lab: e.lab, deltaE00: d, method: 'as-dyed', extrapolated: false },
       expectedError: { deltaE00: d, basis: 'its own result; a repeat dyeing varies by a little more' },
       confidence: confidenceOf(d, null, false),

@@ -249,6 +249,23 @@ function SuggestionCard({
                   </td>
                   <td className="num pr-4 text-right">{g?.grams != null ? `${formatNumber(g.grams, 2)} g` : '—'}</td>
                   <td className="text-xs text-ink-soft">
+                    {gi === 0 && st.baths.length ? (
+                      <span className="block">
+                        Active bath{st.baths.length > 1 ? 's' : ''}:{' '}
+                        {st.baths.map((b, bi) => (
+                          <span key={b.id}>
+                            {bi ? ', ' : ''}
+                            <Link
+                              className="font-mono text-action hover:underline"
+                              to={paths.bath(b.id)}
+                              title={b.name}
+                            >
+                              {b.code}
+                            </Link>
+                          </span>
+                        ))}
+                      </span>
+                    ) : null}
                     {gi === 0
                       ? [
                           st.liquorRatio ? `1:${formatNumber(st.liquorRatio, 0)}` : null,
