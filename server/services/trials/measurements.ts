@@ -83,7 +83,7 @@ const COLUMN_WORDS: Record<string, string> = {
 
 /** "D65/10", "D65/10°", "D65 10" → illuminant and observer. */
 function splitIlluminant(v: string) {
-  const m = v.trim().match(/^([A-Za-z0-9]+)\s*[/ ]\s*(\d+)\s*°?$/);
+  const m = v.trim().match(/^([A-Za-z0-9-]+)\s*[/ ]\s*(\d+)\s*°?$/);
   return m ? { illuminant: m[1].toUpperCase(), observer: m[2] } : { illuminant: v.trim(), observer: '' };
 }
 // Spectrophotometer exports write the geometry in several ways; map the common ones to ours.
