@@ -217,6 +217,7 @@ export function presentTrial(
       paletteColourId: t.targetPaletteColourId,
       regionId: t.targetRegionId,
       measurementId: t.targetMeasurementId,
+      aim: t.targetAim ?? null,
     },
     steps,
     substitutions,
