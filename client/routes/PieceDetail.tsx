@@ -12,6 +12,7 @@ import { PhotoPanel } from '../features/photos/components/PhotoPanel';
 import { UploadPanel } from '../features/photos/components/UploadPanel';
 import { paths } from '../paths';
 import { FadingPairs } from '../features/fading';
+import { PieceReadings } from '../features/trials';
 import { useCan } from '../features/auth';
 
 export function PieceDetailPage() {
@@ -94,6 +95,7 @@ export function PieceDetailPage() {
             <PhotoPanel key={p.id} photo={p} />
           ))}
         </section>
+        {allowed('trial:read') ? <PieceReadings pieceId={id} canEdit={!deleted} /> : null}
         {/* Everyone signed in sees the pairs: dyers aim trials at them. */}
         {allowed('trial:read') ? <FadingPairs pieceId={id} canEdit={can['piece:update'] && !deleted} /> : null}
         {can['piece:history'] ? (

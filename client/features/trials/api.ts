@@ -159,3 +159,21 @@ export function useUploadSwatch(trialId: number) {
     onSuccess: () => invalidate({ id: trialId }),
   });
 }
+
+/** Readings of the original (the piece itself): trials aiming at them are recomputed, so every trial query refreshes. */
+export function useAddPieceReading(pieceId: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: MeasurementInput) =>
+      http<{ measurement: MeasurementView }>(`/api/pieces/${pieceId}/measurements`, { method: 'POST', json: input }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: trialKeys.all }),
+  });
+}
+
+export function useDeletePieceReading(pieceId: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (id: number) => http<void>(`/api/pieces/${pieceId}/measurements/${id}`, { method: 'DELETE' }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: trialKeys.all }),
+  });
+}

@@ -15,11 +15,12 @@ function labOf(m: ReturnType<typeof measurementSchema.parse>) {
   return { ...spectrumToLab(spectrum, m.illuminant, m.observer).lab, spectrum };
 }
 
-const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
+/** A reading's columns, attached to nothing: the caller sets the trial or the piece. */
+export const readingRow = (actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
   ...labOf(m),
-  pieceId: null,
+  pieceId: null as number | null,
   regionId: null,
-  trialId: trial.id,
+  trialId: null as number | null,
   instrument: m.instrument ?? null,
   geometry: m.geometry ?? null,
   specular: m.specular ?? null,
@@ -29,6 +30,11 @@ const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.
   source: 'instrument',
   takenOn: m.takenOn ?? null,
   createdById: actor?.id ?? null,
+});
+
+const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
+  ...readingRow(actor, m),
+  trialId: trial.id,
 });
 
 export async function addMeasurement({ actor, transaction, input }: ServiceCtx<MeasurementInput & { trial: Trial }>) {
