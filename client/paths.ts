@@ -29,4 +29,5 @@ export const paths = {
   photoZoom: (photoId: number | string) => `/photos/${photoId}/zoom`,
   importPieces: () => '/import',
   fixity: () => '/admin/fixity',
+  imagingTolerances: () => '/admin/imaging-tolerances',
 } as const;
