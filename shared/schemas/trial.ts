@@ -520,6 +520,16 @@ export const trialDetailSchema = trialSummarySchema.extend({
   weave: nstr,
   gsm: nnum,
   fastness: z.record(z.string(), z.unknown()).nullable(),
+  /** The grey-scale grades computed from the stored before/after readings (ISO 105-A05 / A04), beside the assessor's. */
+  fastnessComputed: z.array(
+    z.object({
+      test: z.enum(['washing', 'rubbingDry', 'rubbingWet']),
+      scale: z.enum(['change', 'staining']),
+      assessor: nstr,
+      computed: gradeResult,
+      source: z.string(),
+    }),
+  ),
   target: z.object({
     paletteColourId: nnum,
     regionId: nnum,
