@@ -17,7 +17,7 @@ describe('the imaging tolerances screen', () => {
     const page = await suite.browser.context.newPage();
     await page.setViewportSize({ width: 1280, height: 900 });
     await signInAs(page, suite.server.url, 'admin@demo.test');
-    await page.goto(`${suite.server.url}/admin/imaging-tolerances`);
+    await page.getByRole('link', { name: 'Tolerances' }).first().click();
     const form = page.locator('form[aria-label="Imaging tolerance levels"]');
     await form.waitFor();
     expect(await page.getByLabel('Source of the levels').inputValue()).toBe(before.source);

@@ -66,7 +66,11 @@ export function ChartTolerancesPanel() {
           Levels, best first or in any order (the best one met is the grade)
         </legend>
         {rows.map((r, i) => (
-          <div key={i} className="grid items-end gap-3 sm:grid-cols-[1fr_9rem_9rem_auto]" data-testid="tolerance-level">
+          <div
+            key={i}
+            className="grid items-start gap-3 sm:grid-cols-[1fr_10rem_10rem_auto]"
+            data-testid="tolerance-level"
+          >
             <Field
               label={`Level ${i + 1}: name`}
               value={r.name}
@@ -76,23 +80,21 @@ export function ChartTolerancesPanel() {
             <Field
               label="Mean ΔE00 at most"
               inputMode="decimal"
-              className="font-mono"
               value={r.meanDeltaE00}
               onChange={setRow(i, 'meanDeltaE00')}
               error={errors[`levels.${i}.meanDeltaE00`]}
             />
             <Field
-              label="Largest ΔE00 at most"
+              label="Largest ΔE00 (optional)"
               inputMode="decimal"
-              className="font-mono"
               value={r.maxDeltaE00}
               onChange={setRow(i, 'maxDeltaE00')}
               error={errors[`levels.${i}.maxDeltaE00`]}
-              hint="optional"
             />
             <Button
               type="button"
               variant="quiet"
+              className="sm:mt-6"
               disabled={rows.length === 1}
               aria-label={`Remove level ${i + 1}`}
               onClick={() => setRows(rows.filter((_, j) => j !== i))}
