@@ -14,6 +14,8 @@ import type {
 } from '../../../shared/schemas/trial';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
 import { http } from '../../lib/http';
+import { fadingKeys } from '../fading';
+import { pieceKeys } from '../pieces';
 
 export type { TrialSummaryView, TrialView, MeasurementView, TrialList, PieceTrials };
 
@@ -160,13 +162,21 @@ export function useUploadSwatch(trialId: number) {
   });
 }
 
+/** A piece's readings are trial targets, fading-pair sides and history lines: each of those is read again. */
+const invalidatePieceReadings = (qc: ReturnType<typeof useQueryClient>, pieceId: number) =>
+  Promise.all([
+    qc.invalidateQueries({ queryKey: trialKeys.all }),
+    qc.invalidateQueries({ queryKey: fadingKeys.of(pieceId) }),
+    qc.invalidateQueries({ queryKey: pieceKeys.history(pieceId) }),
+  ]);
+
 /** Readings of the original (the piece itself): trials aiming at them are recomputed, so every trial query refreshes. */
 export function useAddPieceReading(pieceId: number) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (input: MeasurementInput) =>
       http<{ measurement: MeasurementView }>(`/api/pieces/${pieceId}/measurements`, { method: 'POST', json: input }),
-    onSuccess: () => qc.invalidateQueries({ queryKey: trialKeys.all }),
+    onSuccess: () => invalidatePieceReadings(qc, pieceId),
   });
 }
 
@@ -174,6 +184,6 @@ export function useDeletePieceReading(pieceId: number) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (id: number) => http<void>(`/api/pieces/${pieceId}/measurements/${id}`, { method: 'DELETE' }),
-    onSuccess: () => qc.invalidateQueries({ queryKey: trialKeys.all }),
+    onSuccess: () => invalidatePieceReadings(qc, pieceId),
   });
 }
