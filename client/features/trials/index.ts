@@ -1,2 +1,3 @@
 // The public entry of the trials feature: what other features may use (lint forbids reaching past it).
 export { TargetSelect, targetIds, targetValue } from './components/TrialFields';
+export { PieceReadings } from './components/PieceReadings';
