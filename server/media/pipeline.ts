@@ -2,7 +2,6 @@ import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { readFile, rm, stat } from 'node:fs/promises';
 import sharp, { type Metadata } from 'sharp';
-import { MAX_PIXELS } from './decode.ts';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
 import { PaletteColour, Photo } from '../models/index.ts';
@@ -11,12 +10,12 @@ import { colourSource, decodeForIngest, type ColourSource, type ImageInput } fro
 import { readExif } from './exif.ts';
 import { exists, moveIntoPlace, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
+import { maxBytesInWords, maxPixelsInWords, mediaLimits } from './limits.ts';
 import { paletteRows } from './rows.ts';
 import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
 import type { ServiceCtx } from '../services/context.ts';
 export { repalette } from './repalette.ts';
 
-export const MAX_BYTES = 60 * 1024 * 1024;
 export const DERIVATIVES = { thumb: 320, display: 1600 } as const;
 
 const FORMATS: Record<string, string> = { jpeg: 'jpg', png: 'png', tiff: 'tif', webp: 'webp', heif: 'heic' };
@@ -36,8 +35,8 @@ export type IngestInput = IngestSource & {
 /** Format and upright size, decided by content; refuses what is not a supported image. */
 async function probe(input: ImageInput, bytes: number) {
   if (bytes === 0) throw new HttpError(422, 'empty_file', 'The file is empty.');
-  if (bytes > MAX_BYTES)
-    throw new HttpError(413, 'too_large', `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`);
+  if (bytes > mediaLimits.maxBytes)
+    throw new HttpError(413, 'too_large', `The file is larger than ${maxBytesInWords()}.`);
   let meta: Metadata;
   try {
     meta = await sharp(input, { limitInputPixels: false }).metadata();
@@ -58,11 +57,11 @@ async function probe(input: ImageInput, bytes: number) {
       `Images of type ${format || 'unknown'} are not accepted; use JPEG, PNG, TIFF, WebP or HEIF/AVIF.`,
     );
   if (!meta.width || !meta.height) throw new HttpError(422, 'corrupt_image', 'The image has no size.');
-  if (meta.width * meta.height > MAX_PIXELS) {
+  if (meta.width * meta.height > mediaLimits.maxPixels) {
     throw new HttpError(
       422,
       'pixel_limit',
-      `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${MAX_PIXELS / 1e6} megapixels.`,
+      `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${maxPixelsInWords()}.`,
     );
   }
   // Decided here, before anything is written: CMYK is refused with its reason.

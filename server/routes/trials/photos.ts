@@ -1,10 +1,11 @@
 import { Router } from 'express';
 import multer from 'multer';
 import { idParams } from '../../../shared/schemas/common.ts';
-import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
+import { UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
 import { actorOf } from '../../http/auth.ts';
 import { badRequest } from '../../http/errors.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
+import { maxBytesInWords, mediaLimits } from '../../media/limits.ts';
 import { parseParams } from '../../http/validate.ts';
 import { sequelize, type PaletteColour } from '../../models/index.ts';
 import { addPhoto } from '../../services/photos.ts';
@@ -16,9 +17,9 @@ export const trialPhotosRouter = Router({ mergeParams: true });
 const receiveOne = receiveUpload({
   field: UPLOAD_FIELD,
   maxFiles: 1,
-  maxBytes: MAX_UPLOAD_BYTES,
+  maxBytes: () => mediaLimits.maxBytes,
   maxFields: 5,
-  tooLarge: () => 'The photo is larger than 60 MB.',
+  tooLarge: () => `The photo is larger than ${maxBytesInWords()}.`,
   refuse: (err) =>
     err instanceof multer.MulterError
       ? badRequest(`Send one swatch photo in the form field "${UPLOAD_FIELD}".`, {
