@@ -93,6 +93,11 @@ const schema = z
     // sequential access and shrink-on-load (server/media/README.md), so memory does not grow with these.
     MEDIA_MAX_BYTES: z.coerce.number().int().min(1024).default(DEFAULT_MEDIA_MAX_BYTES),
     MEDIA_MAX_PIXELS: z.coerce.number().int().min(1_000_000).default(DEFAULT_MEDIA_MAX_PIXELS),
+    // Progressive JPEGs, interlaced PNGs and HEIF/AVIF cannot be read in strips: their decoders hold the whole image.
+    // They are reduced one way after the other and accepted up to this many pixels (default 50 megapixels, the
+    // largest phone and camera files). Measured at 48 MP (server/media/README.md): progressive JPEG 342 MB above
+    // idle, interlaced PNG about 200 MB, AVIF 1.0 GB (libheif): the < 600 MB target holds for strip-read formats only.
+    MEDIA_MAX_PIXELS_DECODED_WHOLE: z.coerce.number().int().min(1_000_000).default(50_000_000),
     // How long one HTTP request may take to arrive in full (Node's requestTimeout, 5 min by default, cut a 2 GB upload
     // over a slow line); 0 disables. Default 1 hour.
     HTTP_REQUEST_TIMEOUT_MS: z.coerce.number().int().min(0).default(3_600_000),

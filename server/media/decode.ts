@@ -370,15 +370,16 @@ async function decodeAtDisplaySize(input: ImageInput, source: ColourSource) {
 /**
  * Everything ingest needs: the display image (8-bit sRGB) and the whole-photo working image,
  * made by workingImage() itself, so a later recompute of the whole-photo palette gives the same
- * colours. The two decodes run side by side on libvips' threads; each uses JPEG shrink-on-load,
- * which is cheaper than decoding once at display size and reducing that again.
+ * colours. The two decodes run side by side on libvips' threads (one after the other for an image decoded whole);
+ * each uses JPEG shrink-on-load, which is cheaper than decoding once at display size and reducing that again.
  */
-export async function decodeForIngest(input: ImageInput, source?: ColourSource) {
+export async function decodeForIngest(input: ImageInput, source?: ColourSource, oneAtATime = false) {
   const src = source ?? (await readSource(input));
-  const [shown, work] = await Promise.all([
-    decodeAtDisplaySize(input, src),
-    wholeWorkingImage(input, src, WORKING_SIZE),
-  ]);
+  // An image its decoder holds whole (progressive JPEG, interlaced PNG, HEIF) is reduced one way after the other,
+  // so it is held once at a time rather than twice.
+  const [shown, work] = oneAtATime
+    ? [await decodeAtDisplaySize(input, src), await wholeWorkingImage(input, src, WORKING_SIZE)]
+    : await Promise.all([decodeAtDisplaySize(input, src), wholeWorkingImage(input, src, WORKING_SIZE)]);
   const display = toWorking(shown, src.mode);
   return {
     display: { data: toDisplay(display), width: display.width, height: display.height },

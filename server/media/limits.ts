@@ -8,7 +8,9 @@ import { env } from '../env.ts';
 export const mediaLimits = {
   maxBytes: env.MEDIA_MAX_BYTES,
   maxPixels: env.MEDIA_MAX_PIXELS,
+  /** Progressive JPEG, interlaced PNG, HEIF/AVIF: decoded whole, so held to a lower count (server/env.ts). */
+  maxPixelsDecodedWhole: env.MEDIA_MAX_PIXELS_DECODED_WHOLE,
 };
 
 export const maxBytesInWords = () => sizeInWords(mediaLimits.maxBytes);
-export const maxPixelsInWords = () => pixelsInWords(mediaLimits.maxPixels);
+export const maxPixelsInWords = (pixels = mediaLimits.maxPixels) => pixelsInWords(pixels);

@@ -64,6 +64,22 @@ async function probe(input: ImageInput, bytes: number) {
       `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${maxPixelsInWords()}.`,
     );
   }
+  // Read whole by their decoders, not in strips: held to their own pixel limit, and reduced one after the other.
+  const kind =
+    format === 'heif'
+      ? 'HEIF/AVIF'
+      : meta.isProgressive
+        ? format === 'png'
+          ? 'interlaced PNG'
+          : 'progressive JPEG'
+        : null;
+  if (kind && meta.width * meta.height > mediaLimits.maxPixelsDecodedWhole) {
+    throw new HttpError(
+      422,
+      'pixel_limit',
+      `The image is ${meta.width} × ${meta.height} pixels. A ${kind} is decoded whole, so it is accepted up to ${maxPixelsInWords(mediaLimits.maxPixelsDecodedWhole)}; save it as a TIFF${format === 'heif' ? '' : format === 'png' ? ' or a PNG without interlacing' : ' or a baseline JPEG'} and upload that.`,
+    );
+  }
   // Decided here, before anything is written: CMYK is refused with its reason.
   const colour: ColourSource = colourSource(meta);
   const swap = (meta.orientation ?? 1) >= 5;
@@ -74,6 +90,7 @@ async function probe(input: ImageInput, bytes: number) {
     width: swap ? meta.height : meta.width,
     height: swap ? meta.width : meta.height,
     colour,
+    decodedWhole: kind !== null,
   };
 }
 
@@ -82,9 +99,9 @@ async function probe(input: ImageInput, bytes: number) {
  * reduced to the display size; the whole-photo working image is reduced from it exactly as
  * repalette() reduces it, so both give the same palette.
  */
-async function decodeDisplay(input: ImageInput, colour: ColourSource) {
+async function decodeDisplay(input: ImageInput, colour: ColourSource, oneAtATime: boolean) {
   try {
-    return await decodeForIngest(input, colour);
+    return await decodeForIngest(input, colour, oneAtATime);
   } catch {
     throw new HttpError(422, 'corrupt_image', 'The image is truncated or damaged and cannot be decoded.');
   }
@@ -114,7 +131,7 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
   const files = new WrittenFiles();
   let photoId: number | null = null;
   // libvips decodes on its own threads while this thread hashes, stores and reads EXIF.
-  const decoding = decodeDisplay(source, info.colour);
+  const decoding = decodeDisplay(source, info.colour, info.decodedWhole);
   decoding.catch(() => undefined);
   try {
     // 1. The master's name is its SHA-256 (a file is hashed as it streams from disk); 2. EXIF (GPS kept apart, on

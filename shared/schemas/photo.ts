@@ -30,7 +30,8 @@ export function pixelsInWords(pixels: number) {
     const g = Number((pixels / 1e9).toFixed(2));
     return `${g} gigapixel${g === 1 ? '' : 's'}`;
   }
-  return `${Number((pixels / 1e6).toFixed(1))} megapixels`;
+  const m = Number((pixels / 1e6).toFixed(1));
+  return `${m} megapixel${m === 1 ? '' : 's'}`;
 }
 export const UPLOAD_FIELD = 'photo';
 

@@ -165,8 +165,31 @@ describe('large masters', () => {
       mediaLimits.maxPixels = saved.maxPixels;
     });
 
-    it('the defaults are 2 GB and 1 gigapixel', () => {
-      expect([saved.maxBytes, saved.maxPixels]).toEqual([2 * 1024 ** 3, 1e9]);
+    it('refuses a progressive JPEG above the limit for images decoded whole, saying what to upload instead', async () => {
+      mediaLimits.maxPixelsDecodedWhole = 1_000_000;
+      const file = uploadFile('scan.jpg');
+      await sharp({ create: { width: 1200, height: 900, channels: 3, background: '#2e3f66' } })
+        .jpeg({ progressive: true })
+        .toFile(file);
+      const err = await ingestPath(file, 'scan.jpg').catch((e: unknown) => e);
+      expect([(err as HttpError).status, (err as HttpError).code, (err as HttpError).message]).toEqual([
+        422,
+        'pixel_limit',
+        'The image is 1200 × 900 pixels. A progressive JPEG is decoded whole, so it is accepted up to 1 megapixel; save it as a TIFF or a baseline JPEG and upload that.',
+      ]);
+      // The same pixels as a baseline JPEG are read in strips and accepted.
+      const baseline = uploadFile('scan-baseline.jpg');
+      await sharp({ create: { width: 1200, height: 900, channels: 3, background: '#2e3f66' } })
+        .jpeg()
+        .toFile(baseline);
+      const { photo } = await ingestPath(baseline, 'scan-baseline.jpg');
+      expect([photo.format, photo.width]).toEqual(['jpeg', 1200]);
+      rmSync(file, { force: true });
+      mediaLimits.maxPixelsDecodedWhole = saved.maxPixelsDecodedWhole;
+    });
+
+    it('the defaults are 2 GB and 1 gigapixel, 50 megapixels for images decoded whole', () => {
+      expect([saved.maxBytes, saved.maxPixels, saved.maxPixelsDecodedWhole]).toEqual([2 * 1024 ** 3, 1e9, 5e7]);
     });
   });
 });
