@@ -118,19 +118,18 @@ async function sha256Of(input: ImageInput) {
 const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { raw: { width, height, channels: 3 } });
 
 /**
- * The media pipeline, in this order: check → SHA-256 and EXIF → store the master (by SHA-256) →
- * derivatives → palette (the decode and the WebP encodes overlap with the work on this
- * thread). An upload on disk (`input.path`) is read from its file, never whole into memory (sharp, exifr and the
- * hash all read the file), and renamed into place as the master. All rows go into the caller's transaction; on any failure every
- * file written here is removed again and an HttpError is thrown.
+ * The work of ingest that needs no database, done before the caller opens its transaction: a large master takes
+ * seconds to read, and a transaction held open meanwhile sits idle on its connection (the socket timeout,
+ * DB_QUERY_TIMEOUT_MS, closed it under a 300 MB TIFF on a loaded machine). In this order: check → SHA-256 and EXIF
+ * → decode → derivatives (encoded, in memory: small) → palette (the decode and the WebP encodes overlap with the
+ * work on this thread). An upload on disk (`input.path`) is read from its file, never whole into memory (sharp,
+ * exifr and the hash all read the file). Writes nothing; throws an HttpError for a file it cannot take.
  */
-export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<IngestInput>) {
+export async function prepareIngest(input: IngestSource) {
   const source: ImageInput = input.path ?? input.buffer;
   const bytes = input.path !== undefined ? (await stat(input.path)).size : input.buffer.length;
   const info = await probe(source, bytes);
-  const files = new WrittenFiles();
-  let photoId: number | null = null;
-  // libvips decodes on its own threads while this thread hashes, stores and reads EXIF.
+  // libvips decodes on its own threads while this thread hashes and reads EXIF.
   const decoding = decodeDisplay(source, info.colour, info.decodedWhole);
   decoding.catch(() => undefined);
   try {
@@ -140,8 +139,47 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     const { exif, gps, capturedAt } = await readExif(source);
     const { display: shown, work, facts } = await decoding;
 
-    // 3. Store the master byte for byte; an identical file already stored is shared. Once every read of the upload
-    // is done, an uploaded file is renamed (not copied) to the master's temporary name.
+    // 3. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
+    // threads while 4. the palette of the whole photo is computed here on a working-size copy.
+    const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
+    const d = { width: shown.width, height: shown.height };
+    const encoding = Promise.all([
+      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
+      fromRaw(data, d.width, d.height)
+        .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
+        .webp({ quality: 80, effort: 0 })
+        .toBuffer({ resolveWithObject: true }),
+    ]);
+    encoding.catch(() => undefined);
+    const colours = extractPalette(work);
+    const [display, thumb] = await encoding;
+    return { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours };
+  } catch (err) {
+    if (err instanceof HttpError) throw err;
+    throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
+      reason: err instanceof Error ? err.message : String(err),
+    });
+  }
+}
+export type PreparedIngest = Awaited<ReturnType<typeof prepareIngest>>;
+
+/**
+ * The media pipeline: prepareIngest() (unless the caller has done it before opening its transaction, `prepared`),
+ * then, in the caller's transaction, store the master byte for byte by SHA-256 (an uploaded file is renamed, not
+ * copied, to the master's temporary name, moved into place after the commit), the photo row, the derivative files
+ * and the palette rows. On any failure every file written here is removed again and an HttpError is thrown.
+ */
+export async function ingestPhoto({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<IngestInput & { prepared?: PreparedIngest }>) {
+  const prepared = input.prepared ?? (await prepareIngest(input));
+  const { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours } = prepared;
+  const files = new WrittenFiles();
+  let photoId: number | null = null;
+  try {
+    // Store the master byte for byte; an identical file already stored is shared.
     const master = masterPath(sha256, info.ext);
     if (!(await exists(master))) {
       // Under a temporary name until the rows commit: a process killed before the commit leaves no master that no
@@ -156,8 +194,6 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
       });
     }
 
-    const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
-    const d = { width: shown.width, height: shown.height };
     const photo = await Photo.create(
       {
         pieceId: input.pieceId ?? null,
@@ -183,19 +219,6 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     );
     photoId = photo.id;
 
-    // 4. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
-    // threads while 5. the palette of the whole photo is computed here on a working-size copy.
-    const encoding = Promise.all([
-      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
-      fromRaw(data, d.width, d.height)
-        .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
-        .webp({ quality: 80, effort: 0 })
-        .toBuffer({ resolveWithObject: true }),
-    ]);
-    encoding.catch(() => undefined);
-    const colours = extractPalette(work);
-
-    const [display, thumb] = await encoding;
     const derivatives = { ...photo.derivatives };
     for (const [kind, out] of [
       ['display', display],

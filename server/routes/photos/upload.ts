@@ -7,6 +7,7 @@ import { HttpError, badRequest, forbidden, notFound } from '../../http/errors.ts
 import { parseParams } from '../../http/validate.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
 import { maxBytesInWords, mediaLimits } from '../../media/limits.ts';
+import { prepareIngest } from '../../media/pipeline.ts';
 import { sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
@@ -53,12 +54,14 @@ photoUploadRouter.post('/', requireUser, async (req, res, next) => {
       const photos = [];
       for (const [index, file] of files.entries()) {
         try {
-          // One photo, all rows in one transaction; any failure removes every file it wrote.
+          // The file is read, checked, decoded and analysed first, outside any transaction (a large master takes
+          // seconds); then one photo, all rows in one transaction; any failure removes every file it wrote.
+          const prepared = await prepareIngest({ path: file.path });
           const { photo, palette } = await sequelize.transaction((transaction) =>
             addPhoto({
               actor,
               transaction,
-              input: { path: file.path, originalName: file.originalname, pieceId: piece.id },
+              input: { path: file.path, originalName: file.originalname, pieceId: piece.id, prepared },
             }),
           );
           photos.push(presentPhoto(photo, actor, { palette }));

@@ -6,6 +6,7 @@ import { actorOf } from '../../http/auth.ts';
 import { badRequest } from '../../http/errors.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
 import { maxBytesInWords, mediaLimits } from '../../media/limits.ts';
+import { prepareIngest } from '../../media/pipeline.ts';
 import { parseParams } from '../../http/validate.ts';
 import { sequelize, type PaletteColour } from '../../models/index.ts';
 import { addPhoto } from '../../services/photos.ts';
@@ -40,11 +41,13 @@ trialPhotosRouter.post('/', async (req, res, next) => {
         throw badRequest(`Attach the swatch photo in the form field "${UPLOAD_FIELD}".`, {
           fields: { [UPLOAD_FIELD]: ['Attach a photo'] },
         });
+      // Read and analysed before the transaction opens, so it lasts only as long as the writes.
+      const prepared = await prepareIngest({ path: file.path });
       const { photo, palette } = await sequelize.transaction((transaction) =>
         addPhoto({
           actor,
           transaction,
-          input: { path: file.path, originalName: file.originalname, trialId: trial.id, view: 'swatch' },
+          input: { path: file.path, originalName: file.originalname, trialId: trial.id, view: 'swatch', prepared },
         }),
       );
       await discardUploads(req);
