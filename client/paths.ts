@@ -14,9 +14,9 @@ export const paths = {
   trials: () => '/trials',
   trial: (id: number | string) => `/trials/${id}`,
   /** `target` preselects what the trial aims at ("region:4", "measurement:9"), e.g. one side of a fading pair. */
-  trialNew: (pieceId?: number | string, target?: string) =>
+  trialNew: (pieceId?: number | string, target?: string, aim?: 'as-made' | 'as-seen') =>
     pieceId != null
-      ? `/trials/new?pieceId=${pieceId}${target ? `&target=${encodeURIComponent(target)}` : ''}`
+      ? `/trials/new?pieceId=${pieceId}${target ? `&target=${encodeURIComponent(target)}` : ''}${aim ? `&aim=${aim}` : ''}`
       : '/trials/new',
   sideBySide: (pieceId: number | string) => `/archive/${pieceId}/side-by-side`,
   /** Recipes to try for one colour of a piece (a palette colour, a region or a reading). */
@@ -35,4 +35,5 @@ export const paths = {
   photoZoom: (photoId: number | string) => `/photos/${photoId}/zoom`,
   importPieces: () => '/import',
   fixity: () => '/admin/fixity',
+  imagingTolerances: () => '/admin/imaging-tolerances',
 } as const;

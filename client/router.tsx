@@ -17,6 +17,7 @@ import { Team } from './routes/Team';
 import { PhotoZoom } from './routes/PhotoZoom';
 import { ImportPage } from './routes/ImportPage';
 import { FixityPage } from './routes/FixityPage';
+import { ImagingTolerancesPage } from './routes/ImagingTolerancesPage';
 import { Archive } from './routes/Archive';
 import { PieceDetailPage } from './routes/PieceDetail';
 import { PieceEditPage, PieceNewPage } from './routes/PieceEdit';
@@ -69,6 +70,10 @@ export const router = createBrowserRouter([
       {
         element: <RequireAbility action="fixity:run" />,
         children: [{ path: 'admin/fixity', element: <FixityPage /> }],
+      },
+      {
+        element: <RequireAbility action="reference:manage" />,
+        children: [{ path: 'admin/imaging-tolerances', element: <ImagingTolerancesPage /> }],
       },
       {
         element: <RequireAbility action="trial:read" />,

@@ -2,6 +2,7 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
+import { DEFAULT_MEDIA_MAX_BYTES, DEFAULT_MEDIA_MAX_PIXELS } from '../shared/schemas/photo.ts';
 
 // Configuration is parsed once, here; nothing else reads process.env.
 // The project folder: the nearest folder above this file with package.json and server/ (this file runs from
@@ -13,6 +14,8 @@ function projectRoot(from: string) {
   }
 }
 export const ROOT_DIR = projectRoot(path.dirname(fileURLToPath(import.meta.url)));
+
+const GiB = 1024 * 1024 * 1024;
 
 const schema = z
   .object({
@@ -70,19 +73,34 @@ const schema = z
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
     // Uploads stream to files under UPLOADS_DIR/tmp (server/http/upload.ts), never whole in memory. One request may
     // carry at most UPLOAD_MAX_REQUEST_BYTES (413 beyond); one process receives at most UPLOAD_MAX_CONCURRENT uploads
-    // and UPLOAD_MAX_PROCESS_BYTES declared bytes at once (503 with Retry-After beyond). Defaults: 1 GiB per request
-    // (twenty 50 MB photos), 2 GiB and 8 uploads per process: common practice (sized to the disk, not to memory).
+    // and UPLOAD_MAX_PROCESS_BYTES declared bytes at once (503 with Retry-After beyond). Defaults: 4 GiB per request
+    // (one master at the largest MEDIA_MAX_BYTES, or twenty 200 MB TIFFs), 8 GiB and 8 uploads per process: common
+    // practice (sized to the disk, not to memory).
     UPLOAD_MAX_REQUEST_BYTES: z.coerce
       .number()
       .int()
       .min(1024)
-      .default(1024 * 1024 * 1024),
+      .default(4 * GiB),
     UPLOAD_MAX_PROCESS_BYTES: z.coerce
       .number()
       .int()
       .min(1024)
-      .default(2 * 1024 * 1024 * 1024),
+      .default(8 * GiB),
     UPLOAD_MAX_CONCURRENT: z.coerce.number().int().min(1).default(8),
+    // One image file (a photo's master): at most MEDIA_MAX_BYTES (413 beyond) and MEDIA_MAX_PIXELS pixels (422 beyond,
+    // read from the header before any pixel is decoded). Defaults 2 GiB and 1 gigapixel: a museum's 16-bit TIFFs are
+    // usually 150–500 MB, a stitched long textile can pass a gigapixel. The pipeline reads masters with libvips'
+    // sequential access and shrink-on-load (server/media/README.md), so memory does not grow with these.
+    MEDIA_MAX_BYTES: z.coerce.number().int().min(1024).default(DEFAULT_MEDIA_MAX_BYTES),
+    MEDIA_MAX_PIXELS: z.coerce.number().int().min(1_000_000).default(DEFAULT_MEDIA_MAX_PIXELS),
+    // Progressive JPEGs, interlaced PNGs and HEIF/AVIF cannot be read in strips: their decoders hold the whole image.
+    // They are reduced one way after the other and accepted up to this many pixels (default 50 megapixels, the
+    // largest phone and camera files). Measured at 48 MP (server/media/README.md): progressive JPEG 342 MB above
+    // idle, interlaced PNG about 200 MB, AVIF 1.0 GB (libheif): the < 600 MB target holds for strip-read formats only.
+    MEDIA_MAX_PIXELS_DECODED_WHOLE: z.coerce.number().int().min(1_000_000).default(50_000_000),
+    // How long one HTTP request may take to arrive in full (Node's requestTimeout, 5 min by default, cut a 2 GB upload
+    // over a slow line); 0 disables. Default 1 hour.
+    HTTP_REQUEST_TIMEOUT_MS: z.coerce.number().int().min(0).default(3_600_000),
     /** How long a request waits for a free database connection before a 503 (ms). */
     DB_ACQUIRE_TIMEOUT_MS: z.coerce.number().int().min(100).default(5_000),
     /** How long one query may run before it is abandoned with a 503 (ms); 0 disables. */

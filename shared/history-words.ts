@@ -27,6 +27,12 @@ function regionName(r: unknown): string {
   return region.label ? `${kind} ‘${region.label}’` : kind;
 }
 
+/** " ‘seam allowance’ (spectrum)", " (L*a*b*)": which reading of the original. */
+function readingName(r: unknown): string {
+  const m = (r ?? {}) as { label?: string | null; spectral?: boolean };
+  return `${m.label ? ` ‘${m.label}’` : ''} (${m.spectral ? 'spectrum' : 'L*a*b*'})`;
+}
+
 /** What happened, in a sentence fragment that follows the person's name. */
 export function describeHistory(e: HistoryEntry): string {
   const c = e.changes ?? {};
@@ -68,6 +74,10 @@ export function describeHistory(e: HistoryEntry): string {
       return 'reference patch cleared';
     case 'chart-set':
       return c.chart?.from ? 'colour chart marked again' : 'colour chart marked';
+    case 'reading-added':
+      return `reading of the original added${readingName(c.reading?.to)}`;
+    case 'reading-removed':
+      return `reading of the original removed${readingName(c.reading?.from)}`;
     case 'fading-pair-added':
       return 'fading pair added';
     case 'fading-pair-removed':

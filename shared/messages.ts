@@ -37,6 +37,7 @@ export const FIELD_LABELS: Record<string, Label> = {
   gsm: { label: 'the fabric weight', unit: 'g/m²' },
   dryMassG: { label: 'the dry fibre mass', unit: 'g' },
   dryMassBasis: { label: 'air-dry or oven-dry' },
+  targetAim: { label: 'as made or as seen' },
   historicalUseConfirmed: { label: 'the confirmation of a historical-only chemical' },
   historicalUseReason: { label: 'the reason for using a historical-only chemical' },
   notes: { label: 'the notes' },

@@ -18,6 +18,7 @@ const areas = [
 const adminAreas = [
   { to: paths.team(), label: 'Team', action: 'team:manage' },
   { to: paths.fixity(), label: 'Fixity', action: 'fixity:run' },
+  { to: paths.imagingTolerances(), label: 'Tolerances', action: 'reference:manage' },
   { to: paths.outbox(), label: 'Outbox', action: 'outbox:read' },
 ] as const;
 

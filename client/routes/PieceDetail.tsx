@@ -12,6 +12,8 @@ import { PhotoPanel } from '../features/photos/components/PhotoPanel';
 import { UploadPanel } from '../features/photos/components/UploadPanel';
 import { paths } from '../paths';
 import { FadingPairs } from '../features/fading';
+import { PieceReadings } from '../features/trials';
+import { useCan } from '../features/auth';
 
 export function PieceDetailPage() {
   const id = Number(useParams().id);
@@ -20,6 +22,7 @@ export function PieceDetailPage() {
   const remove = useDeletePiece(id);
   const restore = useRestorePiece(id);
   const navigate = useNavigate();
+  const allowed = useCan();
   const [showHistory, setShowHistory] = useState(false);
   if (detail.isPending) return <p>Loading…</p>;
   if (detail.isError)
@@ -92,7 +95,9 @@ export function PieceDetailPage() {
             <PhotoPanel key={p.id} photo={p} />
           ))}
         </section>
-        {can['piece:history'] ? <FadingPairs pieceId={id} canEdit={can['piece:update'] && !deleted} /> : null}
+        {allowed('trial:read') ? <PieceReadings pieceId={id} canEdit={!deleted} /> : null}
+        {/* Everyone signed in sees the pairs: dyers aim trials at them. */}
+        {allowed('trial:read') ? <FadingPairs pieceId={id} canEdit={can['piece:update'] && !deleted} /> : null}
         {can['piece:history'] ? (
           <section>
             <h2 className="font-serif text-2xl">Edit history</h2>

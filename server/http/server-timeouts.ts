@@ -1,4 +1,5 @@
 import type { Server } from 'node:http';
+import { env } from '../env.ts';
 
 /**
  * Timeouts of the HTTP server that serves the app (issue 16, point 7).
@@ -15,11 +16,15 @@ import type { Server } from 'node:http';
  * So an idle connection is kept for 65 s, longer than the usual 60 s idle timeout of a reverse proxy or load balancer
  * in front (common practice: the app must not close a connection the proxy still considers open), and the headers
  * timeout is longer than that, as Node requires.
+ *
+ * A whole request may take HTTP_REQUEST_TIMEOUT_MS to arrive (Node's default of 5 minutes cut off a 2 GB master sent
+ * over a slow line; the headers must still arrive within the headers timeout).
  */
 export const KEEP_ALIVE_TIMEOUT_MS = 65_000;
 
 export function applyServerTimeouts<S extends Server>(server: S): S {
   server.keepAliveTimeout = KEEP_ALIVE_TIMEOUT_MS;
   server.headersTimeout = KEEP_ALIVE_TIMEOUT_MS + 1_000;
+  server.requestTimeout = env.HTTP_REQUEST_TIMEOUT_MS;
   return server;
 }

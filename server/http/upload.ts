@@ -29,7 +29,8 @@ import { HttpError, badRequest } from './errors.ts';
 export type UploadOptions = {
   field: string;
   maxFiles: number;
-  maxBytes: number;
+  /** Per file; a function is read at each request (a limit tests may lower for a moment, server/media/limits.ts). */
+  maxBytes: number | (() => number);
   maxFields: number;
   tooLarge: (err: multer.MulterError) => string;
   refuse?: (err: unknown) => HttpError | null;
@@ -142,13 +143,22 @@ export function receiveUpload({
   tooLarge,
   refuse = couldNotRead,
 }: UploadOptions): RequestHandler {
-  const upload = multer({
-    storage: tempFileStorage,
-    defParamCharset: 'utf8',
-    limits: { fileSize: maxBytes, files: maxFiles, fields: maxFields },
-  });
-  const receive = maxFiles === 1 ? upload.single(field) : upload.array(field, maxFiles);
+  const receiverFor = (fileSize: number) => {
+    const upload = multer({
+      storage: tempFileStorage,
+      defParamCharset: 'utf8',
+      limits: { fileSize, files: maxFiles, fields: maxFields },
+    });
+    return maxFiles === 1 ? upload.single(field) : upload.array(field, maxFiles);
+  };
+  let current = { fileSize: -1, receive: receiverFor(0) };
+  const receiverNow = () => {
+    const fileSize = typeof maxBytes === 'function' ? maxBytes() : maxBytes;
+    if (current.fileSize !== fileSize) current = { fileSize, receive: receiverFor(fileSize) };
+    return current.receive;
+  };
   return (req, res, next) => {
+    const receive = receiverNow();
     const declared = Number(req.headers['content-length']);
     const known = req.headers['content-length'] !== undefined && Number.isFinite(declared);
     // Refused before a byte is read; the rest of the body is read and dropped so the client sees the answer.

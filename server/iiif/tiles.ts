@@ -1,6 +1,7 @@
 import { mkdir, rename, rm } from 'node:fs/promises';
 import path from 'node:path';
 import sharp from 'sharp';
+import { mediaLimits } from '../media/limits.ts';
 import { iiifDir, tilesDir } from './files.ts';
 
 export const TILE_SIZE = 512;
@@ -18,7 +19,10 @@ export async function buildTiles(photoId: number, masterFile: string, jobTag: st
   const tmp = path.join(parent, tmpName);
   await rm(tmp, { recursive: true, force: true });
   // The id is rewritten when info.json is served; this one only has to be a valid URL.
-  await sharp(masterFile, { limitInputPixels: 100_000_000 })
+  // Read in sequence (strips, never the whole image) when upright as stored; an image to be turned needs random
+  // access, which libvips gives a large file through a temporary file on disk rather than memory.
+  const { orientation = 1 } = await sharp(masterFile, { limitInputPixels: false }).metadata();
+  await sharp(masterFile, { sequentialRead: orientation === 1, limitInputPixels: mediaLimits.maxPixels })
     .rotate()
     .jpeg({ quality: 85 })
     .tile({ layout: 'iiif3', size: TILE_SIZE, id: `http://localhost/iiif/photos/${photoId}` })

@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { rename, rm, writeFile, access, readdir, readFile } from 'node:fs/promises';
+import { rename, rm, writeFile, access, readdir } from 'node:fs/promises';
 import path from 'node:path';
 import { ensureParent, masterPath, resolveInsideUploads, tmpDir } from './paths.ts';
 
@@ -84,15 +84,17 @@ export async function pendingMaster(sha256: string) {
 export const hasPendingMaster = async (sha256: string) => (await pendingMaster(sha256)) !== null;
 
 /**
- * The bytes of a master; inside the transaction that stored it (before the commit moves it into place) they are
- * read from its temp file.
+ * The absolute path of a master's file, for sharp to read from disk (never whole into memory: masters may be
+ * gigabytes); inside the transaction that stored it (before the commit moves it into place) its temp file.
  */
-export async function readMasterFile(relative: string, sha256: string) {
+export async function masterFileOnDisk(relative: string, sha256: string) {
+  const file = resolveInsideUploads(relative);
   try {
-    return await readFile(resolveInsideUploads(relative));
+    await access(file);
+    return file;
   } catch (err) {
     const pending = await pendingMaster(sha256);
     if (!pending) throw err;
-    return readFile(resolveInsideUploads(pending));
+    return resolveInsideUploads(pending);
   }
 }

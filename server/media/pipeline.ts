@@ -2,7 +2,6 @@ import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { readFile, rm, stat } from 'node:fs/promises';
 import sharp, { type Metadata } from 'sharp';
-import { MAX_PIXELS } from './decode.ts';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
 import { PaletteColour, Photo } from '../models/index.ts';
@@ -11,12 +10,12 @@ import { colourSource, decodeForIngest, type ColourSource, type ImageInput } fro
 import { readExif } from './exif.ts';
 import { exists, moveIntoPlace, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
+import { maxBytesInWords, maxPixelsInWords, mediaLimits } from './limits.ts';
 import { paletteRows } from './rows.ts';
 import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
 import type { ServiceCtx } from '../services/context.ts';
 export { repalette } from './repalette.ts';
 
-export const MAX_BYTES = 60 * 1024 * 1024;
 export const DERIVATIVES = { thumb: 320, display: 1600 } as const;
 
 const FORMATS: Record<string, string> = { jpeg: 'jpg', png: 'png', tiff: 'tif', webp: 'webp', heif: 'heic' };
@@ -36,8 +35,8 @@ export type IngestInput = IngestSource & {
 /** Format and upright size, decided by content; refuses what is not a supported image. */
 async function probe(input: ImageInput, bytes: number) {
   if (bytes === 0) throw new HttpError(422, 'empty_file', 'The file is empty.');
-  if (bytes > MAX_BYTES)
-    throw new HttpError(413, 'too_large', `The file is larger than ${MAX_BYTES / 1024 / 1024} MB.`);
+  if (bytes > mediaLimits.maxBytes)
+    throw new HttpError(413, 'too_large', `The file is larger than ${maxBytesInWords()}.`);
   let meta: Metadata;
   try {
     meta = await sharp(input, { limitInputPixels: false }).metadata();
@@ -58,11 +57,27 @@ async function probe(input: ImageInput, bytes: number) {
       `Images of type ${format || 'unknown'} are not accepted; use JPEG, PNG, TIFF, WebP or HEIF/AVIF.`,
     );
   if (!meta.width || !meta.height) throw new HttpError(422, 'corrupt_image', 'The image has no size.');
-  if (meta.width * meta.height > MAX_PIXELS) {
+  if (meta.width * meta.height > mediaLimits.maxPixels) {
     throw new HttpError(
       422,
       'pixel_limit',
-      `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${MAX_PIXELS / 1e6} megapixels.`,
+      `The image is ${meta.width} × ${meta.height} pixels, above the limit of ${maxPixelsInWords()}.`,
+    );
+  }
+  // Read whole by their decoders, not in strips: held to their own pixel limit, and reduced one after the other.
+  const kind =
+    format === 'heif'
+      ? 'HEIF/AVIF'
+      : meta.isProgressive
+        ? format === 'png'
+          ? 'interlaced PNG'
+          : 'progressive JPEG'
+        : null;
+  if (kind && meta.width * meta.height > mediaLimits.maxPixelsDecodedWhole) {
+    throw new HttpError(
+      422,
+      'pixel_limit',
+      `The image is ${meta.width} × ${meta.height} pixels. A ${kind} is decoded whole, so it is accepted up to ${maxPixelsInWords(mediaLimits.maxPixelsDecodedWhole)}; save it as a TIFF${format === 'heif' ? '' : format === 'png' ? ' or a PNG without interlacing' : ' or a baseline JPEG'} and upload that.`,
     );
   }
   // Decided here, before anything is written: CMYK is refused with its reason.
@@ -75,6 +90,7 @@ async function probe(input: ImageInput, bytes: number) {
     width: swap ? meta.height : meta.width,
     height: swap ? meta.width : meta.height,
     colour,
+    decodedWhole: kind !== null,
   };
 }
 
@@ -83,9 +99,9 @@ async function probe(input: ImageInput, bytes: number) {
  * reduced to the display size; the whole-photo working image is reduced from it exactly as
  * repalette() reduces it, so both give the same palette.
  */
-async function decodeDisplay(input: ImageInput, colour: ColourSource) {
+async function decodeDisplay(input: ImageInput, colour: ColourSource, oneAtATime: boolean) {
   try {
-    return await decodeForIngest(input, colour);
+    return await decodeForIngest(input, colour, oneAtATime);
   } catch {
     throw new HttpError(422, 'corrupt_image', 'The image is truncated or damaged and cannot be decoded.');
   }
@@ -102,20 +118,19 @@ async function sha256Of(input: ImageInput) {
 const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { raw: { width, height, channels: 3 } });
 
 /**
- * The media pipeline, in this order: check → SHA-256 and EXIF → store the master (by SHA-256) →
- * derivatives → palette (the decode and the WebP encodes overlap with the work on this
- * thread). An upload on disk (`input.path`) is read from its file, never whole into memory (sharp, exifr and the
- * hash all read the file), and renamed into place as the master. All rows go into the caller's transaction; on any failure every
- * file written here is removed again and an HttpError is thrown.
+ * The work of ingest that needs no database, done before the caller opens its transaction: a large master takes
+ * seconds to read, and a transaction held open meanwhile sits idle on its connection (the socket timeout,
+ * DB_QUERY_TIMEOUT_MS, closed it under a 300 MB TIFF on a loaded machine). In this order: check → SHA-256 and EXIF
+ * → decode → derivatives (encoded, in memory: small) → palette (the decode and the WebP encodes overlap with the
+ * work on this thread). An upload on disk (`input.path`) is read from its file, never whole into memory (sharp,
+ * exifr and the hash all read the file). Writes nothing; throws an HttpError for a file it cannot take.
  */
-export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<IngestInput>) {
+export async function prepareIngest(input: IngestSource) {
   const source: ImageInput = input.path ?? input.buffer;
   const bytes = input.path !== undefined ? (await stat(input.path)).size : input.buffer.length;
   const info = await probe(source, bytes);
-  const files = new WrittenFiles();
-  let photoId: number | null = null;
-  // libvips decodes on its own threads while this thread hashes, stores and reads EXIF.
-  const decoding = decodeDisplay(source, info.colour);
+  // libvips decodes on its own threads while this thread hashes and reads EXIF.
+  const decoding = decodeDisplay(source, info.colour, info.decodedWhole);
   decoding.catch(() => undefined);
   try {
     // 1. The master's name is its SHA-256 (a file is hashed as it streams from disk); 2. EXIF (GPS kept apart, on
@@ -124,8 +139,47 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     const { exif, gps, capturedAt } = await readExif(source);
     const { display: shown, work, facts } = await decoding;
 
-    // 3. Store the master byte for byte; an identical file already stored is shared. Once every read of the upload
-    // is done, an uploaded file is renamed (not copied) to the master's temporary name.
+    // 3. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
+    // threads while 4. the palette of the whole photo is computed here on a working-size copy.
+    const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
+    const d = { width: shown.width, height: shown.height };
+    const encoding = Promise.all([
+      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
+      fromRaw(data, d.width, d.height)
+        .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
+        .webp({ quality: 80, effort: 0 })
+        .toBuffer({ resolveWithObject: true }),
+    ]);
+    encoding.catch(() => undefined);
+    const colours = extractPalette(work);
+    const [display, thumb] = await encoding;
+    return { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours };
+  } catch (err) {
+    if (err instanceof HttpError) throw err;
+    throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
+      reason: err instanceof Error ? err.message : String(err),
+    });
+  }
+}
+export type PreparedIngest = Awaited<ReturnType<typeof prepareIngest>>;
+
+/**
+ * The media pipeline: prepareIngest() (unless the caller has done it before opening its transaction, `prepared`),
+ * then, in the caller's transaction, store the master byte for byte by SHA-256 (an uploaded file is renamed, not
+ * copied, to the master's temporary name, moved into place after the commit), the photo row, the derivative files
+ * and the palette rows. On any failure every file written here is removed again and an HttpError is thrown.
+ */
+export async function ingestPhoto({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<IngestInput & { prepared?: PreparedIngest }>) {
+  const prepared = input.prepared ?? (await prepareIngest(input));
+  const { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours } = prepared;
+  const files = new WrittenFiles();
+  let photoId: number | null = null;
+  try {
+    // Store the master byte for byte; an identical file already stored is shared.
     const master = masterPath(sha256, info.ext);
     if (!(await exists(master))) {
       // Under a temporary name until the rows commit: a process killed before the commit leaves no master that no
@@ -140,8 +194,6 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
       });
     }
 
-    const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
-    const d = { width: shown.width, height: shown.height };
     const photo = await Photo.create(
       {
         pieceId: input.pieceId ?? null,
@@ -167,19 +219,6 @@ export async function ingestPhoto({ actor, transaction, input }: ServiceCtx<Inge
     );
     photoId = photo.id;
 
-    // 4. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
-    // threads while 5. the palette of the whole photo is computed here on a working-size copy.
-    const encoding = Promise.all([
-      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
-      fromRaw(data, d.width, d.height)
-        .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
-        .webp({ quality: 80, effort: 0 })
-        .toBuffer({ resolveWithObject: true }),
-    ]);
-    encoding.catch(() => undefined);
-    const colours = extractPalette(work);
-
-    const [display, thumb] = await encoding;
     const derivatives = { ...photo.derivatives };
     for (const [kind, out] of [
       ['display', display],

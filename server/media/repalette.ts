@@ -6,7 +6,7 @@ import { workingImage } from './decode.ts';
 import { extractPalette, type ExtractedColour, type RawImage, type Rect } from './palette.ts';
 import { paletteRows } from './rows.ts';
 import { bradfordMatrix, deltaE00 } from '../../shared/colour/index.ts';
-import { readMasterFile } from './files.ts';
+import { masterFileOnDisk } from './files.ts';
 import type { PaletteVariant } from '../../shared/schemas/chart.ts';
 
 /** Regions that get a palette of their own. */
@@ -111,7 +111,7 @@ export async function repalette({
 }) {
   const master = photo.derivatives.master?.path;
   if (!master) throw new Error(`Photo ${photo.id} has no master file`);
-  const buffer = await readMasterFile(master, photo.sha256);
+  const file = await masterFileOnDisk(master, photo.sha256);
   const regions = await Region.findAll({ where: { photoId: photo.id }, order: [['id', 'ASC']], transaction });
   const patchRegion = regions.find((r) => r.purpose === 'reference-patch');
   const patch: Rect | null =
@@ -130,7 +130,7 @@ export async function repalette({
 
   const full: Rect = { x: 0, y: 0, w: photo.width, h: photo.height };
   // The patch's white is read from the whole photo, so a region's corrected palette matches the photo's.
-  const whole = scope === 'all' || patch ? (decoded ?? (await workingImage(buffer))) : null;
+  const whole = scope === 'all' || patch ? (decoded ?? (await workingImage(file))) : null;
   const white = patch && whole ? patchWhite(whole, into(patch, full, whole.scale)) : null;
 
   const compute = async (img: RawImage, frame: Rect, scale: number, regionId: number | null) => {
@@ -146,7 +146,7 @@ export async function repalette({
     (x) => PALETTE_PURPOSES.has(x.purpose) && (scope === 'all' || x.id === scope.regionId),
   )) {
     const frame = { x: r.x, y: r.y, w: r.w, h: r.h };
-    const img = await workingImage(buffer, frame);
+    const img = await workingImage(file, frame);
     await compute(img, frame, img.scale, r.id);
   }
   // A region that no longer has a palette of its own (removed, or now another purpose) loses its rows.

@@ -7,6 +7,8 @@ import {
   type Sequelize,
 } from 'sequelize';
 
+/** A fading pair's side a trial aims at: the piece as made (protected area) or as seen (faded). */
+export type TargetAim = 'as-made' | 'as-seen';
 export type TrialStatus = 'planned' | 'in-progress' | 'finished' | 'abandoned';
 export type Operation =
   'scour' | 'tannin' | 'mordant-bath' | 'print-paste' | 'dye-bath' | 'vat' | 'overdye' | 'after-treatment' | 'rinse';
@@ -27,6 +29,7 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
   declare targetPaletteColourId: number | null;
   declare targetRegionId: number | null;
   declare targetMeasurementId: number | null;
+  declare targetAim: CreationOptional<TargetAim | null>;
   declare dyerId: number | null;
   declare status: CreationOptional<TrialStatus>;
   declare kind: CreationOptional<'modern' | 'historical'>;
@@ -121,6 +124,7 @@ export function initTrialModels(sequelize: Sequelize) {
       targetPaletteColourId: fk(),
       targetRegionId: fk(),
       targetMeasurementId: fk(),
+      targetAim: { type: DataTypes.ENUM('as-made', 'as-seen'), allowNull: true },
       dyerId: fk(),
       status: {
         type: DataTypes.ENUM('planned', 'in-progress', 'finished', 'abandoned'),

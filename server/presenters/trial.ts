@@ -1,3 +1,5 @@
+import { computedFastnessGrades } from '../../shared/compute/fastness-grades.ts';
+import type { Fastness } from '../../shared/schemas/fastness.ts';
 import type { TrialStatus } from '../models/trials.ts';
 import type {
   Chemical,
@@ -213,10 +215,12 @@ export function presentTrial(
     weave: t.weave,
     gsm: t.gsm,
     fastness: t.fastness,
+    fastnessComputed: computedFastnessGrades(t.fastness as Fastness | null),
     target: {
       paletteColourId: t.targetPaletteColourId,
       regionId: t.targetRegionId,
       measurementId: t.targetMeasurementId,
+      aim: t.targetAim ?? null,
     },
     steps,
     substitutions,

@@ -5,7 +5,7 @@ import { cornerIssues, type ChartInput, type PhotoChart } from '../../shared/sch
 import { badRequest, unprocessable } from '../http/errors.ts';
 import { chartRect, sampleChart } from '../media/chart.ts';
 import { workingImage } from '../media/decode.ts';
-import { readMasterFile } from '../media/files.ts';
+import { masterFileOnDisk } from '../media/files.ts';
 import { repalette } from '../media/pipeline.ts';
 import { AppSetting, type Photo } from '../models/index.ts';
 import { audit } from './audit.ts';
@@ -52,7 +52,7 @@ export async function setChart({ actor, transaction, input }: ServiceCtx<{ photo
   if (Object.keys(fields).length) throw badRequest('A corner lies outside the photo.', { fields });
   const master = photo.derivatives.master?.path;
   if (!master) throw new Error(`Photo ${photo.id} has no master file`);
-  const work = await workingImage(await readMasterFile(master, photo.sha256));
+  const work = await workingImage(await masterFileOnDisk(master, photo.sha256));
   const { samples } = sampleChart(work, chart.corners, work.scale);
   const geometry = patchGeometry(chart.corners);
   if (Math.min(...geometry.map((g) => g.half)) * work.scale < MIN_HALF_PX)

@@ -9,7 +9,7 @@ import {
 import { badRequest } from '../http/errors.ts';
 import { enqueueTiles } from '../iiif/enqueue.ts';
 import { TILE_JOB } from '../jobs/handlers/tile-photo.ts';
-import { ingestPhoto, removePhotoFiles, repalette, type IngestInput } from '../media/pipeline.ts';
+import { ingestPhoto, removePhotoFiles, repalette, type IngestInput, type PreparedIngest } from '../media/pipeline.ts';
 import { EXCLUDING_PURPOSES, type RepaletteScope } from '../media/repalette.ts';
 import { Job, PaletteColour, Region, type Photo } from '../models/index.ts';
 import { presentRegion } from '../presenters/photo.ts';
@@ -37,9 +37,10 @@ function checkRect(r: Partial<Rect>, photo: Photo) {
 /**
  * One uploaded photo: rows through the media pipeline, its deep-zoom job queued with them (a photo never
  * exists without it) and, for a piece, a line in the piece's history. Files the pipeline wrote are removed
- * if the transaction does not commit.
+ * if the transaction does not commit. Routes pass the file already `prepared` (prepareIngest(), before they open
+ * the transaction), so the transaction lasts only as long as the writes.
  */
-export async function addPhoto({ actor, transaction, input }: ServiceCtx<IngestInput>) {
+export async function addPhoto({ actor, transaction, input }: ServiceCtx<IngestInput & { prepared?: PreparedIngest }>) {
   let stored: Photo | null = null;
   try {
     const result = await ingestPhoto({ actor, transaction, input });

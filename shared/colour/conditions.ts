@@ -2,7 +2,7 @@
 // L*a*b* values were computed for, and whether they come from an instrument or an image.
 // One set of words for every screen, export and printed card.
 /** The CIE illuminants and standard observers a reading may name (defined here, not in a schema, so schemas can import these words without a cycle). */
-export const ILLUMINANTS = ['D65', 'D50', 'A', 'F2', 'F11'] as const;
+export const ILLUMINANTS = ['D65', 'D50', 'A', 'F2', 'F11', 'LED-B3'] as const;
 export const OBSERVERS = ['2', '10'] as const;
 
 export type Illuminant = (typeof ILLUMINANTS)[number];

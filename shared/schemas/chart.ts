@@ -110,6 +110,7 @@ export const toleranceLevelsInput = z
       .max(255, 'Use at most 255 characters'),
   })
   .strict();
+export type ToleranceLevelsInput = z.infer<typeof toleranceLevelsInput>;
 export const toleranceLevelsAnswer = z.object({
   levels: z.array(
     z.object({ name: z.string(), meanDeltaE00: z.number(), maxDeltaE00: z.number().nullable().optional() }),

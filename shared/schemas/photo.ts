@@ -10,8 +10,29 @@ export const REGION_PURPOSES = ['colour-area', 'motif', 'exclusion', 'reference-
 export type RegionPurpose = (typeof REGION_PURPOSES)[number];
 export const PHOTO_KINDS = ['thumb', 'display', 'master'] as const;
 
-/** Upload limit per file, in bytes (60 MB). */
-export const MAX_UPLOAD_BYTES = 60 * 1024 * 1024;
+/**
+ * Default limits of one image file: 2 GiB and 1 gigapixel (the server's MEDIA_MAX_BYTES and MEDIA_MAX_PIXELS may set
+ * others; its refusals name the limits in force).
+ */
+export const DEFAULT_MEDIA_MAX_BYTES = 2 * 1024 * 1024 * 1024;
+export const DEFAULT_MEDIA_MAX_PIXELS = 1_000_000_000;
+
+/** A byte count in words: "60 MB", "2 GB" (binary units, as the limits are set). */
+export function sizeInWords(bytes: number) {
+  const gb = bytes / 1024 ** 3;
+  if (gb >= 1) return `${Number(gb.toFixed(1))} GB`;
+  return `${Number((bytes / 1024 ** 2).toFixed(1))} MB`;
+}
+
+/** A pixel count in words: "100 megapixels", "1 gigapixel". */
+export function pixelsInWords(pixels: number) {
+  if (pixels >= 1e9) {
+    const g = Number((pixels / 1e9).toFixed(2));
+    return `${g} gigapixel${g === 1 ? '' : 's'}`;
+  }
+  const m = Number((pixels / 1e6).toFixed(1));
+  return `${m} megapixel${m === 1 ? '' : 's'}`;
+}
 export const UPLOAD_FIELD = 'photo';
 
 export const photoUpdateSchema = z

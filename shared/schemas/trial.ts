@@ -15,6 +15,13 @@ import { metamerismAnswer, spectrumSchema } from './spectral.ts';
 
 export const TRIAL_STATUSES = ['planned', 'in-progress', 'finished', 'abandoned'] as const;
 export const TRIAL_KINDS = ['modern', 'historical'] as const;
+/** Which state of the piece a trial aims at (a fading pair's sides): as made (protected area) or as seen (faded). */
+export const TARGET_AIMS = ['as-made', 'as-seen'] as const;
+export type TargetAim = (typeof TARGET_AIMS)[number];
+export const TARGET_AIM_WORDS: Record<TargetAim, string> = {
+  'as-made': 'the piece as made (the protected area)',
+  'as-seen': 'the piece as seen (the faded area)',
+};
 export const OPERATIONS = [
   'scour',
   'tannin',
@@ -91,6 +98,7 @@ const targetFields = {
   targetPaletteColourId: optionalId,
   targetRegionId: optionalId,
   targetMeasurementId: optionalId,
+  targetAim: z.enum(TARGET_AIMS, { error: 'Choose as made or as seen' }).nullable().optional(),
 };
 const oneTarget = (v: {
   targetPaletteColourId?: number | null;
@@ -115,7 +123,11 @@ const trialFields = {
 
 export const trialCreateSchema = z
   .object({ pieceId: optionalId, kind: z.enum(TRIAL_KINDS).default('modern'), ...trialFields })
-  .refine(oneTarget, oneTargetIssue);
+  .refine(oneTarget, oneTargetIssue)
+  .refine((v) => v.targetAim == null || v.targetRegionId != null || v.targetMeasurementId != null, {
+    message: 'An aim (as made or as seen) needs a target: a region or a reading of the piece.',
+    path: ['targetAim'],
+  });
 export type TrialCreateInput = z.input<typeof trialCreateSchema>;
 
 /** The kind is fixed at creation: a historical record never turns into a modern recipe. */
@@ -508,7 +520,22 @@ export const trialDetailSchema = trialSummarySchema.extend({
   weave: nstr,
   gsm: nnum,
   fastness: z.record(z.string(), z.unknown()).nullable(),
-  target: z.object({ paletteColourId: nnum, regionId: nnum, measurementId: nnum }),
+  /** The grey-scale grades computed from the stored before/after readings (ISO 105-A05 / A04), beside the assessor's. */
+  fastnessComputed: z.array(
+    z.object({
+      test: z.enum(['washing', 'rubbingDry', 'rubbingWet']),
+      scale: z.enum(['change', 'staining']),
+      assessor: nstr,
+      computed: gradeResult,
+      source: z.string(),
+    }),
+  ),
+  target: z.object({
+    paletteColourId: nnum,
+    regionId: nnum,
+    measurementId: nnum,
+    aim: z.enum(TARGET_AIMS).nullable(),
+  }),
   steps: z.array(trialStepOutSchema),
   substitutions: z.array(substitutionOutSchema),
   metalLoad: metalLoadSchema,

@@ -114,4 +114,52 @@ describe('fading pairs (issue 17, point 5)', () => {
       expect(fields[field]?.join(' ') ?? JSON.stringify(fields), field).toMatch(message);
     }
   });
+
+  it('a dyer sees the pairs and starts a trial aimed at the piece as made or as seen; the trial keeps which', async () => {
+    const piece = await makePiece();
+    const prot = await makeMeasurement({ pieceId: piece.id, L: 40, a: 45, b: 25, label: 'hem back' });
+    const faded = await makeMeasurement({ pieceId: piece.id, L: 52, a: 30, b: 22, label: 'hem front' });
+    await curator
+      .post(`/api/pieces/${piece.id}/fading-pairs`)
+      .set('Origin', ORIGIN)
+      .send({ faded: { measurementId: faded.id }, protected: { measurementId: prot.id } })
+      .expect(201);
+    expect((await dyer.get(`/api/pieces/${piece.id}/fading-pairs`).expect(200)).body.items).toHaveLength(1);
+
+    const seen = await dyer
+      .post(`/api/pieces/${piece.id}/trials`)
+      .set('Origin', ORIGIN)
+      .send({ dryMassG: 10, targetMeasurementId: faded.id, targetAim: 'as-seen' })
+      .expect(201);
+    expect(seen.body.trial.target).toMatchObject({ measurementId: faded.id, aim: 'as-seen' });
+    // The comparison aims at the chosen side: the faded reading.
+    expect(seen.body.trial.colour.target).toMatchObject({ L: 52, a: 30, b: 22 });
+
+    const made = await dyer
+      .post(`/api/pieces/${piece.id}/trials`)
+      .set('Origin', ORIGIN)
+      .send({ dryMassG: 10, targetMeasurementId: prot.id, targetAim: 'as-made' })
+      .expect(201);
+    const id = made.body.trial.id;
+    expect(made.body.trial.target.aim).toBe('as-made');
+    expect(made.body.trial.colour.target).toMatchObject({ L: 40, a: 45, b: 25 });
+    // Another edit keeps the aim; a new target without one clears it.
+    await dyer.patch(`/api/trials/${id}`).set('Origin', ORIGIN).send({ notes: 'second bath' }).expect(200);
+    expect((await dyer.get(`/api/trials/${id}`).expect(200)).body.trial.target.aim).toBe('as-made');
+    await dyer.patch(`/api/trials/${id}`).set('Origin', ORIGIN).send({ targetMeasurementId: faded.id }).expect(200);
+    expect((await dyer.get(`/api/trials/${id}`).expect(200)).body.trial.target.aim).toBeNull();
+
+    const noTarget = await dyer
+      .post(`/api/pieces/${piece.id}/trials`)
+      .set('Origin', ORIGIN)
+      .send({ dryMassG: 10, targetAim: 'as-made' })
+      .expect(400);
+    expect(noTarget.body.error.details.fields.targetAim[0]).toMatch(/needs a target/);
+    const bad = await dyer
+      .post(`/api/pieces/${piece.id}/trials`)
+      .set('Origin', ORIGIN)
+      .send({ dryMassG: 10, targetMeasurementId: prot.id, targetAim: 'sideways' })
+      .expect(400);
+    expect(bad.body.error.details.fields.targetAim[0]).toMatch(/as made or as seen/);
+  });
 });

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
+import { mediaLimits } from '../../server/media/limits.ts';
 import { Photo, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
@@ -120,7 +121,12 @@ describe('refused uploads leave nothing behind', () => {
   const cases: [string, () => Promise<Buffer> | Buffer, string, number][] = [
     ['text renamed .jpg', () => Buffer.from('This is a letter, not a photograph.\n'.repeat(20)), 'letter.jpg', 415],
     ['a truncated JPEG', truncated, 'cut.jpg', 422],
-    ['a pixel bomb (PNG claiming 20 000 × 20 000 px)', () => pngClaiming(20_000, 20_000), 'bomb.png', 422],
+    [
+      'a pixel bomb (PNG claiming 40 000 × 30 000 px, above 1 gigapixel)',
+      () => pngClaiming(40_000, 30_000),
+      'bomb.png',
+      422,
+    ],
     ['zero bytes', () => Buffer.alloc(0), 'empty.jpg', 422],
   ];
   it.each(cases)('%s', async (_name, make, filename, status) => {
@@ -150,17 +156,21 @@ describe('refused uploads leave nothing behind', () => {
     expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
   });
 
-  it('answers a file over 60 MB with 413', async () => {
+  it('answers a file over the size limit with 413 naming it (MEDIA_MAX_BYTES, lowered to 1 MB here)', async () => {
     const curator = await signedInAgent(app, 'curator');
     const piece = await makePiece();
     const before = await uploadedFiles();
-    const big = Buffer.concat([jpeg, Buffer.alloc(60 * 1024 * 1024 + 1 - jpeg.length)]);
-    const res = await curator
-      .post(`/api/pieces/${piece.id}/photos`)
-      .set('Origin', ORIGIN)
-      .attach('photo', big, 'huge.jpg')
-      .expect(413);
-    expect(res.body.error.code).toBe('too_large');
+    const saved = mediaLimits.maxBytes;
+    mediaLimits.maxBytes = 1024 * 1024;
+    const big = Buffer.concat([jpeg, Buffer.alloc(1024 * 1024 + 1 - jpeg.length)]);
+    let res;
+    try {
+      res = await curator.post(`/api/pieces/${piece.id}/photos`).set('Origin', ORIGIN).attach('photo', big, 'huge.jpg');
+    } finally {
+      mediaLimits.maxBytes = saved;
+    }
+    expect(res.status).toBe(413);
+    expect(res.body.error).toMatchObject({ code: 'too_large', message: 'A file is larger than 1 MB.' });
     expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
     expect(await uploadedFiles()).toEqual(before);
   });

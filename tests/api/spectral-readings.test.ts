@@ -24,6 +24,7 @@ const spectrum = (s: typeof rose) => ({ startNm: s.startNm, intervalNm: s.interv
 async function trialAiming(
   targetSpectrum: { startNm: number; intervalNm: number; values: number[] } | null,
   lab = { L: 60, a: 31, b: 27 },
+  illuminant = 'A',
 ) {
   const piece = await makePiece();
   const target = await makeMeasurement({
@@ -31,7 +32,7 @@ async function trialAiming(
     L: lab.L,
     a: lab.a,
     b: lab.b,
-    illuminant: 'A',
+    illuminant,
     observer: '10',
     spectrum: targetSpectrum,
   });
@@ -105,5 +106,30 @@ describe('spectral readings of a trial', () => {
     expect(res.body.error.details.fields.L).toBeUndefined();
     const none = await dyer.post(`/api/trials/${id}/measurements`).set('Origin', ORIGIN).send({}).expect(400);
     expect(none.body.error.details.fields.L[0]).toMatch(/Enter L\*/);
+  });
+
+  // The CIE LED illuminant of CIE 015:2018 (LED-B3) is a viewing condition like the others: a reading may
+  // be taken under it and a comparison made under it (check values: colour-science 0.4.6, spectra-check.json).
+  it('takes LED-B3 as a reading’s conditions and compares under it', async () => {
+    const want = at('rose', 'LED-B3', '10').lab;
+    const id = await trialAiming(null, { L: want[0], a: want[1], b: want[2] }, 'LED-B3');
+    const typed = await dyer
+      .post(`/api/trials/${id}/measurements`)
+      .set('Origin', ORIGIN)
+      .send({ spectrum: spectrum(rose), illuminant: 'LED-B3', observer: '10' })
+      .expect(201);
+    expect(typed.body.measurement.illuminant).toBe('LED-B3');
+    expect(Math.abs(typed.body.measurement.L - want[0])).toBeLessThan(1e-3);
+    const { colour } = (await dyer.get(`/api/trials/${id}`).expect(200)).body.trial;
+    expect(colour.conditions).toMatchObject({ illuminant: 'LED-B3', targetObserver: '10' });
+    expect(colour.difference.deltaE00).toBeLessThan(0.01);
+    const csv = 'L,a,b,illuminant/observer\n50,10,5,LED-B3/10\n';
+    const imported = await dyer
+      .post(`/api/trials/${id}/measurements/import`)
+      .set('Origin', ORIGIN)
+      .set('Content-Type', 'text/csv')
+      .send(csv)
+      .expect(201);
+    expect(imported.body.measurements[0]).toMatchObject({ illuminant: 'LED-B3', observer: '10' });
   });
 });

@@ -2,7 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { sequelize } from '../../server/models/index.ts';
-import { ORIGIN } from '../support/agents.ts';
+import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import check from '../reference/spectra-check.json' with { type: 'json' };
 import scales from '../reference/fastness-scales.json' with { type: 'json' };
 
@@ -148,5 +148,53 @@ describe('POST /api/colour/grey-scale', () => {
       sample: { L: 50, a: 0, b: 0 },
     }).expect(400);
     expect(res.body.error.details.fields['reference.L'][0]).toMatch(/L\*/);
+  });
+});
+
+describe('fastness records with readings', () => {
+  // ISO 105-A02/A03 nominal differences (tests/reference/fastness-scales.json): a neutral pair 3.4 apart is grade 3
+  // for change in colour; the staining pair 4.3 apart (nominal grade 3 of the staining scale) grades near 3.
+  it('stores the before/after readings and presents the computed grade beside the assessor’s', async () => {
+    const dyer = await signedInAgent(app, 'dyer');
+    const three = scales.find((s) => s.scale === 'grey scale for change in colour' && s.grade === '3')!;
+    const created = await dyer.post('/api/trials').set('Origin', ORIGIN).send({ dryMassG: 10 }).expect(201);
+    const id = created.body.trial.id;
+    expect(created.body.trial.fastnessComputed).toEqual([]);
+    const fastness = {
+      washing: {
+        change: '3-4',
+        readings: {
+          change: { before: { L: 60, a: 0, b: 0 }, after: { L: 60 - three.dE_ab_nominal!, a: 0, b: 0 } },
+        },
+      },
+      rubbingDry: {
+        staining: '4',
+        readings: { staining: { before: { L: 95, a: 0, b: 0 }, after: { L: 95, a: 0, b: 0 } } },
+      },
+    };
+    await dyer.patch(`/api/trials/${id}`).set('Origin', ORIGIN).send({ fastness }).expect(200);
+    const { trial } = (await dyer.get(`/api/trials/${id}`).expect(200)).body;
+    expect(trial.fastness.washing.readings.change.after.L).toBeCloseTo(60 - three.dE_ab_nominal!, 9);
+    expect(trial.fastnessComputed).toHaveLength(2);
+    expect(trial.fastnessComputed[0]).toMatchObject({
+      test: 'washing',
+      scale: 'change',
+      assessor: '3-4',
+      computed: { step: '3', grade: 3 },
+    });
+    expect(trial.fastnessComputed[0].source).toMatch(/ISO 105-A05/);
+    // No staining at all: grade 5 (ISO 105-A04).
+    expect(trial.fastnessComputed[1]).toMatchObject({ test: 'rubbingDry', scale: 'staining', assessor: '4' });
+    expect(trial.fastnessComputed[1].computed.step).toBe('5');
+    const bad = await dyer
+      .patch(`/api/trials/${id}`)
+      .set('Origin', ORIGIN)
+      .send({
+        fastness: { washing: { readings: { change: { before: { L: 60, a: 0 }, after: { L: 50, a: 0, b: 0 } } } } },
+      })
+      .expect(400);
+    expect(Object.keys(bad.body.error.details.fields).join(' ')).toMatch(
+      /fastness\.washing\.readings\.change\.before\.b/,
+    );
   });
 });

@@ -1,5 +1,6 @@
 import { healthBench } from './health.bench.ts';
 import { importBench } from './import.bench.ts';
+import { ingestBench } from './ingest.bench.ts';
 import { loadBench } from './load.bench.ts';
 import { paletteBench } from './palette.bench.ts';
 import { searchBench } from './search.bench.ts';
@@ -16,6 +17,7 @@ export const benches: Bench[] = [
   importBench,
   importStreamBench,
   uploadStreamBench,
+  ingestBench,
   paletteBench,
   searchBench,
   startupBench,

@@ -24,9 +24,9 @@ const rssKb = (pid: number, field: 'VmRSS' | 'RssAnon' = 'VmRSS') => {
   const status = readFileSync(`/proc/${pid}/status`, 'utf8');
   return Number(new RegExp(`${field}:\\s+(\\d+)`).exec(status)?.[1] ?? 0);
 };
-const loadAverage = () => Number(readFileSync('/proc/loadavg', 'utf8').split(' ')[0]);
+export const loadAverage = () => Number(readFileSync('/proc/loadavg', 'utf8').split(' ')[0]);
 
-async function serverWithCurator() {
+export async function serverWithCurator() {
   const { migrate } = await import('../../server/db/setup.ts');
   const { sequelize } = await import('../../server/models/index.ts');
   const { seedReference } = await import('../../server/seed/reference.ts');
@@ -47,7 +47,7 @@ async function serverWithCurator() {
 }
 
 /** Samples the server's RSS and times GET /api/health every 50 ms until stopped. */
-function watch(url: string, pid: number) {
+export function watch(url: string, pid: number) {
   const base = rssKb(pid);
   const baseAnon = rssKb(pid, 'RssAnon');
   let peak = base;

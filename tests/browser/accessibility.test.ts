@@ -130,7 +130,15 @@ describe('every main page passes axe (WCAG 2.1 AA, serious and critical)', () =>
   it('for the admin', async () => {
     const page = await suite.browser.context.newPage();
     await signInAs(page, suite.server.url, 'admin@demo.test');
-    const found = await check(page, 'admin', ['/', '/team', '/outbox', '/admin/fixity', '/reference', '/archive']);
+    const found = await check(page, 'admin', [
+      '/',
+      '/team',
+      '/outbox',
+      '/admin/fixity',
+      '/admin/imaging-tolerances',
+      '/reference',
+      '/archive',
+    ]);
     expect(found).toEqual([]);
   }, 300_000);
 

@@ -1,3 +1,4 @@
+import { mkdirSync } from 'node:fs';
 import { writeFile, mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -5,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchBrowser, signInAs } from '../support/browser.ts';
 import { startServer } from '../support/server.ts';
 import { clothJpeg } from '../support/images.ts';
+import { testEnv } from '../support/env.ts';
 import { sequelize } from '../../server/models/index.ts';
 
 let server: Awaited<ReturnType<typeof startServer>>;
@@ -65,6 +67,17 @@ describe('cataloguing a piece in Chromium', () => {
     await page.getByRole('heading', { name: 'Browser-catalogued madder print' }).waitFor();
     await page.getByText(accession).first().waitFor();
     await page.getByText('420 mm').waitFor();
+
+    // The upload box names the formats and the default limits of large masters.
+    const drop = page.getByRole('region', { name: 'Add photos' });
+    await drop.getByText(/TIFF including 16-bit and BigTIFF.*up to 2 GB and 1 gigapixel each/).waitFor();
+    const shots = testEnv.screensDir;
+    mkdirSync(shots, { recursive: true });
+    for (const width of [1280, 768, 390]) {
+      await page.setViewportSize({ width, height: 900 });
+      await drop.screenshot({ path: `${shots}/upload-panel-${width}.png` });
+    }
+    await page.setViewportSize({ width: 1280, height: 900 });
 
     const file = path.join(dir, 'recto.jpg');
     await writeFile(file, await clothJpeg({ seed: 21, exposure: true }));

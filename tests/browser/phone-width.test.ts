@@ -69,7 +69,7 @@ describe('every main page at 390 × 844', () => {
       ['dyer@demo.test', [...signedIn, `/archive/${piece.id}`, '/search?hex=a53a2d']],
       ['researcher@demo.test', ['/archive', `/archive/${piece.id}`, '/search?q=madder', `/trials/${trial.id}`]],
       ['curator@demo.test', ['/import', '/archive', `/archive/${piece.id}`]],
-      ['admin@demo.test', ['/team', '/archive']],
+      ['admin@demo.test', ['/team', '/archive', '/admin/imaging-tolerances']],
     ];
     const page = await suite.browser.context.newPage();
     await page.setViewportSize(PHONE);
@@ -108,6 +108,7 @@ describe('every main page at 390 × 844', () => {
       'Import',
       'Team',
       'Fixity',
+      'Tolerances',
       'Outbox',
     ]);
     expect(await scrollWidth(page)).toBeLessThanOrEqual(PHONE.width);

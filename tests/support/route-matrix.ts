@@ -59,6 +59,8 @@ export const everyone = (e: Expected): Record<Who, Expected> => ({
   dyer: e,
 });
 export const signedIn: Record<Who, Expected> = { ...everyone('2xx'), visitor: 401 };
+/** Readings of a piece: curators and researchers (and admins). */
+const measurers: Record<Who, Expected> = { visitor: 401, admin: '2xx', curator: '2xx', researcher: '2xx', dyer: 403 };
 export const adminOnly: Record<Who, Expected> = {
   visitor: 401,
   admin: '2xx',
@@ -494,6 +496,16 @@ export const routeMatrix: MatrixRow[] = [
         evidence: 'matrix: a ladder of madder on alum',
       },
     }),
+  }),
+  row('POST /api/pieces/:id/measurements', measurers, {
+    setup: async () => ({ params: { id: (await makePiece()).id }, body: { L: 45, a: 40, b: 22, label: 'matrix' } }),
+  }),
+  row('DELETE /api/pieces/:id/measurements/:childId', measurers, {
+    setup: async () => {
+      const piece = await makePiece();
+      const m = await factories.makeMeasurement({ pieceId: piece.id, L: 45, a: 40, b: 22 });
+      return { params: { id: piece.id, childId: m.id } };
+    },
   }),
   row('POST /api/colour/difference', everyone('2xx'), {
     body: { reference: { L: 45, a: 48, b: 28 }, sample: { L: 47, a: 44, b: 30 } },

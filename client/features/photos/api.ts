@@ -13,7 +13,7 @@ import type {
   RegionUpdateInput,
 } from '../../../shared/schemas/photo';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
-import type { ChartInput } from '../../../shared/schemas/chart';
+import type { ChartInput, ToleranceLevelsInput as ToleranceLevels } from '../../../shared/schemas/chart';
 import { ApiError, http } from '../../lib/http';
 import { pieceKeys, type Photo } from '../pieces';
 
@@ -147,5 +147,22 @@ export function useChart(photo: Photo) {
         input ? { method: 'PUT', json: input } : { method: 'DELETE' },
       ),
     onSuccess: invalidate,
+  });
+}
+
+/** The imaging tolerance levels a chart's capture is graded against (admins change them, naming their source). */
+export const chartTolerancesKey = ['photos', 'chart-tolerances'] as const;
+export const useChartTolerances = () =>
+  useQuery({ queryKey: chartTolerancesKey, queryFn: () => http<ToleranceLevels>('/api/photos/chart-tolerances') });
+export function useSetChartTolerances() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: ToleranceLevels) =>
+      http<ToleranceLevels>('/api/photos/chart-tolerances', { method: 'PUT', json: input }),
+    onSuccess: (saved) => {
+      qc.setQueryData(chartTolerancesKey, saved);
+      // Photos carry the levels they were graded against: read them again.
+      void qc.invalidateQueries({ queryKey: ['photos'] });
+    },
   });
 }

@@ -14,6 +14,8 @@ import type {
 } from '../../../shared/schemas/trial';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
 import { http } from '../../lib/http';
+import { fadingKeys } from '../fading';
+import { pieceKeys } from '../pieces';
 
 export type { TrialSummaryView, TrialView, MeasurementView, TrialList, PieceTrials };
 
@@ -157,5 +159,31 @@ export function useUploadSwatch(trialId: number) {
       return http<{ photo: { id: number } }>(`/api/trials/${trialId}/photos`, { method: 'POST', body: form });
     },
     onSuccess: () => invalidate({ id: trialId }),
+  });
+}
+
+/** A piece's readings are trial targets, fading-pair sides and history lines: each of those is read again. */
+const invalidatePieceReadings = (qc: ReturnType<typeof useQueryClient>, pieceId: number) =>
+  Promise.all([
+    qc.invalidateQueries({ queryKey: trialKeys.all }),
+    qc.invalidateQueries({ queryKey: fadingKeys.of(pieceId) }),
+    qc.invalidateQueries({ queryKey: pieceKeys.history(pieceId) }),
+  ]);
+
+/** Readings of the original (the piece itself): trials aiming at them are recomputed, so every trial query refreshes. */
+export function useAddPieceReading(pieceId: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: MeasurementInput) =>
+      http<{ measurement: MeasurementView }>(`/api/pieces/${pieceId}/measurements`, { method: 'POST', json: input }),
+    onSuccess: () => invalidatePieceReadings(qc, pieceId),
+  });
+}
+
+export function useDeletePieceReading(pieceId: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (id: number) => http<void>(`/api/pieces/${pieceId}/measurements/${id}`, { method: 'DELETE' }),
+    onSuccess: () => invalidatePieceReadings(qc, pieceId),
   });
 }

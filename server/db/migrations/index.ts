@@ -21,6 +21,7 @@ import * as m0024importPreviews from './0024-import-previews.ts';
 import * as m0025pieceListLoad from './0025-piece-list-load.ts';
 import * as m0026spectrum from './0026-measurement-spectrum.ts';
 import * as m0027photoChart from './0027-photo-chart.ts';
+import * as m0028targetAim from './0028-trial-target-aim.ts';
 import * as m0029fadingPairs from './0029-fading-pairs.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
@@ -48,5 +49,6 @@ export const migrations: Migration[] = [
   { name: '0025-piece-list-load', ...m0025pieceListLoad },
   { name: '0026-measurement-spectrum', ...m0026spectrum },
   { name: '0027-photo-chart', ...m0027photoChart },
+  { name: '0028-trial-target-aim', ...m0028targetAim },
   { name: '0029-fading-pairs', ...m0029fadingPairs },
 ];

@@ -137,7 +137,8 @@ export default defineRoutes('pieces', [
   {
     method: 'post',
     path: '/api/pieces/:id/photos',
-    summary: 'Upload photos to a piece (multipart/form-data, field "photo", up to 20 files of 60 MB)',
+    summary:
+      'Upload photos to a piece (multipart/form-data, field "photo", up to 20 files, each within MEDIA_MAX_BYTES and MEDIA_MAX_PIXELS: 2 GB and 1 gigapixel by default)',
     roles: 'curator, admin',
     params: idParams,
     responses: { 201: photoUploadResponse },

@@ -51,6 +51,23 @@ export default defineRoutes('trials', [
     responses: { 201: trialSavedAnswer },
   },
   {
+    method: 'post',
+    path: '/api/pieces/:id/measurements',
+    summary: 'Add an instrument reading of the original (L*a*b* or a reflectance spectrum)',
+    roles: 'curator, researcher, admin',
+    params: idParams,
+    body: measurementSchema,
+    responses: { 201: measurementAnswer },
+  },
+  {
+    method: 'delete',
+    path: '/api/pieces/:id/measurements/:childId',
+    summary: 'Remove a reading of the original (trials aiming at it lose their target)',
+    roles: 'curator, researcher, admin',
+    params: childParams,
+    responses: { 204: null },
+  },
+  {
     method: 'get',
     path: '/api/trials',
     summary: 'List trials',

@@ -1,11 +1,13 @@
 import { Router } from 'express';
 import multer from 'multer';
 import { idParams } from '../../../shared/schemas/common.ts';
-import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
+import { UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { HttpError, badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
+import { maxBytesInWords, mediaLimits } from '../../media/limits.ts';
+import { prepareIngest } from '../../media/pipeline.ts';
 import { sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
@@ -21,9 +23,9 @@ const MAX_FILES = 20;
 const receiveFiles = receiveUpload({
   field: UPLOAD_FIELD,
   maxFiles: MAX_FILES,
-  maxBytes: MAX_UPLOAD_BYTES,
+  maxBytes: () => mediaLimits.maxBytes,
   maxFields: 10,
-  tooLarge: (err) => `${err.field ? 'A file' : 'The upload'} is larger than 60 MB.`,
+  tooLarge: (err) => `${err.field ? 'A file' : 'The upload'} is larger than ${maxBytesInWords()}.`,
   refuse: (err) => {
     if (!(err instanceof multer.MulterError)) return null;
     if (err.code === 'LIMIT_UNEXPECTED_FILE')
@@ -52,12 +54,14 @@ photoUploadRouter.post('/', requireUser, async (req, res, next) => {
       const photos = [];
       for (const [index, file] of files.entries()) {
         try {
-          // One photo, all rows in one transaction; any failure removes every file it wrote.
+          // The file is read, checked, decoded and analysed first, outside any transaction (a large master takes
+          // seconds); then one photo, all rows in one transaction; any failure removes every file it wrote.
+          const prepared = await prepareIngest({ path: file.path });
           const { photo, palette } = await sequelize.transaction((transaction) =>
             addPhoto({
               actor,
               transaction,
-              input: { path: file.path, originalName: file.originalname, pieceId: piece.id },
+              input: { path: file.path, originalName: file.originalname, pieceId: piece.id, prepared },
             }),
           );
           photos.push(presentPhoto(photo, actor, { palette }));

@@ -1,10 +1,12 @@
 import { Router } from 'express';
 import multer from 'multer';
 import { idParams } from '../../../shared/schemas/common.ts';
-import { MAX_UPLOAD_BYTES, UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
+import { UPLOAD_FIELD } from '../../../shared/schemas/photo.ts';
 import { actorOf } from '../../http/auth.ts';
 import { badRequest } from '../../http/errors.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
+import { maxBytesInWords, mediaLimits } from '../../media/limits.ts';
+import { prepareIngest } from '../../media/pipeline.ts';
 import { parseParams } from '../../http/validate.ts';
 import { sequelize, type PaletteColour } from '../../models/index.ts';
 import { addPhoto } from '../../services/photos.ts';
@@ -16,9 +18,9 @@ export const trialPhotosRouter = Router({ mergeParams: true });
 const receiveOne = receiveUpload({
   field: UPLOAD_FIELD,
   maxFiles: 1,
-  maxBytes: MAX_UPLOAD_BYTES,
+  maxBytes: () => mediaLimits.maxBytes,
   maxFields: 5,
-  tooLarge: () => 'The photo is larger than 60 MB.',
+  tooLarge: () => `The photo is larger than ${maxBytesInWords()}.`,
   refuse: (err) =>
     err instanceof multer.MulterError
       ? badRequest(`Send one swatch photo in the form field "${UPLOAD_FIELD}".`, {
@@ -39,11 +41,13 @@ trialPhotosRouter.post('/', async (req, res, next) => {
         throw badRequest(`Attach the swatch photo in the form field "${UPLOAD_FIELD}".`, {
           fields: { [UPLOAD_FIELD]: ['Attach a photo'] },
         });
+      // Read and analysed before the transaction opens, so it lasts only as long as the writes.
+      const prepared = await prepareIngest({ path: file.path });
       const { photo, palette } = await sequelize.transaction((transaction) =>
         addPhoto({
           actor,
           transaction,
-          input: { path: file.path, originalName: file.originalname, trialId: trial.id, view: 'swatch' },
+          input: { path: file.path, originalName: file.originalname, trialId: trial.id, view: 'swatch', prepared },
         }),
       );
       await discardUploads(req);

@@ -1,11 +1,13 @@
 import { Router } from 'express';
 import { idParams } from '../../../shared/schemas/common.ts';
-import { pieceTrialsQuery, trialCreateSchema } from '../../../shared/schemas/trial.ts';
+import { childParams, measurementSchema, pieceTrialsQuery, trialCreateSchema } from '../../../shared/schemas/trial.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden, notFound } from '../../http/errors.ts';
-import { parseParams, parseQuery } from '../../http/validate.ts';
+import { parseBody, parseParams, parseQuery } from '../../http/validate.ts';
+import { ColourMeasurement, sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { presentMeasurement } from '../../presenters/trial.ts';
+import { addPieceReading, removePieceReading } from '../../services/piece-readings.ts';
 import { pieceMeasurements } from '../../services/trials/colour.ts';
 import { withTrialCode } from '../../services/trials/code.ts';
 import { notifyCurator } from '../../services/trials/notify.ts';
@@ -46,4 +48,31 @@ pieceTrialsRouter.post('/:id/trials', requireUser, async (req, res) => {
   res
     .status(201)
     .json({ trial: await presentTrialDetail(actor, await loadReadableTrial(actor, created.id)), notified });
+});
+
+/** A reading of the original itself (L*a*b* or a spectrum), by those who measure pieces. */
+pieceTrialsRouter.post('/:id/measurements', requireUser, async (req, res) => {
+  const actor = actorOf(req);
+  const { id } = parseParams(idParams, req);
+  const input = parseBody(measurementSchema, req);
+  const piece = await loadReadablePiece(actor, id);
+  if (piece.deletedAt) throw notFound('Piece');
+  if (!can(actor, 'measurement:create')) throw forbidden('Only curators and researchers record readings of a piece.');
+  const m = await sequelize.transaction((transaction) =>
+    addPieceReading({ actor, transaction, input: { ...input, piece } }),
+  );
+  res.status(201).json({ measurement: presentMeasurement(m) });
+});
+
+pieceTrialsRouter.delete('/:id/measurements/:childId', requireUser, async (req, res) => {
+  const actor = actorOf(req);
+  const { id, childId } = parseParams(childParams, req);
+  const piece = await loadReadablePiece(actor, id);
+  if (!can(actor, 'measurement:create')) throw forbidden('Only curators and researchers remove readings of a piece.');
+  const measurement = await ColourMeasurement.findOne({ where: { id: childId, pieceId: piece.id, trialId: null } });
+  if (!measurement) throw notFound('Reading');
+  await sequelize.transaction((transaction) =>
+    removePieceReading({ actor, transaction, input: { piece, measurement } }),
+  );
+  res.status(204).end();
 });

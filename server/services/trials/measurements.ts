@@ -15,11 +15,12 @@ function labOf(m: ReturnType<typeof measurementSchema.parse>) {
   return { ...spectrumToLab(spectrum, m.illuminant, m.observer).lab, spectrum };
 }
 
-const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
+/** A reading's columns, attached to nothing: the caller sets the trial or the piece. */
+export const readingRow = (actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
   ...labOf(m),
-  pieceId: null,
+  pieceId: null as number | null,
   regionId: null,
-  trialId: trial.id,
+  trialId: null as number | null,
   instrument: m.instrument ?? null,
   geometry: m.geometry ?? null,
   specular: m.specular ?? null,
@@ -29,6 +30,11 @@ const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.
   source: 'instrument',
   takenOn: m.takenOn ?? null,
   createdById: actor?.id ?? null,
+});
+
+const row = (trial: Trial, actor: Actor, m: ReturnType<typeof measurementSchema.parse>) => ({
+  ...readingRow(actor, m),
+  trialId: trial.id,
 });
 
 export async function addMeasurement({ actor, transaction, input }: ServiceCtx<MeasurementInput & { trial: Trial }>) {
@@ -83,7 +89,7 @@ const COLUMN_WORDS: Record<string, string> = {
 
 /** "D65/10", "D65/10°", "D65 10" → illuminant and observer. */
 function splitIlluminant(v: string) {
-  const m = v.trim().match(/^([A-Za-z0-9]+)\s*[/ ]\s*(\d+)\s*°?$/);
+  const m = v.trim().match(/^([A-Za-z0-9-]+)\s*[/ ]\s*(\d+)\s*°?$/);
   return m ? { illuminant: m[1].toUpperCase(), observer: m[2] } : { illuminant: v.trim(), observer: '' };
 }
 // Spectrophotometer exports write the geometry in several ways; map the common ones to ours.

@@ -35,6 +35,7 @@ export async function createTrial({ actor, transaction, input }: ServiceCtx<Tria
       targetPaletteColourId: v.targetPaletteColourId ?? null,
       targetRegionId: v.targetRegionId ?? null,
       targetMeasurementId: v.targetMeasurementId ?? null,
+      targetAim: v.targetAim ?? null,
       dyerId: actor?.id ?? null,
       status: v.status,
       kind: v.kind,
@@ -65,6 +66,8 @@ export async function updateTrial({ transaction, input }: ServiceCtx<TrialUpdate
           targetPaletteColourId: v.targetPaletteColourId ?? null,
           targetRegionId: v.targetRegionId ?? null,
           targetMeasurementId: v.targetMeasurementId ?? null,
+          // A new target is not read as made or as seen unless told so.
+          targetAim: v.targetAim ?? null,
         }
       : {};
   await checkTarget(pieceId, { ...trial.get(), ...targets }, transaction);

@@ -7,6 +7,8 @@ import { roleLabel } from '../../team';
 const adminLinks = [
   { action: 'team:manage', to: paths.team(), label: 'Team' },
   { action: 'fixity:run', to: paths.fixity(), label: 'Fixity' },
+  // The imaging tolerance levels a colour chart's capture is graded against.
+  { action: 'reference:manage', to: paths.imagingTolerances(), label: 'Tolerances' },
   { action: 'outbox:read', to: paths.outbox(), label: 'Outbox' },
 ] as const;
 

@@ -133,10 +133,13 @@ export function FadingPairs({ pieceId, canEdit }: { pieceId: number; canEdit: bo
             ) : null}
             {p.note ? <p className="mt-1 text-xs text-ink-soft">{p.note}</p> : null}
             <p className="mt-2 flex flex-wrap gap-3">
-              <Link className="text-action hover:underline" to={paths.trialNew(pieceId, sideValue(p.protected))}>
+              <Link
+                className="text-action hover:underline"
+                to={paths.trialNew(pieceId, sideValue(p.protected), 'as-made')}
+              >
                 Aim a trial at it as made
               </Link>
-              <Link className="text-action hover:underline" to={paths.trialNew(pieceId, sideValue(p.faded))}>
+              <Link className="text-action hover:underline" to={paths.trialNew(pieceId, sideValue(p.faded), 'as-seen')}>
                 Aim a trial at it as seen
               </Link>
               {canEdit ? (

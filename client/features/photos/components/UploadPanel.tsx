@@ -1,5 +1,11 @@
 import { useRef, useState, type DragEvent } from 'react';
 import { uploadPhoto, useUploadDone } from '../api';
+import {
+  DEFAULT_MEDIA_MAX_BYTES,
+  DEFAULT_MEDIA_MAX_PIXELS,
+  pixelsInWords,
+  sizeInWords,
+} from '../../../../shared/schemas/photo';
 
 type Item = {
   key: string;
@@ -54,7 +60,11 @@ export function UploadPanel({ pieceId }: { pieceId: number }) {
         onDrop={onDrop}
         className={`rounded-lg border-2 border-dashed p-6 text-center text-sm ${over ? 'border-action bg-action-tint' : 'border-rule-strong bg-sheet'}`}
       >
-        <p>Drop photos here (JPEG, PNG, TIFF, WebP, HEIF/AVIF; up to 60 MB and 100 megapixels each), or</p>
+        <p>
+          Drop photos here (JPEG, PNG, TIFF including 16-bit and BigTIFF, WebP, HEIF/AVIF; up to{' '}
+          {sizeInWords(DEFAULT_MEDIA_MAX_BYTES)} and {pixelsInWords(DEFAULT_MEDIA_MAX_PIXELS)} each unless your archive
+          set other limits), or
+        </p>
         <button
           type="button"
           className="mt-2 rounded-md border border-rule-strong bg-sheet px-4 py-2 font-medium hover:bg-paper"

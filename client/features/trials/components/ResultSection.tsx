@@ -27,8 +27,24 @@ import { SpectrumChart } from './SpectrumChart';
 import { TextArea } from '../../../components/form/TextArea';
 import { parseSpectrumText } from '../../../../shared/colour/spectrum-text';
 
-function MeasurementForm({ trialId }: { trialId: number }) {
+type AddReading = {
+  mutate: (body: MeasurementInput, opts: { onSuccess: () => void; onError: (e: unknown) => void }) => void;
+  error: Error | null;
+  isPending: boolean;
+};
+
+/** A reading typed as L*a*b* or pasted/loaded as a spectrum: of a trial's swatch, or (with a place label) of the original. */
+export function MeasurementForm({
+  add,
+  name = 'Add a reading',
+  withLabel = false,
+}: {
+  add: AddReading;
+  name?: string;
+  withLabel?: boolean;
+}) {
   const [d, setD] = useState({
+    label: '',
     L: '',
     a: '',
     b: '',
@@ -42,7 +58,6 @@ function MeasurementForm({ trialId }: { trialId: number }) {
     intervalNm: '',
     unit: '',
   });
-  const add = useAddMeasurement(trialId);
   const { formRef, errors, check, fromServer, show, under } = useFormErrors();
   const set = (k: keyof typeof d) => (e: { target: { value: string } }) => setD({ ...d, [k]: e.target.value });
   const num = (x: string) => (x.trim() === '' ? (undefined as unknown as number) : Number(x));
@@ -51,7 +66,7 @@ function MeasurementForm({ trialId }: { trialId: number }) {
     <form
       ref={formRef}
       noValidate
-      aria-label="Add a reading"
+      aria-label={name}
       className="grid gap-3 sm:grid-cols-4"
       onSubmit={(e) => {
         e.preventDefault();
@@ -75,14 +90,25 @@ function MeasurementForm({ trialId }: { trialId: number }) {
           geometry: d.geometry as MeasurementInput['geometry'],
           specular: d.specular as 'SCI' | 'SCE',
           instrument: d.instrument || null,
+          ...(withLabel ? { label: d.label.trim() || null } : {}),
         };
         if (check(measurementSchema, body))
           add.mutate(body, {
-            onSuccess: () => setD({ ...d, L: '', a: '', b: '', spectrum: '', startNm: '', intervalNm: '' }),
+            onSuccess: () => setD({ ...d, label: '', L: '', a: '', b: '', spectrum: '', startNm: '', intervalNm: '' }),
             onError: fromServer,
           });
       }}
     >
+      {withLabel ? (
+        <Field
+          className="sm:col-span-4"
+          label="Place on the piece"
+          value={d.label}
+          onChange={set('label')}
+          error={errors.label}
+          hint="Where it was measured, e.g. seam allowance, red ground; readings with the same place are one target"
+        />
+      ) : null}
       <Field label="L*" className="font-mono" inputMode="decimal" value={d.L} onChange={set('L')} error={errors.L} />
       <Field label="a*" className="font-mono" inputMode="decimal" value={d.a} onChange={set('a')} error={errors.a} />
       <Field label="b*" className="font-mono" inputMode="decimal" value={d.b} onChange={set('b')} error={errors.b} />
@@ -171,7 +197,7 @@ function MeasurementForm({ trialId }: { trialId: number }) {
       </div>
       <div className="sm:col-span-4">
         <Button type="submit" variant="secondary" disabled={add.isPending}>
-          Add reading
+          {withLabel ? 'Add reading of the original' : 'Add reading'}
         </Button>
       </div>
     </form>
@@ -228,6 +254,7 @@ function CsvImport({ trialId }: { trialId: number }) {
 export function ResultSection({ trial }: { trial: TrialView }) {
   const canEdit = trial.abilities['trial:update'];
   const remove = useDeleteMeasurement(trial.id);
+  const add = useAddMeasurement(trial.id);
   const upload = useUploadSwatch(trial.id);
   return (
     <section aria-labelledby="result-h" className="space-y-4">
@@ -295,7 +322,7 @@ export function ResultSection({ trial }: { trial: TrialView }) {
       ) : null}
       {canEdit ? (
         <div className="grid gap-6 lg:grid-cols-2">
-          <MeasurementForm trialId={trial.id} />
+          <MeasurementForm add={add} />
           <div className="space-y-4">
             <CsvImport trialId={trial.id} />
             <label className="block text-sm font-medium">

@@ -1,7 +1,7 @@
 import { formatNumber } from '../../../../shared/format';
 import { conditionsText, viewingLabel } from '../../../../shared/colour/conditions';
 import { IMAGE_ESTIMATE } from '../../../components/ViewingConditions';
-import { DRY_MASS_BASES, TRIAL_STATUSES, dryMassBasisLabels } from '../../../../shared/schemas/trial';
+import { DRY_MASS_BASES, TARGET_AIMS, TRIAL_STATUSES, dryMassBasisLabels } from '../../../../shared/schemas/trial';
 import { recipeMass } from '../../../../shared/compute/moisture';
 import { Field } from '../../../components/form/Field';
 import { Select } from '../../../components/form/Select';
@@ -20,6 +20,7 @@ export type TrialFormValues = {
   startedOn: string;
   notes: string;
   target: string; // "palette:12", "region:4" or ""
+  aim: string; // "as-made", "as-seen" or "": which state of the piece a region or reading target stands for
 };
 export type FieldErrors = Record<string, string[]> | undefined;
 
@@ -58,6 +59,8 @@ export const toTrialInput = (v: TrialFormValues) => {
     startedOn: v.startedOn || null,
     notes: v.notes || null,
     ...targetIds(v.target),
+    // A palette colour is not one side of a fading pair: the aim only goes with a region or a reading.
+    targetAim: (v.aim && /^(region|measurement):/.test(v.target) ? v.aim : null) as (typeof TARGET_AIMS)[number] | null,
   };
 };
 
@@ -206,6 +209,19 @@ export function TrialFields({
             }
           />
         </div>
+      ) : null}
+      {pieceId != null && /^(region|measurement):/.test(values.target) ? (
+        <Select
+          label="Aim at the piece"
+          value={values.aim}
+          onChange={set('aim')}
+          options={[
+            { value: '', label: 'Not said' },
+            { value: 'as-made', label: 'As made (the protected area)' },
+            { value: 'as-seen', label: 'As seen (the faded area)' },
+          ]}
+          error={errors?.targetAim}
+        />
       ) : null}
       <div className="sm:col-span-2">
         <TextAreaField label="Notes" value={values.notes} onChange={set('notes')} error={errors?.notes} />

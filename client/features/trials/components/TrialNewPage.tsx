@@ -11,7 +11,7 @@ import { pieceQuery } from '../../pieces';
 import { useCreateTrial } from '../api';
 import { TrialFields, toTrialInput, type TrialFormValues } from './TrialFields';
 
-/** /trials/new?pieceId=…[&target=region:4]: attach a new trial to a piece (aimed at a target), or start one on its own. */
+/** /trials/new?pieceId=…[&target=region:4][&aim=as-made]: attach a new trial to a piece (aimed at a target), or start one on its own. */
 export function TrialNewPage() {
   const [params] = useSearchParams();
   const pieceId = params.get('pieceId') ? Number(params.get('pieceId')) : null;
@@ -30,6 +30,7 @@ export function TrialNewPage() {
     notes: '',
     // From a link such as a fading pair's "aim a trial at it"; anything else in the address is ignored.
     target: /^(region|measurement|palette):\d+$/.test(params.get('target') ?? '') ? params.get('target')! : '',
+    aim: /^as-(made|seen)$/.test(params.get('aim') ?? '') ? params.get('aim')! : '',
   });
   const { formRef, errors, check, fromServer } = useFormErrors();
 

@@ -3,7 +3,7 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Button } from '../../../components/Button';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { Page } from '../../../components/Page';
-import { trialUpdateSchema } from '../../../../shared/schemas/trial';
+import { TARGET_AIM_WORDS, trialUpdateSchema } from '../../../../shared/schemas/trial';
 import { formMessage, useFormErrors } from '../../../lib/form';
 import { ApiError } from '../../../lib/http';
 import { paths } from '../../../paths';
@@ -33,6 +33,7 @@ const toValues = (t: TrialView): TrialFormValues => ({
       : t.target.measurementId
         ? `measurement:${t.target.measurementId}`
         : '',
+  aim: t.target.aim ?? '',
 });
 
 function DetailsEditor({ trial, onDone }: { trial: TrialView; onDone: () => void }) {
@@ -91,6 +92,7 @@ function Facts({ trial }: { trial: TrialView }) {
         '—'
       ),
     ],
+    ...(trial.target.aim ? [['Aimed at', TARGET_AIM_WORDS[trial.target.aim]] as [string, React.ReactNode]] : []),
     ['Dyer', trial.dyer?.name ?? '—'],
     ['Status', STATUS_WORDS[trial.status]],
     [
