@@ -12,6 +12,8 @@ import { PhotoPanel } from '../features/photos/components/PhotoPanel';
 import { UploadPanel } from '../features/photos/components/UploadPanel';
 import { paths } from '../paths';
 import { FadingPairs } from '../features/fading';
+import { AnalysesPanel, ConditionPanel, LightPanel } from '../features/records';
+import { useCan } from '../features/auth';
 
 export function PieceDetailPage() {
   const id = Number(useParams().id);
@@ -21,6 +23,7 @@ export function PieceDetailPage() {
   const restore = useRestorePiece(id);
   const navigate = useNavigate();
   const [showHistory, setShowHistory] = useState(false);
+  const signedIn = useCan()('condition:read');
   if (detail.isPending) return <p>Loading…</p>;
   if (detail.isError)
     return <Page title="Piece not found" lead="There is no such piece, or it is not published yet." />;
@@ -93,6 +96,20 @@ export function PieceDetailPage() {
           ))}
         </section>
         {can['piece:history'] ? <FadingPairs pieceId={id} canEdit={can['piece:update'] && !deleted} /> : null}
+        <AnalysesPanel
+          pieceId={id}
+          terms={[...piece.dyestuffs, ...piece.historicalMordants]}
+          regions={photos.flatMap((p, i) =>
+            p.regions.map((r) => ({ id: r.id, label: `photo ${i + 1}: ${r.label ?? r.purpose.replace('-', ' ')}` })),
+          )}
+        />
+        {signedIn ? (
+          <ConditionPanel
+            pieceId={id}
+            photos={photos.map((p, i) => ({ id: p.id, label: p.caption ?? `photo ${i + 1}` }))}
+          />
+        ) : null}
+        {signedIn ? <LightPanel pieceId={id} /> : null}
         {can['piece:history'] ? (
           <section>
             <h2 className="font-serif text-2xl">Edit history</h2>

@@ -12,7 +12,8 @@ import {
 } from 'sequelize';
 
 export type Evidence = 'attributed' | 'identified';
-export type EvidencedTerm = { name: string; evidence: Evidence };
+/** An identified term carries the analysis behind it (older rows may lack it). */
+export type EvidencedTerm = { name: string; evidence: Evidence; analysisId?: number | null };
 export type PieceStatus = 'draft' | 'published';
 
 export class Piece extends Model<InferAttributes<Piece>, InferCreationAttributes<Piece>> {

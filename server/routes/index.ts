@@ -20,6 +20,7 @@ import { batchesRouter } from './batches/index.ts';
 import { seriesRouter } from './series/index.ts';
 import { trialCardsRouter } from './trial-cards/index.ts';
 import { searchRouter } from './search/index.ts';
+import { analysesRouter, pieceRecordsRouter } from './records/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -41,6 +42,8 @@ export function apiRouter() {
   router.use('/pieces', pieceExportRouter);
   router.use('/pieces', piecesRouter);
   router.use('/pieces', pieceTrialsRouter);
+  router.use('/pieces', pieceRecordsRouter);
+  router.use('/analyses', analysesRouter);
   router.use('/photos', photosRouter);
   router.use('/vocabularies', vocabulariesRouter);
   router.use('/trials', trialsRouter);

@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Transaction } from 'sequelize';
 import { ROOT_DIR } from '../env.ts';
+import { seedDemoRecords } from './demo-records.ts';
 import {
   Chemical,
   Dyestuff,
@@ -86,6 +87,7 @@ export async function seedDemo(t: Transaction) {
   ) as PieceInput[];
   const pieces: Record<string, Piece> = {};
   for (const p of pieceRows) pieces[p.accessionNumber!] = await makePiece({ ...p, createdById: users.curator.id }, t);
+  await seedDemoRecords(t, { pieces, researcher: users.researcher, curator: users.curator });
 
   const alum = await chem('potash alum', t);
   const alAcetate = await chem('aluminium acetate (basic)', t);

@@ -1,7 +1,10 @@
 import sharp from 'sharp';
 import type { Transaction } from 'sequelize';
 import {
+  Analysis,
   BatchEvent,
+  ConditionReport,
+  DisplayPeriod,
   ColourMeasurement,
   FadingPair,
   MordantBatch,
@@ -290,6 +293,60 @@ export function makePaletteColour(attrs: Attrs<PaletteColour> & { photoId: numbe
       name: 'red',
       tradeName: null,
       background: false,
+      ...attrs,
+    },
+    { transaction },
+  );
+}
+
+/** An analysis of a piece (HPLC-DAD, described site, no findings, no report unless given). */
+export function makeAnalysis(attrs: Attrs<Analysis> & { pieceId: number }, transaction?: Transaction) {
+  return Analysis.create(
+    {
+      method: 'HPLC-DAD',
+      regionId: null,
+      site: 'loose thread from the lower edge',
+      laboratory: null,
+      analyst: null,
+      analysedOn: '2024-05-02',
+      notes: null,
+      findings: [],
+      reportSha256: null,
+      reportBytes: null,
+      reportName: null,
+      createdById: null,
+      ...attrs,
+    },
+    { transaction },
+  );
+}
+
+export function makeConditionReport(attrs: Attrs<ConditionReport> & { pieceId: number }, transaction?: Transaction) {
+  return ConditionReport.create(
+    {
+      assessedOn: '2024-01-15',
+      assessor: 'Test assessor',
+      state: 'stable',
+      notes: null,
+      photoIds: [],
+      regionIds: [],
+      createdById: null,
+      ...attrs,
+    },
+    { transaction },
+  );
+}
+
+export function makeDisplayPeriod(attrs: Attrs<DisplayPeriod> & { pieceId: number }, transaction?: Transaction) {
+  return DisplayPeriod.create(
+    {
+      fromDate: '2024-03-01',
+      toDate: '2024-03-31',
+      lux: 50,
+      hoursPerDay: 8,
+      uvMicrowattsPerLumen: null,
+      place: null,
+      createdById: null,
       ...attrs,
     },
     { transaction },

@@ -78,6 +78,22 @@ export function parseEvidenced(cell: string): Evidenced[] {
 }
 export const formatEvidenced = (list: Evidenced[]) => list.map((t) => `${t.name} (${t.evidence})`).join(LIST_SEPARATOR);
 
+/**
+ * "identified" stands on an analysis of the piece, which a CSV cannot carry: such a term is refused with the way
+ * round it (import it attributed, then mark it identified on the piece page with its analysis).
+ */
+const evidencedCell = z
+  .string()
+  .transform(parseEvidenced)
+  .superRefine((list, ctx) => {
+    const identified = list.filter((t) => t.evidence === 'identified').map((t) => t.name);
+    if (identified.length)
+      ctx.addIssue({
+        code: 'custom',
+        message: `${identified.join(', ')}: "identified" needs the analysis behind it. Import as "${identified[0]} (attributed)", then record the analysis and mark it identified on the piece page.`,
+      });
+  });
+
 /** Column mapping sent with an upload: CSV header → field (omitted headers map to a field of the same name). */
 export const columnMapping = z.record(z.string(), z.union([z.enum(PIECE_CSV_FIELDS), z.literal('')]));
 export type ColumnMapping = z.infer<typeof columnMapping>;
@@ -138,8 +154,8 @@ export const pieceImportRow = z
     widthMm: mm,
     repeatMm: mm,
     techniques: z.string().transform(splitList),
-    dyestuffs: z.string().transform(parseEvidenced),
-    historicalMordants: z.string().transform(parseEvidenced),
+    dyestuffs: evidencedCell,
+    historicalMordants: evidencedCell,
     description: text(20_000),
     provenance: text(20_000),
     condition: text(20_000),

@@ -14,6 +14,7 @@ import type { Role } from '../../shared/roles.ts';
 import { DEFAULT_TOLERANCES } from '../../shared/compute/chart.ts';
 import { CHART_1976 } from '../../shared/data/colour-chart-1976.ts';
 import { chartPhoto } from './chart-image.ts';
+import { recordRows } from './route-matrix-records.ts';
 
 /**
  * The role × route matrix: one row per API route, with the status class each
@@ -577,4 +578,5 @@ export const routeMatrix: MatrixRow[] = [
 
   row('GET /api/search', everyone('2xx'), { setup: async () => ({ query: { q: 'madder' } }) }),
   row('GET /api/search/shade', everyone('2xx'), { setup: async () => ({ query: { hex: '9b2f2f', maxDeltaE: '5' } }) }),
+  ...recordRows,
 ];

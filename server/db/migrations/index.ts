@@ -22,6 +22,7 @@ import * as m0025pieceListLoad from './0025-piece-list-load.ts';
 import * as m0026spectrum from './0026-measurement-spectrum.ts';
 import * as m0027photoChart from './0027-photo-chart.ts';
 import * as m0029fadingPairs from './0029-fading-pairs.ts';
+import * as m0030records from './0030-analyses-condition-displays.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -49,4 +50,5 @@ export const migrations: Migration[] = [
   { name: '0026-measurement-spectrum', ...m0026spectrum },
   { name: '0027-photo-chart', ...m0027photoChart },
   { name: '0029-fading-pairs', ...m0029fadingPairs },
+  { name: '0030-analyses-condition-displays', ...m0030records },
 ];

@@ -20,6 +20,7 @@ import photos from './photos.ts';
 import search from './search.ts';
 import iiif from './iiif.ts';
 import media from './media.ts';
+import records from './records.ts';
 
 // One import per route group, in the order of server/routes/index.ts (then /iiif and /media, mounted in server/app.ts).
 export const groups: RouteGroup[] = [
@@ -34,6 +35,7 @@ export const groups: RouteGroup[] = [
   importGroup,
   exportGroup,
   pieces,
+  records,
   photos,
   reference,
   vocabularies,

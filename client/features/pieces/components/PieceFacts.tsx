@@ -2,6 +2,26 @@ import type { ReactNode } from 'react';
 import type { Piece } from '../api';
 import { yearsOf } from './ArchiveTable';
 
+/** "madder (identified)" links to the analysis behind it, further down the page. */
+function Evidenced({ list }: { list: Piece['dyestuffs'] }) {
+  return (
+    <>
+      {list.map((d, i) => (
+        <span key={d.name}>
+          {i ? '; ' : ''}
+          {d.evidence === 'identified' && d.analysisId ? (
+            <a className="text-action hover:underline" href={`#analysis-${d.analysisId}`}>
+              {d.name} (identified)
+            </a>
+          ) : (
+            `${d.name} (${d.evidence})`
+          )}
+        </span>
+      ))}
+    </>
+  );
+}
+
 const mm = (v: number | null) => (v == null ? null : `${v} mm`);
 
 /** The catalogue fields of a piece as a definition list; empty fields are left out. */
@@ -23,13 +43,8 @@ export function PieceFacts({ piece }: { piece: Piece }) {
     ],
     ['Pattern repeat', piece.repeatMm != null ? <span className="num">{mm(piece.repeatMm)}</span> : null],
     ['Techniques', piece.techniques.join(', ') || null],
-    ['Dyestuffs', piece.dyestuffs.length ? piece.dyestuffs.map((d) => `${d.name} (${d.evidence})`).join('; ') : null],
-    [
-      'Historical mordants',
-      piece.historicalMordants.length
-        ? piece.historicalMordants.map((d) => `${d.name} (${d.evidence})`).join('; ')
-        : null,
-    ],
+    ['Dyestuffs', piece.dyestuffs.length ? <Evidenced list={piece.dyestuffs} /> : null],
+    ['Historical mordants', piece.historicalMordants.length ? <Evidenced list={piece.historicalMordants} /> : null],
     ['Description', piece.description],
     ['Provenance', piece.provenance],
     ['Condition', piece.condition],

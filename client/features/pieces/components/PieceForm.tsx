@@ -5,7 +5,7 @@ import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { useFormErrors } from '../../../lib/form';
 import { useVocabularies } from '../../vocabularies';
-import type { Piece } from '../api';
+import { usePieceAnalysisChoices, type Piece } from '../api';
 import { EvidencedList, TermChecklist, TextAreaField, type Evidenced } from './FormBits';
 
 type Text = Record<
@@ -88,6 +88,7 @@ export function PieceForm({
   onSubmit: (input: PieceCreateInput) => Promise<unknown>;
 }) {
   const vocab = useVocabularies().data;
+  const analyses = usePieceAnalysisChoices(piece?.id).data ?? [];
   const [state, setState] = useState<State>(() => initial(piece));
   const { formRef, errors, check, fromServer } = useFormErrors();
   const [formError, setFormError] = useState<string | null>(null);
@@ -220,6 +221,7 @@ export function PieceForm({
           field="dyestuffs"
           suggestions={vocab?.dyestuffs.map((d) => d.name) ?? []}
           value={state.dyestuffs}
+          analyses={analyses}
           onChange={(v) => set('dyestuffs', v)}
           errors={errors}
         />
@@ -229,6 +231,7 @@ export function PieceForm({
           hint="What the maker used, for the record; several were toxic (lead, chromium, tin, arsenic). Trials record the safer substitutes."
           suggestions={vocab?.mordants.map((m) => m.name) ?? []}
           value={state.historicalMordants}
+          analyses={analyses}
           onChange={(v) => set('historicalMordants', v)}
           errors={errors}
         />
