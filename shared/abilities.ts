@@ -8,6 +8,7 @@ export const ACTIONS = [
   'piece:delete',
   'piece:restore',
   'piece:history',
+  'piece:see-storage',
   'photo:create',
   'photo:update',
   'photo:delete',

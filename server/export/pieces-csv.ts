@@ -37,6 +37,10 @@ export function pieceCells(p: Piece): Record<PieceCsvField, string> {
     condition: s(p.condition),
     creditLine: s(p.creditLine),
     status: p.status,
+    patternName: s(p.patternName),
+    storageLocation: s(p.storageLocation),
+    objectRights: s(p.objectRights),
+    imageRights: s(p.imageRights),
   };
 }
 

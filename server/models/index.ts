@@ -12,6 +12,7 @@ import { AppSetting } from './settings.ts';
 import { RateLimit } from './rate-limit.ts';
 import { FadingPair } from './fading.ts';
 import { initRecordModels, Analysis, ConditionReport, DisplayPeriod } from './records.ts';
+import { initSavedSearchModel, SavedSearch } from './saved-search.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -26,6 +27,7 @@ AppSetting.initModel(sequelize);
 RateLimit.initModel(sequelize);
 FadingPair.initModel(sequelize);
 initRecordModels(sequelize);
+initSavedSearchModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -64,6 +66,7 @@ FadingPair.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId', constraints: f
 Analysis.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
 ConditionReport.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
 DisplayPeriod.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
+SavedSearch.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 
 export {
   sequelize,
@@ -86,6 +89,7 @@ export {
   Session,
   AuthToken,
   Job,
+  SavedSearch,
   AppSetting,
   RateLimit,
   FadingPair,

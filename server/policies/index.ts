@@ -35,6 +35,8 @@ const rules: Record<Action, Rule> = {
   'piece:delete': roleIn('curator'),
   'piece:restore': () => false,
   'piece:history': roleIn('curator', 'researcher'),
+  // Where a piece is kept is for the team only: never in a visitor's answer, IIIF or the public Dublin Core record.
+  'piece:see-storage': everyoneSignedIn,
   'photo:create': roleIn('curator'),
   'photo:update': roleIn('curator'),
   'photo:delete': roleIn('curator'),

@@ -21,6 +21,8 @@ import { seriesRouter } from './series/index.ts';
 import { trialCardsRouter } from './trial-cards/index.ts';
 import { searchRouter } from './search/index.ts';
 import { analysesRouter, pieceRecordsRouter } from './records/index.ts';
+import { homeRouter } from './home/index.ts';
+import { savedSearchesRouter } from './saved-searches/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -52,5 +54,7 @@ export function apiRouter() {
   router.use('/series', seriesRouter);
   router.use('/trials', trialCardsRouter);
   router.use('/search', searchRouter);
+  router.use('/home', homeRouter);
+  router.use('/saved-searches', savedSearchesRouter);
   return router;
 }

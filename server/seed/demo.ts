@@ -20,6 +20,7 @@ import {
   makeBatchEvent,
   makeMeasurement,
   makePiece,
+  makeSavedSearch,
   makeRecipeStep,
   makeSeries,
   makeSubstitution,
@@ -673,6 +674,14 @@ export async function seedDemo(t: Transaction) {
       ],
     );
   }
+  // Saved searches on the home pages (issue 19): the /search page's own query strings.
+  for (const [who, name, query] of [
+    ['researcher', 'Madder on cotton', 'dyestuff=madder&fibre=cotton'],
+    ['researcher', 'Reds near the bed hanging', 'hex=a53a2d&maxDeltaE=8'],
+    ['curator', 'Calderwick drafts', 'q=Calderwick&status=draft'],
+    ['dyer', 'Weld greens', 'q=weld'],
+  ] as const)
+    await makeSavedSearch({ userId: users[who].id, name, query }, t);
   await seedDemoPhotos(t, { pieces, trials, curator: users.curator, dyer: users.dyer });
   return { users, pieces, trials, batches: { mb07, mb08, mb09 }, series };
 }

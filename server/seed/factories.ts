@@ -17,6 +17,7 @@ import {
   TrialSeries,
   User,
   sequelize,
+  SavedSearch,
 } from '../models/index.ts';
 import type { Role } from '../../shared/roles.ts';
 import { hashPassword } from '../auth/passwords.ts';
@@ -73,6 +74,12 @@ export async function makePiece(attrs: PieceInput = {}, transaction?: Transactio
       condition: null,
       creditLine: null,
       status: 'draft',
+      makers: [],
+      patternName: null,
+      marks: [],
+      storageLocation: null,
+      objectRights: null,
+      imageRights: null,
       createdById: null,
       ...attrs,
     },
@@ -351,4 +358,10 @@ export function makeDisplayPeriod(attrs: Attrs<DisplayPeriod> & { pieceId: numbe
     },
     { transaction },
   );
+}
+
+/** A saved search of one person (words only unless told). */
+export function makeSavedSearch(attrs: Attrs<SavedSearch> & { userId: number }, transaction?: Transaction) {
+  const n = next();
+  return SavedSearch.create({ name: `Saved search ${n}`, query: 'q=madder', ...attrs }, { transaction });
 }

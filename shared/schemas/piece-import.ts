@@ -3,6 +3,7 @@ import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } fr
 import '../messages.ts';
 import { dateIssues, edtfYears, YEAR_MAX, YEAR_MIN } from '../edtf.ts';
 import { pageQuery, paged } from './common.ts';
+import { RIGHTS_MESSAGE, RIGHTS_URI_PATTERN, canonicalRights } from '../rights.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).
 export const PIECE_CSV_FIELDS = [
@@ -28,6 +29,11 @@ export const PIECE_CSV_FIELDS = [
   'condition',
   'creditLine',
   'status',
+  // Curatorial fields (issue 19) that fit one cell; makers and marks are lists of records and stay out of the CSV.
+  'patternName',
+  'storageLocation',
+  'objectRights',
+  'imageRights',
 ] as const;
 export type PieceCsvField = (typeof PIECE_CSV_FIELDS)[number];
 export const REQUIRED_PIECE_FIELDS: readonly PieceCsvField[] = ['accessionNumber', 'objectName', 'title'];
@@ -55,6 +61,10 @@ export const FIELD_LABELS: Record<PieceCsvField, string> = {
   condition: 'Condition',
   creditLine: 'Credit line',
   status: 'Status',
+  patternName: 'Pattern name',
+  storageLocation: 'Storage location',
+  objectRights: 'Object rights',
+  imageRights: 'Image rights',
 };
 
 /** Lists in one cell are separated by semicolons; evidence follows a term in brackets: "madder (identified)". */
@@ -104,6 +114,9 @@ const text = (max: number) =>
     .trim()
     .max(max, `At most ${max} characters.`)
     .transform((s) => (s === '' ? null : s));
+const rightsCell = text(255)
+  .refine((v) => v === null || RIGHTS_URI_PATTERN.test(v), `${RIGHTS_MESSAGE}.`)
+  .transform((v) => (v === null ? null : canonicalRights(v)));
 const required = (max: number, what: string) =>
   z.string().trim().min(1, `${what} is required.`).max(max, `At most ${max} characters.`);
 const year = z
@@ -166,6 +179,10 @@ export const pieceImportRow = z
       .toLowerCase()
       .transform((s) => (s === '' ? 'draft' : s))
       .pipe(z.enum(['draft', 'published'], { error: 'Status is draft or published.' })),
+    patternName: text(160),
+    storageLocation: text(160),
+    objectRights: rightsCell,
+    imageRights: rightsCell,
   })
   .transform((row, ctx) => {
     // The same date rules as the form and the API (shared/edtf.ts); years come from the EDTF date when not given.

@@ -5,6 +5,7 @@ import { dateIssues, YEAR_MAX, YEAR_MIN, type DateFields } from '../edtf.ts';
 import { paged, pageQuery } from './common.ts';
 import { photoSchema } from './photo.ts';
 import { lightDoseSchema } from './records.ts';
+import { curatorialFields, curatorialOut } from './curatorial.ts';
 
 export { ACCESSION_PATTERN } from '../accession.ts';
 
@@ -90,6 +91,7 @@ const pieceFields = {
   condition: optionalText(10_000),
   creditLine: optionalText(255),
   status: z.enum(PIECE_STATUSES).optional(),
+  ...curatorialFields,
 };
 
 export { dateIssues };
@@ -168,6 +170,7 @@ export const pieceSchema = z.object({
   condition: z.string().nullable(),
   creditLine: z.string().nullable(),
   status: z.enum(PIECE_STATUSES),
+  ...curatorialOut,
   deletedAt: z.iso.datetime().nullable(),
   createdAt: z.iso.datetime(),
   updatedAt: z.iso.datetime(),

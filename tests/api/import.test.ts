@@ -147,6 +147,10 @@ describe('CSV import of pieces', () => {
       'condition',
       'creditLine',
       'status',
+      'patternName',
+      'storageLocation',
+      'objectRights',
+      'imageRights',
     ] as const;
     for (const [i, piece] of after.entries()) {
       for (const f of fields) expect([f, piece.get(f)]).toEqual([f, before[i][f]]);

@@ -21,6 +21,8 @@ import search from './search.ts';
 import iiif from './iiif.ts';
 import media from './media.ts';
 import records from './records.ts';
+import home from './home.ts';
+import savedSearches from './saved-searches.ts';
 
 // One import per route group, in the order of server/routes/index.ts (then /iiif and /media, mounted in server/app.ts).
 export const groups: RouteGroup[] = [
@@ -44,6 +46,8 @@ export const groups: RouteGroup[] = [
   batches,
   series,
   search,
+  home,
+  savedSearches,
   iiif,
   media,
 ];

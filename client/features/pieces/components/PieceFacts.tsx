@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import type { Piece } from '../api';
 import { yearsOf } from './ArchiveTable';
+import { curatorialFacts } from './curatorialFacts';
 
 /** "madder (identified)" links to the analysis behind it, further down the page. */
 function Evidenced({ list }: { list: Piece['dyestuffs'] }) {
@@ -49,6 +50,7 @@ export function PieceFacts({ piece }: { piece: Piece }) {
     ['Provenance', piece.provenance],
     ['Condition', piece.condition],
     ['Credit line', piece.creditLine],
+    ...curatorialFacts(piece),
   ];
   return (
     <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[12rem_1fr] text-sm">
