@@ -82,7 +82,8 @@ export function PieceDetailPage() {
           {error.message}
         </p>
       ) : null}
-      <div className="grid gap-8">
+      {/* minmax(0, 1fr): a wide table (display periods, findings) scrolls in its own box instead of widening the page. */}
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-8">
         <PieceFacts piece={piece} />
         {!deleted ? (
           <PieceShareLinks pieceId={id} published={piece.status === 'published'} hasPhotos={photos.length > 0} />
