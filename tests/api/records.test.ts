@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
+import { parse } from 'csv-parse/sync';
 import { createApp } from '../../server/app.ts';
 import { AuditEvent, sequelize } from '../../server/models/index.ts';
 import { makeDisplayPeriod, makePhoto, makePiece, makeRegion } from '../../server/seed/factories.ts';
@@ -225,6 +226,12 @@ describe('condition reports', () => {
       where: { entity: 'piece', entityId: piece.id, action: 'condition-reported' },
     });
     expect(events).toHaveLength(2);
+    // The CSV export carries them too, newest first, in one cell (export-only: the import ignores the column).
+    const csv = (await curator.get('/api/export/pieces.csv').buffer(true).expect(200)).text;
+    const rows: Array<Record<string, string>> = parse(csv, { columns: true });
+    expect(rows.find((r) => r.accessionNumber === piece.accessionNumber)?.conditionReports).toBe(
+      '2024-02-06: fair, stable (H. Quill); 2019-05-14: fair (H. Quill)',
+    );
     const other = await makePiece();
     const { photo: foreign } = await makePhoto({ pieceId: other.id });
     const bad = await curator
