@@ -5,11 +5,9 @@ import { savedSearchSchema } from './saved-search.ts';
 
 // GET /api/home: the signed-in person's landing page, one answer per role (server/routes/home). Each section says how
 // many there are in all (`total`) and lists the first few, newest or most urgent first; the client links each row
-// to its page through client/paths.ts. A section whose data the app does not record yet says so with
-// `available: false` and the page shows a named empty state instead of a count.
+// to its page through client/paths.ts.
 
 const section = <T extends z.ZodType>(item: T) => z.object({ total: z.number().int().min(0), items: z.array(item) });
-const notYet = z.object({ available: z.literal(false), reason: z.string() });
 
 export const homePieceSchema = z.object({
   id: z.number(),
@@ -82,18 +80,47 @@ export const homeJobsSchema = z.object({
   ),
 });
 
+/** A piece whose light exposure has used much of its allowance (this year's, or all years' since its first display). */
+export const homeLightSchema = z.object({
+  id: z.number(),
+  accessionNumber: z.string(),
+  title: z.string(),
+  categoryLabel: z.string(),
+  luxHours: z.number(),
+  /** Share of this calendar year's allowance used (1 = all of it). */
+  thisYearUsed: z.number(),
+  /** Share of the allowance of every year since the first display used. */
+  totalUsed: z.number(),
+});
+export const homeAnalysisSchema = z.object({
+  id: z.number(),
+  pieceId: z.number(),
+  accessionNumber: z.string(),
+  title: z.string(),
+  method: z.string(),
+  analysedOn: z.string(),
+  laboratory: z.string().nullable(),
+  findings: z.number().int(),
+  mine: z.boolean(),
+});
+/**
+ * "Near" its allowance: this share of this year's, or of all years', allowance used. 80 % is this product's choice (a
+ * warning while there is still room to plan), not a figure from a standard.
+ */
+export const NEAR_ALLOWANCE = 0.8;
+
 const savedSearches = section(savedSearchSchema);
 
 export const curatorHomeSchema = z.object({
   role: z.literal('curator'),
   drafts: section(homePieceSchema),
   photosWithoutReference: section(homePhotoSchema),
-  lightAllowance: notYet,
+  lightAllowance: section(homeLightSchema),
   savedSearches,
 });
 export const researcherHomeSchema = z.object({
   role: z.literal('researcher'),
-  recentAnalyses: notYet,
+  recentAnalyses: section(homeAnalysisSchema),
   savedSearches,
 });
 export const dyerHomeSchema = z.object({

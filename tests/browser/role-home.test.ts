@@ -1,11 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
+import { makeAnalysis, makeDisplayPeriod, makePiece } from '../../server/seed/factories.ts';
 import { signInAs } from '../support/browser.ts';
 import { useBrowserSuite } from '../support/browser-suite.ts';
 import { testEnv } from '../support/env.ts';
 
 // Issue 19: each role lands on its own work at /. Each demo role signs in, sees its sections, follows a link, and
-// the page scrolls sideways neither at 1280 nor at 390 px.
+// the page scrolls sideways neither at 1280, 768 nor 390 px.
 const suite = useBrowserSuite();
 
 const SECTIONS: Record<string, string[]> = {
@@ -16,7 +17,7 @@ const SECTIONS: Record<string, string[]> = {
 };
 
 async function noOverflow(page: Page, role: string) {
-  for (const width of [1280, 390]) {
+  for (const width of [1280, 768, 390]) {
     await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
     await page.waitForTimeout(100);
     const scroll = await page.evaluate(() => document.documentElement.scrollWidth);
@@ -38,20 +39,50 @@ async function homeAs(role: string) {
 }
 
 describe('a home page per role', () => {
-  it('curator: drafts to publish (a draft opens its piece), photos without a reference patch, light allowance not yet', async () => {
+  it('curator: drafts to publish (a draft opens its piece), photos without a reference patch, pieces near their light allowance', async () => {
+    // Weld (high responsivity, 15 000 lx·h a year in shared/data/light-sensitivity.ts) at 50 lx, 8 h a day for 40 days
+    // of this year: 16 000 lx·h, 107 % of this year's allowance.
+    const year = new Date().getUTCFullYear();
+    const lit = await makePiece({
+      title: `Near its light allowance ${Date.now() % 100000}`,
+      dyestuffs: [{ name: 'weld', evidence: 'attributed' }],
+    });
+    await makeDisplayPeriod({
+      pieceId: lit.id,
+      fromDate: `${year}-01-01`,
+      toDate: `${year}-02-09`,
+      lux: 50,
+      hoursPerDay: 8,
+    });
     const page = await homeAs('curator');
     const drafts = page.getByTestId('home-drafts');
     expect(await drafts.locator('li').count()).toBeGreaterThan(0);
-    expect(await page.getByTestId('home-light').textContent()).toMatch(/Light exposure is not recorded/);
+    const light = page.getByTestId('home-light').locator('li', { hasText: lit.accessionNumber });
+    expect(await light.textContent()).toMatch(/107 % of this year/);
+    await light.getByRole('link').click();
+    await page.waitForURL(new RegExp(`/archive/${lit.id}#light-h$`));
+    await page.getByRole('heading', { name: 'Light exposure' }).waitFor();
+    await page.goto(suite.server.url, { waitUntil: 'networkidle' });
     await drafts.locator('li a').first().click();
     await page.waitForURL(/\/archive\/\d+$/);
     await page.locator('main h1').first().waitFor();
     await page.close();
   });
 
-  it('researcher: analyses not yet, saved searches that open Find again; a search saved on Find appears', async () => {
+  it('researcher: recent analyses (one opens its piece), saved searches that open Find again; a search saved on Find appears', async () => {
+    const analysed = await makePiece({ title: `Analysed ${Date.now() % 100000}` });
+    const analysis = await makeAnalysis({
+      pieceId: analysed.id,
+      method: 'Raman',
+      analysedOn: new Date().toISOString().slice(0, 10),
+    });
     const page = await homeAs('researcher');
-    expect(await page.getByTestId('home-analyses').textContent()).toMatch(/Analyses are not recorded/);
+    const analyses = page.getByTestId('home-analyses');
+    await analyses.getByRole('link', { name: `Raman of ${analysed.accessionNumber} ${analysed.title}` }).click();
+    await page.waitForURL(new RegExp(`/archive/${analysed.id}#analysis-${analysis.id}$`));
+    await page.waitForURL(/\/archive\/\d+#analysis-\d+$/);
+    await page.getByRole('heading', { name: 'Analyses' }).waitFor();
+    await page.goto(suite.server.url, { waitUntil: 'networkidle' });
     await page.getByTestId('home-saved-searches').getByRole('link', { name: 'Madder on cotton' }).click();
     await page.waitForURL(/\/search\?dyestuff=madder&fibre=cotton$/);
     await page.getByTestId('result-count').filter({ hasText: /piece/ }).waitFor();

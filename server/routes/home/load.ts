@@ -1,15 +1,19 @@
 import { Op, QueryTypes } from 'sequelize';
 import {
   HOME_LIST_SIZE,
+  NEAR_ALLOWANCE,
   type AdminHome,
   type CuratorHome,
   type DyerHome,
   type HomeResponse,
+  type ResearcherHome,
 } from '../../../shared/schemas/home.ts';
 import type { Role } from '../../../shared/roles.ts';
 import { FIXITY_JOB } from '../../jobs/handlers/fixity-check.ts';
 import {
+  Analysis,
   AuthToken,
+  DisplayPeriod,
   Job,
   MordantBatch,
   Photo,
@@ -21,6 +25,7 @@ import {
 } from '../../models/index.ts';
 import { presentSavedSearch } from '../../presenters/saved-search.ts';
 import { dueForCheck } from '../../services/batches/index.ts';
+import { asInput, doseOf } from '../../services/records/displays.ts';
 import { fixityReportSchema } from '../../../shared/schemas/fixity.ts';
 
 // Each section is one count and one short list (or one GROUP BY), all run side by side: a fixed handful of
@@ -42,11 +47,81 @@ async function savedSearchesOf(me: Me) {
   return { total: count, items: rows.map(presentSavedSearch) };
 }
 
+/**
+ * Pieces near their light allowance (NEAR_ALLOWANCE of this year's or of all years' allowance used), most used first.
+ * Two queries: every display period (a short table beside pieces: a piece has a few a decade), then the pieces that
+ * have any; each piece's dose is the piece page's own (services/records/displays.ts, doseOf).
+ */
+async function nearLightAllowance(): Promise<CuratorHome['lightAllowance']> {
+  const periods = await DisplayPeriod.findAll({
+    attributes: ['pieceId', 'fromDate', 'toDate', 'lux', 'hoursPerDay'],
+    order: [['id', 'ASC']],
+  });
+  if (!periods.length) return { total: 0, items: [] };
+  const byPiece = new Map<number, DisplayPeriod[]>();
+  for (const d of periods) byPiece.set(d.pieceId, [...(byPiece.get(d.pieceId) ?? []), d]);
+  // Only pieces still in the archive (Piece is paranoid).
+  const pieces = await Piece.findAll({
+    where: { id: [...byPiece.keys()] },
+    attributes: ['id', 'accessionNumber', 'title', 'dyestuffs'],
+  });
+  const near = pieces
+    .map((p) => {
+      const dose = doseOf(p, byPiece.get(p.id)!.map(asInput));
+      return {
+        id: p.id,
+        accessionNumber: p.accessionNumber,
+        title: p.title,
+        categoryLabel: dose.categoryLabel,
+        luxHours: dose.luxHours,
+        thisYearUsed: dose.thisYear.usedFraction ?? 0,
+        totalUsed: dose.totalUsedFraction ?? 0,
+      };
+    })
+    .filter((x) => x.thisYearUsed >= NEAR_ALLOWANCE || x.totalUsed >= NEAR_ALLOWANCE)
+    .sort(
+      (a, b) =>
+        Math.max(b.thisYearUsed, b.totalUsed) - Math.max(a.thisYearUsed, a.totalUsed) ||
+        a.accessionNumber.localeCompare(b.accessionNumber),
+    );
+  return { total: near.length, items: near.slice(0, N) };
+}
+
+/** The newest analyses of pieces still in the archive (by date analysed, then as recorded), the reader's own marked. */
+async function recentAnalyses(me: Me): Promise<ResearcherHome['recentAnalyses']> {
+  const { rows, count } = await Analysis.findAndCountAll({
+    attributes: ['id', 'pieceId', 'method', 'analysedOn', 'laboratory', 'findings', 'createdById'],
+    include: [{ model: Piece, as: 'piece', attributes: ['id', 'accessionNumber', 'title'], required: true }],
+    order: [
+      ['analysedOn', 'DESC'],
+      ['id', 'DESC'],
+    ],
+    limit: N,
+  });
+  return {
+    total: count,
+    items: rows.map((a) => {
+      const piece = (a as Analysis & { piece: Piece }).piece;
+      return {
+        id: a.id,
+        pieceId: piece.id,
+        accessionNumber: piece.accessionNumber,
+        title: piece.title,
+        method: a.method,
+        analysedOn: a.analysedOn,
+        laboratory: a.laboratory,
+        findings: a.findings.length,
+        mine: a.createdById === me.id,
+      };
+    }),
+  };
+}
+
 async function curatorHome(me: Me): Promise<CuratorHome> {
   const photoWhere = { pieceId: { [Op.ne]: null }, referencePatch: { [Op.is]: null } };
   // Only photos of pieces still in the archive (the inner join leaves out deleted pieces: Piece is paranoid).
   const pieceJoin = { model: Piece, as: 'piece', attributes: ['id', 'accessionNumber', 'title'], required: true };
-  const [drafts, photos, photoCount, savedSearches] = await Promise.all([
+  const [drafts, photos, photoCount, lightAllowance, savedSearches] = await Promise.all([
     Piece.findAndCountAll({
       where: { status: 'draft' },
       attributes: ['id', 'accessionNumber', 'title', 'updatedAt'],
@@ -64,6 +139,7 @@ async function curatorHome(me: Me): Promise<CuratorHome> {
       limit: N,
     }),
     Photo.count({ where: photoWhere, include: [pieceJoin] }),
+    nearLightAllowance(),
     savedSearchesOf(me),
   ]);
   return {
@@ -91,8 +167,7 @@ async function curatorHome(me: Me): Promise<CuratorHome> {
         };
       }),
     },
-    // Light exposure is built on another branch; until it is on main the page shows a named empty state.
-    lightAllowance: { available: false, reason: 'Light exposure is not recorded in this version of Tinctoria yet.' },
+    lightAllowance,
     savedSearches,
   };
 }
@@ -262,12 +337,9 @@ export async function loadHome(me: Me): Promise<HomeResponse> {
       return dyerHome(me);
     case 'admin':
       return adminHome(me);
-    case 'researcher':
-      return {
-        role: 'researcher',
-        // Analyses are built on another branch; until they are on main the page shows a named empty state.
-        recentAnalyses: { available: false, reason: 'Analyses are not recorded in this version of Tinctoria yet.' },
-        savedSearches: await savedSearchesOf(me),
-      };
+    case 'researcher': {
+      const [analyses, savedSearches] = await Promise.all([recentAnalyses(me), savedSearchesOf(me)]);
+      return { role: 'researcher', recentAnalyses: analyses, savedSearches };
+    }
   }
 }

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import type { AdminHome, CuratorHome, DyerHome, HomeResponse, ResearcherHome } from '../../../../shared/schemas/home';
 import { formatDate, formatDateTime } from '../../../../shared/format';
+import { NEAR_ALLOWANCE } from '../../../../shared/schemas/home';
 import { paths } from '../../../paths';
 import { SavedSearchLinks } from '../../saved-searches';
 import { useHome } from '../api';
@@ -30,10 +31,57 @@ function SavedSearches({ data }: { data: HomeResponse['savedSearches'] }) {
   );
 }
 
-function NotYet({ title, reason, testId }: { title: string; reason: string; testId: string }) {
+const percent = (x: number) => `${Math.round(x * 100)} %`;
+const lxh = (n: number) => `${Math.round(n).toLocaleString('en-GB').replace(/,/g, ' ')} lx·h`;
+
+function LightAllowance({ data }: { data: CuratorHome['lightAllowance'] }) {
   return (
-    <Panel title={title} testId={testId}>
-      <Empty>{reason}</Empty>
+    <Panel title="Pieces near their light allowance" total={data.total} testId="home-light">
+      {data.items.length ? (
+        <Rows>
+          {data.items.map((p) => (
+            <li key={p.id} className="flex flex-wrap justify-between gap-x-2">
+              <Link to={`${paths.piece(p.id)}#light-h`} className="min-w-0 text-action hover:underline">
+                {piece(p.accessionNumber, p.title)}
+              </Link>
+              <span className={`num ${Math.max(p.thisYearUsed, p.totalUsed) >= 1 ? 'text-danger' : 'text-ink-soft'}`}>
+                {percent(p.thisYearUsed)} of this year · {percent(p.totalUsed)} of all years ({p.categoryLabel},{' '}
+                {lxh(p.luxHours)})
+              </span>
+            </li>
+          ))}
+        </Rows>
+      ) : (
+        <Empty>
+          No piece has used {percent(NEAR_ALLOWANCE)} of its light allowance (this year or all years since its first
+          display).
+        </Empty>
+      )}
+    </Panel>
+  );
+}
+
+function RecentAnalyses({ data }: { data: ResearcherHome['recentAnalyses'] }) {
+  return (
+    <Panel title="Recent analyses" total={data.total} testId="home-analyses">
+      {data.items.length ? (
+        <Rows>
+          {data.items.map((a) => (
+            <li key={a.id} className="flex flex-wrap justify-between gap-x-2">
+              <Link to={`${paths.piece(a.pieceId)}#analysis-${a.id}`} className="min-w-0 text-action hover:underline">
+                {a.method} of {piece(a.accessionNumber, a.title)}
+              </Link>
+              <span className="text-ink-soft">
+                {a.analysedOn}
+                {a.laboratory ? ` · ${a.laboratory}` : ''} · {a.findings} {a.findings === 1 ? 'finding' : 'findings'}
+                {a.mine ? ' · mine' : ''}
+              </span>
+            </li>
+          ))}
+        </Rows>
+      ) : (
+        <Empty>No analyses yet: record one on a piece's page, under Analyses.</Empty>
+      )}
     </Panel>
   );
 }
@@ -85,7 +133,7 @@ function Curator({ home }: { home: CuratorHome }) {
           <Empty>Every photo has a reference patch for its colour correction.</Empty>
         )}
       </Panel>
-      <NotYet title="Pieces near their light allowance" reason={home.lightAllowance.reason} testId="home-light" />
+      <LightAllowance data={home.lightAllowance} />
       <SavedSearches data={home.savedSearches} />
     </>
   );
@@ -94,7 +142,7 @@ function Curator({ home }: { home: CuratorHome }) {
 function Researcher({ home }: { home: ResearcherHome }) {
   return (
     <>
-      <NotYet title="Recent analyses" reason={home.recentAnalyses.reason} testId="home-analyses" />
+      <RecentAnalyses data={home.recentAnalyses} />
       <SavedSearches data={home.savedSearches} />
     </>
   );
