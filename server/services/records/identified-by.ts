@@ -4,9 +4,9 @@ import { sequelize } from '../../models/index.ts';
 /**
  * The "identified by" facet's values: for each piece, the methods of the analyses its identified dyestuffs and
  * mordants point at (not every analysis of the piece: an XRF that found nothing identifies nothing). For the
- * search index (server/search/, kept by the lead); MariaDB 10.6+ for JSON_TABLE.
- * A piece's value changes when its dyestuffs or mordants change (a Piece write, already logged for search) and
- * when an analysis they cite changes its method (PATCH /api/analyses/:id: Analysis afterUpdate, to be logged).
+ * search index the same rule is worked out in server/search/docs.ts from rows it reads anyway; MariaDB 10.6+ for
+ * JSON_TABLE. A piece's value changes when its dyestuffs or mordants change (a Piece write) and when an analysis they
+ * cite changes its method (PATCH /api/analyses/:id): server/search/hooks.ts logs both for search.
  */
 export const IDENTIFIED_BY_SQL = `
 SELECT DISTINCT p.id AS pieceId, a.method AS method
