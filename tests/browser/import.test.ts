@@ -22,7 +22,8 @@ describe('importing a spreadsheet catalogue in Chromium', () => {
     await page.getByLabel('Field for column Dyes').selectOption('dyestuffs');
     await page.getByRole('button', { name: 'Check every row' }).click();
     await expect.poll(() => page.getByTestId('import-summary').textContent()).toMatch(/2 rows: 1 ready, 1 with errors/);
-    await expect(page.getByRole('table').last().textContent()).resolves.toContain('Unknown dyestuff "unobtainium".');
+    // The rows with errors are asked of the server after the counts (only=invalid, a page at a time): wait for them.
+    await expect.poll(() => page.getByRole('table').last().textContent()).toContain('Unknown dyestuff "unobtainium".');
     expect(await page.getByRole('button', { name: /^Import/ }).isDisabled()).toBe(true);
 
     const good = bad.replace('unobtainium', 'weld (attributed)');
