@@ -118,8 +118,8 @@ export function LightPanel({ pieceId }: { pieceId: number }) {
             <tbody className="num">
               {items.map((d) => (
                 <tr key={d.id}>
-                  <td className="pr-4">{d.from}</td>
-                  <td className="pr-4">{d.to}</td>
+                  <td className="pr-4 whitespace-nowrap">{d.from}</td>
+                  <td className="pr-4 whitespace-nowrap">{d.to}</td>
                   <td className="pr-4">{d.lux} lux</td>
                   <td className="pr-4">{d.hoursPerDay} h</td>
                   <td className={`pr-4 ${d.uvAboveGuide ? 'text-danger' : ''}`}>
@@ -127,7 +127,7 @@ export function LightPanel({ pieceId }: { pieceId: number }) {
                       ? `${d.uvMicrowattsPerLumen} µW/lm${d.uvAboveGuide ? ' (above 75)' : ''}`
                       : '—'}
                   </td>
-                  <td>{lxh(d.luxHours)}</td>
+                  <td className="whitespace-nowrap">{lxh(d.luxHours)}</td>
                 </tr>
               ))}
             </tbody>
