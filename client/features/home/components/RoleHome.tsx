@@ -279,15 +279,16 @@ function Admin({ home }: { home: AdminHome }) {
           {home.jobs.queued} queued · {home.jobs.running} running · {home.jobs.failed} failed
         </p>
         {home.jobs.recentFailures.length ? (
+          // Underlined: each link sits in a line of text (the job's error), so colour alone would not mark it.
           <ul className="mt-2 space-y-1 text-sm">
             {home.jobs.recentFailures.map((j) => (
               <li key={j.id} className="min-w-0 break-words">
                 {j.subject?.type === 'photo' ? (
-                  <Link to={paths.photoZoom(j.subject.id)} className="text-action hover:underline">
+                  <Link to={paths.photoZoom(j.subject.id)} className="text-action underline">
                     {j.type} #{j.id}
                   </Link>
                 ) : j.type === 'fixity-check' ? (
-                  <Link to={paths.fixity()} className="text-action hover:underline">
+                  <Link to={paths.fixity()} className="text-action underline">
                     {j.type} #{j.id}
                   </Link>
                 ) : (
