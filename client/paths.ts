@@ -10,6 +10,8 @@ export const paths = {
   piece: (id: number | string) => `/archive/${id}`,
   pieceEdit: (id: number | string) => `/archive/${id}/edit`,
   search: () => '/search',
+  /** A saved search opens Find with its own query string (words, facets, shade). */
+  savedSearch: (query: string) => `/search?${query}`,
   shadeSearch: (hex: string, maxDeltaE?: number) => `/search?hex=${hex}${maxDeltaE ? `&maxDeltaE=${maxDeltaE}` : ''}`,
   trials: () => '/trials',
   trial: (id: number | string) => `/trials/${id}`,

@@ -33,6 +33,11 @@ function readingName(r: unknown): string {
   return `${m.label ? ` ‘${m.label}’` : ''} (${m.spectral ? 'spectrum' : 'L*a*b*'})`;
 }
 
+function analysisName(a: unknown): string {
+  const x = (a ?? {}) as { method?: string; analysedOn?: string };
+  return `an analysis${x.method ? ` (${x.method}${x.analysedOn ? `, ${x.analysedOn}` : ''})` : ''}`;
+}
+
 /** What happened, in a sentence fragment that follows the person's name. */
 export function describeHistory(e: HistoryEntry): string {
   const c = e.changes ?? {};
@@ -90,6 +95,23 @@ export function describeHistory(e: HistoryEntry): string {
       const [key, change] = Object.entries(c)[0] ?? [];
       const colour = key?.replace(/^colour /, '') ?? 'a colour';
       return change?.to ? `colour ${colour} marked as background` : `colour ${colour} counted as cloth again`;
+    }
+    case 'analysis-added':
+      return `recorded ${analysisName(c.analysis?.to)}`;
+    case 'analysis-changed':
+      return `changed ${analysisName(c.analysis?.to)}`;
+    case 'analysis-report':
+      return `attached the report of ${analysisName(c.analysis?.to)}`;
+    case 'analysis-removed':
+      return `removed ${analysisName(c.analysis?.from)}`;
+    case 'condition-reported': {
+      const r = (c.condition?.to ?? {}) as { assessedOn?: string; state?: string };
+      return `reported the condition${r.assessedOn ? ` on ${r.assessedOn}` : ''}${r.state ? `: ${r.state}` : ''}`;
+    }
+    case 'display-logged': {
+      const d = (c.display?.to ?? {}) as { from?: string; to?: string; lux?: number; overAllowance?: boolean };
+      const over = d.overAllowance ? ', over the annual light allowance' : '';
+      return `logged a display from ${d.from} to ${d.to} at ${d.lux} lux${over}`;
     }
     default:
       return e.action.replace(/-/g, ' ');

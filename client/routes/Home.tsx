@@ -1,7 +1,8 @@
 import { useDocumentTitle } from '../lib/title';
 import { Link } from 'react-router-dom';
 import { Wordmark } from '../components/Wordmark';
-import { useCan } from '../features/auth/api';
+import { useCan, useMe } from '../features/auth';
+import { RoleHome } from '../features/home';
 import { useHealth } from '../features/health/api';
 import { paths } from '../paths';
 
@@ -34,6 +35,8 @@ export function Home() {
   useDocumentTitle(null);
   const health = useHealth();
   const can = useCan();
+  // A signed-in person lands on their role's work (GET /api/home); visitors keep the introduction.
+  const me = useMe().data;
   return (
     <div>
       <div className="py-8 md:py-12 border-b border-rule mb-8">
@@ -44,6 +47,11 @@ export function Home() {
           their colours, and remake them with safer chemistry.
         </p>
       </div>
+      {me ? (
+        <div className="mb-8">
+          <RoleHome />
+        </div>
+      ) : null}
       <ul className="grid gap-4 sm:grid-cols-2">
         {tasks
           .filter((t) => !('action' in t) || can(t.action))

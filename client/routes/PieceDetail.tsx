@@ -13,6 +13,7 @@ import { UploadPanel } from '../features/photos/components/UploadPanel';
 import { paths } from '../paths';
 import { FadingPairs } from '../features/fading';
 import { PieceReadings } from '../features/trials';
+import { AnalysesPanel, ConditionPanel, LightPanel } from '../features/records';
 import { useCan } from '../features/auth';
 
 export function PieceDetailPage() {
@@ -24,6 +25,7 @@ export function PieceDetailPage() {
   const navigate = useNavigate();
   const allowed = useCan();
   const [showHistory, setShowHistory] = useState(false);
+  const signedIn = useCan()('condition:read');
   if (detail.isPending) return <p>Loading…</p>;
   if (detail.isError)
     return <Page title="Piece not found" lead="There is no such piece, or it is not published yet." />;
@@ -82,7 +84,8 @@ export function PieceDetailPage() {
           {error.message}
         </p>
       ) : null}
-      <div className="grid gap-8">
+      {/* minmax(0, 1fr): a wide table (display periods, findings) scrolls in its own box instead of widening the page. */}
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-8">
         <PieceFacts piece={piece} />
         {!deleted ? (
           <PieceShareLinks pieceId={id} published={piece.status === 'published'} hasPhotos={photos.length > 0} />
@@ -98,6 +101,20 @@ export function PieceDetailPage() {
         {allowed('trial:read') ? <PieceReadings pieceId={id} canEdit={!deleted} /> : null}
         {/* Everyone signed in sees the pairs: dyers aim trials at them. */}
         {allowed('trial:read') ? <FadingPairs pieceId={id} canEdit={can['piece:update'] && !deleted} /> : null}
+        <AnalysesPanel
+          pieceId={id}
+          terms={[...piece.dyestuffs, ...piece.historicalMordants]}
+          regions={photos.flatMap((p, i) =>
+            p.regions.map((r) => ({ id: r.id, label: `photo ${i + 1}: ${r.label ?? r.purpose.replace('-', ' ')}` })),
+          )}
+        />
+        {signedIn ? (
+          <ConditionPanel
+            pieceId={id}
+            photos={photos.map((p, i) => ({ id: p.id, label: p.caption ?? `photo ${i + 1}` }))}
+          />
+        ) : null}
+        {signedIn ? <LightPanel pieceId={id} /> : null}
         {can['piece:history'] ? (
           <section>
             <h2 className="font-serif text-2xl">Edit history</h2>

@@ -13,6 +13,8 @@ import { ColourChooser, type ShadeChoice } from '../features/search/components/C
 import { FacetList } from '../features/search/components/FacetList';
 import { ShadeResults } from '../features/search/components/ShadeResults';
 import { TextResults } from '../features/search/components/TextResults';
+import { useMe } from '../features/auth';
+import { SavedSearchPanel } from '../features/saved-searches';
 
 const FACETS: FacetName[] = [
   'dyestuff',
@@ -43,6 +45,7 @@ export function Search() {
     // eslint-disable-next-line react-hooks/exhaustive-deps -- params is rebuilt from the URL on every render
   }, [urlKey, hasShade]);
   const shade = useShade(params, hasShade && !shadeInvalid);
+  const signedIn = Boolean(useMe().data);
   const [q, setQ] = useState(url.get('q') ?? '');
   const words = useFormErrors();
   // On a phone the shade and facet choices fold into a panel after the results; from md up they are a sidebar.
@@ -166,6 +169,7 @@ export function Search() {
               onToggle={toggle}
               onClear={clearFacets}
             />
+            {signedIn ? <SavedSearchPanel query={urlKey} /> : null}
           </div>
         </aside>
         <section

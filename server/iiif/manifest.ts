@@ -3,6 +3,7 @@ import path from 'node:path';
 import type { AnnotationPage, Manifest } from '../../shared/schemas/iiif.ts';
 import type { Photo, Piece, Region } from '../models/index.ts';
 import { iiifDir } from './files.ts';
+import { rightsLabel } from '../../shared/rights.ts';
 
 // IIIF Presentation API 3.0 (https://iiif.io/api/presentation/3.0/) built from a piece;
 // regions become W3C Web Annotations targeting a canvas fragment (Media Fragments xywh).
@@ -63,6 +64,13 @@ export async function buildManifest(
     ...(piece.dyestuffs.length ? [entry('Dyestuffs', terms(piece.dyestuffs))] : []),
     ...(piece.historicalMordants.length ? [entry('Mordants', terms(piece.historicalMordants))] : []),
     ...(piece.fibres.length ? [entry('Fibres', piece.fibres.join('; '))] : []),
+    ...(piece.patternName ? [entry('Pattern name', piece.patternName)] : []),
+    ...(piece.makers?.length ? [entry('Makers', makerList(piece))] : []),
+    ...(piece.marks?.length ? [entry('Marks and inscriptions', markList(piece))] : []),
+    ...(piece.objectRights
+      ? [entry('Object rights', `${rightsLabel(piece.objectRights)} (${piece.objectRights})`)]
+      : []),
+    // storageLocation is never here: the manifest is public.
   ];
   const items: Manifest['items'] = [];
   for (const photo of photos) {
@@ -109,8 +117,32 @@ export async function buildManifest(
     label: en(piece.title),
     ...(piece.description ? { summary: en(piece.description) } : {}),
     metadata,
-    ...(piece.creditLine ? { requiredStatement: entry('Credit line', piece.creditLine) } : {}),
+    ...rightsOf(piece),
     items,
+  };
+}
+
+const makerList = (p: Piece) =>
+  (p.makers ?? []).map((m) => `${m.name} (${m.role}${m.dates ? `, ${m.dates}` : ''})`).join('; ');
+const markList = (p: Piece) =>
+  (p.marks ?? []).map((m) => `${m.kind}: “${m.text}”${m.place ? ` (${m.place})` : ''}`).join('; ');
+
+/**
+ * `rights` takes one URI (Presentation 3.0 §3.3 rights): the manifest delivers the photographs, so it carries the
+ * images' rights (imageRights); the object's own rights go in metadata and in the requiredStatement beside the credit
+ * line. Without imageRights the manifest has no `rights` rather than one that may not fit the images.
+ */
+export function rightsOf(piece: Piece) {
+  const lines = [
+    piece.creditLine,
+    piece.imageRights ? `Images: ${rightsLabel(piece.imageRights)}` : null,
+    piece.objectRights ? `Object: ${rightsLabel(piece.objectRights)}` : null,
+  ].filter((l): l is string => Boolean(l));
+  return {
+    ...(piece.imageRights ? { rights: piece.imageRights } : {}),
+    ...(lines.length
+      ? { requiredStatement: { label: en(piece.creditLine ? 'Credit line' : 'Rights'), value: { none: lines } } }
+      : {}),
   };
 }
 

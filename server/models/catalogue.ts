@@ -2,6 +2,7 @@ import { accessionKey, accessionSortKey } from '../../shared/accession.ts';
 import type { PhotoColourFacts } from '../../shared/schemas/photo.ts';
 import type { Spectrum as StoredSpectrum } from '../../shared/colour/spectral.ts';
 import { PALETTE_VARIANTS, type PaletteVariant, type PhotoChart } from '../../shared/schemas/chart.ts';
+import type { Maker, Mark } from '../../shared/schemas/curatorial.ts';
 import {
   DataTypes,
   Model,
@@ -12,7 +13,8 @@ import {
 } from 'sequelize';
 
 export type Evidence = 'attributed' | 'identified';
-export type EvidencedTerm = { name: string; evidence: Evidence };
+/** An identified term carries the analysis behind it (older rows may lack it). */
+export type EvidencedTerm = { name: string; evidence: Evidence; analysisId?: number | null };
 export type PieceStatus = 'draft' | 'published';
 
 export class Piece extends Model<InferAttributes<Piece>, InferCreationAttributes<Piece>> {
@@ -42,6 +44,13 @@ export class Piece extends Model<InferAttributes<Piece>, InferCreationAttributes
   declare condition: string | null;
   declare creditLine: string | null;
   declare status: CreationOptional<PieceStatus>;
+  // Curatorial fields (migration 0032); storageLocation is for staff only (server/presenters/piece.ts).
+  declare makers: CreationOptional<Maker[]>;
+  declare patternName: CreationOptional<string | null>;
+  declare marks: CreationOptional<Mark[]>;
+  declare storageLocation: CreationOptional<string | null>;
+  declare objectRights: CreationOptional<string | null>;
+  declare imageRights: CreationOptional<string | null>;
   declare createdById: number | null;
   declare deletedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
@@ -188,6 +197,12 @@ export function initCatalogueModels(sequelize: Sequelize) {
       condition: DataTypes.TEXT,
       creditLine: DataTypes.STRING(255),
       status: { type: DataTypes.ENUM('draft', 'published'), allowNull: false, defaultValue: 'draft' },
+      makers: json([]),
+      patternName: DataTypes.STRING(160),
+      marks: json([]),
+      storageLocation: DataTypes.STRING(160),
+      objectRights: DataTypes.STRING(255),
+      imageRights: DataTypes.STRING(255),
       createdById: fk(),
       deletedAt: DataTypes.DATE(3),
       ...stamps(),

@@ -11,6 +11,8 @@ import { initJobModel, Job } from './job.ts';
 import { AppSetting } from './settings.ts';
 import { RateLimit } from './rate-limit.ts';
 import { FadingPair } from './fading.ts';
+import { initRecordModels, Analysis, ConditionReport, DisplayPeriod } from './records.ts';
+import { initSavedSearchModel, SavedSearch } from './saved-search.ts';
 
 User.initModel(sequelize);
 initReferenceModels(sequelize);
@@ -24,6 +26,8 @@ initJobModel(sequelize);
 AppSetting.initModel(sequelize);
 RateLimit.initModel(sequelize);
 FadingPair.initModel(sequelize);
+initRecordModels(sequelize);
+initSavedSearchModel(sequelize);
 
 // Associations, all in one place.
 Piece.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -59,6 +63,10 @@ AuthToken.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 AuthToken.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
 Job.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById', constraints: false });
 FadingPair.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId', constraints: false });
+Analysis.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
+ConditionReport.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
+DisplayPeriod.belongsTo(Piece, { as: 'piece', foreignKey: 'pieceId' });
+SavedSearch.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 
 export {
   sequelize,
@@ -81,7 +89,11 @@ export {
   Session,
   AuthToken,
   Job,
+  SavedSearch,
   AppSetting,
   RateLimit,
   FadingPair,
+  Analysis,
+  ConditionReport,
+  DisplayPeriod,
 };

@@ -35,6 +35,8 @@ const rules: Record<Action, Rule> = {
   'piece:delete': roleIn('curator'),
   'piece:restore': () => false,
   'piece:history': roleIn('curator', 'researcher'),
+  // Where a piece is kept is for the team only: never in a visitor's answer, IIIF or the public Dublin Core record.
+  'piece:see-storage': everyoneSignedIn,
   'photo:create': roleIn('curator'),
   'photo:update': roleIn('curator'),
   'photo:delete': roleIn('curator'),
@@ -45,7 +47,15 @@ const rules: Record<Action, Rule> = {
   'region:update': roleIn('curator'),
   'region:delete': roleIn('curator'),
   'measurement:create': roleIn('researcher', 'curator'),
-  'analysis:create': roleIn('researcher'),
+  // Researchers and curators record analyses; anyone who may read the piece reads them (visitors: published only).
+  'analysis:create': roleIn('researcher', 'curator'),
+  'analysis:update': roleIn('researcher', 'curator'),
+  // The lab's report PDF is for the team, not the public.
+  'analysis:report': everyoneSignedIn,
+  'condition:read': everyoneSignedIn,
+  'condition:create': roleIn('curator'),
+  'display:read': everyoneSignedIn,
+  'display:create': roleIn('curator'),
   'note:create': roleIn('researcher', 'curator'),
   'trial:read': everyoneSignedIn,
   'trial:create': roleIn('dyer'),

@@ -1,6 +1,6 @@
 import type { AuditEventOut, PieceOut, PieceSummary } from '../../shared/schemas/piece.ts';
 import type { AuditEvent, Piece, User } from '../models/index.ts';
-import { abilities, type Actor } from '../policies/index.ts';
+import { abilities, can, type Actor } from '../policies/index.ts';
 
 const PIECE_ACTIONS = [
   'piece:update',
@@ -38,6 +38,12 @@ export function presentPiece(p: Piece, actor: Actor): PieceOut {
     condition: p.condition,
     creditLine: p.creditLine,
     status: p.status,
+    makers: p.makers ?? [],
+    patternName: p.patternName ?? null,
+    marks: p.marks ?? [],
+    ...(can(actor, 'piece:see-storage') ? { storageLocation: p.storageLocation ?? null } : {}),
+    objectRights: p.objectRights ?? null,
+    imageRights: p.imageRights ?? null,
     deletedAt: p.deletedAt ? p.deletedAt.toISOString() : null,
     createdAt: p.createdAt.toISOString(),
     updatedAt: p.updatedAt.toISOString(),

@@ -21,6 +21,9 @@ import { seriesRouter } from './series/index.ts';
 import { trialCardsRouter } from './trial-cards/index.ts';
 import { searchRouter } from './search/index.ts';
 import { suggestionsRouter } from './suggestions/index.ts';
+import { analysesRouter, pieceRecordsRouter } from './records/index.ts';
+import { homeRouter } from './home/index.ts';
+import { savedSearchesRouter } from './saved-searches/index.ts';
 
 /** Every API router, mounted under /api. Each route also needs a row in tests/support/route-matrix.ts. */
 export function apiRouter() {
@@ -42,6 +45,8 @@ export function apiRouter() {
   router.use('/pieces', pieceExportRouter);
   router.use('/pieces', piecesRouter);
   router.use('/pieces', pieceTrialsRouter);
+  router.use('/pieces', pieceRecordsRouter);
+  router.use('/analyses', analysesRouter);
   router.use('/photos', photosRouter);
   router.use('/vocabularies', vocabulariesRouter);
   router.use('/trials', trialsRouter);
@@ -51,5 +56,7 @@ export function apiRouter() {
   router.use('/trials', trialCardsRouter);
   router.use('/search', searchRouter);
   router.use('/suggestions', suggestionsRouter);
+  router.use('/home', homeRouter);
+  router.use('/saved-searches', savedSearchesRouter);
   return router;
 }

@@ -22,11 +22,21 @@ export type PieceDoc = {
   fibres: string[];
   centuries: number[];
   status: 'draft' | 'published';
+  /** Methods of the analyses its identified dyestuffs and mordants point at (issue 19: "identified by"). */
+  identifiedBy: string[];
   /** Facet values, lower-cased and de-duplicated once here so facet counting does no string work per query. */
   keys: Record<FacetKey, readonly string[]>;
 };
 export type FacetKey =
-  'dyestuff' | 'historicalMordant' | 'modernMordant' | 'fibre' | 'technique' | 'century' | 'place' | 'status';
+  | 'dyestuff'
+  | 'historicalMordant'
+  | 'modernMordant'
+  | 'fibre'
+  | 'technique'
+  | 'century'
+  | 'place'
+  | 'status'
+  | 'identifiedBy';
 
 // Most pieces share a few value lists ("madder", "cotton"…): one shared array per distinct list keeps the
 // documents' heap, and so garbage-collection work, smaller (about 120 MB at 170,000 pieces). Never mutate them.
@@ -53,6 +63,7 @@ export function facetKeys(d: Omit<PieceDoc, 'keys'>): Record<FacetKey, readonly 
     century: keyList(d.centuries),
     place: keyList(d.place ? [d.place] : []),
     status: keyList([d.status]),
+    identifiedBy: keyList(d.identifiedBy),
   };
 }
 
@@ -100,7 +111,38 @@ export function centuriesOf(earliest: number | null, latest: number | null): num
 
 type PieceRow = Record<string, unknown> & { id: number };
 
-function pieceDoc(r: PieceRow, modern: string[]): PieceDoc {
+/** Analyses by id: the piece each belongs to and its method (the "identified by" facet reads these). */
+type AnalysisMethods = Map<number, { pieceId: number; method: string }>;
+
+/**
+ * The methods behind a piece's identified dyestuffs and mordants: each "identified" entry carries the id of an
+ * analysis of this piece (server/services/records/evidence.ts); an analysis of another piece or one gone counts not.
+ * The same rule as IDENTIFIED_BY_SQL (server/services/records/identified-by.ts), worked out on the row already read.
+ */
+function identifiedBy(r: PieceRow, analyses: AnalysisMethods): string[] {
+  const out = new Set<string>();
+  for (const list of [r.dyestuffs, r.historicalMordants])
+    for (const t of json<Array<{ evidence?: string; analysisId?: number | null }>>(list, [])) {
+      if (t?.evidence !== 'identified' || t.analysisId == null) continue;
+      const a = analyses.get(t.analysisId);
+      if (a && a.pieceId === r.id) out.add(a.method);
+    }
+  return [...out].sort();
+}
+
+/** The analyses of the named pieces (or of every piece), by id. */
+async function analysisMethods(pieceIds: number[], transaction?: Transaction): Promise<AnalysisMethods> {
+  const out: AnalysisMethods = new Map();
+  if (!pieceIds.length) return out;
+  const rows = await sequelize.query<{ id: number; pieceId: number; method: string }>(
+    'SELECT id, pieceId, method FROM analyses WHERE pieceId IN (?)',
+    { replacements: [pieceIds], type: QueryTypes.SELECT, transaction },
+  );
+  for (const a of rows) out.set(a.id, { pieceId: a.pieceId, method: a.method });
+  return out;
+}
+
+function pieceDoc(r: PieceRow, modern: string[], analyses: AnalysisMethods): PieceDoc {
   const doc = {
     id: r.id,
     accessionNumber: String(r.accessionNumber),
@@ -117,6 +159,7 @@ function pieceDoc(r: PieceRow, modern: string[]): PieceDoc {
     fibres: shared(json<string[]>(r.fibres, [])),
     centuries: shared(centuriesOf(r.earliestYear as number | null, r.latestYear as number | null)),
     status: r.status === 'published' ? ('published' as const) : ('draft' as const),
+    identifiedBy: shared(identifiedBy(r, analyses)),
   };
   return { ...doc, keys: facetKeys(doc) };
 }
@@ -255,9 +298,9 @@ function modernOf(trials: TrialDoc[]): Map<number, Set<string>> {
   return modern;
 }
 
-function attachModern(rows: PieceRow[], trials: TrialDoc[]): PieceDoc[] {
+function attachModern(rows: PieceRow[], trials: TrialDoc[], analyses: AnalysisMethods): PieceDoc[] {
   const modern = modernOf(trials);
-  return rows.map((r) => pieceDoc(r, [...(modern.get(r.id) ?? [])]));
+  return rows.map((r) => pieceDoc(r, [...(modern.get(r.id) ?? [])], analyses));
 }
 
 /** Every live (not soft-deleted) piece and every trial, read once at start (on one connection: read.ts). */
@@ -267,6 +310,16 @@ export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[
       // Trials first: each page of pieces then becomes documents as it arrives, between the reads.
       const trials = await allTrialDocs(conn);
       const modern = modernOf(trials);
+      // Every analysis's piece and method (a small table beside pieces), for the "identified by" facet.
+      const analyses: AnalysisMethods = new Map();
+      await eachPage(
+        conn,
+        'SELECT id, pieceId, method FROM analyses WHERE id > ? ORDER BY id LIMIT ?',
+        50_000,
+        (rows) => {
+          for (const r of rows) analyses.set(r[0] as number, { pieceId: r[1] as number, method: r[2] as string });
+        },
+      );
       const pieces: PieceDoc[] = [];
       const cols = PIECE_COLS.split(', ');
       await eachPage(
@@ -277,7 +330,7 @@ export async function loadAll(): Promise<{ pieces: PieceDoc[]; trials: TrialDoc[
           for (const r of page) {
             const row: PieceRow = { id: r[0] as number };
             for (let k = 1; k < cols.length; k++) row[cols[k]] = r[k];
-            pieces.push(pieceDoc(row, [...(modern.get(row.id) ?? [])]));
+            pieces.push(pieceDoc(row, [...(modern.get(row.id) ?? [])], analyses));
           }
         },
       );
@@ -296,7 +349,8 @@ export async function loadPiece(id: number): Promise<{ piece: PieceDoc | null; t
     type: QueryTypes.SELECT,
   });
   const trials = await trialDocs('WHERE pieceId = ?', [id]);
-  return { piece: rows[0] ? attachModern(rows, trials)[0] : null, trials };
+  const analyses = await analysisMethods(rows.map((r) => r.id));
+  return { piece: rows[0] ? attachModern(rows, trials, analyses)[0] : null, trials };
 }
 
 /** One trial as it stands now (null when gone). */
@@ -313,7 +367,8 @@ export async function loadPieces(ids: number[]): Promise<Map<number, PieceDoc>> 
     { replacements: [ids], type: QueryTypes.SELECT },
   );
   const trials = rows.length ? await trialDocs('WHERE pieceId IN (?)', [rows.map((r) => r.id)]) : [];
-  for (const d of attachModern(rows, trials)) out.set(d.id, d);
+  const analyses = await analysisMethods(rows.map((r) => r.id));
+  for (const d of attachModern(rows, trials, analyses)) out.set(d.id, d);
   return out;
 }
 

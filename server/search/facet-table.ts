@@ -12,6 +12,7 @@ export const FACETS: FacetName[] = [
   'century',
   'place',
   'status',
+  'identifiedBy',
 ];
 
 const ordinal = (n: number) =>
@@ -30,6 +31,7 @@ function labelFor(d: PieceDoc, f: FacetName, key: string): string {
     fibre: d.fibres,
     technique: d.techniques,
     place: [d.place],
+    identifiedBy: d.identifiedBy,
   }[f];
   return src.find((v) => norm(v) === key) ?? key;
 }

@@ -1,5 +1,5 @@
 import type { Model, ModelStatic, Transaction } from 'sequelize';
-import { PaletteColour, Photo, Piece, RecipeStep, Substitution, Trial } from '../models/index.ts';
+import { Analysis, PaletteColour, Photo, Piece, RecipeStep, Substitution, Trial } from '../models/index.ts';
 import { appendChanges, type ChangeKind } from './change-log.ts';
 import { searchEngine } from './engine.ts';
 
@@ -107,4 +107,7 @@ export function installSearchHooks() {
   followBulk(M(Photo), 'photo', 'id', (o) => !o.attributes || 'pieceId' in o.attributes);
   followRows(M(PaletteColour), 'photo', 'photoId');
   followBulk(M(PaletteColour), 'photo', 'photoId');
+  // An analysis's method is its piece's "identified by" facet value (issue 19): any write of one re-reads its piece.
+  followRows(M(Analysis), 'piece', 'pieceId');
+  followBulk(M(Analysis), 'piece', 'pieceId');
 }

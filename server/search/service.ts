@@ -25,7 +25,14 @@ import { selectTop } from './top.ts';
  */
 // Pieces carry several of these at once: choosing two narrows (AND). The rest hold one value per piece
 // (a century is one of a few): choosing two widens (OR), and their counts ignore their own choice.
-const NARROWING = new Set<FacetName>(['dyestuff', 'historicalMordant', 'modernMordant', 'fibre', 'technique']);
+const NARROWING = new Set<FacetName>([
+  'dyestuff',
+  'historicalMordant',
+  'modernMordant',
+  'fibre',
+  'technique',
+  'identifiedBy',
+]);
 
 type Selected = Partial<Record<FacetName, Set<string>>> & { mordant?: Set<string> };
 
@@ -42,6 +49,7 @@ function selected(f: SearchFilters): Selected {
   put('century', f.century);
   put('place', f.place);
   put('status', f.status);
+  put('identifiedBy', f.identifiedBy);
   put('mordant', f.mordant);
   return s;
 }

@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Transaction } from 'sequelize';
 import { ROOT_DIR } from '../env.ts';
+import { seedDemoRecords } from './demo-records.ts';
 import {
   Chemical,
   Dyestuff,
@@ -19,6 +20,7 @@ import {
   makeBatchEvent,
   makeMeasurement,
   makePiece,
+  makeSavedSearch,
   makeRecipeStep,
   makeSeries,
   makeSubstitution,
@@ -87,6 +89,7 @@ export async function seedDemo(t: Transaction) {
   ) as PieceInput[];
   const pieces: Record<string, Piece> = {};
   for (const p of pieceRows) pieces[p.accessionNumber!] = await makePiece({ ...p, createdById: users.curator.id }, t);
+  await seedDemoRecords(t, { pieces, researcher: users.researcher, curator: users.curator });
 
   const alum = await chem('potash alum', t);
   const alAcetate = await chem('aluminium acetate (basic)', t);
@@ -700,6 +703,14 @@ export async function seedDemo(t: Transaction) {
       );
       await reading({ trialId: trial.id, ...spectral(ladderSpectrum(dye, owf).values), label: `${trial.code} swatch` });
     }
+  // Saved searches on the home pages (issue 19): the /search page's own query strings.
+  for (const [who, name, query] of [
+    ['researcher', 'Madder on cotton', 'dyestuff=madder&fibre=cotton'],
+    ['researcher', 'Reds near the bed hanging', 'hex=a53a2d&maxDeltaE=8'],
+    ['curator', 'Calderwick drafts', 'q=Calderwick&status=draft'],
+    ['dyer', 'Weld greens', 'q=weld'],
+  ] as const)
+    await makeSavedSearch({ userId: users[who].id, name, query }, t);
   await seedDemoPhotos(t, { pieces, trials, curator: users.curator, dyer: users.dyer });
   return { users, pieces, trials, batches: { mb07, mb08, mb09 }, series };
 }

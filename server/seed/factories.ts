@@ -1,7 +1,10 @@
 import sharp from 'sharp';
 import type { Transaction } from 'sequelize';
 import {
+  Analysis,
   BatchEvent,
+  ConditionReport,
+  DisplayPeriod,
   ColourMeasurement,
   FadingPair,
   MordantBatch,
@@ -14,6 +17,7 @@ import {
   TrialSeries,
   User,
   sequelize,
+  SavedSearch,
 } from '../models/index.ts';
 import type { Role } from '../../shared/roles.ts';
 import { hashPassword } from '../auth/passwords.ts';
@@ -70,6 +74,12 @@ export async function makePiece(attrs: PieceInput = {}, transaction?: Transactio
       condition: null,
       creditLine: null,
       status: 'draft',
+      makers: [],
+      patternName: null,
+      marks: [],
+      storageLocation: null,
+      objectRights: null,
+      imageRights: null,
       createdById: null,
       ...attrs,
     },
@@ -294,4 +304,64 @@ export function makePaletteColour(attrs: Attrs<PaletteColour> & { photoId: numbe
     },
     { transaction },
   );
+}
+
+/** An analysis of a piece (HPLC-DAD, described site, no findings, no report unless given). */
+export function makeAnalysis(attrs: Attrs<Analysis> & { pieceId: number }, transaction?: Transaction) {
+  return Analysis.create(
+    {
+      method: 'HPLC-DAD',
+      regionId: null,
+      site: 'loose thread from the lower edge',
+      laboratory: null,
+      analyst: null,
+      analysedOn: '2024-05-02',
+      notes: null,
+      findings: [],
+      reportSha256: null,
+      reportBytes: null,
+      reportName: null,
+      createdById: null,
+      ...attrs,
+    },
+    { transaction },
+  );
+}
+
+export function makeConditionReport(attrs: Attrs<ConditionReport> & { pieceId: number }, transaction?: Transaction) {
+  return ConditionReport.create(
+    {
+      assessedOn: '2024-01-15',
+      assessor: 'Test assessor',
+      state: 'stable',
+      notes: null,
+      photoIds: [],
+      regionIds: [],
+      createdById: null,
+      ...attrs,
+    },
+    { transaction },
+  );
+}
+
+export function makeDisplayPeriod(attrs: Attrs<DisplayPeriod> & { pieceId: number }, transaction?: Transaction) {
+  return DisplayPeriod.create(
+    {
+      fromDate: '2024-03-01',
+      toDate: '2024-03-31',
+      lux: 50,
+      hoursPerDay: 8,
+      uvMicrowattsPerLumen: null,
+      place: null,
+      createdById: null,
+      ...attrs,
+    },
+    { transaction },
+  );
+}
+
+/** A saved search of one person (words only unless told). */
+export function makeSavedSearch(attrs: Attrs<SavedSearch> & { userId: number }, transaction?: Transaction) {
+  const n = next();
+  return SavedSearch.create({ name: `Saved search ${n}`, query: 'q=madder', ...attrs }, { transaction });
 }

@@ -6,6 +6,7 @@ import { HttpError, badRequest, conflict } from '../http/errors.ts';
 import { Piece, VocabularyTerm } from '../models/index.ts';
 import { audit, diff } from './audit.ts';
 import type { ServiceCtx } from './context.ts';
+import { checkIdentifiedAnalyses } from './records/evidence.ts';
 
 /** Fibres and techniques must come from the vocabularies an admin keeps. */
 async function checkVocabulary(input: { fibres?: string[]; techniques?: string[] }, transaction: Transaction) {
@@ -52,6 +53,7 @@ function withYears<T extends { dateEdtf?: string | null; earliestYear?: number |
 
 export async function createPiece({ actor, transaction, input }: ServiceCtx<PieceCreateInput>) {
   await checkVocabulary(input, transaction);
+  await checkIdentifiedAnalyses(null, input, transaction);
   await checkAccessionFree(input.accessionNumber, null, transaction);
   const values = withYears(input);
   const piece = await Piece.create(
@@ -78,6 +80,12 @@ export async function createPiece({ actor, transaction, input }: ServiceCtx<Piec
       condition: values.condition ?? null,
       creditLine: values.creditLine ?? null,
       status: values.status ?? 'draft',
+      makers: values.makers ?? [],
+      patternName: values.patternName ?? null,
+      marks: values.marks ?? [],
+      storageLocation: values.storageLocation ?? null,
+      objectRights: values.objectRights ?? null,
+      imageRights: values.imageRights ?? null,
       createdById: actor?.id ?? null,
     },
     { transaction },
@@ -93,6 +101,7 @@ export async function updatePiece({
 }: ServiceCtx<{ piece: Piece; changes: PieceUpdateInput }>) {
   const { piece, changes } = input;
   await checkVocabulary(changes, transaction);
+  await checkIdentifiedAnalyses(piece.id, changes, transaction);
   if (changes.accessionNumber) await checkAccessionFree(changes.accessionNumber, piece.id, transaction);
   // A new EDTF date re-derives the bounds unless the same request sets them.
   const patch =

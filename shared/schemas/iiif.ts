@@ -89,6 +89,7 @@ export const manifestSchema = z.looseObject({
   summary: langMap.optional(),
   metadata: z.array(metadataEntry),
   requiredStatement: metadataEntry.optional(),
+  rights: z.string().optional(),
   items: z.array(canvasSchema),
 });
 export type Manifest = z.infer<typeof manifestSchema>;

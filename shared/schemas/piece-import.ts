@@ -3,6 +3,7 @@ import { ACCESSION_MAX, ACCESSION_MESSAGE, ACCESSION_PATTERN, tidyAccession } fr
 import '../messages.ts';
 import { dateIssues, edtfYears, YEAR_MAX, YEAR_MIN } from '../edtf.ts';
 import { pageQuery, paged } from './common.ts';
+import { RIGHTS_MESSAGE, RIGHTS_URI_PATTERN, canonicalRights } from '../rights.ts';
 
 // The columns of a piece catalogue CSV (import and export share them, so an export re-imports).
 export const PIECE_CSV_FIELDS = [
@@ -28,6 +29,11 @@ export const PIECE_CSV_FIELDS = [
   'condition',
   'creditLine',
   'status',
+  // Curatorial fields (issue 19) that fit one cell; makers and marks are lists of records and stay out of the CSV.
+  'patternName',
+  'storageLocation',
+  'objectRights',
+  'imageRights',
 ] as const;
 export type PieceCsvField = (typeof PIECE_CSV_FIELDS)[number];
 export const REQUIRED_PIECE_FIELDS: readonly PieceCsvField[] = ['accessionNumber', 'objectName', 'title'];
@@ -55,6 +61,10 @@ export const FIELD_LABELS: Record<PieceCsvField, string> = {
   condition: 'Condition',
   creditLine: 'Credit line',
   status: 'Status',
+  patternName: 'Pattern name',
+  storageLocation: 'Storage location',
+  objectRights: 'Object rights',
+  imageRights: 'Image rights',
 };
 
 /** Lists in one cell are separated by semicolons; evidence follows a term in brackets: "madder (identified)". */
@@ -78,6 +88,22 @@ export function parseEvidenced(cell: string): Evidenced[] {
 }
 export const formatEvidenced = (list: Evidenced[]) => list.map((t) => `${t.name} (${t.evidence})`).join(LIST_SEPARATOR);
 
+/**
+ * "identified" stands on an analysis of the piece, which a CSV cannot carry: such a term is refused with the way
+ * round it (import it attributed, then mark it identified on the piece page with its analysis).
+ */
+const evidencedCell = z
+  .string()
+  .transform(parseEvidenced)
+  .superRefine((list, ctx) => {
+    const identified = list.filter((t) => t.evidence === 'identified').map((t) => t.name);
+    if (identified.length)
+      ctx.addIssue({
+        code: 'custom',
+        message: `${identified.join(', ')}: "identified" needs the analysis behind it. Import as "${identified[0]} (attributed)", then record the analysis and mark it identified on the piece page.`,
+      });
+  });
+
 /** Column mapping sent with an upload: CSV header → field (omitted headers map to a field of the same name). */
 export const columnMapping = z.record(z.string(), z.union([z.enum(PIECE_CSV_FIELDS), z.literal('')]));
 export type ColumnMapping = z.infer<typeof columnMapping>;
@@ -88,6 +114,9 @@ const text = (max: number) =>
     .trim()
     .max(max, `At most ${max} characters.`)
     .transform((s) => (s === '' ? null : s));
+const rightsCell = text(255)
+  .refine((v) => v === null || RIGHTS_URI_PATTERN.test(v), `${RIGHTS_MESSAGE}.`)
+  .transform((v) => (v === null ? null : canonicalRights(v)));
 const required = (max: number, what: string) =>
   z.string().trim().min(1, `${what} is required.`).max(max, `At most ${max} characters.`);
 const year = z
@@ -138,8 +167,8 @@ export const pieceImportRow = z
     widthMm: mm,
     repeatMm: mm,
     techniques: z.string().transform(splitList),
-    dyestuffs: z.string().transform(parseEvidenced),
-    historicalMordants: z.string().transform(parseEvidenced),
+    dyestuffs: evidencedCell,
+    historicalMordants: evidencedCell,
     description: text(20_000),
     provenance: text(20_000),
     condition: text(20_000),
@@ -150,6 +179,10 @@ export const pieceImportRow = z
       .toLowerCase()
       .transform((s) => (s === '' ? 'draft' : s))
       .pipe(z.enum(['draft', 'published'], { error: 'Status is draft or published.' })),
+    patternName: text(160),
+    storageLocation: text(160),
+    objectRights: rightsCell,
+    imageRights: rightsCell,
   })
   .transform((row, ctx) => {
     // The same date rules as the form and the API (shared/edtf.ts); years come from the EDTF date when not given.

@@ -4,6 +4,8 @@ import '../messages.ts';
 import { dateIssues, YEAR_MAX, YEAR_MIN, type DateFields } from '../edtf.ts';
 import { paged, pageQuery } from './common.ts';
 import { photoSchema } from './photo.ts';
+import { lightDoseSchema } from './records.ts';
+import { curatorialFields, curatorialOut } from './curatorial.ts';
 
 export { ACCESSION_PATTERN } from '../accession.ts';
 
@@ -31,10 +33,20 @@ const year = z
   .nullable()
   .optional();
 
-export const evidencedTerm = z.object({
-  name: text(120).min(1, 'Enter a name'),
-  evidence: z.enum(EVIDENCE, { error: 'Choose attributed or identified' }),
-});
+/** "identified" stands on a recorded analysis of this piece (issue 19): the entry carries its analysisId. */
+export const IDENTIFIED_NEEDS_ANALYSIS = 'Choose the analysis that identified it (record the analysis first)';
+export const evidencedTerm = z
+  .object({
+    name: text(120).min(1, 'Enter a name'),
+    evidence: z.enum(EVIDENCE, { error: 'Choose attributed or identified' }),
+    analysisId: z.number({ error: 'Choose an analysis' }).int().positive().nullable().optional(),
+  })
+  .superRefine((t, ctx) => {
+    if (t.evidence === 'identified' && t.analysisId == null)
+      ctx.addIssue({ code: 'custom', path: ['analysisId'], message: IDENTIFIED_NEEDS_ANALYSIS });
+  })
+  // An attributed entry points at no analysis.
+  .transform((t) => ({ ...t, analysisId: t.evidence === 'identified' ? (t.analysisId ?? null) : null }));
 export type EvidencedTermInput = z.infer<typeof evidencedTerm>;
 
 const termList = (what: string) =>
@@ -79,6 +91,7 @@ const pieceFields = {
   condition: optionalText(10_000),
   creditLine: optionalText(255),
   status: z.enum(PIECE_STATUSES).optional(),
+  ...curatorialFields,
 };
 
 export { dateIssues };
@@ -118,7 +131,11 @@ export type PieceListQuery = z.infer<typeof pieceListQuery>;
 
 // ---- Responses (server/presenters/piece.ts returns these types; tsc checks the presenter against them) ----
 
-const evidencedTermOut = z.object({ name: z.string(), evidence: z.enum(EVIDENCE) });
+const evidencedTermOut = z.object({
+  name: z.string(),
+  evidence: z.enum(EVIDENCE),
+  analysisId: z.number().nullable().optional(),
+});
 
 const pieceAbilities = z.object({
   'piece:update': z.boolean(),
@@ -153,6 +170,7 @@ export const pieceSchema = z.object({
   condition: z.string().nullable(),
   creditLine: z.string().nullable(),
   status: z.enum(PIECE_STATUSES),
+  ...curatorialOut,
   deletedAt: z.iso.datetime().nullable(),
   createdAt: z.iso.datetime(),
   updatedAt: z.iso.datetime(),
@@ -191,7 +209,12 @@ export type AuditEventOut = z.infer<typeof auditEventSchema>;
 
 export const pieceListResponse = paged(pieceSummarySchema);
 export const pieceResponse = z.object({ piece: pieceSchema });
-export const pieceDetailResponse = z.object({ piece: pieceSchema, photos: z.array(photoSchema) });
+export const pieceDetailResponse = z.object({
+  piece: pieceSchema,
+  photos: z.array(photoSchema),
+  /** Cumulative light exposure and allowance used (shared/compute/light-dose.ts); null for visitors. */
+  lightDose: lightDoseSchema.nullable().optional(),
+});
 export const pieceHistoryResponse = z.object({ items: z.array(auditEventSchema) });
 export type PieceListResponse = z.infer<typeof pieceListResponse>;
 export type PieceResponse = z.infer<typeof pieceResponse>;

@@ -22,6 +22,8 @@ export const searchFiltersSchema = z.object({
   fibre: many,
   technique: many,
   place: many,
+  // The methods of the analyses behind a piece's identified dyestuffs and mordants (issue 19), e.g. HPLC-DAD.
+  identifiedBy: many,
   status: z
     .union([z.enum(['draft', 'published']), z.array(z.enum(['draft', 'published']))])
     .transform((v) => (Array.isArray(v) ? v : [v]))
@@ -86,6 +88,7 @@ export const FACET_NAMES = [
   'century',
   'place',
   'status',
+  'identifiedBy',
 ] as const;
 export type FacetName = (typeof FACET_NAMES)[number];
 const facetRows = z.array(z.object({ value: z.string(), label: z.string(), count: z.number() }));

@@ -81,7 +81,7 @@ describe('pieces answer as shared/schemas/piece.ts says', () => {
       title: 'Contract piece',
       dateEdtf: '1780~',
       fibres: ['cotton'],
-      dyestuffs: [{ name: 'madder', evidence: 'identified' }],
+      dyestuffs: [{ name: 'madder', evidence: 'attributed' }],
       heightMm: 120.5,
     };
     const created = fits(

@@ -77,7 +77,7 @@ describe('CSV import of pieces', () => {
         repeatMm: 412,
         techniques: ['block printing', 'mordant printing'],
         dyestuffs: [
-          { name: 'madder', evidence: 'identified' },
+          { name: 'madder', evidence: 'attributed' },
           { name: 'weld', evidence: 'attributed' },
         ],
         historicalMordants: [{ name: 'lead(II) acetate (sugar of lead)', evidence: 'attributed' }],
@@ -147,6 +147,10 @@ describe('CSV import of pieces', () => {
       'condition',
       'creditLine',
       'status',
+      'patternName',
+      'storageLocation',
+      'objectRights',
+      'imageRights',
     ] as const;
     for (const [i, piece] of after.entries()) {
       for (const f of fields) expect([f, piece.get(f)]).toEqual([f, before[i][f]]);
@@ -168,7 +172,15 @@ describe('CSV import of pieces', () => {
     const mine = rows.filter((r) => byNumber.has(r.accessionNumber));
     expect(mine).toHaveLength(originals.length);
     const p = prefix();
-    const copies = mine.map((r) => ({ ...r, accessionNumber: `${p}.${r.accessionNumber}` }));
+    // "identified" stands on an analysis of the piece (issue 19), which a CSV cannot carry: the import refuses it
+    // (tested below), so the copies come in as attributed; every other cell re-imports unchanged.
+    const attributed = (cell: string) => cell.replace(/\(identified\)/g, '(attributed)');
+    const copies = mine.map((r) => ({
+      ...r,
+      accessionNumber: `${p}.${r.accessionNumber}`,
+      dyestuffs: attributed(r.dyestuffs),
+      historicalMordants: attributed(r.historicalMordants),
+    }));
     const csv = stringify(copies, { header: true, columns: Object.keys(rows[0]) });
     const dry = await upload(csv, { dryRun: true }).expect(200);
     expect(dry.body.errors).toEqual([]);
@@ -243,9 +255,18 @@ describe('CSV import of pieces', () => {
     });
   });
 
+  it('refuses "identified" in a cell: it needs the analysis behind it, which a CSV cannot carry', async () => {
+    const p = prefix();
+    const csv = `${HEADER}\n${p}.1,panel,Identified,1780,madder (identified); weld,resist\n`;
+    const res = await upload(csv, { dryRun: true }).expect(200);
+    expect(res.body).toMatchObject({ rows: 1, valid: 0, invalid: 1 });
+    expect(res.body.items[0].errors[0]).toMatchObject({ field: 'dyestuffs' });
+    expect(res.body.items[0].errors[0].message).toMatch(/madder: "identified" needs the analysis behind it/);
+  });
+
   it('previews a dry run with the errors of each row and writes nothing', async () => {
     const p = prefix();
-    const csv = `${HEADER}\n${p}.1,panel,Good,1780,madder (identified),resist\n${p}.2,panel,Bad date,around 1780,,\n${p}.3,panel,Bad dye,,woad; unobtainium,block printing\n`;
+    const csv = `${HEADER}\n${p}.1,panel,Good,1780,madder (attributed),resist\n${p}.2,panel,Bad date,around 1780,,\n${p}.3,panel,Bad dye,,woad; unobtainium,block printing\n`;
     const res = await upload(csv, { dryRun: true }).expect(200);
     expect(res.body).toMatchObject({ dryRun: true, rows: 3, valid: 1, invalid: 2 });
     expect(res.body.items.map((r: { line: number; errors: unknown[] }) => [r.line, r.errors.length])).toEqual([

@@ -19,7 +19,7 @@ const newPiece = (extra: Record<string, unknown> = {}) => ({
   dateEdtf: '1770/1785',
   fibres: ['cotton'],
   techniques: ['block printing', 'mordant printing'],
-  dyestuffs: [{ name: 'madder', evidence: 'identified' }],
+  dyestuffs: [{ name: 'madder', evidence: 'attributed' }],
   historicalMordants: [{ name: 'aluminium acetate (basic)', evidence: 'attributed' }],
   heightMm: 420.5,
   widthMm: 310,
@@ -308,7 +308,7 @@ describe('pieces: visibility, updates, history', () => {
     const tag = `F${run}x${++n}`;
     const made = [];
     for (const [i, extra] of [
-      { fibres: ['linen'], techniques: ['resist'], dyestuffs: [{ name: 'indigo', evidence: 'identified' }] },
+      { fibres: ['linen'], techniques: ['resist'], dyestuffs: [{ name: 'indigo', evidence: 'attributed' }] },
       { fibres: ['cotton'], techniques: ['resist'], dyestuffs: [{ name: 'weld', evidence: 'attributed' }] },
       { fibres: ['linen'], techniques: ['discharge'], dyestuffs: [{ name: 'indigo', evidence: 'attributed' }] },
     ].entries()) {

@@ -21,7 +21,7 @@ export const importBench: Bench = {
     ];
     for (let i = 1; i <= 10_000; i++) {
       lines.push(
-        `B${tag}.${i},fragment,"Sample ${i}, block printed",17XX,cotton,block printing; mordant printing,madder (identified); weld,potash alum (attributed),${200 + (i % 50)},${150 + (i % 30)},"Bench row ${i}",draft`,
+        `B${tag}.${i},fragment,"Sample ${i}, block printed",17XX,cotton,block printing; mordant printing,madder (attributed); weld,potash alum (attributed),${200 + (i % 50)},${150 + (i % 30)},"Bench row ${i}",draft`,
       );
     }
     const buffer = Buffer.from(`${lines.join('\n')}\n`, 'utf8');

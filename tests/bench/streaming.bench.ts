@@ -98,7 +98,7 @@ export const importStreamBench: Bench = {
       ];
       for (let i = 1; i <= ROWS; i++)
         lines.push(
-          `S${tag}.${i},fragment,"Sample ${i}, block printed",17XX,cotton,block printing; mordant printing,${i % 100 === 0 ? 'unobtainium' : 'madder (identified); weld'},potash alum (attributed),${200 + (i % 50)},${150 + (i % 30)},"Bench row ${i}",draft`,
+          `S${tag}.${i},fragment,"Sample ${i}, block printed",17XX,cotton,block printing; mordant printing,${i % 100 === 0 ? 'unobtainium' : 'madder (attributed); weld'},potash alum (attributed),${200 + (i % 50)},${150 + (i % 30)},"Bench row ${i}",draft`,
         );
       const file = path.join(dir, 'pieces.csv');
       await writeFile(file, `${lines.join('\n')}\n`);

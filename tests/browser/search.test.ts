@@ -127,4 +127,16 @@ describe('search page in Chromium', () => {
     await expect.poll(() => page.getByTestId('result-count').textContent()).toContain('3 pieces within ΔE00 5');
     await expect(page.getByLabel('Hex').inputValue()).resolves.toBe(target.slice(1));
   });
+
+  it('narrows by "identified by": the method of the analysis behind an identification (issue 19)', async () => {
+    // The demo's 1931.4.12 has madder identified by HPLC-DAD and its mordants by XRF (server/seed/data/demo-records.json).
+    const page = await browser.context.newPage();
+    await page.goto(`${server.url}/search?q=1931.4.12`);
+    const group = page.getByRole('group', { name: 'Identified by (analysis)' });
+    await group.getByRole('checkbox', { name: /^HPLC-DAD/ }).click();
+    await expect.poll(() => new URL(page.url()).searchParams.getAll('identifiedBy')).toEqual(['HPLC-DAD']);
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('1 piece');
+    await expect(page.getByRole('list', { name: 'Pieces found' }).textContent()).resolves.toContain('1931.4.12');
+    await expect(group.getByRole('checkbox', { name: /^XRF/ }).isVisible()).resolves.toBe(true);
+  });
 });

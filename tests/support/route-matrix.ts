@@ -8,12 +8,13 @@ import { dryRunImport } from '../../server/import/preview-store.ts';
 import { mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { Chemical, Dyestuff, Job, PaletteColour, Photo, User } from '../../server/models/index.ts';
+import { Chemical, Dyestuff, Job, PaletteColour, Photo, SavedSearch, User } from '../../server/models/index.ts';
 import { DEFAULT_BANDS_SOURCE } from '../../server/services/settings.ts';
 import type { Role } from '../../shared/roles.ts';
 import { DEFAULT_TOLERANCES } from '../../shared/compute/chart.ts';
 import { CHART_1976 } from '../../shared/data/colour-chart-1976.ts';
 import { chartPhoto } from './chart-image.ts';
+import { recordRows } from './route-matrix-records.ts';
 
 /**
  * The role × route matrix: one row per API route, with the status class each
@@ -233,6 +234,23 @@ async function seriesParams(ctx: SetupContext) {
   });
   return { params: { id: s.id } };
 }
+// Saved searches: the actor's own for `:own`, another person's otherwise (a private bookmark: 404 to everyone else).
+async function savedSearchParams(ctx: SetupContext) {
+  const userId = ctx.ownership === 'own' && ctx.user ? ctx.user.id : await otherDyerId();
+  const s = await SavedSearch.create({ userId, name: `matrix ${uniqueEmail('s')}`, query: 'q=madder' });
+  return { params: { id: s.id } };
+}
+const ownSearch: MatrixRow['expect'] = {
+  visitor: 401,
+  'admin:own': '2xx',
+  'admin:other': 404,
+  'curator:own': '2xx',
+  'curator:other': 404,
+  'researcher:own': '2xx',
+  'researcher:other': 404,
+  'dyer:own': '2xx',
+  'dyer:other': 404,
+};
 const ownRecord: MatrixRow['expect'] = {
   visitor: 401,
   admin: '2xx',
@@ -604,4 +622,12 @@ export const routeMatrix: MatrixRow[] = [
 
   row('GET /api/search', everyone('2xx'), { setup: async () => ({ query: { q: 'madder' } }) }),
   row('GET /api/search/shade', everyone('2xx'), { setup: async () => ({ query: { hex: '9b2f2f', maxDeltaE: '5' } }) }),
+  ...recordRows,
+
+  row('GET /api/home', signedIn),
+  row('GET /api/saved-searches', signedIn),
+  row('POST /api/saved-searches', signedIn, {
+    setup: async () => ({ body: { name: `matrix ${uniqueEmail('s')}`, query: 'q=madder&fibre=cotton' } }),
+  }),
+  row('DELETE /api/saved-searches/:id', ownSearch, { setup: savedSearchParams }),
 ];

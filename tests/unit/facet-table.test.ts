@@ -24,6 +24,7 @@ function piece(id: number): PieceDoc {
     fibres: some(['cotton', 'linen']),
     centuries: rnd() < 0.5 ? [18] : [18, 19],
     status: rnd() < 0.3 ? 'draft' : 'published',
+    identifiedBy: some(['HPLC-DAD', 'XRF']),
   };
   return { ...d, keys: facetKeys(d) };
 }

@@ -15,6 +15,7 @@ import {
   trialUpdateSchema,
 } from '../../shared/schemas/trial.ts';
 import { pieceCreateSchema, pieceListQuery } from '../../shared/schemas/piece.ts';
+import { savedSearchCreateSchema } from '../../shared/schemas/saved-search.ts';
 import { rectSchema, regionCreateSchema } from '../../shared/schemas/photo.ts';
 import { loginSchema } from '../../shared/schemas/auth.ts';
 import { acceptInvitationSchema, resetPasswordSchema, resetRequestSchema } from '../../shared/schemas/team.ts';
@@ -197,6 +198,19 @@ describe('the forms’ schemas, empty and wrong', () => {
     ['forgotten password, wrong', resetRequestSchema, { email: 'nobody' }],
     ['new password, short', resetPasswordSchema, { password: 'x' }],
     ['new piece, empty', pieceCreateSchema, {}],
+    [
+      'piece makers, marks and rights, wrong',
+      pieceCreateSchema,
+      {
+        makers: [{ name: '', role: 'weaver', dates: '1850-02-30' }, {}],
+        marks: [{ text: 5, kind: 'tag' }],
+        objectRights: 'all rights reserved',
+        imageRights: 7,
+        storageLocation: ['x'],
+      },
+    ],
+    ['saved search, empty', savedSearchCreateSchema, {}],
+    ['saved search, wrong', savedSearchCreateSchema, { name: 4, query: 'hex=red&maxDeltaE=99' }],
     ['trial details, wrong', trialUpdateSchema, { dryMassG: 'heavy', gsm: 0, dryMassBasis: 'damp' }],
     [
       'fastness grades, wrong',

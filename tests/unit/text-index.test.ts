@@ -49,6 +49,7 @@ function piece(id: number): PieceDoc {
     fibres: ['cotton'],
     centuries: [18],
     status: 'published',
+    identifiedBy: [],
   };
   return { ...d, keys: facetKeys(d) };
 }

@@ -12,6 +12,7 @@ import type {
   PieceUpdateInput,
 } from '../../../shared/schemas/piece';
 import type { PhotoOut } from '../../../shared/schemas/photo';
+import type { AnalysisListResponse } from '../../../shared/schemas/records';
 import { http } from '../../lib/http';
 
 export type Piece = PieceOut;
@@ -45,6 +46,19 @@ export const fetchPiece = (id: number) => http<PieceDetail>(`/api/pieces/${id}`)
 export const pieceQuery = (id: number) =>
   queryOptions({ queryKey: pieceKeys.detail(id), queryFn: () => fetchPiece(id) });
 export const usePiece = (id: number, enabled = true) => useQuery({ ...pieceQuery(id), enabled });
+
+/** The piece's analyses, for the "identified by" choice of the edit form (the records feature shows them in full). */
+export const usePieceAnalysisChoices = (id: number | undefined) =>
+  useQuery({
+    queryKey: ['records', 'analyses', id ?? 0],
+    queryFn: () => http<AnalysisListResponse>(`/api/pieces/${id}/analyses`),
+    enabled: id !== undefined,
+    select: (r) =>
+      r.items.map((a) => ({
+        id: a.id,
+        label: `${a.method}, ${a.analysedOn}${a.laboratory ? `, ${a.laboratory}` : ''}`,
+      })),
+  });
 
 export const fetchHistory = (id: number) => http<PieceHistoryResponse>(`/api/pieces/${id}/history`);
 export const historyQuery = (id: number) =>

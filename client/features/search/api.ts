@@ -16,6 +16,7 @@ const FILTER_KEYS = [
   'century',
   'place',
   'status',
+  'identifiedBy',
 ] as const;
 const SHADE_KEYS = ['hex', 'L', 'a', 'b', 'maxDeltaE', 'limit'] as const;
 

@@ -23,6 +23,9 @@ import * as m0026spectrum from './0026-measurement-spectrum.ts';
 import * as m0027photoChart from './0027-photo-chart.ts';
 import * as m0028targetAim from './0028-trial-target-aim.ts';
 import * as m0029fadingPairs from './0029-fading-pairs.ts';
+import * as m0030records from './0030-analyses-condition-displays.ts';
+import * as m0032pieceCuratorial from './0032-piece-curatorial.ts';
+import * as m0033savedSearches from './0033-saved-searches.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -51,4 +54,7 @@ export const migrations: Migration[] = [
   { name: '0027-photo-chart', ...m0027photoChart },
   { name: '0028-trial-target-aim', ...m0028targetAim },
   { name: '0029-fading-pairs', ...m0029fadingPairs },
+  { name: '0030-analyses-condition-displays', ...m0030records },
+  { name: '0032-piece-curatorial', ...m0032pieceCuratorial },
+  { name: '0033-saved-searches', ...m0033savedSearches },
 ];

@@ -21,6 +21,9 @@ import search from './search.ts';
 import suggestions from './suggestions.ts';
 import iiif from './iiif.ts';
 import media from './media.ts';
+import records from './records.ts';
+import home from './home.ts';
+import savedSearches from './saved-searches.ts';
 
 // One import per route group, in the order of server/routes/index.ts (then /iiif and /media, mounted in server/app.ts).
 export const groups: RouteGroup[] = [
@@ -35,6 +38,7 @@ export const groups: RouteGroup[] = [
   importGroup,
   exportGroup,
   pieces,
+  records,
   photos,
   reference,
   vocabularies,
@@ -44,6 +48,8 @@ export const groups: RouteGroup[] = [
   series,
   search,
   suggestions,
+  home,
+  savedSearches,
   iiif,
   media,
 ];

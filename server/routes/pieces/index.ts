@@ -13,6 +13,7 @@ import { listPieces, loadPhotosOf, loadReadablePiece } from './load.ts';
 import { cachedList } from './list-cache.ts';
 import { photoUploadRouter } from '../photos/upload.ts';
 import { fadingRouter } from './fading.ts';
+import { lightDoseOf } from '../../services/records/displays.ts';
 
 export const piecesRouter = Router();
 
@@ -51,7 +52,12 @@ piecesRouter.get('/:id', async (req, res) => {
   const { id } = parseParams(idParams, req);
   const piece = await loadReadablePiece(actor, id);
   const photos = await loadPhotosOf(piece.id);
-  res.json({ piece: presentPiece(piece, actor), photos: photos.map((x) => presentPhoto(x.photo, actor, x)) });
+  const lightDose = can(actor, 'display:read') ? await lightDoseOf(piece) : null;
+  res.json({
+    piece: presentPiece(piece, actor),
+    photos: photos.map((x) => presentPhoto(x.photo, actor, x)),
+    lightDose,
+  });
 });
 
 piecesRouter.patch('/:id', requireUser, async (req, res) => {

@@ -53,8 +53,9 @@ export function ImportPieces() {
         <h2 className="text-lg font-semibold">1. Choose the file</h2>
         <p className="mt-1 text-sm text-ink-soft">
           A CSV saved as UTF-8, one piece per row, a header row first. Lists in one cell are separated by semicolons;
-          evidence follows a name in brackets, e.g.{' '}
-          <span className="font-mono">madder (identified); weld (attributed)</span>. Dates in EDTF, e.g.{' '}
+          evidence follows a name in brackets, e.g. <span className="font-mono">madder (attributed); weld</span>{' '}
+          (attributed when left out). An identification needs the analysis behind it, which a file cannot carry: import
+          the name as attributed, then record the analysis on the piece&rsquo;s page. Dates in EDTF, e.g.{' '}
           <span className="font-mono">1770/1785</span> or <span className="font-mono">18XX</span>.
         </p>
         <label className="mt-3 block text-sm font-medium">

@@ -69,7 +69,7 @@ export function TermChecklist({
   );
 }
 
-export type Evidenced = { name: string; evidence: 'attributed' | 'identified' };
+export type Evidenced = { name: string; evidence: 'attributed' | 'identified'; analysisId?: number | null };
 
 /** Rows of name + evidence (attributed | identified), for dyestuffs and historical mordants. */
 export function EvidencedList({
@@ -80,7 +80,9 @@ export function EvidencedList({
   errors,
   field,
   hint,
+  analyses = [],
 }: {
+  analyses?: Array<{ id: number; label: string }>;
   legend: string;
   suggestions: string[];
   value: Evidenced[];
@@ -135,6 +137,32 @@ export function EvidencedList({
                 <option value="identified">identified (by analysis)</option>
               </select>
             </label>
+            {row.evidence === 'identified' ? (
+              <label className="text-sm">
+                <span className="sr-only">
+                  {legend} {i + 1} identified by
+                </span>
+                <select
+                  value={row.analysisId ?? ''}
+                  onChange={(e) => set(i, { analysisId: e.target.value ? Number(e.target.value) : null })}
+                  aria-invalid={errors[`${field}.${i}.analysisId`] ? true : undefined}
+                  aria-describedby={errors[`${field}.${i}.analysisId`] ? `${listId}-${i}-an` : undefined}
+                  className="max-w-64 rounded-md border border-rule-strong bg-sheet px-2 py-2 text-sm"
+                >
+                  <option value="">Identified by which analysis?</option>
+                  {analyses.map((a) => (
+                    <option key={a.id} value={a.id}>
+                      {a.label}
+                    </option>
+                  ))}
+                </select>
+                {errors[`${field}.${i}.analysisId`] ? (
+                  <span id={`${listId}-${i}-an`} className="block text-danger">
+                    {errorText(errors[`${field}.${i}.analysisId`])}
+                  </span>
+                ) : null}
+              </label>
+            ) : null}
             <button
               type="button"
               className="px-2 py-2 text-sm text-action hover:underline"

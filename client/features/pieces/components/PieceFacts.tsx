@@ -1,6 +1,27 @@
 import type { ReactNode } from 'react';
 import type { Piece } from '../api';
 import { yearsOf } from './ArchiveTable';
+import { curatorialFacts } from './curatorialFacts';
+
+/** "madder (identified)" links to the analysis behind it, further down the page. */
+function Evidenced({ list }: { list: Piece['dyestuffs'] }) {
+  return (
+    <>
+      {list.map((d, i) => (
+        <span key={d.name}>
+          {i ? '; ' : ''}
+          {d.evidence === 'identified' && d.analysisId ? (
+            <a className="text-action hover:underline" href={`#analysis-${d.analysisId}`}>
+              {d.name} (identified)
+            </a>
+          ) : (
+            `${d.name} (${d.evidence})`
+          )}
+        </span>
+      ))}
+    </>
+  );
+}
 
 const mm = (v: number | null) => (v == null ? null : `${v} mm`);
 
@@ -23,17 +44,13 @@ export function PieceFacts({ piece }: { piece: Piece }) {
     ],
     ['Pattern repeat', piece.repeatMm != null ? <span className="num">{mm(piece.repeatMm)}</span> : null],
     ['Techniques', piece.techniques.join(', ') || null],
-    ['Dyestuffs', piece.dyestuffs.length ? piece.dyestuffs.map((d) => `${d.name} (${d.evidence})`).join('; ') : null],
-    [
-      'Historical mordants',
-      piece.historicalMordants.length
-        ? piece.historicalMordants.map((d) => `${d.name} (${d.evidence})`).join('; ')
-        : null,
-    ],
+    ['Dyestuffs', piece.dyestuffs.length ? <Evidenced list={piece.dyestuffs} /> : null],
+    ['Historical mordants', piece.historicalMordants.length ? <Evidenced list={piece.historicalMordants} /> : null],
     ['Description', piece.description],
     ['Provenance', piece.provenance],
     ['Condition', piece.condition],
     ['Credit line', piece.creditLine],
+    ...curatorialFacts(piece),
   ];
   return (
     <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[12rem_1fr] text-sm">

@@ -5,8 +5,9 @@ import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
 import { useFormErrors } from '../../../lib/form';
 import { useVocabularies } from '../../vocabularies';
-import type { Piece } from '../api';
+import { usePieceAnalysisChoices, type Piece } from '../api';
 import { EvidencedList, TermChecklist, TextAreaField, type Evidenced } from './FormBits';
+import { CuratorialFieldset, type CuratorialText, type MakerRow, type MarkRow } from './CuratorialFields';
 
 type Text = Record<
   | 'accessionNumber'
@@ -25,10 +26,18 @@ type Text = Record<
   | 'description'
   | 'provenance'
   | 'condition'
-  | 'creditLine',
+  | 'creditLine'
+  | keyof CuratorialText,
   string
 >;
-type State = Text & { fibres: string[]; techniques: string[]; dyestuffs: Evidenced[]; historicalMordants: Evidenced[] };
+type State = Text & {
+  fibres: string[];
+  techniques: string[];
+  dyestuffs: Evidenced[];
+  historicalMordants: Evidenced[];
+  makers: MakerRow[];
+  marks: MarkRow[];
+};
 
 const NUMERIC = new Set(['earliestYear', 'latestYear', 'heightMm', 'widthMm', 'repeatMm']);
 const str = (v: unknown) => (v == null ? '' : String(v));
@@ -52,6 +61,10 @@ function initial(p?: Piece): State {
     'provenance',
     'condition',
     'creditLine',
+    'patternName',
+    'storageLocation',
+    'objectRights',
+    'imageRights',
   ] as const;
   const text = Object.fromEntries(keys.map((k) => [k, str(p?.[k])])) as Text;
   return {
@@ -60,6 +73,8 @@ function initial(p?: Piece): State {
     techniques: p?.techniques ?? [],
     dyestuffs: p?.dyestuffs ?? [],
     historicalMordants: p?.historicalMordants ?? [],
+    makers: (p?.makers ?? []).map((m) => ({ ...m, dates: m.dates ?? '' })),
+    marks: (p?.marks ?? []).map((m) => ({ ...m, place: m.place ?? '' })),
   };
 }
 
@@ -88,6 +103,7 @@ export function PieceForm({
   onSubmit: (input: PieceCreateInput) => Promise<unknown>;
 }) {
   const vocab = useVocabularies().data;
+  const analyses = usePieceAnalysisChoices(piece?.id).data ?? [];
   const [state, setState] = useState<State>(() => initial(piece));
   const { formRef, errors, check, fromServer } = useFormErrors();
   const [formError, setFormError] = useState<string | null>(null);
@@ -220,6 +236,7 @@ export function PieceForm({
           field="dyestuffs"
           suggestions={vocab?.dyestuffs.map((d) => d.name) ?? []}
           value={state.dyestuffs}
+          analyses={analyses}
           onChange={(v) => set('dyestuffs', v)}
           errors={errors}
         />
@@ -229,6 +246,7 @@ export function PieceForm({
           hint="What the maker used, for the record; several were toxic (lead, chromium, tin, arsenic). Trials record the safer substitutes."
           suggestions={vocab?.mordants.map((m) => m.name) ?? []}
           value={state.historicalMordants}
+          analyses={analyses}
           onChange={(v) => set('historicalMordants', v)}
           errors={errors}
         />
@@ -241,6 +259,16 @@ export function PieceForm({
         <TextAreaField label="Condition" {...text('condition')} />
         <Field label="Credit line" {...text('creditLine')} />
       </fieldset>
+
+      <CuratorialFieldset
+        makers={state.makers}
+        marks={state.marks}
+        text={state}
+        onMakers={(v) => set('makers', v)}
+        onMarks={(v) => set('marks', v)}
+        onText={(k, v) => set(k, v)}
+        errors={errors}
+      />
 
       {formError ? (
         <p role="alert" className="rounded-md bg-danger-tint px-3 py-2 text-sm text-danger">

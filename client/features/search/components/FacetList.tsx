@@ -9,10 +9,12 @@ const TITLES: Record<FacetName, string> = {
   century: 'Century',
   place: 'Place',
   status: 'Status',
+  identifiedBy: 'Identified by (analysis)',
 };
 const ORDER: FacetName[] = [
   'dyestuff',
   'historicalMordant',
+  'identifiedBy',
   'modernMordant',
   'fibre',
   'technique',
