@@ -86,7 +86,7 @@ describe('the records behind a piece, in Chromium', () => {
     await page.goto(`${suite.server.url}/archive/${piece.id}`);
     await page.getByRole('heading', { name: 'Light exposure' }).waitFor();
     await page.getByRole('button', { name: 'Log a display' }).click();
-    await page.getByLabel('From').fill(`${year}-01-05`);
+    await page.getByLabel('From', { exact: true }).fill(`${year}-01-05`);
     await page.getByLabel('To', { exact: true }).fill(`${year}-01-14`);
     await page.getByLabel(/Illuminance/).fill('50');
     await page.getByLabel(/Hours lit a day/).fill('8');
@@ -96,7 +96,7 @@ describe('the records behind a piece, in Chromium', () => {
 
     // A long bright display is warned about before it is saved, and recorded only when confirmed.
     await page.getByRole('button', { name: 'Log a display' }).click();
-    await page.getByLabel('From').fill(`${year}-02-01`);
+    await page.getByLabel('From', { exact: true }).fill(`${year}-02-01`);
     await page.getByLabel('To', { exact: true }).fill(`${year}-11-30`);
     await page.getByLabel(/Illuminance/).fill('100');
     await page.getByLabel(/Hours lit a day/).fill('8');
