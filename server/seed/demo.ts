@@ -675,13 +675,15 @@ export async function seedDemo(t: Transaction) {
       ],
     );
   }
-  // Strength ladders, made before the workshop to choose its madder strength: madder and weld at 5, 10, 20 and 40 %
-  // owf on tannin-and-alum mordanted cotton, everything else the same, each swatch read as a spectrum. They are what
+  // The workshop's strength ladders, dyed to choose its madder strength: madder and weld at 5, 10, 20 and 40 % owf on
+  // tannin-and-alum mordanted cotton, everything else the same, each swatch read as a spectrum; in the series, outside
+  // its grid of cells. They are what
   // recipe suggestions interpolate (server/services/suggestions/); the readings are invented (server/seed/ladders.ts).
   for (const dye of ['madder', 'weld'] as const)
     for (const owf of [5, 10, 20, 40]) {
       const trial = await makeTrial(
         {
+          seriesId: series.id,
           dyerId: tamsin.id,
           dryMassG: 10,
           gsm: 140,

@@ -103,11 +103,11 @@ describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offer
     await page.close();
   });
 
-  it('admin: Team, Fixity and (outside production) Outbox in the administration links, each opening its page', async () => {
+  it('admin: Team, Fixity, Tolerances and (outside production) Outbox in the administration links, each opening its page', async () => {
     const page = await asRole('admin@demo.test');
     const admin = page.getByRole('navigation', { name: 'Administration' });
     await admin.waitFor();
-    expect(await admin.getByRole('link').allTextContents()).toEqual(['Team', 'Fixity', 'Outbox']);
+    expect(await admin.getByRole('link').allTextContents()).toEqual(['Team', 'Fixity', 'Tolerances', 'Outbox']);
     await admin.getByRole('link', { name: 'Fixity' }).click();
     await page.getByRole('heading', { name: 'Fixity', exact: true, level: 1 }).waitFor();
     await admin.getByRole('link', { name: 'Outbox' }).click();
