@@ -66,6 +66,8 @@ export class SearchEngine {
   private lastError: string | null = null;
   /** Bumped on every change to the piece documents; caches key on it. */
   version = 0;
+  /** Bumped on every change to either index (answer-cache.ts keys whole answers on it). */
+  generation = 0;
   /** When each index was last loaded or changed (ms since epoch; null before its first load), for /api/health. */
   textUpdatedAt: number | null = null;
   shadeUpdatedAt: number | null = null;
@@ -140,6 +142,7 @@ export class SearchEngine {
     const { pieces, trials } = await loadAll();
     this.text.load(pieces, trials);
     this.version++;
+    this.generation++;
     // Built here rather than by the first search after start-up (about a second at 170,000 pieces).
     facetTableFor(this.text, this.version);
     this.textUpdatedAt = Date.now();
@@ -149,6 +152,7 @@ export class SearchEngine {
     const { colours, photos } = await readShade();
     this.shade.load(colours, photos);
     this.shadeUpdatedAt = Date.now();
+    this.generation++;
   }
 
   /** A write committed on this server: catch up soon rather than at the next tick. */
@@ -234,6 +238,7 @@ export class SearchEngine {
         }
         done('trial', ids);
         this.version++;
+        this.generation++;
         this.textUpdatedAt = Date.now();
       }
       const all = [...pieces];
@@ -243,6 +248,7 @@ export class SearchEngine {
         for (const id of ids) this.text.setPiece(id, docs.get(id) ?? null);
         done('piece', ids);
         this.version++;
+        this.generation++;
         this.textUpdatedAt = Date.now();
       }
     }
@@ -266,6 +272,7 @@ export class SearchEngine {
       this.shade.add(bestVariantOnly(colours));
       done('photo', photos);
       this.shadeUpdatedAt = Date.now();
+      this.generation++;
     }
   }
 

@@ -13,6 +13,7 @@ import type {
 } from '../../shared/schemas/search.ts';
 import { IMAGE_ESTIMATE_CONDITIONS } from '../../shared/colour/conditions.ts';
 import { hexToLab, labToHex } from '../../shared/search/lab.ts';
+import { audienceOf, cachedAnswer } from './answer-cache.ts';
 import { searchEngine } from './engine.ts';
 import { countMatched, FACETS, type FacetTable, facetTableFor, norm } from './facet-table.ts';
 import { highlights } from './highlight.ts';
@@ -182,8 +183,16 @@ function facetCounts(
   return out;
 }
 
+/**
+ * A search's answer is a function of the indexes' state (`searchEngine.generation`), the query and what the actor may
+ * see, so equal questions asked between two changes of the indexes share one answer (answer-cache.ts).
+ */
 export async function runSearch({ actor, input }: { actor: Actor; input: SearchQuery }): Promise<SearchResponse> {
   await searchEngine.settled();
+  return cachedAnswer('search', audienceOf(actor), input, () => computeSearch(actor, input));
+}
+
+function computeSearch(actor: Actor, input: SearchQuery): SearchResponse {
   // From here to the answer: no `await`, the matches live in reused buffers (README.md, invariant 1).
   const { textMatched, matched, hits, c, trials } = candidates(actor, input);
   const rank = facetTable().accessionRank;
@@ -240,6 +249,10 @@ function allowList(actor: Actor, f: SearchFilters): Uint8Array {
 
 export async function runShade({ actor, input }: { actor: Actor; input: ShadeQuery }): Promise<ShadeResponse> {
   await searchEngine.settled();
+  return cachedAnswer('shade', audienceOf(actor), input, () => computeShade(actor, input));
+}
+
+function computeShade(actor: Actor, input: ShadeQuery): ShadeResponse {
   // From here to the answer: no `await`, the matches live in reused buffers (README.md, invariant 1).
   const lab = input.hex ? hexToLab(input.hex) : { L: input.L!, a: input.a!, b: input.b! };
   const offset = (input.page - 1) * input.limit;
