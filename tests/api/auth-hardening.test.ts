@@ -104,4 +104,35 @@ describe('sign-in hardening', () => {
     expect(changed).toBe(1);
     await request(app).get('/api/auth/me').set('Cookie', cookie).expect(401);
   });
+
+  it('reads the session and its user in one query, and still sees a role change or deactivation on the next request', async () => {
+    const app = createApp();
+    const email = await member('a-long-enough-password');
+    const res = await login(app, email, 'a-long-enough-password', randomIp()).expect(200);
+    const cookie = res.headers['set-cookie'][0].split(';')[0];
+    await request(app).get('/api/auth/me').set('Cookie', cookie).expect(200);
+
+    // Every query this process sends while one signed-in request is answered (the route reads nothing else).
+    const seen: string[] = [];
+    sequelize.addHook('afterQuery', 'count-session-reads', (_options, query) => {
+      seen.push(String((query as { sql?: string }).sql ?? ''));
+    });
+    try {
+      const me = await request(app).get('/api/auth/me').set('Cookie', cookie).expect(200);
+      expect(me.body.user.email).toBe(email);
+    } finally {
+      sequelize.removeHook('afterQuery', 'count-session-reads');
+    }
+    const touching = seen.filter((sql) => /\b(sessions|users)\b/.test(sql));
+    expect(touching).toHaveLength(1);
+    expect(touching[0]).toMatch(/FROM sessions s LEFT JOIN users u/);
+
+    // The user is read with every request, so a role change made anywhere shows at once ...
+    await User.update({ role: 'curator' }, { where: { email } });
+    const after = await request(app).get('/api/auth/me').set('Cookie', cookie).expect(200);
+    expect(after.body.user.role).toBe('curator');
+    // ... and a deactivated user (sessions left in place here, by raw SQL) signs nobody in.
+    await sequelize.query('UPDATE users SET active = 0 WHERE email = ?', { replacements: [email] });
+    await request(app).get('/api/auth/me').set('Cookie', cookie).expect(401);
+  });
 });
