@@ -30,7 +30,24 @@ export function contractCheck(groups: RouteGroup[] = allGroups): RequestHandler 
   };
 
   return (req, res, next) => {
-    const json = res.json.bind(res);
+    const original = res.json.bind(res);
+    const send = res.send.bind(res);
+    // res.json serialises and calls res.send: while it runs, send passes its string through unchecked.
+    let serialising = false;
+    const json = (body: unknown) => {
+      serialising = true;
+      try {
+        return original(body);
+      } finally {
+        serialising = false;
+      }
+    };
+    // A route may send JSON it serialised itself (the archive list's cached pages): checked like res.json's.
+    res.send = (body?: unknown) => {
+      const type = String(res.get('Content-Type') ?? '');
+      if (!serialising && typeof body === 'string' && type.includes('json')) return res.json(JSON.parse(body));
+      return send(body);
+    };
     res.json = (body: unknown) => {
       const wire: unknown = body === undefined ? undefined : JSON.parse(JSON.stringify(body));
       const status = res.statusCode;

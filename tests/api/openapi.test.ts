@@ -144,6 +144,8 @@ describe('contract check (tests only)', () => {
     if (req.params.id === '1') res.json({ id: 1, at: new Date('2026-01-02T03:04:05Z') });
     else if (req.params.id === '2') res.json({ id: 'two', at: 'yesterday' });
     else if (req.params.id === '3') res.status(201).json({ id: 3, at: new Date() });
+    else if (req.params.id === '6') res.type('json').send(JSON.stringify({ id: 6, at: '2026-01-02T03:04:05.000Z' }));
+    else if (req.params.id === '7') res.type('json').send(JSON.stringify({ id: 'five' }));
     else res.status(404).json({ error: { code: 'not_found', message: 'Thing not found.' } });
   });
   things.get('/:id/free', (_req, res) => res.json({ anything: true }));
@@ -161,6 +163,14 @@ describe('contract check (tests only)', () => {
     expect(res.body.error.code).toBe('contract_violation');
     expect(res.body.error.details.route).toBe('GET /api/things/:id');
     expect(res.body.error.details.issues.map((i: { path: string[] }) => i.path.join('.')).sort()).toEqual(['at', 'id']);
+  });
+  it('checks JSON a route serialised itself (res.send with a JSON type), as the archive list sends its cached pages', async () => {
+    expect((await request(mini).get('/api/things/6').expect(200)).body).toEqual({
+      id: 6,
+      at: '2026-01-02T03:04:05.000Z',
+    });
+    const res = await request(mini).get('/api/things/7').expect(500);
+    expect(res.body.error.code).toBe('contract_violation');
   });
   it('finds the contract of a router mounted on a path with a parameter', async () => {
     const res = await request(mini).get('/api/things/7/parts').expect(500);

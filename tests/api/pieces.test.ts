@@ -404,3 +404,13 @@ describe('vocabularies', () => {
     expect(res.body.mordants.length).toBeGreaterThan(0);
   });
 });
+
+describe('pieces: the archive list as sent', () => {
+  it('answers JSON with an entity tag, and 304 to a client that already holds that page', async () => {
+    const first = await request(app).get('/api/pieces?pageSize=5').expect(200);
+    expect(first.headers['content-type']).toMatch(/^application\/json/);
+    expect(first.headers.etag).toMatch(/^W\/"[0-9a-f]+-[A-Za-z0-9+/]{27}"$/);
+    expect(first.body.items.length).toBeGreaterThan(0);
+    await request(app).get('/api/pieces?pageSize=5').set('If-None-Match', first.headers.etag).expect(304);
+  });
+});

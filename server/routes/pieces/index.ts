@@ -24,17 +24,17 @@ piecesRouter.get('/', async (req, res) => {
   if (q.deleted && !can(actor, 'piece:read', { deleted: true }))
     throw forbidden('Only curators and admins see deleted pieces.');
   const audience = can(actor, 'piece:list-drafts') ? 'staff' : 'public';
-  res.json(
-    await cachedList(audience, q, async () => {
-      const { rows, total, firstPhoto } = await listPieces(actor, q);
-      return {
-        items: rows.map((p) => presentPieceRow(p, firstPhoto.get(p.id) ?? null)),
-        total,
-        page: q.page,
-        pageSize: q.pageSize,
-      };
-    }),
-  );
+  const { json, etag } = await cachedList(audience, q, async () => {
+    const { rows, total, firstPhoto } = await listPieces(actor, q);
+    return {
+      items: rows.map((p) => presentPieceRow(p, firstPhoto.get(p.id) ?? null)),
+      total,
+      page: q.page,
+      pageSize: q.pageSize,
+    };
+  });
+  // Sent as cached, already serialised (list-cache.ts); Express still answers 304 when the tag matches.
+  res.set('ETag', etag).type('json').send(json);
 });
 
 piecesRouter.post('/', requireUser, async (req, res) => {

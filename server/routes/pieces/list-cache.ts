@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { LRUCache } from 'lru-cache';
 import type { PieceListResponse } from '../../../shared/schemas/piece.ts';
 import { searchEngine } from '../../search/engine.ts';
@@ -15,8 +16,12 @@ import { searchEngine } from '../../search/engine.ts';
  * every write committed before it, on any app server, exactly as search does. When the indexes are not loaded yet or
  * the catch-up fails, the list is read from MariaDB uncached. Concurrent misses of one key share one read.
  * Each server holds its own cache; nothing in it is needed by another server.
+ *
+ * An answer is kept serialised, with its entity tag, so a hit costs no JSON.stringify and no hashing of the body
+ * (together about 5 % of the process's time at 200 connections, and much of its garbage).
  */
-type Entry = { mark: number; answer: Promise<PieceListResponse> };
+export type SerialisedAnswer = { json: string; etag: string };
+type Entry = { mark: number; answer: Promise<SerialisedAnswer> };
 
 const cache = new LRUCache<string, Entry>({ max: 2_000 });
 
@@ -25,13 +30,13 @@ export async function cachedList(
   audience: string,
   query: object,
   read: () => Promise<PieceListResponse>,
-): Promise<PieceListResponse> {
+): Promise<SerialisedAnswer> {
   const mark = await searchEngine.logMark();
-  if (mark === null) return read();
+  if (mark === null) return serialise(await read());
   const key = `${audience}\u0000${JSON.stringify(query)}`;
   const hit = cache.get(key);
   if (hit && hit.mark === mark) return hit.answer;
-  const answer = read();
+  const answer = read().then(serialise);
   if (!hit || hit.mark < mark) {
     cache.set(key, { mark, answer });
     answer.catch(() => {
@@ -39,6 +44,13 @@ export async function cachedList(
     });
   }
   return answer;
+}
+
+/** The body as Express would send it, and a weak entity tag of the same form as Express's default (length and SHA-1). */
+function serialise(value: PieceListResponse): SerialisedAnswer {
+  const json = JSON.stringify(value);
+  const hash = createHash('sha1').update(json, 'utf8').digest('base64').slice(0, 27);
+  return { json, etag: `W/"${Buffer.byteLength(json, 'utf8').toString(16)}-${hash}"` };
 }
 
 /** Forget every cached answer (tests). */
