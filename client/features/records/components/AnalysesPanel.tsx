@@ -9,6 +9,7 @@ import { COLORANTS, ELEMENTS } from '../../../../shared/data/marker-compounds';
 import { formatBytes } from '../../../../shared/format';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
+import { CheckboxGroup } from '../../../components/form/CheckboxGroup';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { Select } from '../../../components/form/Select';
 import { formMessage, useFormErrors } from '../../../lib/form';
@@ -272,31 +273,14 @@ function AnalysisForm({
         ) : null}
       </fieldset>
       {terms.length ? (
-        <fieldset>
-          <legend className="text-sm font-medium">This analysis identifies</legend>
-          <p className="text-xs text-ink-faint">
-            Ticked entries of the piece become “identified” and point to this analysis.
-          </p>
-          <div className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
-            {terms.map((t) => (
-              <label key={t.name} className="flex items-center gap-2 text-sm">
-                <input
-                  type="checkbox"
-                  checked={identifies.includes(t.name)}
-                  onChange={(e) =>
-                    setIdentifies(e.target.checked ? [...identifies, t.name] : identifies.filter((n) => n !== t.name))
-                  }
-                />
-                {t.name}
-              </label>
-            ))}
-          </div>
-          {errors.identifies ? (
-            <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>
-              {errors.identifies.join(' ')}
-            </p>
-          ) : null}
-        </fieldset>
+        <CheckboxGroup
+          legend="This analysis identifies"
+          hint="Ticked entries of the piece become “identified” and point to this analysis."
+          options={terms.map((t) => ({ value: t.name, label: t.name }))}
+          selected={identifies}
+          onChange={setIdentifies}
+          error={errors.identifies}
+        />
       ) : null}
       <Field
         label="Report (PDF)"

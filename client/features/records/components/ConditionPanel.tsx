@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { conditionCreateSchema } from '../../../../shared/schemas/records';
 import { Button } from '../../../components/Button';
 import { Field } from '../../../components/form/Field';
+import { CheckboxGroup } from '../../../components/form/CheckboxGroup';
 import { FormAlert } from '../../../components/form/FormAlert';
 import { formMessage, useFormErrors } from '../../../lib/form';
 import { useConditions, useCreateCondition } from '../api';
@@ -99,28 +100,13 @@ function ConditionForm({
         />
       </div>
       {photos.length ? (
-        <fieldset>
-          <legend className="text-sm font-medium">Photos that show it</legend>
-          <div className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
-            {photos.map((p) => (
-              <label key={p.id} className="flex items-center gap-2 text-sm">
-                <input
-                  type="checkbox"
-                  checked={photoIds.includes(p.id)}
-                  onChange={(e) =>
-                    setPhotoIds(e.target.checked ? [...photoIds, p.id] : photoIds.filter((x) => x !== p.id))
-                  }
-                />
-                {p.label}
-              </label>
-            ))}
-          </div>
-          {errors.photoIds ? (
-            <p className="mt-1 text-sm text-danger" data-field-error tabIndex={-1}>
-              {errors.photoIds.join(' ')}
-            </p>
-          ) : null}
-        </fieldset>
+        <CheckboxGroup
+          legend="Photos that show it"
+          options={photos.map((p) => ({ value: p.id, label: p.label }))}
+          selected={photoIds}
+          onChange={setPhotoIds}
+          error={errors.photoIds}
+        />
       ) : null}
       <label className="block text-sm">
         <span className="font-medium">Notes</span>
