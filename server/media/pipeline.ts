@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { readFile, rm, stat } from 'node:fs/promises';
+import { stat } from 'node:fs/promises';
 import sharp, { type Metadata } from 'sharp';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
@@ -12,7 +12,8 @@ import { exists, moveIntoPlace, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
 import { maxBytesInWords, maxPixelsInWords, mediaLimits } from './limits.ts';
 import { paletteRows } from './rows.ts';
-import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
+import { derivativePath, derivativesDir, masterPath, tilesDir } from './paths.ts';
+import { storage } from '../storage/index.ts';
 import type { ServiceCtx } from '../services/context.ts';
 export { repalette } from './repalette.ts';
 
@@ -233,7 +234,7 @@ export async function ingestPhoto({
     return { photo, palette };
   } catch (err) {
     await files.removeAll();
-    if (photoId) await rm(resolveInsideUploads(derivativesDir(photoId)), { recursive: true, force: true });
+    if (photoId) await storage().deletePrefix(`${derivativesDir(photoId)}/`);
     if (err instanceof HttpError) throw err;
     throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
       reason: err instanceof Error ? err.message : String(err),
@@ -243,21 +244,24 @@ export async function ingestPhoto({
 
 /** Deletes a photo's derivatives and tiles, and its master unless another photo row shares it. */
 export async function removePhotoFiles(photo: Photo, transaction?: Transaction) {
-  await rm(resolveInsideUploads(derivativesDir(photo.id)), { recursive: true, force: true });
-  await rm(resolveInsideUploads(tilesDir(photo.id)), { recursive: true, force: true });
+  await storage().deletePrefix(`${derivativesDir(photo.id)}/`);
+  await storage().deletePrefix(`${tilesDir(photo.id)}/`);
   const others = await Photo.count({ where: { sha256: photo.sha256 }, transaction });
   const stillUsed = others - ((await Photo.findByPk(photo.id, { transaction })) ? 1 : 0);
   const master = photo.derivatives.master?.path;
-  if (stillUsed <= 0 && master) await rm(resolveInsideUploads(master), { force: true });
+  if (stillUsed <= 0 && master) await storage().delete(master);
 }
 
-/** Absolute path of a photo's file for res.sendFile. */
-export function photoFile(photo: Photo, kind: 'thumb' | 'display' | 'master'): string {
+/** The storage key of a photo's file (server/storage). */
+export function photoKey(photo: Photo, kind: 'thumb' | 'display' | 'master'): string {
   const rel = photo.derivatives[kind]?.path;
   if (!rel) throw new HttpError(404, 'not_found', `This photo has no ${kind} file.`);
-  return resolveInsideUploads(rel);
+  return rel;
 }
 
-export async function readMaster(photo: Photo) {
-  return readFile(photoFile(photo, 'master'));
+/** Absolute path of a photo's file with the local storage driver (tests read the files; null-safe only there). */
+export function photoFile(photo: Photo, kind: 'thumb' | 'display' | 'master'): string {
+  const file = storage().localPath(photoKey(photo, kind));
+  if (!file) throw new Error('photoFile needs the local storage driver; use photoKey and server/storage');
+  return file;
 }
