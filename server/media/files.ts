@@ -1,8 +1,7 @@
 import { randomBytes } from 'node:crypto';
-import { utimes } from 'node:fs/promises';
-import path from 'node:path';
-import { rename } from 'node:fs/promises';
 import { createWriteStream } from 'node:fs';
+import { rename, utimes } from 'node:fs/promises';
+import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { localTempPath, localUploadsRoot, storage } from '../storage/index.ts';
 import { masterPath, tmpDir } from './paths.ts';
@@ -36,6 +35,12 @@ export class WrittenFiles {
     this.keys.push(tmp);
     await storage().put(tmp, { file: from, move: true, sha256 });
     return tmp;
+  }
+
+  /** Takes charge of a temp master already stored (prepareIngest sent it with object storage): removed on failure. */
+  adopt(key: string) {
+    this.keys.push(key);
+    return key;
   }
 
   async removeAll() {

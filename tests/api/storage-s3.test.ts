@@ -89,6 +89,22 @@ describe('object storage (S3): upload to tiles through the app', () => {
     expect(await bucket.exists(`derivatives/${id}/thumb.webp`)).toBe(true);
     expect(await disk.exists(master)).toBe(false);
     expect(await disk.exists(`derivatives/${id}/display.webp`)).toBe(false);
+    // The temp master (sent to the bucket before the transaction) was moved into place: none is left under tmp/.
+    const temps = async () => {
+      const out: string[] = [];
+      for await (const o of bucket.list('tmp/')) out.push(o.key);
+      return out;
+    };
+    expect(await temps()).toEqual([]);
+    // A file refused after it was hashed (cut short: its header reads, its pixels do not) leaves nothing behind.
+    const cut = await clothJpeg({ seed: 800_000 + Math.floor(Math.random() * 1e6) });
+    await curator
+      .post(`/api/pieces/${piece.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', cut.subarray(0, cut.length >> 1), 'cut.jpg')
+      .expect(422);
+    expect(await temps()).toEqual([]);
+    expect(await bucket.exists(masterPath(sha(cut.subarray(0, cut.length >> 1)), 'jpg'))).toBe(false);
 
     // Derivatives and the master come back through the app, behind its rules.
     const display = await curator.get(`/media/photos/${id}/display`).buffer(true).parse(binary).expect(200);
