@@ -1,4 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto';
+import path from 'node:path';
 import { Readable } from 'node:stream';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
@@ -13,6 +14,7 @@ import { LocalStorage, localUploadsRoot, useStorage, type StorageDriver } from '
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
+import { reportPdf } from '../support/report-pdf.ts';
 import { startTestS3, type S3Fake } from '../support/s3.ts';
 
 // Issue 18, item 4: with S3-compatible object storage (the s3rver fake) the whole flow works without the uploads
@@ -146,6 +148,54 @@ describe('object storage (S3): upload to tiles through the app', () => {
     expect(await bucket.exists(`derivatives/${id}/display.webp`)).toBe(false);
     expect(await bucket.exists(`tiles/${id}/iiif/info.json`)).toBe(false);
     expect(await bucket.exists(master)).toBe(false);
+  });
+});
+
+describe('object storage (S3): palettes recomputed from the master', () => {
+  it('reads the master through a local copy kept by its SHA-256 when a colour area is added', async () => {
+    const piece = await makePiece({ status: 'draft' });
+    const { photo, key } = await makePhotoWithMaster(piece.id, { width: 300, height: 200 });
+    const curator = await signedInAgent(app, 'curator');
+    const res = await curator
+      .post(`/api/photos/${photo.id}/regions`)
+      .set('Origin', ORIGIN)
+      .send({ x: 10, y: 10, w: 80, h: 150, purpose: 'colour-area', label: 'left band' })
+      .expect(201);
+    expect(res.body.palettes.some((c: { regionId: number | null }) => c.regionId === res.body.region.id)).toBe(true);
+    const copy = await disk.stat(`tmp/cache-${path.posix.basename(key)}`);
+    expect(copy?.bytes).toBe(Number(photo.bytes));
+  });
+});
+
+describe('object storage (S3): analysis report PDFs', () => {
+  it('keeps an attached report in the bucket under reports/ and serves it back to the team', async () => {
+    const piece = await makePiece({ status: 'published' });
+    const researcher = await signedInAgent(app, 'researcher');
+    const created = await researcher
+      .post(`/api/pieces/${piece.id}/analyses`)
+      .set('Origin', ORIGIN)
+      .send({
+        method: 'HPLC-DAD',
+        site: 'red ground',
+        laboratory: 'Test bench',
+        analyst: 'A. Tester',
+        analysedOn: '2024-05-02',
+        findings: [{ substance: 'alizarin', confidence: 'confirmed' }],
+      })
+      .expect(201);
+    const id = created.body.analysis.id as number;
+    const pdf = await reportPdf(`Report ${randomBytes(6).toString('hex')}`);
+    await researcher
+      .post(`/api/analyses/${id}/report`)
+      .set('Origin', ORIGIN)
+      .attach('report', pdf, 'r.pdf')
+      .expect(201);
+    const key = `reports/${sha(pdf).slice(0, 2)}/${sha(pdf)}.pdf`;
+    expect(sha(await bytesOf(await bucket.get(key)))).toBe(sha(pdf));
+    expect(await disk.exists(key)).toBe(false);
+    const back = await researcher.get(`/api/analyses/${id}/report`).buffer(true).parse(binary).expect(200);
+    expect(back.headers['content-type']).toBe('application/pdf');
+    expect(sha(back.body)).toBe(sha(pdf));
   });
 });
 
