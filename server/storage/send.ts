@@ -2,7 +2,7 @@ import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import type { Request, Response } from 'express';
 import type { HttpError } from '../http/errors.ts';
-import { LocalStorage, storage } from './index.ts';
+import { LocalStorage, storage, StorageNotFound } from './index.ts';
 import type { ByteRange } from './types.ts';
 
 /** One satisfiable byte range of a Range header ("bytes=a-b", "bytes=a-", "bytes=-n"), else null (whole body). */
@@ -61,6 +61,9 @@ export async function sendStored(req: Request, res: Response, key: string, missi
     res.end();
     return;
   }
-  const body = await store.get(key, range ?? undefined);
+  // Removed between the stat and the read (another server deleted the photo): still a 404, not a 500.
+  const body = await store.get(key, range ?? undefined).catch((err: unknown) => {
+    throw err instanceof StorageNotFound ? missing() : err;
+  });
   await pipeline(body, res).catch(() => res.destroy());
 }

@@ -123,6 +123,10 @@ describe('object storage (S3): upload to tiles through the app', () => {
       .expect(206);
     expect(part.headers['content-range']).toBe(`bytes 100-199/${jpeg.length}`);
     expect(part.body.equals(jpeg.subarray(100, 200))).toBe(true);
+    await curator.get(`/media/photos/${id}/master`).set('Range', `bytes=${jpeg.length}-`).expect(416);
+    const since = display.headers['last-modified'];
+    expect(since).toBeTruthy();
+    await curator.get(`/media/photos/${id}/display`).set('If-Modified-Since', since).expect(304);
 
     // The tile job reads the master from the bucket and stores the tree there; the app serves it.
     await drain({ types: ['tile-photo'] });
