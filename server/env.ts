@@ -28,6 +28,16 @@ const schema = z
       .regex(/^(mariadb|mysql):\/\//, 'DATABASE_URL must start with mariadb:// or mysql://'),
     DATA_DIR: z.string().default(path.join(ROOT_DIR, '.data')),
     UPLOADS_DIR: z.string().default(path.join(ROOT_DIR, 'uploads')),
+    // Where masters, derivatives, tiles and report PDFs are stored (server/storage/README.md): unset or file: the
+    // UPLOADS_DIR folder; s3://bucket?endpoint=…&region=…&forcePathStyle=true any S3-compatible object storage, with
+    // the credentials below (unset: the AWS SDK's own chain, e.g. an instance role). Uploads are still staged under
+    // UPLOADS_DIR/tmp on each server.
+    STORAGE_URL: z
+      .string()
+      .regex(/^(file|s3):/, 'STORAGE_URL must start with file: or s3://')
+      .optional(),
+    AWS_ACCESS_KEY_ID: z.string().optional(),
+    AWS_SECRET_ACCESS_KEY: z.string().optional(),
     SESSION_SECRET: z.string().min(16).optional(),
     SMTP_URL: z.string().url().optional(),
     MAIL_FROM: z.string().default('Tinctoria <no-reply@tinctoria.local>'),

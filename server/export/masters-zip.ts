@@ -3,6 +3,7 @@ import path from 'node:path';
 import yazl from 'yazl';
 import type { Photo, Piece } from '../models/index.ts';
 import { findMaster } from '../iiif/files.ts';
+import { storage } from '../storage/index.ts';
 
 /**
  * A hand-over ZIP of a piece's master files, untouched, with their recorded SHA-256
@@ -10,7 +11,7 @@ import { findMaster } from '../iiif/files.ts';
  * and a manifest.json naming each photo. A master missing on disk is listed, not hidden.
  * Masters are the camera's bytes, EXIF GPS included, and are not rewritten (their SHA-256 must hold): a master
  * the reader may not download (`mayTake`, the policy's photo:master — GPS is for curators and admins) is left
- * out and listed in manifest.json with `withheld` saying why.
+ * out and listed in manifest.json with `withheld` saying why. Works on either storage driver (server/storage).
  */
 export async function writeMastersZip(
   out: Writable,
@@ -47,8 +48,17 @@ export async function writeMastersZip(
     const master = await findMaster(photo);
     const name = master ? `masters/${photo.id}-${photo.view}${path.extname(master)}` : null;
     if (master && name) {
-      // Stored, not deflated: masters are already compressed images and must come out byte for byte.
-      zip.addFile(master, name, { compress: false });
+      // Stored, not deflated: masters are already compressed images and must come out byte for byte. Each master is
+      // streamed from storage only when the ZIP reaches it (one open read at a time, never held in memory).
+      const size = (await storage().stat(master))?.bytes;
+      zip.addReadStreamLazy(name, { compress: false, ...(size != null ? { size } : {}) }, (cb) =>
+        storage()
+          .get(master)
+          .then(
+            (stream) => cb(null, stream),
+            (err: Error) => cb(err, undefined as never),
+          ),
+      );
       lines.push(`${photo.sha256}  ${name}`);
       files.push({
         photoId: photo.id,

@@ -1,12 +1,13 @@
-import { access } from 'node:fs/promises';
 import path from 'node:path';
 import type { Photo } from '../models/index.ts';
-import { masterPath, resolveInsideUploads, tilesDir as tilesDirRelative } from '../media/paths.ts';
+import { masterPath, tilesDir as tilesDirRelative } from '../media/paths.ts';
+import { storage } from '../storage/index.ts';
 
-// Absolute paths of the tiling and fixity files, built only from server/media/paths.ts.
-export const tilesDir = (photoId: number) => resolveInsideUploads(tilesDirRelative(photoId));
-/** The IIIF level-0 image service folder (info.json and tiles) of one photo. */
-export const iiifDir = (photoId: number) => resolveInsideUploads(path.posix.join(tilesDirRelative(photoId), 'iiif'));
+// Storage keys of the tiling and fixity files, built only from server/media/paths.ts.
+/** The prefix of one photo's tiles (ends in '/'). */
+export const tilesPrefix = (photoId: number) => `${tilesDirRelative(photoId)}/`;
+/** The IIIF level-0 image service (info.json and tiles) of one photo: the prefix its keys start with. */
+export const iiifPrefix = (photoId: number) => `${path.posix.join(tilesDirRelative(photoId), 'iiif')}/`;
 
 const EXT: Record<string, string> = {
   jpeg: 'jpg',
@@ -21,7 +22,7 @@ const EXT: Record<string, string> = {
 };
 
 /**
- * The master file of a photo, or null when it is missing on disk. The row's stored
+ * The storage key of a photo's master, or null when it is missing. The row's stored
  * path comes first; the layout's masters/<sha>.<ext> is the fallback for older rows.
  */
 export async function findMaster(photo: Pick<Photo, 'sha256' | 'format' | 'derivatives'>): Promise<string | null> {
@@ -29,15 +30,6 @@ export async function findMaster(photo: Pick<Photo, 'sha256' | 'format' | 'deriv
     photo.derivatives?.master?.path,
     EXT[photo.format] ? masterPath(photo.sha256, EXT[photo.format]) : null,
   ].filter(Boolean) as string[];
-  for (const rel of candidates) {
-    const abs = resolveInsideUploads(rel);
-    if (
-      await access(abs).then(
-        () => true,
-        () => false,
-      )
-    )
-      return abs;
-  }
+  for (const key of candidates) if (await storage().exists(key)) return key;
   return null;
 }

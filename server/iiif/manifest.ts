@@ -1,8 +1,7 @@
-import { readdir, readFile } from 'node:fs/promises';
-import path from 'node:path';
 import type { AnnotationPage, Manifest } from '../../shared/schemas/iiif.ts';
 import type { Photo, Piece, Region } from '../models/index.ts';
-import { iiifDir } from './files.ts';
+import { iiifPrefix } from './files.ts';
+import { readText, storage } from '../storage/index.ts';
 import { rightsLabel } from '../../shared/rights.ts';
 
 // IIIF Presentation API 3.0 (https://iiif.io/api/presentation/3.0/) built from a piece;
@@ -19,12 +18,16 @@ export type TileInfo = { width: number; height: number; full: string | null };
 export async function tileInfo(photo: Photo): Promise<TileInfo> {
   if (photo.tileStatus === 'done') {
     try {
-      const dir = iiifDir(photo.id);
-      const info = JSON.parse(await readFile(path.join(dir, 'info.json'), 'utf8'));
-      const [full] = await readdir(path.join(dir, 'full'));
-      return { width: Number(info.width), height: Number(info.height), full: full ?? null };
+      const prefix = iiifPrefix(photo.id);
+      const info = JSON.parse(await readText(`${prefix}info.json`));
+      let full: string | null = null;
+      for await (const o of storage().list(`${prefix}full/`)) {
+        full = o.key.slice(`${prefix}full/`.length).split('/')[0];
+        break;
+      }
+      return { width: Number(info.width), height: Number(info.height), full };
     } catch {
-      // tiles missing on disk although marked done: fall back to the stored size and the display image
+      // tiles missing in storage although marked done: fall back to the stored size and the display image
     }
   }
   return { width: photo.width, height: photo.height, full: null };

@@ -1,59 +1,56 @@
 import { randomBytes } from 'node:crypto';
-import { rename, rm, writeFile, access, readdir } from 'node:fs/promises';
+import { createWriteStream } from 'node:fs';
+import { rename, utimes } from 'node:fs/promises';
 import path from 'node:path';
-import { ensureParent, masterPath, resolveInsideUploads, tmpDir } from './paths.ts';
+import { pipeline } from 'node:stream/promises';
+import { localTempPath, localUploadsRoot, storage } from '../storage/index.ts';
+import { masterPath, tmpDir } from './paths.ts';
 
-/** Files written for one photo, so a failure at any step can remove all of them. */
+/** Files written for one photo, so a failure at any step can remove all of them. Every write goes through storage. */
 export class WrittenFiles {
-  private paths: string[] = [];
+  private keys: string[] = [];
 
-  /** Writes under a temporary name, then renames into place (a reader never sees half a file). */
+  /** Stores the bytes whole (the storage driver writes under a temporary name, so a reader never sees half a file). */
   async write(relative: string, data: Buffer) {
-    const tmp = path.posix.join(tmpDir(), `${randomBytes(8).toString('hex')}.part`);
-    await ensureParent(tmp);
-    await ensureParent(relative);
-    this.paths.push(tmp);
-    await writeFile(resolveInsideUploads(tmp), data);
-    this.paths.push(relative);
-    await rename(resolveInsideUploads(tmp), resolveInsideUploads(relative));
+    this.keys.push(relative);
+    await storage().put(relative, data);
   }
 
   /**
-   * Writes a master under a temporary name in tmp/ (master-<sha256>.<ext>.<random>.part) and answers that name;
+   * Stores a master under a temporary key in tmp/ (master-<sha256>.<ext>.<random>.part) and answers that key;
    * the caller moves it into place with moveIntoPlace once its transaction has committed. Until then no master
-   * exists that no row points at: a process killed in between leaves only a temp file, which the reconciler
+   * exists that no row points at: a process killed in between leaves only a temp object, which the reconciler
    * (server/media/reconcile.ts) removes after an hour, or moves into place if its photo row did commit.
    */
   async writeTemp(sha256: string, ext: string, data: Buffer) {
     const tmp = tempMasterPath(sha256, ext);
-    await ensureParent(tmp);
-    this.paths.push(tmp);
-    await writeFile(resolveInsideUploads(tmp), data);
+    this.keys.push(tmp);
+    await storage().put(tmp, data);
     return tmp;
   }
 
-  /** Like writeTemp, for an upload already on disk (absolute path under tmp/): renamed, not rewritten. */
+  /** Like writeTemp, for an upload staged on this machine (absolute path): renamed by the local driver, not copied. */
   async moveTemp(sha256: string, ext: string, from: string) {
     const tmp = tempMasterPath(sha256, ext);
-    await ensureParent(tmp);
-    await rename(from, resolveInsideUploads(tmp));
-    this.paths.push(tmp);
+    this.keys.push(tmp);
+    await storage().put(tmp, { file: from, move: true, sha256 });
     return tmp;
+  }
+
+  /** Takes charge of a temp master already stored (prepareIngest sent it with object storage): removed on failure. */
+  adopt(key: string) {
+    this.keys.push(key);
+    return key;
   }
 
   async removeAll() {
-    for (const p of this.paths.reverse()) await rm(resolveInsideUploads(p), { force: true });
-    this.paths = [];
+    for (const k of this.keys.reverse()) await storage().delete(k);
+    this.keys = [];
   }
 }
 
 export async function exists(relative: string) {
-  try {
-    await access(resolveInsideUploads(relative));
-    return true;
-  } catch {
-    return false;
-  }
+  return storage().exists(relative);
 }
 
 /** The temporary name of a master being stored; the sha256 and extension in it let the reconciler finish a move. */
@@ -68,33 +65,46 @@ export function parseTempMaster(name: string): { sha256: string; ext: string } |
   return m ? { sha256: m[1], ext: m[2] } : null;
 }
 
-/** Moves a temp file to its final place (an identical master already there is simply replaced: same bytes). */
+/** Moves a temp object to its final place (an identical master already there is simply replaced: same bytes). */
 export async function moveIntoPlace(tmp: string, relative: string) {
-  await ensureParent(relative);
-  await rename(resolveInsideUploads(tmp), resolveInsideUploads(relative));
+  await storage().move(tmp, relative);
 }
 
 /** A master with this sha256 still under tmp/, waiting to be moved into place after its commit (or null). */
 export async function pendingMaster(sha256: string) {
-  const names = await readdir(resolveInsideUploads(tmpDir())).catch(() => [] as string[]);
-  const name = names.find((n) => n.startsWith(`master-${sha256}.`));
-  return name ? path.posix.join(tmpDir(), name) : null;
+  for await (const o of storage().list(path.posix.join(tmpDir(), `master-${sha256}.`))) return o.key;
+  return null;
 }
 
 export const hasPendingMaster = async (sha256: string) => (await pendingMaster(sha256)) !== null;
 
 /**
- * The absolute path of a master's file, for sharp to read from disk (never whole into memory: masters may be
- * gigabytes); inside the transaction that stored it (before the commit moves it into place) its temp file.
+ * The path on this machine of a master's file, for sharp to read from disk (never whole into memory: masters may be
+ * gigabytes); inside the transaction that stored it (before the commit moves it into place) its temp object. With
+ * object storage the master is downloaded once to UPLOADS_DIR/tmp/cache-<sha256>.<ext> (masters never change: a
+ * copy is always right) and reused by the next region edit; the reconciler removes it an hour after its last use.
  */
 export async function masterFileOnDisk(relative: string, sha256: string) {
-  const file = resolveInsideUploads(relative);
-  try {
-    await access(file);
-    return file;
-  } catch (err) {
+  const store = storage();
+  let key = relative;
+  if (!(await store.exists(key))) {
     const pending = await pendingMaster(sha256);
-    if (!pending) throw err;
-    return resolveInsideUploads(pending);
+    if (!pending) throw new Error(`The master ${relative} is missing`);
+    key = pending;
   }
+  const own = store.localPath(key);
+  if (own) return own;
+  const cached = path.join(localUploadsRoot(), tmpDir(), `cache-${path.posix.basename(relative)}`);
+  const now = new Date();
+  if (
+    await utimes(cached, now, now).then(
+      () => true,
+      () => false,
+    )
+  )
+    return cached;
+  const part = await localTempPath('download');
+  await pipeline(await store.get(key), createWriteStream(part));
+  await rename(part, cached);
+  return cached;
 }

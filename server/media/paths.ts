@@ -3,8 +3,9 @@ import path from 'node:path';
 import { env } from '../env.ts';
 import { HttpError } from '../http/errors.ts';
 
-// The only module that builds paths under the uploads directory. Photo rows store
-// paths relative to it; resolveInsideUploads turns them back into absolute ones.
+// The only module that builds storage keys (server/storage): the paths below the uploads directory with the local
+// driver, object keys in a bucket with S3. Photo rows store them. resolveInsideUploads turns a relative path into an
+// absolute one under UPLOADS_DIR, for what stays on this server's disk (uploads staged under tmp/).
 
 export const uploadsDir = () => path.resolve(env.UPLOADS_DIR);
 

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { readFile, rm, stat } from 'node:fs/promises';
+import { stat } from 'node:fs/promises';
 import sharp, { type Metadata } from 'sharp';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
@@ -8,11 +8,12 @@ import { PaletteColour, Photo } from '../models/index.ts';
 import type { PhotoView } from '../models/catalogue.ts';
 import { colourSource, decodeForIngest, type ColourSource, type ImageInput } from './decode.ts';
 import { readExif } from './exif.ts';
-import { exists, moveIntoPlace, WrittenFiles } from './files.ts';
+import { exists, moveIntoPlace, tempMasterPath, WrittenFiles } from './files.ts';
 import { extractPalette } from './palette.ts';
 import { maxBytesInWords, maxPixelsInWords, mediaLimits } from './limits.ts';
 import { paletteRows } from './rows.ts';
-import { derivativePath, derivativesDir, masterPath, resolveInsideUploads, tilesDir } from './paths.ts';
+import { derivativePath, derivativesDir, masterPath, tilesDir } from './paths.ts';
+import { storage } from '../storage/index.ts';
 import type { ServiceCtx } from '../services/context.ts';
 export { repalette } from './repalette.ts';
 
@@ -123,7 +124,8 @@ const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { r
  * DB_QUERY_TIMEOUT_MS, closed it under a 300 MB TIFF on a loaded machine). In this order: check → SHA-256 and EXIF
  * → decode → derivatives (encoded, in memory: small) → palette (the decode and the WebP encodes overlap with the
  * work on this thread). An upload on disk (`input.path`) is read from its file, never whole into memory (sharp,
- * exifr and the hash all read the file). Writes nothing; throws an HttpError for a file it cannot take.
+ * exifr and the hash all read the file). Writes nothing, except with object storage the upload's temp master
+ * (`stagedMaster`, below); throws an HttpError for a file it cannot take.
  */
 export async function prepareIngest(input: IngestSource) {
   const source: ImageInput = input.path ?? input.buffer;
@@ -132,10 +134,20 @@ export async function prepareIngest(input: IngestSource) {
   // libvips decodes on its own threads while this thread hashes and reads EXIF.
   const decoding = decodeDisplay(source, info.colour, info.decodedWhole);
   decoding.catch(() => undefined);
+  let stagedMaster: string | null = null;
+  let sending: Promise<unknown> | null = null;
   try {
     // 1. The master's name is its SHA-256 (a file is hashed as it streams from disk); 2. EXIF (GPS kept apart, on
     // the row only), read from the file in chunks by exifr.
     const sha256 = await sha256Of(source);
+    // With object storage, an upload on disk is sent to its temp master key now, beside the decode, rather than
+    // inside the caller's transaction (a large master takes seconds to send, and an idle transaction's connection
+    // is closed by the socket timeout). ingestPhoto takes it from there; left unused, the reconciler removes it.
+    if (input.path !== undefined && storage().kind !== 'local' && !(await exists(masterPath(sha256, info.ext)))) {
+      stagedMaster = tempMasterPath(sha256, info.ext);
+      sending = storage().put(stagedMaster, { file: input.path, sha256 });
+      sending.catch(() => undefined);
+    }
     const { exif, gps, capturedAt } = await readExif(source);
     const { display: shown, work, facts } = await decoding;
 
@@ -153,8 +165,16 @@ export async function prepareIngest(input: IngestSource) {
     encoding.catch(() => undefined);
     const colours = extractPalette(work);
     const [display, thumb] = await encoding;
-    return { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours };
+    await sending;
+    return { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours, stagedMaster };
   } catch (err) {
+    if (stagedMaster) {
+      const key = stagedMaster;
+      await sending?.catch(() => undefined);
+      await storage()
+        .delete(key)
+        .catch(() => undefined);
+    }
     if (err instanceof HttpError) throw err;
     throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
       reason: err instanceof Error ? err.message : String(err),
@@ -184,15 +204,16 @@ export async function ingestPhoto({
     if (!(await exists(master))) {
       // Under a temporary name until the rows commit: a process killed before the commit leaves no master that no
       // row points at (the reconciler clears the temp file), and a rolled-back transaction never moves it into place.
-      const tmp =
-        input.path !== undefined
+      const tmp = prepared.stagedMaster
+        ? files.adopt(prepared.stagedMaster)
+        : input.path !== undefined
           ? await files.moveTemp(sha256, info.ext, input.path)
           : await files.writeTemp(sha256, info.ext, input.buffer);
       transaction.afterCommit(async () => {
         // A failed move must not turn a committed upload into an error; the reconciler finishes it later.
         await moveIntoPlace(tmp, master).catch((e) => console.error('[media] moving a master into place', e));
       });
-    }
+    } else if (prepared.stagedMaster) await storage().delete(prepared.stagedMaster);
 
     const photo = await Photo.create(
       {
@@ -233,7 +254,7 @@ export async function ingestPhoto({
     return { photo, palette };
   } catch (err) {
     await files.removeAll();
-    if (photoId) await rm(resolveInsideUploads(derivativesDir(photoId)), { recursive: true, force: true });
+    if (photoId) await storage().deletePrefix(`${derivativesDir(photoId)}/`);
     if (err instanceof HttpError) throw err;
     throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
       reason: err instanceof Error ? err.message : String(err),
@@ -243,21 +264,24 @@ export async function ingestPhoto({
 
 /** Deletes a photo's derivatives and tiles, and its master unless another photo row shares it. */
 export async function removePhotoFiles(photo: Photo, transaction?: Transaction) {
-  await rm(resolveInsideUploads(derivativesDir(photo.id)), { recursive: true, force: true });
-  await rm(resolveInsideUploads(tilesDir(photo.id)), { recursive: true, force: true });
+  await storage().deletePrefix(`${derivativesDir(photo.id)}/`);
+  await storage().deletePrefix(`${tilesDir(photo.id)}/`);
   const others = await Photo.count({ where: { sha256: photo.sha256 }, transaction });
   const stillUsed = others - ((await Photo.findByPk(photo.id, { transaction })) ? 1 : 0);
   const master = photo.derivatives.master?.path;
-  if (stillUsed <= 0 && master) await rm(resolveInsideUploads(master), { force: true });
+  if (stillUsed <= 0 && master) await storage().delete(master);
 }
 
-/** Absolute path of a photo's file for res.sendFile. */
-export function photoFile(photo: Photo, kind: 'thumb' | 'display' | 'master'): string {
+/** The storage key of a photo's file (server/storage). */
+export function photoKey(photo: Photo, kind: 'thumb' | 'display' | 'master'): string {
   const rel = photo.derivatives[kind]?.path;
   if (!rel) throw new HttpError(404, 'not_found', `This photo has no ${kind} file.`);
-  return resolveInsideUploads(rel);
+  return rel;
 }
 
-export async function readMaster(photo: Photo) {
-  return readFile(photoFile(photo, 'master'));
+/** Absolute path of a photo's file with the local storage driver (tests read the files; null-safe only there). */
+export function photoFile(photo: Photo, kind: 'thumb' | 'display' | 'master'): string {
+  const file = storage().localPath(photoKey(photo, kind));
+  if (!file) throw new Error('photoFile needs the local storage driver; use photoKey and server/storage');
+  return file;
 }

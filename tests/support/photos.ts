@@ -1,6 +1,6 @@
 import sharp from 'sharp';
 import { sequelize } from '../../server/models/index.ts';
-import { ingestPhoto, photoFile } from '../../server/media/pipeline.ts';
+import { ingestPhoto, photoFile, photoKey } from '../../server/media/pipeline.ts';
 import { makeRegion } from '../../server/seed/factories.ts';
 
 /**
@@ -41,5 +41,14 @@ export async function makePhotoWithMaster(
   );
   for (const r of opts.regions ?? [])
     await makeRegion({ photoId: photo.id, ...r, purpose: 'motif', createdById: null });
-  return { photo, file: photoFile(photo, 'master'), buffer };
+  return {
+    photo,
+    /** The master's storage key (server/storage). */
+    key: photoKey(photo, 'master'),
+    /** The master's file on disk (local storage driver only). */
+    get file() {
+      return photoFile(photo, 'master');
+    },
+    buffer,
+  };
 }

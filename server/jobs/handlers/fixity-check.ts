@@ -1,22 +1,23 @@
 import { createHash } from 'node:crypto';
-import { createReadStream } from 'node:fs';
 import { pipeline } from 'node:stream/promises';
 import { Photo } from '../../models/index.ts';
 import { findMaster } from '../../iiif/files.ts';
 import { registerHandler } from '../registry.ts';
 import { reconcileOrphans } from '../../media/reconcile.ts';
+import { storage } from '../../storage/index.ts';
 import type { FixityReport } from '../../../shared/schemas/fixity.ts';
 
 export const FIXITY_JOB = 'fixity-check';
 
-export async function sha256File(file: string) {
+/** SHA-256 of a stored object, streamed from storage (never whole in memory). */
+export async function sha256Stored(key: string) {
   const hash = createHash('sha256');
-  await pipeline(createReadStream(file), hash);
+  await pipeline(await storage().get(key), hash);
   return hash.digest('hex');
 }
 
 /**
- * Re-hash every master and compare with the sha256 recorded at upload (the file's name and the photo rows); then
+ * Re-hash every master (streamed from storage, either driver) and compare with the sha256 recorded at upload (the file's name and the photo rows); then
  * remove orphan files (no photo points at them, older than an hour) and list them in the report.
  */
 registerHandler(FIXITY_JOB, {
@@ -40,9 +41,9 @@ registerHandler(FIXITY_JOB, {
       const file = await findMaster(photos[0]).catch(() => null);
       if (!file) report.missing.push({ sha256, photoIds, file: null });
       else {
-        const actual = await sha256File(file).catch(() => null);
-        if (actual === null) report.missing.push({ sha256, photoIds, file: relative(file) });
-        else if (actual !== sha256) report.mismatches.push({ sha256, photoIds, file: relative(file), actual });
+        const actual = await sha256Stored(file).catch(() => null);
+        if (actual === null) report.missing.push({ sha256, photoIds, file });
+        else if (actual !== sha256) report.mismatches.push({ sha256, photoIds, file, actual });
         else report.ok += 1;
       }
       done += 1;
@@ -53,9 +54,3 @@ registerHandler(FIXITY_JOB, {
     return report;
   },
 });
-
-// Reports name files relative to uploads/, never the machine's absolute path.
-function relative(file: string) {
-  const i = file.lastIndexOf('/masters/');
-  return i >= 0 ? file.slice(i + 1) : file;
-}

@@ -1,6 +1,6 @@
 import { Photo } from '../../models/index.ts';
-import { rm } from 'node:fs/promises';
-import { findMaster, tilesDir } from '../../iiif/files.ts';
+import { findMaster, tilesPrefix } from '../../iiif/files.ts';
+import { storage, withLocalFile } from '../../storage/index.ts';
 import { buildTiles } from '../../iiif/tiles.ts';
 import { PermanentJobError } from '../queue.ts';
 import { registerHandler } from '../registry.ts';
@@ -22,10 +22,11 @@ registerHandler(TILE_JOB, {
       throw (await hasPendingMaster(photo.sha256)) ? new Error(reason) : new PermanentJobError(reason);
     }
     await ctx.progress(0.1);
-    await buildTiles(photoId, master, `${job.id}-${job.attempts}`);
+    // libvips reads a file: the stored one, or (object storage) a copy downloaded for the build and removed after.
+    await withLocalFile(master, (file) => buildTiles(photoId, file, `${job.id}-${job.attempts}`));
     // Removed while its tiles were being built: take the tiles away too, so no orphan folder stays behind.
     if (!(await Photo.findByPk(photoId))) {
-      await rm(tilesDir(photoId), { recursive: true, force: true });
+      await storage().deletePrefix(tilesPrefix(photoId));
       throw new PermanentJobError(`Photo ${photoId} was removed while its tiles were built.`);
     }
     await ctx.progress(0.95);

@@ -1,11 +1,11 @@
-import { readFile } from 'node:fs/promises';
-import path from 'node:path';
 import { Router, type Request, type Response } from 'express';
 import { actorOf } from '../../http/auth.ts';
 import { notFound } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
 import { Photo, Region } from '../../models/index.ts';
-import { iiifDir } from '../../iiif/files.ts';
+import { iiifPrefix } from '../../iiif/files.ts';
+import { readText } from '../../storage/index.ts';
+import { sendStored } from '../../storage/send.ts';
 import { baseUrl, readablePhoto, readablePiece } from '../../iiif/access.ts';
 import { buildManifest, regionAnnotationPage } from '../../iiif/manifest.ts';
 import { iiifPhotoParams as photoParams, iiifPieceParams as pieceParams } from '../../../shared/schemas/iiif.ts';
@@ -38,7 +38,7 @@ async function tiledPhoto(req: Request) {
 
 iiifRouter.get('/photos/:photoId/info.json', async (req, res) => {
   const photo = await tiledPhoto(req);
-  const raw = await readFile(path.join(iiifDir(photo.id), 'info.json'), 'utf8').catch(() => null);
+  const raw = await readText(`${iiifPrefix(photo.id)}info.json`).catch(() => null);
   if (!raw) throw notFound('Tiles');
   const info = JSON.parse(raw);
   info.id = `${baseUrl(req)}/iiif/photos/${photo.id}`;
@@ -68,11 +68,7 @@ iiifRouter.get('/photos/:photoId/{*tile}', async (req, res) => {
   if (!TILE_PATH.test(tile)) throw notFound('Tile');
   const photo = await tiledPhoto(req);
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
-  await new Promise<void>((resolve, reject) =>
-    res.sendFile(tile, { root: iiifDir(photo.id), dotfiles: 'deny' }, (err) =>
-      err ? reject(notFound('Tile')) : resolve(),
-    ),
-  );
+  await sendStored(req, res, `${iiifPrefix(photo.id)}${tile}`, () => notFound('Tile'));
 });
 
 iiifRouter.get('/:pieceId/manifest.json', async (req, res) => {

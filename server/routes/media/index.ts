@@ -1,11 +1,10 @@
-import path from 'node:path';
 import { Router } from 'express';
 import { mediaParams } from '../../../shared/schemas/photo.ts';
 import { actorOf } from '../../http/auth.ts';
 import { notFound, unauthorized } from '../../http/errors.ts';
 import { parseParams } from '../../http/validate.ts';
-import { uploadsDir } from '../../media/paths.ts';
-import { photoFile } from '../../media/pipeline.ts';
+import { photoKey } from '../../media/pipeline.ts';
+import { sendStored } from '../../storage/send.ts';
 import { can } from '../../policies/index.ts';
 import { loadReadablePhoto } from '../photos/load.ts';
 
@@ -21,14 +20,8 @@ mediaRouter.get('/photos/:id/:kind', async (req, res) => {
     if (!actor) throw unauthorized('Sign in to download the master file.');
     throw notFound('Photo');
   }
-  const file = photoFile(photo, kind);
+  const key = photoKey(photo, kind);
   res.set('Cache-Control', 'private, max-age=3600');
   if (kind === 'master') res.attachment(photo.originalName ?? `${photo.sha256}.${photo.format}`);
-  // Relative to the uploads root, so a dot-folder above it (such as .data/) is not mistaken for a dotfile.
-  const root = uploadsDir();
-  await new Promise<void>((resolve, reject) =>
-    res.sendFile(path.relative(root, file), { root, dotfiles: 'deny' }, (err) =>
-      err && !res.headersSent ? reject(notFound('Photo file')) : resolve(),
-    ),
-  );
+  await sendStored(req, res, key, () => notFound('Photo file'));
 });

@@ -1,4 +1,3 @@
-import path from 'node:path';
 import { Router } from 'express';
 import multer from 'multer';
 import { idParams } from '../../../shared/schemas/common.ts';
@@ -15,7 +14,7 @@ import { actorOf, requireUser } from '../../http/auth.ts';
 import { badRequest, forbidden, notFound } from '../../http/errors.ts';
 import { parseBody, parseParams } from '../../http/validate.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
-import { resolveInsideUploads, uploadsDir } from '../../media/paths.ts';
+import { sendStored } from '../../storage/send.ts';
 import { Analysis, ConditionReport, sequelize } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
@@ -172,14 +171,7 @@ analysesRouter.get('/:id/report', requireUser, async (req, res) => {
   res.set('X-Content-Type-Options', 'nosniff');
   res.set('Digest', `sha-256=${Buffer.from(analysis.reportSha256, 'hex').toString('base64')}`);
   res.set('Cache-Control', 'private, max-age=3600');
-  // Relative to the uploads root, so a dot-folder above it (such as .data/) is not mistaken for a dotfile.
-  const root = uploadsDir();
-  const file = resolveInsideUploads(reportPath(analysis.reportSha256));
-  await new Promise<void>((resolve, reject) =>
-    res.sendFile(path.relative(root, file), { root, dotfiles: 'deny' }, (err) =>
-      err && !res.headersSent ? reject(notFound('Report file')) : resolve(),
-    ),
-  );
+  await sendStored(req, res, reportPath(analysis.reportSha256), () => notFound('Report file'));
 });
 
 // ---- condition reports ----

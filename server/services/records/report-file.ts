@@ -1,10 +1,10 @@
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { open, rename, rm, stat } from 'node:fs/promises';
+import { open, rm, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { badRequest } from '../../http/errors.ts';
-import { ensureParent, resolveInsideUploads } from '../../media/paths.ts';
+import { storage } from '../../storage/index.ts';
 
 const SHA = /^[0-9a-f]{64}$/;
 
@@ -55,13 +55,10 @@ export async function sha256OfFile(file: string) {
   return hash.digest('hex');
 }
 
-/** Moves a checked upload into its content-addressed place (an identical report already there is kept). */
+/** Moves a checked upload (staged on this machine) into its content-addressed place in storage (an identical report already there is kept). */
 export async function storeReport(tempFile: string, sha256: string) {
   const rel = reportPath(sha256);
-  await ensureParent(rel);
-  const target = resolveInsideUploads(rel);
-  const there = await stat(target).catch(() => null);
-  if (there) await rm(tempFile, { force: true });
-  else await rename(tempFile, target);
+  if (await storage().exists(rel)) await rm(tempFile, { force: true });
+  else await storage().put(rel, { file: tempFile, move: true, sha256 });
   return rel;
 }
