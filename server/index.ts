@@ -9,6 +9,9 @@ import { reconcileOrphans } from './media/reconcile.ts';
 import { startConfiguredFake } from './storage/index.ts';
 
 // The running server: migrate, seed an empty database, then listen. SIGINT/SIGTERM close cleanly.
+// STORAGE_URL …&fake=1 (development): the local S3 fake, started first, since the demo seed already stores photos.
+const s3Fake = env.NODE_ENV === 'production' ? null : await startConfiguredFake();
+if (s3Fake) console.log(`[tinctoria] local S3 fake on ${s3Fake.endpoint}, objects in $DATA_DIR/s3`);
 const applied = await migrate();
 if (applied.length) console.log(`[tinctoria] migrations applied: ${applied.join(', ')}`);
 const seeded = await seed();
@@ -19,9 +22,6 @@ const catcher = env.SMTP_URL || env.NODE_ENV === 'production' ? null : await sta
 if (catcher) console.log(`[tinctoria] local mail catcher on 127.0.0.1:${catcher.port}, messages in ${catcher.dir}`);
 else if (!env.SMTP_URL)
   console.warn('[tinctoria] SMTP_URL is not set: invitations and password resets cannot be mailed');
-// STORAGE_URL …&fake=1 (development): the local S3 fake, started before anything reads or writes storage.
-const s3Fake = env.NODE_ENV === 'production' ? null : await startConfiguredFake();
-if (s3Fake) console.log(`[tinctoria] local S3 fake on ${s3Fake.endpoint}, objects in $DATA_DIR/s3`);
 // The worker runs beside the web server; any number of servers may share the jobs table.
 startWorker();
 
