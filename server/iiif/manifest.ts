@@ -17,7 +17,7 @@ export type TileInfo = { width: number; height: number; full: string | null };
 
 /** The size the tiles were built at (auto-oriented) and the one whole-image size sharp wrote; else the photo row. */
 export async function tileInfo(photo: Photo): Promise<TileInfo> {
-  if (photo.tileStatus === 'done') {
+  if (photo.ingestStage === 'done') {
     try {
       const dir = iiifDir(photo.id);
       const info = JSON.parse(await readFile(path.join(dir, 'info.json'), 'utf8'));
