@@ -4,7 +4,7 @@ import { migrate, seed } from './db/setup.ts';
 import { sequelize } from './models/index.ts';
 import { startLocalMail } from './mail/index.ts';
 import { startWorker, stopWorker } from './jobs/worker.ts';
-import { enqueueMissingTiles } from './iiif/enqueue.ts';
+import { enqueueMissingIngest } from './jobs/handlers/ingest-photo.ts';
 import { reconcileOrphans } from './media/reconcile.ts';
 import { startConfiguredFake } from './storage/index.ts';
 
@@ -33,10 +33,10 @@ searchEngine.startFollowing();
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`[tinctoria] serving at ${publicUrl}`);
 });
-// Photos without deep-zoom tiles (from before tiling, or the demo) are queued in the background, in batches.
-void enqueueMissingTiles().then(
-  (n) => n && console.log(`[tinctoria] deep-zoom tiles queued for ${n} photo(s)`),
-  (e) => console.error('[tinctoria] queueing missing tiles', e),
+// Photos still waiting with no ingest job (from before ingest jobs) are queued in the background, in batches.
+void enqueueMissingIngest().then(
+  (n) => n && console.log(`[tinctoria] ingest queued for ${n} photo(s)`),
+  (e) => console.error('[tinctoria] queueing missing ingest', e),
 );
 // Masters and temp files left by a process killed mid-upload (no photo points at them, older than an hour).
 void reconcileOrphans().then(

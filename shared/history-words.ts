@@ -64,6 +64,8 @@ export function describeHistory(e: HistoryEntry): string {
       return `changed a photo’s ${fieldWords(Object.keys(c), PHOTO_FIELDS)}`;
     case 'photo-removed':
       return 'removed a photo';
+    case 'photo-ingest-retried':
+      return 'started processing a photo again after it failed';
     case 'region-added':
       return `${regionName(c.region?.to)} added`;
     case 'region-changed': {

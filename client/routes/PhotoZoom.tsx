@@ -41,7 +41,7 @@ export function PhotoZoom() {
     >
       {job && job.state !== 'done' ? (
         <div className="mb-4 max-w-md">
-          <JobStatus job={job} title="Deep-zoom tiles" />
+          <JobStatus job={job} title="Processing (previews, palette, deep-zoom tiles)" />
         </div>
       ) : null}
       {tilesReady && !me.isPending ? (

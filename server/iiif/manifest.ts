@@ -16,7 +16,7 @@ export type TileInfo = { width: number; height: number; full: string | null };
 
 /** The size the tiles were built at (auto-oriented) and the one whole-image size sharp wrote; else the photo row. */
 export async function tileInfo(photo: Photo): Promise<TileInfo> {
-  if (photo.tileStatus === 'done') {
+  if (photo.ingestStage === 'done') {
     try {
       const prefix = iiifPrefix(photo.id);
       const info = JSON.parse(await readText(`${prefix}info.json`));

@@ -25,7 +25,7 @@ type EnqueueOptions = {
 /** The payload a kind takes (shared/schemas/jobs.ts `jobPayloads`); optional when it takes none. */
 type PayloadField<K extends JobType> =
   JobPayload<K> extends Record<string, never> ? { payload?: JobPayload<K> } : { payload: JobPayload<K> };
-/** A job of one kind, with the payload that kind takes: `{ type: 'tile-photo', payload: { photoId } }`. */
+/** A job of one kind, with the payload that kind takes: `{ type: 'ingest-photo', payload: { photoId } }`. */
 export type EnqueueInput<K extends JobType = JobType> = { [T in K]: { type: T } & PayloadField<T> & EnqueueOptions }[K];
 
 /** Queue a job of a known kind; its payload is typed by the kind and checked again before it is written. */

@@ -42,5 +42,9 @@ export function checkPayload(type: string, payload: unknown): PayloadCheck {
   const issues = parsed.error.issues
     .map((i) => (i.path.length ? `${i.path.join('.')}: ${i.message}` : i.message))
     .join('; ');
-  return { ok: false, reason: `The job's payload is not valid for a ${type} job (${issues}), so it was not run.` };
+  const article = /^[aeiou]/.test(type) ? 'an' : 'a';
+  return {
+    ok: false,
+    reason: `The job's payload is not valid for ${article} ${type} job (${issues}), so it was not run.`,
+  };
 }

@@ -37,7 +37,7 @@ export class WrittenFiles {
     return tmp;
   }
 
-  /** Takes charge of a temp master already stored (prepareIngest sent it with object storage): removed on failure. */
+  /** Takes charge of a temp master already stored (checkUpload sent it with object storage): removed on failure. */
   adopt(key: string) {
     this.keys.push(key);
     return key;

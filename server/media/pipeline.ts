@@ -1,21 +1,23 @@
-import { createHash } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import sharp, { type Metadata } from 'sharp';
 import type { Transaction } from 'sequelize';
 import { HttpError } from '../http/errors.ts';
-import { PaletteColour, Photo } from '../models/index.ts';
+import { PaletteColour, Photo, sequelize } from '../models/index.ts';
+import { INGEST_STEPS, type IngestStep } from '../../shared/schemas/ingest.ts';
+import { buildTiles } from '../iiif/tiles.ts';
 import type { PhotoView } from '../models/catalogue.ts';
 import { colourSource, decodeForIngest, type ColourSource, type ImageInput } from './decode.ts';
 import { readExif } from './exif.ts';
-import { exists, moveIntoPlace, tempMasterPath, WrittenFiles } from './files.ts';
-import { extractPalette } from './palette.ts';
+import { exists, masterFileOnDisk, moveIntoPlace, tempMasterPath, WrittenFiles } from './files.ts';
+import type { RawImage } from './palette.ts';
 import { maxBytesInWords, maxPixelsInWords, mediaLimits } from './limits.ts';
-import { paletteRows } from './rows.ts';
 import { derivativePath, derivativesDir, masterPath, tilesDir } from './paths.ts';
 import { storage } from '../storage/index.ts';
 import type { ServiceCtx } from '../services/context.ts';
-export { repalette } from './repalette.ts';
+import { repalette } from './repalette.ts';
+export { repalette };
 
 export const DERIVATIVES = { thumb: 320, display: 1600 } as const;
 
@@ -119,93 +121,54 @@ async function sha256Of(input: ImageInput) {
 const fromRaw = (data: Buffer, width: number, height: number) => sharp(data, { raw: { width, height, channels: 3 } });
 
 /**
- * The work of ingest that needs no database, done before the caller opens its transaction: a large master takes
- * seconds to read, and a transaction held open meanwhile sits idle on its connection (the socket timeout,
- * DB_QUERY_TIMEOUT_MS, closed it under a 300 MB TIFF on a loaded machine). In this order: check → SHA-256 and EXIF
- * → decode → derivatives (encoded, in memory: small) → palette (the decode and the WebP encodes overlap with the
- * work on this thread). An upload on disk (`input.path`) is read from its file, never whole into memory (sharp,
- * exifr and the hash all read the file). Writes nothing, except with object storage the upload's temp master
- * (`stagedMaster`, below); throws an HttpError for a file it cannot take.
+ * The part of ingest that stays in the upload request, done before the caller opens its transaction: the checks
+ * by content from the file's header (type, size, pixel limits, colour model: a file it cannot take is refused
+ * with a 4xx before anything is written) and the SHA-256, hashed as the file streams from disk. Writes nothing,
+ * except with object storage the upload's temp master (`stagedMaster`): a large master takes seconds to send, and
+ * a transaction held open meanwhile sits idle on its connection (the socket timeout closes it), so it is sent here,
+ * before the caller's transaction; storePhoto takes it from there, and left unused the reconciler removes it.
+ * Everything that decodes pixels runs afterwards in the `ingest-photo` job (runIngest).
  */
-export async function prepareIngest(input: IngestSource) {
+export async function checkUpload(input: IngestSource) {
   const source: ImageInput = input.path ?? input.buffer;
   const bytes = input.path !== undefined ? (await stat(input.path)).size : input.buffer.length;
   const info = await probe(source, bytes);
-  // libvips decodes on its own threads while this thread hashes and reads EXIF.
-  const decoding = decodeDisplay(source, info.colour, info.decodedWhole);
-  decoding.catch(() => undefined);
+  const sha256 = await sha256Of(source);
   let stagedMaster: string | null = null;
-  let sending: Promise<unknown> | null = null;
-  try {
-    // 1. The master's name is its SHA-256 (a file is hashed as it streams from disk); 2. EXIF (GPS kept apart, on
-    // the row only), read from the file in chunks by exifr.
-    const sha256 = await sha256Of(source);
-    // With object storage, an upload on disk is sent to its temp master key now, beside the decode, rather than
-    // inside the caller's transaction (a large master takes seconds to send, and an idle transaction's connection
-    // is closed by the socket timeout). ingestPhoto takes it from there; left unused, the reconciler removes it.
-    if (input.path !== undefined && storage().kind !== 'local' && !(await exists(masterPath(sha256, info.ext)))) {
-      stagedMaster = tempMasterPath(sha256, info.ext);
-      sending = storage().put(stagedMaster, { file: input.path, sha256 });
-      sending.catch(() => undefined);
-    }
-    const { exif, gps, capturedAt } = await readExif(source);
-    const { display: shown, work, facts } = await decoding;
-
-    // 3. Derivatives (WebP at the fastest effort, no metadata: sharp writes none unless asked), encoded on libvips'
-    // threads while 4. the palette of the whole photo is computed here on a working-size copy.
-    const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
-    const d = { width: shown.width, height: shown.height };
-    const encoding = Promise.all([
-      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
-      fromRaw(data, d.width, d.height)
-        .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
-        .webp({ quality: 80, effort: 0 })
-        .toBuffer({ resolveWithObject: true }),
-    ]);
-    encoding.catch(() => undefined);
-    const colours = extractPalette(work);
-    const [display, thumb] = await encoding;
-    await sending;
-    return { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours, stagedMaster };
-  } catch (err) {
-    if (stagedMaster) {
-      const key = stagedMaster;
-      await sending?.catch(() => undefined);
+  if (input.path !== undefined && storage().kind !== 'local' && !(await exists(masterPath(sha256, info.ext)))) {
+    const key = tempMasterPath(sha256, info.ext);
+    try {
+      await storage().put(key, { file: input.path, sha256 });
+    } catch (err) {
       await storage()
         .delete(key)
         .catch(() => undefined);
+      throw err;
     }
-    if (err instanceof HttpError) throw err;
-    throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
-      reason: err instanceof Error ? err.message : String(err),
-    });
+    stagedMaster = key;
   }
+  return { bytes, info, sha256, stagedMaster };
 }
-export type PreparedIngest = Awaited<ReturnType<typeof prepareIngest>>;
+export type CheckedUpload = Awaited<ReturnType<typeof checkUpload>>;
 
 /**
- * The media pipeline: prepareIngest() (unless the caller has done it before opening its transaction, `prepared`),
- * then, in the caller's transaction, store the master byte for byte by SHA-256 (an uploaded file is renamed, not
- * copied, to the master's temporary name, moved into place after the commit), the photo row, the derivative files
- * and the palette rows. On any failure every file written here is removed again and an HttpError is thrown.
+ * Stores an upload in the caller's transaction: the master byte for byte by SHA-256 (an uploaded file is renamed,
+ * not copied, to the master's temporary name and moved into place after the commit) and the photo row at stage
+ * `queued`, with what the header told (format, size). The caller queues its ingest job in the same transaction
+ * (enqueueIngest) or runs the steps itself (ingestPhoto). `files` removes what was written if the caller fails.
  */
-export async function ingestPhoto({
-  actor,
-  transaction,
-  input,
-}: ServiceCtx<IngestInput & { prepared?: PreparedIngest }>) {
-  const prepared = input.prepared ?? (await prepareIngest(input));
-  const { bytes, info, sha256, exif, gps, capturedAt, facts, display, thumb, colours } = prepared;
+export async function storePhoto({ actor, transaction, input }: ServiceCtx<IngestInput & { checked?: CheckedUpload }>) {
+  const checked = input.checked ?? (await checkUpload(input));
+  const { bytes, info, sha256 } = checked;
   const files = new WrittenFiles();
-  let photoId: number | null = null;
   try {
     // Store the master byte for byte; an identical file already stored is shared.
     const master = masterPath(sha256, info.ext);
     if (!(await exists(master))) {
       // Under a temporary name until the rows commit: a process killed before the commit leaves no master that no
       // row points at (the reconciler clears the temp file), and a rolled-back transaction never moves it into place.
-      const tmp = prepared.stagedMaster
-        ? files.adopt(prepared.stagedMaster)
+      const tmp = checked.stagedMaster
+        ? files.adopt(checked.stagedMaster)
         : input.path !== undefined
           ? await files.moveTemp(sha256, info.ext, input.path)
           : await files.writeTemp(sha256, info.ext, input.buffer);
@@ -213,8 +176,7 @@ export async function ingestPhoto({
         // A failed move must not turn a committed upload into an error; the reconciler finishes it later.
         await moveIntoPlace(tmp, master).catch((e) => console.error('[media] moving a master into place', e));
       });
-    } else if (prepared.stagedMaster) await storage().delete(prepared.stagedMaster);
-
+    } else if (checked.stagedMaster) await storage().delete(checked.stagedMaster);
     const photo = await Photo.create(
       {
         pieceId: input.pieceId ?? null,
@@ -227,34 +189,167 @@ export async function ingestPhoto({
         view: input.view ?? 'recto',
         originalName: input.originalName?.slice(0, 255) ?? null,
         caption: null,
-        capturedAt,
-        exif,
-        gps,
+        capturedAt: null,
+        exif: {},
+        gps: null,
         derivatives: { master: { path: master, width: info.width, height: info.height } },
         referencePatch: null,
         correction: null,
-        colour: facts,
+        colour: null,
+        ingestStage: 'queued',
+        ingestError: null,
         createdById: actor?.id ?? null,
       },
       { transaction },
     );
-    photoId = photo.id;
+    return { photo, files };
+  } catch (err) {
+    await files.removeAll();
+    if (err instanceof HttpError) throw err;
+    throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
+      reason: err instanceof Error ? err.message : String(err),
+    });
+  }
+}
 
+/** A step that cannot succeed on another attempt (the photo or its master is gone); the job fails at once. */
+export class IngestGone extends Error {}
+
+type StepCtx = {
+  photo: Photo;
+  /** The caller's transaction (ingestPhoto), else each step writes in its own. */
+  transaction?: Transaction;
+  /** Handed from one step to the next within one run: the whole photo's working image, decoded while reading. */
+  work?: RawImage & { scale: number };
+  jobTag: string;
+};
+
+const inTransaction = <T>(ctx: StepCtx, fn: (t: Transaction) => Promise<T>) =>
+  ctx.transaction ? fn(ctx.transaction) : sequelize.transaction(fn);
+
+const masterOf = (photo: Photo) => {
+  const master = photo.derivatives.master?.path;
+  if (!master) throw new IngestGone(`Photo ${photo.id} has no master file recorded.`);
+  // Inside the transaction that stored it (ingestPhoto), or just after a commit, the master is still under tmp/.
+  return masterFileOnDisk(master, photo.sha256).catch(async () => {
+    // Moved into place between the two looks: read it there. Otherwise no attempt will find it.
+    if (await exists(master)) return masterFileOnDisk(master, photo.sha256);
+    throw new IngestGone(`The master file of photo ${photo.id} is missing (sha256 ${photo.sha256}).`);
+  });
+};
+
+/**
+ * The work of each step (shared/schemas/ingest.ts INGEST_STEPS gives the order). Each can run again on the same
+ * photo (a retry, a job whose worker died) and skips what the photo already has.
+ */
+const INGEST_WORK: Record<IngestStep, (ctx: StepCtx) => Promise<void>> = {
+  /**
+   * EXIF (GPS kept apart, on the row only), the colour-managed decode and the WebP derivatives, read from the
+   * stored master (sharp and exifr read the file, never whole into memory). The derivatives are encoded on libvips'
+   * threads and written under temp names, then the row. The whole-photo working image goes on to the palette.
+   */
+  async reading(ctx) {
+    const { photo } = ctx;
+    if (photo.derivatives.display) return;
+    const file = await masterOf(photo);
+    const info = await probe(file, photo.bytes);
+    const decoding = decodeDisplay(file, info.colour, info.decodedWhole);
+    decoding.catch(() => undefined);
+    const { exif, gps, capturedAt } = await readExif(file);
+    const { display: shown, work, facts } = await decoding;
+    const data = Buffer.from(shown.data.buffer, shown.data.byteOffset, shown.data.byteLength);
+    const d = { width: shown.width, height: shown.height };
+    const [display, thumb] = await Promise.all([
+      fromRaw(data, d.width, d.height).webp({ quality: 82, effort: 0 }).toBuffer({ resolveWithObject: true }),
+      fromRaw(data, d.width, d.height)
+        .resize({ width: DERIVATIVES.thumb, height: DERIVATIVES.thumb, fit: 'inside', withoutEnlargement: true })
+        .webp({ quality: 80, effort: 0 })
+        .toBuffer({ resolveWithObject: true }),
+    ]);
+    ctx.work = { ...work, scale: work.width / photo.width };
+    const files = new WrittenFiles();
     const derivatives = { ...photo.derivatives };
-    for (const [kind, out] of [
-      ['display', display],
-      ['thumb', thumb],
-    ] as const) {
-      const rel = derivativePath(photo.id, kind);
-      await files.write(rel, out.data);
-      derivatives[kind] = { path: rel, width: out.info.width, height: out.info.height };
+    try {
+      for (const [kind, out] of [
+        ['display', display],
+        ['thumb', thumb],
+      ] as const) {
+        const rel = derivativePath(photo.id, kind);
+        await files.write(rel, out.data);
+        derivatives[kind] = { path: rel, width: out.info.width, height: out.info.height };
+      }
+      await photo.update({ exif, gps, capturedAt, colour: facts, derivatives }, { transaction: ctx.transaction });
+    } catch (err) {
+      await files.removeAll();
+      throw err;
     }
-    await photo.update({ derivatives }, { transaction });
-    const palette = await PaletteColour.bulkCreate(paletteRows(photo.id, null, 'raw', colours), { transaction });
+  },
+  /**
+   * The palettes: the whole photo's and, when regions were marked while it waited, theirs (repalette, with the
+   * exclusions, reference patch and chart it honours), written in one transaction; the search change log rows go
+   * with them (server/search/hooks.ts). A photo whose whole-photo palette is stored already keeps it.
+   */
+  async palette(ctx) {
+    const { photo } = ctx;
+    await inTransaction(ctx, async (transaction) => {
+      const has = await PaletteColour.count({
+        where: { photoId: photo.id, regionId: null, variant: 'raw' },
+        transaction,
+      });
+      if (has) return;
+      await repalette({ transaction, photo, scope: 'all', decoded: ctx.work });
+    });
+  },
+  /** IIIF Image API 3 level-0 tiles (server/iiif/tiles.ts), built under a temporary name. */
+  async tiles(ctx) {
+    const { photo } = ctx;
+    await buildTiles(photo.id, await masterOf(photo), ctx.jobTag);
+    // Removed while its tiles were being built: take the tiles away too, so no orphan folder stays behind.
+    if (!(await Photo.findByPk(photo.id, { transaction: ctx.transaction }))) {
+      await storage().deletePrefix(`${tilesDir(photo.id)}/`);
+      throw new IngestGone(`Photo ${photo.id} was removed while its tiles were built.`);
+    }
+  },
+};
+
+/**
+ * Runs a stored photo's ingest: each step of INGEST_STEPS in order, the photo's stage set to the step before it
+ * runs, then `done`. Called by the `ingest-photo` job (server/jobs/handlers/ingest-photo.ts), and by ingestPhoto()
+ * inside its caller's transaction. Throws an HttpError for a file that cannot be read (its message in words).
+ */
+export async function runIngest(
+  photo: Photo,
+  opts: { transaction?: Transaction; progress?: (fraction: number) => Promise<void>; jobTag?: string } = {},
+) {
+  const ctx: StepCtx = { photo, transaction: opts.transaction, jobTag: opts.jobTag ?? randomBytes(4).toString('hex') };
+  for (const [i, step] of INGEST_STEPS.entries()) {
+    await photo.update({ ingestStage: step, ingestError: null }, { transaction: opts.transaction });
+    await opts.progress?.(i / INGEST_STEPS.length);
+    await INGEST_WORK[step](ctx);
+  }
+  await photo.update({ ingestStage: 'done', ingestError: null }, { transaction: opts.transaction });
+  return photo;
+}
+
+/**
+ * Stores a photo and runs its ingest at once in the caller's transaction, without a job: the factories, the
+ * demo seed and the pipeline's own tests, which want the palette straight away. The same steps as the job. On a
+ * failure every file written here is removed again and an HttpError is thrown.
+ */
+export async function ingestPhoto({
+  actor,
+  transaction,
+  input,
+}: ServiceCtx<IngestInput & { checked?: CheckedUpload }>) {
+  const { photo, files } = await storePhoto({ actor, transaction, input });
+  try {
+    await runIngest(photo, { transaction });
+    const palette = await PaletteColour.findAll({ where: { photoId: photo.id }, transaction });
     return { photo, palette };
   } catch (err) {
     await files.removeAll();
-    if (photoId) await storage().deletePrefix(`${derivativesDir(photoId)}/`);
+    await storage().deletePrefix(`${derivativesDir(photo.id)}/`);
+    await storage().deletePrefix(`${tilesDir(photo.id)}/`);
     if (err instanceof HttpError) throw err;
     throw new HttpError(422, 'unprocessable_image', 'The image could not be processed.', {
       reason: err instanceof Error ? err.message : String(err),

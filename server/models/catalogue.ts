@@ -1,5 +1,6 @@
 import { accessionKey, accessionSortKey } from '../../shared/accession.ts';
 import type { PhotoColourFacts } from '../../shared/schemas/photo.ts';
+import { INGEST_STAGES, type IngestStage } from '../../shared/schemas/ingest.ts';
 import type { Spectrum as StoredSpectrum } from '../../shared/colour/spectral.ts';
 import { PALETTE_VARIANTS, type PaletteVariant, type PhotoChart } from '../../shared/schemas/chart.ts';
 import type { Maker, Mark } from '../../shared/schemas/curatorial.ts';
@@ -81,7 +82,9 @@ export class Photo extends Model<InferAttributes<Photo>, InferCreationAttributes
   declare chart: CreationOptional<PhotoChart | null>;
   /** How the colours were read (profile, bit depth, colour space); null for photos uploaded before it was recorded. */
   declare colour: CreationOptional<PhotoColourFacts | null>;
-  declare tileStatus: CreationOptional<'none' | 'queued' | 'running' | 'done' | 'failed'>;
+  /** How far its processing has come (shared/schemas/ingest.ts, migration 0034); the reason when it failed. */
+  declare ingestStage: CreationOptional<IngestStage>;
+  declare ingestError: CreationOptional<string | null>;
   declare createdById: number | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -234,11 +237,8 @@ export function initCatalogueModels(sequelize: Sequelize) {
       correction: DataTypes.JSON,
       chart: DataTypes.JSON,
       colour: DataTypes.JSON,
-      tileStatus: {
-        type: DataTypes.ENUM('none', 'queued', 'running', 'done', 'failed'),
-        allowNull: false,
-        defaultValue: 'none',
-      },
+      ingestStage: { type: DataTypes.ENUM(...INGEST_STAGES), allowNull: false, defaultValue: 'queued' },
+      ingestError: DataTypes.STRING(2000),
       createdById: fk(),
       ...stamps(),
     },

@@ -6,6 +6,7 @@ import {
   type PhotoOut,
   type RegionOut,
 } from '../../shared/schemas/photo.ts';
+import type { PhotoIngest } from '../../shared/schemas/ingest.ts';
 import type { PaletteColour, Photo, Region } from '../models/index.ts';
 import { PALETTE_VARIANTS, VARIANT_TRUST, type PaletteVariant } from '../../shared/schemas/chart.ts';
 import { abilities, can, type Actor } from '../policies/index.ts';
@@ -54,6 +55,18 @@ export function presentPalettes(rows: PaletteColour[]): Palettes {
   return [...groups.values()];
 }
 
+/** A photo's processing as the API shows it: the stage, and the reason only when it failed. */
+export const presentIngest = (p: Photo): PhotoIngest => ({
+  stage: p.ingestStage,
+  error: p.ingestStage === 'failed' ? (p.ingestError ?? 'The processing failed.') : null,
+});
+
+/**
+ * Whether a photo may carry GPS, for the master rule (photo:master): it does when its EXIF gave a position, and it
+ * may when its EXIF has not been read yet (the reading step writes the display derivative with it).
+ */
+export const mayCarryGps = (p: Photo) => p.gps != null || !p.derivatives.display;
+
 const GPS_KEY = /^gps|latitude|longitude|altitude/i;
 
 /** EXIF as a role may see it: GPS only for roles allowed to (curators and admins). */
@@ -95,8 +108,9 @@ export function presentPhoto(
     urls: {
       thumb: mediaUrl(p.id, 'thumb'),
       display: mediaUrl(p.id, 'display'),
-      ...(can(actor, 'photo:master', { hasGps: p.gps != null }) ? { master: mediaUrl(p.id, 'master') } : {}),
+      ...(can(actor, 'photo:master', { hasGps: mayCarryGps(p) }) ? { master: mediaUrl(p.id, 'master') } : {}),
     },
+    ingest: presentIngest(p),
     abilities: abilities(actor, [
       'photo:update',
       'photo:delete',

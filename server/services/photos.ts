@@ -6,10 +6,10 @@ import {
   type RegionCreateInput,
   type RegionUpdateInput,
 } from '../../shared/schemas/photo.ts';
-import { badRequest } from '../http/errors.ts';
-import { enqueueTiles } from '../iiif/enqueue.ts';
-import { TILE_JOB } from '../jobs/handlers/tile-photo.ts';
-import { ingestPhoto, removePhotoFiles, repalette, type IngestInput, type PreparedIngest } from '../media/pipeline.ts';
+import { badRequest, conflict } from '../http/errors.ts';
+import { enqueueIngest, INGEST_JOB } from '../jobs/handlers/ingest-photo.ts';
+import { retry as retryJob } from '../jobs/queue.ts';
+import { removePhotoFiles, repalette, storePhoto, type CheckedUpload, type IngestInput } from '../media/pipeline.ts';
 import { EXCLUDING_PURPOSES, type RepaletteScope } from '../media/repalette.ts';
 import { Job, PaletteColour, Region, type Photo } from '../models/index.ts';
 import { presentRegion } from '../presenters/photo.ts';
@@ -35,17 +35,17 @@ function checkRect(r: Partial<Rect>, photo: Photo) {
 }
 
 /**
- * One uploaded photo: rows through the media pipeline, its deep-zoom job queued with them (a photo never
- * exists without it) and, for a piece, a line in the piece's history. Files the pipeline wrote are removed
- * if the transaction does not commit. Routes pass the file already `prepared` (prepareIngest(), before they open
- * the transaction), so the transaction lasts only as long as the writes.
+ * One uploaded photo: its master stored and its row written at stage `queued` (storePhoto), its ingest job queued
+ * with them (a photo never exists without it; EXIF, derivatives, palette and tiles run there) and, for a piece, a
+ * line in the piece's history. The master's temp file is removed if the transaction does not commit. Routes pass
+ * the file already `checked` (checkUpload(), before they open the transaction), so it lasts only as long as the writes.
  */
-export async function addPhoto({ actor, transaction, input }: ServiceCtx<IngestInput & { prepared?: PreparedIngest }>) {
-  let stored: Photo | null = null;
+export async function addPhoto({ actor, transaction, input }: ServiceCtx<IngestInput & { checked?: CheckedUpload }>) {
+  let stored: Awaited<ReturnType<typeof storePhoto>> | null = null;
   try {
-    const result = await ingestPhoto({ actor, transaction, input });
-    stored = result.photo;
-    await enqueueTiles(result.photo.id, transaction, actor?.id ?? null);
+    stored = await storePhoto({ actor, transaction, input });
+    const result = { photo: stored.photo };
+    await enqueueIngest(result.photo.id, transaction, actor?.id ?? null);
     // In the history of what it belongs to: the piece, or the trial it is a swatch of.
     const owner =
       input.pieceId != null
@@ -59,9 +59,36 @@ export async function addPhoto({ actor, transaction, input }: ServiceCtx<IngestI
       });
     return result;
   } catch (e) {
-    if (stored) await removePhotoFiles(stored).catch(() => undefined);
+    if (stored) await stored.files.removeAll().catch(() => undefined);
     throw e;
   }
+}
+
+/**
+ * Starts a failed ingest again (POST /api/photos/:id/ingest/retry): its job queued with fresh attempts and the photo
+ * back to `queued`, one transaction with the audit row; 409 when the ingest has not failed. The steps skip what the
+ * photo already has, so it resumes after the last step that finished.
+ */
+export async function retryIngest({ actor, transaction, input }: ServiceCtx<{ photo: Photo }>) {
+  const { photo } = input;
+  await photo.reload({ transaction, lock: transaction.LOCK.UPDATE });
+  if (photo.ingestStage !== 'failed')
+    throw conflict(
+      `This photo's processing has not failed (it is ${photo.ingestStage}), so there is nothing to retry.`,
+    );
+  const job = await Job.findOne({
+    where: { type: INGEST_JOB, subjectType: 'photo', subjectId: photo.id },
+    order: [['id', 'DESC']],
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
+  if (job && job.state === 'failed') await retryJob(job, transaction);
+  else if (!job || job.state === 'done') await enqueueIngest(photo.id, transaction, actor?.id ?? null);
+  const before = photo.ingestError;
+  await photo.update({ ingestStage: 'queued', ingestError: null }, { transaction });
+  // A piece's history names the retry; a trial swatch's goes under the photo.
+  await auditPhoto({ actor, transaction }, photo, 'photo-ingest-retried', { ingestError: { from: before, to: null } });
+  return photo;
 }
 
 export async function updatePhoto({
@@ -85,9 +112,9 @@ export async function removePhotoRows(photos: Photo[], transaction: Transaction)
   const ids = photos.map((p) => p.id);
   await PaletteColour.destroy({ where: { photoId: { [Op.in]: ids } }, transaction });
   await Region.destroy({ where: { photoId: { [Op.in]: ids } }, transaction });
-  // Tiling not yet started has nothing left to tile.
+  // Processing not yet started has nothing left to process.
   await Job.destroy({
-    where: { type: TILE_JOB, subjectType: 'photo', subjectId: { [Op.in]: ids }, state: 'queued' },
+    where: { type: INGEST_JOB, subjectType: 'photo', subjectId: { [Op.in]: ids }, state: 'queued' },
     transaction,
   });
   for (const photo of photos) await photo.destroy({ transaction });

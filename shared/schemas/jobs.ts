@@ -8,7 +8,8 @@ import { pageQuery, paged } from './common.ts';
  * payload fails the job with the reason, it never reaches the handler.
  */
 export const jobPayloads = {
-  'tile-photo': z.object({ photoId: z.number().int().positive() }),
+  /** A photo's processing after its master is stored: the steps of shared/schemas/ingest.ts in order. */
+  'ingest-photo': z.object({ photoId: z.number().int().positive() }),
   'fixity-check': z.object({}),
 } as const;
 export type JobType = keyof typeof jobPayloads;

@@ -3,6 +3,7 @@ import '../messages.ts';
 import { IMAGE_ESTIMATE_CONDITIONS } from '../colour/conditions.ts';
 import { PALETTE_VARIANTS, photoChartSchema } from './chart.ts';
 import { id, idParams } from './common.ts';
+import { photoIngestSchema } from './ingest.ts';
 
 export const PHOTO_VIEWS = ['recto', 'verso', 'detail', 'raking', 'transmitted', 'uv', 'swatch'] as const;
 // W3C Web Annotation motivations narrowed to what a region is for on a textile photo.
@@ -211,6 +212,8 @@ export const photoSchema = z.object({
   regions: z.array(regionSchema),
   /** `master` only for those the media route serves it to. */
   urls: z.object({ thumb: z.string(), display: z.string(), master: z.string().optional() }),
+  /** Where the photo's processing stands (shared/schemas/ingest.ts): previews and palette exist once past them. */
+  ingest: photoIngestSchema,
   abilities: photoAbilities,
 });
 export type PhotoOut = z.infer<typeof photoSchema>;

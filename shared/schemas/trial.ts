@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import '../messages.ts';
+import { photoIngestSchema } from './ingest.ts';
 import { fastnessSchema } from './fastness.ts';
 import { GREY_GRADES } from '../compute/fastness.ts';
 import { DRY_MASS_BASES } from '../compute/moisture.ts';
@@ -584,8 +585,16 @@ export const stepsSavedAnswer = z.object({
 export const substitutionAnswer = z.object({ substitution: substitutionOutSchema, metalLoad: metalLoadSchema });
 export const measurementAnswer = z.object({ measurement: measurementOutSchema });
 export const measurementImportAnswer = z.object({ imported: num, measurements: z.array(measurementOutSchema) });
+/** The swatch's palette is read by its ingest job: empty in the 201 answer (stage queued), then on the trial. */
 export const trialPhotoAnswer = z.object({
-  photo: z.object({ id: num, width: num, height: num, view: z.enum(PHOTO_VIEWS), originalName: nstr }),
+  photo: z.object({
+    id: num,
+    width: num,
+    height: num,
+    view: z.enum(PHOTO_VIEWS),
+    originalName: nstr,
+    ingest: photoIngestSchema,
+  }),
   palette: z.array(
     z.object({
       rank: num,
@@ -598,6 +607,7 @@ export const trialPhotoAnswer = z.object({
     }),
   ),
 });
+export type TrialPhotoAnswer = z.infer<typeof trialPhotoAnswer>;
 export const pieceTrialsResponse = trialListResponse.extend({
   piece: z.object({ id: num, accessionNumber: z.string(), title: z.string() }),
   targets: z.object({ measurements: z.array(measurementOutSchema) }),

@@ -4,8 +4,6 @@ import type { z } from 'zod';
 import { createApp } from '../../server/app.ts';
 import { sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
-import { enqueueTiles } from '../../server/iiif/enqueue.ts';
-import { drain } from '../../server/jobs/worker.ts';
 import {
   dublinCoreSchema,
   pieceDetailResponse,
@@ -26,6 +24,7 @@ import { searchResponse, shadeResponse } from '../../shared/schemas/search.ts';
 import { annotationPageSchema, imageInfoSchema, manifestSchema } from '../../shared/schemas/iiif.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
+import { ingested } from '../support/photos.ts';
 import { useTestMail } from '../support/mail.ts';
 
 /**
@@ -240,8 +239,7 @@ describe('IIIF answers as shared/schemas/iiif.ts says', () => {
       .expect(201);
     // Before tiling the manifest paints the display image; after, the tiles' whole image with its service.
     fits(manifestSchema, JSON.parse((await request(app).get(`/iiif/${piece.id}/manifest.json`).expect(200)).text));
-    await sequelize.transaction((t) => enqueueTiles(photoId, t));
-    await drain({ types: ['tile-photo'] });
+    await ingested(photoId);
     const manifest = fits(
       manifestSchema,
       JSON.parse((await request(app).get(`/iiif/${piece.id}/manifest.json`).expect(200)).text),

@@ -141,7 +141,7 @@ describe('wire contract of the a2 route groups', () => {
       createdById: null,
     });
     const job = await enqueue({
-      type: 'tile-photo',
+      type: 'ingest-photo',
       payload: { photoId: photo.id },
       subject: { type: 'photo', id: photo.id },
     });

@@ -10,6 +10,7 @@ import { createApp } from '../../server/app.ts';
 import { Job, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { drain } from '../../server/jobs/worker.ts';
+import { ingested } from '../support/photos.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
@@ -97,6 +98,7 @@ describe('exports', () => {
         .attach('photo', await clothJpeg({ gps: true }), 'site.jpg')
         .expect(201)
     ).body.photos[0];
+    await ingested(photo.id);
     const researcher = await signedInAgent(app, 'researcher');
     const zip = (agent: typeof curator) =>
       agent.get(`/api/pieces/${withGps.id}/masters.zip`).buffer(true).parse(binary).expect(200);

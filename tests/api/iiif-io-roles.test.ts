@@ -87,7 +87,7 @@ const matrix: Array<{
     route: 'POST /api/jobs/:id/retry',
     send: async (a) => {
       const job = await enqueue({
-        type: 'tile-photo',
+        type: 'ingest-photo',
         payload: { photoId: draftPhoto },
         subject: { type: 'photo', id: draftPhoto },
       });

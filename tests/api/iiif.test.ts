@@ -5,10 +5,8 @@ import sharp from 'sharp';
 import { createApp } from '../../server/app.ts';
 import { Job, Photo, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
-import { enqueueTiles } from '../../server/iiif/enqueue.ts';
-import { drain } from '../../server/jobs/worker.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
-import { makePhotoWithMaster } from '../support/photos.ts';
+import { ingested, makePhotoWithMaster } from '../support/photos.ts';
 
 // The manifests name the host they were asked on: two public names stand in for a real deployment's.
 const app = createApp({ allowedHosts: ['archive.example'] });
@@ -39,18 +37,11 @@ beforeAll(async () => {
     regions: [{ x: 100, y: 120, w: 300, h: 200, label: 'pink ground' }],
   }));
   ({ photo: draftPhoto } = await makePhotoWithMaster(draft.id, { width: 600, height: 400 }));
-  await sequelize.transaction(async (t) => {
-    await enqueueTiles(photo.id, t);
-    await enqueueTiles(draftPhoto.id, t);
-  });
-  await drain({ types: ['tile-photo'] });
-  await photo.reload();
-  await draftPhoto.reload();
 }, 60_000);
 
 describe('deep-zoom tiles (IIIF Image API 3, level 0)', () => {
   it('marks the photo done and records the job with progress 1', async () => {
-    expect(photo.tileStatus).toBe('done');
+    expect(photo.ingestStage).toBe('done');
     const job = await Job.findOne({ where: { subjectType: 'photo', subjectId: photo.id }, order: [['id', 'DESC']] });
     expect(job?.state).toBe('done');
     expect(job?.progress).toBe(1);
@@ -103,7 +94,7 @@ describe('deep-zoom tiles (IIIF Image API 3, level 0)', () => {
   });
 
   it('does not serve tiles or info.json of a draft piece to visitors (404), but does to staff', async () => {
-    expect(draftPhoto.tileStatus).toBe('done');
+    expect(draftPhoto.ingestStage).toBe('done');
     await request(app).get(`/iiif/photos/${draftPhoto.id}/info.json`).expect(404);
     await request(app).get(`/iiif/photos/${draftPhoto.id}/0,0,512,400/512,400/0/default.jpg`).expect(404);
     const researcher = await signedInAgent(app, 'researcher');
@@ -111,13 +102,13 @@ describe('deep-zoom tiles (IIIF Image API 3, level 0)', () => {
     expect(res.headers['cache-control']).toMatch(/private/);
   });
 
-  it('marks a photo whose master is missing as failed, and lets a curator retry the job', async () => {
-    const { photo: lost, file } = await makePhotoWithMaster(published.id, { width: 300, height: 200 });
+  it('marks a photo whose master is missing as failed, and lets a curator retry its job', async () => {
+    const { photo: lost, file } = await makePhotoWithMaster(published.id, { width: 300, height: 200, ingest: false });
     await rm(file);
-    const job = await enqueueTiles(lost.id);
-    await drain({ types: ['tile-photo'] });
+    const job = (await Job.findOne({ where: { type: 'ingest-photo', subjectType: 'photo', subjectId: lost.id } }))!;
+    await ingested(lost.id);
     await lost.reload();
-    expect(lost.tileStatus).toBe('failed');
+    expect(lost.ingestStage).toBe('failed');
     const curator = await signedInAgent(app, 'curator');
     const list = await curator.get(`/api/jobs?photoId=${lost.id}`).expect(200);
     expect(list.body.items[0]).toMatchObject({ id: job.id, state: 'failed', abilities: { retry: true } });
@@ -128,7 +119,7 @@ describe('deep-zoom tiles (IIIF Image API 3, level 0)', () => {
     const retried = await curator.post(`/api/jobs/${job.id}/retry`).set('Origin', ORIGIN).expect(200);
     expect(retried.body.job).toMatchObject({ state: 'queued', attempts: 0 });
     await lost.reload();
-    expect(lost.tileStatus).toBe('queued');
+    expect(lost.ingestStage).toBe('queued');
     await curator.post(`/api/jobs/${job.id}/retry`).set('Origin', ORIGIN).expect(409);
   });
 });

@@ -16,8 +16,7 @@ import {
 } from '../../server/jobs/queue.ts';
 import { checkPayload, registerHandler } from '../../server/jobs/registry.ts';
 import { drain, runOnce, startWorker, stopWorker } from '../../server/jobs/worker.ts';
-import { TILE_JOB } from '../../server/jobs/handlers/tile-photo.ts';
-import { enqueueTiles } from '../../server/iiif/enqueue.ts';
+import { enqueueIngest, INGEST_JOB } from '../../server/jobs/handlers/ingest-photo.ts';
 import { Photo } from '../../server/models/index.ts';
 import { removePhotoRows } from '../../server/services/photos.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
@@ -179,21 +178,21 @@ describe('job queue', () => {
     expect(hooks.sort()).toEqual([expect.stringMatching(/^failed: Interrupted/), 'retry']);
   });
 
-  it("puts a photo's tile status back to queued when its tiling worker died, and to failed on the last attempt", async () => {
+  it("puts a photo's ingest stage back to queued when its ingest worker died, and to failed on the last attempt", async () => {
     const { photo } = await makePhotoWithMaster(null, { width: 60, height: 40 });
     // Only this photo's job is due, claimed by a worker that then died (a lease of 1 ms).
-    await Job.update({ runAfter: new Date(Date.now() + 3600_000) }, { where: { type: TILE_JOB, state: 'queued' } });
-    const job = await enqueueTiles(photo.id);
+    await Job.update({ runAfter: new Date(Date.now() + 3600_000) }, { where: { type: INGEST_JOB, state: 'queued' } });
+    const job = await enqueueIngest(photo.id);
     await Job.update({ runAfter: new Date(0), maxAttempts: 2 }, { where: { id: job!.id } });
     for (const expected of ['queued', 'failed']) {
-      expect((await claim('dead-tiler', { types: [TILE_JOB], leaseMs: 1 }))?.id).toBe(job!.id);
-      await Photo.update({ tileStatus: 'running' }, { where: { id: photo.id } });
+      expect((await claim('dead-tiler', { types: [INGEST_JOB], leaseMs: 1 }))?.id).toBe(job!.id);
+      await Photo.update({ ingestStage: 'tiles' }, { where: { id: photo.id } });
       await new Promise((r) => setTimeout(r, 20));
-      expect(await requeueExpired({ types: [TILE_JOB] })).toBe(1);
-      expect((await Photo.findByPk(photo.id))!.tileStatus).toBe(expected);
+      expect(await requeueExpired({ types: [INGEST_JOB] })).toBe(1);
+      expect((await Photo.findByPk(photo.id))!.ingestStage).toBe(expected);
       expect((await job!.reload()).state).toBe(expected);
     }
-    await Job.update({ runAfter: new Date() }, { where: { type: TILE_JOB, state: 'queued' } });
+    await Job.update({ runAfter: new Date() }, { where: { type: INGEST_JOB, state: 'queued' } });
     await Job.destroy({ where: { id: job!.id } });
     await sequelize.transaction((transaction) => removePhotoRows([photo], transaction));
   });
@@ -236,24 +235,24 @@ describe('job queue', () => {
 
 describe('typed job payloads (shared/schemas/jobs.ts jobPayloads)', () => {
   it("checks a known kind's payload: a good one passes, a bad one is refused with each field named", () => {
-    expect(checkPayload('tile-photo', { photoId: 7 })).toEqual({ ok: true, payload: { photoId: 7 } });
+    expect(checkPayload('ingest-photo', { photoId: 7 })).toEqual({ ok: true, payload: { photoId: 7 } });
     expect(checkPayload('fixity-check', {})).toEqual({ ok: true, payload: {} });
-    const bad = checkPayload('tile-photo', { photoId: 'seven' });
+    const bad = checkPayload('ingest-photo', { photoId: 'seven' });
     expect(bad.ok).toBe(false);
     if (!bad.ok)
       expect(bad.reason).toMatch(
-        /^The job's payload is not valid for a tile-photo job \(photoId: .+\), so it was not run\.$/,
+        /^The job's payload is not valid for an ingest-photo job \(photoId: .+\), so it was not run\.$/,
       );
-    const missing = checkPayload('tile-photo', null);
+    const missing = checkPayload('ingest-photo', null);
     expect(missing.ok).toBe(false);
     // Kinds outside the map pass as they are.
     expect(checkPayload('t-anything', { i: 1 })).toEqual({ ok: true, payload: { i: 1 } });
   });
 
   it('refuses to queue a known kind with a payload it does not take, and writes nothing', async () => {
-    const before = await Job.count({ where: { type: 'tile-photo' } });
-    await expect(enqueue({ type: 'tile-photo', payload: { photoId: 'abc' } })).rejects.toThrow();
-    expect(await Job.count({ where: { type: 'tile-photo' } })).toBe(before);
+    const before = await Job.count({ where: { type: 'ingest-photo' } });
+    await expect(enqueue({ type: 'ingest-photo', payload: { photoId: 'abc' } })).rejects.toThrow();
+    expect(await Job.count({ where: { type: 'ingest-photo' } })).toBe(before);
     // The typed enqueue takes the kind's payload as is.
     const ok = await enqueueTyped({ type: 'fixity-check', maxAttempts: 1, runAfter: new Date(Date.now() + 3600_000) });
     expect(ok.payload).toEqual({});
@@ -263,7 +262,7 @@ describe('typed job payloads (shared/schemas/jobs.ts jobPayloads)', () => {
   it('fails a claimed job whose stored payload is malformed, at once and with the reason, without running its handler', async () => {
     // Written past enqueue() (as an old row or a hand edit might be); due long ago, so it is the first tile job claimed.
     const job = await Job.create({
-      type: 'tile-photo',
+      type: 'ingest-photo',
       payload: { photoId: 'not-a-number' },
       subjectType: null,
       subjectId: null,
@@ -278,11 +277,11 @@ describe('typed job payloads (shared/schemas/jobs.ts jobPayloads)', () => {
       createdById: null,
     });
     try {
-      expect(await runOnce({ types: ['tile-photo'] })).toBe(job.id);
+      expect(await runOnce({ types: ['ingest-photo'] })).toBe(job.id);
       await job.reload();
       expect(job.state).toBe('failed');
       expect(job.attempts).toBe(1);
-      expect(job.error).toMatch(/payload is not valid for a tile-photo job \(photoId: .+\)/);
+      expect(job.error).toMatch(/payload is not valid for an ingest-photo job \(photoId: .+\)/);
     } finally {
       await job.destroy();
     }

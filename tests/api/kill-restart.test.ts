@@ -14,7 +14,9 @@ import { freePort, startServerProcess, type ServerProcess } from '../support/ser
 
 // Issue 16: an app server killed (SIGKILL) at any moment of an upload, then restarted, leaves no orphan: every
 // master on disk belongs to a photo row, every photo row's master is on disk, and what a killed upload left in tmp/
-// is swept by the reconciler once it is older than its age limit. The servers use a private uploads folder, so the
+// is swept by the reconciler once it is older than its age limit. Issue 18: the upload answers once the master is
+// stored, and the photo's ingest job runs on the server's worker, so later kills land in the job: its lease runs
+// out (2 s here) and the restarted server's worker takes it again, so every stored photo ends done. The servers use a private uploads folder, so the
 // sweep cannot touch files of other test files running at the same time.
 const run = promisify(execFile);
 let uploads: string;
@@ -54,7 +56,7 @@ async function noisyPng(seed: number) {
 describe('killed mid-upload and restarted: nothing orphaned', () => {
   it('keeps masters and photo rows in step whenever the server dies, and sweeps what a dead upload left', async () => {
     uploads = await mkdtemp(path.join(tmpdir(), 'tinctoria-kill-'));
-    const env = { UPLOADS_DIR: uploads };
+    const env = { UPLOADS_DIR: uploads, JOB_LEASE_MS: '2000' };
     const port = await freePort();
     server = await startServerProcess(port, 90_000, env);
     const sign = async () => {
@@ -75,8 +77,9 @@ describe('killed mid-upload and restarted: nothing orphaned', () => {
     const pieceId = piece.body.piece.id as number;
 
     const sent: string[] = [];
-    // Kill at several moments: while the body arrives, while the pipeline runs, around the commit; then one that ends.
-    for (const [i, killAfterMs] of [150, 600, 1200, 2000, null].entries()) {
+    // Kill at several moments: while the body arrives, around the commit, while the ingest job reads, computes the
+    // palette or builds the tiles; then one that ends.
+    for (const [i, killAfterMs] of [150, 600, 1200, 2000, 3500, null].entries()) {
       const png = await noisyPng(i + 1);
       sent.push(createHash('sha256').update(png).digest('hex'));
       const upload = curator
@@ -97,6 +100,15 @@ describe('killed mid-upload and restarted: nothing orphaned', () => {
       await server.stop();
       server = await startServerProcess(port, 90_000, env);
       curator = await sign();
+    }
+    // Every stored photo is processed in the end, the interrupted ones after their lease ran out.
+    for (;;) {
+      const stages = (await Photo.findAll({ where: { pieceId }, attributes: ['ingestStage'], raw: true })).map(
+        (p) => p.ingestStage,
+      );
+      expect(stages).not.toContain('failed');
+      if (stages.every((s) => s === 'done')) break;
+      await new Promise((r) => setTimeout(r, 250));
     }
     await server.stop();
     server = undefined;

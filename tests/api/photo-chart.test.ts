@@ -4,6 +4,7 @@ import { createApp } from '../../server/app.ts';
 import { AuditEvent, PaletteColour, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { deltaE00, type Lab } from '../../shared/colour/index.ts';
+import { ingested } from '../support/photos.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { chartPhoto, TEXTILES } from '../support/chart-image.ts';
 
@@ -33,6 +34,7 @@ beforeAll(async () => {
     .attach('photo', shot.buffer, 'chart.png')
     .expect(201);
   photo = res.body.photos[0];
+  await ingested(photo.id);
 }, 60_000);
 afterAll(() => sequelize.close());
 

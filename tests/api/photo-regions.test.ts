@@ -6,6 +6,7 @@ import { AuditEvent, PaletteColour, Photo, Region, sequelize } from '../../serve
 import { makePiece } from '../../server/seed/factories.ts';
 import { deletePhoto, setPaletteBackground } from '../../server/services/photos.ts';
 import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
+import { ingested } from '../support/photos.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg, uploadedFiles } from '../support/images.ts';
 
@@ -26,7 +27,8 @@ beforeAll(async () => {
     .set('Origin', ORIGIN)
     .attach('photo', await clothJpeg({ seed: 11 }), 'regions.jpg')
     .expect(201);
-  photo = res.body.photos[0];
+  await ingested(res.body.photos[0].id);
+  photo = (await curator.get(`/api/photos/${res.body.photos[0].id}`).expect(200)).body.photo;
 });
 afterAll(() => sequelize.close());
 
@@ -288,6 +290,7 @@ describe('regions and the palette', () => {
         .attach('photo', await clothJpeg({ seed: 12 }), 'gone.jpg')
         .expect(201)
     ).body.photos[0];
+    await ingested(own.id);
     const patched = await curator
       .patch(`/api/photos/${own.id}`)
       .set('Origin', ORIGIN)

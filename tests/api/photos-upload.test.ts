@@ -7,6 +7,7 @@ import { Photo, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg, pngClaiming, uploadedFiles } from '../support/images.ts';
+import { ingested } from '../support/photos.ts';
 
 const app = createApp();
 let pieceId: number;
@@ -28,7 +29,12 @@ describe('photo upload', () => {
       .set('Origin', ORIGIN)
       .attach('photo', jpeg, 'recto.jpg')
       .expect(201);
-    const [photo] = res.body.photos;
+    // The upload answers at once (stage queued); EXIF, previews and palette follow from the ingest job.
+    expect(res.body.photos[0]).toMatchObject({ width: 480, height: 320, ingest: { stage: 'queued', error: null } });
+    expect(res.body.photos[0].palette).toEqual([]);
+    await ingested(res.body.photos[0].id);
+    const photo = (await curator.get(`/api/photos/${res.body.photos[0].id}`).expect(200)).body.photo;
+    expect(photo.ingest).toEqual({ stage: 'done', error: null });
     expect(photo).toMatchObject({
       width: 480,
       height: 320,
@@ -67,6 +73,7 @@ describe('photo upload', () => {
         .attach('photo', jpeg, 'a.jpg')
         .expect(201)
     ).body.photos[0];
+    await ingested(photo.id);
     const thumb = await curator.get(photo.urls.thumb).buffer(true).expect(200);
     expect(thumb.headers['content-type']).toBe('image/webp');
     const meta = await sharp(thumb.body).metadata();
@@ -120,7 +127,6 @@ describe('refused uploads leave nothing behind', () => {
   const truncated = async () => (await clothJpeg({ seed: 99 })).subarray(0, 4000);
   const cases: [string, () => Promise<Buffer> | Buffer, string, number][] = [
     ['text renamed .jpg', () => Buffer.from('This is a letter, not a photograph.\n'.repeat(20)), 'letter.jpg', 415],
-    ['a truncated JPEG', truncated, 'cut.jpg', 422],
     [
       'a pixel bomb (PNG claiming 40 000 × 30 000 px, above 1 gigapixel)',
       () => pngClaiming(40_000, 30_000),
@@ -141,6 +147,25 @@ describe('refused uploads leave nothing behind', () => {
     expect(res.body.error.message).toContain(filename);
     expect(await Photo.count({ where: { pieceId: piece.id } })).toBe(0);
     expect(await uploadedFiles()).toEqual(before);
+  });
+
+  it('stores a truncated JPEG (its header reads) and its ingest fails with the reason, leaving no previews', async () => {
+    const curator = await signedInAgent(app, 'curator');
+    const piece = await makePiece();
+    const res = await curator
+      .post(`/api/pieces/${piece.id}/photos`)
+      .set('Origin', ORIGIN)
+      .attach('photo', await truncated(), 'cut.jpg')
+      .expect(201);
+    const [stored] = await ingested(res.body.photos[0].id);
+    expect(stored.ingestStage).toBe('failed');
+    const photo = (await curator.get(`/api/photos/${stored.id}`).expect(200)).body.photo;
+    expect(photo.ingest).toEqual({
+      stage: 'failed',
+      error: 'The image is truncated or damaged and cannot be decoded.',
+    });
+    expect(photo.palette).toEqual([]);
+    await curator.get(photo.urls.display).expect(404);
   });
 
   it('answers an unknown field name with a clear 400, and no file with 400', async () => {

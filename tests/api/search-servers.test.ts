@@ -3,6 +3,7 @@ import request from 'supertest';
 import { sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { installSearchHooks } from '../../server/search/hooks.ts';
+import { ingested } from '../support/photos.ts';
 import { clothJpeg } from '../support/images.ts';
 import { freePort, startServerProcess, type ServerProcess } from '../support/server.ts';
 
@@ -106,9 +107,14 @@ describe('search on one server sees every write made through another', () => {
       .set('Origin', a.url)
       .attach('photo', await clothJpeg({ seed: 11 }), 'recto.jpg')
       .expect(201);
-    const colour = (
-      up.body.photos[0].palette as { lab: { L: number; a: number; b: number }; background: boolean }[]
-    ).find((c) => !c.background)!;
+    // The palette is written by the photo's ingest job (a server's worker, or this process), with its change-log
+    // rows in the same transaction: B's shade index finds it through the log.
+    const photoId = up.body.photos[0].id as number;
+    await ingested(photoId);
+    const stored = (await curatorA.get(`/api/photos/${photoId}`).expect(200)).body.photo;
+    const colour = (stored.palette as { lab: { L: number; a: number; b: number }; background: boolean }[]).find(
+      (c) => !c.background,
+    )!;
     const shade = () =>
       researcherB
         .get('/api/search/shade')

@@ -13,7 +13,7 @@ import { reconcileOrphans, ORPHAN_AGE_MS } from '../../server/media/reconcile.ts
 import { LocalStorage, localUploadsRoot, useStorage, type StorageDriver } from '../../server/storage/index.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
-import { makePhotoWithMaster } from '../support/photos.ts';
+import { ingested, makePhotoWithMaster } from '../support/photos.ts';
 import { reportPdf } from '../support/report-pdf.ts';
 import { startTestS3, type S3Fake } from '../support/s3.ts';
 
@@ -59,8 +59,8 @@ let restore: () => void;
 const disk = new LocalStorage(localUploadsRoot());
 
 beforeAll(async () => {
-  // Tile jobs other suites left queued belong to the local folder: run them before switching.
-  await drain({ types: ['tile-photo'] });
+  // Ingest jobs other suites left queued belong to the local folder: run them before switching.
+  await drain({ types: ['ingest-photo'] });
   s3 = await startTestS3();
   bucket = s3.driver();
   restore = useStorage(bucket);
@@ -82,6 +82,8 @@ describe('object storage (S3): upload to tiles through the app', () => {
       .attach('photo', jpeg, 'cloth.jpg')
       .expect(201);
     const id = up.body.photos[0].id as number;
+    // Its ingest job (EXIF, previews, palette, tiles) reads the master from the bucket and stores what it makes there.
+    await ingested(id);
     const photo = await Photo.findByPk(id, { rejectOnEmpty: true });
     expect(photo.sha256).toBe(sha(jpeg));
     const master = masterPath(photo.sha256, 'jpg');
@@ -98,15 +100,22 @@ describe('object storage (S3): upload to tiles through the app', () => {
       return out;
     };
     expect(await temps()).toEqual([]);
-    // A file refused after it was hashed (cut short: its header reads, its pixels do not) leaves nothing behind.
+    // A file cut short passes the header check: stored in the bucket, its ingest fails with the reason (and can be
+    // retried or the photo removed); no temp object stays behind, and no derivative was written.
     const cut = await clothJpeg({ seed: 800_000 + Math.floor(Math.random() * 1e6) });
-    await curator
+    const half = cut.subarray(0, cut.length >> 1);
+    const cutUp = await curator
       .post(`/api/pieces/${piece.id}/photos`)
       .set('Origin', ORIGIN)
-      .attach('photo', cut.subarray(0, cut.length >> 1), 'cut.jpg')
-      .expect(422);
+      .attach('photo', half, 'cut.jpg')
+      .expect(201);
+    const cutId = cutUp.body.photos[0].id as number;
+    const [failed] = await ingested(cutId);
+    expect(failed.ingestStage).toBe('failed');
+    expect(failed.ingestError).toBeTruthy();
     expect(await temps()).toEqual([]);
-    expect(await bucket.exists(masterPath(sha(cut.subarray(0, cut.length >> 1)), 'jpg'))).toBe(false);
+    expect(await bucket.exists(masterPath(sha(half), 'jpg'))).toBe(true);
+    expect(await bucket.exists(`derivatives/${cutId}/display.webp`)).toBe(false);
 
     // Derivatives and the master come back through the app, behind its rules.
     const display = await curator.get(`/media/photos/${id}/display`).buffer(true).parse(binary).expect(200);
@@ -129,8 +138,7 @@ describe('object storage (S3): upload to tiles through the app', () => {
     await curator.get(`/media/photos/${id}/display`).set('If-Modified-Since', since).expect(304);
 
     // The tile job reads the master from the bucket and stores the tree there; the app serves it.
-    await drain({ types: ['tile-photo'] });
-    expect((await Photo.findByPk(id))?.tileStatus).toBe('done');
+    expect((await Photo.findByPk(id))?.ingestStage).toBe('done');
     const tileKeys: string[] = [];
     for await (const o of bucket.list(`tiles/${id}/iiif/`)) tileKeys.push(o.key);
     expect(tileKeys).toContain(`tiles/${id}/iiif/info.json`);

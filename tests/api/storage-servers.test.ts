@@ -39,9 +39,9 @@ let b: ServerProcess;
 const uploads: string[] = [];
 
 beforeAll(async () => {
-  // Tile jobs other suites left queued belong to the shared test uploads folder: run them here first, so these
+  // Ingest jobs other suites left queued belong to the shared test uploads folder: run them here first, so these
   // servers (which do not see that folder) do not claim them.
-  await drain({ types: ['tile-photo'] });
+  await drain({ types: ['ingest-photo'] });
   s3 = await startTestS3();
   bucket = s3.driver();
   for (let i = 0; i < 2; i++) uploads.push(await mkdtemp(path.join(tmpdir(), `tinctoria-server-${i}-`)));
@@ -95,7 +95,13 @@ describe('two app servers, object storage, no shared disk', () => {
         .expect(201);
       const id = up.body.photos[0].id as number;
 
-      // The other server serves the derivatives straight away, byte for byte as stored, and the master.
+      // The photo's ingest job (EXIF, previews, palette, tiles) runs on whichever server's worker takes it; the other
+      // server then serves the derivatives byte for byte as stored, and the master.
+      await expect
+        .poll(async () => (await reader.get(`/api/photos/${id}`)).body.photo?.ingest?.stage ?? 'unknown', {
+          timeout: 60_000,
+        })
+        .toBe('done');
       for (const kind of ['display', 'thumb'] as const) {
         const res = await reader.get(`/media/photos/${id}/${kind}`).buffer(true).parse(binary).expect(200);
         expect(sha(res.body)).toBe(sha(await bytesOf(await bucket.get(`derivatives/${id}/${kind}.webp`))));

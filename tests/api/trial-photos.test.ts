@@ -8,6 +8,7 @@ import { uploadsDir, tilesDir } from '../../server/media/paths.ts';
 import { deleteTrial } from '../../server/services/trials/trials.ts';
 import { makeMeasurement, makePiece } from '../../server/seed/factories.ts';
 import { deltaE00, hexToLab } from '../../shared/colour/index.ts';
+import { ingested } from '../support/photos.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg, uploadedFiles } from '../support/images.ts';
 import { useTestMail } from '../support/mail.ts';
@@ -64,8 +65,12 @@ describe('result swatches and which colour is used', () => {
       .expect(201);
     expect(up.body.photo.view).toBe('swatch');
     expect((await Photo.findByPk(up.body.photo.id))?.trialId).toBe(trial.id);
+    // Stored at once; its ingest job reads the palette.
+    expect(up.body.photo.ingest).toEqual({ stage: 'queued', error: null });
+    await ingested(up.body.photo.id);
+    const swatch = (await dyer.get(`/api/photos/${up.body.photo.id}`).expect(200)).body.photo;
     // A flat PNG: its leading palette colour is the painted one (sRGB → CIELAB, own tolerance ΔE00 < 1).
-    expect(deltaE00(hexToLab('#a33a2e'), up.body.palette[0])).toBeLessThan(1);
+    expect(deltaE00(hexToLab('#a33a2e'), swatch.palette[0].lab)).toBeLessThan(1);
 
     const estimated = (await dyer.get(`/api/trials/${trial.id}`).expect(200)).body.trial;
     expect(estimated.colour.result.source).toBe('image-estimate');
@@ -136,14 +141,18 @@ describe('result swatches and which colour is used', () => {
 });
 
 describe('deleting a trial', () => {
-  const uploadSwatch = async (trialId: number, hex: string) =>
-    (
+  /** A swatch uploaded and processed (its ingest job run), so it has derivatives and a palette. */
+  const uploadSwatch = async (trialId: number, hex: string) => {
+    const id = (
       await dyer
         .post(`/api/trials/${trialId}/photos`)
         .set('Origin', ORIGIN)
         .attach('photo', await swatchPng(hex), 'swatch.png')
         .expect(201)
     ).body.photo.id as number;
+    await ingested(id);
+    return id;
+  };
   /** A stand-in tile, as the tiling job would leave it. */
   const fakeTile = async (photoId: number) => {
     const file = path.join(uploadsDir(), tilesDir(photoId), 'iiif', 'info.json');

@@ -18,8 +18,8 @@ beforeAll(async () => {
 // Seeds of their own: identical bytes would share one master with another suite's photo.
 const seed = () => 100_000 + Math.floor(Math.random() * 1e6);
 
-describe('an upload queues the deep-zoom tiles of each new photo', () => {
-  it('queues one tile-photo job per piece photo, visible through the jobs API', async () => {
+describe('an upload queues the ingest (previews, palette, deep-zoom tiles) of each new photo', () => {
+  it('queues one ingest-photo job per piece photo, visible through the jobs API', async () => {
     const curatorUser = await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true });
     const piece = await makePiece({ createdById: curatorUser.id });
     const res = await curator
@@ -31,13 +31,13 @@ describe('an upload queues the deep-zoom tiles of each new photo', () => {
     for (const photo of res.body.photos as { id: number }[]) {
       const jobs = (await curator.get(`/api/jobs?photoId=${photo.id}`).expect(200)).body.items;
       expect(jobs).toHaveLength(1);
-      expect(jobs[0]).toMatchObject({ type: 'tile-photo' });
+      expect(jobs[0]).toMatchObject({ type: 'ingest-photo' });
       expect(['queued', 'running', 'done']).toContain(jobs[0].state);
-      expect((await Photo.findByPk(photo.id))?.tileStatus).not.toBe('none');
+      expect((await Photo.findByPk(photo.id))?.ingestStage).not.toBe('failed');
     }
   });
 
-  it('queues tiles for a trial swatch photo too', async () => {
+  it('queues the ingest of a trial swatch photo too', async () => {
     const curatorUser = await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true });
     const piece = await makePiece({ createdById: curatorUser.id, status: 'published' });
     const trial = (
@@ -52,7 +52,7 @@ describe('an upload queues the deep-zoom tiles of each new photo', () => {
       .attach('photo', swatch, 'swatch.png')
       .expect(201);
     const jobs = await Job.findAll({
-      where: { type: 'tile-photo', subjectType: 'photo', subjectId: up.body.photo.id },
+      where: { type: 'ingest-photo', subjectType: 'photo', subjectId: up.body.photo.id },
     });
     expect(jobs).toHaveLength(1);
   });

@@ -7,6 +7,7 @@ import { differenceCmc } from 'culori';
 import { createApp } from '../../server/app.ts';
 import { User } from '../../server/models/index.ts';
 import { makeMeasurement, makePiece } from '../../server/seed/factories.ts';
+import { ingested } from '../support/photos.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { clothJpeg } from '../support/images.ts';
 import { useTestMail } from '../support/mail.ts';
@@ -227,11 +228,12 @@ describe("a trial's readings and the comparison with the original", () => {
     const swatch = await sharp({ create: { width: 240, height: 160, channels: 3, background: '#a33a2e' } })
       .png()
       .toBuffer();
-    await dyer
+    const up = await dyer
       .post(`/api/trials/${t.id}/photos`)
       .set('Origin', ORIGIN)
       .attach('photo', swatch, 'swatch.png')
       .expect(201);
+    await ingested(up.body.photo.id);
     const colour = await colourOf(t.id);
     expect(colour.results).toEqual([
       expect.objectContaining({ source: 'image-estimate', illuminant: 'D65', observer: '2', readings: null }),
@@ -242,11 +244,12 @@ describe("a trial's readings and the comparison with the original", () => {
     // An instrument target under D65/10° is compared with the D65/2° estimate, saying the observers differ.
     const d65 = await originalReading(piece.id, red.one, 'D65', '10', 'ground red, D65');
     const t2 = await trialAgainst(piece.id, d65.id);
-    await dyer
+    const up2 = await dyer
       .post(`/api/trials/${t2.id}/photos`)
       .set('Origin', ORIGIN)
       .attach('photo', swatch, 'swatch.png')
       .expect(201);
+    await ingested(up2.body.photo.id);
     const c2 = await colourOf(t2.id);
     expect(c2.result).toMatchObject({ source: 'image-estimate', illuminant: 'D65', observer: '2' });
     expect(c2.difference.deltaE00).toBeGreaterThan(0);

@@ -45,7 +45,7 @@ async function prepareData() {
   await sequelize.query("UPDATE pieces SET status = 'draft' WHERE id % 20 = 0");
   await sequelize.query('UPDATE pieces SET deletedAt = NOW() WHERE id % 97 = 0');
   // The bench's photos have no files: marked as tiled so the server does not queue 166,667 tiling jobs at start.
-  await sequelize.query("UPDATE photos SET tileStatus = 'done'");
+  await sequelize.query("UPDATE photos SET ingestStage = 'done'");
   return PIECES;
 }
 

@@ -7,7 +7,8 @@ import { launchBrowser, signInAs } from '../support/browser.ts';
 import { startServer } from '../support/server.ts';
 import { clothJpeg } from '../support/images.ts';
 import { testEnv } from '../support/env.ts';
-import { sequelize } from '../../server/models/index.ts';
+import { Photo, Piece, sequelize } from '../../server/models/index.ts';
+import { ingested } from '../support/photos.ts';
 
 let server: Awaited<ReturnType<typeof startServer>>;
 let browser: Awaited<ReturnType<typeof launchBrowser>>;
@@ -25,7 +26,7 @@ afterAll(async () => {
 });
 
 describe('cataloguing a piece in Chromium', () => {
-  it('the curator catalogues a piece, uploads a photo, watches the progress and sees the palette', async () => {
+  it('the curator catalogues a piece, uploads a photo, watches the progress and sees the palette once processed', async () => {
     const page = await browser.context.newPage();
     await signInAs(page, server.url, 'curator@demo.test');
     await page.goto(`${server.url}/archive`);
@@ -84,12 +85,28 @@ describe('cataloguing a piece in Chromium', () => {
     await page.getByLabel('Photos to upload').setInputFiles(file);
     const item = page.getByTestId('upload-item');
     await item.locator('progress').waitFor();
-    await item.getByText('Done').waitFor({ timeout: 20_000 });
+    await item.getByText(/^Stored/).waitFor({ timeout: 20_000 });
     await expect(item.locator('progress').getAttribute('value')).resolves.toBe('1');
 
-    await page.getByTestId('photo-panel').waitFor();
+    // The photo appears at once as a placeholder with its stage; its ingest job (run here: this server has no
+    // worker) processes it, and the panel, asking every 1.5 s, follows until the palette shows.
+    const waiting = page.getByTestId('ingest-status');
+    await waiting.waitFor();
+    expect(await waiting.getAttribute('data-stage')).toBe('queued');
+    for (const width of [1280, 768, 390]) {
+      await page.setViewportSize({ width, height: 900 });
+      await page
+        .getByTestId('photo-panel')
+        .first()
+        .screenshot({ path: `${shots}/ingest-queued-${width}.png` });
+    }
+    await page.setViewportSize({ width: 1280, height: 900 });
+    const piece = await Piece.findOne({ where: { accessionNumber: accession }, rejectOnEmpty: true });
+    const photo = await Photo.findOne({ where: { pieceId: piece.id }, rejectOnEmpty: true });
+    await ingested(photo.id);
     const colours = page.getByTestId('palette-colour');
-    await colours.first().waitFor();
+    await colours.first().waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId('ingest-status').count()).toBe(0);
     expect(await colours.count()).toBeGreaterThan(1);
     await expect(colours.first().textContent()).resolves.toMatch(/#[0-9a-f]{6}.*L\*.*a\*.*b\*.*share/s);
     // The palette carries the shared viewing-conditions label: photo estimates are D65/2° (was "source: image estimate").

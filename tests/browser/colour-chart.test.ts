@@ -4,6 +4,7 @@ import { createApp } from '../../server/app.ts';
 import { User } from '../../server/models/index.ts';
 import { makeMeasurement, makePiece } from '../../server/seed/factories.ts';
 import type { Lab } from '../../shared/colour/index.ts';
+import { ingested } from '../support/photos.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
 import { signInAs } from '../support/browser.ts';
 import { useBrowserSuite } from '../support/browser-suite.ts';
@@ -25,11 +26,12 @@ describe('the colour chart mode and fading pairs (issue 17, points 1, 5, 6)', ()
     const curator = await User.findOne({ where: { email: 'curator@demo.test' }, rejectOnEmpty: true });
     const piece = await makePiece({ createdById: curator.id, title: `Chart, browser ${Date.now().toString(36)}` });
     const shot = await chartPhoto(PUBLISHED);
-    await curatorAgent
+    const up = await curatorAgent
       .post(`/api/pieces/${piece.id}/photos`)
       .set('Origin', ORIGIN)
       .attach('photo', shot.buffer, 'chart.png')
       .expect(201);
+    await ingested(up.body.photos[0].id);
     await makeMeasurement({ pieceId: piece.id, L: 40, a: 45, b: 25, label: 'seam allowance' });
     await makeMeasurement({ pieceId: piece.id, L: 52, a: 30, b: 22, label: 'sunlit front' });
 

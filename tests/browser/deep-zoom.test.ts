@@ -3,8 +3,6 @@ import { launchBrowser } from '../support/browser.ts';
 import { startServer } from '../support/server.ts';
 import { sequelize, type Photo } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
-import { enqueueTiles } from '../../server/iiif/enqueue.ts';
-import { drain } from '../../server/jobs/worker.ts';
 import { makePhotoWithMaster } from '../support/photos.ts';
 
 let server: Awaited<ReturnType<typeof startServer>>;
@@ -18,8 +16,6 @@ beforeAll(async () => {
     height: 1600,
     regions: [{ x: 200, y: 300, w: 500, h: 400, label: 'madder pink ground' }],
   }));
-  await enqueueTiles(photo.id);
-  await drain({ types: ['tile-photo'] });
   server = await startServer();
   browser = await launchBrowser();
 }, 120_000);

@@ -1,12 +1,12 @@
+import { mkdirSync } from 'node:fs';
 import { rm } from 'node:fs/promises';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sequelize, type Photo } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
-import { enqueueTiles } from '../../server/iiif/enqueue.ts';
-import { drain } from '../../server/jobs/worker.ts';
 import { launchBrowser, signInAs } from '../support/browser.ts';
-import { makePhotoWithMaster } from '../support/photos.ts';
+import { ingested, makePhotoWithMaster } from '../support/photos.ts';
 import { startServer } from '../support/server.ts';
+import { testEnv } from '../support/env.ts';
 
 let server: Awaited<ReturnType<typeof startServer>>;
 let browser: Awaited<ReturnType<typeof launchBrowser>>;
@@ -18,13 +18,11 @@ beforeAll(async () => {
   const piece = await makePiece({ status: 'published', title: 'Wiring check piece' });
   pieceId = piece.id;
   ({ photo: tiled } = await makePhotoWithMaster(piece.id, { width: 900, height: 600 }));
-  const made = await makePhotoWithMaster(piece.id, { width: 300, height: 200 });
+  const made = await makePhotoWithMaster(piece.id, { width: 300, height: 200, ingest: false });
   lost = made.photo;
-  // A missing master makes its real tiling job fail, as a lost file would.
+  // A missing master makes its real ingest job fail, as a lost file would.
   await rm(made.file);
-  await enqueueTiles(tiled.id);
-  await enqueueTiles(lost.id);
-  await drain({ types: ['tile-photo'] });
+  await ingested(lost.id);
   server = await startServer();
   browser = await launchBrowser();
 }, 120_000);
@@ -43,19 +41,25 @@ async function asRole(email: string) {
 }
 
 describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offers what each role may do', () => {
-  it('curator: zoom link for tiled photos, failed tiling with its reason and a retry, manifest and export links, Import in the menu', async () => {
+  it('curator: zoom link for tiled photos, failed processing with its reason and a retry, manifest and export links, Import in the menu', async () => {
     const page = await asRole('curator@demo.test');
     await page.goto(`${server.url}/archive/${pieceId}`);
-    const failed = page.locator('[data-testid="job-status"][data-state="failed"]');
+    const failed = page.locator('[data-testid="ingest-status"][data-stage="failed"]');
     await failed.waitFor();
     const zoom = page.getByRole('link', { name: /Zoom in/ });
     expect(await zoom.count()).toBe(1);
     expect(await zoom.getAttribute('href')).toBe(`/photos/${tiled.id}/zoom`);
 
     expect(await failed.count()).toBe(1);
-    expect(await failed.textContent()).toMatch(/master file .* is missing/);
-    await failed.getByRole('button', { name: 'Try again' }).click();
-    await page.locator('[data-testid="job-status"][data-state="queued"]').waitFor();
+    expect(await failed.textContent()).toMatch(/Failed: The master file of photo \d+ is missing/);
+    mkdirSync(testEnv.screensDir, { recursive: true });
+    for (const width of [1280, 768, 390]) {
+      await page.setViewportSize({ width, height: 900 });
+      await failed.screenshot({ path: `${testEnv.screensDir}/ingest-failed-${width}.png` });
+    }
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await failed.getByRole('button', { name: 'Retry' }).click();
+    await page.locator('[data-testid="ingest-status"][data-stage="queued"]').waitFor();
 
     expect(await page.getByTestId('iiif-manifest-link').getAttribute('href')).toBe(`/iiif/${pieceId}/manifest.json`);
     const dc = await page.getByRole('link', { name: 'Dublin Core (JSON-LD)' }).getAttribute('href');
@@ -83,7 +87,8 @@ describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offer
     await page.goto(`${server.url}/archive/${pieceId}`);
     await page.getByTestId('iiif-manifest-link').waitFor();
     expect(await page.getByRole('link', { name: 'Dublin Core (JSON-LD)' }).count()).toBe(0);
-    expect(await page.getByRole('button', { name: 'Try again' }).count()).toBe(0);
+    await page.locator('[data-testid="ingest-status"]').first().waitFor();
+    expect(await page.getByRole('button', { name: 'Retry' }).count()).toBe(0);
     expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Import' }).count()).toBe(0);
     await page.goto(`${server.url}/trials`);
     await page.getByRole('heading', { name: 'Trials' }).waitFor();

@@ -141,12 +141,23 @@ async function pieceWithPhoto(status: 'draft' | 'published' = 'published') {
 async function failedJob() {
   const { photo } = await pieceWithPhoto();
   const job = await enqueue({
-    type: 'tile-photo',
+    type: 'ingest-photo',
     payload: { photoId: photo.id },
     subject: { type: 'photo', id: photo.id },
   });
   await Job.update({ state: 'failed', error: 'matrix', attempts: 3 }, { where: { id: job.id } });
   return job;
+}
+/** A photo whose ingest failed (a bare row: the retry only queues its job again). */
+async function failedIngest() {
+  const { photo } = await pieceWithPhoto('draft');
+  await failedJobFor(photo.id);
+  await photo.update({ ingestStage: 'failed', ingestError: 'matrix' });
+  return { params: { id: photo.id } };
+}
+async function failedJobFor(photoId: number) {
+  const job = await enqueue({ type: 'ingest-photo', payload: { photoId }, subject: { type: 'photo', id: photoId } });
+  await Job.update({ state: 'failed', error: 'matrix', attempts: 3 }, { where: { id: job.id } });
 }
 const importCsv = () =>
   Buffer.from(`accessionNumber,objectName,title\nMATRIX.${uniqueEmail('x').replace(/\W/g, '')},panel,Matrix import\n`);
@@ -573,6 +584,7 @@ export const routeMatrix: MatrixRow[] = [
     setup: async () => ({ ...(await photoParams()), body: { caption: 'matrix' } }),
   }),
   row('DELETE /api/photos/:id', curatorWrites, { setup: photoParams }),
+  row('POST /api/photos/:id/ingest/retry', curatorWrites, { setup: failedIngest }),
   row('GET /api/photos/:id/regions', signedIn, { setup: photoParams }),
   row('POST /api/photos/:id/regions', curatorWrites, {
     setup: async () => ({ ...(await photoParams()), body: { x: 2, y: 2, w: 20, h: 20, purpose: 'colour-area' } }),

@@ -1,4 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useEffect } from 'react';
+import type { IngestRetryResponse, IngestStage } from '../../../shared/schemas/ingest';
 import type {
   PalettesResponse,
   PhotoResponse,
@@ -25,6 +27,42 @@ export const fetchPhoto = (id: number) => http<PhotoResponse>(`/api/photos/${id}
 export const photoQuery = (id: number) => queryOptions({ queryKey: photoKeys.one(id), queryFn: () => fetchPhoto(id) });
 /** One photo with its palettes and regions (the zoom page names it and links back to its piece). */
 export const usePhoto = (id: number, enabled = true) => useQuery({ ...photoQuery(id), enabled });
+
+const settled = (stage: IngestStage | undefined) => stage === 'done' || stage === 'failed';
+
+/**
+ * A photo whose processing (the ingest job) is under way, asked for again every 1.5 s until it is done or failed;
+ * then the piece is read again, so its panel shows the previews and palettes.
+ */
+export function useIngestProgress(photo: Photo) {
+  const qc = useQueryClient();
+  const query = useQuery({
+    ...photoQuery(photo.id),
+    enabled: !settled(photo.ingest.stage),
+    refetchInterval: (q) => (settled(q.state.data?.photo.ingest.stage) ? false : 1500),
+  });
+  const ingest = query.data?.photo.ingest ?? photo.ingest;
+  const finished = settled(ingest.stage) && !settled(photo.ingest.stage);
+  useEffect(() => {
+    if (!finished) return;
+    if (photo.pieceId) void qc.invalidateQueries({ queryKey: pieceKeys.detail(photo.pieceId) });
+    void qc.invalidateQueries({ queryKey: ['jobs'] });
+  }, [finished, photo.pieceId, qc]);
+  return ingest;
+}
+
+/** Start a failed ingest again (who may edit the photo). */
+export function useRetryIngest(photo: Photo) {
+  const qc = useQueryClient();
+  const invalidate = useInvalidate(photo.pieceId);
+  return useMutation({
+    mutationFn: () => http<IngestRetryResponse>(`/api/photos/${photo.id}/ingest/retry`, { method: 'POST' }),
+    onSuccess: () => {
+      void qc.invalidateQueries({ queryKey: photoKeys.one(photo.id) });
+      invalidate();
+    },
+  });
+}
 
 /**
  * One file per request so each gets its own progress bar. XMLHttpRequest because

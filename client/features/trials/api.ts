@@ -11,9 +11,11 @@ import type {
   TrialSummaryView,
   TrialUpdateInput,
   TrialView,
+  TrialPhotoAnswer,
 } from '../../../shared/schemas/trial';
+import type { PhotoResponse } from '../../../shared/schemas/photo';
 import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
-import { http } from '../../lib/http';
+import { ApiError, http } from '../../lib/http';
 import { fadingKeys } from '../fading';
 import { pieceKeys } from '../pieces';
 
@@ -153,10 +155,19 @@ export function useImportMeasurements(trialId: number) {
 export function useUploadSwatch(trialId: number) {
   const invalidate = useTrialInvalidation();
   return useMutation({
-    mutationFn: (file: File) => {
+    mutationFn: async (file: File) => {
       const form = new FormData();
       form.append(UPLOAD_FIELD, file);
-      return http<{ photo: { id: number } }>(`/api/trials/${trialId}/photos`, { method: 'POST', body: form });
+      const { photo } = await http<TrialPhotoAnswer>(`/api/trials/${trialId}/photos`, { method: 'POST', body: form });
+      // The swatch's palette is read by its ingest job: wait for it, so the trial shows its colour when this ends.
+      let ingest = photo.ingest;
+      while (ingest.stage !== 'done' && ingest.stage !== 'failed') {
+        await new Promise((r) => setTimeout(r, 1500));
+        ingest = (await http<PhotoResponse>(`/api/photos/${photo.id}`)).photo.ingest;
+      }
+      if (ingest.stage === 'failed')
+        throw new ApiError(422, 'ingest_failed', `The swatch photo could not be processed: ${ingest.error ?? ''}`);
+      return { photo };
     },
     onSuccess: () => invalidate({ id: trialId }),
   });

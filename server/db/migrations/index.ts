@@ -26,6 +26,7 @@ import * as m0029fadingPairs from './0029-fading-pairs.ts';
 import * as m0030records from './0030-analyses-condition-displays.ts';
 import * as m0032pieceCuratorial from './0032-piece-curatorial.ts';
 import * as m0033savedSearches from './0033-saved-searches.ts';
+import * as m0034ingestStage from './0034-photo-ingest-stage.ts';
 
 export type Migration = { name: string; up: MigrationFn<MigrationContext>; down: MigrationFn<MigrationContext> };
 
@@ -57,4 +58,5 @@ export const migrations: Migration[] = [
   { name: '0030-analyses-condition-displays', ...m0030records },
   { name: '0032-piece-curatorial', ...m0032pieceCuratorial },
   { name: '0033-saved-searches', ...m0033savedSearches },
+  { name: '0034-photo-ingest-stage', ...m0034ingestStage },
 ];

@@ -1,3 +1,3 @@
 // Every job type registers itself on import.
-import './tile-photo.ts';
+import './ingest-photo.ts';
 import './fixity-check.ts';

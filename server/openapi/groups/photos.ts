@@ -15,6 +15,7 @@ import {
   chartResponse,
 } from '../../../shared/schemas/photo.ts';
 import { chartInputSchema, toleranceLevelsAnswer, toleranceLevelsInput } from '../../../shared/schemas/chart.ts';
+import { ingestRetryResponse } from '../../../shared/schemas/ingest.ts';
 import { defineRoutes } from '../registry.ts';
 
 // Every photo route is for signed-in users; changes are the curators' (and admins').
@@ -45,6 +46,14 @@ export default defineRoutes('photos', [
     roles: writers,
     params: photoParams,
     responses: { 204: null },
+  },
+  {
+    method: 'post',
+    path: '/api/photos/:id/ingest/retry',
+    summary: "Start a photo's failed processing (EXIF, previews, palette, tiles) again; 409 when it has not failed",
+    roles: writers,
+    params: photoParams,
+    responses: { 200: ingestRetryResponse },
   },
   {
     method: 'get',

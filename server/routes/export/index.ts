@@ -1,4 +1,5 @@
 import { Router, type RequestHandler } from 'express';
+import { mayCarryGps } from '../../presenters/photo.ts';
 import { idParams } from '../../../shared/schemas/common.ts';
 import { actorOf, requireUser } from '../../http/auth.ts';
 import { forbidden } from '../../http/errors.ts';
@@ -78,5 +79,5 @@ pieceExportRouter.get('/:id/masters.zip', requireUser, async (req, res) => {
   res.type('application/zip').attachment(`${safeName(piece.accessionNumber)}-masters.zip`);
   // Masters with GPS only for those the policy lets see it (photo:master); the manifest lists the rest as withheld.
   const actor = actorOf(req);
-  await writeMastersZip(res, piece, photos, (photo) => can(actor, 'photo:master', { hasGps: photo.gps != null }));
+  await writeMastersZip(res, piece, photos, (photo) => can(actor, 'photo:master', { hasGps: mayCarryGps(photo) }));
 });

@@ -32,7 +32,7 @@ const cacheFor = (req: Request) => (actorOf(req) === null ? 'public, max-age=864
 async function tiledPhoto(req: Request) {
   const { photoId } = parseParams(photoParams, req);
   const photo = await readablePhoto(actorOf(req), photoId);
-  if (photo.tileStatus !== 'done') throw notFound('Tiles');
+  if (photo.ingestStage !== 'done') throw notFound('Tiles');
   return photo;
 }
 

@@ -1,3 +1,4 @@
+import { mayCarryGps } from '../../presenters/photo.ts';
 import { Router } from 'express';
 import { mediaParams } from '../../../shared/schemas/photo.ts';
 import { actorOf } from '../../http/auth.ts';
@@ -16,7 +17,7 @@ mediaRouter.get('/photos/:id/:kind', async (req, res) => {
   const { id, kind } = parseParams(mediaParams, req);
   const { photo } = await loadReadablePhoto(actor, id);
   // The master keeps its EXIF and GPS tags untouched: signed-in users only, and with GPS only roles that may see it.
-  if (kind === 'master' && !can(actor, 'photo:master', { hasGps: photo.gps != null })) {
+  if (kind === 'master' && !can(actor, 'photo:master', { hasGps: mayCarryGps(photo) })) {
     if (!actor) throw unauthorized('Sign in to download the master file.');
     throw notFound('Photo');
   }

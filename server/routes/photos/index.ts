@@ -16,12 +16,13 @@ import { parseBody, parseParams } from '../../http/validate.ts';
 import { PaletteColour, Region, sequelize, type Photo } from '../../models/index.ts';
 import { can, type Actor } from '../../policies/index.ts';
 import type { Action } from '../../../shared/abilities.ts';
-import { presentPalettes, presentPhoto, presentRegion } from '../../presenters/photo.ts';
+import { presentIngest, presentPalettes, presentPhoto, presentRegion } from '../../presenters/photo.ts';
 import {
   addRegion,
   clearReferencePatch,
   deletePhoto,
   removeRegion,
+  retryIngest,
   setPaletteBackground,
   setReferencePatch,
   updatePhoto,
@@ -60,6 +61,14 @@ photosRouter.get('/:id', async (req, res) => {
     Region.findAll({ where: { photoId: photo.id } }),
   ]);
   res.json({ photo: presentPhoto(photo, actor, { palette, regions }) });
+});
+
+/** A failed ingest starts again (who may edit the photo); 409 when it has not failed. */
+photosRouter.post('/:id/ingest/retry', async (req, res) => {
+  const actor = actorOf(req);
+  const { photo } = await writable(actor, parseParams(photoParams, req).id, 'photo:update');
+  await sequelize.transaction((transaction) => retryIngest({ actor, transaction, input: { photo } }));
+  res.json({ ingest: presentIngest(photo) });
 });
 
 photosRouter.patch('/:id', async (req, res) => {

@@ -7,7 +7,7 @@ import { HttpError, badRequest, forbidden, notFound } from '../../http/errors.ts
 import { parseParams } from '../../http/validate.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
 import { maxBytesInWords, mediaLimits } from '../../media/limits.ts';
-import { prepareIngest } from '../../media/pipeline.ts';
+import { checkUpload } from '../../media/pipeline.ts';
 import { sequelize } from '../../models/index.ts';
 import { can } from '../../policies/index.ts';
 import { pieceRecord } from '../../presenters/piece.ts';
@@ -54,17 +54,18 @@ photoUploadRouter.post('/', requireUser, async (req, res, next) => {
       const photos = [];
       for (const [index, file] of files.entries()) {
         try {
-          // The file is read, checked, decoded and analysed first, outside any transaction (a large master takes
+          // The file is checked by content and hashed first, outside any transaction (a large master takes
           // seconds); then one photo, all rows in one transaction; any failure removes every file it wrote.
-          const prepared = await prepareIngest({ path: file.path });
-          const { photo, palette } = await sequelize.transaction((transaction) =>
+          const checked = await checkUpload({ path: file.path });
+          const { photo } = await sequelize.transaction((transaction) =>
             addPhoto({
               actor,
               transaction,
-              input: { path: file.path, originalName: file.originalname, pieceId: piece.id, prepared },
+              input: { path: file.path, originalName: file.originalname, pieceId: piece.id, checked },
             }),
           );
-          photos.push(presentPhoto(photo, actor, { palette }));
+          // At stage queued: the ingest job reads EXIF, previews, palette and tiles (GET /api/photos/:id follows it).
+          photos.push(presentPhoto(photo, actor, { palette: [] }));
         } catch (e) {
           // Earlier files of the same request stay stored; the answer names the one refused.
           if (e instanceof HttpError) {

@@ -6,13 +6,14 @@ import { actorOf } from '../../http/auth.ts';
 import { badRequest } from '../../http/errors.ts';
 import { discardUploads, receiveUpload } from '../../http/upload.ts';
 import { maxBytesInWords, mediaLimits } from '../../media/limits.ts';
-import { prepareIngest } from '../../media/pipeline.ts';
+import { checkUpload } from '../../media/pipeline.ts';
 import { parseParams } from '../../http/validate.ts';
-import { sequelize, type PaletteColour } from '../../models/index.ts';
+import { sequelize } from '../../models/index.ts';
+import { presentIngest } from '../../presenters/photo.ts';
 import { addPhoto } from '../../services/photos.ts';
 import { loadWritableTrial } from './load.ts';
 
-/** POST /api/trials/:id/photos: one swatch photo through the media pipeline (palette and all). */
+/** POST /api/trials/:id/photos: one swatch photo stored; its ingest job reads it (palette and all). */
 export const trialPhotosRouter = Router({ mergeParams: true });
 
 const receiveOne = receiveUpload({
@@ -42,12 +43,12 @@ trialPhotosRouter.post('/', async (req, res, next) => {
           fields: { [UPLOAD_FIELD]: ['Attach a photo'] },
         });
       // Read and analysed before the transaction opens, so it lasts only as long as the writes.
-      const prepared = await prepareIngest({ path: file.path });
-      const { photo, palette } = await sequelize.transaction((transaction) =>
+      const checked = await checkUpload({ path: file.path });
+      const { photo } = await sequelize.transaction((transaction) =>
         addPhoto({
           actor,
           transaction,
-          input: { path: file.path, originalName: file.originalname, trialId: trial.id, view: 'swatch', prepared },
+          input: { path: file.path, originalName: file.originalname, trialId: trial.id, view: 'swatch', checked },
         }),
       );
       await discardUploads(req);
@@ -58,18 +59,10 @@ trialPhotosRouter.post('/', async (req, res, next) => {
           height: photo.height,
           view: photo.view,
           originalName: photo.originalName,
+          ingest: presentIngest(photo),
         },
-        palette: palette.map((c: PaletteColour) => ({
-          rank: c.rank,
-          L: c.L,
-          a: c.a,
-          b: c.b,
-          hex: c.hex,
-          share: c.share,
-          name: c.name,
-          variant: c.variant,
-          background: c.background,
-        })),
+        // Read by the photo's ingest job; the trial shows it once the job has run.
+        palette: [],
       });
     } catch (e) {
       await discardUploads(req);

@@ -23,7 +23,7 @@ export function PhotoTiles({ photoId }: { photoId: number }) {
         </Link>
       ) : (
         <div className="w-full max-w-md">
-          <JobStatus job={job} title="Deep-zoom tiles" />
+          <JobStatus job={job} title="Processing (previews, palette, deep-zoom tiles)" />
         </div>
       )}
     </div>

@@ -6,22 +6,16 @@ import { ChartPanel } from './ChartPanel';
 import type { Photo } from '../../pieces';
 import { useDeletePhoto, useDeleteRegion, useReferencePatch, useToggleBackground } from '../api';
 import { PhotoTiles } from '../../iiif';
+import { IngestStatus } from './IngestStatus';
 import { PaletteBar } from './PaletteBar';
 import { PURPOSE_LABELS, RegionEditor } from './RegionEditor';
 
-/** One photo: the image with its regions or its colour chart, its palettes (raw, corrected, calibrated, labelled), and its facts. */
+/**
+ * One photo: the image with its regions or its colour chart, its palettes (raw, corrected, calibrated, labelled), and
+ * its facts; while it is still being processed, a placeholder with the stage (IngestStatus).
+ */
 export function PhotoPanel({ photo }: { photo: Photo }) {
-  const canEdit = photo.abilities['region:create'];
-  const toggle = useToggleBackground(photo);
-  const removeRegion = useDeleteRegion(photo);
-  const clearPatch = useReferencePatch(photo);
   const removePhoto = useDeletePhoto(photo);
-  const [chartMode, setChartMode] = useState(photo.chart != null);
-  const regionName = (id: number | null) => {
-    if (id == null) return 'Whole photo';
-    const r = photo.regions.find((x) => x.id === id);
-    return r ? `Region: ${r.label ?? PURPOSE_LABELS[r.purpose]}` : 'Region';
-  };
 
   return (
     <article className="space-y-4 rounded-lg border border-rule bg-sheet p-4" data-testid="photo-panel">
@@ -49,6 +43,25 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
           ) : null}
         </div>
       </header>
+      {photo.ingest.stage !== 'done' ? <IngestStatus photo={photo} /> : <PhotoBody photo={photo} />}
+    </article>
+  );
+}
+
+/** A processed photo: the image with its regions or colour chart, its palettes, and its facts. */
+function PhotoBody({ photo }: { photo: Photo }) {
+  const canEdit = photo.abilities['region:create'];
+  const toggle = useToggleBackground(photo);
+  const removeRegion = useDeleteRegion(photo);
+  const clearPatch = useReferencePatch(photo);
+  const [chartMode, setChartMode] = useState(photo.chart != null);
+  const regionName = (id: number | null) => {
+    if (id == null) return 'Whole photo';
+    const r = photo.regions.find((x) => x.id === id);
+    return r ? `Region: ${r.label ?? PURPOSE_LABELS[r.purpose]}` : 'Region';
+  };
+  return (
+    <>
       <div className="flex flex-wrap gap-2 text-sm" role="group" aria-label="Photo mode">
         <button
           type="button"
@@ -147,6 +160,6 @@ export function PhotoPanel({ photo }: { photo: Photo }) {
           </p>
         ) : null}
       </details>
-    </article>
+    </>
   );
 }

@@ -109,8 +109,8 @@ export function UploadPanel({ pieceId }: { pieceId: number }) {
                     {i.phase === 'uploading'
                       ? `Uploading ${Math.round(i.progress * 100)} %`
                       : i.phase === 'processing'
-                        ? 'Processing: checking the file, keeping the master, making derivatives and the palette…'
-                        : 'Done'}
+                        ? 'Checking the file and keeping the master…'
+                        : 'Stored: previews, palette and deep zoom follow on the photo below'}
                   </p>
                 </>
               )}
