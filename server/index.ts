@@ -6,6 +6,7 @@ import { startLocalMail } from './mail/index.ts';
 import { startWorker, stopWorker } from './jobs/worker.ts';
 import { enqueueMissingIngest } from './jobs/handlers/ingest-photo.ts';
 import { reconcileOrphans } from './media/reconcile.ts';
+import { sweepExpiredUploads } from './routes/uploads/index.ts';
 
 // The running server: migrate, seed an empty database, then listen. SIGINT/SIGTERM close cleanly.
 const applied = await migrate();
@@ -33,6 +34,11 @@ const server = app.listen(env.PORT, env.HOST, () => {
 void enqueueMissingIngest().then(
   (n) => n && console.log(`[tinctoria] ingest queued for ${n} photo(s)`),
   (e) => console.error('[tinctoria] queueing missing ingest', e),
+);
+// Resumable uploads abandoned for longer than TUS_EXPIRY_HOURS.
+void sweepExpiredUploads().then(
+  (n) => n && console.log(`[tinctoria] removed ${n} expired partial upload(s)`),
+  (e) => console.error('[tinctoria] expired uploads sweep', e),
 );
 // Masters and temp files left by a process killed mid-upload (no photo points at them, older than an hour).
 void reconcileOrphans().then(
