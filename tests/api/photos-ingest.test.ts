@@ -1,3 +1,4 @@
+import { Op } from 'sequelize';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { enqueueMissingIngest } from '../../server/jobs/handlers/ingest-photo.ts';
@@ -112,5 +113,12 @@ describe('ingest as a job', () => {
     const [failed] = await ingested(photo.id);
     expect(failed.ingestStage).toBe('failed');
     expect(failed.ingestError).toMatch(/no master file/);
+  });
+
+  it('the demo seed ends with every demo photo processed (previews, palette, tiles)', async () => {
+    const demo = await Photo.findAll({ where: { originalName: { [Op.like]: 'demo-%.jpg' } } });
+    expect(demo.length).toBeGreaterThan(0);
+    expect(demo.filter((p) => p.ingestStage !== 'done').map((p) => p.id)).toEqual([]);
+    expect(demo.every((p) => p.derivatives.display && p.colour)).toBe(true);
   });
 });
