@@ -102,6 +102,15 @@ const schema = z
     // usually 150–500 MB, a stitched long textile can pass a gigapixel. The pipeline reads masters with libvips'
     // sequential access and shrink-on-load (server/media/README.md), so memory does not grow with these.
     MEDIA_MAX_BYTES: z.coerce.number().int().min(1024).default(DEFAULT_MEDIA_MAX_BYTES),
+    // Resumable uploads (tus 1.0 at /api/uploads, server/routes/uploads/index.ts): partial files under TUS_DIR (default
+    // UPLOADS_DIR/incoming/tus, on the same file system as the masters, so a finished upload is renamed, not copied);
+    // an upload untouched for TUS_EXPIRY_HOURS (default 24) expires and the orphan sweep removes it.
+    TUS_DIR: z.string().optional(),
+    TUS_EXPIRY_HOURS: z.coerce
+      .number()
+      .positive()
+      .max(24 * 30)
+      .default(24),
     MEDIA_MAX_PIXELS: z.coerce.number().int().min(1_000_000).default(DEFAULT_MEDIA_MAX_PIXELS),
     // Progressive JPEGs, interlaced PNGs and HEIF/AVIF cannot be read in strips: their decoders hold the whole image.
     // They are reduced one way after the other and accepted up to this many pixels (default 50 megapixels, the

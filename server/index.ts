@@ -7,6 +7,7 @@ import { startWorker, stopWorker } from './jobs/worker.ts';
 import { enqueueMissingIngest } from './jobs/handlers/ingest-photo.ts';
 import { reconcileOrphans } from './media/reconcile.ts';
 import { startConfiguredFake } from './storage/index.ts';
+import { sweepExpiredUploads } from './routes/uploads/index.ts';
 
 // The running server: migrate, seed an empty database, then listen. SIGINT/SIGTERM close cleanly.
 // STORAGE_URL …&fake=1 (development): the local S3 fake, started first, since the demo seed already stores photos.
@@ -37,6 +38,11 @@ const server = app.listen(env.PORT, env.HOST, () => {
 void enqueueMissingIngest().then(
   (n) => n && console.log(`[tinctoria] ingest queued for ${n} photo(s)`),
   (e) => console.error('[tinctoria] queueing missing ingest', e),
+);
+// Resumable uploads abandoned for longer than TUS_EXPIRY_HOURS.
+void sweepExpiredUploads().then(
+  (n) => n && console.log(`[tinctoria] removed ${n} expired partial upload(s)`),
+  (e) => console.error('[tinctoria] expired uploads sweep', e),
 );
 // Masters and temp files left by a process killed mid-upload (no photo points at them, older than an hour).
 void reconcileOrphans().then(

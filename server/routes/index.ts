@@ -1,3 +1,5 @@
+import { tusHandler } from './uploads/index.ts';
+import { requireUser } from '../http/auth.ts';
 import { Router } from 'express';
 import { isProduction } from '../env.ts';
 import { healthRouter } from './health/index.ts';
@@ -38,6 +40,8 @@ export function apiRouter() {
   // The outbox shows the local mail catcher's messages; there is none in production.
   if (!isProduction) router.use('/outbox', outboxRouter);
   router.use('/jobs', jobsRouter);
+  // tus 1.0 resumable uploads: a protocol of its own (not JSON), handled by @tus/server (server/routes/uploads/).
+  router.use('/uploads', requireUser, tusHandler);
   router.use('/admin/fixity', fixityRouter);
   router.use('/import', importRouter);
   router.use('/export', exportRouter);

@@ -237,8 +237,12 @@ describe('IIIF answers as shared/schemas/iiif.ts says', () => {
       .set('Origin', ORIGIN)
       .send({ x: 5, y: 5, w: 30, h: 30, purpose: 'motif' })
       .expect(201);
-    // Before tiling the manifest paints the display image; after, the tiles' whole image with its service.
-    fits(manifestSchema, JSON.parse((await request(app).get(`/iiif/${piece.id}/manifest.json`).expect(200)).text));
+    // Before its ingest the photo has no image to paint yet; after, the tiles' whole image with its service.
+    const waiting = fits(
+      manifestSchema,
+      JSON.parse((await request(app).get(`/iiif/${piece.id}/manifest.json`).expect(200)).text),
+    );
+    expect(waiting.items).toHaveLength(0);
     await ingested(photoId);
     const manifest = fits(
       manifestSchema,

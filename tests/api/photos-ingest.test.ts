@@ -1,6 +1,8 @@
+import { Op } from 'sequelize';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { Job, PaletteColour, sequelize } from '../../server/models/index.ts';
+import { enqueueMissingIngest } from '../../server/jobs/handlers/ingest-photo.ts';
+import { Job, PaletteColour, Photo, sequelize } from '../../server/models/index.ts';
 import { makePiece } from '../../server/seed/factories.ts';
 import { INGEST_STEPS } from '../../shared/schemas/ingest.ts';
 import { ORIGIN, signedInAgent } from '../support/agents.ts';
@@ -78,5 +80,45 @@ describe('ingest as a job', () => {
     // The same file fails the same way again, with the same reason.
     expect((await ingested(photo.id))[0].ingestStage).toBe('failed');
     expect(await PaletteColour.count({ where: { photoId: photo.id } })).toBe(0);
+  });
+
+  it('queues at start the ingest of photos still waiting without a job (photos from before ingest jobs), once', async () => {
+    const piece = await makePiece({ status: 'draft' });
+    const photo = await Photo.create({
+      pieceId: piece.id,
+      trialId: null,
+      sha256: 'd'.repeat(64),
+      format: 'jpeg',
+      bytes: 1,
+      width: 10,
+      height: 10,
+      originalName: null,
+      caption: null,
+      capturedAt: null,
+      exif: {},
+      gps: null,
+      derivatives: {},
+      referencePatch: null,
+      correction: null,
+      createdById: null,
+    });
+    const jobsOf = () => Job.count({ where: { type: 'ingest-photo', subjectType: 'photo', subjectId: photo.id } });
+    expect(photo.ingestStage).toBe('queued');
+    expect(await jobsOf()).toBe(0);
+    await enqueueMissingIngest();
+    expect(await jobsOf()).toBe(1);
+    await enqueueMissingIngest();
+    expect(await jobsOf()).toBe(1);
+    // A bare row has no master: its job fails at once with the reason.
+    const [failed] = await ingested(photo.id);
+    expect(failed.ingestStage).toBe('failed');
+    expect(failed.ingestError).toMatch(/no master file/);
+  });
+
+  it('the demo seed ends with every demo photo processed (previews, palette, tiles)', async () => {
+    const demo = await Photo.findAll({ where: { originalName: { [Op.like]: 'demo-%.jpg' } } });
+    expect(demo.length).toBeGreaterThan(0);
+    expect(demo.filter((p) => p.ingestStage !== 'done').map((p) => p.id)).toEqual([]);
+    expect(demo.every((p) => p.derivatives.display && p.colour)).toBe(true);
   });
 });

@@ -88,12 +88,31 @@ describe('two app servers, object storage, no shared disk', () => {
         })
         .expect(201);
       const jpeg = await clothJpeg({ seed: 900_000 + from.port });
-      const up = await writer
-        .post(`/api/pieces/${piece.body.piece.id}/photos`)
-        .set('Origin', from.url)
-        .attach('photo', jpeg, 'cloth.jpg')
+      // Sent as the upload box sends it: tus, half of the file, then (a new connection, as after a drop) HEAD for
+      // the offset and the rest. The partial file lives on the receiving server; the finished master in the bucket.
+      const tus = { 'Tus-Resumable': '1.0.0', Origin: from.url };
+      const b64 = (v: string | number) => Buffer.from(String(v)).toString('base64');
+      const created = await writer
+        .post('/api/uploads')
+        .set(tus)
+        .set('Upload-Length', String(jpeg.length))
+        .set('Upload-Metadata', `pieceId ${b64(piece.body.piece.id)},filename ${b64('cloth.jpg')}`)
         .expect(201);
-      const id = up.body.photos[0].id as number;
+      const location = created.headers.location as string;
+      const half = jpeg.length >> 1;
+      const sendFrom = (offset: number, chunk: Buffer) =>
+        writer
+          .patch(location)
+          .set(tus)
+          .set('Upload-Offset', String(offset))
+          .set('Content-Type', 'application/offset+octet-stream')
+          .send(chunk);
+      await sendFrom(0, jpeg.subarray(0, half)).expect(204);
+      const offset = Number((await writer.head(location).set(tus).expect(200)).headers['upload-offset']);
+      expect(offset).toBe(half);
+      const done = await sendFrom(offset, jpeg.subarray(offset)).expect(204);
+      const id = Number(done.headers['photo-id']);
+      expect(id).toBeGreaterThan(0);
 
       // The photo's ingest job (EXIF, previews, palette, tiles) runs on whichever server's worker takes it; the other
       // server then serves the derivatives byte for byte as stored, and the master.

@@ -78,6 +78,9 @@ describe('history in words', () => {
     );
     expect(describeHistory({ action: 'fading-pair-added', changes: {} })).toBe('fading pair added');
     expect(
+      describeHistory({ action: 'photo-ingest-retried', changes: { ingestError: { from: 'damaged', to: null } } }),
+    ).toBe('started processing a photo again after it failed');
+    expect(
       describeHistory({
         action: 'region-added',
         changes: { region: { from: null, to: { label: 'ground red', purpose: 'colour-area' } } },

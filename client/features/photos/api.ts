@@ -1,11 +1,11 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
+import { DetailedError, Upload as TusUpload } from 'tus-js-client';
 import type { IngestRetryResponse, IngestStage } from '../../../shared/schemas/ingest';
 import type {
   PalettesResponse,
   PhotoResponse,
   PhotoUpdateInput,
-  PhotoUploadResponse,
   Rect,
   ReferencePatchResponse,
   ChartResponse,
@@ -14,7 +14,6 @@ import type {
   RegionSavedResponse,
   RegionUpdateInput,
 } from '../../../shared/schemas/photo';
-import { UPLOAD_FIELD } from '../../../shared/schemas/photo';
 import type { ChartInput, ToleranceLevelsInput as ToleranceLevels } from '../../../shared/schemas/chart';
 import { ApiError, http } from '../../lib/http';
 import { pieceKeys, type Photo } from '../pieces';
@@ -64,35 +63,71 @@ export function useRetryIngest(photo: Photo) {
   });
 }
 
+/** The largest request body a resumed upload sends at once (each a PATCH from the offset the server holds). */
+const TUS_CHUNK_BYTES = 16 * 1024 * 1024;
+
+/** A tus refusal in the API's JSON shape, in words; a network failure that outlasted the retries otherwise. */
+function tusError(err: Error | DetailedError) {
+  const res = err instanceof DetailedError ? err.originalResponse : null;
+  if (res) {
+    let body: { error?: { code?: string; message?: string } } = {};
+    try {
+      body = JSON.parse(res.getBody());
+    } catch {
+      // tus' own refusals are plain text
+    }
+    return new ApiError(
+      res.getStatus(),
+      body.error?.code ?? 'http_error',
+      body.error?.message ?? (res.getBody().trim() || `Upload failed (${res.getStatus()}).`),
+    );
+  }
+  return new ApiError(0, 'network', 'The upload was interrupted; check the connection and try again: it resumes.');
+}
+
 /**
- * One file per request so each gets its own progress bar. XMLHttpRequest because
- * fetch() reports no upload progress; `onUploaded` marks the switch to processing.
+ * One photo sent with the tus resumable-upload protocol (POST /api/uploads, then PATCHes of TUS_CHUNK_BYTES): a
+ * dropped connection is retried from the offset the server holds, and after a page reload the same file (same
+ * piece, name, size and date) resumes from there, found through its fingerprint in localStorage. Resolves with the
+ * id of the stored photo (the Photo-Id header of the last PATCH).
  */
-export function uploadPhoto(
+export function uploadPhotoResumable(
   pieceId: number,
   file: File,
   on: { progress: (fraction: number) => void; uploaded: () => void },
 ) {
-  return new Promise<PhotoUploadResponse>((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('POST', `/api/pieces/${pieceId}/photos`);
-    xhr.setRequestHeader('Accept', 'application/json');
-    xhr.responseType = 'json';
-    xhr.upload.onprogress = (e) => e.lengthComputable && on.progress(e.loaded / e.total);
-    xhr.upload.onload = () => on.uploaded();
-    xhr.onload = () => {
-      const body = xhr.response;
-      if (xhr.status >= 200 && xhr.status < 300) return resolve(body);
-      const e = body?.error ?? {};
-      reject(
-        new ApiError(xhr.status, e.code ?? 'http_error', e.message ?? `Upload failed (${xhr.status}).`, e.details),
-      );
-    };
-    xhr.onerror = () =>
-      reject(new ApiError(0, 'network', 'The upload was interrupted; check the connection and try again.'));
-    const form = new FormData();
-    form.append(UPLOAD_FIELD, file, file.name);
-    xhr.send(form);
+  return new Promise<{ photoId: number }>((resolve, reject) => {
+    let photoId = 0;
+    const upload = new TusUpload(file, {
+      endpoint: '/api/uploads',
+      chunkSize: TUS_CHUNK_BYTES,
+      retryDelays: [0, 1000, 3000, 5000, 10000, 20000, 30000],
+      metadata: { pieceId: String(pieceId), filename: file.name, filetype: file.type },
+      // One upload per piece and file: the same file dropped on another piece starts afresh.
+      fingerprint: async (f) => ['tinctoria-photo', pieceId, f.name, f.type, f.size, f.lastModified].join(':'),
+      storeFingerprintForResuming: true,
+      removeFingerprintOnSuccess: true,
+      onProgress: (sent, total) => {
+        on.progress(total ? sent / total : 0);
+        if (sent === total) on.uploaded();
+      },
+      onAfterResponse: (_req, res) => {
+        const id = Number(res.getHeader('Photo-Id'));
+        if (id > 0) photoId = id;
+      },
+      // A refusal (4xx) is final; a lost connection or a busy server (5xx, 423) is tried again from the offset.
+      onShouldRetry: (err) => {
+        const status = err.originalResponse?.getStatus() ?? 0;
+        return status === 0 || status === 423 || status === 409 || status >= 500;
+      },
+      onSuccess: () =>
+        photoId ? resolve({ photoId }) : reject(new ApiError(0, 'http_error', 'The upload ended without a photo.')),
+      onError: (err) => reject(tusError(err)),
+    });
+    void upload.findPreviousUploads().then((previous) => {
+      if (previous.length) upload.resumeFromPreviousUpload(previous[0]);
+      upload.start();
+    }, reject);
   });
 }
 

@@ -5,6 +5,7 @@ import { findMaster } from '../../iiif/files.ts';
 import { registerHandler } from '../registry.ts';
 import { reconcileOrphans } from '../../media/reconcile.ts';
 import { storage } from '../../storage/index.ts';
+import { sweepExpiredUploads } from '../../routes/uploads/index.ts';
 import type { FixityReport } from '../../../shared/schemas/fixity.ts';
 
 export const FIXITY_JOB = 'fixity-check';
@@ -50,6 +51,8 @@ registerHandler(FIXITY_JOB, {
       if (done % 10 === 0 || done === bySha.size) await ctx.progress(done / bySha.size);
     }
     report.orphans = await reconcileOrphans();
+    // Resumable uploads abandoned for longer than their expiry go with the orphans.
+    await sweepExpiredUploads();
     report.checkedAt = new Date().toISOString();
     return report;
   },

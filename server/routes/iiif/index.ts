@@ -82,7 +82,9 @@ iiifRouter.get('/:pieceId/manifest.json', async (req, res) => {
       [{ model: Region, as: 'regions' }, 'id', 'ASC'],
     ],
   });
-  const manifest = await buildManifest(baseUrl(req), piece, photos);
+  // A photo still being processed (or whose processing failed before its previews) has no image to paint yet.
+  const shown = photos.filter((p) => p.derivatives.display);
+  const manifest = await buildManifest(baseUrl(req), piece, shown);
   res.set({ ...cors, 'Cache-Control': cacheFor(req) });
   sendLd(req, res, 'http://iiif.io/api/presentation/3/context.json', manifest);
 });

@@ -1,5 +1,5 @@
 import { useRef, useState, type DragEvent } from 'react';
-import { uploadPhoto, useUploadDone } from '../api';
+import { uploadPhotoResumable, useUploadDone } from '../api';
 import {
   DEFAULT_MEDIA_MAX_BYTES,
   DEFAULT_MEDIA_MAX_PIXELS,
@@ -18,7 +18,9 @@ type Item = {
 
 const MB = 1024 * 1024;
 
-/** Drop or pick several photos; each goes up on its own with a progress bar, then shows processing. */
+/**
+ * Drop or pick several photos; each goes up on its own (resumable: tus) with a progress bar, then shows processing.
+ */
 export function UploadPanel({ pieceId }: { pieceId: number }) {
   const [items, setItems] = useState<Item[]>([]);
   const [over, setOver] = useState(false);
@@ -31,7 +33,7 @@ export function UploadPanel({ pieceId }: { pieceId: number }) {
     for (const file of Array.from(files)) {
       const key = `${file.name}-${file.size}-${Math.random()}`;
       setItems((all) => [...all, { key, name: file.name, bytes: file.size, phase: 'uploading', progress: 0 }]);
-      uploadPhoto(pieceId, file, {
+      uploadPhotoResumable(pieceId, file, {
         progress: (f) => patch(key, { progress: f }),
         uploaded: () => patch(key, { phase: 'processing', progress: 1 }),
       })
