@@ -47,6 +47,8 @@ describe('the piece page joins deep zoom, jobs, IIIF and export; the shell offer
     const failed = page.locator('[data-testid="ingest-status"][data-stage="failed"]');
     await failed.waitFor();
     const zoom = page.getByRole('link', { name: /Zoom in/ });
+    // The zoom link waits for the photo's job list, which may answer after the photos themselves.
+    await zoom.first().waitFor();
     expect(await zoom.count()).toBe(1);
     expect(await zoom.getAttribute('href')).toBe(`/photos/${tiled.id}/zoom`);
 

@@ -68,9 +68,10 @@ describe('a photo upload that survives a dropped connection and a page reload', 
     await expect.poll(() => patches, { timeout: 20_000 }).toBeGreaterThan(1);
     expect(sent.filter((r) => r.method === 'POST')).toHaveLength(1);
 
+    // Reload while the connection is still "down", so the old page's retries cannot finish the upload in between.
+    await page.reload();
     await page.unroute('**/api/uploads/**');
     sent.length = 0;
-    await page.reload();
     await page.getByLabel('Photos to upload').setInputFiles(file);
     const item = page.getByTestId('upload-item');
     await item.getByText(/^Stored/).waitFor({ timeout: 60_000 });
