@@ -8,6 +8,7 @@ import type { ClaimedJob } from './queue.ts';
 import { checkPayload, handlerFor } from './registry.ts';
 import './handlers/index.ts';
 import { logger } from '../log/index.ts';
+import { installSearchHooks } from '../search/hooks.ts';
 
 export type WorkerOptions = {
   db?: Sequelize;
@@ -27,6 +28,9 @@ export async function runOnce(options: WorkerOptions = {}): Promise<number | nul
   const db = options.db ?? defaultDb;
   const workerId = options.workerId ?? processWorkerId;
   const leaseMs = options.leaseMs ?? env.JOB_LEASE_MS;
+  // A job's writes (an ingest's palette, a repalette…) reach every server's search through the change log, whichever
+  // process runs it: an app server, a script or a test.
+  installSearchHooks();
   const job = await claim(workerId, { db, types: options.types, leaseMs });
   if (!job) return null;
   // Heartbeat: keep the lease while this process is alive; if the process dies the lease runs out and another

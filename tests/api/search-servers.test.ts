@@ -110,16 +110,20 @@ describe('search on one server sees every write made through another', () => {
     // The palette is written by the photo's ingest job (a server's worker, or this process), with its change-log
     // rows in the same transaction: B's shade index finds it through the log.
     const photoId = up.body.photos[0].id as number;
+    const shadeAt = (lab: { L: number; a: number; b: number }) =>
+      researcherB
+        .get('/api/search/shade')
+        .query({ ...lab, maxDeltaE: 1, q: word })
+        .expect(200);
+    // B reads the new photo before its palette exists; the palette must still reach B when the job writes it, even
+    // when the job runs in a process that serves nothing (here: this test's, through `ingested`).
+    expect((await shadeAt({ L: 50, a: 0, b: 0 })).body.items).toEqual([]);
     await ingested(photoId);
     const stored = (await curatorA.get(`/api/photos/${photoId}`).expect(200)).body.photo;
     const colour = (stored.palette as { lab: { L: number; a: number; b: number }; background: boolean }[]).find(
       (c) => !c.background,
     )!;
-    const shade = () =>
-      researcherB
-        .get('/api/search/shade')
-        .query({ ...colour.lab, maxDeltaE: 1, q: word })
-        .expect(200);
+    const shade = () => shadeAt(colour.lab);
     const hit = await shade();
     expect(hit.body.items.map((i: { pieceId: number }) => i.pieceId)).toEqual([id]);
     expect(hit.body.items[0].deltaE00).toBeLessThan(0.01);
